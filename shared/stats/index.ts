@@ -1,0 +1,9 @@
+// Quarterbeat statistics core: pure functions, no I/O.
+export * from "./quantiles";
+export * from "./wilson";
+export * from "./binomial";
+export * from "./funnel";
+export * from "./pchart";
+export * from "./kappa";
+export * from "./pareto";
+export * from "./change";
