@@ -1,0 +1,6 @@
+#!/usr/bin/env node
+// Runs the TypeScript CLI through tsx, so the installed command and `npm run cli` are the same code.
+import { register } from "tsx/esm/api";
+
+register();
+await import("../cli/main.ts");

@@ -1,0 +1,29 @@
+// Registers the commands; each lives in cli/commands/<name>.ts and ends in the one error handler.
+import { Command } from "commander";
+import { registerDb } from "./commands/db";
+import { registerUsers } from "./commands/users";
+import { closeContext } from "./context";
+import { handleError } from "./errors";
+
+export function buildProgram(): Command {
+  const program = new Command("quarterbeat")
+    .description("Quarterbeat: CPR training quality for a network of instructors")
+    .option("--db <file>", "SQLite database file (default: $QUARTERBEAT_DB, then data/quarterbeat.sqlite)")
+    .exitOverride()
+    .showHelpAfterError("(run with --help for usage)");
+  registerDb(program);
+  registerUsers(program);
+  return program;
+}
+
+export async function run(argv: string[]): Promise<number> {
+  try {
+    await buildProgram().parseAsync(argv);
+    return 0;
+  } catch (err) {
+    return handleError(err);
+  } finally {
+    closeContext();
+  }
+}
+

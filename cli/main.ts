@@ -1,0 +1,3 @@
+import { run } from "./index";
+
+process.exitCode = await run(process.argv);

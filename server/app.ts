@@ -1,0 +1,94 @@
+// Builds the Express app: security headers, sessions, sign-in, CSRF, the feature routers and the client.
+import fs from "node:fs";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+import cookieParser from "cookie-parser";
+import express, { Router } from "express";
+import session from "express-session";
+import helmet from "helmet";
+import type { Config } from "./config";
+import type { Db } from "./db/client";
+import { csrfRefused, createCsrf } from "./auth/csrf";
+import { createPassport } from "./auth/passport";
+import { authRoutes } from "./auth/routes";
+import { SqliteSessionStore } from "./auth/sessionStore";
+import { errorHandler, notFoundHandler } from "./http/errorHandler";
+import { sessionSecret } from "./settings/store";
+import { siteRoutes } from "./sites/routes";
+import { userRoutes } from "./users/routes";
+
+export interface AppOptions {
+  /** Sign-in attempts allowed per window and address. */
+  signInLimit?: { windowMs: number; limit: number };
+  /** Folder of the built client; omitted in API-only tests. */
+  clientDir?: string | null;
+}
+
+const defaultClientDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../dist/client");
+const VERSION = "1.0.0";
+
+/** Feature routers mounted under /api. Each one guards its own routes with `allow(...)`. */
+function featureRouters(db: Db): Router[] {
+  return [userRoutes(db), siteRoutes(db)];
+}
+
+export function createApp(db: Db, config: Config, options: AppOptions = {}) {
+  const production = config.nodeEnv === "production";
+  const secret = sessionSecret(db, config.sessionSecret);
+  const passport = createPassport(db);
+  const csrf = createCsrf(secret, production);
+  const app = express();
+
+  app.disable("x-powered-by");
+  if (production) app.set("trust proxy", 1);
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: { "img-src": ["'self'", "data:", "blob:"], "style-src": ["'self'", "'unsafe-inline'"] },
+      },
+    }),
+  );
+  app.use(express.json({ limit: "1mb" }));
+  app.use(
+    session({
+      name: "qb.sid",
+      secret,
+      store: new SqliteSessionStore(db),
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      cookie: { httpOnly: true, sameSite: "lax", secure: production, maxAge: 12 * 60 * 60 * 1000 },
+    }),
+  );
+  app.use(cookieParser());
+  app.use(passport.session());
+
+  const api = Router();
+  api.get("/health", (_req, res) => {
+    res.json({ ok: true, version: VERSION });
+  });
+  api.use((req, res, next) => {
+    csrf.doubleCsrfProtection(req, res, (err?: unknown) => next(err ? csrfRefused() : undefined));
+  });
+  api.use(
+    authRoutes({
+      db,
+      passport,
+      csrfToken: (req, res) => csrf.generateCsrfToken(req, res, { overwrite: true }),
+      signInLimit: options.signInLimit ?? { windowMs: 15 * 60 * 1000, limit: 10 },
+    }),
+  );
+  for (const router of featureRouters(db)) api.use(router);
+  api.use(notFoundHandler);
+  app.use("/api", api);
+
+  const clientDir = options.clientDir === undefined ? defaultClientDir : options.clientDir;
+  if (clientDir && fs.existsSync(path.join(clientDir, "index.html"))) {
+    app.use(express.static(clientDir, { index: false, maxAge: "1h" }));
+    // client-side routes: every other GET gets the app shell
+    app.get(/^\/(?!api\/).*/, (_req, res) => res.sendFile(path.join(clientDir, "index.html")));
+  }
+
+  app.use(errorHandler);
+  return app;
+}

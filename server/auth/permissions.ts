@@ -1,0 +1,25 @@
+// Who may do what: the one table every route's guard reads. Row scope (an instructor sees only their own
+// rows) is applied by the services through `rowScope`.
+import type { UserRole } from "../../shared/domain";
+
+export const permissions = {
+  manageUsers: ["coordinator"],
+  manageSites: ["coordinator"],
+  readDirectory: ["coordinator", "quality_lead"],
+  importData: ["coordinator", "instructor"],
+  undoImport: ["coordinator"],
+  readNetwork: ["coordinator", "quality_lead", "instructor"],
+  drillDown: ["coordinator", "quality_lead"],
+  readOwnStanding: ["instructor"],
+  readEquipment: ["coordinator", "quality_lead", "instructor"],
+  readReport: ["coordinator", "funder"],
+  sendReport: ["coordinator"],
+  readSettings: ["coordinator", "quality_lead"],
+  editSettings: ["coordinator"],
+} as const satisfies Record<string, readonly UserRole[]>;
+
+export type Permission = keyof typeof permissions;
+
+export function roleMay(role: UserRole, permission: Permission): boolean {
+  return (permissions[permission] as readonly UserRole[]).includes(role);
+}

@@ -1,0 +1,339 @@
+// The one source of Quarterbeat's table types. Tables and columns are snake_case in SQLite
+// (drizzle's `casing: "snake_case"`), camelCase in TypeScript.
+//
+// Shape decisions (see docs/decisions/001-data-model.md):
+// - Attempts carry copies of their class's quarter, site and instructor so that network statistics over a
+//   million attempts filter and group on one indexed table without joins.
+// - Attempt errors are stored as a bitmask (shared/scoring: bit i = attemptErrorNames[i]).
+// - Compression streams are stored compactly as one BLOB per attempt (server/streams/codec.ts).
+// - Rows written by an import carry the batch id so that a batch can be undone.
+import { sql } from "drizzle-orm";
+import { blob, index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
+import {
+  courseTypes,
+  equipmentEventTypes,
+  feedbackModes,
+  importKinds,
+  lengthUnits,
+  userRoles,
+} from "../../shared/domain";
+
+const patientTypes = ["infant", "child", "adult"] as const;
+
+const createdAt = () =>
+  text()
+    .notNull()
+    .default(sql`(strftime('%Y-%m-%dT%H:%M:%fZ', 'now'))`);
+
+/** Key/value network settings (network name, session secret, current policy version, …). */
+export const settings = sqliteTable("settings", {
+  key: text().primaryKey(),
+  value: text().notNull(),
+  updatedAt: createdAt(),
+});
+
+/** Every version of the network's scoring policy; scores record the version that produced them. */
+export const policyVersions = sqliteTable("policy_versions", {
+  version: integer().primaryKey(),
+  policy: text({ mode: "json" }).notNull(),
+  note: text().notNull().default(""),
+  createdBy: integer().references(() => users.id),
+  createdAt: createdAt(),
+});
+
+export const sites = sqliteTable("sites", {
+  id: integer().primaryKey({ autoIncrement: true }),
+  code: text().notNull().unique(),
+  name: text().notNull(),
+  active: integer({ mode: "boolean" }).notNull().default(true),
+  createdAt: createdAt(),
+});
+
+export const instructors = sqliteTable(
+  "instructors",
+  {
+    id: integer().primaryKey({ autoIncrement: true }),
+    code: text().notNull().unique(),
+    name: text().notNull(),
+    siteId: integer().references(() => sites.id),
+    active: integer({ mode: "boolean" }).notNull().default(true),
+    createdAt: createdAt(),
+  },
+  (t) => [index("instructors_site_idx").on(t.siteId)],
+);
+
+export const users = sqliteTable("users", {
+  id: integer().primaryKey({ autoIncrement: true }),
+  email: text().notNull().unique(),
+  displayName: text().notNull(),
+  passwordHash: text().notNull(),
+  role: text({ enum: userRoles }).notNull(),
+  instructorId: integer().references(() => instructors.id),
+  active: integer({ mode: "boolean" }).notNull().default(true),
+  lengthUnit: text({ enum: lengthUnits })
+    .notNull()
+    .default("mm"),
+  createdAt: createdAt(),
+});
+
+/** express-session rows (server/auth/sessionStore.ts). */
+export const sessions = sqliteTable(
+  "sessions",
+  {
+    sid: text().primaryKey(),
+    sess: text().notNull(),
+    expiresAt: integer().notNull(), // epoch ms
+  },
+  (t) => [index("sessions_expires_idx").on(t.expiresAt)],
+);
+
+export const manikins = sqliteTable(
+  "manikins",
+  {
+    id: integer().primaryKey({ autoIncrement: true }),
+    assetId: text().notNull().unique(),
+    patientType: text({ enum: patientTypes }),
+    siteId: integer().references(() => sites.id),
+    inServiceSince: text(), // YYYY-MM-DD
+    retiredOn: text(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("manikins_site_idx").on(t.siteId)],
+);
+
+export const importBatches = sqliteTable("import_batches", {
+  id: integer().primaryKey({ autoIncrement: true }),
+  kind: text({ enum: importKinds }).notNull(),
+  fileName: text().notNull(),
+  sha256: text().notNull(),
+  userId: integer().references(() => users.id),
+  source: text({ enum: ["cli", "web", "seed"] }).notNull(),
+  status: text({ enum: ["applied", "undone"] })
+    .notNull()
+    .default("applied"),
+  rowsRead: integer().notNull().default(0),
+  inserted: integer().notNull().default(0),
+  updated: integer().notNull().default(0),
+  unchanged: integer().notNull().default(0),
+  rejected: integer().notNull().default(0),
+  newCodes: text({ mode: "json" }).$type<Record<string, string[]>>(),
+  warnings: text({ mode: "json" }).$type<string[]>(),
+  createdAt: createdAt(),
+  undoneAt: text(),
+  undoneBy: integer().references(() => users.id),
+});
+
+/** Rows refused by an import run with --skip-invalid, kept with their batch for correction. */
+export const rejectedRows = sqliteTable(
+  "rejected_rows",
+  {
+    id: integer().primaryKey({ autoIncrement: true }),
+    batchId: integer()
+      .notNull()
+      .references(() => importBatches.id, { onDelete: "cascade" }),
+    rowNumber: integer().notNull(), // 1 = first data row after the header
+    column: text(),
+    reason: text().notNull(),
+    raw: text({ mode: "json" }).$type<Record<string, string>>(),
+  },
+  (t) => [index("rejected_rows_batch_idx").on(t.batchId)],
+);
+
+/** Previous values of rows an import updated, so an undo can put them back. */
+export const batchChanges = sqliteTable(
+  "batch_changes",
+  {
+    id: integer().primaryKey({ autoIncrement: true }),
+    batchId: integer()
+      .notNull()
+      .references(() => importBatches.id, { onDelete: "cascade" }),
+    tableName: text().notNull(),
+    rowKey: text().notNull(),
+    previous: text({ mode: "json" }).notNull(),
+  },
+  (t) => [index("batch_changes_batch_idx").on(t.batchId)],
+);
+
+export const importPresets = sqliteTable("import_presets", {
+  id: integer().primaryKey({ autoIncrement: true }),
+  name: text().notNull().unique(),
+  kind: text({ enum: importKinds }).notNull(),
+  mapping: text({ mode: "json" }).notNull(),
+  createdBy: integer().references(() => users.id),
+  createdAt: createdAt(),
+});
+
+export const classes = sqliteTable(
+  "classes",
+  {
+    id: text().primaryKey(), // class_id from the class log
+    date: text().notNull(), // YYYY-MM-DD
+    quarter: text().notNull(), // e.g. 2026-Q3, derived from date
+    siteId: integer()
+      .notNull()
+      .references(() => sites.id),
+    instructorId: integer()
+      .notNull()
+      .references(() => instructors.id),
+    course: text({ enum: courseTypes }).notNull(),
+    learners: integer().notNull(),
+    passed: integer().notNull(),
+    manikins: text().notNull().default(""), // asset ids separated by ';' as logged
+    lungsReplaced: integer(),
+    mouthpiecesCleaned: integer(),
+    batteriesReplaced: integer(),
+    batchId: integer().references(() => importBatches.id),
+  },
+  (t) => [
+    index("classes_quarter_idx").on(t.quarter),
+    index("classes_instructor_idx").on(t.instructorId, t.quarter),
+    index("classes_site_idx").on(t.siteId, t.quarter),
+  ],
+);
+
+export const attempts = sqliteTable(
+  "attempts",
+  {
+    id: text().primaryKey(), // attempt_id
+    classId: text()
+      .notNull()
+      .references(() => classes.id),
+    learner: text().notNull(), // pseudonymous code, never a name
+    manikinId: integer().references(() => manikins.id),
+    profile: text({ enum: patientTypes }).notNull(),
+    feedback: text({ enum: feedbackModes }).notNull(),
+    startedAt: text().notNull(),
+    // copies of the class's values, for joinless statistics
+    quarter: text().notNull(),
+    siteId: integer().notNull(),
+    instructorId: integer().notNull(),
+    // summary metrics (device summary or computed from the stream)
+    durationS: real().notNull(),
+    compressions: integer().notNull(),
+    rateCpm: real().notNull(),
+    depthMm: real().notNull(),
+    depthOkPct: real().notNull(),
+    tooShallowPct: real().notNull(),
+    tooDeepPct: real().notNull(),
+    rateOkPct: real().notNull(),
+    tooSlowPct: real().notNull(),
+    tooFastPct: real().notNull(),
+    recoilOkPct: real().notNull(),
+    handsOnPct: real().notNull(),
+    longestPauseS: real().notNull(),
+    pauses: integer(), // only known for stream-derived attempts
+    pausesOver10s: integer(),
+    instructorResult: text({ enum: ["pass", "fail"] }),
+    source: text({ enum: ["summary", "stream"] }).notNull(),
+    // Quarterbeat's own score under a policy version
+    score: real().notNull(),
+    passed: integer({ mode: "boolean" }).notNull(),
+    errorMask: integer().notNull(),
+    policyVersion: integer()
+      .notNull()
+      .references(() => policyVersions.version),
+    batchId: integer().references(() => importBatches.id),
+  },
+  (t) => [
+    index("attempts_quarter_idx").on(t.quarter, t.profile, t.feedback),
+    index("attempts_instructor_idx").on(t.instructorId, t.quarter),
+    index("attempts_site_idx").on(t.siteId, t.quarter),
+    index("attempts_class_idx").on(t.classId),
+    index("attempts_manikin_idx").on(t.manikinId, t.quarter),
+    index("attempts_batch_idx").on(t.batchId),
+  ],
+);
+
+/** Raw compressions of an attempt, packed (server/streams/codec.ts). */
+export const compressionStreams = sqliteTable("compression_streams", {
+  attemptId: text()
+    .primaryKey()
+    .references(() => attempts.id, { onDelete: "cascade" }),
+  compressions: integer().notNull(),
+  data: blob({ mode: "buffer" }).notNull(),
+  batchId: integer().references(() => importBatches.id),
+});
+
+/** Earlier scores of an attempt, kept when the network rescores under a new policy version. */
+export const scoreHistory = sqliteTable(
+  "score_history",
+  {
+    attemptId: text()
+      .notNull()
+      .references(() => attempts.id, { onDelete: "cascade" }),
+    policyVersion: integer().notNull(),
+    score: real().notNull(),
+    passed: integer({ mode: "boolean" }).notNull(),
+    errorMask: integer().notNull(),
+    replacedAt: createdAt(),
+  },
+  (t) => [primaryKey({ columns: [t.attemptId, t.policyVersion] })],
+);
+
+export const equipmentEvents = sqliteTable(
+  "equipment_events",
+  {
+    id: integer().primaryKey({ autoIncrement: true }),
+    // natural key of an imported event, so a re-import of the same file is recognised as unchanged
+    eventKey: text().notNull(),
+    date: text().notNull(),
+    manikinId: integer()
+      .notNull()
+      .references(() => manikins.id),
+    siteId: integer().references(() => sites.id),
+    event: text({ enum: equipmentEventTypes }).notNull(),
+    quantity: integer().notNull().default(1),
+    note: text().notNull().default(""),
+    resolved: integer({ mode: "boolean" }).notNull().default(false), // faults only
+    batchId: integer().references(() => importBatches.id),
+  },
+  (t) => [uniqueIndex("equipment_events_key_idx").on(t.eventKey), index("equipment_manikin_idx").on(t.manikinId, t.date)],
+);
+
+/** The coordinator's text for a quarter's report: what the network is doing about the errors found. */
+export const quarterNotes = sqliteTable("quarter_notes", {
+  quarter: text().primaryKey(),
+  actions: text().notNull(),
+  updatedBy: integer().references(() => users.id),
+  updatedAt: createdAt(),
+});
+
+/** Generated funder reports; a sent report can be downloaded again byte for byte. */
+export const reports = sqliteTable(
+  "reports",
+  {
+    id: integer().primaryKey({ autoIncrement: true }),
+    period: text().notNull(), // 2026-Q3 or 2026
+    version: integer().notNull(),
+    data: text({ mode: "json" }).notNull(),
+    pdf: blob({ mode: "buffer" }).notNull(),
+    createdBy: integer().references(() => users.id),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("reports_period_version_idx").on(t.period, t.version)],
+);
+
+export const reportSends = sqliteTable("report_sends", {
+  id: integer().primaryKey({ autoIncrement: true }),
+  reportId: integer()
+    .notNull()
+    .references(() => reports.id),
+  sentBy: integer().references(() => users.id),
+  recipients: text({ mode: "json" }).$type<string[]>().notNull(),
+  status: text({ enum: ["sent", "failed"] }).notNull(),
+  error: text(),
+  messageId: text(),
+  createdAt: createdAt(),
+});
+
+/** Messages received by the local mail service that stands in for a hosted SMTP server. */
+export const mailbox = sqliteTable("mailbox", {
+  id: integer().primaryKey({ autoIncrement: true }),
+  receivedAt: createdAt(),
+  mailFrom: text().notNull(),
+  recipients: text({ mode: "json" }).$type<string[]>().notNull(),
+  subject: text().notNull(),
+  text: text().notNull(),
+  attachments: text({ mode: "json" }).$type<{ filename: string; contentType: string; size: number }[]>().notNull(),
+  raw: blob({ mode: "buffer" }).notNull(),
+});

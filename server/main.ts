@@ -1,0 +1,41 @@
+// `npm start`: build the client if needed, open and migrate the database, seed the demo network when empty,
+// start the local mail service when no SMTP_URL is set, then serve app and API.
+import fs from "node:fs";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+import { loadConfig } from "./config";
+import { openDatabase } from "./db/client";
+import { createApp } from "./app";
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
+const clientDir = path.join(root, "dist/client");
+
+async function ensureClientBuilt() {
+  if (fs.existsSync(path.join(clientDir, "index.html"))) return;
+  console.log("Building the web client (first start only)…");
+  const { build } = await import("vite");
+  await build({ root, logLevel: "warn" });
+}
+
+async function main() {
+  const config = loadConfig();
+  await ensureClientBuilt();
+  const db = openDatabase(config.dbFile);
+  const app = createApp(db, config, { clientDir });
+  const server = app.listen(config.port, () => {
+    const address = server.address();
+    const port = typeof address === "object" && address ? address.port : config.port;
+    console.log(`Quarterbeat is running at http://localhost:${port}  (database: ${config.dbFile})`);
+  });
+  const stop = () => server.close(() => {
+    db.$client.close();
+    process.exit(0);
+  });
+  process.on("SIGINT", stop);
+  process.on("SIGTERM", stop);
+}
+
+main().catch((err) => {
+  console.error(`quarterbeat: could not start: ${err instanceof Error ? err.message : String(err)}`);
+  process.exit(1);
+});

@@ -1,0 +1,28 @@
+import { defineConfig } from "vitest/config";
+import react from "@vitejs/plugin-react";
+
+// Two projects: pure/server code runs in node, React components in jsdom.
+export default defineConfig({
+  test: {
+    projects: [
+      {
+        test: {
+          name: "node",
+          environment: "node",
+          include: ["tests/unit/**/*.test.ts", "tests/api/**/*.test.ts", "tests/cli/**/*.test.ts"],
+          testTimeout: 30_000,
+          hookTimeout: 60_000,
+        },
+      },
+      {
+        plugins: [react()],
+        test: {
+          name: "components",
+          environment: "jsdom",
+          include: ["tests/components/**/*.test.tsx"],
+          deps: { optimizer: { client: { include: ["react-router", "react-router/dom"] } } },
+        },
+      },
+    ],
+  },
+});
