@@ -29,6 +29,8 @@ export function authRoutes({ db, passport, csrfToken, signInLimit }: Deps): Rout
     limit: signInLimit.limit,
     standardHeaders: "draft-8",
     legacyHeaders: false,
+    // only failed attempts count, so a busy training room behind one address can still sign in
+    skipSuccessfulRequests: true,
     handler: (_req, res) => {
       res.status(429).json({
         error: { code: "rate_limited", message: "Too many sign-in attempts from here. Wait a few minutes, then try again." },
