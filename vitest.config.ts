@@ -10,7 +10,7 @@ export default defineConfig({
           name: "node",
           environment: "node",
           include: ["tests/unit/**/*.test.ts", "tests/api/**/*.test.ts", "tests/cli/**/*.test.ts"],
-          testTimeout: 30_000,
+          testTimeout: 60_000,
           hookTimeout: 60_000,
         },
       },

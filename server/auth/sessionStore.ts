@@ -4,9 +4,11 @@ import session from "express-session";
 import type { Db } from "../db/client";
 
 const DAY_MS = 24 * 60 * 60 * 1000;
+const TOUCH_EVERY_MS = 5 * 60 * 1000;
 
 export class SqliteSessionStore extends session.Store {
   private readonly statements;
+  private readonly lastTouched = new Map<string, number>();
 
   constructor(db: Db) {
     super();
@@ -46,13 +48,20 @@ export class SqliteSessionStore extends session.Store {
   }
 
   override touch(sid: string, sess: session.SessionData, callback?: () => void): void {
-    this.statements.touch.run(SqliteSessionStore.expiry(sess), sid);
+    // Reads should not write: extend a session's expiry at most every few minutes, so dashboards keep
+    // working without waiting for the write lock while an import holds it.
+    const now = Date.now();
+    if (now - (this.lastTouched.get(sid) ?? 0) > TOUCH_EVERY_MS) {
+      this.statements.touch.run(SqliteSessionStore.expiry(sess), sid);
+      this.lastTouched.set(sid, now);
+    }
     callback?.();
   }
 
   override destroy(sid: string, callback?: (err?: unknown) => void): void {
     try {
       this.statements.destroy.run(sid);
+      this.lastTouched.delete(sid);
       callback?.();
     } catch (err) {
       callback?.(err);
