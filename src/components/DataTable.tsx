@@ -1,0 +1,236 @@
+// A table for any list: sortable columns, a filter box, and "Export CSV" of exactly the rows shown.
+import clsx from "clsx";
+import { useId, useMemo, useState, type ReactNode } from "react";
+import { downloadCsv, toCsv, type CsvValue } from "../lib/csv";
+
+export type CellValue = string | number | boolean | null | undefined;
+
+export interface Column<Row> {
+  key: string;
+  header: string;
+  /** The cell's plain value: used to sort, to filter and in the CSV. */
+  value: (row: Row) => CellValue;
+  /** How the cell looks on screen; defaults to the value as text. */
+  render?: (row: Row) => ReactNode;
+  /** Columns sort unless this is false (e.g. a column of buttons). */
+  sortable?: boolean;
+  /** Leave the column out of the CSV (e.g. action buttons). */
+  exportable?: boolean;
+  align?: "left" | "right";
+}
+
+export interface SortState {
+  key: string;
+  direction: "asc" | "desc";
+}
+
+export interface DataTableProps<Row> {
+  /** Names the table for screen readers and in the export; shown above the table unless captionHidden. */
+  caption: string;
+  captionHidden?: boolean;
+  columns: readonly Column<Row>[];
+  rows: readonly Row[];
+  rowKey: (row: Row) => string | number;
+  initialSort?: SortState;
+  /** Show the filter box (default true). */
+  filterable?: boolean;
+  /** Offer "Export CSV" under this file name. */
+  exportFileName?: string;
+  emptyMessage?: string;
+  /** Extra controls beside the filter box. */
+  toolbar?: ReactNode;
+}
+
+const collator = new Intl.Collator(undefined, { numeric: true, sensitivity: "base" });
+
+function displayText(value: CellValue): string {
+  if (value === null || value === undefined) return "";
+  if (typeof value === "boolean") return value ? "Yes" : "No";
+  return String(value);
+}
+
+function compareValues(a: CellValue, b: CellValue): number {
+  if (typeof a === "number" && typeof b === "number") return a - b;
+  if (typeof a === "boolean" && typeof b === "boolean") return Number(a) - Number(b);
+  return collator.compare(displayText(a), displayText(b));
+}
+
+/** Sorted copy; empty cells go last in both directions so they never crowd the top. */
+export function sortRows<Row>(rows: readonly Row[], columns: readonly Column<Row>[], sort: SortState | null): Row[] {
+  const column = sort && columns.find((c) => c.key === sort.key);
+  if (!sort || !column) return [...rows];
+  const sign = sort.direction === "asc" ? 1 : -1;
+  return [...rows].sort((left, right) => {
+    const a = column.value(left);
+    const b = column.value(right);
+    const aEmpty = a === null || a === undefined || a === "";
+    const bEmpty = b === null || b === undefined || b === "";
+    if (aEmpty || bEmpty) return aEmpty === bEmpty ? 0 : aEmpty ? 1 : -1;
+    return sign * compareValues(a, b);
+  });
+}
+
+/** Rows where any column's text contains every word of the filter (case-insensitive). */
+export function filterRows<Row>(rows: readonly Row[], columns: readonly Column<Row>[], filter: string): Row[] {
+  const words = filter.toLowerCase().split(/\s+/).filter(Boolean);
+  if (words.length === 0) return [...rows];
+  return rows.filter((row) => {
+    const text = columns.map((c) => displayText(c.value(row)).toLowerCase()).join("\u0000");
+    return words.every((word) => text.includes(word));
+  });
+}
+
+/** The CSV of the given rows, exportable columns only, headers as shown. */
+export function tableToCsv<Row>(columns: readonly Column<Row>[], rows: readonly Row[]): string {
+  const exported = columns.filter((c) => c.exportable !== false);
+  return toCsv(
+    exported.map((c) => c.header),
+    rows.map((row) => exported.map((c) => c.value(row) as CsvValue)),
+  );
+}
+
+export function DataTable<Row>({
+  caption,
+  captionHidden = false,
+  columns,
+  rows,
+  rowKey,
+  initialSort,
+  filterable = true,
+  exportFileName,
+  emptyMessage = "Nothing to show.",
+  toolbar,
+}: DataTableProps<Row>) {
+  const [sort, setSort] = useState<SortState | null>(initialSort ?? null);
+  const [filter, setFilter] = useState("");
+  const filterId = useId();
+  const countId = useId();
+
+  const shown = useMemo(() => sortRows(filterRows(rows, columns, filter), columns, sort), [rows, columns, filter, sort]);
+
+  function toggleSort(key: string) {
+    setSort((current) =>
+      current?.key === key ? { key, direction: current.direction === "asc" ? "desc" : "asc" } : { key, direction: "asc" },
+    );
+  }
+
+  const showToolbar = filterable || exportFileName || toolbar;
+
+  return (
+    <div className="flex flex-col gap-3">
+      {showToolbar && (
+        <div className="flex flex-wrap items-end gap-3">
+          {filterable && (
+            <div className="flex min-w-[min(100%,16rem)] flex-1 flex-col gap-1 sm:max-w-sm">
+              <label htmlFor={filterId} className="text-small font-semibold">
+                Filter {caption.toLowerCase()}
+              </label>
+              <input
+                id={filterId}
+                type="search"
+                value={filter}
+                onChange={(event) => setFilter(event.target.value)}
+                aria-describedby={countId}
+                placeholder="Type to filter rows"
+                className="min-h-11 w-full rounded-control border border-line-strong bg-surface px-3 text-body placeholder:text-muted"
+              />
+            </div>
+          )}
+          {toolbar}
+          {exportFileName && (
+            <button
+              type="button"
+              onClick={() => downloadCsv(exportFileName, tableToCsv(columns, shown))}
+              disabled={shown.length === 0}
+              className="inline-flex min-h-11 items-center gap-2 rounded-control border border-line-strong bg-surface px-4 font-medium text-dusk-800 hover:bg-dusk-50 disabled:opacity-60"
+            >
+              <svg viewBox="0 0 20 20" className="size-4" aria-hidden="true">
+                <path d="M10 3v9m0 0-3.5-3.5M10 12l3.5-3.5M4 14v2.5h12V14" fill="none" stroke="currentColor" strokeWidth="1.8" strokeLinecap="round" strokeLinejoin="round" />
+              </svg>
+              Export CSV
+            </button>
+          )}
+        </div>
+      )}
+      <p id={countId} className="text-caption text-muted" aria-live="polite">
+        {filter ? `Showing ${shown.length} of ${rows.length} rows` : `${rows.length} ${rows.length === 1 ? "row" : "rows"}`}
+      </p>
+      <div
+        className="overflow-x-auto rounded-card border border-line bg-surface shadow-card"
+        role="region"
+        aria-label={caption}
+        tabIndex={0}
+      >
+        <table className="w-full border-collapse text-left text-small">
+          <caption className={clsx("px-4 pt-3 text-left text-body font-semibold", captionHidden && "sr-only")}>
+            {caption}
+          </caption>
+          <thead>
+            <tr className="border-b border-line-strong">
+              {columns.map((column) => {
+                const sortable = column.sortable !== false;
+                const active = sort?.key === column.key;
+                return (
+                  <th
+                    key={column.key}
+                    scope="col"
+                    aria-sort={active ? (sort.direction === "asc" ? "ascending" : "descending") : sortable ? "none" : undefined}
+                    className={clsx("px-4 py-2 font-semibold whitespace-nowrap text-muted", column.align === "right" && "text-right")}
+                  >
+                    {sortable ? (
+                      <button
+                        type="button"
+                        onClick={() => toggleSort(column.key)}
+                        className={clsx(
+                          "inline-flex items-center gap-1 rounded-sm hover:text-ink",
+                          active && "text-ink",
+                          column.align === "right" && "flex-row-reverse",
+                        )}
+                      >
+                        {column.header}
+                        <SortMark direction={active ? sort.direction : null} />
+                      </button>
+                    ) : (
+                      column.header
+                    )}
+                  </th>
+                );
+              })}
+            </tr>
+          </thead>
+          <tbody>
+            {shown.length === 0 ? (
+              <tr>
+                <td colSpan={columns.length} className="px-4 py-6 text-muted">
+                  {rows.length === 0 ? emptyMessage : "No rows match the filter."}
+                </td>
+              </tr>
+            ) : (
+              shown.map((row) => (
+                <tr key={rowKey(row)} className="border-b border-line last:border-b-0 hover:bg-paper">
+                  {columns.map((column) => (
+                    <td
+                      key={column.key}
+                      className={clsx("px-4 py-2 align-middle", column.align === "right" && "text-right tabular-nums")}
+                    >
+                      {column.render ? column.render(row) : displayText(column.value(row))}
+                    </td>
+                  ))}
+                </tr>
+              ))
+            )}
+          </tbody>
+        </table>
+      </div>
+    </div>
+  );
+}
+
+function SortMark({ direction }: { direction: "asc" | "desc" | null }) {
+  return (
+    <svg viewBox="0 0 10 14" className="h-3.5 w-2.5 shrink-0" aria-hidden="true">
+      <path d="M5 1 9 5.5H1z" fill="currentColor" opacity={direction === "asc" ? 1 : 0.3} />
+      <path d="M5 13 1 8.5h8z" fill="currentColor" opacity={direction === "desc" ? 1 : 0.3} />
+    </svg>
+  );
+}

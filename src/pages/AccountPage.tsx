@@ -1,0 +1,164 @@
+// My account: who I am, my password, and the unit lengths are shown in.
+import { useState } from "react";
+import { lengthUnits, roleLabels } from "../../shared/domain";
+import { changePasswordSchema } from "../../shared/schemas/auth";
+import { formatLength, type LengthUnit } from "../../shared/units";
+import { Button } from "../components/Button";
+import { Input } from "../components/Field";
+import { Notice } from "../components/Notice";
+import { PageHeader } from "../components/PageHeader";
+import { errorMessage } from "../components/States";
+import { useChangePassword, useUpdateLengthUnit } from "../features/auth/mutations";
+import { useCurrentUser } from "../features/auth/useSession";
+import { lengthUnitNames } from "../lib/useLengthUnit";
+import { useZodForm } from "../lib/useZodForm";
+
+export default function AccountPage() {
+  const user = useCurrentUser();
+  return (
+    <div>
+      <PageHeader title="My account" description="Your details, your password and how Quarterbeat shows lengths to you." />
+      <div className="grid gap-6 lg:grid-cols-2">
+        <section aria-labelledby="account-details" className="rounded-card border border-line bg-surface p-5 shadow-card">
+          <h2 id="account-details" className="mb-3 text-title">
+            Details
+          </h2>
+          <dl className="grid grid-cols-[auto_1fr] gap-x-6 gap-y-2">
+            <dt className="text-muted">Name</dt>
+            <dd className="font-medium">{user.displayName}</dd>
+            <dt className="text-muted">E-mail</dt>
+            <dd className="font-medium break-all">{user.email}</dd>
+            <dt className="text-muted">Role</dt>
+            <dd className="font-medium">{roleLabels[user.role]}</dd>
+          </dl>
+          <p className="mt-4 text-small text-muted">To change your name, e-mail or role, ask your regional coordinator.</p>
+        </section>
+        <LengthUnitSection unit={user.lengthUnit} />
+        <ChangePasswordSection email={user.email} />
+      </div>
+    </div>
+  );
+}
+
+const exampleDepthMm = 50.8; // 2 in, a common adult depth figure: shows the rounding of each unit
+
+function LengthUnitSection({ unit }: { unit: LengthUnit }) {
+  const update = useUpdateLengthUnit();
+  const [message, setMessage] = useState<{ tone: "success" | "error"; text: string } | null>(null);
+
+  function choose(next: LengthUnit) {
+    setMessage(null);
+    update.mutate(next, {
+      onSuccess: () => setMessage({ tone: "success", text: `Saved. Lengths now show in ${lengthUnitNames[next]}.` }),
+      onError: (error) => setMessage({ tone: "error", text: `Not saved: ${errorMessage(error)}` }),
+    });
+  }
+
+  return (
+    <section aria-labelledby="account-units" className="rounded-card border border-line bg-surface p-5 shadow-card">
+      <h2 id="account-units" className="mb-1 text-title">
+        Length unit
+      </h2>
+      <p className="mb-3 text-small text-muted">Used for compression depth and recoil everywhere in Quarterbeat. Saved as soon as you choose.</p>
+      <fieldset disabled={update.isPending}>
+        <legend className="sr-only">Show lengths in</legend>
+        <div className="flex flex-col gap-2">
+          {lengthUnits.map((option) => (
+            <label
+              key={option}
+              className="flex min-h-11 cursor-pointer items-center gap-3 rounded-control border border-line px-3 has-checked:border-dusk-600 has-checked:bg-dusk-50"
+            >
+              <input
+                type="radio"
+                name="lengthUnit"
+                value={option}
+                checked={(update.isPending ? update.variables : unit) === option}
+                onChange={() => choose(option)}
+                className="size-4 accent-dusk-700"
+              />
+              <span className="font-medium capitalize">{lengthUnitNames[option]}</span>
+              <span className="ml-auto text-small text-muted tabular-nums">e.g. {formatLength(exampleDepthMm, option)}</span>
+            </label>
+          ))}
+        </div>
+      </fieldset>
+      {message && (
+        <Notice tone={message.tone} className="mt-3">
+          {message.text}
+        </Notice>
+      )}
+    </section>
+  );
+}
+
+const emptyPasswords = { currentPassword: "", newPassword: "", confirmPassword: "" };
+
+function ChangePasswordSection({ email }: { email: string }) {
+  const change = useChangePassword();
+  const form = useZodForm(changePasswordSchema, emptyPasswords);
+  const [saved, setSaved] = useState(false);
+
+  const submit = form.handleSubmit((values) => {
+    setSaved(false);
+    change.mutate(values, {
+      onSuccess: () => {
+        form.reset(emptyPasswords);
+        setSaved(true);
+      },
+      onError: form.showServerError,
+    });
+  });
+
+  return (
+    <section aria-labelledby="account-password" className="rounded-card border border-line bg-surface p-5 shadow-card lg:col-span-1">
+      <h2 id="account-password" className="mb-3 text-title">
+        Change password
+      </h2>
+      {saved && (
+        <Notice tone="success" className="mb-3">
+          Password changed. Use the new one next time you sign in.
+        </Notice>
+      )}
+      {form.formError && (
+        <Notice tone="error" className="mb-3">
+          {form.formError}
+        </Notice>
+      )}
+      <form noValidate onSubmit={submit} className="flex flex-col gap-4">
+        {/* Lets password managers file the new password under the right account. */}
+        <input type="email" name="username" autoComplete="username" value={email} readOnly hidden />
+        <Input
+          label="Current password"
+          name="currentPassword"
+          type="password"
+          autoComplete="current-password"
+          value={form.values.currentPassword}
+          onChange={(event) => form.setValue("currentPassword", event.target.value)}
+          error={form.errors.currentPassword}
+        />
+        <Input
+          label="New password"
+          name="newPassword"
+          type="password"
+          autoComplete="new-password"
+          hint="At least 10 characters. A few unrelated words make a strong password that is easy to type."
+          value={form.values.newPassword}
+          onChange={(event) => form.setValue("newPassword", event.target.value)}
+          error={form.errors.newPassword}
+        />
+        <Input
+          label="New password again"
+          name="confirmPassword"
+          type="password"
+          autoComplete="new-password"
+          value={form.values.confirmPassword}
+          onChange={(event) => form.setValue("confirmPassword", event.target.value)}
+          error={form.errors.confirmPassword}
+        />
+        <Button type="submit" busy={change.isPending} className="self-start">
+          Change password
+        </Button>
+      </form>
+    </section>
+  );
+}

@@ -1,0 +1,112 @@
+import { useState } from "react";
+import { Navigate, useNavigate, useSearchParams } from "react-router";
+import { signInSchema } from "../../shared/schemas/auth";
+import { ApiError } from "../api/http";
+import { SkipLink } from "../app/AppLayout";
+import { useDocumentTitle } from "../app/RouteGuard";
+import { homePathFor } from "../app/routes";
+import { Button } from "../components/Button";
+import { Input } from "../components/Field";
+import { Logo } from "../components/Logo";
+import { Notice } from "../components/Notice";
+import { LoadingState } from "../components/States";
+import { useSignIn } from "../features/auth/mutations";
+import { useSession } from "../features/auth/useSession";
+import { safeNextPath } from "../lib/safeNext";
+import { useZodForm } from "../lib/useZodForm";
+
+/** One message for every wrong e-mail/password combination, so the form does not reveal which accounts exist. */
+export const wrongCredentialsMessage = "That e-mail address and password do not match an active account. Check both and try again.";
+
+function rateLimitMessage(error: ApiError): string {
+  const details = error.details as { retryAfterSeconds?: unknown } | undefined;
+  const seconds = typeof details?.retryAfterSeconds === "number" ? details.retryAfterSeconds : null;
+  const wait = seconds ? `about ${Math.max(1, Math.ceil(seconds / 60))} minute${seconds > 60 ? "s" : ""}` : "a few minutes";
+  return `Too many sign-in attempts from here. For your account's safety, sign-in is paused: wait ${wait}, then try again.`;
+}
+
+export default function SignInPage() {
+  useDocumentTitle("Sign in");
+  const session = useSession();
+  const [params] = useSearchParams();
+  const navigate = useNavigate();
+  const signIn = useSignIn();
+  const form = useZodForm(signInSchema, { email: "", password: "" });
+  const [problem, setProblem] = useState<{ tone: "error"; text: string } | null>(null);
+  const next = safeNextPath(params.get("next"));
+
+  if (session.isPending) return <LoadingState label="Checking your session…" />;
+  if (session.data && !signIn.isPending && !signIn.isSuccess) {
+    return <Navigate to={next ?? homePathFor(session.data.user.role)} replace />;
+  }
+
+  const submit = form.handleSubmit((credentials) => {
+    setProblem(null);
+    signIn.mutate(credentials, {
+      onSuccess: (answer) => navigate(next ?? homePathFor(answer.user.role), { replace: true }),
+      onError: (error) => {
+        if (error instanceof ApiError && error.status === 401) setProblem({ tone: "error", text: wrongCredentialsMessage });
+        else if (error instanceof ApiError && error.status === 429) setProblem({ tone: "error", text: rateLimitMessage(error) });
+        else if (error instanceof ApiError && error.status === 422) form.showServerError(error);
+        else if (error instanceof ApiError) setProblem({ tone: "error", text: error.message });
+        else setProblem({ tone: "error", text: "Quarterbeat could not be reached. Check the connection and try again." });
+      },
+    });
+  });
+
+  return (
+    <div className="flex min-h-screen flex-col items-center bg-paper px-4 py-10 sm:py-16">
+      <SkipLink />
+      <main id="main" tabIndex={-1} className="w-full max-w-md outline-none">
+        <div className="mb-8 flex justify-center">
+          <Logo tone="onLight" className="scale-125" />
+        </div>
+        <div className="rounded-card border border-line bg-surface p-6 shadow-card sm:p-8">
+          <h1 className="text-headline">Sign in</h1>
+          <p className="mt-1 mb-6 text-muted">CPR training quality for your network.</p>
+          {next && !problem && (
+            <Notice tone="info" className="mb-4">
+              Sign in to continue to the page you asked for.
+            </Notice>
+          )}
+          {(problem || form.formError) && (
+            <Notice tone="error" className="mb-4">
+              {problem?.text ?? form.formError}
+            </Notice>
+          )}
+          <form noValidate onSubmit={submit} className="flex flex-col gap-4">
+            <Input
+              label="E-mail address"
+              name="email"
+              type="email"
+              autoComplete="username"
+              inputMode="email"
+              spellCheck={false}
+              value={form.values.email}
+              onChange={(event) => form.setValue("email", event.target.value)}
+              error={form.errors.email}
+            />
+            <Input
+              label="Password"
+              name="password"
+              type="password"
+              autoComplete="current-password"
+              value={form.values.password}
+              onChange={(event) => form.setValue("password", event.target.value)}
+              error={form.errors.password}
+            />
+            <Button type="submit" busy={signIn.isPending} className="mt-2 w-full">
+              {signIn.isPending ? "Signing in…" : "Sign in"}
+            </Button>
+          </form>
+          <p className="mt-6 text-small text-muted">
+            Forgotten your password? Ask your regional coordinator to set a temporary one.
+          </p>
+        </div>
+        <p className="mt-6 text-center text-caption text-muted">
+          Quarterbeat is a training-quality tool, not a medical device.
+        </p>
+      </main>
+    </div>
+  );
+}
