@@ -1,5 +1,6 @@
 // Registers the commands; each lives in cli/commands/<name>.ts and ends in the one error handler.
 import { Command } from "commander";
+import { registerBackup } from "./commands/backup";
 import { registerDb } from "./commands/db";
 import { registerUsers } from "./commands/users";
 import { closeContext } from "./context";
@@ -12,6 +13,7 @@ export function buildProgram(): Command {
     .exitOverride()
     .showHelpAfterError("(run with --help for usage)");
   registerDb(program);
+  registerBackup(program);
   registerUsers(program);
   return program;
 }
