@@ -1,0 +1,77 @@
+import { cleanup, fireEvent, screen, waitFor, within } from "@testing-library/react";
+import { lazy } from "react";
+import { afterEach, describe, expect, it, vi } from "vitest";
+import { homePathFor, type AppRoute } from "../../src/app/routes";
+import { renderApp } from "./renderApp";
+import { fakeServer, sessionFor, signedOut } from "./testServer";
+
+afterEach(() => {
+  cleanup();
+  vi.unstubAllGlobals();
+});
+
+function TestReportPage() {
+  return <h1>Quarterly report page</h1>;
+}
+
+const testRoutes: AppRoute[] = [
+  { path: "report", title: "Quarterly report", group: "quality", roles: ["coordinator", "funder"], page: lazy(async () => ({ default: TestReportPage })), landing: true },
+  { path: "account", title: "My account", group: "you", roles: ["coordinator", "quality_lead", "instructor", "funder"], page: lazy(async () => ({ default: () => <h1>Account page</h1> })), landing: true },
+];
+
+describe("route guard", () => {
+  it("sends a signed-out visitor to sign-in, remembering the page asked for", async () => {
+    fakeServer({ "GET /api/me": signedOut });
+    const { router } = renderApp("/admin/users");
+    expect(await screen.findByRole("heading", { name: "Sign in" })).toBeTruthy();
+    expect(router.state.location.pathname).toBe("/sign-in");
+    expect(new URLSearchParams(router.state.location.search).get("next")).toBe("/admin/users");
+  });
+
+  it("shows 'not available for your role' to a signed-in role without access, with the navigation still there", async () => {
+    fakeServer({ "GET /api/me": sessionFor("instructor") });
+    renderApp("/admin/users");
+    expect(await screen.findByRole("heading", { name: "Not available for your role" })).toBeTruthy();
+    expect(screen.getByText(/Regional coordinator accounts/)).toBeTruthy();
+    const nav = screen.getByRole("navigation", { name: "Main" });
+    expect(within(nav).queryByRole("link", { name: "Users" })).toBeNull();
+    expect(within(nav).getByRole("link", { name: "My account" })).toBeTruthy();
+  });
+
+  it("shows each role only the pages it may use in the navigation", async () => {
+    fakeServer({ "GET /api/me": sessionFor("coordinator") });
+    renderApp("/account");
+    const nav = await screen.findByRole("navigation", { name: "Main" });
+    expect(within(nav).getAllByRole("link").map((link) => link.textContent)).toEqual(["Users", "Sites and instructors", "My account"]);
+  });
+
+  it("returns to the page asked for after signing in", async () => {
+    let signedIn = false;
+    fakeServer({
+      "GET /api/me": () => (signedIn ? sessionFor("funder") : signedOut),
+      "GET /api/auth/csrf": { status: 200, body: { csrfToken: "anonymous-token" } },
+      "POST /api/auth/login": () => {
+        signedIn = true;
+        return sessionFor("funder");
+      },
+    });
+    const { router } = renderApp("/report", testRoutes);
+    await screen.findByRole("heading", { name: "Sign in" });
+    fireEvent.change(screen.getByLabelText("E-mail address"), { target: { value: "robin@example.org" } });
+    fireEvent.change(screen.getByLabelText("Password"), { target: { value: "correct horse battery" } });
+    fireEvent.click(screen.getByRole("button", { name: "Sign in" }));
+    expect(await screen.findByRole("heading", { name: "Quarterly report page" })).toBeTruthy();
+    expect(router.state.location.pathname).toBe("/report");
+  });
+
+  it("opens '/' on each role's first landing page", () => {
+    expect(homePathFor("funder", testRoutes)).toBe("/report");
+    expect(homePathFor("instructor", testRoutes)).toBe("/account");
+  });
+
+  it("refuses a 'next' address outside Quarterbeat", async () => {
+    fakeServer({ "GET /api/me": sessionFor("instructor") });
+    const { router } = renderApp("/sign-in?next=//evil.example/phish", testRoutes);
+    await waitFor(() => expect(router.state.location.pathname).toBe("/account"));
+  });
+});
