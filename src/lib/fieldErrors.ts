@@ -19,16 +19,20 @@ export function fieldErrorsFromZod(error: z.ZodError): FieldErrors {
 }
 
 /**
- * Reads field messages from a server error's details. Accepts zod issue lists, zod's flattened
- * { fieldErrors }, and a plain { field: message } record; anything else yields nothing.
+ * Reads field messages from a server error's details: the server's [{ path: "field", message }] list, zod
+ * issue lists, zod's flattened { fieldErrors } and a plain { field: message } record; anything else yields
+ * nothing.
  */
 export function fieldErrorsFromDetails(details: unknown): FieldErrors {
   if (!details || typeof details !== "object") return {};
   if (Array.isArray(details)) {
-    const issues = details.filter(
-      (item): item is { path: PropertyKey[]; message: string } =>
-        !!item && Array.isArray(item.path) && typeof item.message === "string",
-    );
+    // The server sends { path: "instructorId", message } (nested paths joined with "."); zod sends arrays.
+    const issues = details
+      .filter((item) => !!item && typeof item.message === "string" && (Array.isArray(item.path) || typeof item.path === "string"))
+      .map((item: { path: PropertyKey[] | string; message: string }) => ({
+        path: typeof item.path === "string" ? item.path.split(".").filter(Boolean) : item.path,
+        message: item.message,
+      }));
     return fieldErrorsFromIssues(issues);
   }
   const record = details as Record<string, unknown>;
