@@ -1,0 +1,67 @@
+// Attempt summaries: one row per learner attempt as summarised by a feedback device. Stored with source
+// "summary"; a summary has no pause count, so pauses and pauses_over_10s stay null.
+import type { RowReader } from "../../shared/import/rows";
+import { AttemptStore, type StoredMetrics } from "./attemptStore";
+import type { KindImporter } from "./kind";
+import type { ImportRun } from "./run";
+
+export function attemptsImporter(run: ImportRun, reader: RowReader): KindImporter {
+  const store = new AttemptStore(run, "summary");
+  // One metrics object reused for every row.
+  const metrics: StoredMetrics = {
+    compressions: 0,
+    duration_s: 0,
+    rate_cpm: 0,
+    depth_mm: 0,
+    depth_ok_pct: 0,
+    too_shallow_pct: 0,
+    too_deep_pct: 0,
+    rate_ok_pct: 0,
+    too_slow_pct: 0,
+    too_fast_pct: 0,
+    recoil_ok_pct: 0,
+    hands_on_pct: 0,
+    longest_pause_s: 0,
+    pauses: null,
+    pauses_over_10s: null,
+  };
+
+  return {
+    unit: "rows",
+    row(fields, row) {
+      const issues = reader.issues;
+      issues.length = 0;
+      const a = reader.at(fields, row).attemptRow();
+      if (!a) return run.rejectRow(fields, issues);
+      const cls = store.classFor(a.classId);
+      if (typeof cls === "string") {
+        reader.fail("class_id", cls);
+        return run.rejectRow(fields, issues);
+      }
+      metrics.compressions = a.compressions;
+      metrics.duration_s = a.durationS;
+      metrics.rate_cpm = a.rateCpm;
+      metrics.depth_mm = a.depthMm;
+      metrics.depth_ok_pct = a.depthOkPct;
+      metrics.too_shallow_pct = a.tooShallowPct;
+      metrics.too_deep_pct = a.tooDeepPct;
+      metrics.rate_ok_pct = a.rateOkPct;
+      metrics.too_slow_pct = a.tooSlowPct;
+      metrics.too_fast_pct = a.tooFastPct;
+      metrics.recoil_ok_pct = a.recoilOkPct;
+      metrics.hands_on_pct = a.handsOnPct;
+      metrics.longest_pause_s = a.longestPauseS;
+      const outcome = store.write(a, cls, metrics);
+      if (outcome === "duplicate") {
+        reader.fail("attempt_id", `attempt ${a.id} appears more than once in this file`);
+        return run.rejectRow(fields, issues);
+      }
+      if (outcome === "refused") {
+        reader.fail("attempt_id", store.refusal);
+        return run.rejectRow(fields, issues);
+      }
+      run.count(outcome);
+    },
+    finish() {},
+  };
+}

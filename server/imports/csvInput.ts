@@ -1,0 +1,127 @@
+// Reads a CSV file or stream record by record with csv-parse's stream API, in bounded memory: one chunk of
+// bytes and that chunk's records at a time. Hashes the bytes (sha-256, for the batch record) and counts them
+// (for progress by bytes read) on the way.
+import { createHash } from "node:crypto";
+import fs from "node:fs";
+import type { Readable } from "node:stream";
+import { CsvError, parse } from "csv-parse";
+
+/** A file on disk, or a stream with the name to record (the demo seeder and the tests pass text). */
+export type ImportInput = { path: string; fileName?: string } | { stream: Readable; fileName: string; size?: number };
+
+export interface CsvProgress {
+  bytesRead: number;
+  totalBytes: number | null;
+  rows: number;
+}
+
+export interface CsvHandlers {
+  /** The header row; return false to stop reading (the header alone refuses the file). */
+  header(fields: string[]): boolean;
+  /** One data record; row 1 is the first record after the header. */
+  record(fields: string[], row: number): void;
+  /** After each chunk; awaited, so a caller may yield to the event loop or post progress. */
+  chunk?(progress: CsvProgress): void | Promise<void>;
+}
+
+export interface CsvReadResult {
+  sha256: string;
+  bytesRead: number;
+  rows: number;
+  /** False when `header` asked to stop. */
+  complete: boolean;
+}
+
+/** The file is not readable CSV at this point (an unclosed quote, a record over the size limit, …). */
+export class CsvSyntaxError extends Error {
+  constructor(
+    message: string,
+    readonly row: number | null,
+  ) {
+    super(message);
+    this.name = "CsvSyntaxError";
+  }
+}
+
+const CHUNK_BYTES = 1 << 20;
+const MAX_RECORD_CHARS = 1 << 20;
+
+export function inputName(input: ImportInput): string {
+  return "path" in input ? (input.fileName ?? input.path) : input.fileName;
+}
+
+export function inputSize(input: ImportInput): number | null {
+  if ("path" in input) return fs.statSync(input.path).size;
+  return input.size ?? null;
+}
+
+function openInput(input: ImportInput): Readable {
+  return "path" in input ? fs.createReadStream(input.path, { highWaterMark: CHUNK_BYTES }) : input.stream;
+}
+
+export async function readCsv(input: ImportInput, handlers: CsvHandlers): Promise<CsvReadResult> {
+  const totalBytes = inputSize(input);
+  const source = openInput(input);
+  const hash = createHash("sha256");
+  const parser = parse({
+    bom: true,
+    relax_column_count: true, // a short or long row is reported by the importer, row by row
+    skip_empty_lines: true,
+    max_record_size: MAX_RECORD_CHARS,
+  });
+  let bytesRead = 0;
+  let rows = 0;
+  let headerSeen = false;
+  let stopped = false;
+
+  const drain = () => {
+    let record: string[] | null;
+    while ((record = parser.read() as string[] | null) !== null) {
+      if (stopped) continue;
+      if (!headerSeen) {
+        headerSeen = true;
+        if (!handlers.header(record)) stopped = true;
+      } else {
+        rows++;
+        handlers.record(record, rows);
+      }
+    }
+  };
+  const syntaxError = (err: unknown): never => {
+    if (err instanceof CsvError) {
+      throw new CsvSyntaxError(`The file is not readable as CSV near row ${rows + 1}: ${err.message}`, rows + 1);
+    }
+    throw err;
+  };
+  let failure: unknown;
+  parser.on("error", (err) => (failure = err));
+
+  try {
+    for await (const chunk of source) {
+      const bytes = typeof chunk === "string" ? Buffer.from(chunk) : (chunk as Buffer);
+      hash.update(bytes);
+      bytesRead += bytes.length;
+      parser.write(bytes);
+      if (failure) syntaxError(failure);
+      drain();
+      if (failure) syntaxError(failure);
+      if (stopped) break;
+      await handlers.chunk?.({ bytesRead, totalBytes, rows });
+    }
+    if (!stopped) {
+      parser.end();
+      await new Promise<void>((resolve) => {
+        if (parser.readableEnded) return resolve();
+        parser.once("end", resolve);
+        parser.once("error", () => resolve());
+        parser.on("readable", drain);
+        drain();
+      });
+      if (failure) syntaxError(failure);
+    }
+  } finally {
+    source.destroy();
+  }
+  if (!headerSeen && !stopped) handlers.header([]);
+  return { sha256: hash.digest("hex"), bytesRead, rows, complete: !stopped };
+}
