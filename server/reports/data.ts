@@ -1,0 +1,277 @@
+// The funder report's content for one period: reach, objective pass rate with its interval, comparisons,
+// trend, common errors with the coordinator's actions, live vs hidden display, instructor agreement and
+// equipment use. Every figure passes through small-cell suppression here, so nothing downstream (web page,
+// PDF, e-mail, CSV) can show a hidden cell by mistake.
+import { eq } from "drizzle-orm";
+import { courseTypes, feedbackModes, type CourseType } from "../../shared/domain";
+import type { ErrorRow, GroupResult, RateFigure, ReportComparison, ReportData, TrendPoint } from "../../shared/schemas/report";
+import { GUIDELINE_SOURCES, SAFETY_NOTE, patientTypes, type NetworkPolicy } from "../../shared/scoring/policy";
+import { attemptErrorLabels, attemptErrorNames } from "../../shared/scoring/scoreAttempt";
+import { changeFrom, cohensKappa, pareto, pChart } from "../../shared/stats";
+import type { Db } from "../db/client";
+import { quarterNotes } from "../db/schema";
+import { currentPolicy } from "../policy/service";
+import { getSetting } from "../settings/store";
+import { compareRates, differencePoints } from "./compare";
+import { countFigure, formatPoints, hiddenText, perHundredFigure, rateFigure } from "./figures";
+import { writeNarrative } from "./narrative";
+import { comparisonPeriods, parsePeriod, periodLabel, quartersOf, trailingQuarters } from "./period";
+import { passTallyByQuarter, reportNumbers, type PassTally } from "./queries";
+import { suppressBreakdown } from "./suppress";
+
+export const TREND_QUARTERS = 8;
+export const DEFAULT_NETWORK_NAME = "Quarterbeat training network";
+
+const courseLabels: Record<CourseType, string> = {
+  infant: "Infant CPR",
+  child: "Child CPR",
+  adult: "Adult CPR",
+  "all-ages": "All ages",
+};
+const patientLabels = { infant: "Infant", child: "Child", adult: "Adult" } as const;
+const feedbackLabels = { live: "Live display shown", hidden: "Live display hidden" } as const;
+
+export function networkName(db: Db): string {
+  return getSetting(db, "network_name") ?? DEFAULT_NETWORK_NAME;
+}
+
+export function readQuarterNotes(db: Db, period: string): string {
+  return db.select({ actions: quarterNotes.actions }).from(quarterNotes).where(eq(quarterNotes.quarter, period)).get()?.actions ?? "";
+}
+
+export function saveQuarterNotes(db: Db, period: string, actions: string, userId: number | null): void {
+  const updatedAt = new Date().toISOString();
+  db.insert(quarterNotes)
+    .values({ quarter: period, actions, updatedBy: userId, updatedAt })
+    .onConflictDoUpdate({ target: quarterNotes.quarter, set: { actions, updatedBy: userId, updatedAt } })
+    .run();
+}
+
+function addTallies(tallies: PassTally[]): PassTally {
+  return tallies.reduce((sum, t) => ({ attempts: sum.attempts + t.attempts, passed: sum.passed + t.passed }), { attempts: 0, passed: 0 });
+}
+
+/** Groups of attempts whose counts add up to the shown total: suppressed together. */
+function groupResults(
+  groups: { key: string; label: string; tally: PassTally }[],
+  min: number,
+  totalShown: boolean,
+): GroupResult[] {
+  const decision = suppressBreakdown(
+    groups.map((g) => g.tally.attempts),
+    min,
+    totalShown,
+  );
+  return groups.map((group, i) => ({
+    key: group.key,
+    label: group.label,
+    attempts: countFigure(group.tally.attempts, min, decision.cells[i]),
+    passRate: rateFigure(group.tally.passed, group.tally.attempts, min, decision.cells[i]),
+  }));
+}
+
+export interface BuildOptions {
+  /** When the report is made; fixed by callers that need the same output twice. */
+  now?: Date;
+}
+
+export function buildReportData(db: Db, periodText: string, options: BuildOptions = {}): ReportData {
+  const period = parsePeriod(periodText);
+  const quarters = quartersOf(period);
+  const { policy, version } = currentPolicy(db);
+  const min = policy.suppressionMinCount;
+  const numbers = reportNumbers(db, quarters);
+  const hasData = numbers.classes > 0 || numbers.attempts.attempts > 0;
+
+  // Reach
+  const classes = countFigure(numbers.classes, min);
+  const learners = countFigure(numbers.learners, min);
+  const attemptsShown = countFigure(numbers.attempts.attempts, min);
+  const classSplit = suppressBreakdown(
+    courseTypes.map((c) => numbers.byCourse[c].classes),
+    min,
+    classes.hidden === null,
+  );
+  const learnerSplit = suppressBreakdown(
+    courseTypes.map((c) => numbers.byCourse[c].learners),
+    min,
+    learners.hidden === null,
+  );
+  const byCourse = courseTypes.map((course, i) => ({
+    key: course,
+    label: courseLabels[course],
+    classes: countFigure(numbers.byCourse[course].classes, min, classSplit.cells[i]),
+    learners: countFigure(numbers.byCourse[course].learners, min, learnerSplit.cells[i]),
+  }));
+
+  // Pass rate, comparisons and trend
+  const passRate = rateFigure(numbers.attempts.passed, numbers.attempts.attempts, min);
+  const comparisonList = comparisonPeriods(period);
+  const trendQuarters = trailingQuarters(period, TREND_QUARTERS);
+  const neededQuarters = [...new Set([...trendQuarters, ...comparisonList.flatMap((c) => quartersOf(c.period))])];
+  const tallies = passTallyByQuarter(db, neededQuarters);
+
+  const comparisons: ReportComparison[] = comparisonList.map(({ label, period: earlier }) => {
+    const tally = addTallies(quartersOf(earlier).map((q) => tallies.get(q)!));
+    const earlierRate = rateFigure(tally.passed, tally.attempts, min);
+    const verdict = compareRates(passRate, earlierRate);
+    const points = differencePoints(passRate, earlierRate);
+    return {
+      label,
+      period: earlier.id,
+      passRate: earlierRate,
+      changePoints: points,
+      relativeChange: points === null ? null : changeFrom(passRate.value, earlierRate.value).relative,
+      verdict,
+      text: comparisonText(label, passRate, earlierRate, verdict, points),
+    };
+  });
+
+  const trendTallies = trendQuarters.map((q) => tallies.get(q)!);
+  const chart = pChart(trendTallies.map((t) => ({ n: t.attempts, count: t.passed })));
+  const trendPoints: TrendPoint[] = trendQuarters.map((quarter, i) => {
+    const rate = rateFigure(trendTallies[i].passed, trendTallies[i].attempts, min);
+    const point = chart.points[i];
+    // a hidden quarter's limits would give away its size, so they go with it
+    const shown = rate.hidden === null && point.p !== null;
+    return { quarter, passRate: rate, lcl: shown ? point.lcl : null, ucl: shown ? point.ucl : null, outside: shown && point.outside };
+  });
+
+  // Errors (Pareto). Shares of the total give the total away, so the breakdown is treated as having one.
+  const paretoRows = pareto(Object.fromEntries(attemptErrorNames.map((name, bit) => [name, numbers.errorCounts[bit]])));
+  const errorSplit = suppressBreakdown(
+    paretoRows.map((r) => r.count),
+    min,
+    true,
+  );
+  let prefixShown = true;
+  const errorRows: ErrorRow[] = paretoRows.map((row, i) => {
+    const hidden = errorSplit.total ?? errorSplit.cells[i];
+    prefixShown = prefixShown && hidden === null;
+    return {
+      name: row.name,
+      label: attemptErrorLabels[row.name as keyof typeof attemptErrorLabels] ?? row.name,
+      count: countFigure(row.count, min, hidden),
+      share: hidden === null ? row.share : null,
+      cumulativeShare: prefixShown ? row.cumulativeShare : null,
+    };
+  });
+
+  // Live vs hidden display
+  const feedbackGroups = groupResults(
+    feedbackModes.map((mode) => ({ key: mode, label: feedbackLabels[mode], tally: numbers.byFeedback[mode] })),
+    min,
+    attemptsShown.hidden === null,
+  );
+  const [live, hiddenDisplay] = feedbackGroups;
+
+  // Instructors' judgement vs measurement
+  const kappa = cohensKappa(numbers.agreement);
+  const pairs = countFigure(kappa.n, min);
+  const kappaShown = pairs.hidden === null && kappa.kappa !== null;
+  const completions = Math.min(numbers.completions, numbers.learners);
+
+  // Equipment
+  const manikinsUsed = countFigure(numbers.manikinsUsed, min);
+
+  const data: ReportData = {
+    period: period.id,
+    kind: period.kind,
+    periodLabel: periodLabel(period),
+    quarters,
+    networkName: networkName(db),
+    generatedAt: (options.now ?? new Date()).toISOString(),
+    policyVersion: version,
+    suppressionMinCount: min,
+    hasData,
+    reach: {
+      classes,
+      learners,
+      sites: countFigure(numbers.sites, min),
+      instructors: countFigure(numbers.instructors, min),
+      attempts: attemptsShown,
+      byCourse,
+    },
+    passRate,
+    comparisons,
+    trend: { points: trendPoints, centre: chart.centre },
+    byPatientType: groupResults(
+      patientTypes.map((p) => ({ key: p, label: patientLabels[p], tally: numbers.byPatientType[p] })),
+      min,
+      attemptsShown.hidden === null,
+    ),
+    errors: { rows: errorRows, attemptsWithErrors: countFigure(numbers.attemptsWithErrors, min), actions: readQuarterNotes(db, period.id) },
+    feedback: {
+      live,
+      hidden: hiddenDisplay,
+      differencePoints: differencePoints(live.passRate, hiddenDisplay.passRate),
+      verdict: compareRates(live.passRate, hiddenDisplay.passRate),
+    },
+    agreement: {
+      pairs,
+      kappa: kappaShown ? kappa.kappa : null,
+      observedAgreement: kappaShown ? kappa.p0 : null,
+      kappaText: kappaShown ? kappa.kappa!.toFixed(2) : pairs.hidden ? hiddenText(pairs.hidden, min) : "not available",
+      completionRate: rateFigure(completions, numbers.learners, min),
+      objectivePassRate: passRate,
+    },
+    equipment: {
+      manikinsUsed,
+      compressions: countFigure(numbers.compressions, min),
+      compressionsPerManikin: manikinsUsed.hidden === null && numbers.manikinsUsed > 0 ? numbers.compressions / numbers.manikinsUsed : null,
+      lungsPer100Learners: perHundredFigure(numbers.lungsReplaced, numbers.learners, min),
+      mouthpiecesPer100Learners: perHundredFigure(numbers.mouthpiecesCleaned, numbers.learners, min),
+      batteriesPer100Learners: perHundredFigure(numbers.batteriesReplaced, numbers.learners, min),
+      services: countFigure(numbers.services, min),
+      faults: countFigure(numbers.faults, min),
+    },
+    methods: methodsText(policy, version, numbers.policyVersions),
+    narrative: [],
+  };
+  data.narrative = writeNarrative(data);
+  return data;
+}
+
+function comparisonText(
+  label: string,
+  current: RateFigure,
+  earlier: RateFigure,
+  verdict: ReportComparison["verdict"],
+  points: number | null,
+): string {
+  if (current.value === null) return `Too few attempts in this period to compare with ${label}.`;
+  if (earlier.value === null) return `Too few attempts in ${label} to compare with.`;
+  if (verdict === "about the same" || verdict === null || points === null) return `About the same as ${label} (${earlier.text}).`;
+  return `${verdict === "higher" ? "Up" : "Down"} ${formatPoints(points)} on ${label} (${earlier.text}).`;
+}
+
+function methodsText(policy: NetworkPolicy, version: number, scoredUnder: number[]): ReportData["methods"] {
+  const rule = policy.passRule;
+  return {
+    scoredUnderVersions: scoredUnder,
+    bands: patientTypes.map((p) => {
+      const band = policy.bands[p];
+      return {
+        key: p,
+        label: patientLabels[p],
+        depth: `${band.depthMinMm}–${band.depthMaxMm} mm`,
+        rate: `${band.rateMin}–${band.rateMax} per minute`,
+        recoil: `released to within ${band.recoilMaxMm} mm`,
+      };
+    }),
+    passRule: [
+      `at least ${rule.minDepthOkPct} % of compressions at the target depth`,
+      `at least ${rule.minRateOkPct} % of compressions at the target rate`,
+      `at least ${rule.minRecoilOkPct} % of compressions fully released`,
+      `hands on the chest for at least ${rule.minHandsOnPct} % of the attempt`,
+      `no interruption longer than ${rule.maxLongestPauseS} s`,
+    ],
+    passRuleNote: `The pass rule is network policy (version ${version}), not a guideline value.`,
+    sources: GUIDELINE_SOURCES.map((s) => s.citation),
+    safetyNote: SAFETY_NOTE,
+    suppressionNote:
+      `To protect learners and instructors, any count below ${policy.suppressionMinCount}, and any rate made from fewer than ` +
+      `${policy.suppressionMinCount}, reads "fewer than ${policy.suppressionMinCount}". Where a shown total would give a ` +
+      `hidden figure away, another figure is hidden too and reads "not shown".`,
+  };
+}

@@ -1,0 +1,200 @@
+// The raw numbers behind a funder report, straight from SQLite. Nothing here is shown as is: data.ts applies
+// small-cell suppression and formats. No query returns an instructor, learner or manikin id; sites and
+// instructors leave only as counts.
+import { and, count, countDistinct, gte, inArray, lt, sql, sum } from "drizzle-orm";
+import { courseTypes, feedbackModes, type CourseType, type FeedbackMode } from "../../shared/domain";
+import { patientTypes, type PatientType } from "../../shared/scoring/policy";
+import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
+import type { KappaTable } from "../../shared/stats";
+import type { Db } from "../db/client";
+import { attempts, classes, equipmentEvents } from "../db/schema";
+
+export interface PassTally {
+  attempts: number;
+  passed: number;
+}
+
+export interface ReportNumbers {
+  classes: number;
+  learners: number;
+  /** Learners the instructors recorded as having completed the course. */
+  completions: number;
+  sites: number;
+  instructors: number;
+  byCourse: Record<CourseType, { classes: number; learners: number }>;
+  attempts: PassTally;
+  byPatientType: Record<PatientType, PassTally>;
+  byFeedback: Record<FeedbackMode, PassTally>;
+  /** Attempts showing each error, in attemptErrorNames order. */
+  errorCounts: number[];
+  attemptsWithErrors: number;
+  /** Rows: instructor said pass / fail; columns: measured pass / fail. */
+  agreement: KappaTable;
+  manikinsUsed: number;
+  compressions: number;
+  /** null when no class of the period recorded the item at all. */
+  lungsReplaced: number | null;
+  mouthpiecesCleaned: number | null;
+  batteriesReplaced: number | null;
+  services: number;
+  faults: number;
+  /** Policy versions the period's attempts were scored under. */
+  policyVersions: number[];
+}
+
+const asNumber = (value: unknown) => Number(value ?? 0);
+
+/** First day of the quarters and first day after them, for tables that carry dates rather than quarters. */
+function dateSpan(quarters: readonly string[]): [string, string] {
+  const sorted = [...quarters].sort();
+  const [firstYear, firstQ] = sorted[0].split("-Q").map(Number);
+  const [lastYear, lastQ] = sorted[sorted.length - 1].split("-Q").map(Number);
+  const monthText = (quarter: number) => String((quarter - 1) * 3 + 1).padStart(2, "0");
+  const after = lastQ === 4 ? `${lastYear + 1}-01-01` : `${lastYear}-${monthText(lastQ + 1)}-01`;
+  return [`${firstYear}-${monthText(firstQ)}-01`, after];
+}
+
+export function reportNumbers(db: Db, quarters: readonly string[]): ReportNumbers {
+  const inPeriod = inArray(classes.quarter, [...quarters]);
+  const attemptsInPeriod = inArray(attempts.quarter, [...quarters]);
+
+  const classTotals = db
+    .select({
+      classes: count(),
+      learners: sum(classes.learners),
+      completions: sum(classes.passed),
+      sites: countDistinct(classes.siteId),
+      instructors: countDistinct(classes.instructorId),
+      lungs: sum(classes.lungsReplaced),
+      mouthpieces: sum(classes.mouthpiecesCleaned),
+      batteries: sum(classes.batteriesReplaced),
+      lungsRecorded: count(classes.lungsReplaced),
+      mouthpiecesRecorded: count(classes.mouthpiecesCleaned),
+      batteriesRecorded: count(classes.batteriesReplaced),
+    })
+    .from(classes)
+    .where(inPeriod)
+    .get()!;
+
+  const byCourse = Object.fromEntries(courseTypes.map((c) => [c, { classes: 0, learners: 0 }])) as ReportNumbers["byCourse"];
+  for (const row of db
+    .select({ course: classes.course, classes: count(), learners: sum(classes.learners) })
+    .from(classes)
+    .where(inPeriod)
+    .groupBy(classes.course)
+    .all()) {
+    byCourse[row.course] = { classes: row.classes, learners: asNumber(row.learners) };
+  }
+
+  const byPatientType = Object.fromEntries(patientTypes.map((p) => [p, { attempts: 0, passed: 0 }])) as ReportNumbers["byPatientType"];
+  const byFeedback = Object.fromEntries(feedbackModes.map((f) => [f, { attempts: 0, passed: 0 }])) as ReportNumbers["byFeedback"];
+  const total: PassTally = { attempts: 0, passed: 0 };
+  for (const row of db
+    .select({
+      profile: attempts.profile,
+      feedback: attempts.feedback,
+      attempts: count(),
+      passed: sql<number>`sum(${attempts.passed})`,
+    })
+    .from(attempts)
+    .where(attemptsInPeriod)
+    .groupBy(attempts.profile, attempts.feedback)
+    .all()) {
+    const tally = { attempts: row.attempts, passed: asNumber(row.passed) };
+    for (const target of [byPatientType[row.profile], byFeedback[row.feedback], total]) {
+      target.attempts += tally.attempts;
+      target.passed += tally.passed;
+    }
+  }
+
+  // Few distinct masks exist, so counting bits over the grouped masks is cheap.
+  const errorCounts = attemptErrorNames.map(() => 0);
+  let attemptsWithErrors = 0;
+  for (const row of db
+    .select({ mask: attempts.errorMask, attempts: count() })
+    .from(attempts)
+    .where(attemptsInPeriod)
+    .groupBy(attempts.errorMask)
+    .all()) {
+    if (row.mask !== 0) attemptsWithErrors += row.attempts;
+    attemptErrorNames.forEach((_, bit) => {
+      if (row.mask & (1 << bit)) errorCounts[bit] += row.attempts;
+    });
+  }
+
+  const judged = db
+    .select({
+      bothPass: sql<number>`sum(${attempts.instructorResult} = 'pass' and ${attempts.passed} = 1)`,
+      instructorOnly: sql<number>`sum(${attempts.instructorResult} = 'pass' and ${attempts.passed} = 0)`,
+      measuredOnly: sql<number>`sum(${attempts.instructorResult} = 'fail' and ${attempts.passed} = 1)`,
+      bothFail: sql<number>`sum(${attempts.instructorResult} = 'fail' and ${attempts.passed} = 0)`,
+      manikins: countDistinct(attempts.manikinId),
+      compressions: sum(attempts.compressions),
+    })
+    .from(attempts)
+    .where(attemptsInPeriod)
+    .get()!;
+
+  const [from, before] = dateSpan(quarters);
+  const eventCounts = db
+    .select({ event: equipmentEvents.event, quantity: sum(equipmentEvents.quantity) })
+    .from(equipmentEvents)
+    .where(and(gte(equipmentEvents.date, from), lt(equipmentEvents.date, before), inArray(equipmentEvents.event, ["serviced", "fault"])))
+    .groupBy(equipmentEvents.event)
+    .all();
+  const eventTotal = (event: string) => asNumber(eventCounts.find((row) => row.event === event)?.quantity);
+
+  return {
+    classes: classTotals.classes,
+    learners: asNumber(classTotals.learners),
+    completions: asNumber(classTotals.completions),
+    sites: classTotals.sites,
+    instructors: classTotals.instructors,
+    byCourse,
+    attempts: total,
+    byPatientType,
+    byFeedback,
+    errorCounts,
+    attemptsWithErrors,
+    agreement: [
+      [asNumber(judged.bothPass), asNumber(judged.instructorOnly)],
+      [asNumber(judged.measuredOnly), asNumber(judged.bothFail)],
+    ],
+    manikinsUsed: judged.manikins,
+    compressions: asNumber(judged.compressions),
+    lungsReplaced: classTotals.lungsRecorded > 0 ? asNumber(classTotals.lungs) : null,
+    mouthpiecesCleaned: classTotals.mouthpiecesRecorded > 0 ? asNumber(classTotals.mouthpieces) : null,
+    batteriesReplaced: classTotals.batteriesRecorded > 0 ? asNumber(classTotals.batteries) : null,
+    services: eventTotal("serviced"),
+    faults: eventTotal("fault"),
+    policyVersions: db
+      .selectDistinct({ version: attempts.policyVersion })
+      .from(attempts)
+      .where(attemptsInPeriod)
+      .orderBy(attempts.policyVersion)
+      .all()
+      .map((row) => row.version),
+  };
+}
+
+/** Attempts and passes per quarter, for the trend and the comparisons; quarters without attempts give zeros. */
+export function passTallyByQuarter(db: Db, quarters: readonly string[]): Map<string, PassTally> {
+  const tallies = new Map<string, PassTally>(quarters.map((q) => [q, { attempts: 0, passed: 0 }]));
+  for (const row of db
+    .select({ quarter: attempts.quarter, attempts: count(), passed: sql<number>`sum(${attempts.passed})` })
+    .from(attempts)
+    .where(inArray(attempts.quarter, [...quarters]))
+    .groupBy(attempts.quarter)
+    .all()) {
+    tallies.set(row.quarter, { attempts: row.attempts, passed: asNumber(row.passed) });
+  }
+  return tallies;
+}
+
+/** True when the period has at least one class or attempt. */
+export function periodHasData(db: Db, quarters: readonly string[]): boolean {
+  const classRow = db.select({ n: count() }).from(classes).where(inArray(classes.quarter, [...quarters])).get();
+  if ((classRow?.n ?? 0) > 0) return true;
+  const attemptRow = db.select({ n: count() }).from(attempts).where(inArray(attempts.quarter, [...quarters])).get();
+  return (attemptRow?.n ?? 0) > 0;
+}

@@ -1,0 +1,195 @@
+// The funder report as the API answers it: the period it covers, every figure with its display text already
+// made (so the web page and the PDF say exactly the same thing), and the request bodies of the report routes.
+import { z } from "zod";
+import { emailSchema } from "./auth";
+
+/** A quarter such as 2026-Q3, or a whole year such as 2026. */
+export const periodSchema = z
+  .string()
+  .trim()
+  .toUpperCase()
+  .regex(/^(20\d\d)(-Q[1-4])?$/, "Use a quarter such as 2026-Q3 or a year such as 2026");
+export type Period = z.infer<typeof periodSchema>;
+
+export const quarterNotesSchema = z.object({
+  actions: z.string().max(4000, "Use at most 4000 characters"),
+});
+export type QuarterNotes = z.infer<typeof quarterNotesSchema>;
+
+export const sendReportSchema = z.object({
+  extraRecipients: z.array(emailSchema).max(20, "Send to at most 20 extra addresses at once").default([]),
+});
+export type SendReportRequest = z.infer<typeof sendReportSchema>;
+
+/**
+ * Why a figure is not shown: "small" = it comes from fewer people or events than the network's smallest
+ * group shown; "protects-other" = it is hidden so that a shown total cannot give away a small one.
+ */
+export type HiddenReason = "small" | "protects-other";
+
+/** A count as shown in the report. `value` is null whenever the count is hidden. */
+export interface CountFigure {
+  value: number | null;
+  hidden: HiddenReason | null;
+  text: string;
+}
+
+/** A proportion (0–1) with its Wilson 95 % interval, hidden together when its group is too small. */
+export interface RateFigure {
+  value: number | null;
+  low: number | null;
+  high: number | null;
+  /** How many attempts, learners, … the rate is made of. */
+  n: CountFigure;
+  hidden: HiddenReason | null;
+  /** "68.2 %" or "fewer than 5" */
+  text: string;
+  /** "61.0–74.6 %" or "" */
+  intervalText: string;
+}
+
+/** A number per 100 learners (consumables), hidden when the learners or the events are too few. */
+export interface PerHundredFigure {
+  value: number | null;
+  hidden: HiddenReason | null;
+  text: string;
+}
+
+export type ChangeVerdict = "higher" | "lower" | "about the same";
+
+export interface ReportComparison {
+  /** "the previous quarter", "the same quarter last year", "the previous year" */
+  label: string;
+  period: string;
+  passRate: RateFigure;
+  /** Percentage points, current minus earlier; null when either rate is hidden or missing. */
+  changePoints: number | null;
+  /** Relative change (0.1 = +10 %), from the shared changeFrom; null as above. */
+  relativeChange: number | null;
+  verdict: ChangeVerdict | null;
+  text: string;
+}
+
+export interface TrendPoint {
+  quarter: string;
+  passRate: RateFigure;
+  /** p-chart limits (3 sigma) for this quarter; null when the quarter is hidden or empty. */
+  lcl: number | null;
+  ucl: number | null;
+  outside: boolean;
+}
+
+export interface ErrorRow {
+  name: string;
+  label: string;
+  count: CountFigure;
+  /** Share of all errors found; null when hidden. */
+  share: number | null;
+  cumulativeShare: number | null;
+}
+
+export interface GroupResult {
+  key: string;
+  label: string;
+  attempts: CountFigure;
+  passRate: RateFigure;
+}
+
+export interface ReportData {
+  period: string;
+  kind: "quarter" | "year";
+  /** "July–September 2026" or "January–December 2026" */
+  periodLabel: string;
+  quarters: string[];
+  networkName: string;
+  generatedAt: string;
+  policyVersion: number;
+  suppressionMinCount: number;
+  hasData: boolean;
+  reach: {
+    classes: CountFigure;
+    learners: CountFigure;
+    sites: CountFigure;
+    instructors: CountFigure;
+    attempts: CountFigure;
+    byCourse: { key: string; label: string; classes: CountFigure; learners: CountFigure }[];
+  };
+  passRate: RateFigure;
+  comparisons: ReportComparison[];
+  trend: { points: TrendPoint[]; centre: number | null };
+  byPatientType: GroupResult[];
+  errors: { rows: ErrorRow[]; attemptsWithErrors: CountFigure; actions: string };
+  feedback: {
+    live: GroupResult;
+    hidden: GroupResult;
+    /** Live minus hidden pass rate in percentage points; null when either is hidden. */
+    differencePoints: number | null;
+    verdict: ChangeVerdict | null;
+  };
+  agreement: {
+    /** Attempts where the instructor also recorded pass or fail. */
+    pairs: CountFigure;
+    kappa: number | null;
+    /** Share of those attempts where instructor and measurement agreed. */
+    observedAgreement: number | null;
+    kappaText: string;
+    completionRate: RateFigure;
+    objectivePassRate: RateFigure;
+  };
+  equipment: {
+    manikinsUsed: CountFigure;
+    compressions: CountFigure;
+    compressionsPerManikin: number | null;
+    lungsPer100Learners: PerHundredFigure;
+    mouthpiecesPer100Learners: PerHundredFigure;
+    batteriesPer100Learners: PerHundredFigure;
+    services: CountFigure;
+    faults: CountFigure;
+  };
+  methods: {
+    /** Policy versions the period's attempts were scored under (the bands below are the current version's). */
+    scoredUnderVersions: number[];
+    bands: { key: string; label: string; depth: string; rate: string; recoil: string }[];
+    /** The criteria an attempt must all meet, as phrases. */
+    passRule: string[];
+    passRuleNote: string;
+    sources: string[];
+    safetyNote: string;
+    suppressionNote: string;
+  };
+  narrative: string[];
+}
+
+/** A stored report version, without its data and PDF bytes. */
+export interface ReportVersion {
+  id: number;
+  period: string;
+  version: number;
+  createdAt: string;
+  createdBy: string | null;
+  pdfBytes: number;
+  lastSend: { status: "sent" | "failed"; createdAt: string } | null;
+}
+
+export interface ReportSendRow {
+  id: number;
+  reportId: number;
+  period: string;
+  version: number;
+  sentBy: string | null;
+  recipients: string[];
+  status: "sent" | "failed";
+  error: string | null;
+  messageId: string | null;
+  createdAt: string;
+}
+
+export interface OutboxMessage {
+  id: number;
+  receivedAt: string;
+  from: string;
+  recipients: string[];
+  subject: string;
+  text: string;
+  attachments: { index: number; filename: string; contentType: string; size: number }[];
+}
