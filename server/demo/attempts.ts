@@ -106,7 +106,7 @@ function runClass(
         const plan = planStrokes(profile, skill, live, scenario, random);
         const streamSeed = random.nextUint32();
         const summary = summarizeStream(simulateStream(plan, new Random(streamSeed)), profile);
-        const judgement = judgeAttempt(summary, live, scenario, random);
+        const judgement = judgeAttempt(summary, profile, live, scenario, random);
         learner.lastJudgement.set(profile, judgement.passed);
         if (!hasAttemptData) continue; // judged in the room, but the data never arrived
 

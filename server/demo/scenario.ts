@@ -29,7 +29,7 @@ export interface ScenarioInstructor {
   code: string;
   name: string;
   site: string;
-  /** Added to every learner's skill in this instructor's classes (0 = typical; about ±0.3 is ordinary). */
+  /** Added to every learner's skill in this instructor's classes (0 = typical; within ±0.1 is ordinary). */
   skill: number;
   /** Relative share of the network's classes this instructor teaches. */
   workload: number;
@@ -160,20 +160,20 @@ export const DEMO_SCENARIO: DemoScenario = {
   ],
 
   instructors: [
-    { code: "IN01", name: "Maren Oakhill", site: "WRM", skill: 0.15, workload: 1.2 },
-    { code: "IN02", name: "Teodor Vashby", site: "WRM", skill: -0.1, workload: 1 },
-    { code: "IN03", name: "Ilse Pendrake", site: "WRM", skill: 0.05, workload: 1.1 },
-    { code: "IN04", name: "Callum Ferrowin", site: "CLB", skill: 0.1, workload: 0.9 },
-    { code: "IN05", name: "Anouk Brightwater", site: "CLB", skill: -0.15, workload: 1 },
+    { code: "IN01", name: "Maren Oakhill", site: "WRM", skill: 0.08, workload: 1.2 },
+    { code: "IN02", name: "Teodor Vashby", site: "WRM", skill: -0.05, workload: 1 },
+    { code: "IN03", name: "Ilse Pendrake", site: "WRM", skill: 0.03, workload: 1.1 },
+    { code: "IN04", name: "Callum Ferrowin", site: "CLB", skill: 0.05, workload: 0.9 },
+    { code: "IN05", name: "Anouk Brightwater", site: "CLB", skill: -0.08, workload: 1 },
     // Far below the network: learners rarely meet the targets.
     { code: "IN06", name: "Desmond Quarrie", site: "CLB", skill: -1.4, workload: 1.1 },
-    { code: "IN07", name: "Priya Lanthorne", site: "FNX", skill: 0.2, workload: 1 },
+    { code: "IN07", name: "Priya Lanthorne", site: "FNX", skill: 0.1, workload: 1 },
     // Far above the network.
     { code: "IN08", name: "Jonah Thistlecombe", site: "FNX", skill: 1.3, workload: 1.1 },
-    { code: "IN09", name: "Sofia Marrable", site: "FNX", skill: -0.05, workload: 0.8 },
+    { code: "IN09", name: "Sofia Marrable", site: "FNX", skill: -0.03, workload: 0.8 },
     { code: "IN10", name: "Elias Wendricks", site: "LTQ", skill: 0, workload: 1 },
-    { code: "IN11", name: "Noor Haverleigh", site: "LTQ", skill: -0.2, workload: 0.9 },
-    { code: "IN12", name: "Bettina Corrow", site: "LTQ", skill: 0.1, workload: 0.9 },
+    { code: "IN11", name: "Noor Haverleigh", site: "LTQ", skill: -0.1, workload: 0.9 },
+    { code: "IN12", name: "Bettina Corrow", site: "LTQ", skill: 0.05, workload: 0.9 },
   ],
 
   accounts: [

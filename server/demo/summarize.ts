@@ -2,7 +2,7 @@
 // analysis the import runs on streams, then rounded the way the attempts file writes it: whole percentages
 // whose groups of three add up to exactly 100, tenths for seconds, rate and depth.
 import { analyzeSorted } from "../../shared/scoring/analyzeStream";
-import { DEFAULT_POLICY, type PassRule, type PatientType } from "../../shared/scoring/policy";
+import { DEFAULT_POLICY, type PatientType } from "../../shared/scoring/policy";
 import type { CompressionStream } from "./simulateStream";
 
 export interface AttemptSummary {
@@ -66,17 +66,6 @@ export function wholePercentages(shares: readonly number[]): number[] {
     missing--;
   }
   return floors;
-}
-
-/** Whether a summary meets the network's pass rule (the default policy). */
-export function meetsPassRule(summary: AttemptSummary, rule: PassRule = DEFAULT_POLICY.passRule): boolean {
-  return (
-    summary.depth_ok_pct >= rule.minDepthOkPct &&
-    summary.rate_ok_pct >= rule.minRateOkPct &&
-    summary.recoil_ok_pct >= rule.minRecoilOkPct &&
-    summary.hands_on_pct >= rule.minHandsOnPct &&
-    summary.longest_pause_s <= rule.maxLongestPauseS
-  );
 }
 
 function tenths(value: number): number {
