@@ -2,7 +2,11 @@
 import { Command } from "commander";
 import { registerBackup } from "./commands/backup";
 import { registerDb } from "./commands/db";
+import { registerDemo } from "./commands/demo";
 import { registerUsers } from "./commands/users";
+import { registerImport } from "./commands/import";
+import { registerAnalyze } from "./commands/analyze";
+import { registerStats } from "./commands/stats";
 import { closeContext } from "./context";
 import { handleError } from "./errors";
 
@@ -14,7 +18,11 @@ export function buildProgram(): Command {
     .showHelpAfterError("(run with --help for usage)");
   registerDb(program);
   registerBackup(program);
+  registerDemo(program);
   registerUsers(program);
+  registerImport(program);
+  registerAnalyze(program);
+  registerStats(program);
   return program;
 }
 

@@ -1,0 +1,122 @@
+// One quarter of the network in numbers: activity from the class logs, attempt results, typical quality,
+// errors, the effect of live feedback and how well instructors' judgement agrees with Quarterbeat's.
+// Counts and sums come from SQL over the quarter indexes; medians and intervals from shared/stats.
+import { median } from "../../shared/stats/quantiles";
+import { wilsonInterval } from "../../shared/stats/wilson";
+import { cohensKappa } from "../../shared/stats/kappa";
+import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
+import { parseQuarter } from "../../shared/quarter";
+import type { Db } from "../db/client";
+import { badRequest } from "../errors";
+
+export interface QuarterSummary {
+  quarter: string;
+  classes: number;
+  learners: number;
+  instructors: number;
+  sites: number;
+  attempts: number;
+  passed: number;
+  /** passed / attempts, 0–1; null without attempts. */
+  pass_rate: number | null;
+  /** Wilson 95 % interval of pass_rate. */
+  pass_rate_ci95: [number, number] | null;
+  /** Sum of instructors' recorded completions / sum of learners in the quarter's class logs. */
+  course_pass_rate: number | null;
+  median: { score: number | null; depth_ok_pct: number | null; rate_ok_pct: number | null; recoil_ok_pct: number | null; hands_on_pct: number | null };
+  /** Attempts with each error. */
+  errors: Record<AttemptError, number>;
+  by_feedback: { live: { attempts: number; pass_rate: number | null }; hidden: { attempts: number; pass_rate: number | null } };
+  /** Instructor's pass/fail against Quarterbeat's, over attempts where the instructor gave one. */
+  agreement: { attempts: number; kappa: number | null };
+}
+
+export interface SummaryFilter {
+  /** Only this instructor's classes and attempts. */
+  instructorId?: number;
+  siteId?: number;
+}
+
+const MEDIAN_COLUMNS = ["score", "depth_ok_pct", "rate_ok_pct", "recoil_ok_pct", "hands_on_pct"] as const;
+
+export function quarterSummary(db: Db, quarter: string, filter: SummaryFilter = {}): QuarterSummary {
+  try {
+    parseQuarter(quarter);
+  } catch (err) {
+    throw badRequest((err as Error).message);
+  }
+  const sqlite = db.$client;
+  let where = "quarter = ?";
+  const params: (string | number)[] = [quarter];
+  if (filter.instructorId !== undefined) {
+    where += " AND instructor_id = ?";
+    params.push(filter.instructorId);
+  }
+  if (filter.siteId !== undefined) {
+    where += " AND site_id = ?";
+    params.push(filter.siteId);
+  }
+
+  const logs = sqlite
+    .prepare(
+      `SELECT count(*) AS classes, coalesce(sum(learners), 0) AS learners, coalesce(sum(passed), 0) AS passed,
+         count(DISTINCT instructor_id) AS instructors, count(DISTINCT site_id) AS sites FROM classes WHERE ${where}`,
+    )
+    .get(...params) as { classes: number; learners: number; passed: number; instructors: number; sites: number };
+
+  const errorSums = attemptErrorNames.map((name, bit) => `sum((error_mask & ${1 << bit}) <> 0) AS ${name}`).join(", ");
+  const totals = sqlite
+    .prepare(
+      `SELECT count(*) AS attempts, coalesce(sum(passed), 0) AS passed,
+         coalesce(sum(feedback = 'live'), 0) AS live, coalesce(sum(feedback = 'live' AND passed), 0) AS live_passed,
+         coalesce(sum(feedback = 'hidden'), 0) AS hidden, coalesce(sum(feedback = 'hidden' AND passed), 0) AS hidden_passed,
+         coalesce(sum(instructor_result = 'pass' AND passed), 0) AS both_pass,
+         coalesce(sum(instructor_result = 'pass' AND NOT passed), 0) AS instructor_only,
+         coalesce(sum(instructor_result = 'fail' AND passed), 0) AS quarterbeat_only,
+         coalesce(sum(instructor_result = 'fail' AND NOT passed), 0) AS both_fail,
+         ${errorSums}
+       FROM attempts WHERE ${where}`,
+    )
+    .get(...params) as Record<string, number | null>;
+
+  const n = (key: string) => Number(totals[key] ?? 0);
+  const rate = (passed: number, of: number) => (of > 0 ? passed / of : null);
+  const attempts = n("attempts");
+  const passed = n("passed");
+
+  const medians = {} as QuarterSummary["median"];
+  for (const column of MEDIAN_COLUMNS) {
+    const values = sqlite.prepare(`SELECT ${column} FROM attempts WHERE ${where}`).pluck().all(...params) as number[];
+    medians[column] = median(values);
+  }
+
+  const errors = {} as Record<AttemptError, number>;
+  for (const name of attemptErrorNames) errors[name] = n(name);
+
+  // Rater A = the instructor, rater B = Quarterbeat; rows/columns are (pass, fail).
+  const table = [
+    [n("both_pass"), n("instructor_only")],
+    [n("quarterbeat_only"), n("both_fail")],
+  ] as const;
+  const agreement = cohensKappa(table);
+
+  return {
+    quarter,
+    classes: logs.classes,
+    learners: logs.learners,
+    instructors: logs.instructors,
+    sites: logs.sites,
+    attempts,
+    passed,
+    pass_rate: rate(passed, attempts),
+    pass_rate_ci95: wilsonInterval(passed, attempts),
+    course_pass_rate: rate(logs.passed, logs.learners),
+    median: medians,
+    errors,
+    by_feedback: {
+      live: { attempts: n("live"), pass_rate: rate(n("live_passed"), n("live")) },
+      hidden: { attempts: n("hidden"), pass_rate: rate(n("hidden_passed"), n("hidden")) },
+    },
+    agreement: { attempts: agreement.n, kappa: agreement.kappa },
+  };
+}
