@@ -6,6 +6,7 @@ import { fileURLToPath } from "node:url";
 import { loadConfig } from "./config";
 import { openDatabase } from "./db/client";
 import { createApp } from "./app";
+import { isEmpty, seedDemo } from "./seed/seedDemo";
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 const clientDir = path.join(root, "dist/client");
@@ -21,11 +22,20 @@ async function main() {
   const config = loadConfig();
   await ensureClientBuilt();
   const db = openDatabase(config.dbFile);
+  let demoAccounts: { role: string; email: string; password: string }[] = [];
+  if (isEmpty(db)) {
+    console.log("Empty database: seeding the invented demo network (about half a minute)…");
+    demoAccounts = (await seedDemo(db)).accounts;
+  }
   const app = createApp(db, config, { clientDir });
   const server = app.listen(config.port, () => {
     const address = server.address();
     const port = typeof address === "object" && address ? address.port : config.port;
     console.log(`Quarterbeat is running at http://localhost:${port}  (database: ${config.dbFile})`);
+    if (demoAccounts.length > 0) {
+      console.log("Demo sign-ins (demo data only, never for a real network):");
+      for (const account of demoAccounts) console.log(`  ${account.role.padEnd(13)} ${account.email}  ${account.password}`);
+    }
   });
   const stop = () => server.close(() => {
     db.$client.close();

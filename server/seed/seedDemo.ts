@@ -1,0 +1,111 @@
+// Seeds the invented demo network: its directory (sites, instructors, one account per role) directly, then
+// its four data files through the same import service the CLI and the web upload use.
+import { Readable } from "node:stream";
+import { count, eq } from "drizzle-orm";
+import type { ImportKind } from "../../shared/domain";
+import type { ImportSummary } from "../../shared/import/api";
+import { generateDemoNetwork, type DemoNetwork } from "../demo/generate";
+import type { Db } from "../db/client";
+import { attempts, classes, importBatches, instructors, sites, users } from "../db/schema";
+import { AppError } from "../errors";
+import { importFile } from "../imports/service";
+import { setSetting } from "../settings/store";
+import { createInstructor, createSite, listInstructors, listSites } from "../sites/service";
+import { createUser } from "../users/service";
+
+export interface SeedResult {
+  network: DemoNetwork["network"];
+  accounts: DemoNetwork["accounts"];
+  imports: ImportSummary[];
+}
+
+/** Files in dependency order: classes create sites, instructors and manikins; attempts need classes. */
+const ORDER: ImportKind[] = ["classes", "equipment", "attempts", "compressions"];
+
+export function isEmpty(db: Db): boolean {
+  const [{ n }] = db.select({ n: count() }).from(users).all();
+  const [{ c }] = db.select({ c: count() }).from(classes).all();
+  return n === 0 && c === 0;
+}
+
+/** Removes every imported row and person, for `demo seed --force`. Policy versions and settings stay. */
+export function clearNetwork(db: Db): void {
+  const sqlite = db.$client;
+  sqlite.transaction(() => {
+    for (const table of [
+      "score_history",
+      "compression_streams",
+      "attempts",
+      "equipment_events",
+      "classes",
+      "manikins",
+      "rejected_rows",
+      "batch_changes",
+      "report_sends",
+      "reports",
+      "quarter_notes",
+      "import_presets",
+      "import_batches",
+      "sessions",
+      "users",
+      "instructors",
+      "sites",
+    ]) {
+      sqlite.prepare(`DELETE FROM ${table}`).run();
+    }
+  })();
+}
+
+export async function seedDemo(db: Db, options: { today?: string; seed?: number } = {}): Promise<SeedResult> {
+  const demo = generateDemoNetwork({ seed: options.seed, today: options.today ?? new Date().toISOString().slice(0, 10) });
+  setSetting(db, "network_name", demo.network.name);
+  setSetting(db, "network_region", demo.network.region);
+
+  for (const site of demo.sites) {
+    if (!listSites(db).some((s) => s.code === site.code)) createSite(db, site);
+  }
+  const siteIds = new Map(listSites(db).map((s) => [s.code, s.id]));
+  for (const instructor of demo.instructors) {
+    if (!listInstructors(db).some((i) => i.code === instructor.code)) {
+      createInstructor(db, { code: instructor.code, name: instructor.name, siteId: siteIds.get(instructor.site) ?? null });
+    }
+  }
+  const instructorIds = new Map(listInstructors(db).map((i) => [i.code, i.id]));
+  for (const account of demo.accounts) {
+    await createUser(db, {
+      email: account.email,
+      displayName: account.displayName,
+      role: account.role,
+      instructorId: account.instructor ? (instructorIds.get(account.instructor) ?? null) : null,
+      password: account.password,
+    });
+  }
+
+  const imports: ImportSummary[] = [];
+  for (const kind of ORDER) {
+    const summary = await importFile(db, {
+      kind,
+      input: { stream: Readable.from([demo.files[kind]]), fileName: `demo-${kind}.csv` },
+      source: "seed",
+    });
+    if (summary.status !== "imported") {
+      const first = summary.issues[0];
+      throw new AppError("seed_failed", 500, `The demo ${kind} file was refused: row ${first?.row}, ${first?.column}: ${first?.reason}`);
+    }
+    imports.push(summary);
+  }
+  return { network: demo.network, accounts: demo.accounts, imports };
+}
+
+export function seedCounts(db: Db) {
+  const one = (table: typeof sites | typeof instructors | typeof classes | typeof attempts | typeof importBatches) =>
+    db.select({ n: count() }).from(table).all()[0].n;
+  return {
+    sites: one(sites),
+    instructors: one(instructors),
+    classes: one(classes),
+    attempts: one(attempts),
+    streams: db.select({ n: count() }).from(attempts).where(eq(attempts.source, "stream")).all()[0].n,
+    batches: one(importBatches),
+  };
+}
