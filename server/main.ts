@@ -6,7 +6,7 @@ import { fileURLToPath } from "node:url";
 import { loadConfig } from "./config";
 import { openDatabase } from "./db/client";
 import { createApp } from "./app";
-import { isEmpty, seedDemo } from "./seed/seedDemo";
+import { demoAccountsPresent, isEmpty, seedDemo } from "./seed/seedDemo";
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 const clientDir = path.join(root, "dist/client");
@@ -22,11 +22,11 @@ async function main() {
   const config = loadConfig();
   await ensureClientBuilt();
   const db = openDatabase(config.dbFile);
-  let demoAccounts: { role: string; email: string; password: string }[] = [];
   if (isEmpty(db)) {
     console.log("Empty database: seeding the invented demo network (about half a minute)…");
-    demoAccounts = (await seedDemo(db)).accounts;
+    await seedDemo(db);
   }
+  const demoAccounts = demoAccountsPresent(db);
   const app = createApp(db, config, { clientDir });
   const server = app.listen(config.port, () => {
     const address = server.address();

@@ -4,14 +4,16 @@ import { Readable } from "node:stream";
 import { count, eq } from "drizzle-orm";
 import type { ImportKind } from "../../shared/domain";
 import type { ImportSummary } from "../../shared/import/api";
+import { buildDirectory } from "../demo/directory";
 import { generateDemoNetwork, type DemoNetwork } from "../demo/generate";
+import { DEMO_SCENARIO } from "../demo/scenario";
 import type { Db } from "../db/client";
 import { attempts, classes, importBatches, instructors, sites, users } from "../db/schema";
 import { AppError } from "../errors";
 import { importFile } from "../imports/service";
 import { setSetting } from "../settings/store";
 import { createInstructor, createSite, listInstructors, listSites } from "../sites/service";
-import { createUser } from "../users/service";
+import { createUser, findUserByEmail } from "../users/service";
 
 export interface SeedResult {
   network: DemoNetwork["network"];
@@ -108,4 +110,9 @@ export function seedCounts(db: Db) {
     streams: db.select({ n: count() }).from(attempts).where(eq(attempts.source, "stream")).all()[0].n,
     batches: one(importBatches),
   };
+}
+
+/** The demo accounts that still exist and are active, to print at start-up. */
+export function demoAccountsPresent(db: Db): DemoNetwork["accounts"] {
+  return buildDirectory(DEMO_SCENARIO).accounts.filter((account) => findUserByEmail(db, account.email)?.active);
 }
