@@ -57,14 +57,21 @@ function runCore(firstAttempt: number, lastAttempt: number): number {
   return check;
 }
 
-function runBare(firstAttempt: number, lastAttempt: number): number {
+/** The baseline: read and sum the same three arrays over the same range, with no classification. */
+function bareSum(t: Int32Array, depth: Float32Array, release: Float32Array, from: number, to: number): number {
   let sum = 0;
+  for (let i = from; i < to; i++) sum += t[i] + depth[i] + release[i];
+  return sum;
+}
+
+// Called per attempt, exactly like the core, so the two differ only in the work done per compression.
+function runBare(firstAttempt: number, lastAttempt: number): number {
+  let check = 0;
   for (let a = firstAttempt; a < lastAttempt; a++) {
     const from = a * PER_ATTEMPT;
-    const to = from + PER_ATTEMPT;
-    for (let i = from; i < to; i++) sum += t[i] + depth[i] + release[i];
+    check += bareSum(t, depth, release, from, from + PER_ATTEMPT);
   }
-  return sum;
+  return check;
 }
 
 /**

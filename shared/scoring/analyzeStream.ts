@@ -39,7 +39,33 @@ export const attemptMetricKeys = [
  * compressions (those that follow an interval no longer than the pause threshold). Every value is a finite
  * number; see analyzeSorted for the values used when there is too little data.
  */
-export type AttemptMetrics = Record<(typeof attemptMetricKeys)[number], number>;
+export interface AttemptMetrics {
+  compressions: number;
+  /** (last t_ms − first t_ms) / 1000. */
+  duration_s: number;
+  /** 60000 × rated intervals / their summed length in ms. */
+  rate_cpm: number;
+  /** Mean peak depth. */
+  depth_mm: number;
+  depth_ok_pct: number;
+  too_shallow_pct: number;
+  too_deep_pct: number;
+  rate_ok_pct: number;
+  too_slow_pct: number;
+  too_fast_pct: number;
+  recoil_ok_pct: number;
+  /** 100 × (1 − summed pauses / duration): the compression fraction. */
+  hands_on_pct: number;
+  pauses: number;
+  longest_pause_s: number;
+  /** Pauses longer than the policy's longPauseLimitS (10 s by default). */
+  pauses_over_10s: number;
+}
+
+// attemptMetricKeys must list exactly the fields of AttemptMetrics.
+type Same<A, B> = [A] extends [B] ? ([B] extends [A] ? true : false) : false;
+const keysMatch: Same<(typeof attemptMetricKeys)[number], keyof AttemptMetrics> = true;
+void keysMatch;
 
 /** Times in milliseconds since attempt start. */
 export type TimeArray = Float64Array | Int32Array | Uint32Array;

@@ -5,6 +5,7 @@ import {
   analyzeStream,
   attemptMetricKeys,
   emptyMetrics,
+  type AttemptMetrics,
   type CompressionRow,
 } from "../../../shared/scoring/analyzeStream";
 import { DEFAULT_POLICY } from "../../../shared/scoring/policy";
@@ -99,7 +100,7 @@ describe("worked example B: 6 child compressions with one 11 s pause", () => {
 });
 
 describe("degenerate streams never give NaN", () => {
-  const allFinite = (m: Record<string, number>) =>
+  const allFinite = (m: AttemptMetrics) =>
     attemptMetricKeys.every((k) => typeof m[k] === "number" && Number.isFinite(m[k]));
 
   it("no compressions: every value is 0", () => {
