@@ -13,6 +13,7 @@ import { createPassport } from "./auth/passport";
 import { authRoutes } from "./auth/routes";
 import { SqliteSessionStore } from "./auth/sessionStore";
 import { errorHandler, notFoundHandler } from "./http/errorHandler";
+import { importRoutes } from "./imports/routes";
 import { sessionSecret } from "./settings/store";
 import { siteRoutes } from "./sites/routes";
 import { userRoutes } from "./users/routes";
@@ -29,7 +30,7 @@ const VERSION = "1.0.0";
 
 /** Feature routers mounted under /api. Each one guards its own routes with `allow(...)`. */
 function featureRouters(db: Db): Router[] {
-  return [userRoutes(db), siteRoutes(db)];
+  return [userRoutes(db), siteRoutes(db), importRoutes(db)];
 }
 
 export function createApp(db: Db, config: Config, options: AppOptions = {}) {

@@ -1,0 +1,125 @@
+// Validation and import jobs of the web upload. Each runs in a worker thread (importWorker.ts) with its own
+// database connection; jobs run one after another, so two imports never wait on each other's write lock.
+// The page polls a job for its progress (bytes read of the total, rows) and then reads its summary.
+import crypto from "node:crypto";
+import fs from "node:fs";
+import { Worker } from "node:worker_threads";
+import type { ImportJob, ImportSummary } from "../../shared/import/api";
+import type { ImportMapping } from "../../shared/import/mapping";
+import { AppError } from "../errors";
+import type { ImportActor } from "./run";
+import type { StoredUpload } from "./uploads";
+import type { WorkerInput, WorkerMessage } from "./importWorker";
+
+interface JobState extends ImportJob {
+  userId: number;
+  rejectedPath: string;
+}
+
+const workerUrl = new URL("./worker.mjs", import.meta.url);
+const KEEP_JOBS = 200;
+
+export class ImportJobs {
+  private readonly jobs = new Map<string, JobState>();
+  private tail: Promise<void> = Promise.resolve();
+
+  constructor(private readonly dbFile: string) {}
+
+  start(upload: StoredUpload, mode: "validate" | "import", mapping: ImportMapping, skipInvalid: boolean, actor: ImportActor & { userId: number }): ImportJob {
+    const id = crypto.randomBytes(12).toString("hex");
+    const job: JobState = {
+      id,
+      uploadId: upload.id,
+      mode,
+      status: "queued",
+      progress: { bytesRead: 0, totalBytes: upload.size, rows: 0 },
+      summary: null,
+      error: null,
+      rejectedCsvUrl: null,
+      createdAt: new Date().toISOString(),
+      userId: actor.userId,
+      rejectedPath: `${upload.path}.${id}.rejected.csv`,
+    };
+    this.jobs.set(id, job);
+    this.forgetOld();
+    const input: WorkerInput = {
+      dbFile: this.dbFile,
+      options: {
+        kind: upload.kind,
+        input: { path: upload.path, fileName: upload.fileName },
+        mapping,
+        dryRun: mode === "validate",
+        skipInvalid,
+        actor,
+        source: "web",
+        rejectedCsvPath: job.rejectedPath,
+      },
+    };
+    this.tail = this.tail.then(() => this.run(job, input));
+    return publicJob(job);
+  }
+
+  get(id: string, user: { id: number; role: string }): ImportJob {
+    return publicJob(this.own(id, user));
+  }
+
+  /** Path of the job's refused rows as CSV, once it has some. */
+  rejectedCsv(id: string, user: { id: number; role: string }): string {
+    const job = this.own(id, user);
+    if (job.status !== "done" || !job.rejectedCsvUrl || !fs.existsSync(job.rejectedPath)) throw new AppError("not_found", 404, "This job has no refused rows to download.");
+    return job.rejectedPath;
+  }
+
+  /** Resolves when every job started so far has finished (tests, shutdown). */
+  idle(): Promise<void> {
+    return this.tail;
+  }
+
+  private own(id: string, user: { id: number; role: string }): JobState {
+    const job = this.jobs.get(id);
+    if (!job || (job.userId !== user.id && user.role !== "coordinator")) throw new AppError("not_found", 404, "The import job was not found.");
+    return job;
+  }
+
+  private run(job: JobState, input: WorkerInput): Promise<void> {
+    job.status = "running";
+    return new Promise((resolve) => {
+      const worker = new Worker(workerUrl, { workerData: input });
+      let finished = false;
+      const finish = (summary: ImportSummary | null, error: string | null) => {
+        if (finished) return;
+        finished = true;
+        job.summary = summary;
+        job.error = error;
+        job.status = error ? "failed" : "done";
+        if (summary && summary.issuesTotal > 0 && summary.rejected + summary.issuesTotal > 0) job.rejectedCsvUrl = `/api/imports/jobs/${job.id}/rejected.csv`;
+        resolve();
+      };
+      worker.on("message", (message: WorkerMessage) => {
+        if (message.type === "progress") job.progress = { bytesRead: message.bytesRead, totalBytes: message.totalBytes, rows: message.rows };
+        else if (message.type === "done") {
+          job.progress = { ...job.progress, bytesRead: job.progress.totalBytes ?? job.progress.bytesRead, rows: message.summary.rowsRead };
+          finish(message.summary, null);
+        } else finish(null, message.message);
+      });
+      worker.on("error", (err) => finish(null, `The import stopped: ${err.message}`));
+      worker.on("exit", (code) => finish(null, code === 0 ? "The import ended without a result." : `The import stopped (exit code ${code}).`));
+    });
+  }
+
+  private forgetOld() {
+    if (this.jobs.size <= KEEP_JOBS) return;
+    for (const [id, job] of this.jobs) {
+      if (this.jobs.size <= KEEP_JOBS) break;
+      if (job.status === "done" || job.status === "failed") {
+        fs.rmSync(job.rejectedPath, { force: true });
+        this.jobs.delete(id);
+      }
+    }
+  }
+}
+
+function publicJob(job: JobState): ImportJob {
+  const { userId: _user, rejectedPath: _path, ...rest } = job;
+  return { ...rest, progress: { ...rest.progress } };
+}

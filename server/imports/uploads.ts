@@ -1,0 +1,82 @@
+// Uploaded files waiting for preview, validation and import. Stored under random names in a private temp
+// folder (the original name is only ever shown, never used as a path) and forgotten after a few hours.
+import crypto from "node:crypto";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { parse } from "csv-parse";
+import type { ImportKind } from "../../shared/domain";
+import type { Upload } from "../../shared/import/api";
+import { notFound } from "../errors";
+
+export interface StoredUpload extends Upload {
+  path: string;
+  userId: number;
+}
+
+const KEEP_MS = 6 * 60 * 60 * 1000;
+
+export class UploadStore {
+  readonly dir: string;
+  private readonly uploads = new Map<string, StoredUpload>();
+
+  constructor(dir?: string) {
+    this.dir = dir ?? fs.mkdtempSync(path.join(os.tmpdir(), "quarterbeat-uploads-"));
+    fs.mkdirSync(this.dir, { recursive: true, mode: 0o700 });
+  }
+
+  /** A fresh random path inside the upload folder. */
+  newPath(): string {
+    return path.join(this.dir, `${crypto.randomBytes(16).toString("hex")}.csv`);
+  }
+
+  add(file: { path: string; fileName: string; size: number }, kind: ImportKind, userId: number): StoredUpload {
+    this.sweep();
+    const upload: StoredUpload = {
+      id: crypto.randomBytes(12).toString("hex"),
+      fileName: file.fileName,
+      kind,
+      size: file.size,
+      uploadedAt: new Date().toISOString(),
+      path: file.path,
+      userId,
+    };
+    this.uploads.set(upload.id, upload);
+    return upload;
+  }
+
+  /** The upload, if it exists and belongs to this user (coordinators may use anyone's). */
+  get(id: string, user: { id: number; role: string }): StoredUpload {
+    const upload = this.uploads.get(id);
+    if (!upload || (upload.userId !== user.id && user.role !== "coordinator")) throw notFound("The upload");
+    return upload;
+  }
+
+  private sweep() {
+    const cutoff = Date.now() - KEEP_MS;
+    for (const [id, upload] of this.uploads) {
+      if (Date.parse(upload.uploadedAt) < cutoff) {
+        fs.rmSync(upload.path, { force: true });
+        fs.rmSync(`${upload.path}.rejected.csv`, { force: true });
+        this.uploads.delete(id);
+      }
+    }
+  }
+}
+
+/** The header and the first rows of a CSV file, read without loading the rest. */
+export async function readHead(file: string, rows = 20): Promise<{ header: string[]; rows: string[][] }> {
+  const parser = fs.createReadStream(file, { highWaterMark: 64 * 1024 }).pipe(
+    parse({ bom: true, relax_column_count: true, skip_empty_lines: true, to_line: rows + 1 + 50, relax_quotes: true }),
+  );
+  const records: string[][] = [];
+  try {
+    for await (const record of parser) {
+      records.push(record as string[]);
+      if (records.length > rows) break;
+    }
+  } catch {
+    // A file that is not CSV shows what could be read; validation reports the problem with its row.
+  }
+  return { header: records[0] ?? [], rows: records.slice(1, rows + 1) };
+}
