@@ -101,27 +101,32 @@ export const manikins = sqliteTable(
   (t) => [index("manikins_site_idx").on(t.siteId)],
 );
 
-export const importBatches = sqliteTable("import_batches", {
-  id: integer().primaryKey({ autoIncrement: true }),
-  kind: text({ enum: importKinds }).notNull(),
-  fileName: text().notNull(),
-  sha256: text().notNull(),
-  userId: integer().references(() => users.id),
-  source: text({ enum: ["cli", "web", "seed"] }).notNull(),
-  status: text({ enum: ["applied", "undone"] })
-    .notNull()
-    .default("applied"),
-  rowsRead: integer().notNull().default(0),
-  inserted: integer().notNull().default(0),
-  updated: integer().notNull().default(0),
-  unchanged: integer().notNull().default(0),
-  rejected: integer().notNull().default(0),
-  newCodes: text({ mode: "json" }).$type<Record<string, string[]>>(),
-  warnings: text({ mode: "json" }).$type<string[]>(),
-  createdAt: createdAt(),
-  undoneAt: text(),
-  undoneBy: integer().references(() => users.id),
-});
+export const importBatches = sqliteTable(
+  "import_batches",
+  {
+    id: integer().primaryKey({ autoIncrement: true }),
+    kind: text({ enum: importKinds }).notNull(),
+    fileName: text().notNull(),
+    sha256: text().notNull(),
+    userId: integer().references(() => users.id),
+    source: text({ enum: ["cli", "web", "seed"] }).notNull(),
+    status: text({ enum: ["applied", "undone"] })
+      .notNull()
+      .default("applied"),
+    rowsRead: integer().notNull().default(0),
+    inserted: integer().notNull().default(0),
+    updated: integer().notNull().default(0),
+    unchanged: integer().notNull().default(0),
+    rejected: integer().notNull().default(0),
+    newCodes: text({ mode: "json" }).$type<Record<string, string[]>>(),
+    warnings: text({ mode: "json" }).$type<string[]>(),
+    createdAt: createdAt(),
+    undoneAt: text(),
+    undoneBy: integer().references(() => users.id),
+  },
+  // an instructor's import history lists their own batches, newest first
+  (t) => [index("import_batches_user_idx").on(t.userId, t.id)],
+);
 
 /** Rows refused by an import run with --skip-invalid, kept with their batch for correction. */
 export const rejectedRows = sqliteTable(
@@ -188,6 +193,8 @@ export const classes = sqliteTable(
     index("classes_quarter_idx").on(t.quarter),
     index("classes_instructor_idx").on(t.instructorId, t.quarter),
     index("classes_site_idx").on(t.siteId, t.quarter),
+    // undo deletes a batch's rows by batch id
+    index("classes_batch_idx").on(t.batchId),
   ],
 );
 
@@ -245,14 +252,18 @@ export const attempts = sqliteTable(
 );
 
 /** Raw compressions of an attempt, packed (server/streams/codec.ts). */
-export const compressionStreams = sqliteTable("compression_streams", {
-  attemptId: text()
-    .primaryKey()
-    .references(() => attempts.id, { onDelete: "cascade" }),
-  compressions: integer().notNull(),
-  data: blob({ mode: "buffer" }).notNull(),
-  batchId: integer().references(() => importBatches.id),
-});
+export const compressionStreams = sqliteTable(
+  "compression_streams",
+  {
+    attemptId: text()
+      .primaryKey()
+      .references(() => attempts.id, { onDelete: "cascade" }),
+    compressions: integer().notNull(),
+    data: blob({ mode: "buffer" }).notNull(),
+    batchId: integer().references(() => importBatches.id),
+  },
+  (t) => [index("compression_streams_batch_idx").on(t.batchId)],
+);
 
 /** Earlier scores of an attempt, kept when the network rescores under a new policy version. */
 export const scoreHistory = sqliteTable(
@@ -287,7 +298,11 @@ export const equipmentEvents = sqliteTable(
     resolved: integer({ mode: "boolean" }).notNull().default(false), // faults only
     batchId: integer().references(() => importBatches.id),
   },
-  (t) => [uniqueIndex("equipment_events_key_idx").on(t.eventKey), index("equipment_manikin_idx").on(t.manikinId, t.date)],
+  (t) => [
+    uniqueIndex("equipment_events_key_idx").on(t.eventKey),
+    index("equipment_manikin_idx").on(t.manikinId, t.date),
+    index("equipment_batch_idx").on(t.batchId),
+  ],
 );
 
 /** The coordinator's text for a quarter's report: what the network is doing about the errors found. */
