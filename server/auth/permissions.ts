@@ -8,6 +8,8 @@ export const permissions = {
   readDirectory: ["coordinator", "quality_lead"],
   importData: ["coordinator", "instructor"],
   undoImport: ["coordinator"],
+  /** The filter bar's choices; what each role gets is narrowed by the insight options service. */
+  readInsightOptions: ["coordinator", "quality_lead", "instructor", "funder"],
   readNetwork: ["coordinator", "quality_lead", "instructor"],
   drillDown: ["coordinator", "quality_lead"],
   readOwnStanding: ["instructor"],

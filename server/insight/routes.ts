@@ -1,0 +1,82 @@
+// Network-insight routes: parse the filters, apply the viewer's scope, answer from the per-state cache.
+import { Router, type Request } from "express";
+import { z } from "zod";
+import { attemptListQuerySchema, errorsQuerySchema, insightFiltersSchema } from "../../shared/filters";
+import type { Db } from "../db/client";
+import { allow, rowScope, signedInUser } from "../auth/guard";
+import { parseId, parseWith } from "../http/validate";
+import { attemptDetail, attemptList } from "./attempts";
+import { cached } from "./cache";
+import { classDetail } from "./classes";
+import { errorAnalysis } from "./errors";
+import { filtersKey, resolveFilters } from "./filters";
+import { instructorDetail, instructorTable } from "./instructors";
+import { filterOptions } from "./options";
+import { overview } from "./overview";
+import { standing } from "./standing";
+import { viewerKey, viewerOf } from "./viewer";
+
+const rowIdSchema = z.string().trim().min(1, "Give an id").max(100, "An id has at most 100 characters");
+
+export function insightRoutes(db: Db): Router {
+  const router = Router();
+
+  /** The viewer, the filters resolved for them and a cache key prefix for this route. */
+  function context(req: Request, route: string, query: unknown = req.query) {
+    const viewer = viewerOf(db, signedInUser(req));
+    const filters = resolveFilters(db, parseWith(insightFiltersSchema, query, "The filters"), viewer);
+    return { viewer, filters, key: `${route}|${viewerKey(viewer)}|${filtersKey(filters)}` };
+  }
+
+  router.get("/insight/options", allow("readInsightOptions"), (req, res) => {
+    const viewer = viewerOf(db, signedInUser(req));
+    res.json(cached(db, `options|${viewerKey(viewer)}`, () => filterOptions(db, viewer)));
+  });
+
+  router.get("/insight/overview", allow("readNetwork"), (req, res) => {
+    const { viewer, filters, key } = context(req, "overview");
+    res.json(cached(db, key, () => overview(db, viewer, filters)));
+  });
+
+  router.get("/insight/standing", allow("readOwnStanding"), (req, res) => {
+    const { viewer, filters, key } = context(req, "standing");
+    res.json(cached(db, key, () => standing(db, viewer, filters)));
+  });
+
+  router.get("/insight/instructors", allow("drillDown"), (req, res) => {
+    const { filters, key } = context(req, "instructors");
+    res.json(cached(db, key, () => instructorTable(db, filters)));
+  });
+
+  router.get("/insight/instructors/:id", allow("drillDown"), (req, res) => {
+    const id = parseId(req.params.id);
+    const { filters, key } = context(req, `instructor:${id}`);
+    res.json(cached(db, key, () => instructorDetail(db, id, filters)));
+  });
+
+  router.get("/insight/errors", allow("drillDown"), (req, res) => {
+    const { error, ...filterQuery } = parseWith(errorsQuerySchema, req.query, "The filters");
+    const { filters, key } = context(req, `errors:${error ?? ""}`, filterQuery);
+    res.json(cached(db, key, () => errorAnalysis(db, filters, error)));
+  });
+
+  router.get("/classes/:id", allow("readNetwork"), (req, res) => {
+    const id = parseWith(rowIdSchema, req.params.id, "The class id");
+    res.json(classDetail(db, id, rowScope(signedInUser(req)).instructorId));
+  });
+
+  // Instructors see their own attempts only; others' are answered as missing, never as forbidden.
+  router.get("/attempts", allow("readNetwork"), (req, res) => {
+    const { error, class: classId, page, pageSize, ...filterQuery } = parseWith(attemptListQuerySchema, req.query, "The filters");
+    const { filters, key } = context(req, `attempts:${error ?? ""}:${classId ?? ""}:${page}:${pageSize}`, filterQuery);
+    const onlyInstructorId = rowScope(signedInUser(req)).instructorId;
+    res.json(cached(db, key, () => attemptList(db, filters, { error, classId, page, pageSize, onlyInstructorId })));
+  });
+
+  router.get("/attempts/:id", allow("readNetwork"), (req, res) => {
+    const id = parseWith(rowIdSchema, req.params.id, "The attempt id");
+    res.json(attemptDetail(db, id, rowScope(signedInUser(req)).instructorId));
+  });
+
+  return router;
+}

@@ -1,0 +1,105 @@
+// "My standing": an instructor's own medians and pass rate beside the network's, the anonymous spread of all
+// instructors, the funnel with the instructor's own point, the error profile and the classes. Other
+// instructors appear only as anonymous points and network aggregates.
+import { eq, sql } from "drizzle-orm";
+import { standingMetricKeys, type StandingAnswer } from "../../shared/schemas/insight";
+import { attemptErrorLabels, attemptErrorNames } from "../../shared/scoring/scoreAttempt";
+import { classifyAgainstFunnel, percentileRank } from "../../shared/stats";
+import type { Db } from "../db/client";
+import { attempts, instructors } from "../db/schema";
+import { forbidden } from "../errors";
+import type { ResolvedFilters } from "./filters";
+import { funnelLimitCurve } from "./funnel";
+import { classRows } from "./classes";
+import { rateOf } from "./rates";
+import { attemptConditions, classConditions, errorCountColumns, errorCountsOf, medianOf, mediansBy } from "./sql";
+import { hidesGroup, type Viewer } from "./viewer";
+
+const metricColumns = {
+  score: attempts.score,
+  depth_ok_pct: attempts.depthOkPct,
+  rate_ok_pct: attempts.rateOkPct,
+  recoil_ok_pct: attempts.recoilOkPct,
+  hands_on_pct: attempts.handsOnPct,
+} as const;
+
+export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): StandingAnswer {
+  const me = viewer.ownInstructorId;
+  if (me === null) throw forbidden("Your account is not linked to an instructor.");
+  const self = db.select({ code: instructors.code, name: instructors.name }).from(instructors).where(eq(instructors.id, me)).get();
+  if (!self) throw forbidden("Your account is not linked to an instructor.");
+
+  const network = { ...filters, instructorId: null };
+  const mine = { ...filters, instructorId: me };
+  const networkWhere = attemptConditions(network);
+  const min = viewer.suppressionMinCount;
+
+  const perInstructor = db
+    .select({ instructorId: attempts.instructorId, n: sql<number>`count(*)`, passed: sql<number>`sum(${attempts.passed})` })
+    .from(attempts)
+    .where(networkWhere)
+    .groupBy(attempts.instructorId)
+    .all();
+  const totals = perInstructor.reduce((sum, row) => ({ n: sum.n + row.n, passed: sum.passed + row.passed }), { n: 0, passed: 0 });
+  const networkHidden = hidesGroup(viewer, totals.n);
+  const myTally = perInstructor.find((row) => row.instructorId === me) ?? { instructorId: me, n: 0, passed: 0 };
+  // instructors shown as points and ranked against: enough attempts to be shown, and always me
+  const shown = perInstructor.filter((row) => row.n >= min || row.instructorId === me);
+  const shownIds = new Set(shown.map((row) => row.instructorId));
+
+  const medians = Object.fromEntries(
+    standingMetricKeys.map((key) => [key, mediansBy<number>(db, metricColumns[key], attempts.instructorId, networkWhere)]),
+  ) as Record<(typeof standingMetricKeys)[number], Map<number, number>>;
+
+  const metrics = standingMetricKeys.map((key) => {
+    const mineValue = medians[key].get(me) ?? null;
+    const others = [...medians[key]].filter(([id]) => shownIds.has(id)).map(([, value]) => value);
+    return {
+      key,
+      mine: mineValue,
+      network: networkHidden ? null : medianOf(db, metricColumns[key], networkWhere),
+      percentileRank: mineValue === null || networkHidden ? null : percentileRank(others, mineValue),
+    };
+  });
+
+  const points = shown
+    .filter((row) => medians.score.has(row.instructorId))
+    .map((row) => ({ medianScore: medians.score.get(row.instructorId)!, passRate: row.passed / row.n, isMe: row.instructorId === me }))
+    .sort((a, b) => a.medianScore - b.medianScore || a.passRate - b.passRate);
+
+  const networkRate = networkHidden || totals.n === 0 ? null : totals.passed / totals.n;
+  const nMax = Math.max(0, ...perInstructor.map((row) => row.n));
+
+  const errorCounts = (where: ReturnType<typeof attemptConditions>) =>
+    errorCountsOf(db.select(errorCountColumns()).from(attempts).where(where).get()!);
+  const myErrors = errorCounts(attemptConditions(mine));
+  const networkErrors = networkHidden ? null : errorCounts(networkWhere);
+
+  return {
+    period: filters.period,
+    me: { instructorId: me, code: self.code, name: self.name },
+    suppressionMinCount: min,
+    attempts: myTally.n,
+    metrics,
+    spread: { minAttempts: min, points: networkHidden ? points.filter((p) => p.isMe) : points, instructorsLeftOut: perInstructor.length - shown.length },
+    funnel: {
+      networkRate,
+      method: "exact",
+      curve: funnelLimitCurve(networkRate, nMax),
+      me: {
+        ...rateOf(myTally.passed, myTally.n),
+        position: networkRate === null || myTally.n === 0 ? null : classifyAgainstFunnel(myTally.passed, myTally.n, networkRate),
+      },
+    },
+    errorProfile: {
+      networkSuppressed: networkHidden,
+      rows: attemptErrorNames.map((error) => ({
+        error,
+        label: attemptErrorLabels[error],
+        mine: myTally.n === 0 ? null : myErrors[error] / myTally.n,
+        network: networkErrors === null || totals.n === 0 ? null : networkErrors[error] / totals.n,
+      })),
+    },
+    classes: classRows(db, classConditions(mine)),
+  };
+}

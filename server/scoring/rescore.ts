@@ -1,0 +1,76 @@
+// Scores attempts again under the policy in force. Attempts scored under an older version get the new score;
+// where the score, the result or the errors change, the old ones move to score_history first. All in one
+// transaction: a failure leaves every attempt as it was.
+import { scoreAttempt, errorsToMask } from "../../shared/scoring/scoreAttempt";
+import type { PatientType } from "../../shared/scoring/policy";
+import type { Db } from "../db/client";
+import { currentPolicy } from "../policy/service";
+
+const BATCH = 5_000;
+
+interface StoredAttempt {
+  rowid: number;
+  id: string;
+  profile: PatientType;
+  compressions: number;
+  depth_ok_pct: number;
+  too_shallow_pct: number;
+  too_deep_pct: number;
+  rate_ok_pct: number;
+  too_slow_pct: number;
+  too_fast_pct: number;
+  recoil_ok_pct: number;
+  hands_on_pct: number;
+  longest_pause_s: number;
+  score: number;
+  passed: number;
+  error_mask: number;
+  policy_version: number;
+}
+
+export interface RescoreResult {
+  version: number;
+  examined: number;
+  changed: number;
+}
+
+export function rescoreAttempts(db: Db, fromQuarter?: string): RescoreResult {
+  const { version, policy } = currentPolicy(db);
+  const sqlite = db.$client;
+  // plain prepared statements: a million rows through the query builder would cost minutes
+  const nextBatch = sqlite.prepare(
+    `SELECT rowid, id, profile, compressions, depth_ok_pct, too_shallow_pct, too_deep_pct, rate_ok_pct, too_slow_pct,
+            too_fast_pct, recoil_ok_pct, hands_on_pct, longest_pause_s, score, passed, error_mask, policy_version
+       FROM attempts
+      WHERE rowid > ? AND policy_version <> ? AND quarter >= ?
+      ORDER BY rowid LIMIT ?`,
+  );
+  const keepOld = sqlite.prepare(
+    `INSERT INTO score_history (attempt_id, policy_version, score, passed, error_mask) VALUES (?, ?, ?, ?, ?)
+     ON CONFLICT (attempt_id, policy_version) DO NOTHING`,
+  );
+  const update = sqlite.prepare("UPDATE attempts SET score = ?, passed = ?, error_mask = ?, policy_version = ? WHERE rowid = ?");
+
+  return sqlite.transaction((): RescoreResult => {
+    let examined = 0;
+    let changed = 0;
+    let after = 0;
+    for (;;) {
+      const rows = nextBatch.all(after, version, fromQuarter ?? "", BATCH) as StoredAttempt[];
+      if (rows.length === 0) break;
+      for (const row of rows) {
+        const result = scoreAttempt(row, row.profile, policy);
+        const mask = errorsToMask(result.errors);
+        const passed = result.passed ? 1 : 0;
+        if (result.score !== row.score || passed !== row.passed || mask !== row.error_mask) {
+          keepOld.run(row.id, row.policy_version, row.score, row.passed, row.error_mask);
+          changed += 1;
+        }
+        update.run(result.score, passed, mask, version, row.rowid);
+      }
+      examined += rows.length;
+      after = rows[rows.length - 1].rowid;
+    }
+    return { version, examined, changed };
+  })();
+}

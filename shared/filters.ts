@@ -1,0 +1,80 @@
+// The filters every insight page carries in its URL's query string, validated the same way on both sides.
+// A period is one quarter or a from/to range of quarters; the other filters narrow the attempts counted.
+// Sites, instructors and manikins are named by their code (asset id for manikins) or by their numeric id.
+import { z } from "zod";
+import { feedbackModes } from "./domain";
+import { isQuarter } from "./quarter";
+import { patientTypes } from "./scoring/policy";
+import { attemptErrorNames } from "./scoring/scoreAttempt";
+
+export const quarterParamSchema = z
+  .string({ error: "Use a quarter such as 2026-Q3" })
+  .trim()
+  .refine(isQuarter, "Use a quarter such as 2026-Q3");
+
+/** A code as written in the import files, or a numeric id; anything else (quotes, spaces, SQL) is refused. */
+export const refParamSchema = z
+  .string({ error: "Use a code of letters, digits, '.', '_' or '-', or a numeric id" })
+  .trim()
+  .regex(/^[A-Za-z0-9._-]{1,32}$/, "Use a code of letters, digits, '.', '_' or '-', or a numeric id");
+
+export const insightFilterShape = {
+  quarter: quarterParamSchema.optional(),
+  from: quarterParamSchema.optional(),
+  to: quarterParamSchema.optional(),
+  site: refParamSchema.optional(),
+  profile: z.enum(patientTypes, { error: `Use one of ${patientTypes.join(", ")}` }).optional(),
+  feedback: z.enum(feedbackModes, { error: `Use one of ${feedbackModes.join(", ")}` }).optional(),
+  instructor: refParamSchema.optional(),
+  manikin: refParamSchema.optional(),
+};
+
+type FilterFields = { quarter?: string; from?: string; to?: string };
+
+/** The period rules shared by every route's query schema. */
+function checkPeriod(value: FilterFields, ctx: z.RefinementCtx) {
+  if (value.quarter && (value.from || value.to)) {
+    ctx.addIssue({ code: "custom", path: ["quarter"], message: "Give either one quarter or a from/to range, not both" });
+  }
+  if (value.from && value.to && value.from > value.to) {
+    ctx.addIssue({ code: "custom", path: ["to"], message: "The end of the range must not come before its start" });
+  }
+}
+
+export const insightFiltersSchema = z.object(insightFilterShape).superRefine(checkPeriod);
+export type InsightFilters = z.infer<typeof insightFiltersSchema>;
+
+/** Filters plus extra query fields of one route, with the same period rules. */
+export function filtersWith<T extends z.ZodRawShape>(extra: T) {
+  return z.object({ ...insightFilterShape, ...extra }).superRefine((value, ctx) => checkPeriod(value as FilterFields, ctx));
+}
+
+const pageNumber = (what: string, max: number, fallback: number) =>
+  z.coerce
+    .number({ error: `${what} must be a whole number` })
+    .int(`${what} must be a whole number`)
+    .min(1, `${what} must be at least 1`)
+    .max(max, `${what} must be at most ${max}`)
+    .default(fallback);
+
+export const errorParamSchema = z.enum(attemptErrorNames, { error: `Use one of ${attemptErrorNames.join(", ")}` });
+
+export const attemptListQuerySchema = filtersWith({
+  error: errorParamSchema.optional(),
+  class: refParamSchema.optional(),
+  page: pageNumber("page", 1_000_000, 1),
+  pageSize: pageNumber("pageSize", 200, 50),
+});
+export type AttemptListQuery = z.infer<typeof attemptListQuerySchema>;
+
+export const errorsQuerySchema = filtersWith({ error: errorParamSchema.optional() });
+export type ErrorsQuery = z.infer<typeof errorsQuerySchema>;
+
+/** The query string for a set of filters (the client builds links with it; empty values are left out). */
+export function filtersToQuery(filters: Partial<Record<string, string | number | undefined>>): string {
+  const params = new URLSearchParams();
+  for (const [key, value] of Object.entries(filters)) {
+    if (value !== undefined && value !== "") params.set(key, String(value));
+  }
+  return params.toString();
+}

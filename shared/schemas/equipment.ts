@@ -1,0 +1,72 @@
+// Answer of GET /api/equipment: the manikin fleet, consumables per 100 learners and what needs attention.
+import { z } from "zod";
+import { patientTypes } from "../scoring/policy";
+import { periodSchema } from "./insight";
+
+const count = z.number().int().min(0);
+const siteRef = z.object({ id: z.number(), code: z.string() });
+
+export const fleetRowSchema = z.object({
+  id: z.number(),
+  assetId: z.string(),
+  patientType: z.enum(patientTypes).nullable(),
+  site: siteRef.nullable(),
+  inServiceSince: z.string().nullable(),
+  retiredOn: z.string().nullable(),
+  /** Attempts and compressions on this manikin per quarter of the trend window, oldest first. */
+  usage: z.array(z.object({ quarter: z.string(), attempts: count, compressions: count })),
+  /** Compressions recorded since the last service (since it came into use when never serviced). */
+  compressionsSinceService: count,
+  lastServiceDate: z.string().nullable(),
+  openFaults: count,
+});
+
+const consumable = z.object({
+  fromClassLogs: count,
+  fromEvents: count,
+  total: count,
+  /** total × 100 / learners; null without learners. */
+  per100Learners: z.number().nullable(),
+});
+
+export const consumablesRowSchema = z.object({
+  site: siteRef,
+  quarter: z.string(),
+  learners: count,
+  lungs: consumable,
+  mouthpieces: consumable,
+  batteries: consumable,
+});
+
+export const attentionKinds = ["service_by_compressions", "service_by_days", "open_fault", "mouthpiece_cleaning"] as const;
+
+export const attentionItemSchema = z.object({
+  kind: z.enum(attentionKinds),
+  site: siteRef.nullable(),
+  manikin: z.object({ id: z.number(), assetId: z.string() }).nullable(),
+  classId: z.string().nullable(),
+  /** Plain-language reason, naming the figure and the threshold. */
+  reason: z.string(),
+});
+
+export const thresholdSchema = z.object({
+  value: z.number(),
+  /** True while the network keeps the project default (policy, not a guideline). */
+  projectDefault: z.boolean(),
+  defaultValue: z.number(),
+});
+
+export const equipmentAnswerSchema = z.object({
+  period: periodSchema,
+  asOf: z.string(),
+  thresholds: z.object({
+    serviceEveryCompressions: thresholdSchema,
+    serviceEveryDays: thresholdSchema,
+    minMouthpieceCleansPerLearner: thresholdSchema,
+    note: z.string(),
+  }),
+  fleet: z.array(fleetRowSchema),
+  consumables: z.array(consumablesRowSchema),
+  attention: z.array(attentionItemSchema),
+});
+export type EquipmentAnswer = z.infer<typeof equipmentAnswerSchema>;

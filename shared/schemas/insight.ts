@@ -1,0 +1,364 @@
+// Answers of the network-insight API (/api/insight/*, /api/classes/:id, /api/attempts*). Every rate carries its
+// Wilson 95 % interval. A group smaller than the policy's suppressionMinCount, shown to someone who may only
+// see it as an aggregate (an instructor looking at others, a funder), comes back with null values and
+// `suppressed: true`.
+import { z } from "zod";
+import { courseTypes, feedbackModes } from "../domain";
+import { bandSchema, patientTypes } from "../scoring/policy";
+import { attemptErrorNames } from "../scoring/scoreAttempt";
+
+const count = z.number().int().min(0);
+const share = z.number().min(0).max(1);
+
+export const periodSchema = z.object({
+  from: z.string(),
+  to: z.string(),
+  /** Every quarter of the period, oldest first. */
+  quarters: z.array(z.string()),
+});
+export type Period = z.infer<typeof periodSchema>;
+
+/** successes out of n with the Wilson 95 % interval [low, high]; all null when n is 0 or the group is hidden. */
+export const rateSchema = z.object({
+  successes: count.nullable(),
+  n: count.nullable(),
+  rate: share.nullable(),
+  low: share.nullable(),
+  high: share.nullable(),
+  suppressed: z.boolean(),
+});
+export type Rate = z.infer<typeof rateSchema>;
+
+export const funnelPositions = ["inside", "above95", "below95", "above998", "below998"] as const;
+export const funnelPositionSchema = z.enum(funnelPositions);
+
+/** Funnel limits around the network rate at n attempts (Spiegelhalter 2005, exact binomial). */
+export const funnelCurvePointSchema = z.object({
+  n: count,
+  low95: share,
+  high95: share,
+  low998: share,
+  high998: share,
+});
+
+export const funnelSchema = z.object({
+  /** The network pass rate the limits are drawn around (null without attempts or when hidden). */
+  networkRate: share.nullable(),
+  method: z.literal("exact"),
+  curve: z.array(funnelCurvePointSchema),
+});
+
+export const errorNameSchema = z.enum(attemptErrorNames);
+
+/** One bar of the error Pareto: share = of all errors counted, attemptShare = of attempts. */
+export const paretoRowSchema = z.object({
+  error: errorNameSchema,
+  label: z.string(),
+  count,
+  share,
+  cumulativeShare: share,
+  attemptShare: share,
+});
+
+export const paretoSchema = z.object({
+  attempts: count.nullable(),
+  rows: z.array(paretoRowSchema),
+  suppressed: z.boolean(),
+});
+
+// ---- GET /api/insight/options -------------------------------------------------------------------------
+
+export const optionsAnswerSchema = z.object({
+  /** Quarters with attempts, newest first. */
+  quarters: z.array(z.string()),
+  sites: z.array(z.object({ id: z.number(), code: z.string(), name: z.string() })),
+  patientTypes: z.array(z.enum(patientTypes)),
+  feedbackModes: z.array(z.enum(feedbackModes)),
+  errors: z.array(z.object({ name: errorNameSchema, label: z.string() })),
+  /** Drill-down roles: every instructor; an instructor: only themselves; a funder: none. */
+  instructors: z.array(z.object({ id: z.number(), code: z.string(), name: z.string(), siteId: z.number().nullable() })),
+  /** Drill-down roles: every manikin; an instructor: the manikins of their site; a funder: none. */
+  manikins: z.array(
+    z.object({ id: z.number(), assetId: z.string(), patientType: z.enum(patientTypes).nullable(), siteId: z.number().nullable() }),
+  ),
+});
+export type OptionsAnswer = z.infer<typeof optionsAnswerSchema>;
+
+// ---- GET /api/insight/overview ------------------------------------------------------------------------
+
+export const seriesPointSchema = z.object({
+  quarter: z.string(),
+  attempts: count.nullable(),
+  passed: count.nullable(),
+  rate: share.nullable(),
+  low: share.nullable(),
+  high: share.nullable(),
+  /** p-chart 3-sigma limits around the series centre for this quarter's number of attempts. */
+  lcl: share.nullable(),
+  ucl: share.nullable(),
+  outside: z.boolean(),
+  suppressed: z.boolean(),
+});
+
+export const passRateSeriesSchema = z.object({
+  /** p̄ = Σpassed / Σattempts over the series (Montgomery p-chart). */
+  centre: share.nullable(),
+  points: z.array(seriesPointSchema),
+});
+
+export const agreementSchema = z.object({
+  /** Attempts with both an instructor's result and Quarterbeat's. */
+  pairs: count.nullable(),
+  /** [[both pass, instructor pass / Quarterbeat fail], [instructor fail / Quarterbeat pass, both fail]]. */
+  table: z.tuple([z.tuple([count, count]), z.tuple([count, count])]).nullable(),
+  observed: share.nullable(),
+  expected: share.nullable(),
+  kappa: z.number().nullable(),
+  suppressed: z.boolean(),
+});
+
+export const feedbackGroupSchema = z.object({
+  mode: z.enum(feedbackModes),
+  attempts: count.nullable(),
+  passRate: rateSchema,
+  medianScore: z.number().nullable(),
+  suppressed: z.boolean(),
+});
+
+export const overviewAnswerSchema = z.object({
+  period: periodSchema,
+  previousPeriod: periodSchema,
+  suppressionMinCount: z.number().int(),
+  suppressed: z.boolean(),
+  learners: count.nullable(),
+  classes: count.nullable(),
+  attempts: count.nullable(),
+  passRate: rateSchema,
+  passRateChange: z.object({
+    previous: rateSchema,
+    /** Difference of the two rates (fraction points); relative = difference / previous. */
+    absolute: z.number().nullable(),
+    relative: z.number().nullable(),
+  }),
+  /** Σ passed / Σ learners over the class logs of the period: what instructors recorded. */
+  recordedCompletion: rateSchema,
+  agreement: agreementSchema,
+  medianScore: z.number().nullable(),
+  series: passRateSeriesSchema,
+  errors: paretoSchema,
+  feedback: z.array(feedbackGroupSchema),
+});
+export type OverviewAnswer = z.infer<typeof overviewAnswerSchema>;
+
+// ---- GET /api/insight/standing ------------------------------------------------------------------------
+
+export const standingMetricKeys = ["score", "depth_ok_pct", "rate_ok_pct", "recoil_ok_pct", "hands_on_pct"] as const;
+export const standingMetricSchema = z.object({
+  key: z.enum(standingMetricKeys),
+  mine: z.number().nullable(),
+  network: z.number().nullable(),
+  /** Percentile rank (0–100) of my median among the instructors' medians. */
+  percentileRank: z.number().nullable(),
+});
+
+export const spreadPointSchema = z.object({
+  medianScore: z.number(),
+  passRate: share,
+  isMe: z.boolean(),
+});
+
+export const classRowSchema = z.object({
+  id: z.string(),
+  date: z.string(),
+  course: z.enum(courseTypes),
+  learners: count,
+  /** Learners the instructor recorded as passed. */
+  passed: count,
+  attempts: count,
+  /** Quarterbeat's pass rate over the class's attempts. */
+  passRate: rateSchema,
+});
+export type ClassRow = z.infer<typeof classRowSchema>;
+
+export const standingAnswerSchema = z.object({
+  period: periodSchema,
+  me: z.object({ instructorId: z.number(), code: z.string(), name: z.string() }),
+  suppressionMinCount: z.number().int(),
+  attempts: count,
+  metrics: z.array(standingMetricSchema),
+  spread: z.object({
+    /** Instructors with fewer attempts than this are left out (only I am always shown). */
+    minAttempts: z.number().int(),
+    points: z.array(spreadPointSchema),
+    instructorsLeftOut: count,
+  }),
+  funnel: funnelSchema.extend({
+    me: rateSchema.extend({ position: funnelPositionSchema.nullable() }),
+  }),
+  errorProfile: z.object({
+    networkSuppressed: z.boolean(),
+    rows: z.array(z.object({ error: errorNameSchema, label: z.string(), mine: share.nullable(), network: share.nullable() })),
+  }),
+  classes: z.array(classRowSchema),
+});
+export type StandingAnswer = z.infer<typeof standingAnswerSchema>;
+
+// ---- GET /api/insight/instructors and /api/insight/instructors/:id -------------------------------------
+
+export const instructorRowSchema = z.object({
+  id: z.number(),
+  code: z.string(),
+  name: z.string(),
+  site: z.object({ id: z.number(), code: z.string() }).nullable(),
+  classes: count,
+  attempts: count,
+  passRate: rateSchema,
+  medianScore: z.number().nullable(),
+  position: funnelPositionSchema.nullable(),
+});
+
+export const instructorsAnswerSchema = z.object({
+  period: periodSchema,
+  funnel: funnelSchema,
+  instructors: z.array(instructorRowSchema),
+});
+export type InstructorsAnswer = z.infer<typeof instructorsAnswerSchema>;
+
+export const instructorDetailAnswerSchema = z.object({
+  period: periodSchema,
+  instructor: z.object({ id: z.number(), code: z.string(), name: z.string(), site: z.object({ id: z.number(), code: z.string() }).nullable() }),
+  trend: z.array(z.object({ quarter: z.string(), passRate: rateSchema, medianScore: z.number().nullable() })),
+  classes: z.array(classRowSchema),
+});
+export type InstructorDetailAnswer = z.infer<typeof instructorDetailAnswerSchema>;
+
+// ---- GET /api/insight/errors ---------------------------------------------------------------------------
+
+export const breakdownRowSchema = z.object({
+  /** profile or feedback name, site/instructor code, manikin asset id ("(none)" when not recorded). */
+  key: z.string(),
+  id: z.number().nullable(),
+  count,
+  attempts: count,
+  share,
+});
+
+export const errorsAnswerSchema = z.object({
+  period: periodSchema,
+  pareto: paretoSchema,
+  selected: z
+    .object({
+      error: errorNameSchema,
+      label: z.string(),
+      trend: z.array(z.object({ quarter: z.string(), count, attempts: count, share: share.nullable(), low: share.nullable(), high: share.nullable() })),
+      byProfile: z.array(breakdownRowSchema),
+      byFeedback: z.array(breakdownRowSchema),
+      bySite: z.array(breakdownRowSchema),
+      byInstructor: z.array(breakdownRowSchema),
+      byManikin: z.array(breakdownRowSchema),
+    })
+    .nullable(),
+});
+export type ErrorsAnswer = z.infer<typeof errorsAnswerSchema>;
+
+// ---- GET /api/attempts, /api/attempts/:id, /api/classes/:id --------------------------------------------
+
+export const attemptMetricsSchema = z.object({
+  durationS: z.number(),
+  compressions: count,
+  rateCpm: z.number(),
+  depthMm: z.number(),
+  depthOkPct: z.number(),
+  tooShallowPct: z.number(),
+  tooDeepPct: z.number(),
+  rateOkPct: z.number(),
+  tooSlowPct: z.number(),
+  tooFastPct: z.number(),
+  recoilOkPct: z.number(),
+  handsOnPct: z.number(),
+  longestPauseS: z.number(),
+  pauses: count.nullable(),
+  pausesOver10s: count.nullable(),
+});
+
+export const attemptRowSchema = z.object({
+  id: z.string(),
+  classId: z.string(),
+  learner: z.string(),
+  startedAt: z.string(),
+  quarter: z.string(),
+  profile: z.enum(patientTypes),
+  feedback: z.enum(feedbackModes),
+  site: z.object({ id: z.number(), code: z.string() }).nullable(),
+  instructor: z.object({ id: z.number(), code: z.string() }).nullable(),
+  manikin: z.object({ id: z.number(), assetId: z.string() }).nullable(),
+  metrics: attemptMetricsSchema,
+  score: z.number(),
+  passed: z.boolean(),
+  instructorResult: z.enum(["pass", "fail"]).nullable(),
+  errors: z.array(errorNameSchema),
+  policyVersion: z.number().int(),
+  source: z.enum(["summary", "stream"]),
+  hasStream: z.boolean(),
+});
+export type AttemptRow = z.infer<typeof attemptRowSchema>;
+
+export const attemptListAnswerSchema = z.object({
+  page: z.number().int(),
+  pageSize: z.number().int(),
+  total: count,
+  attempts: z.array(attemptRowSchema),
+});
+export type AttemptListAnswer = z.infer<typeof attemptListAnswerSchema>;
+
+export const attemptDetailAnswerSchema = z.object({
+  attempt: attemptRowSchema,
+  errorLabels: z.array(z.object({ error: errorNameSchema, label: z.string() })),
+  scoreHistory: z.array(
+    z.object({ policyVersion: z.number().int(), score: z.number(), passed: z.boolean(), errors: z.array(errorNameSchema), replacedAt: z.string() }),
+  ),
+  stream: z
+    .object({
+      compressions: count,
+      t_ms: z.array(z.number()),
+      depth_mm: z.array(z.number()),
+      release_mm: z.array(z.number()),
+      /** The target band of the attempt's patient type under the policy version that scored it. */
+      band: bandSchema,
+    })
+    .nullable(),
+});
+export type AttemptDetailAnswer = z.infer<typeof attemptDetailAnswerSchema>;
+
+export const classDetailAnswerSchema = z.object({
+  class: z.object({
+    id: z.string(),
+    date: z.string(),
+    quarter: z.string(),
+    course: z.enum(courseTypes),
+    site: z.object({ id: z.number(), code: z.string() }),
+    instructor: z.object({ id: z.number(), code: z.string(), name: z.string() }),
+    learners: count,
+    passed: count,
+    manikins: z.array(z.string()),
+    lungsReplaced: count.nullable(),
+    mouthpiecesCleaned: count.nullable(),
+    batteriesReplaced: count.nullable(),
+  }),
+  passRate: rateSchema,
+  attempts: z.array(
+    z.object({
+      id: z.string(),
+      learner: z.string(),
+      startedAt: z.string(),
+      profile: z.enum(patientTypes),
+      feedback: z.enum(feedbackModes),
+      score: z.number(),
+      passed: z.boolean(),
+      instructorResult: z.enum(["pass", "fail"]).nullable(),
+      errors: z.array(errorNameSchema),
+      hasStream: z.boolean(),
+    }),
+  ),
+});
+export type ClassDetailAnswer = z.infer<typeof classDetailAnswerSchema>;
