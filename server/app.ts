@@ -13,7 +13,10 @@ import { createPassport } from "./auth/passport";
 import { authRoutes } from "./auth/routes";
 import { SqliteSessionStore } from "./auth/sessionStore";
 import { errorHandler, notFoundHandler } from "./http/errorHandler";
+import { equipmentRoutes } from "./equipment/routes";
 import { importRoutes } from "./imports/routes";
+import { insightRoutes } from "./insight/routes";
+import { policyRoutes } from "./settings/policyRoutes";
 import { sessionSecret } from "./settings/store";
 import { siteRoutes } from "./sites/routes";
 import { userRoutes } from "./users/routes";
@@ -30,7 +33,7 @@ const VERSION = "1.0.0";
 
 /** Feature routers mounted under /api. Each one guards its own routes with `allow(...)`. */
 function featureRouters(db: Db): Router[] {
-  return [userRoutes(db), siteRoutes(db), importRoutes(db)];
+  return [userRoutes(db), siteRoutes(db), importRoutes(db), insightRoutes(db), equipmentRoutes(db), policyRoutes(db)];
 }
 
 export function createApp(db: Db, config: Config, options: AppOptions = {}) {
