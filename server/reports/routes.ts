@@ -1,0 +1,93 @@
+// Funder report routes. Coordinators and funders read; only coordinators generate, write notes and send.
+//   GET  /reports                     stored versions (newest first), optional ?period=
+//   GET  /reports/:period/preview     the report as it would be generated now (data + narrative)
+//   POST /reports/:period             generate and store the next version
+//   GET  /reports/:id/data            a stored version's data
+//   GET  /reports/:id/pdf             a stored version's PDF, byte for byte
+//   GET  /reports/:id/csv             a stored version's figures as CSV
+//   GET  /reports/:period/notes       the coordinator's text on what the network is doing about the errors
+//   PUT  /reports/:period/notes
+//   POST /reports/:id/send            e-mail a stored version to the funders (+ extra addresses)
+//   GET  /report-sends                every send, sent or failed
+//   POST /report-sends/:id/retry      try a failed send again
+import { Router } from "express";
+import { quarterNotesSchema, sendReportSchema } from "../../shared/schemas/report";
+import type { Db } from "../db/client";
+import { allow, signedInUser } from "../auth/guard";
+import { parseId, parseWith } from "../http/validate";
+import type { Mailer } from "../mail/mailer";
+import { reportCsv } from "./csvExport";
+import { buildReportData, readQuarterNotes, saveQuarterNotes } from "./data";
+import { contentDisposition } from "./download";
+import { parsePeriod } from "./period";
+import { listSends, retrySend, sendReport } from "./send";
+import { findReport, generateReport, listReports, reportFileName } from "./store";
+
+export function reportRoutes(db: Db, mailer: Mailer): Router {
+  const router = Router();
+
+  router.get("/reports", allow("readReport"), (req, res) => {
+    const period = typeof req.query.period === "string" && req.query.period ? req.query.period : undefined;
+    res.json({ reports: listReports(db, period) });
+  });
+
+  router.get("/reports/:period/preview", allow("readReport"), (req, res) => {
+    res.json({ report: buildReportData(db, parsePeriod(req.params.period).id) });
+  });
+
+  router.post("/reports/:period", allow("sendReport"), async (req, res) => {
+    const stored = await generateReport(db, parsePeriod(req.params.period).id, { userId: signedInUser(req).id });
+    const { data: _data, pdf: _pdf, ...version } = stored;
+    res.status(201).json({ report: version });
+  });
+
+  router.get("/reports/:period/notes", allow("readReport"), (req, res) => {
+    const period = parsePeriod(req.params.period).id;
+    res.json({ period, actions: readQuarterNotes(db, period) });
+  });
+
+  router.put("/reports/:period/notes", allow("sendReport"), (req, res) => {
+    const period = parsePeriod(req.params.period).id;
+    const { actions } = parseWith(quarterNotesSchema, req.body, "The note");
+    saveQuarterNotes(db, period, actions, signedInUser(req).id);
+    res.json({ period, actions: readQuarterNotes(db, period) });
+  });
+
+  router.get("/reports/:id/data", allow("readReport"), (req, res) => {
+    const { pdf: _pdf, data, ...version } = findReport(db, parseId(req.params.id));
+    res.json({ report: version, data });
+  });
+
+  router.get("/reports/:id/pdf", allow("readReport"), (req, res) => {
+    const report = findReport(db, parseId(req.params.id));
+    res
+      .type("application/pdf")
+      .set("Content-Disposition", contentDisposition(reportFileName(report.period, report.version)))
+      .set("Cache-Control", "private, no-store")
+      .send(report.pdf);
+  });
+
+  router.get("/reports/:id/csv", allow("readReport"), (req, res) => {
+    const report = findReport(db, parseId(req.params.id));
+    res
+      .type("text/csv; charset=utf-8")
+      .set("Content-Disposition", contentDisposition(reportFileName(report.period, report.version).replace(/\.pdf$/, ".csv")))
+      .send(reportCsv(report.data));
+  });
+
+  router.post("/reports/:id/send", allow("sendReport"), async (req, res) => {
+    const { extraRecipients } = parseWith(sendReportSchema, req.body ?? {}, "The send");
+    const send = await sendReport(db, mailer, parseId(req.params.id), { userId: signedInUser(req).id, extraRecipients });
+    res.status(201).json({ send });
+  });
+
+  router.get("/report-sends", allow("sendReport"), (_req, res) => {
+    res.json({ sends: listSends(db) });
+  });
+
+  router.post("/report-sends/:id/retry", allow("sendReport"), async (req, res) => {
+    res.json({ send: await retrySend(db, mailer, parseId(req.params.id), signedInUser(req).id) });
+  });
+
+  return router;
+}

@@ -1,0 +1,173 @@
+// The report's figures for the invented network in fixture.ts, worked out by hand from the fixture's rows.
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Db } from "../../../server/db/client";
+import { buildReportData, saveQuarterNotes } from "../../../server/reports/data";
+import type { ReportData } from "../../../shared/schemas/report";
+import { makeTestDb, seedPeople } from "../../helpers/testApp";
+import { insertReportFixture } from "./fixture";
+
+let db: Db;
+let q3: ReportData;
+
+beforeAll(async () => {
+  db = makeTestDb();
+  insertReportFixture(db, await seedPeople(db));
+  saveQuarterNotes(db, "2026-Q3", "Depth drill at the start of every class.", null);
+  q3 = buildReportData(db, "2026-Q3", { now: new Date("2026-10-02T09:30:00Z") });
+});
+afterAll(() => db.$client.close());
+
+describe("report data for 2026-Q3", () => {
+  it("counts reach and hides the counts below 5 (two instructors, two sites)", () => {
+    expect(q3.hasData).toBe(true);
+    expect(q3.reach.classes).toEqual({ value: 6, hidden: null, text: "6" });
+    expect(q3.reach.learners.value).toBe(10 + 8 + 6 + 9 + 3 + 12);
+    expect(q3.reach.attempts.value).toBe(40);
+    expect(q3.reach.instructors).toEqual({ value: null, hidden: "small", text: "fewer than 5" });
+    expect(q3.reach.sites).toEqual({ value: null, hidden: "small", text: "fewer than 5" });
+  });
+
+  it("splits learners by course, hiding the infant (3) and all-ages (0) cells", () => {
+    const learners = Object.fromEntries(q3.reach.byCourse.map((c) => [c.key, c.learners.text]));
+    expect(learners).toEqual({ adult: "39", child: "6", infant: "fewer than 5", "all-ages": "fewer than 5" });
+    // classes per course are 4, 1, 1 and 0: all under 5
+    expect(q3.reach.byCourse.every((c) => c.classes.hidden === "small")).toBe(true);
+  });
+
+  it("gives the objective pass rate 26/40 with its Wilson 95 % interval", () => {
+    // Wilson score interval without continuity correction (Newcombe, Stat Med 1998, method 3), computed by
+    // hand for 26/40: 0.49506 – 0.77865.
+    expect(q3.passRate.value).toBe(0.65);
+    expect(q3.passRate.low).toBeCloseTo(0.49506, 4);
+    expect(q3.passRate.high).toBeCloseTo(0.77865, 4);
+    expect(q3.passRate.text).toBe("65.0 %");
+    expect(q3.passRate.intervalText).toBe("49.5–77.9 %");
+  });
+
+  it("compares with the previous quarter (6/20, clearly lower) and the same quarter last year (6/10, overlapping)", () => {
+    const [previous, lastYear] = q3.comparisons;
+    expect(previous.period).toBe("2026-Q2");
+    expect(previous.passRate.value).toBe(0.3);
+    expect(previous.verdict).toBe("higher");
+    expect(previous.changePoints).toBeCloseTo(35, 6);
+    expect(previous.relativeChange).toBeCloseTo(0.35 / 0.3, 6);
+    expect(lastYear.period).toBe("2025-Q3");
+    expect(lastYear.passRate.value).toBe(0.6);
+    // 0.65 lies in 6/10's interval 0.313–0.832 and 0.60 in 26/40's 0.495–0.779: about the same
+    expect(lastYear.verdict).toBe("about the same");
+  });
+
+  it("draws eight quarters with p-chart limits from the eight-quarter centre 38/70", () => {
+    expect(q3.trend.points.map((p) => p.quarter)).toEqual([
+      "2024-Q4", "2025-Q1", "2025-Q2", "2025-Q3", "2025-Q4", "2026-Q1", "2026-Q2", "2026-Q3",
+    ]);
+    expect(q3.trend.centre).toBeCloseTo(38 / 70, 10);
+    const last = q3.trend.points[7];
+    // Montgomery's p-chart: p̄ ± 3·sqrt(p̄(1 − p̄)/n), computed by hand for p̄ = 38/70, n = 40
+    expect(last.lcl).toBeCloseTo(0.30656, 4);
+    expect(last.ucl).toBeCloseTo(0.77916, 4);
+    expect(last.outside).toBe(false);
+    // quarters without attempts are hidden, limits and all
+    expect(q3.trend.points[0]).toMatchObject({ lcl: null, ucl: null, passRate: { value: null, text: "fewer than 5" } });
+  });
+
+  it("hides the 2 infant attempts and, so the total cannot reveal them, the 6 child attempts", () => {
+    const byType = Object.fromEntries(q3.byPatientType.map((g) => [g.key, g]));
+    expect(byType.infant.attempts.hidden).toBe("small");
+    expect(byType.child.attempts).toEqual({ value: null, hidden: "protects-other", text: "not shown" });
+    expect(byType.child.passRate.value).toBeNull();
+    expect(byType.adult.attempts.value).toBe(32);
+    expect(byType.adult.passRate.text).toBe("68.8 %");
+  });
+
+  it("ranks errors: 11 too shallow shown, the rest under 5 hidden with their shares", () => {
+    const [first, ...rest] = q3.errors.rows;
+    expect(first.name).toBe("too_shallow");
+    expect(first.count.value).toBe(11);
+    // 17 errors in all (11 too shallow, 3 too fast, 2 recoil, 1 long pause)
+    expect(first.share).toBeCloseTo(11 / 17, 10);
+    expect(first.cumulativeShare).toBeCloseTo(11 / 17, 10);
+    expect(rest.every((r) => r.count.value === null && r.share === null && r.cumulativeShare === null)).toBe(true);
+    expect(q3.errors.attemptsWithErrors.value).toBe(14);
+    expect(q3.errors.actions).toBe("Depth drill at the start of every class.");
+  });
+
+  it("compares live display shown (17/24) with hidden (9/16) and calls it about the same", () => {
+    expect(q3.feedback.live.passRate.text).toBe("70.8 %");
+    expect(q3.feedback.hidden.passRate.text).toBe("56.3 %");
+    expect(q3.feedback.differencePoints).toBeCloseTo((17 / 24 - 9 / 16) * 100, 6);
+    expect(q3.feedback.verdict).toBe("about the same");
+  });
+
+  it("measures agreement between instructors and measurement with Cohen's kappa", () => {
+    // Table [[22, 6], [0, 4]]: p0 = 26/32 = 0.8125, pe = 0.875·0.6875 + 0.125·0.3125 = 0.640625,
+    // kappa = (0.8125 − 0.640625) / (1 − 0.640625) = 0.47826 (Cohen 1960 formula, computed by hand).
+    expect(q3.agreement.pairs.value).toBe(32);
+    expect(q3.agreement.observedAgreement).toBeCloseTo(0.8125, 10);
+    expect(q3.agreement.kappa).toBeCloseTo(0.47826, 4);
+    expect(q3.agreement.kappaText).toBe("0.48");
+    expect(q3.agreement.completionRate.value).toBe(42 / 48);
+  });
+
+  it("reports equipment use per 100 learners and counts services and faults inside the quarter only", () => {
+    const e = q3.equipment;
+    expect(e.manikinsUsed.value).toBe(5);
+    expect(e.compressions.value).toBe(40 * 200);
+    expect(e.compressionsPerManikin).toBe(1600);
+    expect(e.lungsPer100Learners.text).toBe("10.4"); // 5 lungs / 48 learners
+    expect(e.mouthpiecesPer100Learners.text).toBe("100.0");
+    expect(e.batteriesPer100Learners.text).toBe("fewer than 5"); // 2 batteries
+    expect(e.services.value).toBe(5); // the 2026-10-01 service belongs to the next quarter
+    expect(e.faults.text).toBe("fewer than 5");
+  });
+
+  it("describes the method from the current policy with the guideline sources and the safety note", () => {
+    const adult = q3.methods.bands.find((b) => b.key === "adult")!;
+    expect(adult.depth).toBe("50–60 mm");
+    expect(adult.rate).toBe("100–120 per minute");
+    expect(q3.methods.sources.join(" ")).toMatch(/American Heart Association/);
+    expect(q3.methods.sources.join(" ")).toMatch(/European Resuscitation Council Guidelines 2021/);
+    expect(q3.methods.safetyNote).toMatch(/not a medical device/);
+    expect(q3.methods.scoredUnderVersions).toEqual([1]);
+  });
+
+  it("holds no instructor, learner, site or manikin identifiers", () => {
+    const text = JSON.stringify(q3);
+    for (const identifier of ["A1", "B1", "Instructor A1", "Northfield", "Southmoor", "NORTH", "SOUTH", "RF-M", "RF-A", "L0001", "Q3-1"]) {
+      expect(text).not.toContain(identifier);
+    }
+  });
+});
+
+describe("narrative", () => {
+  it("says what rose, what stayed about the same, and nothing about hidden cells", () => {
+    const text = q3.narrative.join(" ");
+    expect(text).toContain("65.0 % of measured attempts met the network's pass rule (95 % interval 49.5–77.9 %)");
+    expect(text).toContain("the pass rate rose from 30.0 % to 65.0 %");
+    expect(text).toContain("about the same as the same quarter last year (60.0 %)");
+    expect(text).toContain("fewer than 5 instructors at fewer than 5 sites");
+    expect(text).toContain("moderate agreement");
+    expect(text).not.toMatch(/infant/i);
+  });
+});
+
+describe("other periods", () => {
+  it("reports a whole year against the previous year, with the trend ending at its last quarter", () => {
+    const year = buildReportData(db, "2026");
+    expect(year.quarters).toEqual(["2026-Q1", "2026-Q2", "2026-Q3", "2026-Q4"]);
+    expect(year.passRate.value).toBe((26 + 6) / (40 + 20));
+    expect(year.comparisons).toHaveLength(1);
+    expect(year.comparisons[0]).toMatchObject({ period: "2025", passRate: { value: 0.6 } });
+    expect(year.trend.points.at(-1)!.quarter).toBe("2026-Q4");
+  });
+
+  it("says plainly when a period has no data", () => {
+    const empty = buildReportData(db, "2027-Q1");
+    expect(empty.hasData).toBe(false);
+    expect(empty.narrative).toEqual(["No classes or measured attempts were recorded for January–March 2027."]);
+  });
+
+  it("refuses a period it cannot read", () => {
+    expect(() => buildReportData(db, "2026-Q5")).toThrow(/not a report period/);
+  });
+});

@@ -1,0 +1,125 @@
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import type { HiddenReason } from "../../../shared/schemas/report";
+import { anyHiddenCellPinned, suppressBreakdown } from "../../../server/reports/suppress";
+
+const MIN = 5;
+
+/**
+ * Every value a hidden cell could take for a reader who sees the shown cells, the total and the labels
+ * ("fewer than 5" = 0…4; "not shown" = at least 5). Brute force, independent of the code under test.
+ */
+function possibleValues(values: number[], cells: (HiddenReason | null)[], index: number, totalShown: boolean): number[] {
+  const hidden = cells.flatMap((reason, i) => (reason ? [i] : []));
+  const limit = values.reduce((a, b) => a + b, 0) + MIN + 1;
+  const range = (i: number): [number, number] => (cells[i] === "small" ? [0, MIN - 1] : [MIN, limit]);
+  if (!totalShown) {
+    const [low, high] = range(index);
+    return Array.from({ length: high - low + 1 }, (_, k) => low + k);
+  }
+  const remainder = hidden.reduce((sum, i) => sum + values[i], 0);
+  const found = new Set<number>();
+  const chosen: number[] = [];
+  const walk = (k: number, sum: number) => {
+    if (sum > remainder) return;
+    if (k === hidden.length) {
+      if (sum === remainder) found.add(chosen[hidden.indexOf(index)]);
+      return;
+    }
+    const [low, high] = range(hidden[k]);
+    for (let v = low; v <= high; v++) {
+      chosen[k] = v;
+      walk(k + 1, sum + v);
+    }
+  };
+  walk(0, 0);
+  return [...found];
+}
+
+describe("suppressBreakdown", () => {
+  it("hides a single small cell together with the smallest shown one", () => {
+    // total 45 is shown; 45 − 30 − 12 would reveal the 3 if only it were hidden
+    const result = suppressBreakdown([30, 12, 3], MIN);
+    expect(result.cells).toEqual([null, "protects-other", "small"]);
+    expect(result.total).toBeNull();
+  });
+
+  it("hides a zero like any other count below the threshold", () => {
+    expect(suppressBreakdown([0, 20, 30], MIN).cells).toEqual(["small", "protects-other", null]);
+  });
+
+  it("adds a cell when two small cells could be worked out from the remainder (4 + 4 = 8 can only be 4 and 4)", () => {
+    const result = suppressBreakdown([4, 4, 50, 60], MIN);
+    expect(result.cells).toEqual(["small", "small", "protects-other", null]);
+  });
+
+  it("leaves two small cells alone when the remainder does not pin them", () => {
+    expect(suppressBreakdown([3, 2, 50, 60], MIN).cells).toEqual(["small", "small", null, null]);
+  });
+
+  it("hides nothing when every cell is large enough", () => {
+    expect(suppressBreakdown([5, 6, 100], MIN)).toEqual({ cells: [null, null, null], total: null });
+  });
+
+  it("hides the total when it is itself below the threshold, with no complementary cell needed", () => {
+    expect(suppressBreakdown([1, 2], MIN)).toEqual({ cells: ["small", "small"], total: "small" });
+  });
+
+  it("hides the total when even hiding every cell would still give one away", () => {
+    // 4 + 4 with the total 8 shown: both must be 4, and there is no shown cell left to hide
+    expect(suppressBreakdown([4, 4], MIN)).toEqual({ cells: ["small", "small"], total: "protects-other" });
+  });
+
+  it("applies only the primary rule when no total is shown", () => {
+    expect(suppressBreakdown([30, 12, 3], MIN, false).cells).toEqual([null, null, "small"]);
+  });
+
+  it("among equal candidates hides the last, so hidden rows of a sorted table stay together", () => {
+    expect(suppressBreakdown([9, 9, 3], MIN).cells).toEqual([null, "protects-other", "small"]);
+  });
+
+  it("refuses counts that are not whole numbers ≥ 0", () => {
+    expect(() => suppressBreakdown([1.5], MIN)).toThrow(RangeError);
+    expect(() => suppressBreakdown([-1], MIN)).toThrow(RangeError);
+  });
+
+  it("property: every cell under the threshold is hidden", () => {
+    fc.assert(
+      fc.property(fc.array(fc.nat({ max: 40 }), { minLength: 1, maxLength: 6 }), (values) => {
+        const { cells } = suppressBreakdown(values, MIN);
+        values.forEach((value, i) => {
+          if (value < MIN) expect(cells[i]).toBe("small");
+        });
+      }),
+    );
+  });
+
+  it("property: no total minus the shown cells reveals a hidden cell", () => {
+    fc.assert(
+      fc.property(fc.array(fc.nat({ max: 25 }), { minLength: 1, maxLength: 5 }), (values) => {
+        const { cells, total } = suppressBreakdown(values, MIN);
+        const totalShown = total === null;
+        cells.forEach((reason, i) => {
+          if (reason === null) return;
+          const options = possibleValues(values, cells, i, totalShown);
+          expect(options).toContain(values[i]);
+          expect(options.length).toBeGreaterThan(1);
+        });
+        expect(anyHiddenCellPinned(values, cells, MIN) && totalShown).toBe(false);
+      }),
+      { numRuns: 300 },
+    );
+  });
+
+  it("property: a cell is hidden to protect another only when a small cell needed it", () => {
+    fc.assert(
+      fc.property(fc.array(fc.integer({ min: MIN, max: 60 }), { minLength: 1, maxLength: 6 }), (values) => {
+        expect(suppressBreakdown(values, MIN).cells.every((c) => c === null)).toBe(true);
+      }),
+    );
+  });
+
+  it("hides nothing with a threshold of 1 (a group of 0 holds nobody)", () => {
+    expect(suppressBreakdown([0, 3], 1).cells).toEqual([null, null]);
+  });
+});
