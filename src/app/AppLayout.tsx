@@ -23,7 +23,7 @@ export function SkipLink() {
   return (
     <a
       href="#main"
-      className="sr-only z-50 rounded-control bg-marigold-500 px-4 py-2 font-semibold text-ink focus:not-sr-only focus:fixed focus:top-2 focus:left-2"
+      className="sr-only z-50 rounded-control bg-marigold-500 px-4 py-2 font-semibold text-ink focus:not-sr-only focus:fixed focus:top-2 focus:left-2 focus:px-4 focus:py-2"
     >
       Skip to content
     </a>
@@ -88,7 +88,7 @@ function SignedInLayout() {
           id={navId}
           aria-label="Main"
           className={clsx(
-            "border-b border-line bg-surface px-4 py-4 lg:block lg:w-60 lg:shrink-0 lg:border-r lg:border-b-0 lg:bg-transparent",
+            "border-b border-line bg-surface px-4 py-4 lg:block lg:w-56 lg:shrink-0 lg:border-r lg:border-b-0 lg:bg-transparent",
             menuOpen ? "block" : "hidden",
           )}
         >

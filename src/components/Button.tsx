@@ -1,7 +1,7 @@
 import clsx from "clsx";
 import type { ButtonHTMLAttributes } from "react";
 
-export type ButtonVariant = "primary" | "secondary" | "quiet" | "danger";
+export type ButtonVariant = "primary" | "secondary" | "quiet" | "danger" | "dangerQuiet";
 
 export interface ButtonProps extends ButtonHTMLAttributes<HTMLButtonElement> {
   variant?: ButtonVariant;
@@ -15,9 +15,10 @@ const variants: Record<ButtonVariant, string> = {
   secondary: "bg-surface text-dusk-800 border-line-strong hover:bg-dusk-50",
   quiet: "bg-transparent text-dusk-700 border-transparent hover:bg-dusk-50 underline-offset-2 hover:underline",
   danger: "bg-surface text-danger-text border-danger-line hover:bg-danger-tint",
+  dangerQuiet: "bg-transparent text-danger-text border-transparent hover:bg-danger-tint underline-offset-2 hover:underline",
 };
 
-const sizes = { sm: "min-h-9 px-3 text-small", md: "min-h-11 px-4 text-body" };
+const sizes = { sm: "min-h-9 px-2.5 text-small", md: "min-h-11 px-4 text-body" };
 
 export function Button({ variant = "primary", size = "md", busy = false, className, children, disabled, type, ...rest }: ButtonProps) {
   return (

@@ -98,7 +98,7 @@ export function Chart<Row>({ title, description, data, columns, rowKey, plot, ex
       </figcaption>
       <div ref={frameRef} className="min-w-0">
         {showTable ? (
-          <DataTable caption={title} captionHidden columns={columns} rows={data} rowKey={rowKey} filterable={false} exportFileName={exportFileName} />
+          <DataTable caption={title} captionHidden columns={columns} rows={data} rowKey={rowKey} filterable={false} exportFileName={exportFileName} phoneLayout="scroll" />
         ) : (
           // The picture itself is one image to assistive technology; its words are the caption above.
           <div ref={plotRef} role="img" aria-labelledby={titleId} aria-describedby={descriptionId} className="overflow-x-auto" />

@@ -17,6 +17,12 @@ export interface Column<Row> {
   /** Leave the column out of the CSV (e.g. action buttons). */
   exportable?: boolean;
   align?: "left" | "right";
+  /** Let long text wrap (default: cells stay on one line and the table scrolls sideways). */
+  wrap?: boolean;
+  /** Words for the phone sort menu, e.g. { asc: "oldest first", desc: "newest first" }. */
+  sortLabels?: { asc: string; desc: string };
+  /** On phones rows show as cards; the column marked primary titles each card (default: the first column). */
+  primary?: boolean;
 }
 
 export interface SortState {
@@ -39,6 +45,11 @@ export interface DataTableProps<Row> {
   emptyMessage?: string;
   /** Extra controls beside the filter box. */
   toolbar?: ReactNode;
+  /**
+   * Phones: "cards" shows each row as a card (columns left out of the CSV, such as actions, go at its
+   * foot); "scroll" keeps the table and lets it scroll sideways (better for columns of numbers).
+   */
+  phoneLayout?: "cards" | "scroll";
 }
 
 const collator = new Intl.Collator(undefined, { numeric: true, sensitivity: "base" });
@@ -100,11 +111,14 @@ export function DataTable<Row>({
   exportFileName,
   emptyMessage = "Nothing to show.",
   toolbar,
+  phoneLayout = "cards",
 }: DataTableProps<Row>) {
+  const cards = phoneLayout === "cards";
   const [sort, setSort] = useState<SortState | null>(initialSort ?? null);
   const [filter, setFilter] = useState("");
   const filterId = useId();
   const countId = useId();
+  const sortId = useId();
 
   const shown = useMemo(() => sortRows(filterRows(rows, columns, filter), columns, sort), [rows, columns, filter, sort]);
 
@@ -114,7 +128,8 @@ export function DataTable<Row>({
     );
   }
 
-  const showToolbar = filterable || exportFileName || toolbar;
+  const showToolbar = filterable || exportFileName || toolbar || cards;
+  const emptyText = rows.length === 0 ? emptyMessage : "No rows match the filter.";
 
   return (
     <div className="flex flex-col gap-3">
@@ -136,6 +151,7 @@ export function DataTable<Row>({
               />
             </div>
           )}
+          {cards && <PhoneSortSelect id={sortId} columns={columns} sort={sort} onChange={setSort} />}
           {toolbar}
           {exportFileName && (
             <button
@@ -156,7 +172,8 @@ export function DataTable<Row>({
         {filter ? `Showing ${shown.length} of ${rows.length} rows` : `${rows.length} ${rows.length === 1 ? "row" : "rows"}`}
       </p>
       <div
-        className="overflow-x-auto rounded-card border border-line bg-surface shadow-card"
+        // relative: keeps visually hidden text inside the scroll box so it cannot widen the page
+        className={clsx("relative overflow-x-auto rounded-card border border-line bg-surface shadow-card", cards && "hidden sm:block")}
         role="region"
         aria-label={caption}
         tabIndex={0}
@@ -175,7 +192,7 @@ export function DataTable<Row>({
                     key={column.key}
                     scope="col"
                     aria-sort={active ? (sort.direction === "asc" ? "ascending" : "descending") : sortable ? "none" : undefined}
-                    className={clsx("px-4 py-2 font-semibold whitespace-nowrap text-muted", column.align === "right" && "text-right")}
+                    className={clsx("px-3 py-2 font-semibold whitespace-nowrap text-muted first:pl-4 last:pr-4", column.align === "right" && "text-right")}
                   >
                     {sortable ? (
                       <button
@@ -202,7 +219,7 @@ export function DataTable<Row>({
             {shown.length === 0 ? (
               <tr>
                 <td colSpan={columns.length} className="px-4 py-6 text-muted">
-                  {rows.length === 0 ? emptyMessage : "No rows match the filter."}
+                  {emptyText}
                 </td>
               </tr>
             ) : (
@@ -211,7 +228,11 @@ export function DataTable<Row>({
                   {columns.map((column) => (
                     <td
                       key={column.key}
-                      className={clsx("px-4 py-2 align-middle", column.align === "right" && "text-right tabular-nums")}
+                      className={clsx(
+                        "px-3 py-2 align-middle first:pl-4 last:pr-4",
+                        column.align === "right" && "text-right tabular-nums",
+                        !column.wrap && "whitespace-nowrap",
+                      )}
                     >
                       {column.render ? column.render(row) : displayText(column.value(row))}
                     </td>
@@ -222,6 +243,73 @@ export function DataTable<Row>({
           </tbody>
         </table>
       </div>
+      {cards && <CardList caption={caption} columns={columns} rows={shown} rowKey={rowKey} emptyText={emptyText} />}
+    </div>
+  );
+}
+
+function cellContent<Row>(column: Column<Row>, row: Row): ReactNode {
+  return column.render ? column.render(row) : displayText(column.value(row));
+}
+
+/** Phones: one card per row, titled by the primary column, the other columns as label–value pairs. */
+function CardList<Row>({ caption, columns, rows, rowKey, emptyText }: { caption: string; columns: readonly Column<Row>[]; rows: readonly Row[]; rowKey: (row: Row) => string | number; emptyText: string }) {
+  const primary = columns.find((c) => c.primary) ?? columns[0];
+  const footer = columns.filter((c) => c !== primary && c.exportable === false);
+  const details = columns.filter((c) => c !== primary && c.exportable !== false);
+  if (rows.length === 0) return <p className="rounded-card border border-line bg-surface p-4 text-muted sm:hidden">{emptyText}</p>;
+  return (
+    <ul aria-label={caption} className="flex flex-col gap-3 sm:hidden">
+      {rows.map((row) => (
+        <li key={rowKey(row)} className="rounded-card border border-line bg-surface p-4 shadow-card">
+          <p className="font-semibold">{cellContent(primary, row)}</p>
+          <dl className="mt-2 grid grid-cols-[minmax(6rem,auto)_1fr] gap-x-4 gap-y-1 text-small">
+            {details.map((column) => (
+              <div key={column.key} className="contents">
+                <dt className="text-muted">{column.header}</dt>
+                <dd className="min-w-0 break-words">{cellContent(column, row)}</dd>
+              </div>
+            ))}
+          </dl>
+          {footer.map((column) => (
+            <div key={column.key} className="mt-3 border-t border-line pt-3">
+              {cellContent(column, row)}
+            </div>
+          ))}
+        </li>
+      ))}
+    </ul>
+  );
+}
+
+/** Phones have no column headers to click, so sorting is a select there. */
+function PhoneSortSelect<Row>({ id, columns, sort, onChange }: { id: string; columns: readonly Column<Row>[]; sort: SortState | null; onChange: (sort: SortState | null) => void }) {
+  const sortable = columns.filter((c) => c.sortable !== false);
+  if (sortable.length === 0) return null;
+  return (
+    <div className="flex w-full flex-col gap-1 sm:hidden">
+      <label htmlFor={id} className="text-small font-semibold">
+        Sort by
+      </label>
+      <select
+        id={id}
+        value={sort ? `${sort.key}:${sort.direction}` : ""}
+        onChange={(event) => {
+          const [key, direction] = event.target.value.split(":");
+          onChange(key ? { key, direction: direction === "desc" ? "desc" : "asc" } : null);
+        }}
+        className="min-h-11 w-full rounded-control border border-line-strong bg-surface px-3 text-body"
+      >
+        <option value="">As listed</option>
+        {sortable.flatMap((c) => [
+          <option key={`${c.key}:asc`} value={`${c.key}:asc`}>
+            {c.header}, {c.sortLabels?.asc ?? (c.align === "right" ? "lowest first" : "A to Z")}
+          </option>,
+          <option key={`${c.key}:desc`} value={`${c.key}:desc`}>
+            {c.header}, {c.sortLabels?.desc ?? (c.align === "right" ? "highest first" : "Z to A")}
+          </option>,
+        ])}
+      </select>
     </div>
   );
 }

@@ -23,13 +23,12 @@ export function LogoMark({ className, tone = "onDark" }: { className?: string; t
 }
 
 /** Mark + name. The name is real text, so it reads as "Quarterbeat". */
-export function Logo({ className, tone = "onDark" }: { className?: string; tone?: "onDark" | "onLight" }) {
+export function Logo({ className, tone = "onDark", size = "md" }: { className?: string; tone?: "onDark" | "onLight"; size?: "md" | "lg" }) {
   return (
-    <span className={clsx("inline-flex items-center gap-2", className)}>
-      <LogoMark tone={tone} />
+    <span className={clsx("inline-flex items-center", size === "lg" ? "gap-3" : "gap-2", className)}>
+      <LogoMark tone={tone} className={size === "lg" ? "size-11" : undefined} />
       <span
-        className={clsx("text-lead font-bold tracking-tight", tone === "onDark" ? "text-white" : "text-ink")}
-        style={{ fontVariationSettings: '"wdth" 118' }}
+        className={clsx("font-bold tracking-tight", size === "lg" ? "text-headline" : "text-lead", tone === "onDark" ? "text-white" : "text-ink")}
       >
         Quarter<span className={tone === "onDark" ? "text-marigold-300" : "text-dusk-700"}>beat</span>
       </span>

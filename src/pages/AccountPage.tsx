@@ -18,23 +18,25 @@ export default function AccountPage() {
   return (
     <div>
       <PageHeader title="My account" description="Your details, your password and how Quarterbeat shows lengths to you." />
-      <div className="grid gap-6 lg:grid-cols-2">
-        <section aria-labelledby="account-details" className="rounded-card border border-line bg-surface p-5 shadow-card">
-          <h2 id="account-details" className="mb-3 text-title">
-            Details
-          </h2>
-          <dl className="grid grid-cols-[auto_1fr] gap-x-6 gap-y-2">
-            <dt className="text-muted">Name</dt>
-            <dd className="font-medium">{user.displayName}</dd>
-            <dt className="text-muted">E-mail</dt>
-            <dd className="font-medium break-all">{user.email}</dd>
-            <dt className="text-muted">Role</dt>
-            <dd className="font-medium">{roleLabels[user.role]}</dd>
-          </dl>
-          <p className="mt-4 text-small text-muted">To change your name, e-mail or role, ask your regional coordinator.</p>
-        </section>
+      <div className="grid items-start gap-6 lg:grid-cols-2">
+        <div className="flex flex-col gap-6">
+          <section aria-labelledby="account-details" className="rounded-card border border-line bg-surface p-5 shadow-card">
+            <h2 id="account-details" className="mb-3 text-title">
+              Details
+            </h2>
+            <dl className="grid grid-cols-[auto_1fr] gap-x-6 gap-y-2">
+              <dt className="text-muted">Name</dt>
+              <dd className="font-medium">{user.displayName}</dd>
+              <dt className="text-muted">E-mail</dt>
+              <dd className="font-medium [overflow-wrap:anywhere]">{user.email}</dd>
+              <dt className="text-muted">Role</dt>
+              <dd className="font-medium">{roleLabels[user.role]}</dd>
+            </dl>
+            <p className="mt-4 text-small text-muted">To change your name, e-mail or role, ask your regional coordinator.</p>
+          </section>
+          <ChangePasswordSection email={user.email} />
+        </div>
         <LengthUnitSection unit={user.lengthUnit} />
-        <ChangePasswordSection email={user.email} />
       </div>
     </div>
   );
@@ -110,7 +112,7 @@ function ChangePasswordSection({ email }: { email: string }) {
   });
 
   return (
-    <section aria-labelledby="account-password" className="rounded-card border border-line bg-surface p-5 shadow-card lg:col-span-1">
+    <section aria-labelledby="account-password" className="rounded-card border border-line bg-surface p-5 shadow-card">
       <h2 id="account-password" className="mb-3 text-title">
         Change password
       </h2>

@@ -59,7 +59,7 @@ export default function SignInPage() {
       <SkipLink />
       <main id="main" tabIndex={-1} className="w-full max-w-md outline-none">
         <div className="mb-8 flex justify-center">
-          <Logo tone="onLight" className="scale-125" />
+          <Logo tone="onLight" size="lg" />
         </div>
         <div className="rounded-card border border-line bg-surface p-6 shadow-card sm:p-8">
           <h1 className="text-headline">Sign in</h1>

@@ -114,13 +114,13 @@ function SitesSection({ onOpen, onMessage }: SectionProps) {
         exportable: false,
         value: () => "",
         render: (s) => (
-          <div className="flex flex-wrap gap-1">
-            <Button size="sm" variant="secondary" onClick={() => onOpen({ kind: "rename", site: s })}>
+          <div className="-mx-2.5 flex gap-0.5">
+            <Button size="sm" variant="quiet" onClick={() => onOpen({ kind: "rename", site: s })}>
               Rename<span className="sr-only"> {s.name}</span>
             </Button>
             <Button
               size="sm"
-              variant={s.active ? "danger" : "secondary"}
+              variant={s.active ? "dangerQuiet" : "quiet"}
               disabled={update.isPending && update.variables?.id === s.id}
               onClick={() => setActive(s, !s.active)}
             >
@@ -199,13 +199,13 @@ function InstructorsSection({ onOpen, onMessage }: SectionProps) {
         exportable: false,
         value: () => "",
         render: (i) => (
-          <div className="flex flex-wrap gap-1">
-            <Button size="sm" variant="secondary" onClick={() => onOpen({ kind: "move", instructor: i })}>
+          <div className="-mx-2.5 flex gap-0.5">
+            <Button size="sm" variant="quiet" onClick={() => onOpen({ kind: "move", instructor: i })}>
               Change site<span className="sr-only"> for {i.name}</span>
             </Button>
             <Button
               size="sm"
-              variant={i.active ? "danger" : "secondary"}
+              variant={i.active ? "dangerQuiet" : "quiet"}
               disabled={update.isPending && update.variables?.id === i.id}
               onClick={() => setActive(i, !i.active)}
             >

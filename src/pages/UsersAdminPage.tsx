@@ -55,11 +55,17 @@ export default function UsersAdminPage() {
           </span>
         ),
       },
-      { key: "email", header: "E-mail", value: (u) => u.email, render: (u) => <span className="break-all">{u.email}</span> },
-      { key: "role", header: "Role", value: (u) => roleLabels[u.role] },
-      { key: "instructor", header: "Linked instructor", value: (u) => u.instructorCode ?? "", render: (u) => u.instructorCode ?? <span className="text-muted">—</span> },
+      { key: "email", header: "E-mail", value: (u) => u.email },
+      { key: "role", header: "Role", value: (u) => roleLabels[u.role], wrap: true },
+      { key: "instructor", header: "Instructor", value: (u) => u.instructorCode ?? "", render: (u) => u.instructorCode ?? <span className="text-muted">—</span> },
       { key: "active", header: "Status", value: (u) => (u.active ? "Active" : "Deactivated"), render: (u) => <ActiveBadge active={u.active} /> },
-      { key: "created", header: "Added", value: (u) => u.createdAt.slice(0, 10), render: (u) => formatDate(u.createdAt) },
+      {
+        key: "created",
+        header: "Added",
+        value: (u) => u.createdAt.slice(0, 10),
+        render: (u) => formatDate(u.createdAt),
+        sortLabels: { asc: "oldest first", desc: "newest first" },
+      },
       {
         key: "actions",
         header: "Actions",
@@ -67,25 +73,19 @@ export default function UsersAdminPage() {
         exportable: false,
         value: () => "",
         render: (u) => (
-          <div className="flex flex-wrap gap-1">
-            <Button size="sm" variant="secondary" onClick={() => setDialog({ kind: "edit", user: u })}>
+          <div className="-mx-2.5 flex gap-0.5">
+            <Button size="sm" variant="quiet" onClick={() => setDialog({ kind: "edit", user: u })}>
               Edit<span className="sr-only"> {u.displayName}</span>
             </Button>
-            <Button size="sm" variant="secondary" onClick={() => setDialog({ kind: "password", user: u })}>
+            <Button size="sm" variant="quiet" onClick={() => setDialog({ kind: "password", user: u })}>
               Set password<span className="sr-only"> for {u.displayName}</span>
             </Button>
-            {u.active ? (
-              <Button
-                size="sm"
-                variant="danger"
-                disabled={u.id === me.id || (update.isPending && update.variables?.id === u.id)}
-                title={u.id === me.id ? "You cannot deactivate your own account" : undefined}
-                onClick={() => setActive(u, false)}
-              >
+            {u.id === me.id ? null : u.active ? (
+              <Button size="sm" variant="dangerQuiet" disabled={update.isPending && update.variables?.id === u.id} onClick={() => setActive(u, false)}>
                 Deactivate<span className="sr-only"> {u.displayName}</span>
               </Button>
             ) : (
-              <Button size="sm" variant="secondary" disabled={update.isPending && update.variables?.id === u.id} onClick={() => setActive(u, true)}>
+              <Button size="sm" variant="quiet" disabled={update.isPending && update.variables?.id === u.id} onClick={() => setActive(u, true)}>
                 Reactivate<span className="sr-only"> {u.displayName}</span>
               </Button>
             )}
