@@ -29,10 +29,10 @@ export function viewerKey(viewer: Viewer): string {
 }
 
 /**
- * Whether a group of n attempts must be hidden from this viewer. `ownRowsOnly` says the group holds nothing
+ * Whether a group of n attempts must be hidden from this viewer (an empty group reveals nothing and is shown). `ownRowsOnly` says the group holds nothing
  * but the viewer's own rows (an instructor filtering on themselves), which they always see in full.
  */
 export function hidesGroup(viewer: Viewer, n: number, ownRowsOnly = false): boolean {
   if (viewer.seesEveryone || ownRowsOnly) return false;
-  return n < viewer.suppressionMinCount;
+  return n > 0 && n < viewer.suppressionMinCount;
 }
