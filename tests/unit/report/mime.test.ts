@@ -1,10 +1,11 @@
 // The local mail service's MIME reader, fed with messages built by nodemailer itself (the library that sends
 // Quarterbeat's mail), including encodings a hosted service would also see.
 import nodemailer from "nodemailer";
+import type { SendMailOptions } from "nodemailer";
 import { describe, expect, it } from "vitest";
 import { decodeWords, parseHeaderValue, parseMail } from "../../../server/mail/mime";
 
-async function build(message: nodemailer.SendMailOptions): Promise<Buffer> {
+async function build(message: SendMailOptions): Promise<Buffer> {
   const transport = nodemailer.createTransport({ streamTransport: true, buffer: true, newline: "windows" });
   const info = await transport.sendMail(message);
   return info.message as Buffer;

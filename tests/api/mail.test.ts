@@ -1,0 +1,147 @@
+// Sending reports through SMTP to the local mail service, failed sends and their retry, the outbox, and the
+// welcome message. The mail service listens on 127.0.0.1 port 0, started by the test.
+import net from "node:net";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { createApp } from "../../server/app";
+import { loadConfig } from "../../server/config";
+import type { Db } from "../../server/db/client";
+import { mailbox } from "../../server/db/schema";
+import { startLocalMailService, type LocalMailService } from "../../server/mail/localService";
+import { createMailer } from "../../server/mail/mailer";
+import { findReport } from "../../server/reports/store";
+import { insertReportFixture } from "../unit/report/fixture";
+import { makeTestDb, seedPeople, signIn, type Agent } from "../helpers/testApp";
+
+let db: Db;
+let mail: LocalMailService;
+let closedPortUrl: string;
+let reportId: number;
+
+function appWithSmtp(smtpUrl?: string) {
+  const env: NodeJS.ProcessEnv = { NODE_ENV: "test", SESSION_SECRET: "test-secret-at-least-16-chars" };
+  if (smtpUrl) env.SMTP_URL = smtpUrl;
+  return createApp(db, loadConfig(env), { clientDir: null });
+}
+
+/** A port on 127.0.0.1 where nothing listens: bound once to learn a free number, then closed again. */
+async function closedPort(): Promise<number> {
+  const server = net.createServer();
+  await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
+  const { port } = server.address() as net.AddressInfo;
+  await new Promise<void>((resolve) => server.close(() => resolve()));
+  return port;
+}
+
+function binary(res: NodeJS.ReadableStream, done: (err: Error | null, body: Buffer) => void) {
+  const chunks: Buffer[] = [];
+  res.on("data", (chunk: Buffer) => chunks.push(chunk));
+  res.on("end", () => done(null, Buffer.concat(chunks)));
+}
+
+beforeAll(async () => {
+  db = makeTestDb();
+  insertReportFixture(db, await seedPeople(db));
+  mail = await startLocalMailService(db, { port: 0 });
+  closedPortUrl = `smtp://127.0.0.1:${await closedPort()}`;
+  const coordinator = await signIn(appWithSmtp(mail.url), "coord@test.example");
+  reportId = (await coordinator.post("/api/reports/2026-Q3").expect(201)).body.report.id;
+});
+afterAll(async () => {
+  await mail.close();
+  db.$client.close();
+});
+
+describe("sending a report", () => {
+  let coordinator: Agent;
+  beforeAll(async () => {
+    coordinator = await signIn(appWithSmtp(mail.url), "coord@test.example");
+  });
+
+  it("delivers the stored PDF to every active funder and the extra addresses", async () => {
+    const res = await coordinator.post(`/api/reports/${reportId}/send`, { extraRecipients: ["Board@Foundation.example"] }).expect(201);
+    expect(res.body.send).toMatchObject({
+      reportId,
+      period: "2026-Q3",
+      version: 1,
+      status: "sent",
+      error: null,
+      sentBy: "coord",
+      recipients: ["funder@test.example", "board@foundation.example"],
+    });
+
+    const [received] = db.select().from(mailbox).all();
+    expect(received.recipients).toEqual(["funder@test.example", "board@foundation.example"]);
+    expect(received.subject).toBe("Quarterbeat training network: training quality report for July–September 2026 (2026-Q3)");
+    expect(received.text).toContain("65.0 % of measured attempts met the network's pass rule (95 % interval 49.5–77.9 %).");
+    expect(received.text).toContain("not a medical device");
+    const pdf = findReport(db, reportId).pdf;
+    expect(received.attachments).toEqual([{ filename: "quarterbeat-funder-report-2026-Q3-v1.pdf", contentType: "application/pdf", size: pdf.length }]);
+  });
+
+  it("lists the message in the outbox and downloads its attachment as the same bytes", async () => {
+    const outbox = await coordinator.get("/api/outbox").expect(200);
+    const [message] = outbox.body.messages;
+    expect(message).toMatchObject({
+      recipients: ["funder@test.example", "board@foundation.example"],
+      attachments: [{ index: 0, filename: "quarterbeat-funder-report-2026-Q3-v1.pdf", contentType: "application/pdf" }],
+    });
+    expect(message.text).toContain("Dear funder");
+    const file = await coordinator.get(`/api/outbox/${message.id}/attachment/0`).buffer(true).parse(binary).expect(200);
+    expect(file.headers["content-type"]).toBe("application/pdf");
+    expect(Buffer.compare(file.body as Buffer, findReport(db, reportId).pdf)).toBe(0);
+    await coordinator.get(`/api/outbox/${message.id}/attachment/5`).expect(404);
+  });
+
+  it("refuses an extra address that is not an e-mail address", async () => {
+    const res = await coordinator.post(`/api/reports/${reportId}/send`, { extraRecipients: ["not an address"] }).expect(422);
+    expect(res.body.error.details[0].path).toBe("extraRecipients.0");
+  });
+});
+
+describe("a send that fails", () => {
+  it("is recorded as failed against a closed port and becomes sent when retried against a working server", async () => {
+    const before = db.select().from(mailbox).all().length;
+    const broken = await signIn(appWithSmtp(closedPortUrl), "coord@test.example");
+    const failed = await broken.post(`/api/reports/${reportId}/send`, {}).expect(201);
+    expect(failed.body.send.status).toBe("failed");
+    expect(failed.body.send.error).toMatch(/ECONNREFUSED|connect/i);
+
+    const listed = await broken.get("/api/report-sends").expect(200);
+    expect(listed.body.sends[0]).toMatchObject({ id: failed.body.send.id, status: "failed", recipients: ["funder@test.example"] });
+    const versions = await broken.get("/api/reports").expect(200);
+    expect(versions.body.reports.find((r: { id: number }) => r.id === reportId).lastSend.status).toBe("failed");
+
+    // still broken: the retry fails again and stays on record
+    const again = await broken.post(`/api/report-sends/${failed.body.send.id}/retry`).expect(200);
+    expect(again.body.send.status).toBe("failed");
+
+    const working = await signIn(appWithSmtp(mail.url), "coord@test.example");
+    const retried = await working.post(`/api/report-sends/${failed.body.send.id}/retry`).expect(200);
+    expect(retried.body.send).toMatchObject({ id: failed.body.send.id, status: "sent", error: null });
+    expect(db.select().from(mailbox).all()).toHaveLength(before + 1);
+
+    // a sent report is not sent twice by a retry
+    await working.post(`/api/report-sends/${failed.body.send.id}/retry`).expect(409);
+  });
+
+  it("is recorded as failed with a clear message when no mail server is configured", async () => {
+    const unconfigured = await signIn(appWithSmtp(undefined), "coord@test.example");
+    const res = await unconfigured.post(`/api/reports/${reportId}/send`, {}).expect(201);
+    expect(res.body.send.status).toBe("failed");
+    expect(res.body.send.error).toMatch(/No mail server is configured/);
+  });
+});
+
+describe("welcome e-mail", () => {
+  it("goes out through the same SMTP path and carries no password", async () => {
+    const mailer = createMailer(`${mail.url}?from=welcome@network.example`);
+    await mailer.sendWelcomeEmail({ email: "new.funder@example.org", displayName: "New Funder", role: "funder" }, "http://localhost:3000/sign-in");
+    const message = db.select().from(mailbox).all().at(-1)!;
+    expect(message.mailFrom).toBe("welcome@network.example");
+    expect(message.recipients).toEqual(["new.funder@example.org"]);
+    expect(message.subject).toBe("Your Quarterbeat account");
+    expect(message.text).toContain("http://localhost:3000/sign-in");
+    expect(message.text).toContain('role "Funder"');
+    expect(message.text).not.toMatch(/correct-horse/);
+  });
+});

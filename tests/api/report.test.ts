@@ -1,0 +1,153 @@
+// Funder report routes on the real app: who may read, generate and write notes; stored versions download
+// byte for byte; funders see the report but none of the drill-down.
+import { eq } from "drizzle-orm";
+import { PDFParse } from "pdf-parse";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Db } from "../../server/db/client";
+import { reports } from "../../server/db/schema";
+import { insertReportFixture } from "../unit/report/fixture";
+import { makeTestApp, makeTestDb, seedPeople, signIn, type Agent, type TestApp } from "../helpers/testApp";
+
+let db: Db;
+let app: TestApp;
+let coordinator: Agent;
+let funder: Agent;
+let instructor: Agent;
+
+/** Supertest collects binary bodies only when asked to. */
+function binary(res: NodeJS.ReadableStream, done: (err: Error | null, body: Buffer) => void) {
+  const chunks: Buffer[] = [];
+  res.on("data", (chunk: Buffer) => chunks.push(chunk));
+  res.on("end", () => done(null, Buffer.concat(chunks)));
+}
+
+beforeAll(async () => {
+  db = makeTestDb();
+  const people = await seedPeople(db);
+  insertReportFixture(db, people);
+  app = makeTestApp(db);
+  coordinator = await signIn(app, "coord@test.example");
+  funder = await signIn(app, "funder@test.example");
+  instructor = await signIn(app, "a1@test.example");
+});
+afterAll(() => db.$client.close());
+
+describe("report preview", () => {
+  it("gives coordinators and funders the data and narrative, computed from the fixture", async () => {
+    for (const agent of [coordinator, funder]) {
+      const res = await agent.get("/api/reports/2026-Q3/preview").expect(200);
+      const report = res.body.report;
+      // 26 of 40 attempts passed; Wilson 95 % interval 0.49506–0.77865 (Newcombe 1998 method 3, computed by hand)
+      expect(report.passRate).toMatchObject({ value: 0.65, text: "65.0 %", intervalText: "49.5–77.9 %" });
+      expect(report.reach.learners.value).toBe(48);
+      expect(report.reach.instructors.text).toBe("fewer than 5");
+      expect(report.narrative[1]).toContain("65.0 %");
+    }
+  });
+
+  it("accepts a lower-case period and refuses one it cannot read", async () => {
+    await coordinator.get("/api/reports/2026-q3/preview").expect(200);
+    const bad = await coordinator.get("/api/reports/2026-Q9/preview").expect(400);
+    expect(bad.body.error.message).toMatch(/2026-Q3 or a year such as 2026/);
+  });
+
+  it("is closed to instructors and to people who are not signed in", async () => {
+    await instructor.get("/api/reports/2026-Q3/preview").expect(403);
+    const { default: request } = await import("supertest");
+    await request(app).get("/api/reports/2026-Q3/preview").expect(401);
+  });
+});
+
+describe("coordinator's note on the errors", () => {
+  it("is written by the coordinator, read by funders and shown in the report", async () => {
+    const text = "Every class now opens with a depth drill on the adult manikins.";
+    const put = await coordinator.put("/api/reports/2026-Q3/notes", { actions: text }).expect(200);
+    expect(put.body).toEqual({ period: "2026-Q3", actions: text });
+    const read = await funder.get("/api/reports/2026-Q3/notes").expect(200);
+    expect(read.body.actions).toBe(text);
+    const preview = await funder.get("/api/reports/2026-Q3/preview").expect(200);
+    expect(preview.body.report.errors.actions).toBe(text);
+  });
+
+  it("cannot be written by a funder, and refuses an over-long text with a field message", async () => {
+    await funder.put("/api/reports/2026-Q3/notes", { actions: "mine" }).expect(403);
+    const long = await coordinator.put("/api/reports/2026-Q3/notes", { actions: "x".repeat(4001) }).expect(422);
+    expect(long.body.error.details[0].path).toBe("actions");
+  });
+});
+
+describe("stored versions", () => {
+  let firstId: number;
+
+  it("generates numbered versions and lists them newest first", async () => {
+    const first = await coordinator.post("/api/reports/2026-Q3").expect(201);
+    const second = await coordinator.post("/api/reports/2026-Q3").expect(201);
+    expect(first.body.report).toMatchObject({ period: "2026-Q3", version: 1, createdBy: "coord", lastSend: null });
+    expect(second.body.report.version).toBe(2);
+    expect(first.body.report.pdfBytes).toBeGreaterThan(5000);
+    firstId = first.body.report.id;
+    const list = await funder.get("/api/reports").expect(200);
+    expect(list.body.reports.map((r: { version: number }) => r.version)).toEqual([2, 1]);
+    const filtered = await funder.get("/api/reports?period=2025-Q1").expect(200);
+    expect(filtered.body.reports).toEqual([]);
+  });
+
+  it("lets a funder download a stored PDF byte for byte, as an attachment with a safe name", async () => {
+    const res = await funder.get(`/api/reports/${firstId}/pdf`).buffer(true).parse(binary).expect(200);
+    const stored = db.select({ pdf: reports.pdf }).from(reports).where(eq(reports.id, firstId)).get()!;
+    expect(res.headers["content-type"]).toBe("application/pdf");
+    expect(res.headers["content-disposition"]).toBe(
+      `attachment; filename="quarterbeat-funder-report-2026-Q3-v1.pdf"; filename*=UTF-8''quarterbeat-funder-report-2026-Q3-v1.pdf`,
+    );
+    expect(Buffer.compare(res.body as Buffer, Buffer.from(stored.pdf))).toBe(0);
+    const parser = new PDFParse({ data: new Uint8Array(res.body as Buffer) });
+    const { text } = await parser.getText();
+    await parser.destroy();
+    expect(text).toContain("95 % interval 49.5–77.9 %");
+    expect(text).toContain("Every class now opens with a depth drill");
+  });
+
+  it("keeps a stored version unchanged when the data changes later", async () => {
+    const before = await funder.get(`/api/reports/${firstId}/pdf`).buffer(true).parse(binary).expect(200);
+    await coordinator.put("/api/reports/2026-Q3/notes", { actions: "A different note." }).expect(200);
+    const after = await funder.get(`/api/reports/${firstId}/pdf`).buffer(true).parse(binary).expect(200);
+    expect(Buffer.compare(before.body as Buffer, after.body as Buffer)).toBe(0);
+    const data = await funder.get(`/api/reports/${firstId}/data`).expect(200);
+    expect(data.body.data.errors.actions).toBe("Every class now opens with a depth drill on the adult manikins.");
+  });
+
+  it("exports the stored figures as CSV with hidden cells left empty", async () => {
+    const res = await funder.get(`/api/reports/${firstId}/csv`).expect(200);
+    expect(res.headers["content-type"]).toMatch(/^text\/csv/);
+    expect(res.text).toContain("pass rate,objective pass rate 2026-Q3,0.65,0.4951,0.7787,65.0 % (49.5–77.9 %)");
+    expect(res.text).toContain("reach,instructors,,,,fewer than 5");
+  });
+
+  it("refuses to generate a report for a period without data, with a hint", async () => {
+    const res = await coordinator.post("/api/reports/2027-Q1").expect(422);
+    expect(res.body.error).toMatchObject({ code: "no_data" });
+    expect(res.body.error.message).toMatch(/no classes or measured attempts for 2027-Q1/);
+  });
+
+  it("answers 404 for a report that does not exist", async () => {
+    await funder.get("/api/reports/9999/pdf").expect(404);
+  });
+});
+
+describe("what a funder may not do", () => {
+  it("cannot generate or send a report, nor see sends or the outbox", async () => {
+    await funder.post("/api/reports/2026-Q3").expect(403);
+    await funder.post("/api/reports/1/send", {}).expect(403);
+    await funder.get("/api/report-sends").expect(403);
+    await funder.post("/api/report-sends/1/retry").expect(403);
+    await funder.get("/api/outbox").expect(403);
+    await funder.get("/api/outbox/1/attachment/0").expect(403);
+  });
+
+  it("gets 403 on the statistics drill-down routes", async () => {
+    for (const url of ["/api/insight/instructors", "/api/insight/instructors/1", "/api/insight/errors", "/api/insight/overview"]) {
+      const res = await funder.get(url);
+      expect(res.status, url).toBe(403);
+    }
+  });
+});
