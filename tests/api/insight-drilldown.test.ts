@@ -1,0 +1,202 @@
+// Drill-down routes against the hand-worked fixture (tests/fixtures/insight/network.ts): the instructors'
+// funnel, one instructor's trend, the error analysis, the attempt list and one attempt, one class.
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import {
+  attemptDetailAnswerSchema,
+  attemptListAnswerSchema,
+  classDetailAnswerSchema,
+  errorsAnswerSchema,
+  instructorDetailAnswerSchema,
+  instructorsAnswerSchema,
+} from "../../shared/schemas/insight";
+import { wilsonInterval } from "../../shared/stats";
+import { startInsightApp, type InsightTestContext } from "../fixtures/insight/setup";
+
+let t: InsightTestContext;
+beforeAll(async () => {
+  t = await startInsightApp();
+});
+afterAll(() => t.db.$client.close());
+
+describe("GET /api/insight/instructors", () => {
+  it("gives one row per instructor with rates, medians and funnel positions against the network rate", async () => {
+    const body = instructorsAnswerSchema.parse((await t.quality.get("/api/insight/instructors").expect(200)).body);
+    expect(body.funnel.networkRate).toBeCloseTo(28 / 44, 12);
+    const row = (code: string) => body.instructors.find((r) => r.code === code)!;
+    expect(body.instructors.map((r) => r.code)).toEqual(["A1", "B1", "C1", "D1"]);
+    expect(row("A1")).toMatchObject({ name: "Instructor A1", site: { code: "NORTH" }, classes: 1, attempts: 10, medianScore: 75 });
+    expect(row("A1").passRate).toMatchObject({ successes: 6, n: 10 });
+    const [low, high] = wilsonInterval(6, 10)!;
+    expect(row("A1").passRate.low).toBe(low);
+    expect(row("A1").passRate.high).toBe(high);
+    // Positions against θ = 7/11 with exact binomial limits (Spiegelhalter 2005), worked by hand:
+    // A1 6/10 between 0.2720 and 0.8773 → inside.
+    expect(row("A1").position).toBe("inside");
+    // B1 2/10 below the 95 % limit 0.2720, above the 99.8 % limit 0.1046 → below95.
+    expect(row("B1").position).toBe("below95");
+    // C1 0/4: P(R = 0) = (4/11)^4 = 0.017486 < 0.025, P(R ≤ 1) = 0.13989 → lower 95 % limit
+    // (1 − (0.13989 − 0.025) / 0.12240) / 4 = 0.0153 > 0; lower 99.8 % limit (0 − 0.9428) / 4 < 0 → 0 → below95.
+    expect(row("C1")).toMatchObject({ attempts: 4, medianScore: 77, position: "below95" });
+    // D1 20/20: P(R = 20) = (7/11)^20 = 0.000118 < 0.001, so the 99.8 % upper limit is below 19/20 → above998.
+    expect(row("D1")).toMatchObject({ attempts: 20, medianScore: 89.5, position: "above998" });
+    // the curve spans n = 1 … 20 at both levels, the 99.8 % band outside the 95 % band
+    expect(body.funnel.curve[0].n).toBe(1);
+    expect(body.funnel.curve.at(-1)!.n).toBe(20);
+    for (const p of body.funnel.curve) {
+      expect(p.low998).toBeLessThanOrEqual(p.low95);
+      expect(p.high998).toBeGreaterThanOrEqual(p.high95);
+    }
+  });
+
+  it("follows the filters", async () => {
+    const body = instructorsAnswerSchema.parse((await t.coordinator.get("/api/insight/instructors?site=NORTH&from=2025-Q3&to=2026-Q2").expect(200)).body);
+    // NORTH: A1 1/29 + 6/10 = 7/39 over two classes, C1 0/4
+    expect(body.instructors.map((r) => [r.code, r.classes, r.passRate.successes, r.passRate.n])).toEqual([
+      ["A1", 2, 7, 39],
+      ["C1", 1, 0, 4],
+    ]);
+    expect(body.funnel.networkRate).toBeCloseTo(7 / 43, 12);
+  });
+});
+
+describe("GET /api/insight/instructors/:id", () => {
+  it("gives the quarterly trend and the classes of one instructor", async () => {
+    const body = instructorDetailAnswerSchema.parse(
+      (await t.coordinator.get(`/api/insight/instructors/${t.net.instructors.a1.id}`).expect(200)).body,
+    );
+    expect(body.instructor).toMatchObject({ code: "A1", site: { code: "NORTH" } });
+    expect(body.trend).toHaveLength(8);
+    const q = (quarter: string) => body.trend.find((p) => p.quarter === quarter)!;
+    // 2025-Q3: 1 of 29 passed; scores 80 and 28 × 70 → median 70
+    expect(q("2025-Q3")).toMatchObject({ passRate: { successes: 1, n: 29 }, medianScore: 70 });
+    expect(q("2025-Q3").passRate.low).toBeCloseTo(0.0061, 4); // Newcombe 1998, 1/29
+    expect(q("2026-Q2")).toMatchObject({ passRate: { successes: 6, n: 10 }, medianScore: 75 });
+    expect(q("2026-Q1")).toMatchObject({ passRate: { successes: 0, n: 0, rate: null }, medianScore: null });
+    expect(body.classes.map((c) => c.id)).toEqual(["A1-2604"]);
+  });
+
+  it("answers 404 for an instructor who does not exist and 422 for an id that is not a number", async () => {
+    await t.coordinator.get("/api/insight/instructors/9999").expect(404);
+    await t.coordinator.get("/api/insight/instructors/A1").expect(422);
+  });
+});
+
+describe("GET /api/insight/errors", () => {
+  it("gives the Pareto without a chosen error", async () => {
+    const body = errorsAnswerSchema.parse((await t.coordinator.get("/api/insight/errors").expect(200)).body);
+    expect(body.pareto.rows[0]).toMatchObject({ error: "too_shallow", count: 8, share: 0.5 });
+    expect(body.selected).toBeNull();
+  });
+
+  it("gives the trend and the breakdowns of a chosen error", async () => {
+    const body = errorsAnswerSchema.parse((await t.coordinator.get("/api/insight/errors?error=too_shallow").expect(200)).body);
+    const selected = body.selected!;
+    const trend = Object.fromEntries(selected.trend.map((p) => [p.quarter, [p.count, p.attempts]]));
+    // 2025-Q3 28 of 29; 2025-Q4 20 of 20; 2026-Q1 9 + 45 + 128 = 182 of 263; 2026-Q2 8 of 44
+    expect(trend).toMatchObject({ "2025-Q3": [28, 29], "2025-Q4": [20, 20], "2026-Q1": [182, 263], "2026-Q2": [8, 44], "2025-Q2": [0, 0] });
+    const q2 = selected.trend.find((p) => p.quarter === "2026-Q2")!;
+    expect(q2.share).toBeCloseTo(8 / 44, 12);
+    expect([q2.low, q2.high]).toEqual(wilsonInterval(8, 44));
+    const pairs = (rows: typeof selected.byProfile) => rows.map((r) => [r.key, r.count, r.attempts]);
+    // 2026-Q2 shallow attempts: A1 2 (hidden), B1 4 (2 live, 2 hidden), C1 2 (infant, hidden)
+    expect(pairs(selected.byProfile)).toEqual([["adult", 6, 40], ["infant", 2, 4]]);
+    expect(pairs(selected.byFeedback)).toEqual([["hidden", 6, 24], ["live", 2, 20]]);
+    expect(pairs(selected.bySite)).toEqual([["NORTH", 4, 14], ["SOUTH", 4, 30]]);
+    // equal counts: the larger share first (C1 2/4 before A1 2/10)
+    expect(pairs(selected.byInstructor)).toEqual([["B1", 4, 10], ["C1", 2, 4], ["A1", 2, 10], ["D1", 0, 20]]);
+    expect(pairs(selected.byManikin)).toEqual([["MK-S1", 4, 30], ["MK-N2", 2, 4], ["MK-N1", 2, 10]]);
+    expect(selected.byInstructor[0].share).toBeCloseTo(0.4, 12);
+  });
+
+  it("refuses an unknown error name with 422", async () => {
+    const res = await t.coordinator.get("/api/insight/errors?error=bad_hair").expect(422);
+    expect(res.body.error.details[0].path).toBe("error");
+  });
+});
+
+describe("GET /api/attempts", () => {
+  it("pages through the filtered attempts, newest first", async () => {
+    const page1 = attemptListAnswerSchema.parse((await t.coordinator.get("/api/attempts?pageSize=15").expect(200)).body);
+    expect(page1).toMatchObject({ page: 1, pageSize: 15, total: 44 });
+    expect(page1.attempts[0].classId).toBe("D1-2606");
+    const page3 = attemptListAnswerSchema.parse((await t.coordinator.get("/api/attempts?pageSize=15&page=3").expect(200)).body);
+    expect(page3.attempts).toHaveLength(14);
+    expect(page3.attempts.at(-1)!.classId).toBe("A1-2604");
+  });
+
+  it("narrows by error and by class, and names the errors of each attempt", async () => {
+    const shallow = attemptListAnswerSchema.parse((await t.coordinator.get("/api/attempts?error=too_shallow").expect(200)).body);
+    expect(shallow.total).toBe(8);
+    expect(shallow.attempts.every((a) => a.errors.includes("too_shallow"))).toBe(true);
+    const cls = attemptListAnswerSchema.parse((await t.coordinator.get("/api/attempts?class=B1-2605&error=too_fast").expect(200)).body);
+    expect(cls.attempts.map((a) => [a.score, a.errors])).toEqual([
+      [63, ["too_fast"]],
+      [61, ["too_fast"]],
+    ]);
+  });
+
+  it("marks attempts with a stored compression stream", async () => {
+    const body = attemptListAnswerSchema.parse((await t.coordinator.get("/api/attempts?class=A1-2604").expect(200)).body);
+    expect(body.attempts.filter((a) => a.hasStream).map((a) => a.id)).toEqual(["A1-2604-001"]);
+  });
+
+  it("shows an instructor their own attempts only", async () => {
+    const own = attemptListAnswerSchema.parse((await t.instructor.get("/api/attempts?from=2025-Q3&to=2026-Q2").expect(200)).body);
+    expect(own.total).toBe(39);
+    expect(new Set(own.attempts.map((a) => a.instructor?.code))).toEqual(new Set(["A1"]));
+    const none = attemptListAnswerSchema.parse((await t.instructor.get("/api/attempts?class=B1-2605").expect(200)).body);
+    expect(none.total).toBe(0);
+  });
+
+  it("refuses a page size over 200", async () => {
+    const res = await t.coordinator.get("/api/attempts?pageSize=201").expect(422);
+    expect(res.body.error.details[0].path).toBe("pageSize");
+  });
+});
+
+describe("GET /api/attempts/:id", () => {
+  it("gives the attempt, its policy version and its decoded stream with the target band", async () => {
+    const body = attemptDetailAnswerSchema.parse((await t.instructor.get("/api/attempts/A1-2604-001").expect(200)).body);
+    expect(body.attempt).toMatchObject({ id: "A1-2604-001", score: 95, passed: true, errors: [], policyVersion: 1 });
+    // depths were stored in tenths of a millimetre
+    expect(body.stream).toEqual({
+      compressions: 3,
+      t_ms: [0, 550, 1100],
+      depth_mm: [52.3, 54.8, 60.1],
+      release_mm: [1.2, 0, 3.1],
+      // adult band under the default policy: 50–60 mm (AHA 2020, ERC 2021), 100–120/min
+      band: { depthMinMm: 50, depthMaxMm: 60, rateMin: 100, rateMax: 120, recoilMaxMm: 5 },
+    });
+  });
+
+  it("names the errors of a failed attempt and has no stream when none was stored", async () => {
+    const body = attemptDetailAnswerSchema.parse((await t.coordinator.get("/api/attempts/B1-2605-010").expect(200)).body);
+    expect(body.attempt.errors).toEqual(["long_pause"]);
+    expect(body.errorLabels[0].label).toMatch(/interruption/);
+    expect(body.stream).toBeNull();
+  });
+
+  it("answers 404 to an instructor asking for another instructor's attempt, as for one that does not exist", async () => {
+    const other = await t.instructor.get("/api/attempts/B1-2605-001").expect(404);
+    const missing = await t.instructor.get("/api/attempts/NO-SUCH").expect(404);
+    expect(other.body.error.message).toBe(missing.body.error.message);
+    await t.otherInstructor.get("/api/attempts/B1-2605-001").expect(200);
+  });
+});
+
+describe("GET /api/classes/:id", () => {
+  it("gives the class log and its attempts with learner codes only", async () => {
+    const body = classDetailAnswerSchema.parse((await t.instructor.get("/api/classes/A1-2604").expect(200)).body);
+    expect(body.class).toMatchObject({ id: "A1-2604", learners: 10, passed: 7, instructor: { code: "A1" }, site: { code: "NORTH" } });
+    expect(body.attempts).toHaveLength(10);
+    expect(body.attempts[0].learner).toBe("LRN-A1-2604-1");
+    expect(body.passRate).toMatchObject({ successes: 6, n: 10 });
+  });
+
+  it("answers 404 to an instructor asking for another instructor's class", async () => {
+    await t.instructor.get("/api/classes/B1-2605").expect(404);
+    await t.otherInstructor.get("/api/classes/B1-2605").expect(200);
+    await t.quality.get("/api/classes/B1-2605").expect(200);
+    await t.funder.get("/api/classes/B1-2605").expect(403);
+  });
+});
