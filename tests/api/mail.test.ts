@@ -1,6 +1,7 @@
 // Sending reports through SMTP to the local mail service, failed sends and their retry, the outbox, and the
 // welcome message. The mail service listens on 127.0.0.1 port 0, started by the test.
 import net from "node:net";
+import type { Test } from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createApp } from "../../server/app";
 import { loadConfig } from "../../server/config";
@@ -32,11 +33,13 @@ async function closedPort(): Promise<number> {
   return port;
 }
 
-function binary(res: NodeJS.ReadableStream, done: (err: Error | null, body: Buffer) => void) {
+/** Supertest collects binary bodies only when given a parser; the response is a Node stream underneath. */
+const binary: Parameters<Test["parse"]>[0] = (res, done) => {
+  const stream = res as unknown as NodeJS.ReadableStream;
   const chunks: Buffer[] = [];
-  res.on("data", (chunk: Buffer) => chunks.push(chunk));
-  res.on("end", () => done(null, Buffer.concat(chunks)));
-}
+  stream.on("data", (chunk: Buffer) => chunks.push(chunk));
+  stream.on("end", () => done(null, Buffer.concat(chunks)));
+};
 
 beforeAll(async () => {
   db = makeTestDb();

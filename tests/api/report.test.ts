@@ -2,6 +2,7 @@
 // byte for byte; funders see the report but none of the drill-down.
 import { eq } from "drizzle-orm";
 import { PDFParse } from "pdf-parse";
+import type { Test } from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Db } from "../../server/db/client";
 import { reports } from "../../server/db/schema";
@@ -14,12 +15,13 @@ let coordinator: Agent;
 let funder: Agent;
 let instructor: Agent;
 
-/** Supertest collects binary bodies only when asked to. */
-function binary(res: NodeJS.ReadableStream, done: (err: Error | null, body: Buffer) => void) {
+/** Supertest collects binary bodies only when given a parser; the response is a Node stream underneath. */
+const binary: Parameters<Test["parse"]>[0] = (res, done) => {
+  const stream = res as unknown as NodeJS.ReadableStream;
   const chunks: Buffer[] = [];
-  res.on("data", (chunk: Buffer) => chunks.push(chunk));
-  res.on("end", () => done(null, Buffer.concat(chunks)));
-}
+  stream.on("data", (chunk: Buffer) => chunks.push(chunk));
+  stream.on("end", () => done(null, Buffer.concat(chunks)));
+};
 
 beforeAll(async () => {
   db = makeTestDb();
