@@ -15,6 +15,9 @@ import { SqliteSessionStore } from "./auth/sessionStore";
 import { errorHandler, notFoundHandler } from "./http/errorHandler";
 import { equipmentRoutes } from "./equipment/routes";
 import { importRoutes } from "./imports/routes";
+import { createMailer } from "./mail/mailer";
+import { outboxRoutes } from "./mail/routes";
+import { reportRoutes } from "./reports/routes";
 import { insightRoutes } from "./insight/routes";
 import { policyRoutes } from "./settings/policyRoutes";
 import { sessionSecret } from "./settings/store";
@@ -32,8 +35,9 @@ const defaultClientDir = path.resolve(path.dirname(fileURLToPath(import.meta.url
 const VERSION = "1.0.0";
 
 /** Feature routers mounted under /api. Each one guards its own routes with `allow(...)`. */
-function featureRouters(db: Db): Router[] {
-  return [userRoutes(db), siteRoutes(db), importRoutes(db), insightRoutes(db), equipmentRoutes(db), policyRoutes(db)];
+function featureRouters(db: Db, config: Config): Router[] {
+  const mailer = createMailer(config.smtpUrl);
+  return [userRoutes(db), siteRoutes(db), importRoutes(db), insightRoutes(db), equipmentRoutes(db), policyRoutes(db), reportRoutes(db, mailer), outboxRoutes(db)];
 }
 
 export function createApp(db: Db, config: Config, options: AppOptions = {}) {
@@ -82,7 +86,7 @@ export function createApp(db: Db, config: Config, options: AppOptions = {}) {
       signInLimit: options.signInLimit ?? { windowMs: 15 * 60 * 1000, limit: 10 },
     }),
   );
-  for (const router of featureRouters(db)) api.use(router);
+  for (const router of featureRouters(db, config)) api.use(router);
   api.use(notFoundHandler);
   app.use("/api", api);
 

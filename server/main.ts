@@ -6,6 +6,7 @@ import { fileURLToPath } from "node:url";
 import { loadConfig } from "./config";
 import { openDatabase } from "./db/client";
 import { createApp } from "./app";
+import { startLocalMailService } from "./mail/localService";
 import { demoAccountsPresent, isEmpty, seedDemo } from "./seed/seedDemo";
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
@@ -27,17 +28,23 @@ async function main() {
     await seedDemo(db);
   }
   const demoAccounts = demoAccountsPresent(db);
-  const app = createApp(db, config, { clientDir });
+  // Without SMTP_URL, mail goes to a local SMTP server whose messages land in the outbox, never out.
+  const localMail = config.smtpUrl ? null : await startLocalMailService(db);
+  const app = createApp(db, localMail ? { ...config, smtpUrl: localMail.url } : config, { clientDir });
   const server = app.listen(config.port, () => {
     const address = server.address();
     const port = typeof address === "object" && address ? address.port : config.port;
     console.log(`Quarterbeat is running at http://localhost:${port}  (database: ${config.dbFile})`);
+    if (localMail) {
+      console.log(`Local mail service on 127.0.0.1:${localMail.port} (no SMTP_URL set): e-mail is kept in the Outbox, not delivered.`);
+    }
     if (demoAccounts.length > 0) {
       console.log("Demo sign-ins (demo data only, never for a real network):");
       for (const account of demoAccounts) console.log(`  ${account.role.padEnd(13)} ${account.email}  ${account.password}`);
     }
   });
-  const stop = () => server.close(() => {
+  const stop = () => server.close(async () => {
+    await localMail?.close();
     db.$client.close();
     process.exit(0);
   });
