@@ -135,7 +135,45 @@ function isCalendarDate(text: string): boolean {
   return day <= new Date(Date.UTC(year, month, 0)).getUTCDate();
 }
 
-const DATETIME_RE = /^(\d{4}-\d{2}-\d{2})T\d{2}:\d{2}(:\d{2}(\.\d{1,9})?)?(Z|[+-]\d{2}:\d{2})$/;
+function digitsAt(text: string, from: number, count: number): number {
+  let value = 0;
+  for (let i = from; i < from + count; i++) {
+    const c = text.charCodeAt(i) - 48;
+    if (c < 0 || c > 9) return -1;
+    value = value * 10 + c;
+  }
+  return value;
+}
+
+/** YYYY-MM-DDTHH:MM[:SS[.fraction]] followed by Z or ±HH:MM, with a real calendar date and clock time. */
+export function isOffsetDateTime(text: string): boolean {
+  const n = text.length;
+  if (n < 17 || text.charCodeAt(10) !== 84 /* T */ || !isCalendarDate(text.slice(0, 10))) return false;
+  if (digitsAt(text, 11, 2) > 23 || text.charCodeAt(13) !== 58 || digitsAt(text, 14, 2) > 59) return false;
+  if (digitsAt(text, 11, 2) < 0 || digitsAt(text, 14, 2) < 0) return false;
+  let i = 16;
+  if (text.charCodeAt(i) === 58 /* : */) {
+    const seconds = digitsAt(text, i + 1, 2);
+    if (seconds < 0 || seconds > 59) return false;
+    i += 3;
+    if (text.charCodeAt(i) === 46 /* . */) {
+      let fraction = 0;
+      i++;
+      while (i < n && text.charCodeAt(i) >= 48 && text.charCodeAt(i) <= 57) {
+        i++;
+        fraction++;
+      }
+      if (fraction === 0 || fraction > 9) return false;
+    }
+  }
+  const sign = text.charCodeAt(i);
+  if (sign === 90 /* Z */) return i + 1 === n;
+  if (sign !== 43 && sign !== 45) return false;
+  if (i + 6 !== n || text.charCodeAt(i + 3) !== 58) return false;
+  const hours = digitsAt(text, i + 1, 2);
+  const minutes = digitsAt(text, i + 4, 2);
+  return hours >= 0 && hours <= 14 && minutes >= 0 && minutes <= 59;
+}
 
 const quoted = (value: string) => JSON.stringify(value.length > 60 ? `${value.slice(0, 57)}...` : value);
 
@@ -153,6 +191,7 @@ export class RowReader {
   private readonly values: Record<string, Record<string, string>>;
   private readonly today: string;
   private readonly latestStartMs: number;
+  private readonly yesterday: string;
 
   constructor(
     readonly kind: ImportKind,
@@ -166,6 +205,7 @@ export class RowReader {
     this.unitOf = Object.fromEntries(importColumns[kind].map((c) => [c.name, c.unit]));
     this.today = now.toISOString().slice(0, 10);
     this.latestStartMs = now.getTime() + FUTURE_SLACK_MS;
+    this.yesterday = new Date(now.getTime() - FUTURE_SLACK_MS).toISOString().slice(0, 10);
   }
 
   /** Starts a row; returns the same reader for chaining. */
@@ -234,11 +274,15 @@ export class RowReader {
   learner(column: string): string | null {
     const value = this.required(column);
     if (value === null) return null;
-    if (/\s/.test(value)) {
-      return this.fail(column, `${quoted(value)} looks like a personal name (it contains a space); learners are recorded only as pseudonymous codes such as L-0042, never by name`);
-    }
-    if (value.includes("@")) {
-      return this.fail(column, `${quoted(value)} looks like an e-mail address; learners are recorded only as pseudonymous codes such as L-0042`);
+    for (let i = 0; i < value.length; i++) {
+      const c = value.charCodeAt(i);
+      if (isIdChar(c)) continue;
+      if (c === 32 || c === 9 || c === 160) {
+        return this.fail(column, `${quoted(value)} looks like a personal name (it contains a space); learners are recorded only as pseudonymous codes such as L-0042, never by name`);
+      }
+      if (c === 64) {
+        return this.fail(column, `${quoted(value)} looks like an e-mail address; learners are recorded only as pseudonymous codes such as L-0042`);
+      }
     }
     return this.code(column, value);
   }
@@ -262,13 +306,13 @@ export class RowReader {
   dateTime(column: string): string | null {
     const value = this.required(column);
     if (value === null) return null;
-    const match = DATETIME_RE.exec(value);
-    const ms = match ? Date.parse(value) : NaN;
-    if (!match || !isCalendarDate(match[1]) || Number.isNaN(ms)) {
+    if (!isOffsetDateTime(value)) {
       return this.fail(column, `${quoted(value)} is not a time with an offset; use ISO 8601 such as 2026-07-14T09:30:00+02:00 or …Z`);
     }
-    if (ms > this.latestStartMs) return this.fail(column, `${value} is in the future`);
-    if (match[1] < EARLIEST_DATE) return this.fail(column, `${value} is before 2000; check the year`);
+    const date = value.slice(0, 10);
+    // Only a start time within a day of today needs the exact (slower) comparison.
+    if (date >= this.yesterday && Date.parse(value) > this.latestStartMs) return this.fail(column, `${value} is in the future`);
+    if (date < EARLIEST_DATE) return this.fail(column, `${value} is before 2000; check the year`);
     return value;
   }
 
@@ -419,8 +463,16 @@ export class RowReader {
     this.sharesAddUp(["depth_ok_pct", "too_shallow_pct", "too_deep_pct"], [depthOkPct, tooShallowPct, tooDeepPct]);
     this.sharesAddUp(["rate_ok_pct", "too_slow_pct", "too_fast_pct"], [rateOkPct, tooSlowPct, tooFastPct]);
     if (this.issues.length > before) return null;
+    const id = identity!;
     return {
-      ...identity!,
+      id: id.id,
+      classId: id.classId,
+      learner: id.learner,
+      manikin: id.manikin,
+      profile: id.profile,
+      feedback: id.feedback,
+      startedAt: id.startedAt,
+      instructorResult: id.instructorResult,
       durationS: durationS!,
       compressions: compressions!,
       rateCpm: rateCpm!,
