@@ -48,12 +48,15 @@ export function undoBatch(db: Db, batchId: number, userId: number | null): UndoR
       );
     }
     if (batch.kind === "classes") {
+      // Classes it inserted would be deleted: refuse while attempts of other batches hang on them.
       const dependents = sqlite
         .prepare(
           `SELECT a.batch_id AS batchId, count(*) AS attempts FROM attempts a JOIN classes c ON c.id = a.class_id
-           WHERE c.batch_id = ? AND (a.batch_id IS NULL OR a.batch_id <> ?) GROUP BY a.batch_id ORDER BY a.batch_id`,
+           WHERE c.batch_id = ? AND (a.batch_id IS NULL OR a.batch_id <> ?)
+             AND c.id NOT IN (SELECT row_key FROM batch_changes WHERE batch_id = ? AND table_name = 'classes')
+           GROUP BY a.batch_id ORDER BY a.batch_id`,
         )
-        .all(batchId, batchId) as { batchId: number | null; attempts: number }[];
+        .all(batchId, batchId, batchId) as { batchId: number | null; attempts: number }[];
       if (dependents.length > 0) {
         const list = dependents.map((d) => (d.batchId === null ? `${d.attempts} attempts without a batch` : `batch ${d.batchId} (${d.attempts} attempts)`));
         const batches = dependents.filter((d) => d.batchId !== null).map((d) => d.batchId);
@@ -103,7 +106,7 @@ export function undoBatch(db: Db, batchId: number, userId: number | null): UndoR
       for (const code of codes) {
         sqlite.exec("SAVEPOINT qb_code");
         try {
-          sqlite.prepare(sql).run(code);
+          sqlite.prepare(sql).run(sql.includes("@code") ? { code } : [code]);
           sqlite.exec("RELEASE qb_code");
         } catch {
           sqlite.exec("ROLLBACK TO qb_code");
@@ -112,7 +115,7 @@ export function undoBatch(db: Db, batchId: number, userId: number | null): UndoR
       }
     };
     removeUnused(
-      "DELETE FROM manikins WHERE asset_id = ?1 AND NOT EXISTS (SELECT 1 FROM classes WHERE ';' || classes.manikins || ';' LIKE '%;' || ?1 || ';%')",
+      "DELETE FROM manikins WHERE asset_id = @code AND NOT EXISTS (SELECT 1 FROM classes WHERE ';' || classes.manikins || ';' LIKE '%;' || @code || ';%')",
       created.manikins,
     );
     removeUnused("DELETE FROM instructors WHERE code = ?", created.instructors);
