@@ -40,6 +40,10 @@ export const appRoutes: readonly AppRoute[] = [
   { path: "admin/users", title: "Users", group: "admin", roles: ["coordinator"], page: lazy(() => import("../pages/UsersAdminPage")) },
   { path: "admin/sites", title: "Sites and instructors", group: "admin", roles: ["coordinator"], page: lazy(() => import("../pages/SitesAdminPage")) },
   { path: "account", title: "My account", group: "you", roles: everyone, page: lazy(() => import("../pages/AccountPage")), landing: true },
+  // Development builds only: a gallery of the UI kit.
+  ...(import.meta.env.DEV
+    ? [{ path: "kit", title: "UI kit", group: "you" as const, roles: everyone, nav: false, page: lazy(() => import("../pages/dev/KitPreviewPage")) }]
+    : []),
 ];
 
 /** Where "/" sends a role: its first landing page, or its first page of any kind. */

@@ -8,7 +8,7 @@
 // Keep `plot` stable (define it outside the component or in useCallback) so the chart is not redrawn on
 // every render.
 import * as Plot from "@observablehq/plot";
-import { useEffect, useId, useRef, useState } from "react";
+import { useEffect, useId, useRef, useState, type ReactNode } from "react";
 import { chartSeries } from "../styles/palette";
 import { DataTable, type Column } from "./DataTable";
 
@@ -30,11 +30,13 @@ export interface ChartProps<Row> {
   exportFileName?: string;
   /** Start with the table showing. */
   initiallyTable?: boolean;
+  /** A legend drawn in HTML above the plot (e.g. <TargetLegend />), when Plot's own legend is not enough. */
+  legend?: ReactNode;
 }
 
 const fallbackWidth = 640;
 
-export function Chart<Row>({ title, description, data, columns, rowKey, plot, exportFileName, initiallyTable = false }: ChartProps<Row>) {
+export function Chart<Row>({ title, description, data, columns, rowKey, plot, exportFileName, initiallyTable = false, legend }: ChartProps<Row>) {
   const [showTable, setShowTable] = useState(initiallyTable);
   const [width, setWidth] = useState(fallbackWidth);
   const frameRef = useRef<HTMLDivElement>(null);
@@ -100,8 +102,11 @@ export function Chart<Row>({ title, description, data, columns, rowKey, plot, ex
         {showTable ? (
           <DataTable caption={title} captionHidden columns={columns} rows={data} rowKey={rowKey} filterable={false} exportFileName={exportFileName} phoneLayout="scroll" />
         ) : (
-          // The picture itself is one image to assistive technology; its words are the caption above.
-          <div ref={plotRef} role="img" aria-labelledby={titleId} aria-describedby={descriptionId} className="overflow-x-auto" />
+          <>
+            {legend && <div className="mb-2">{legend}</div>}
+            {/* The picture itself is one image to assistive technology; its words are the caption above. */}
+            <div ref={plotRef} role="img" aria-labelledby={titleId} aria-describedby={descriptionId} className="overflow-x-auto" />
+          </>
         )}
       </div>
     </figure>

@@ -120,7 +120,7 @@ export function FilterBar({ filters, label = "Filters" }: FilterBarProps) {
 
   return (
     <section aria-label={label} className="mb-6 rounded-card border border-line bg-surface p-4 shadow-card">
-      <div className="grid grid-cols-1 gap-3 sm:grid-cols-2 lg:grid-cols-3 xl:grid-cols-6">
+      <div className="grid grid-cols-[repeat(auto-fill,minmax(min(100%,13rem),1fr))] gap-3">
         {filters.map((filter) => (
           <Select
             key={filter.key}

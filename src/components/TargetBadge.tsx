@@ -47,3 +47,18 @@ export function TargetBadge({ status, label, className }: TargetBadgeProps) {
     </span>
   );
 }
+
+/** A legend for charts that use the target-status colours and shapes (see lib/chartScales.ts). */
+export function TargetLegend({ statuses = ["too_low", "on_target", "too_high"], className }: { statuses?: readonly TargetStatus[]; className?: string }) {
+  const marks: Record<TargetStatus, string> = { on_target: "text-on-target-mark", too_low: "text-too-low-mark", too_high: "text-too-high-mark" };
+  return (
+    <ul className={clsx("flex flex-wrap gap-x-4 gap-y-1 text-caption text-ink", className)} aria-label="Legend">
+      {statuses.map((status) => (
+        <li key={status} className="inline-flex items-center gap-1.5">
+          <TargetMark status={status} className={marks[status]} />
+          {targetStatusLabels[status]}
+        </li>
+      ))}
+    </ul>
+  );
+}

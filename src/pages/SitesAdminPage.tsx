@@ -103,7 +103,7 @@ function SitesSection({ onOpen, onMessage }: SectionProps) {
     };
     return [
       { key: "code", header: "Code", value: (s) => s.code, render: (s) => <span className="font-mono text-small">{s.code}</span> },
-      { key: "name", header: "Name", value: (s) => s.name, render: (s) => <span className="font-medium">{s.name}</span> },
+      { key: "name", header: "Name", value: (s) => s.name, render: (s) => <span className="font-medium">{s.name}</span>, primary: true },
       { key: "instructors", header: "Instructors", value: (s) => s.instructors, align: "right" },
       { key: "manikins", header: "Manikins", value: (s) => s.manikins, align: "right" },
       { key: "active", header: "Status", value: (s) => (s.active ? "Active" : "Deactivated"), render: (s) => <ActiveBadge active={s.active} /> },
@@ -176,7 +176,7 @@ function InstructorsSection({ onOpen, onMessage }: SectionProps) {
     };
     return [
       { key: "code", header: "Code", value: (i) => i.code, render: (i) => <span className="font-mono text-small">{i.code}</span> },
-      { key: "name", header: "Name", value: (i) => i.name, render: (i) => <span className="font-medium">{i.name}</span> },
+      { key: "name", header: "Name", value: (i) => i.name, render: (i) => <span className="font-medium">{i.name}</span>, primary: true },
       {
         key: "site",
         header: "Site",
