@@ -493,13 +493,14 @@ export class RowReader {
   compressionValues(out: CompressionValues): boolean {
     const before = this.issues.length;
     const t = this.number("t_ms", 0, 2_147_483_647, " ms");
-    const depth = this.number("depth_mm", 0, 100, " mm");
-    const release = this.number("release_mm", 0, 100, " mm");
     if (t !== null) {
+      // Seconds converted to ms may carry binary rounding (0.123 × 1000 = 123.00000000000001).
       const whole = Math.round(t);
       if (Math.abs(whole - t) > 1e-6) this.fail("t_ms", `${this.text("t_ms")} is not a whole number of milliseconds`);
       else out.tMs = whole;
     }
+    const depth = this.number("depth_mm", 0, 100, " mm");
+    const release = this.number("release_mm", 0, 100, " mm");
     if (this.issues.length > before) return false;
     out.depthTenths = Math.round(depth! * 10);
     out.releaseTenths = Math.round(release! * 10);
