@@ -7,6 +7,7 @@ import { registerUsers } from "./commands/users";
 import { registerImport } from "./commands/import";
 import { registerAnalyze } from "./commands/analyze";
 import { registerStats } from "./commands/stats";
+import { registerReport } from "./commands/report";
 import { closeContext } from "./context";
 import { handleError } from "./errors";
 
@@ -23,6 +24,7 @@ export function buildProgram(): Command {
   registerImport(program);
   registerAnalyze(program);
   registerStats(program);
+  registerReport(program);
   return program;
 }
 
