@@ -19,7 +19,7 @@ const dbFile = tempDbFile("qb-cli-report");
 const outDir = fs.mkdtempSync(path.join(os.tmpdir(), "qb-cli-report-out-"));
 
 function cli(args: string[]) {
-  const env = { ...process.env, QUARTERBEAT_DB: "" };
+  const env: NodeJS.ProcessEnv = { ...process.env, QUARTERBEAT_DB: "" };
   delete env.SMTP_URL;
   const result = spawnSync(process.execPath, ["--import", tsxLoader, path.join(root, "cli/main.ts"), "--db", dbFile, ...args], {
     cwd: outDir,
