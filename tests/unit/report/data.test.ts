@@ -2,7 +2,10 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Db } from "../../../server/db/client";
 import { buildReportData, saveQuarterNotes } from "../../../server/reports/data";
+import { reportNumbers } from "../../../server/reports/queries";
+import { quarterSummary } from "../../../server/stats/quarterSummary";
 import type { ReportData } from "../../../shared/schemas/report";
+import { attemptErrorNames } from "../../../shared/scoring/scoreAttempt";
 import { makeTestDb, seedPeople } from "../../helpers/testApp";
 import { insertReportFixture } from "./fixture";
 
@@ -136,6 +139,26 @@ describe("report data for 2026-Q3", () => {
     for (const identifier of ["A1", "B1", "Instructor A1", "Northfield", "Southmoor", "NORTH", "SOUTH", "RF-M", "RF-A", "L0001", "Q3-1"]) {
       expect(text).not.toContain(identifier);
     }
+  });
+});
+
+describe("consistency with the statistics service", () => {
+  it("counts what quarterSummary counts for the same quarter, so the report and the statistics pages agree", () => {
+    // The report keeps its own queries because it also needs years, breakdowns and the agreement table;
+    // this check stops the two from drifting apart.
+    const summary = quarterSummary(db, "2026-Q3");
+    const numbers = reportNumbers(db, ["2026-Q3"]);
+    expect(numbers.classes).toBe(summary.classes);
+    expect(numbers.learners).toBe(summary.learners);
+    expect(numbers.instructors).toBe(summary.instructors);
+    expect(numbers.sites).toBe(summary.sites);
+    expect(numbers.attempts).toEqual({ attempts: summary.attempts, passed: summary.passed });
+    expect(numbers.completions / numbers.learners).toBeCloseTo(summary.course_pass_rate!, 12);
+    expect(Object.fromEntries(attemptErrorNames.map((name, bit) => [name, numbers.errorCounts[bit]]))).toEqual(summary.errors);
+    expect(numbers.byFeedback.live.attempts).toBe(summary.by_feedback.live.attempts);
+    expect(numbers.byFeedback.live.passed / numbers.byFeedback.live.attempts).toBeCloseTo(summary.by_feedback.live.pass_rate!, 12);
+    expect(q3.agreement.kappa).toBeCloseTo(summary.agreement.kappa!, 12);
+    expect(q3.passRate.low).toBeCloseTo(summary.pass_rate_ci95![0], 12);
   });
 });
 
