@@ -37,6 +37,16 @@ export interface AppRoute {
 const everyone = userRoles;
 
 export const appRoutes: readonly AppRoute[] = [
+  { path: "my-standing", title: "My standing", group: "quality", roles: ["instructor"], page: lazy(() => import("../pages/MyStandingPage")), landing: true },
+  { path: "overview", title: "Network overview", group: "quality", roles: ["coordinator", "quality_lead", "instructor"], page: lazy(() => import("../pages/OverviewPage")), landing: true },
+  { path: "instructors", title: "Instructors", group: "quality", roles: ["coordinator", "quality_lead"], page: lazy(() => import("../pages/InstructorsPage")) },
+  { path: "instructors/:id", title: "Instructor", group: "quality", roles: ["coordinator", "quality_lead"], nav: false, page: lazy(() => import("../pages/InstructorDetailPage")) },
+  { path: "classes/:id", title: "Class", group: "quality", roles: ["coordinator", "quality_lead", "instructor"], nav: false, page: lazy(() => import("../pages/ClassDetailPage")) },
+  { path: "errors", title: "Error trends", group: "quality", roles: ["coordinator", "quality_lead"], page: lazy(() => import("../pages/ErrorTrendsPage")) },
+  { path: "attempts", title: "Attempts", group: "quality", roles: ["coordinator", "quality_lead"], page: lazy(() => import("../pages/AttemptsPage")) },
+  { path: "attempts/:id", title: "Attempt", group: "quality", roles: ["coordinator", "quality_lead", "instructor"], nav: false, page: lazy(() => import("../pages/AttemptDetailPage")) },
+  { path: "equipment", title: "Equipment", group: "quality", roles: ["coordinator", "quality_lead", "instructor"], page: lazy(() => import("../pages/EquipmentPage")) },
+  { path: "settings", title: "Scoring policy", group: "admin", roles: ["coordinator", "quality_lead"], page: lazy(() => import("../pages/SettingsPage")) },
   { path: "admin/users", title: "Users", group: "admin", roles: ["coordinator"], page: lazy(() => import("../pages/UsersAdminPage")) },
   { path: "admin/sites", title: "Sites and instructors", group: "admin", roles: ["coordinator"], page: lazy(() => import("../pages/SitesAdminPage")) },
   { path: "account", title: "My account", group: "you", roles: everyone, page: lazy(() => import("../pages/AccountPage")), landing: true },

@@ -1,0 +1,108 @@
+// Where one error happens: a small bar chart of its share in each group (with the 95 % interval, so small
+// groups are not over-read) and a sortable table whose rows lead to the matching attempts.
+import * as Plot from "@observablehq/plot";
+import { useMemo } from "react";
+import { Link } from "react-router";
+import type { ErrorsAnswer } from "../../../shared/schemas/insight";
+import { wilsonInterval } from "../../../shared/stats/wilson";
+import { Chart, type ChartSize } from "../../components/Chart";
+import { DataTable, type Column } from "../../components/DataTable";
+import { dusk } from "../../styles/palette";
+import { percent, percentNumber } from "../attempts/labels";
+
+export type BreakdownRow = NonNullable<ErrorsAnswer["selected"]>["byProfile"][number];
+
+export interface BreakdownPanelProps {
+  /** "patient type", "site"… */
+  dimension: string;
+  rows: readonly BreakdownRow[];
+  /** The group's name as shown. */
+  nameOf: (row: BreakdownRow) => string;
+  /** Link to the attempts of this group with the error, or null when the group cannot be filtered on. */
+  attemptsHref: (row: BreakdownRow) => string | null;
+  errorLabel: string;
+}
+
+interface ShownRow extends BreakdownRow {
+  name: string;
+  low: number | null;
+  high: number | null;
+}
+
+function breakdownPlot(data: readonly ShownRow[], { width }: ChartSize): Plot.PlotOptions {
+  const rows = data as ShownRow[];
+  const longest = Math.max(4, ...rows.map((row) => row.name.length));
+  return {
+    height: Math.max(90, rows.length * 26 + 40),
+    marginLeft: Math.min(width / 3, 12 + longest * 7),
+    marginRight: 44,
+    x: { domain: [0, Math.min(1, Math.max(0.1, ...rows.map((row) => row.high ?? row.share)) * 1.1)], tickFormat: (v: number) => `${Math.round(v * 100)} %`, label: "Share of attempts", grid: true, ticks: width < 400 ? 3 : 5 },
+    y: { domain: rows.map((row) => row.name), label: null },
+    marks: [
+      Plot.barX(rows, { y: "name", x: "share", fill: dusk[300] }),
+      Plot.ruleY(rows, { y: "name", x1: "low", x2: "high", stroke: dusk[800], strokeWidth: 1.5 }),
+      Plot.tickX(rows, { y: "name", x: "low", stroke: dusk[800] }),
+      Plot.tickX(rows, { y: "name", x: "high", stroke: dusk[800] }),
+      Plot.text(rows, { y: "name", x: "high", text: (row: ShownRow) => percent(row.share, 0), dx: 4, textAnchor: "start", fill: "#1C1B2E" }),
+      Plot.ruleX([0]),
+    ],
+  };
+}
+
+export function BreakdownPanel({ dimension, rows, nameOf, attemptsHref, errorLabel }: BreakdownPanelProps) {
+  const shown = useMemo<ShownRow[]>(
+    () =>
+      rows.map((row) => {
+        const interval = wilsonInterval(row.count, row.attempts);
+        return { ...row, name: nameOf(row), low: interval?.[0] ?? null, high: interval?.[1] ?? null };
+      }),
+    [rows, nameOf],
+  );
+  const byShare = [...shown].filter((row) => row.attempts > 0).sort((a, b) => b.share - a.share);
+  const title = `By ${dimension}`;
+  const columns: Column<ShownRow>[] = [
+    { key: "name", header: dimension[0].toUpperCase() + dimension.slice(1), value: (row) => row.name, primary: true },
+    { key: "count", header: "With the error", value: (row) => row.count, align: "right" },
+    { key: "attempts", header: "Attempts", value: (row) => row.attempts, align: "right" },
+    { key: "share", header: "Share (%)", value: (row) => percentNumber(row.share), render: (row) => percent(row.share), align: "right" },
+    { key: "interval", header: "95 % interval", value: (row) => (row.low === null ? null : `${percent(row.low)}–${percent(row.high)}`), align: "right", sortable: false },
+    {
+      key: "attemptsLink",
+      header: "Drill down",
+      value: () => null,
+      sortable: false,
+      exportable: false,
+      render: (row) => {
+        const href = attemptsHref(row);
+        if (!href || row.count === 0) return <span className="text-small text-muted">{row.count === 0 ? "None" : "Not recorded"}</span>;
+        return (
+          <Link to={href} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+            {row.count} attempt{row.count === 1 ? "" : "s"}
+            <span className="sr-only"> with this error, {dimension} {row.name}</span>
+          </Link>
+        );
+      },
+    },
+  ];
+  const description =
+    byShare.length === 0
+      ? "No attempts."
+      : byShare.length === 1
+        ? `All attempts are in ${byShare[0].name}: ${percent(byShare[0].share)} have the error.`
+        : `Share of attempts with “${errorLabel.toLowerCase()}” by ${dimension}, with 95 % intervals: highest ${byShare[0].name} (${percent(byShare[0].share)} of ${byShare[0].attempts}), lowest ${byShare[byShare.length - 1].name} (${percent(byShare[byShare.length - 1].share)} of ${byShare[byShare.length - 1].attempts}).`;
+
+  return (
+    <section aria-label={title} className="flex min-w-0 flex-col gap-3">
+      <Chart title={title} description={description} data={byShare} columns={columns.filter((c) => c.key !== "attemptsLink")} rowKey={(row) => row.key} plot={breakdownPlot} />
+      <DataTable
+        caption={`Attempts with the error by ${dimension}`}
+        columns={columns}
+        rows={shown}
+        rowKey={(row) => row.key}
+        initialSort={{ key: "count", direction: "desc" }}
+        filterable={shown.length > 8}
+        exportFileName={`error-by-${dimension.replace(/\s+/g, "-")}`}
+      />
+    </section>
+  );
+}

@@ -1,0 +1,50 @@
+// One error's share of attempts per quarter with its 95 % interval, so a real change can be told from noise.
+import * as Plot from "@observablehq/plot";
+import type { ErrorsAnswer } from "../../../shared/schemas/insight";
+import { Chart, type ChartSize } from "../../components/Chart";
+import type { Column } from "../../components/DataTable";
+import { dusk } from "../../styles/palette";
+import { percent, percentNumber } from "../attempts/labels";
+
+type TrendRow = NonNullable<ErrorsAnswer["selected"]>["trend"][number];
+
+const columns: Column<TrendRow>[] = [
+  { key: "quarter", header: "Quarter", value: (row) => row.quarter },
+  { key: "attempts", header: "Attempts", value: (row) => row.attempts, align: "right" },
+  { key: "count", header: "With the error", value: (row) => row.count, align: "right" },
+  { key: "share", header: "Share (%)", value: (row) => percentNumber(row.share), render: (row) => percent(row.share), align: "right" },
+  { key: "low", header: "95 % interval from (%)", value: (row) => percentNumber(row.low), render: (row) => percent(row.low), align: "right" },
+  { key: "high", header: "95 % interval to (%)", value: (row) => percentNumber(row.high), render: (row) => percent(row.high), align: "right" },
+];
+
+function trendPlot(data: readonly TrendRow[], { width }: ChartSize): Plot.PlotOptions {
+  const rows = (data as TrendRow[]).filter((row) => row.share !== null);
+  const top = Math.min(1, Math.max(0.1, ...rows.map((row) => row.high ?? 0)) * 1.15);
+  return {
+    height: 260,
+    marginBottom: width < 560 ? 50 : 36,
+    x: { domain: (data as TrendRow[]).map((row) => row.quarter), tickFormat: (q: string) => q.replace("-", " "), tickRotate: width < 560 ? -35 : 0, label: null },
+    y: { domain: [0, top], tickFormat: (v: number) => `${Math.round(v * 100)} %`, label: "Share of attempts", grid: true },
+    marks: [
+      Plot.ruleX(rows, { x: "quarter", y1: "low", y2: "high", stroke: dusk[300], strokeWidth: 6, strokeLinecap: "round" }),
+      Plot.line(rows, { x: "quarter", y: "share", stroke: dusk[700], strokeWidth: 1.5 }),
+      Plot.dot(rows, { x: "quarter", y: "share", fill: dusk[700], r: 4, title: (row: TrendRow) => `${row.quarter}: ${percent(row.share)} (${row.count} of ${row.attempts})` }),
+      Plot.ruleY([0]),
+    ],
+  };
+}
+
+export function ErrorTrendChart({ label, trend }: { label: string; trend: readonly TrendRow[] }) {
+  const shown = trend.filter((row) => row.share !== null);
+  const first = shown[0];
+  const last = shown[shown.length - 1];
+  const overlap = first && last && first !== last && first.low !== null && last.high !== null && last.low !== null && first.high !== null && last.low <= first.high && first.low <= last.high;
+  const description =
+    shown.length === 0
+      ? "No attempts in these quarters."
+      : first === last
+        ? `${percent(first.share)} of attempts in ${first.quarter.replace("-", " ")}. Bars show the 95 % interval.`
+        : `Share of attempts with “${label.toLowerCase()}” per quarter, from ${percent(first.share)} in ${first.quarter.replace("-", " ")} to ${percent(last.share)} in ${last.quarter.replace("-", " ")}. ` +
+          `Bars show the 95 % interval; ${overlap ? "the first and last intervals overlap, so the change may be chance" : "the first and last intervals do not overlap"}.`;
+  return <Chart title="Trend by quarter" description={description} data={trend} columns={columns} rowKey={(row) => row.quarter} plot={trendPlot} exportFileName="error-trend" />;
+}

@@ -1,0 +1,177 @@
+// Error trends (quality lead, coordinator): which errors matter most for the chosen filters, and for one
+// error its trend by quarter and where it happens, down to the attempts themselves.
+import { useQuery } from "@tanstack/react-query";
+import { useCallback } from "react";
+import { Link, useSearchParams } from "react-router";
+import type { FeedbackMode } from "../../shared/domain";
+import type { OptionsAnswer } from "../../shared/schemas/insight";
+import type { PatientType } from "../../shared/scoring/policy";
+import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
+import { Select } from "../components/Field";
+import { FilterBar, useFilterValues, type FilterValues } from "../components/FilterBar";
+import { PageHeader } from "../components/PageHeader";
+import { EmptyState, ErrorState, LoadingState } from "../components/States";
+import { apiFilterQuery, insightFilters, linkParams, periodWords, useInsightOptions } from "../features/attempts/insightFilters";
+import { feedbackLabels, patientTypeLabels } from "../features/attempts/labels";
+import { BreakdownPanel, type BreakdownRow } from "../features/errors/BreakdownPanel";
+import { ErrorTrendChart } from "../features/errors/ErrorTrendChart";
+import { ParetoChart } from "../features/errors/ParetoChart";
+import { errorQueries } from "../features/errors/queries";
+
+const filterKeys = ["quarter", "site", "patientType", "feedback", "instructor", "manikin"] as const;
+
+export default function ErrorTrendsPage() {
+  const options = useInsightOptions();
+  return (
+    <div>
+      <PageHeader
+        title="Error trends"
+        description="Which errors fail attempts most often, how each one changes from quarter to quarter, and where it happens. Every group leads to its attempts."
+      />
+      {options.isPending ? (
+        <LoadingState label="Loading the filters…" />
+      ) : options.isError ? (
+        <ErrorState error={options.error} onRetry={() => options.refetch()} />
+      ) : options.data.quarters.length === 0 ? (
+        <EmptyState title="No attempts yet">Error trends appear once attempts have been imported.</EmptyState>
+      ) : (
+        <ErrorTrends options={options.data} />
+      )}
+    </div>
+  );
+}
+
+function isError(value: string | null): value is AttemptError {
+  return value !== null && (attemptErrorNames as readonly string[]).includes(value);
+}
+
+function ErrorTrends({ options }: { options: OptionsAnswer }) {
+  const filters = insightFilters(options, filterKeys);
+  const values = useFilterValues(filters);
+  const [params, setParams] = useSearchParams();
+  const rawError = params.get("error");
+  const error = isError(rawError) ? rawError : null;
+  const query = { ...apiFilterQuery(values, options.quarters), error: error ?? undefined };
+  const analysis = useQuery(errorQueries.analysis(query));
+
+  const examineHref = useCallback(
+    (row: { error: AttemptError }) => {
+      const next = new URLSearchParams(params);
+      next.set("error", row.error);
+      return `?${next.toString()}`;
+    },
+    [params],
+  );
+
+  function choose(next: string) {
+    setParams(
+      (previous) => {
+        const updated = new URLSearchParams(previous);
+        if (next) updated.set("error", next);
+        else updated.delete("error");
+        return updated;
+      },
+      { replace: true },
+    );
+  }
+
+  return (
+    <>
+      <FilterBar filters={filters} label="Filter the error trends" />
+      {analysis.isPending ? (
+        <LoadingState label="Counting errors…" />
+      ) : analysis.isError ? (
+        <ErrorState error={analysis.error} onRetry={() => analysis.refetch()} />
+      ) : (
+        <div className={analysis.isPlaceholderData ? "opacity-60 transition-opacity" : undefined} aria-busy={analysis.isPlaceholderData || undefined}>
+          <p className="mb-3 text-small text-muted">
+            {periodWords(analysis.data.period)} · {analysis.data.pareto.attempts ?? 0} attempts
+          </p>
+          {!analysis.data.pareto.attempts ? (
+            <EmptyState title="No attempts match these filters">Choose another period or clear a filter.</EmptyState>
+          ) : (
+            <div className="flex flex-col gap-6">
+              <ParetoChart rows={analysis.data.pareto.rows} attempts={analysis.data.pareto.attempts} examineHref={examineHref} selected={error} />
+              <section aria-labelledby="examine-heading" className="flex flex-col gap-4">
+                <div className="flex flex-wrap items-end justify-between gap-3 border-t border-line pt-5">
+                  <h2 id="examine-heading" className="text-title">
+                    {analysis.data.selected ? analysis.data.selected.label : "Examine one error"}
+                  </h2>
+                  <Select
+                    label="Error to examine"
+                    className="w-full sm:w-80"
+                    placeholder="Choose an error…"
+                    value={error ?? ""}
+                    onChange={(event) => choose(event.target.value)}
+                    options={options.errors.map((e) => ({ value: e.name, label: e.label }))}
+                  />
+                </div>
+                {analysis.data.selected ? (
+                  <SelectedError selected={analysis.data.selected} values={values} />
+                ) : (
+                  <EmptyState title="No error chosen">Choose an error above, or “Trend and breakdown” in the table view of the chart, to see its trend by quarter and where it happens.</EmptyState>
+                )}
+              </section>
+            </div>
+          )}
+        </div>
+      )}
+    </>
+  );
+}
+
+type Selected = NonNullable<import("../../shared/schemas/insight").ErrorsAnswer["selected"]>;
+
+function SelectedError({ selected, values }: { selected: Selected; values: FilterValues }) {
+  const attemptsLink = (extra: Record<string, string | null>) => `/attempts?${linkParams(values, { error: selected.error, ...extra })}`;
+  const named = (row: BreakdownRow) => row.key;
+  const recorded = (key: string) => (key === "(none)" || key.startsWith("#") ? null : key);
+  const withError = selected.byProfile.reduce((sum, row) => sum + row.count, 0);
+  return (
+    <div className="flex flex-col gap-6">
+      <p className="flex flex-wrap items-center gap-x-4 gap-y-2">
+        <span>
+          {withError} of {selected.byProfile.reduce((sum, row) => sum + row.attempts, 0)} attempts in the period have this error.
+        </span>
+        <Link to={attemptsLink({})} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+          List these {withError} attempts
+        </Link>
+      </p>
+      <ErrorTrendChart label={selected.label} trend={selected.trend} />
+      <p className="text-small text-muted">
+        The trend covers the quarters up to the end of the chosen period with the same filters; the groups below cover the chosen period only.
+      </p>
+      <div className="grid gap-8 xl:grid-cols-2">
+        <BreakdownPanel
+          dimension="patient type"
+          rows={selected.byProfile}
+          nameOf={(row) => patientTypeLabels[row.key as PatientType] ?? row.key}
+          attemptsHref={(row) => attemptsLink({ patientType: row.key })}
+          errorLabel={selected.label}
+        />
+        <BreakdownPanel
+          dimension="feedback mode"
+          rows={selected.byFeedback}
+          nameOf={(row) => feedbackLabels[row.key as FeedbackMode] ?? row.key}
+          attemptsHref={(row) => attemptsLink({ feedback: row.key })}
+          errorLabel={selected.label}
+        />
+        <BreakdownPanel dimension="site" rows={selected.bySite} nameOf={named} attemptsHref={(row) => (recorded(row.key) ? attemptsLink({ site: row.key }) : null)} errorLabel={selected.label} />
+        <BreakdownPanel
+          dimension="instructor"
+          rows={selected.byInstructor}
+          nameOf={named}
+          attemptsHref={(row) => (recorded(row.key) ? attemptsLink({ instructor: row.key }) : null)}
+          errorLabel={selected.label}
+        />
+        <BreakdownPanel
+          dimension="manikin"
+          rows={selected.byManikin}
+          nameOf={named}
+          attemptsHref={(row) => (recorded(row.key) ? attemptsLink({ manikin: row.key }) : null)}
+          errorLabel={selected.label}
+        />
+      </div>
+    </div>
+  );
+}
