@@ -64,6 +64,18 @@ describe("route guard", () => {
     expect(router.state.location.pathname).toBe("/report");
   });
 
+  it("sends the user to sign in, and back afterwards, when the session ends during a change", async () => {
+    fakeServer({
+      "GET /api/me": sessionFor("instructor"),
+      "PATCH /api/me": { status: 401, body: { error: { code: "unauthorized", message: "Sign in first." } } },
+    });
+    const { router } = renderApp("/account");
+    fireEvent.click(await screen.findByLabelText(/centimetres/i));
+    await screen.findByRole("heading", { name: "Sign in" });
+    expect(router.state.location.pathname).toBe("/sign-in");
+    expect(new URLSearchParams(router.state.location.search).get("next")).toBe("/account");
+  });
+
   it("opens '/' on each role's first landing page", () => {
     expect(homePathFor("funder", testRoutes)).toBe("/report");
     expect(homePathFor("instructor", testRoutes)).toBe("/account");
