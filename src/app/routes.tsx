@@ -56,9 +56,9 @@ export const appRoutes: readonly AppRoute[] = [
     : []),
 ];
 
-/** Where "/" sends a role: its first landing page, or its first page of any kind. */
+/** Where "/" sends a role: its first landing page, or its first page of any kind (never one that needs an id). */
 export function homePathFor(role: UserRole, routes: readonly AppRoute[] = appRoutes): string {
-  const allowed = routes.filter((route) => route.roles.includes(role));
+  const allowed = routes.filter((route) => route.roles.includes(role) && !route.path.includes(":"));
   const landing = allowed.find((route) => route.landing) ?? allowed[0];
   return landing ? `/${landing.path}` : "/account";
 }

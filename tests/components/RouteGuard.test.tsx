@@ -38,11 +38,17 @@ describe("route guard", () => {
     expect(within(nav).getByRole("link", { name: "My account" })).toBeTruthy();
   });
 
-  it("shows each role only the pages it may use in the navigation", async () => {
-    fakeServer({ "GET /api/me": sessionFor("coordinator") });
-    renderApp("/account");
+  it("shows each role only the pages it may use in the navigation, in table order", async () => {
+    fakeServer({ "GET /api/me": sessionFor("funder") });
+    renderApp("/account", [
+      ...testRoutes,
+      { path: "admin/users", title: "Users", group: "admin", roles: ["coordinator"], page: lazy(async () => ({ default: () => <h1>Users</h1> })) },
+      { path: "report/:id", title: "One report", group: "quality", roles: ["funder"], nav: false, page: lazy(async () => ({ default: () => <h1>One</h1> })) },
+    ]);
     const nav = await screen.findByRole("navigation", { name: "Main" });
-    expect(within(nav).getAllByRole("link").map((link) => link.textContent)).toEqual(["Users", "Sites and instructors", "My account"]);
+    expect(within(nav).getAllByRole("link").map((link) => link.textContent)).toEqual(["Quarterly report", "My account"]);
+    expect(within(nav).getByRole("heading", { name: "Quality" })).toBeTruthy();
+    expect(within(nav).queryByRole("heading", { name: "Administration" })).toBeNull();
   });
 
   it("returns to the page asked for after signing in", async () => {
@@ -79,6 +85,11 @@ describe("route guard", () => {
   it("opens '/' on each role's first landing page", () => {
     expect(homePathFor("funder", testRoutes)).toBe("/report");
     expect(homePathFor("instructor", testRoutes)).toBe("/account");
+  });
+
+  it("never opens '/' on a page that needs an id", () => {
+    const withDetail: AppRoute[] = [{ ...testRoutes[0], path: "report/:id", landing: true }, testRoutes[1]];
+    expect(homePathFor("funder", withDetail)).toBe("/account");
   });
 
   it("refuses a 'next' address outside Quarterbeat", async () => {
