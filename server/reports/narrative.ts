@@ -4,7 +4,10 @@
 import type { CountFigure, ReportData } from "../../shared/schemas/report";
 import { formatPercent, formatPoints } from "./figures";
 
-/** Words for Cohen's kappa after Landis and Koch, Biometrics 1977;33:159–174 (bands from memory). */
+/**
+ * Words for Cohen's kappa after Landis and Koch, Biometrics 1977;33:159–174 (bands from memory). The
+ * narrative passes the kappa as printed (two decimals), so "0.40" never reads as "moderate".
+ */
 export function kappaWords(kappa: number): string {
   if (kappa < 0) return "poorer than chance";
   if (kappa <= 0.2) return "slight";
@@ -76,7 +79,7 @@ export function writeNarrative(data: ReportData): string[] {
   if (agreement.kappa !== null && agreement.observedAgreement !== null) {
     sentences.push(
       `Where instructors also recorded a pass or fail, they agreed with the measurement in ${formatPercent(agreement.observedAgreement)} ` +
-        `of attempts (Cohen's kappa ${agreement.kappaText}, ${kappaWords(agreement.kappa)} agreement beyond chance).`,
+        `of attempts (Cohen's kappa ${agreement.kappaText}, ${kappaWords(Number(agreement.kappaText))} agreement beyond chance).`,
     );
   }
   if (agreement.completionRate.value !== null && rate.value !== null) {
