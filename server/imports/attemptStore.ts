@@ -56,6 +56,7 @@ export class AttemptStore {
   constructor(
     private readonly run: ImportRun,
     private readonly source: "summary" | "stream",
+    batchRows = 1,
   ) {
     const own = run.restrictedToInstructor;
     this.store = new RowStore(run.sqlite, {
@@ -65,6 +66,7 @@ export class AttemptStore {
       write: run.write,
       batchId: run.batchId,
       recordChange: run.recordChange,
+      batchRows,
       refuse: (existing, values) => {
         if (own !== null && existing[INSTRUCTOR] !== own) {
           return `attempt ${String(values[0])} is already recorded for another instructor's class`;
@@ -79,9 +81,9 @@ export class AttemptStore {
     });
   }
 
-  /** Why the last write was refused. */
-  get refusal(): string {
-    return this.store.refusal;
+  /** Writes what is still queued. */
+  flush() {
+    this.store.flush();
   }
 
   /**
@@ -98,12 +100,13 @@ export class AttemptStore {
     return info;
   }
 
-  write(identity: AttemptIdentity, cls: ClassInfo, metrics: StoredMetrics, stream?: (outcome: WriteOutcome) => void): WriteOutcome {
+  /** Scores and writes an attempt; `done` gets the outcome, at once or when the queued batch is written. */
+  write(identity: AttemptIdentity, cls: ClassInfo, metrics: StoredMetrics, done: (outcome: WriteOutcome, refusal: string) => void) {
     const run = this.run;
     const { policy, version } = run.policy;
     const scored = scoreAttempt(metrics, identity.profile, policy);
     const manikinId = identity.manikin === null ? null : run.codes.manikin(identity.manikin, cls.siteId);
-    const outcome = this.store.write([
+    this.store.queue([
       identity.id,
       identity.classId,
       identity.learner,
@@ -136,8 +139,6 @@ export class AttemptStore {
       errorsToMask(scored.errors),
       version,
       run.batchId,
-    ]);
-    stream?.(outcome);
-    return outcome;
+    ], done);
   }
 }

@@ -5,8 +5,11 @@ import { AttemptStore, type StoredMetrics } from "./attemptStore";
 import type { KindImporter } from "./kind";
 import type { ImportRun } from "./run";
 
+/** Attempts per multi-row INSERT. */
+const WRITE_BATCH_ROWS = 16;
+
 export function attemptsImporter(run: ImportRun, reader: RowReader): KindImporter {
-  const store = new AttemptStore(run, "summary");
+  const store = new AttemptStore(run, "summary", WRITE_BATCH_ROWS);
   // One metrics object reused for every row.
   const metrics: StoredMetrics = {
     compressions: 0,
@@ -51,17 +54,14 @@ export function attemptsImporter(run: ImportRun, reader: RowReader): KindImporte
       metrics.recoil_ok_pct = a.recoilOkPct;
       metrics.hands_on_pct = a.handsOnPct;
       metrics.longest_pause_s = a.longestPauseS;
-      const outcome = store.write(a, cls, metrics);
-      if (outcome === "duplicate") {
-        reader.fail("attempt_id", `attempt ${a.id} appears more than once in this file`);
-        return run.rejectRow(fields, issues);
-      }
-      if (outcome === "refused") {
-        reader.fail("attempt_id", store.refusal);
-        return run.rejectRow(fields, issues);
-      }
-      run.count(outcome);
+      store.write(a, cls, metrics, (outcome, refusal) => {
+        if (outcome === "duplicate") run.rejectRow(fields, [{ row, column: "attempt_id", reason: `attempt ${a.id} appears more than once in this file` }]);
+        else if (outcome === "refused") run.rejectRow(fields, [{ row, column: "attempt_id", reason: refusal }]);
+        else run.count(outcome);
+      });
     },
-    finish() {},
+    finish() {
+      store.flush();
+    },
   };
 }

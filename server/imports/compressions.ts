@@ -61,18 +61,17 @@ export function compressionsImporter(run: ImportRun, reader: RowReader, bufferRo
         if (n < 2) run.warnings.push(`Attempt ${identity.id} has only ${n} compression; it is stored but cannot pass.`);
         const metrics: StoredMetrics = out;
         const blob = encodeStream(stream.tMs, stream.depthTenths, stream.releaseTenths, 0, n);
-        let streamOutcome = "unchanged" as WriteOutcome;
-        const outcome = attempts.write(identity, classes.get(attempt.idx)!, metrics, (attemptOutcome) => {
-          if (attemptOutcome === "refused" || attemptOutcome === "duplicate") return;
-          streamOutcome = streams.write([identity.id, n, blob, run.batchId]);
+        // Unbatched: the outcome arrives at once, and the stream is written beside its attempt.
+        attempts.write(identity, classes.get(attempt.idx)!, metrics, (outcome, refusal) => {
+          if (outcome === "refused" || outcome === "duplicate") {
+            attempt.bad = true;
+            attempt.issueRows++;
+            run.rejectRow([], [{ row: attempt.firstRow, column: "attempt_id", reason: refusal || `attempt ${identity.id} appears twice` }]);
+            return;
+          }
+          const streamOutcome: WriteOutcome = streams.write([identity.id, n, blob, run.batchId]);
+          run.count(outcome === "inserted" ? "inserted" : outcome === "updated" || streamOutcome === "updated" ? "updated" : "unchanged");
         });
-        if (outcome === "refused") {
-          attempt.bad = true;
-          attempt.issueRows++;
-          run.rejectRow([], [{ row: attempt.firstRow, column: "attempt_id", reason: attempts.refusal }]);
-          continue;
-        }
-        run.count(outcome === "inserted" ? "inserted" : outcome === "updated" || streamOutcome === "updated" ? "updated" : "unchanged");
       }
       run.rejectedRows += collector.rowsRefusedWithAttempt;
       grouper.dispose();

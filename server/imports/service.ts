@@ -127,6 +127,8 @@ export async function importFile(db: Db, options: ImportFileOptions): Promise<Im
     }
     if (importer && !syntaxError) importer.finish();
 
+    // Batched writes report duplicates a few rows late: list reasons in file order (header first).
+    current.issues.sort((a, b) => (a.row ?? 0) - (b.row ?? 0));
     const refused = headerRefused || syntaxError !== undefined || (current.rejectedRows > 0 && !skipInvalid);
     const stream = importer && "attemptsRead" in importer ? (importer as ReturnType<typeof compressionsImporter>) : undefined;
     const summary: ImportSummary = {

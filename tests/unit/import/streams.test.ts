@@ -150,9 +150,9 @@ describe("importing compression streams", () => {
     expect(s.status).toBe("refused");
     expect(s.issues).toEqual([
       { row: 2, column: "feedback", reason: `"hidden" differs from "live" on row 1, the attempt's first row; every row of attempt D-1 must give the same feedback` },
+      { row: 5, column: "t_ms", reason: "t_ms 500 appears on rows 4 and 5 of attempt D-2; each compression needs its own time" },
       { row: 7, column: "t_ms", reason: "0.5 is not a whole number of milliseconds" },
       { row: 7, column: "depth_mm", reason: "101 is outside 0–100 mm" },
-      { row: 5, column: "t_ms", reason: "t_ms 500 appears on rows 4 and 5 of attempt D-2; each compression needs its own time" },
     ]);
     expect(s.attemptsRejected).toBe(3);
     expect(s.rejected).toBe(7); // every row of the three refused attempts
