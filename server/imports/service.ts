@@ -4,7 +4,7 @@
 // inside a read transaction and writes nothing at all (so it never holds the write lock).
 import path from "node:path";
 import type Database from "better-sqlite3";
-import type { ImportKind } from "../../shared/domain";
+import { importKinds, type ImportKind } from "../../shared/domain";
 import type { ImportSummary } from "../../shared/import/api";
 import { resolveHeader } from "../../shared/import/header";
 import { identityMapping, unknownMappingColumns, type ImportMapping } from "../../shared/import/mapping";
@@ -101,6 +101,9 @@ export async function importFile(db: Db, options: ImportFileOptions): Promise<Im
           const resolved = resolveHeader(fields, kind, mapping);
           for (const problem of resolved.problems) current.headerIssue(problem.column, problem.reason);
           if (resolved.problems.length > 0 || headerRefused) {
+            // A file given as the wrong kind misses most columns: say which kind it looks like.
+            const fits = importKinds.filter((other) => other !== kind && resolveHeader(fields, other, identityMapping).problems.length === 0);
+            if (resolved.problems.length > 0 && fits.length > 0) current.headerIssue(null, `the header fits the ${fits[0]} format; import it as ${fits[0]}`);
             headerRefused = true;
             return false;
           }

@@ -84,6 +84,13 @@ describe("class logs", () => {
     expect(s.rowsRead).toBe(0);
   });
 
+  it("says which kind a file looks like when it is given as the wrong kind", async () => {
+    const { db } = await freshDb();
+    const s = await load(db, "classes", "attempts-valid.csv");
+    expect(s.status).toBe("refused");
+    expect(s.issues).toContainEqual({ row: null, column: null, reason: "the header fits the attempts format; import it as attempts" });
+  });
+
   it("with skipInvalid writes the valid rows and keeps the refused ones with the batch", async () => {
     const { db } = await freshDb();
     const s = await load(db, "classes", "classes-bad.csv", { skipInvalid: true, now: new Date("2026-12-01T12:00:00Z") });
