@@ -46,9 +46,12 @@ export const appRoutes: readonly AppRoute[] = [
   { path: "attempts", title: "Attempts", group: "quality", roles: ["coordinator", "quality_lead"], page: lazy(() => import("../pages/AttemptsPage")) },
   { path: "attempts/:id", title: "Attempt", group: "quality", roles: ["coordinator", "quality_lead", "instructor"], nav: false, page: lazy(() => import("../pages/AttemptDetailPage")) },
   { path: "equipment", title: "Equipment", group: "quality", roles: ["coordinator", "quality_lead", "instructor"], page: lazy(() => import("../pages/EquipmentPage")) },
+  { path: "report", title: "Funder report", group: "quality", roles: ["coordinator", "funder"], page: lazy(() => import("../pages/ReportPage")), landing: true },
+  { path: "imports", title: "Imports", group: "data", roles: ["coordinator", "instructor"], page: lazy(() => import("../pages/ImportsPage")) },
   { path: "settings", title: "Scoring policy", group: "admin", roles: ["coordinator", "quality_lead"], page: lazy(() => import("../pages/SettingsPage")) },
   { path: "admin/users", title: "Users", group: "admin", roles: ["coordinator"], page: lazy(() => import("../pages/UsersAdminPage")) },
   { path: "admin/sites", title: "Sites and instructors", group: "admin", roles: ["coordinator"], page: lazy(() => import("../pages/SitesAdminPage")) },
+  { path: "outbox", title: "Outbox", group: "admin", roles: ["coordinator"], page: lazy(() => import("../pages/OutboxPage")) },
   { path: "account", title: "My account", group: "you", roles: everyone, page: lazy(() => import("../pages/AccountPage")), landing: true },
   // Development builds only: a gallery of the UI kit.
   ...(import.meta.env.DEV

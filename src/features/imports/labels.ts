@@ -1,0 +1,44 @@
+// Words and number formats shared by the import pages.
+import type { ImportKind } from "../../../shared/domain";
+
+export const kindLabels: Record<ImportKind, string> = {
+  classes: "Class logs",
+  attempts: "Attempt summaries",
+  compressions: "Compression streams",
+  equipment: "Equipment events",
+};
+
+export const kindHints: Record<ImportKind, string> = {
+  classes: "One row per class: date, site, instructor, course, learners and how many completed.",
+  attempts: "One row per measured attempt: the manikin's summary of rate, depth, recoil and pauses.",
+  compressions: "One row per compression: time, depth and release, grouped into attempts by attempt id.",
+  equipment: "One row per event in a manikin's life: commissioned, parts replaced, serviced, faults, retired.",
+};
+
+export const unitLabels = {
+  depth: { mm: "millimetres (mm)", cm: "centimetres (cm)", in: "inches (in)" },
+  time: { ms: "milliseconds (ms)", s: "seconds (s)" },
+  shares: { percent: "percentages, 0–100", fraction: "fractions, 0–1" },
+} as const;
+
+const numberFormat = new Intl.NumberFormat("en-GB");
+const dateTimeFormat = new Intl.DateTimeFormat("en-GB", { dateStyle: "medium", timeStyle: "short" });
+
+export function formatCount(value: number): string {
+  return numberFormat.format(value);
+}
+
+export function plural(count: number, one: string, many: string = `${one}s`): string {
+  return `${formatCount(count)} ${count === 1 ? one : many}`;
+}
+
+export function formatBytes(bytes: number): string {
+  if (bytes < 1024) return `${bytes} bytes`;
+  if (bytes < 1024 * 1024) return `${(bytes / 1024).toFixed(bytes < 10 * 1024 ? 1 : 0)} kB`;
+  return `${(bytes / (1024 * 1024)).toFixed(1)} MB`;
+}
+
+export function formatDateTime(iso: string): string {
+  const date = new Date(iso);
+  return Number.isNaN(date.getTime()) ? iso : dateTimeFormat.format(date);
+}

@@ -1,0 +1,253 @@
+// The funder report as a readable page: every figure comes with the text the API made for it (the same
+// words as the PDF); suppressed figures read "fewer than 5" or "not shown" exactly as the API gives them.
+import clsx from "clsx";
+import type { ReactNode } from "react";
+import type { ChangeVerdict, GroupResult, ReportData } from "../../../shared/schemas/report";
+import { FigureText, RateText, formatPoints, formatPointsSize, formatShare, formatWhole, rateWithInterval } from "./figures";
+import { MethodsBox } from "./MethodsBox";
+import { ReportTable } from "./ReportTable";
+import { TrendChart } from "./TrendChart";
+
+export interface ReportViewProps {
+  data: ReportData;
+  /** Where these figures come from (a stored version or today's data), shown under the title. */
+  source?: ReactNode;
+  /** Replaces the read-only "what the network is doing" text, e.g. with the coordinator's editor. */
+  actionsSlot?: ReactNode;
+}
+
+const generatedFormat = new Intl.DateTimeFormat("en-GB", { dateStyle: "long", timeStyle: "short" });
+
+function Section({ id, title, children, className }: { id: string; title: string; children: ReactNode; className?: string }) {
+  return (
+    <section aria-labelledby={id} className={clsx("flex flex-col gap-3 break-inside-avoid-page", className)}>
+      <h3 id={id} className="text-title">
+        {title}
+      </h3>
+      {children}
+    </section>
+  );
+}
+
+function Stat({ label, children, note }: { label: string; children: ReactNode; note?: ReactNode }) {
+  return (
+    <div className="flex flex-col rounded-card border border-line bg-surface p-3 shadow-card print:shadow-none">
+      <dt className="text-small font-semibold text-muted">{label}</dt>
+      <dd className="text-headline">{children}</dd>
+      {note && <dd className="text-caption text-muted">{note}</dd>}
+    </div>
+  );
+}
+
+function VerdictMark({ verdict }: { verdict: ChangeVerdict | null }) {
+  return (
+    <svg viewBox="0 0 12 12" className="mt-1.5 size-3 shrink-0 text-dusk-700" aria-hidden="true">
+      {verdict === "higher" && <path d="M1 9.5h10L6 1z" fill="currentColor" />}
+      {verdict === "lower" && <path d="M1 2.5h10L6 11z" fill="currentColor" />}
+      {(verdict === "about the same" || verdict === null) && <path d="M1 6h10" stroke="currentColor" strokeWidth="2" />}
+    </svg>
+  );
+}
+
+const groupColumns = (first: string) => [
+  { header: first, cell: (g: GroupResult) => g.label },
+  { header: "Attempts", cell: (g: GroupResult) => <FigureText figure={g.attempts} />, align: "right" as const },
+  { header: "Pass rate", cell: (g: GroupResult) => <FigureText figure={g.passRate} />, align: "right" as const },
+  { header: "95 % interval", cell: (g: GroupResult) => (g.passRate.hidden ? "" : g.passRate.intervalText), align: "right" as const },
+];
+
+function feedbackSentence(points: number, verdict: ChangeVerdict | null): string {
+  if (Math.abs(points) < 0.05) return "The pass rate was the same with the display shown and hidden.";
+  const chance = verdict === "about the same" ? ", a difference small enough to be chance (the two intervals overlap too much to call it)" : "";
+  return `The pass rate with the display shown was ${formatPointsSize(points)} ${points > 0 ? "higher" : "lower"} than with it hidden${chance}.`;
+}
+
+export function ReportView({ data, source, actionsSlot }: ReportViewProps) {
+  const generated = new Date(data.generatedAt);
+  return (
+    <article aria-labelledby="report-title" className="flex flex-col gap-8" data-report-article="">
+      <header className="flex flex-col gap-1">
+        <p className="text-small font-semibold tracking-wide text-dusk-700 uppercase">{data.networkName}</p>
+        <h2 id="report-title" className="text-headline">
+          Training quality report, {data.periodLabel}
+        </h2>
+        <p className="text-small text-muted">
+          Period {data.period} · figures as of {Number.isNaN(generated.getTime()) ? data.generatedAt : generatedFormat.format(generated)} · scoring policy version{" "}
+          {data.policyVersion}
+        </p>
+        {source && <div className="mt-1 text-small">{source}</div>}
+      </header>
+
+      {!data.hasData && (
+        <p className="rounded-card border border-dashed border-line-strong bg-surface p-4">
+          No classes or measured attempts were recorded for {data.periodLabel}. The sections below are empty.
+        </p>
+      )}
+
+      <Section id="report-brief" title="In brief">
+        {data.narrative.length === 0 ? (
+          <p className="text-muted">There is nothing to summarise for this period.</p>
+        ) : (
+          <div className="flex max-w-3xl flex-col gap-2 text-lead">
+            {data.narrative.map((paragraph, i) => (
+              <p key={i}>{paragraph}</p>
+            ))}
+          </div>
+        )}
+      </Section>
+
+      <Section id="report-reach" title="Reach">
+        <dl className="grid grid-cols-2 gap-3 sm:grid-cols-3 lg:grid-cols-5">
+          <Stat label="Classes">
+            <FigureText figure={data.reach.classes} />
+          </Stat>
+          <Stat label="Learners">
+            <FigureText figure={data.reach.learners} />
+          </Stat>
+          <Stat label="Sites">
+            <FigureText figure={data.reach.sites} />
+          </Stat>
+          <Stat label="Instructors">
+            <FigureText figure={data.reach.instructors} />
+          </Stat>
+          <Stat label="Attempts measured">
+            <FigureText figure={data.reach.attempts} />
+          </Stat>
+        </dl>
+        {data.reach.byCourse.length > 0 && (
+          <ReportTable
+            caption="Classes and learners by course"
+            rows={data.reach.byCourse}
+            rowKey={(c) => c.key}
+            columns={[
+              { header: "Course", cell: (c) => c.label },
+              { header: "Classes", cell: (c) => <FigureText figure={c.classes} />, align: "right" },
+              { header: "Learners", cell: (c) => <FigureText figure={c.learners} />, align: "right" },
+            ]}
+          />
+        )}
+      </Section>
+
+      <Section id="report-pass" title="Objective pass rate">
+        <div className="flex flex-col gap-2 rounded-card border border-line bg-surface p-4 shadow-card print:shadow-none">
+          <p className="text-small text-muted">Measured attempts that met every part of the network's pass rule (see “How these figures are made”).</p>
+          <p className="flex flex-wrap items-baseline gap-x-3">
+            <span className="text-display tabular-nums">
+              <FigureText figure={data.passRate} />
+            </span>
+            {!data.passRate.hidden && data.passRate.intervalText && (
+              <span className="text-lead text-muted tabular-nums">95 % interval {data.passRate.intervalText}</span>
+            )}
+          </p>
+          <p className="text-small text-muted">
+            of <FigureText figure={data.passRate.n} /> measured attempts
+          </p>
+          <p className="sr-only">Pass rate: {rateWithInterval(data.passRate)}</p>
+          {data.comparisons.length > 0 && (
+            <ul className="mt-2 flex flex-col gap-1 border-t border-line pt-3">
+              {data.comparisons.map((comparison) => (
+                <li key={comparison.period} className="flex items-start gap-2">
+                  <VerdictMark verdict={comparison.verdict} />
+                  <span>
+                    {comparison.text}
+                    {comparison.changePoints !== null && <span className="text-muted"> Change: {formatPoints(comparison.changePoints)}.</span>}
+                  </span>
+                </li>
+              ))}
+            </ul>
+          )}
+        </div>
+        {data.byPatientType.length > 0 && <ReportTable caption="Pass rate by patient type" rows={data.byPatientType} rowKey={(g) => g.key} columns={groupColumns("Patient type")} />}
+      </Section>
+
+      <Section id="report-trend" title="Quarter by quarter">
+        <TrendChart trend={data.trend} />
+      </Section>
+
+      <Section id="report-errors" title="Most common errors">
+        {data.errors.rows.length === 0 ? (
+          <p className="text-muted">No errors were found in this period's measured attempts.</p>
+        ) : (
+          <>
+            <p className="text-small text-muted">
+              Attempts with at least one error: <FigureText figure={data.errors.attemptsWithErrors} />. An attempt can show more than one error.
+            </p>
+            <ReportTable
+              caption="Most common errors"
+              rows={data.errors.rows}
+              rowKey={(e) => e.name}
+              columns={[
+                { header: "Error", cell: (e) => e.label },
+                { header: "Attempts", cell: (e) => <FigureText figure={e.count} />, align: "right" },
+                { header: "Share of errors found", cell: (e) => (e.share === null ? "" : formatShare(e.share)), align: "right" },
+              ]}
+            />
+          </>
+        )}
+        <div className="flex flex-col gap-1 rounded-card border-l-4 border-marigold-500 bg-surface p-4 shadow-card print:shadow-none">
+          <h4 className="font-semibold">What the network is doing about them</h4>
+          {actionsSlot ??
+            (data.errors.actions.trim() ? (
+              <p className="whitespace-pre-wrap">{data.errors.actions}</p>
+            ) : (
+              <p className="text-muted">The coordinator has not written about this period yet.</p>
+            ))}
+        </div>
+      </Section>
+
+      <Section id="report-feedback" title="Live or hidden feedback display">
+        <p className="text-small text-muted">Some attempts are made with the manikin's live display shown to the learner, others with it hidden, as in a real emergency.</p>
+        <ReportTable caption="Pass rate with the display shown and hidden" rows={[data.feedback.live, data.feedback.hidden]} rowKey={(g) => g.key} columns={groupColumns("Display")} />
+        {data.feedback.differencePoints !== null && <p>{feedbackSentence(data.feedback.differencePoints, data.feedback.verdict)}</p>}
+      </Section>
+
+      <Section id="report-agreement" title="Instructors' judgement and measured quality">
+        <dl className="grid grid-cols-1 gap-3 sm:grid-cols-2 lg:grid-cols-4">
+          <Stat label="Attempts with an instructor's pass or fail">
+            <FigureText figure={data.agreement.pairs} />
+          </Stat>
+          <Stat label="Instructor and measurement agreed">
+            <span className="tabular-nums">{formatShare(data.agreement.observedAgreement)}</span>
+          </Stat>
+          <Stat label="Agreement beyond chance (Cohen's kappa)" note="0 = no better than chance, 1 = full agreement">
+            <span className="tabular-nums">{data.agreement.kappaText || "–"}</span>
+          </Stat>
+          <Stat label="Learners recorded as completing" note={<>objective pass rate: {rateWithInterval(data.agreement.objectivePassRate)}</>}>
+            <RateText rate={data.agreement.completionRate} />
+          </Stat>
+        </dl>
+      </Section>
+
+      <Section id="report-equipment" title="Equipment and consumables">
+        <dl className="grid grid-cols-2 gap-3 sm:grid-cols-3 lg:grid-cols-4">
+          <Stat label="Manikins used">
+            <FigureText figure={data.equipment.manikinsUsed} />
+          </Stat>
+          <Stat label="Compressions recorded">
+            <FigureText figure={data.equipment.compressions} />
+          </Stat>
+          <Stat label="Compressions per manikin">
+            <span className="tabular-nums">{formatWhole(data.equipment.compressionsPerManikin)}</span>
+          </Stat>
+          <Stat label="Services">
+            <FigureText figure={data.equipment.services} />
+          </Stat>
+          <Stat label="Faults reported">
+            <FigureText figure={data.equipment.faults} />
+          </Stat>
+          <Stat label="Lungs replaced" note="per 100 learners">
+            <FigureText figure={data.equipment.lungsPer100Learners} />
+          </Stat>
+          <Stat label="Mouthpieces cleaned" note="per 100 learners">
+            <FigureText figure={data.equipment.mouthpiecesPer100Learners} />
+          </Stat>
+          <Stat label="Batteries replaced" note="per 100 learners">
+            <FigureText figure={data.equipment.batteriesPer100Learners} />
+          </Stat>
+        </dl>
+      </Section>
+
+      <MethodsBox data={data} />
+    </article>
+  );
+}

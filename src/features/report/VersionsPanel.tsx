@@ -1,0 +1,91 @@
+// The stored versions of a period's report, and "Create report version": each version keeps its figures
+// and its PDF exactly as they were, so what funders received can always be downloaded again.
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { useState } from "react";
+import type { ReportVersion } from "../../../shared/schemas/report";
+import { Button } from "../../components/Button";
+import { Notice } from "../../components/Notice";
+import { errorMessage } from "../../components/States";
+import { periodName } from "./period";
+import { createVersion, csvUrl, pdfUrl, reportQueries } from "./queries";
+import { ReportTable } from "./ReportTable";
+
+const timeFormat = new Intl.DateTimeFormat("en-GB", { dateStyle: "medium", timeStyle: "short" });
+export const formatTime = (iso: string) => {
+  const date = new Date(iso);
+  return Number.isNaN(date.getTime()) ? iso : timeFormat.format(date);
+};
+export const formatKb = (bytes: number) => `${Math.max(1, Math.round(bytes / 1024))} kB`;
+
+export interface VersionsPanelProps {
+  period: string;
+  versions: readonly ReportVersion[];
+  onCreated: (version: ReportVersion) => void;
+}
+
+export function VersionsPanel({ period, versions, onCreated }: VersionsPanelProps) {
+  const queryClient = useQueryClient();
+  const [message, setMessage] = useState<{ tone: "success" | "error"; text: string } | null>(null);
+  const create = useMutation({
+    mutationFn: () => createVersion(period),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: reportQueries.versions(period).queryKey }),
+  });
+
+  function run() {
+    setMessage(null);
+    create.mutate(undefined, {
+      onSuccess: (version) => {
+        setMessage({ tone: "success", text: `Version ${version.version} of ${periodName(period)} is stored (PDF, ${formatKb(version.pdfBytes)}). Funders can download it now.` });
+        onCreated(version);
+      },
+      onError: (error) => setMessage({ tone: "error", text: `No version was created: ${errorMessage(error)}` }),
+    });
+  }
+
+  return (
+    <section aria-labelledby="versions-heading" className="flex flex-col gap-3">
+      <div className="flex flex-wrap items-end justify-between gap-3">
+        <div className="max-w-2xl">
+          <h3 id="versions-heading" className="text-lead font-semibold">
+            Report versions for {periodName(period)}
+          </h3>
+          <p className="text-small text-muted">
+            Creating a version stores today's figures, your text and the PDF. Funders always download the latest version; earlier ones stay here unchanged.
+          </p>
+        </div>
+        <Button onClick={run} busy={create.isPending}>
+          Create report version
+        </Button>
+      </div>
+      {message && <Notice tone={message.tone}>{message.text}</Notice>}
+      {versions.length === 0 ? (
+        <p className="rounded-card border border-dashed border-line-strong bg-surface p-4 text-muted">No version has been created for {periodName(period)} yet.</p>
+      ) : (
+        <ReportTable
+          caption={`Report versions for ${periodName(period)}`}
+          rows={versions}
+          rowKey={(v) => String(v.id)}
+          columns={[
+            { header: "Version", cell: (v) => `Version ${v.version}` },
+            { header: "Created", cell: (v) => formatTime(v.createdAt) },
+            { header: "By", cell: (v) => v.createdBy ?? "command line" },
+            { header: "Last sent", cell: (v) => (v.lastSend ? `${v.lastSend.status === "sent" ? "Sent" : "Failed"} ${formatTime(v.lastSend.createdAt)}` : "Not sent") },
+            {
+              header: "Downloads",
+              cell: (v) => (
+                <span className="flex flex-wrap gap-x-3">
+                  <a href={pdfUrl(v.id)} download className="font-medium text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+                    PDF<span className="sr-only"> of version {v.version}</span> ({formatKb(v.pdfBytes)})
+                  </a>
+                  <a href={csvUrl(v.id)} download className="font-medium text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+                    Figures as CSV<span className="sr-only"> of version {v.version}</span>
+                  </a>
+                </span>
+              ),
+            },
+          ]}
+        />
+      )}
+    </section>
+  );
+}

@@ -1,0 +1,59 @@
+// How the report's figures read on the page. The API already made each figure's text ("68.2 %",
+// "fewer than 5", "not shown"), the same words as the PDF; these helpers only add layout and the reason a
+// figure is hidden.
+import clsx from "clsx";
+import type { CountFigure, HiddenReason, PerHundredFigure, RateFigure } from "../../../shared/schemas/report";
+
+export const hiddenReasons: Record<HiddenReason, string> = {
+  small: "Hidden to protect the people behind it: it comes from fewer than the smallest group the report shows.",
+  "protects-other": "Hidden so that a total shown elsewhere cannot give away a small figure.",
+};
+
+/** A count, per-100 figure or rate's text; hidden ones are muted and say why on hover and to screen readers. */
+export function FigureText({ figure, className }: { figure: CountFigure | PerHundredFigure | RateFigure; className?: string }) {
+  if (!figure.hidden) return <span className={clsx("tabular-nums", className)}>{figure.text}</span>;
+  return (
+    <span className={clsx("text-muted italic", className)} title={hiddenReasons[figure.hidden]}>
+      {figure.text}
+    </span>
+  );
+}
+
+/** "38.1 % (95 % interval 34.9–41.4 %)", or the hidden text alone. */
+export function rateWithInterval(rate: RateFigure): string {
+  if (rate.hidden || !rate.intervalText) return rate.text;
+  return `${rate.text} (95 % interval ${rate.intervalText})`;
+}
+
+export function RateText({ rate }: { rate: RateFigure }) {
+  if (rate.hidden) return <FigureText figure={rate} />;
+  return (
+    <span className="tabular-nums">
+      <span className="font-semibold">{rate.text}</span>
+      {rate.intervalText && <span className="text-muted"> (95 % interval {rate.intervalText})</span>}
+    </span>
+  );
+}
+
+const percentFormat = new Intl.NumberFormat("en-GB", { maximumFractionDigits: 1, minimumFractionDigits: 1 });
+const wholeFormat = new Intl.NumberFormat("en-GB", { maximumFractionDigits: 0 });
+
+/** A share 0–1 as "36.7 %"; "–" when missing. */
+export function formatShare(share: number | null): string {
+  return share === null ? "–" : `${percentFormat.format(share * 100)} %`;
+}
+
+export function formatWhole(value: number | null): string {
+  return value === null ? "–" : wholeFormat.format(value);
+}
+
+/** Signed percentage points, "+16.2 points", "−0.3 points". */
+export function formatPoints(points: number): string {
+  const sign = points > 0 ? "+" : points < 0 ? "−" : "±";
+  return `${sign}${percentFormat.format(Math.abs(points))} percentage points`;
+}
+
+/** The size of a change in percentage points, without its sign: "17.4 percentage points". */
+export function formatPointsSize(points: number): string {
+  return `${percentFormat.format(Math.abs(points))} percentage points`;
+}
