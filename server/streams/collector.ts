@@ -11,6 +11,8 @@ export interface StreamAttempt {
   firstRow: number;
   /** The shared columns' text on the attempt's first row. */
   raw: string[];
+  /** The same fields exactly as in the file (untrimmed, untranslated): the cheap comparison for later rows. */
+  verbatim: (string | undefined)[];
   identity: AttemptIdentity | null;
   rows: number;
   /** Rows of this attempt refused with a reason of their own. */
@@ -30,25 +32,33 @@ export class StreamCollector {
   private readonly byId = new Map<string, StreamAttempt>();
   private last: StreamAttempt | null = null;
   private readonly values: CompressionValues = { tMs: 0, depthTenths: 0, releaseTenths: 0 };
+  private readonly positions: number[];
 
   constructor(
     private readonly reader: RowReader,
     readonly grouper: StreamGrouper,
     private readonly hooks: CollectorHooks,
-  ) {}
+  ) {
+    this.positions = IDENTITY_COLUMNS.map((c) => reader.position(c));
+  }
 
   row(fields: readonly string[], row: number) {
     const reader = this.reader;
     reader.issues.length = 0;
     reader.at(fields, row);
-    const id = reader.text("attempt_id");
-    let attempt = this.last !== null && this.last.id === id ? this.last : this.byId.get(id);
+    const positions = this.positions;
+    const last = this.last;
+    // Fast path: the same attempt as the previous row, its fields byte-for-byte the same.
+    let attempt: StreamAttempt | undefined = last !== null && fields[positions[0]] === last.verbatim[0] ? last : undefined;
+    if (attempt === undefined) attempt = this.byId.get(reader.text("attempt_id"));
     if (attempt === undefined) {
+      const id = reader.text("attempt_id");
       attempt = {
         idx: this.attempts.length,
         id,
         firstRow: row,
         raw: IDENTITY_COLUMNS.map((c) => reader.text(c)),
+        verbatim: positions.map((p) => (p >= 0 ? fields[p] : undefined)),
         identity: reader.attemptIdentity(),
         rows: 0,
         issueRows: 0,
@@ -66,13 +76,16 @@ export class StreamCollector {
       }
     } else {
       const raw = attempt.raw;
+      const verbatim = attempt.verbatim;
       for (let k = 1; k < IDENTITY_COLUMNS.length; k++) {
+        const p = positions[k];
+        if (p < 0 || fields[p] === verbatim[k]) continue;
         const column = IDENTITY_COLUMNS[k];
         const value = reader.text(column);
         if (value !== raw[k]) {
           reader.fail(
             column,
-            `${JSON.stringify(value)} differs from ${JSON.stringify(raw[k])} on row ${attempt.firstRow}, the attempt's first row; every row of attempt ${id} must give the same ${column}`,
+            `${JSON.stringify(value)} differs from ${JSON.stringify(raw[k])} on row ${attempt.firstRow}, the attempt's first row; every row of attempt ${attempt.id} must give the same ${column}`,
           );
           attempt.bad = true;
           break;

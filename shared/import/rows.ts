@@ -220,6 +220,12 @@ export class RowReader {
     return null;
   }
 
+  /** Position of a column in the file's rows, -1 when absent. */
+  position(column: string): number {
+    const position = this.index[column];
+    return position === undefined ? -1 : position;
+  }
+
   /** The raw text of a column after value translation, trimmed; "" when the column is absent. */
   text(column: string): string {
     const position = this.index[column];
