@@ -13,11 +13,11 @@ import { createPassport } from "./auth/passport";
 import { authRoutes } from "./auth/routes";
 import { SqliteSessionStore } from "./auth/sessionStore";
 import { errorHandler, notFoundHandler } from "./http/errorHandler";
-import { equipmentRoutes } from "./equipment/routes";
 import { importRoutes } from "./imports/routes";
 import { createMailer } from "./mail/mailer";
 import { outboxRoutes } from "./mail/routes";
 import { reportRoutes } from "./reports/routes";
+import { equipmentRoutes } from "./equipment/routes";
 import { insightRoutes } from "./insight/routes";
 import { policyRoutes } from "./settings/policyRoutes";
 import { sessionSecret } from "./settings/store";
@@ -37,7 +37,7 @@ const VERSION = "1.0.0";
 /** Feature routers mounted under /api. Each one guards its own routes with `allow(...)`. */
 function featureRouters(db: Db, config: Config): Router[] {
   const mailer = createMailer(config.smtpUrl);
-  return [userRoutes(db), siteRoutes(db), importRoutes(db), insightRoutes(db), equipmentRoutes(db), policyRoutes(db), reportRoutes(db, mailer), outboxRoutes(db)];
+  return [userRoutes(db, mailer), siteRoutes(db), insightRoutes(db), equipmentRoutes(db), policyRoutes(db), reportRoutes(db, mailer), outboxRoutes(db), importRoutes(db)];
 }
 
 export function createApp(db: Db, config: Config, options: AppOptions = {}) {

@@ -4,9 +4,10 @@ import type { Db } from "../db/client";
 import { allow, signedInUser } from "../auth/guard";
 import { AppError } from "../errors";
 import { parseId, parseWith } from "../http/validate";
+import type { Mailer } from "../mail/mailer";
 import { createUser, listUsers, setPassword, updateUser } from "./service";
 
-export function userRoutes(db: Db): Router {
+export function userRoutes(db: Db, mailer: Mailer): Router {
   const router = Router();
   router.use("/users", allow("manageUsers"));
 
@@ -16,7 +17,14 @@ export function userRoutes(db: Db): Router {
 
   router.post("/users", async (req, res) => {
     const input = parseWith(newUserSchema, req.body, "The new user");
-    res.status(201).json({ user: await createUser(db, input) });
+    const user = await createUser(db, input);
+    // The account exists either way; a failed welcome message is reported, not fatal.
+    const signInUrl = `${req.protocol}://${req.get("host")}/sign-in`;
+    const welcome = await mailer
+      .sendWelcomeEmail(user, signInUrl)
+      .then(() => ({ sent: true as const }))
+      .catch((err: unknown) => ({ sent: false as const, error: err instanceof Error ? err.message : String(err) }));
+    res.status(201).json({ user, welcome });
   });
 
   router.patch("/users/:id", (req, res) => {
