@@ -1,3 +1,131 @@
+// Equipment (coordinator, quality lead; instructors see their own site): the manikin fleet and its use,
+// consumables per 100 learners, and what is due for attention, judged against the network's thresholds.
+import { useQuery } from "@tanstack/react-query";
+import { Link } from "react-router";
+import type { EquipmentAnswer } from "../../shared/schemas/equipment";
+import type { OptionsAnswer } from "../../shared/schemas/insight";
+import { FilterBar, useFilterValues } from "../components/FilterBar";
+import { PageHeader } from "../components/PageHeader";
+import { EmptyState, ErrorState, LoadingState } from "../components/States";
+import { dateOnly } from "../features/attempts/labels";
+import { apiFilterQuery, insightFilters, periodWords, useInsightOptions, type InsightFilterKey } from "../features/attempts/insightFilters";
+import { useCurrentUser } from "../features/auth/useSession";
+import { AttentionList } from "../features/equipment/AttentionList";
+import { ConsumablesCharts } from "../features/equipment/ConsumablesChart";
+import { FleetTable } from "../features/equipment/FleetTable";
+import { equipmentQueries } from "../features/equipment/queries";
+import { UsageChart } from "../features/equipment/UsageChart";
+
 export default function EquipmentPage() {
-  return null;
+  const options = useInsightOptions();
+  const user = useCurrentUser();
+  const ownSite = user.role === "instructor";
+  return (
+    <div>
+      <PageHeader
+        title="Equipment"
+        description={
+          ownSite
+            ? "The manikins of your site: how much they are used, when they were last serviced, what is due, and the consumables your site used per 100 learners."
+            : "The manikin fleet: how much each manikin is used, when it was last serviced, what is due, and consumables per 100 learners at each site."
+        }
+      />
+      {options.isPending ? (
+        <LoadingState label="Loading the filters…" />
+      ) : options.isError ? (
+        <ErrorState error={options.error} onRetry={() => options.refetch()} />
+      ) : (
+        <Equipment options={options.data} ownSite={ownSite} />
+      )}
+    </div>
+  );
+}
+
+function Equipment({ options, ownSite }: { options: OptionsAnswer; ownSite: boolean }) {
+  const keys: InsightFilterKey[] = ownSite ? ["quarter", "patientType", "manikin"] : ["quarter", "site", "patientType", "manikin"];
+  const filters = insightFilters(options, keys);
+  const values = useFilterValues(filters);
+  const report = useQuery(equipmentQueries.report(apiFilterQuery(values, options.quarters)));
+  return (
+    <>
+      {options.quarters.length > 0 && <FilterBar filters={filters} label="Filter the equipment view" />}
+      {report.isPending ? (
+        <LoadingState label="Loading the fleet…" />
+      ) : report.isError ? (
+        <ErrorState error={report.error} onRetry={() => report.refetch()} />
+      ) : (
+        <EquipmentView answer={report.data} ownSite={ownSite} />
+      )}
+    </>
+  );
+}
+
+function Thresholds({ answer, ownSite }: { answer: EquipmentAnswer; ownSite: boolean }) {
+  const t = answer.thresholds;
+  const changed = [t.serviceEveryCompressions, t.serviceEveryDays, t.minMouthpieceCleansPerLearner].some((x) => !x.projectDefault);
+  const was = (x: { projectDefault: boolean; defaultValue: number }) => (x.projectDefault ? "" : ` (project default ${x.defaultValue.toLocaleString("en-GB")})`);
+  return (
+    <div className="rounded-card border border-dusk-200 bg-dusk-50 p-4 text-small text-ink">
+      <p>
+        <strong>Thresholds:</strong> service every {t.serviceEveryCompressions.value.toLocaleString("en-GB")} compressions{was(t.serviceEveryCompressions)} or every{" "}
+        {t.serviceEveryDays.value} days{was(t.serviceEveryDays)}; at least {t.minMouthpieceCleansPerLearner.value} mouthpiece clean
+        {t.minMouthpieceCleansPerLearner.value === 1 ? "" : "s"} per learner{was(t.minMouthpieceCleansPerLearner)}.
+      </p>
+      <p className="mt-1 text-muted">
+        {changed ? "The network has changed some of these from the project defaults. " : "These are project defaults: network policy, not a guideline or a manufacturer’s figure. "}
+        They are set in{" "}
+        {ownSite ? (
+          "the scoring policy settings by the regional coordinator"
+        ) : (
+          <Link to="/settings" className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+            Settings
+          </Link>
+        )}
+        . Days are counted to {dateOnly(answer.asOf)}.
+      </p>
+    </div>
+  );
+}
+
+function EquipmentView({ answer, ownSite }: { answer: EquipmentAnswer; ownSite: boolean }) {
+  const retired = answer.fleet.filter((m) => m.retiredOn !== null && m.retiredOn <= answer.asOf).length;
+  return (
+    <div className="flex flex-col gap-8">
+      <section aria-labelledby="attention-heading" className="flex flex-col gap-3">
+        <h2 id="attention-heading" className="text-title">
+          Due for attention
+        </h2>
+        <Thresholds answer={answer} ownSite={ownSite} />
+        <p className="text-small text-muted">
+          Services and faults are as of {dateOnly(answer.asOf)}; mouthpiece cleans cover the classes of {periodWords(answer.period)}.
+        </p>
+        <AttentionList items={answer.attention} linkClasses />
+      </section>
+
+      <section aria-labelledby="fleet-heading" className="flex flex-col gap-3">
+        <h2 id="fleet-heading" className="text-title">
+          Manikin fleet
+        </h2>
+        {answer.fleet.length === 0 ? (
+          <EmptyState title="No manikins match these filters">Manikins appear here once an equipment log or an attempt names them.</EmptyState>
+        ) : (
+          <>
+            <p className="text-small text-muted">
+              {answer.fleet.length} manikins{retired > 0 ? `, ${retired} of them retired` : ""}. Attempts and compressions are for {periodWords(answer.period)}; compressions since service count every attempt since the last service (or since the manikin came into use).
+            </p>
+            <FleetTable answer={answer} />
+            <UsageChart fleet={answer.fleet} />
+          </>
+        )}
+      </section>
+
+      <section aria-labelledby="consumables-heading" className="flex flex-col gap-3">
+        <h2 id="consumables-heading" className="text-title">
+          Consumables
+        </h2>
+        <p className="text-small text-muted">From the class logs and the equipment events together, per 100 learners at each site.</p>
+        <ConsumablesCharts rows={answer.consumables} period={periodWords(answer.period)} />
+      </section>
+    </div>
+  );
 }

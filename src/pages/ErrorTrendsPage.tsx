@@ -124,8 +124,6 @@ type Selected = NonNullable<import("../../shared/schemas/insight").ErrorsAnswer[
 
 function SelectedError({ selected, values }: { selected: Selected; values: FilterValues }) {
   const attemptsLink = (extra: Record<string, string | null>) => `/attempts?${linkParams(values, { error: selected.error, ...extra })}`;
-  const named = (row: BreakdownRow) => row.key;
-  const recorded = (key: string) => (key === "(none)" || key.startsWith("#") ? null : key);
   const withError = selected.byProfile.reduce((sum, row) => sum + row.count, 0);
   return (
     <div className="flex flex-col gap-6">
@@ -139,39 +137,88 @@ function SelectedError({ selected, values }: { selected: Selected; values: Filte
       </p>
       <ErrorTrendChart label={selected.label} trend={selected.trend} />
       <p className="text-small text-muted">
-        The trend covers the quarters up to the end of the chosen period with the same filters; the groups below cover the chosen period only.
+        With one quarter chosen, the trend shows the eight quarters up to it; with a longer period, each of its quarters. The other filters apply throughout. The groups below cover the chosen period only.
       </p>
-      <div className="grid gap-8 xl:grid-cols-2">
-        <BreakdownPanel
-          dimension="patient type"
-          rows={selected.byProfile}
-          nameOf={(row) => patientTypeLabels[row.key as PatientType] ?? row.key}
-          attemptsHref={(row) => attemptsLink({ patientType: row.key })}
-          errorLabel={selected.label}
-        />
-        <BreakdownPanel
-          dimension="feedback mode"
-          rows={selected.byFeedback}
-          nameOf={(row) => feedbackLabels[row.key as FeedbackMode] ?? row.key}
-          attemptsHref={(row) => attemptsLink({ feedback: row.key })}
-          errorLabel={selected.label}
-        />
-        <BreakdownPanel dimension="site" rows={selected.bySite} nameOf={named} attemptsHref={(row) => (recorded(row.key) ? attemptsLink({ site: row.key }) : null)} errorLabel={selected.label} />
-        <BreakdownPanel
-          dimension="instructor"
-          rows={selected.byInstructor}
-          nameOf={named}
-          attemptsHref={(row) => (recorded(row.key) ? attemptsLink({ instructor: row.key }) : null)}
-          errorLabel={selected.label}
-        />
-        <BreakdownPanel
-          dimension="manikin"
-          rows={selected.byManikin}
-          nameOf={named}
-          attemptsHref={(row) => (recorded(row.key) ? attemptsLink({ manikin: row.key }) : null)}
-          errorLabel={selected.label}
-        />
-      </div>
+      <Breakdowns selected={selected} attemptsLink={attemptsLink} />
     </div>
+  );
+}
+
+const dimensions = [
+  { id: "patient", label: "Patient type" },
+  { id: "feedback", label: "Feedback mode" },
+  { id: "site", label: "Site" },
+  { id: "instructor", label: "Instructor" },
+  { id: "manikin", label: "Manikin" },
+] as const;
+type Dimension = (typeof dimensions)[number]["id"];
+
+const named = (row: BreakdownRow) => row.key;
+/** Groups the server could not name ("(none)", "#12") cannot be filtered on. */
+const recorded = (key: string) => (key === "(none)" || key.startsWith("#") ? null : key);
+
+function Breakdowns({ selected, attemptsLink }: { selected: Selected; attemptsLink: (extra: Record<string, string | null>) => string }) {
+  const [params, setParams] = useSearchParams();
+  const by: Dimension = dimensions.find((d) => d.id === params.get("by"))?.id ?? "patient";
+  function show(next: Dimension) {
+    setParams(
+      (previous) => {
+        const updated = new URLSearchParams(previous);
+        updated.set("by", next);
+        return updated;
+      },
+      { replace: true },
+    );
+  }
+  const panel = {
+    patient: (
+      <BreakdownPanel
+        dimension="patient type"
+        rows={selected.byProfile}
+        nameOf={(row) => patientTypeLabels[row.key as PatientType] ?? row.key}
+        attemptsHref={(row) => attemptsLink({ patientType: row.key })}
+        errorLabel={selected.label}
+      />
+    ),
+    feedback: (
+      <BreakdownPanel
+        dimension="feedback mode"
+        rows={selected.byFeedback}
+        nameOf={(row) => feedbackLabels[row.key as FeedbackMode] ?? row.key}
+        attemptsHref={(row) => attemptsLink({ feedback: row.key })}
+        errorLabel={selected.label}
+      />
+    ),
+    site: <BreakdownPanel dimension="site" rows={selected.bySite} nameOf={named} attemptsHref={(row) => (recorded(row.key) ? attemptsLink({ site: row.key }) : null)} errorLabel={selected.label} />,
+    instructor: (
+      <BreakdownPanel dimension="instructor" rows={selected.byInstructor} nameOf={named} attemptsHref={(row) => (recorded(row.key) ? attemptsLink({ instructor: row.key }) : null)} errorLabel={selected.label} />
+    ),
+    manikin: <BreakdownPanel dimension="manikin" rows={selected.byManikin} nameOf={named} attemptsHref={(row) => (recorded(row.key) ? attemptsLink({ manikin: row.key }) : null)} errorLabel={selected.label} />,
+  }[by];
+  return (
+    <section aria-labelledby="breakdown-heading" className="flex flex-col gap-3">
+      <h3 id="breakdown-heading" className="text-lead font-semibold">
+        Where it happens
+      </h3>
+      <div role="group" aria-label="Break down by" className="flex flex-wrap gap-2">
+        <span className="self-center text-small font-semibold text-muted">Break down by</span>
+        {dimensions.map((d) => (
+          <button
+            key={d.id}
+            type="button"
+            aria-pressed={by === d.id}
+            onClick={() => show(d.id)}
+            className={
+              by === d.id
+                ? "min-h-9 rounded-full border border-dusk-700 bg-dusk-700 px-3 text-small font-semibold text-white"
+                : "min-h-9 rounded-full border border-line-strong bg-surface px-3 text-small font-medium text-dusk-800 hover:bg-dusk-50"
+            }
+          >
+            {d.label}
+          </button>
+        ))}
+      </div>
+      {panel}
+    </section>
   );
 }

@@ -1,5 +1,5 @@
 // Where one error happens: a small bar chart of its share in each group (with the 95 % interval, so small
-// groups are not over-read) and a sortable table whose rows lead to the matching attempts.
+// groups are not over-read) beside a sortable table whose rows lead to the matching attempts.
 import * as Plot from "@observablehq/plot";
 import { useMemo } from "react";
 import { Link } from "react-router";
@@ -11,6 +11,9 @@ import { dusk } from "../../styles/palette";
 import { percent, percentNumber } from "../attempts/labels";
 
 export type BreakdownRow = NonNullable<ErrorsAnswer["selected"]>["byProfile"][number];
+
+/** The chart shows at most this many groups (those with the most attempts with the error); the table shows all. */
+export const CHART_GROUPS = 15;
 
 export interface BreakdownPanelProps {
   /** "patient type", "site"… */
@@ -33,17 +36,17 @@ function breakdownPlot(data: readonly ShownRow[], { width }: ChartSize): Plot.Pl
   const rows = data as ShownRow[];
   const longest = Math.max(4, ...rows.map((row) => row.name.length));
   return {
-    height: Math.max(90, rows.length * 26 + 40),
-    marginLeft: Math.min(width / 3, 12 + longest * 7),
+    height: Math.max(100, rows.length * 24 + 50),
+    marginLeft: Math.min(width / 3, 14 + longest * 7),
     marginRight: 44,
-    x: { domain: [0, Math.min(1, Math.max(0.1, ...rows.map((row) => row.high ?? row.share)) * 1.1)], tickFormat: (v: number) => `${Math.round(v * 100)} %`, label: "Share of attempts", grid: true, ticks: width < 400 ? 3 : 5 },
+    x: { domain: [0, Math.min(1, Math.max(0.1, ...rows.map((row) => row.high ?? row.share)) * 1.1)], tickFormat: (v: number) => `${Math.round(v * 100)} %`, label: "Share of attempts with the error", grid: true, ticks: width < 400 ? 3 : 5 },
     y: { domain: rows.map((row) => row.name), label: null },
     marks: [
       Plot.barX(rows, { y: "name", x: "share", fill: dusk[300] }),
       Plot.ruleY(rows, { y: "name", x1: "low", x2: "high", stroke: dusk[800], strokeWidth: 1.5 }),
       Plot.tickX(rows, { y: "name", x: "low", stroke: dusk[800] }),
       Plot.tickX(rows, { y: "name", x: "high", stroke: dusk[800] }),
-      Plot.text(rows, { y: "name", x: "high", text: (row: ShownRow) => percent(row.share, 0), dx: 4, textAnchor: "start", fill: "#1C1B2E" }),
+      Plot.text(rows, { y: "name", x: "high", text: (row: ShownRow) => percent(row.share, 0), dx: 5, textAnchor: "start", fill: "#1C1B2E" }),
       Plot.ruleX([0]),
     ],
   };
@@ -58,14 +61,15 @@ export function BreakdownPanel({ dimension, rows, nameOf, attemptsHref, errorLab
       }),
     [rows, nameOf],
   );
-  const byShare = [...shown].filter((row) => row.attempts > 0).sort((a, b) => b.share - a.share);
-  const title = `By ${dimension}`;
+  const charted = useMemo(() => {
+    const withAttempts = shown.filter((row) => row.attempts > 0);
+    const kept = [...withAttempts].sort((a, b) => b.count - a.count || b.attempts - a.attempts).slice(0, CHART_GROUPS);
+    return kept.sort((a, b) => b.share - a.share);
+  }, [shown]);
+  const groups = shown.filter((row) => row.attempts > 0).length;
+  const capitalised = dimension[0].toUpperCase() + dimension.slice(1);
   const columns: Column<ShownRow>[] = [
-    { key: "name", header: dimension[0].toUpperCase() + dimension.slice(1), value: (row) => row.name, primary: true },
-    { key: "count", header: "With the error", value: (row) => row.count, align: "right" },
-    { key: "attempts", header: "Attempts", value: (row) => row.attempts, align: "right" },
-    { key: "share", header: "Share (%)", value: (row) => percentNumber(row.share), render: (row) => percent(row.share), align: "right" },
-    { key: "interval", header: "95 % interval", value: (row) => (row.low === null ? null : `${percent(row.low)}–${percent(row.high)}`), align: "right", sortable: false },
+    { key: "name", header: capitalised, value: (row) => row.name, primary: true },
     {
       key: "attemptsLink",
       header: "Drill down",
@@ -74,7 +78,7 @@ export function BreakdownPanel({ dimension, rows, nameOf, attemptsHref, errorLab
       exportable: false,
       render: (row) => {
         const href = attemptsHref(row);
-        if (!href || row.count === 0) return <span className="text-small text-muted">{row.count === 0 ? "None" : "Not recorded"}</span>;
+        if (!href || row.count === 0) return <span className="text-small text-muted">{row.count === 0 ? "None with the error" : "Group not recorded"}</span>;
         return (
           <Link to={href} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
             {row.count} attempt{row.count === 1 ? "" : "s"}
@@ -83,17 +87,25 @@ export function BreakdownPanel({ dimension, rows, nameOf, attemptsHref, errorLab
         );
       },
     },
+    { key: "count", header: "With the error", value: (row) => row.count, align: "right" },
+    { key: "attempts", header: "Attempts", value: (row) => row.attempts, align: "right" },
+    { key: "share", header: "Share (%)", value: (row) => percentNumber(row.share), render: (row) => percent(row.share), align: "right" },
+    { key: "low", header: "95 % interval from (%)", value: (row) => percentNumber(row.low), render: (row) => percent(row.low), align: "right" },
+    { key: "high", header: "to (%)", value: (row) => percentNumber(row.high), render: (row) => percent(row.high), align: "right" },
   ];
+  const top = charted[0];
+  const bottom = charted[charted.length - 1];
   const description =
-    byShare.length === 0
+    charted.length === 0
       ? "No attempts."
-      : byShare.length === 1
-        ? `All attempts are in ${byShare[0].name}: ${percent(byShare[0].share)} have the error.`
-        : `Share of attempts with “${errorLabel.toLowerCase()}” by ${dimension}, with 95 % intervals: highest ${byShare[0].name} (${percent(byShare[0].share)} of ${byShare[0].attempts}), lowest ${byShare[byShare.length - 1].name} (${percent(byShare[byShare.length - 1].share)} of ${byShare[byShare.length - 1].attempts}).`;
+      : charted.length === 1
+        ? `All attempts are in ${top.name}: ${percent(top.share)} have the error.`
+        : `Share of attempts with “${errorLabel.toLowerCase()}” by ${dimension}, with 95 % intervals. Highest ${top.name} (${percent(top.share)} of ${top.attempts}), lowest ${bottom.name} (${percent(bottom.share)} of ${bottom.attempts}).` +
+          (groups > charted.length ? ` The chart shows the ${charted.length} ${dimension}s with the most attempts with the error; the table lists all ${groups}.` : "");
 
   return (
-    <section aria-label={title} className="flex min-w-0 flex-col gap-3">
-      <Chart title={title} description={description} data={byShare} columns={columns.filter((c) => c.key !== "attemptsLink")} rowKey={(row) => row.key} plot={breakdownPlot} />
+    <div className="flex min-w-0 flex-col gap-4">
+      <Chart title={`By ${dimension}`} description={description} data={charted} columns={columns.filter((c) => c.key !== "attemptsLink")} rowKey={(row) => row.key} plot={breakdownPlot} />
       <DataTable
         caption={`Attempts with the error by ${dimension}`}
         columns={columns}
@@ -103,6 +115,6 @@ export function BreakdownPanel({ dimension, rows, nameOf, attemptsHref, errorLab
         filterable={shown.length > 8}
         exportFileName={`error-by-${dimension.replace(/\s+/g, "-")}`}
       />
-    </section>
+    </div>
   );
 }

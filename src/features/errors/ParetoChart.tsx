@@ -28,12 +28,16 @@ function paretoPlot(data: readonly ParetoRow[], { width }: ChartSize): Plot.Plot
     height: narrow ? 320 : 300,
     marginBottom: narrow ? 90 : 40,
     marginRight: 48,
+    marginTop: 28,
     x: { domain: rows.map((row) => row.error), tickFormat: (e: keyof typeof shortErrorNames) => shortErrorNames[e], tickRotate: narrow ? -40 : 0, label: null },
     y: { domain: [0, total], label: "Attempts with the error", grid: true, nice: false },
     marks: [
       Plot.barY(rows, { x: "error", y: "count", fill: dusk[600], title: (row: ParetoRow) => `${shortErrorNames[row.error]}: ${row.count}` }),
-      Plot.text(rows, { x: "error", y: "count", text: (row: ParetoRow) => String(row.count), dy: -7, fill: "#1C1B2E" }),
+      // counts sit inside tall bars (the first bar's top is also the first point of the line) and above short ones
+      Plot.text(rows, { x: "error", y: "count", text: (row: ParetoRow) => String(row.count), dy: 10, fill: "white", fontWeight: 600, filter: (row: ParetoRow) => row.count >= total * 0.08 }),
+      Plot.text(rows, { x: "error", y: "count", text: (row: ParetoRow) => String(row.count), dy: -7, fill: "#1C1B2E", filter: (row: ParetoRow) => row.count < total * 0.08 }),
       Plot.line(rows, { x: "error", y: (row: ParetoRow) => row.cumulativeShare * total, stroke: marigold[700], strokeWidth: 2, marker: "circle" }),
+      Plot.axisY({ anchor: "left", label: "Attempts with the error" }),
       Plot.axisY(shareTicks.map((s) => s * total), { anchor: "right", tickFormat: (v: number) => `${Math.round((v / total) * 100)} %`, label: "Cumulative share of errors", labelAnchor: "top" }),
       Plot.ruleY([0]),
     ],

@@ -1,0 +1,72 @@
+// The manikin fleet: where each manikin is, how much it was used in the period and since its last service,
+// and whether a fault is open.
+import type { EquipmentAnswer } from "../../../shared/schemas/equipment";
+import { DataTable, type Column } from "../../components/DataTable";
+import { dateOnly, patientTypeLabels } from "../attempts/labels";
+
+export type FleetRow = EquipmentAnswer["fleet"][number];
+
+interface ShownFleetRow extends FleetRow {
+  periodAttempts: number;
+  periodCompressions: number;
+  due: string[];
+}
+
+export function FleetTable({ answer }: { answer: EquipmentAnswer }) {
+  const inPeriod = new Set(answer.period.quarters);
+  const dueBy = new Map<number, string[]>();
+  for (const item of answer.attention) {
+    if (!item.manikin) continue;
+    const words = item.kind === "open_fault" ? "Open fault" : "Service due";
+    const list = dueBy.get(item.manikin.id) ?? [];
+    if (!list.includes(words)) list.push(words);
+    dueBy.set(item.manikin.id, list);
+  }
+  const rows: ShownFleetRow[] = answer.fleet.map((m) => ({
+    ...m,
+    periodAttempts: m.usage.filter((u) => inPeriod.has(u.quarter)).reduce((sum, u) => sum + u.attempts, 0),
+    periodCompressions: m.usage.filter((u) => inPeriod.has(u.quarter)).reduce((sum, u) => sum + u.compressions, 0),
+    due: dueBy.get(m.id) ?? [],
+  }));
+  const periodLabel = answer.period.from === answer.period.to ? answer.period.from.replace("-", " ") : "period";
+  const number = (value: number) => value.toLocaleString("en-GB");
+  const columns: Column<ShownFleetRow>[] = [
+    { key: "assetId", header: "Asset id", value: (m) => m.assetId, primary: true },
+    { key: "patientType", header: "Patient type", value: (m) => (m.patientType ? patientTypeLabels[m.patientType] : null) },
+    { key: "site", header: "Site", value: (m) => m.site?.code ?? null },
+    { key: "inServiceSince", header: "In service since", value: (m) => m.inServiceSince, render: (m) => dateOnly(m.inServiceSince) },
+    { key: "retiredOn", header: "Retired", value: (m) => m.retiredOn, render: (m) => (m.retiredOn ? dateOnly(m.retiredOn) : <span className="text-muted">In service</span>) },
+    { key: "periodAttempts", header: `Attempts, ${periodLabel}`, value: (m) => m.periodAttempts, render: (m) => number(m.periodAttempts), align: "right" },
+    { key: "periodCompressions", header: `Compressions, ${periodLabel}`, value: (m) => m.periodCompressions, render: (m) => number(m.periodCompressions), align: "right" },
+    { key: "sinceService", header: "Compressions since service", value: (m) => m.compressionsSinceService, render: (m) => number(m.compressionsSinceService), align: "right" },
+    { key: "lastService", header: "Last service", value: (m) => m.lastServiceDate, render: (m) => (m.lastServiceDate ? dateOnly(m.lastServiceDate) : <span className="text-muted">None recorded</span>) },
+    { key: "openFaults", header: "Open faults", value: (m) => m.openFaults, align: "right" },
+    {
+      key: "attention",
+      header: "Needs attention",
+      value: (m) => m.due.join("; "),
+      render: (m) =>
+        m.due.length === 0 ? (
+          <span className="text-muted">No</span>
+        ) : (
+          <span className="inline-flex items-center gap-1 font-semibold text-too-high-text">
+            <svg viewBox="0 0 12 12" className="size-3" aria-hidden="true">
+              <path d="M6 1 11 10.5H1z" fill="currentColor" />
+            </svg>
+            {m.due.join(", ")}
+          </span>
+        ),
+    },
+  ];
+  return (
+    <DataTable
+      caption="Manikin fleet"
+      columns={columns}
+      rows={rows}
+      rowKey={(m) => m.id}
+      exportFileName="manikin-fleet"
+      emptyMessage="No manikins match these filters."
+      initialSort={{ key: "assetId", direction: "asc" }}
+    />
+  );
+}
