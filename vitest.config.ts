@@ -9,7 +9,7 @@ export default defineConfig({
         test: {
           name: "node",
           environment: "node",
-          include: ["tests/unit/**/*.test.ts", "tests/api/**/*.test.ts", "tests/cli/**/*.test.ts"],
+          include: ["tests/unit/**/*.test.ts", "tests/api/**/*.test.ts", "tests/cli/**/*.test.ts", "tests/security/**/*.test.ts", "tests/faults/**/*.test.ts"],
           testTimeout: 60_000,
           hookTimeout: 60_000,
         },
