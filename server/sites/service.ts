@@ -29,9 +29,11 @@ export function createSite(db: Db, input: NewSite): SiteRow {
 }
 
 export function updateSite(db: Db, id: number, changes: { name?: string; active?: boolean }): SiteRow {
-  const result = db.update(sites).set(changes).where(eq(sites.id, id)).run();
-  if (result.changes === 0) throw notFound("The site");
-  return listSites(db).find((s) => s.id === id)!;
+  // an empty change leaves the row as it is (an UPDATE with nothing to set is an error in Drizzle)
+  if (Object.keys(changes).length > 0) db.update(sites).set(changes).where(eq(sites.id, id)).run();
+  const site = listSites(db).find((s) => s.id === id);
+  if (!site) throw notFound("The site");
+  return site;
 }
 
 export function listInstructors(db: Db): InstructorRow[] {
@@ -70,7 +72,8 @@ export function updateInstructor(
   changes: { name?: string; siteId?: number | null; active?: boolean },
 ): InstructorRow {
   assertSiteExists(db, changes.siteId);
-  const result = db.update(instructors).set(changes).where(eq(instructors.id, id)).run();
-  if (result.changes === 0) throw notFound("The instructor");
-  return listInstructors(db).find((i) => i.id === id)!;
+  if (Object.keys(changes).length > 0) db.update(instructors).set(changes).where(eq(instructors.id, id)).run();
+  const instructor = listInstructors(db).find((i) => i.id === id);
+  if (!instructor) throw notFound("The instructor");
+  return instructor;
 }
