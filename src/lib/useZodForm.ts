@@ -1,6 +1,6 @@
 // A small form state hook driven by a shared zod schema: the same rules the server applies, checked in the
 // browser first. Messages appear after the first submit and then follow each keystroke.
-import { useCallback, useState, type FormEvent } from "react";
+import { useCallback, useRef, useState, type FormEvent } from "react";
 import type { z } from "zod";
 import { ApiError } from "../api/http";
 import { fieldErrorsFromDetails, fieldErrorsFromZod, type FieldErrors } from "./fieldErrors";
@@ -11,6 +11,8 @@ export interface ZodForm<Values, Output> {
   /** A message for the whole form (server errors without a field). */
   formError: string | null;
   setValue: <K extends keyof Values>(name: K, value: Values[K]) => void;
+  /** Changes several fields at once (e.g. a role and the instructor link that depends on it). */
+  setValues: (changes: Partial<Values>) => void;
   handleSubmit: (onValid: (data: Output) => void | Promise<void>) => (event: FormEvent<HTMLFormElement>) => void;
   /** Shows a failed request: field messages beside their fields, the rest at the top of the form. */
   showServerError: (error: unknown) => void;
@@ -25,21 +27,29 @@ export function useZodForm<Output, Values extends Record<string, unknown>>(
   schema: z.ZodType<Output>,
   initialValues: Values,
 ): ZodForm<Values, Output> {
-  const [values, setValues] = useState<Values>(initialValues);
+  const [values, setValuesState] = useState<Values>(initialValues);
   const [errors, setErrors] = useState<FieldErrors>({});
   const [formError, setFormError] = useState<string | null>(null);
   const [submitted, setSubmitted] = useState(false);
+  // The latest values, so two changes in one event build on each other instead of on the same render.
+  const latest = useRef(values);
 
-  const setValue = useCallback(
-    <K extends keyof Values>(name: K, value: Values[K]) => {
-      const next = { ...values, [name]: value };
-      setValues(next);
+  const setValues = useCallback(
+    (changes: Partial<Values>) => {
+      const next = { ...latest.current, ...changes };
+      latest.current = next;
+      setValuesState(next);
       if (submitted) {
         const result = schema.safeParse(next);
         setErrors(result.success ? {} : fieldErrorsFromZod(result.error));
       }
     },
-    [schema, submitted, values],
+    [schema, submitted],
+  );
+
+  const setValue = useCallback(
+    <K extends keyof Values>(name: K, value: Values[K]) => setValues({ [name]: value } as unknown as Partial<Values>),
+    [setValues],
   );
 
   const handleSubmit = useCallback(
@@ -72,7 +82,8 @@ export function useZodForm<Output, Values extends Record<string, unknown>>(
 
   const reset = useCallback(
     (next?: Values) => {
-      setValues(next ?? initialValues);
+      latest.current = next ?? initialValues;
+      setValuesState(latest.current);
       setErrors({});
       setFormError(null);
       setSubmitted(false);
@@ -80,7 +91,7 @@ export function useZodForm<Output, Values extends Record<string, unknown>>(
     [initialValues],
   );
 
-  return { values, errors, formError, setValue, handleSubmit, showServerError, reset };
+  return { values, errors, formError, setValue, setValues, handleSubmit, showServerError, reset };
 }
 
 function focusFirstInvalid(form: HTMLFormElement, names: string[]): void {

@@ -55,7 +55,7 @@ export default function UsersAdminPage() {
           </span>
         ),
       },
-      { key: "email", header: "E-mail", value: (u) => u.email },
+      { key: "email", header: "E-mail", value: (u) => u.email, render: (u) => <EmailAddress email={u.email} />, wrap: true },
       { key: "role", header: "Role", value: (u) => roleLabels[u.role], wrap: true },
       { key: "instructor", header: "Instructor", value: (u) => u.instructorCode ?? "", render: (u) => u.instructorCode ?? <span className="text-muted">—</span> },
       { key: "active", header: "Status", value: (u) => (u.active ? "Active" : "Deactivated"), render: (u) => <ActiveBadge active={u.active} /> },
@@ -168,4 +168,17 @@ export default function UsersAdminPage() {
 function formatDate(iso: string): string {
   const date = new Date(iso);
   return Number.isNaN(date.getTime()) ? iso : dateFormat.format(date);
+}
+
+/** Long addresses may break after the "@" and nowhere else, so the table keeps its actions in view. */
+function EmailAddress({ email }: { email: string }) {
+  const at = email.indexOf("@");
+  if (at < 0) return <>{email}</>;
+  return (
+    <>
+      <span className="whitespace-nowrap">{email.slice(0, at + 1)}</span>
+      <wbr />
+      <span className="whitespace-nowrap">{email.slice(at + 1)}</span>
+    </>
+  );
 }

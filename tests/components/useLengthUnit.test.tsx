@@ -1,6 +1,7 @@
 import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
 import { cleanup, render, screen } from "@testing-library/react";
 import { afterEach, describe, expect, it } from "vitest";
+import type { SessionAnswer } from "../../shared/schemas/auth";
 import type { LengthUnit } from "../../shared/units";
 import { authQueries } from "../../src/features/auth/queries";
 import { useLengthUnit } from "../../src/lib/useLengthUnit";
@@ -14,10 +15,11 @@ function Depth({ mm }: { mm: number }) {
 
 function renderFor(unit: LengthUnit | null, mm: number) {
   const client = new QueryClient();
-  client.setQueryData(
-    authQueries.me().queryKey,
-    unit === null ? null : { user: { id: 1, email: "a@example.org", displayName: "A", role: "instructor", instructorId: 1, siteId: null, lengthUnit: unit }, csrfToken: "t" },
-  );
+  const answer: SessionAnswer | null =
+    unit === null
+      ? null
+      : { user: { id: 1, email: "a@example.org", displayName: "A", role: "instructor", instructorId: 1, siteId: null, lengthUnit: unit }, csrfToken: "t" };
+  client.setQueryData(authQueries.me().queryKey, answer);
   render(
     <QueryClientProvider client={client}>
       <Depth mm={mm} />

@@ -81,8 +81,7 @@ export function AddUserForm({ onDone, onCancel }: { onDone: (user: UserRow) => v
         value={role}
         onChange={(event) => {
           const next = event.target.value as UserRole | "";
-          form.setValue("role", next);
-          if (next !== "instructor" && form.values.instructorId !== null) form.setValue("instructorId", null);
+          form.setValues(next === "instructor" ? { role: next } : { role: next, instructorId: null });
         }}
         error={form.errors.role}
       />
@@ -153,8 +152,7 @@ export function EditUserForm({ user, isSelf, onDone, onCancel }: { user: UserRow
         value={form.values.role}
         onChange={(event) => {
           const next = event.target.value as UserRole;
-          form.setValue("role", next);
-          if (next !== "instructor") form.setValue("instructorId", null);
+          form.setValues(next === "instructor" ? { role: next } : { role: next, instructorId: null });
         }}
         error={form.errors.role}
       />
