@@ -1,34 +1,39 @@
-// Runs one import in a worker thread with its own database connection, so the web server's event loop and
+// Runs imports in a worker thread with its own database connection, so the web server's event loop and
 // connection stay free: a transaction on the shared connection would swallow other requests' writes while
-// it awaits the next chunk. Started by worker.mjs; talks to jobs.ts by messages.
-import { parentPort, workerData } from "node:worker_threads";
+// it awaits the next chunk. Started once by jobs.ts (through worker.mjs); takes one job at a time by message.
+import { parentPort } from "node:worker_threads";
 import { openDatabase } from "../db/client";
 import { importFile, type ImportFileOptions } from "./service";
 
 export interface WorkerInput {
+  jobId: string;
   dbFile: string;
   options: Omit<ImportFileOptions, "onProgress" | "pendingClasses" | "now"> & { now?: string };
 }
 
-export type WorkerMessage =
+export type WorkerMessage = { jobId: string } & (
   | { type: "progress"; bytesRead: number; totalBytes: number | null; rows: number }
   | { type: "done"; summary: Awaited<ReturnType<typeof importFile>> }
-  | { type: "failed"; message: string; status?: number; code?: string };
+  | { type: "failed"; message: string }
+);
 
-const input = workerData as WorkerInput;
-const post = (message: WorkerMessage) => parentPort!.postMessage(message);
+const port = parentPort!;
+const post = (message: WorkerMessage) => port.postMessage(message);
 
-const db = openDatabase(input.dbFile, { migrate: false });
-try {
-  const summary = await importFile(db, {
-    ...input.options,
-    now: input.options.now ? new Date(input.options.now) : undefined,
-    onProgress: (p) => post({ type: "progress", bytesRead: p.bytesRead, totalBytes: p.totalBytes, rows: p.rows }),
-  });
-  post({ type: "done", summary });
-} catch (err) {
-  const e = err as { message?: string; status?: number; code?: string };
-  post({ type: "failed", message: e.message ?? String(err), status: e.status, code: e.code });
-} finally {
-  db.$client.close();
-}
+port.on("message", async (input: WorkerInput) => {
+  const { jobId } = input;
+  let db: ReturnType<typeof openDatabase> | undefined;
+  try {
+    db = openDatabase(input.dbFile, { migrate: false });
+    const summary = await importFile(db, {
+      ...input.options,
+      now: input.options.now ? new Date(input.options.now) : undefined,
+      onProgress: (p) => post({ jobId, type: "progress", bytesRead: p.bytesRead, totalBytes: p.totalBytes, rows: p.rows }),
+    });
+    post({ jobId, type: "done", summary });
+  } catch (err) {
+    post({ jobId, type: "failed", message: err instanceof Error ? err.message : String(err) });
+  } finally {
+    db?.$client.close();
+  }
+});

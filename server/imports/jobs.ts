@@ -1,5 +1,6 @@
-// Validation and import jobs of the web upload. Each runs in a worker thread (importWorker.ts) with its own
-// database connection; jobs run one after another, so two imports never wait on each other's write lock.
+// Validation and import jobs of the web upload. They run in one long-lived worker thread (importWorker.ts)
+// with its own database connection, one after another, so two imports never wait on each other's write lock
+// and no job pays for starting a thread. A worker that dies fails its job and is replaced for the next.
 // The page polls a job for its progress (bytes read of the total, rows) and then reads its summary.
 import crypto from "node:crypto";
 import fs from "node:fs";
@@ -22,6 +23,8 @@ const KEEP_JOBS = 200;
 export class ImportJobs {
   private readonly jobs = new Map<string, JobState>();
   private tail: Promise<void> = Promise.resolve();
+  private worker: Worker | null = null;
+  private current: { job: JobState; finish: (summary: ImportSummary | null, error: string | null) => void } | null = null;
 
   constructor(private readonly dbFile: string) {}
 
@@ -43,6 +46,7 @@ export class ImportJobs {
     this.jobs.set(id, job);
     this.forgetOld();
     const input: WorkerInput = {
+      jobId: id,
       dbFile: this.dbFile,
       options: {
         kind: upload.kind,
@@ -84,27 +88,50 @@ export class ImportJobs {
   private run(job: JobState, input: WorkerInput): Promise<void> {
     job.status = "running";
     return new Promise((resolve) => {
-      const worker = new Worker(workerUrl, { workerData: input });
       let finished = false;
       const finish = (summary: ImportSummary | null, error: string | null) => {
         if (finished) return;
         finished = true;
+        this.current = null;
         job.summary = summary;
         job.error = error;
         job.status = error ? "failed" : "done";
-        if (summary && summary.issuesTotal > 0 && summary.rejected + summary.issuesTotal > 0) job.rejectedCsvUrl = `/api/imports/jobs/${job.id}/rejected.csv`;
+        if (summary && summary.issuesTotal > 0) job.rejectedCsvUrl = `/api/imports/jobs/${job.id}/rejected.csv`;
         resolve();
       };
-      worker.on("message", (message: WorkerMessage) => {
-        if (message.type === "progress") job.progress = { bytesRead: message.bytesRead, totalBytes: message.totalBytes, rows: message.rows };
-        else if (message.type === "done") {
-          job.progress = { ...job.progress, bytesRead: job.progress.totalBytes ?? job.progress.bytesRead, rows: message.summary.rowsRead };
-          finish(message.summary, null);
-        } else finish(null, message.message);
-      });
-      worker.on("error", (err) => finish(null, `The import stopped: ${err.message}`));
-      worker.on("exit", (code) => finish(null, code === 0 ? "The import ended without a result." : `The import stopped (exit code ${code}).`));
+      this.current = { job, finish };
+      this.ensureWorker().postMessage(input);
     });
+  }
+
+  private ensureWorker(): Worker {
+    if (this.worker) return this.worker;
+    const worker = new Worker(workerUrl);
+    worker.unref(); // an idle worker never keeps the process alive
+    worker.on("message", (message: WorkerMessage) => {
+      const current = this.current;
+      if (!current || message.jobId !== current.job.id) return;
+      const job = current.job;
+      if (message.type === "progress") job.progress = { bytesRead: message.bytesRead, totalBytes: message.totalBytes, rows: message.rows };
+      else if (message.type === "done") {
+        job.progress = { ...job.progress, bytesRead: job.progress.totalBytes ?? job.progress.bytesRead, rows: message.summary.rowsRead };
+        current.finish(message.summary, null);
+      } else current.finish(null, message.message);
+    });
+    worker.on("error", (err) => this.current?.finish(null, `The import stopped: ${err.message}`));
+    worker.on("exit", (code) => {
+      this.worker = null;
+      this.current?.finish(null, `The import stopped (the worker exited with code ${code}).`);
+    });
+    this.worker = worker;
+    return worker;
+  }
+
+  /** Stops the worker (shutdown, tests). */
+  async close() {
+    const worker = this.worker;
+    this.worker = null;
+    await worker?.terminate();
   }
 
   private forgetOld() {

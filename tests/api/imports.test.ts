@@ -1,10 +1,13 @@
 // The web import API end to end: upload, preview, validation job, import job (in a worker thread with its
 // own connection), history, undo, presets, role and row scope.
 import path from "node:path";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { jobSchema, previewSchema, importSummarySchema, type ImportJob } from "../../shared/import/api";
 import type { Db } from "../../server/db/client";
 import { makeTestApp, makeTestDb, seedPeople, signIn, type Agent, type TestApp } from "../helpers/testApp";
+
+// Jobs run in a worker thread that starts tsx on first use: allow for a busy machine.
+vi.setConfig({ testTimeout: 120_000 });
 
 const fixture = (name: string) => path.resolve("tests/fixtures/import", name);
 let db: Db;
@@ -39,7 +42,7 @@ async function finished(agent: Agent, jobId: string): Promise<ImportJob> {
   throw new Error("the job did not finish");
 }
 
-const count = (table: string) => db.$client.prepare(`SELECT count(*) FROM ${table}`).pluck().get() as number;
+const count = (table: string, where = "1") => db.$client.prepare(`SELECT count(*) FROM ${table} WHERE ${where}`).pluck().get() as number;
 
 describe("upload → preview → validate → import", () => {
   it("previews the upload with the detected columns and a suggested mapping", async () => {
@@ -211,10 +214,10 @@ describe("mapping presets", () => {
 });
 
 describe("the server stays responsive during an import", () => {
-  it("answers and writes other requests while a worker imports a larger file", async () => {
+  it("answers reads and writes of other requests while a worker imports a file", async () => {
     const header = "attempt_id,class_id,learner,manikin,profile,feedback,started_at,duration_s,compressions,rate_cpm,depth_mm,depth_ok_pct,too_shallow_pct,too_deep_pct,rate_ok_pct,too_slow_pct,too_fast_pct,recoil_ok_pct,hands_on_pct,longest_pause_s,instructor_result";
     const lines = [header];
-    for (let i = 0; i < 30_000; i++) lines.push(`W-${i},C-001,L-${i},MK-1,adult,live,2026-07-14T09:30:00Z,120,230,112,54,85,10,5,80,12,8,90,85,4,`);
+    for (let i = 0; i < 10_000; i++) lines.push(`W-${i},C-001,L-${i},MK-1,adult,live,2026-07-14T09:30:00Z,120,230,112,54,85,10,5,80,12,8,90,85,4,`);
     const res = await coordinator.agent
       .post("/api/imports/uploads")
       .set("x-csrf-token", coordinator.csrfToken)
@@ -222,10 +225,12 @@ describe("the server stays responsive during an import", () => {
       .attach("file", Buffer.from(lines.join("\n")), { filename: "big.csv", contentType: "text/csv" })
       .expect(201);
     const start = await coordinator.post(`/api/imports/uploads/${res.body.upload.id}/import`, {}).expect(202);
+    // Reads go on during the import (WAL); a write waits for the import's commit (busy_timeout), then succeeds.
+    await coordinator.get("/api/imports/batches").expect(200);
     const site = await coordinator.post("/api/sites", { code: "WEST", name: "Westbrook Rooms" });
     expect(site.status).toBe(201);
     const job = await finished(coordinator, start.body.job.id);
-    expect(job.summary).toMatchObject({ status: "imported", inserted: 30_000 });
-    expect(count("sites")).toBeGreaterThanOrEqual(4);
+    expect(job.summary).toMatchObject({ status: "imported", inserted: 10_000 });
+    expect(count("sites", "code = 'WEST'")).toBe(1);
   });
 });
