@@ -1,0 +1,11 @@
+// Stands in for a value that is hidden because its group is too small to show without exposing learners.
+// It says so in words; it never looks like a zero.
+import { suppressedText } from "./format";
+
+export function Suppressed({ minCount, className }: { minCount: number; className?: string }) {
+  return (
+    <span className={className ?? "text-small font-medium text-muted italic"} title={`Hidden to protect learners: groups of ${suppressedText(minCount)} are not shown.`}>
+      {suppressedText(minCount)}
+    </span>
+  );
+}

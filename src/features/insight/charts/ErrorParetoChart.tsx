@@ -1,0 +1,89 @@
+// The error Pareto: how often each kind of error occurred, largest first, as bars of the share of all errors
+// counted, with the running total as a line, so the few errors that make up most of the problem stand out.
+import * as Plot from "@observablehq/plot";
+import type { z } from "zod";
+import type { paretoRowSchema } from "../../../../shared/schemas/insight";
+import { Chart, type ChartSize } from "../../../components/Chart";
+import type { Column } from "../../../components/DataTable";
+import { ChartLegend, lineSwatch, shapeSwatch } from "../ChartLegend";
+import { ink, percentTick } from "../chartStyle";
+import { errorShortLabels, formatCount, formatPercent, percentValue } from "../format";
+
+export type ParetoRow = z.infer<typeof paretoRowSchema>;
+
+/** The first errors whose running total reaches 80 %: the "vital few". */
+export function vitalFew(rows: readonly ParetoRow[]): ParetoRow[] {
+  const few: ParetoRow[] = [];
+  for (const row of rows) {
+    if (row.count === 0) break;
+    few.push(row);
+    if (row.cumulativeShare >= 0.8) break;
+  }
+  return few;
+}
+
+export function describePareto(rows: readonly ParetoRow[], attempts: number | null): string {
+  const total = rows.reduce((sum, row) => sum + row.count, 0);
+  if (total === 0) return `No errors were counted${attempts ? ` in ${formatCount(attempts)} attempts` : ""}.`;
+  const few = vitalFew(rows);
+  const last = few[few.length - 1];
+  const named = few.map((row) => `${errorShortLabels[row.error].toLowerCase()} (${formatPercent(row.share)})`).join(", ");
+  const lead =
+    few.length === 1
+      ? `One kind of error makes up ${formatPercent(last.cumulativeShare)} of the ${formatCount(total)} errors counted: ${named}.`
+      : `${few.length} kinds of error make up ${formatPercent(last.cumulativeShare)} of the ${formatCount(total)} errors counted: ${named}.`;
+  const top = rows[0];
+  return attempts
+    ? `${lead} The most common, ${errorShortLabels[top.error].toLowerCase()}, affected ${formatPercent(top.attemptShare)} of ${formatCount(attempts)} attempts.`
+    : lead;
+}
+
+export const paretoColumns: Column<ParetoRow>[] = [
+  { key: "label", header: "Error", value: (r) => r.label, wrap: true },
+  { key: "count", header: "Times counted", value: (r) => r.count, align: "right" },
+  { key: "share", header: "Share of errors (%)", value: (r) => percentValue(r.share), render: (r) => formatPercent(r.share), align: "right" },
+  { key: "cumulative", header: "Running total (%)", value: (r) => percentValue(r.cumulativeShare), render: (r) => formatPercent(r.cumulativeShare), align: "right" },
+  { key: "attempts", header: "Share of attempts (%)", value: (r) => percentValue(r.attemptShare), render: (r) => formatPercent(r.attemptShare), align: "right" },
+];
+
+const plot = (rows: readonly ParetoRow[], { width }: ChartSize): Plot.PlotOptions => {
+  const labelled = rows.map((row) => ({ ...row, name: errorShortLabels[row.error] }));
+  return {
+    height: Math.max(220, rows.length * 38 + 60),
+    marginLeft: 128,
+    marginRight: 16,
+    x: { domain: [0, 1], tickFormat: percentTick, label: "Share of all errors counted", grid: true, ticks: width < 700 ? 5 : 10 },
+    y: { domain: labelled.map((row) => row.name), label: null, padding: 0.25 },
+    marks: [
+      Plot.barX(labelled, { x: "share", y: "name", fill: ink.main, title: (r: ParetoRow) => `${r.label}: ${r.count} (${formatPercent(r.share)})` }),
+      // counts sit inside long bars (where the running-total line starts) and after short ones
+      Plot.text(labelled.filter((r) => r.share >= 0.12), { x: "share", y: "name", text: (r: ParetoRow) => formatCount(r.count), dx: -6, textAnchor: "end", fill: "white", fontWeight: 600 }),
+      Plot.text(labelled.filter((r) => r.share < 0.12), { x: "share", y: "name", text: (r: ParetoRow) => formatCount(r.count), dx: 6, textAnchor: "start", fill: ink.text }),
+      Plot.line(labelled, { x: "cumulativeShare", y: "name", stroke: ink.accentDark, strokeWidth: 2 }),
+      Plot.dot(labelled, { x: "cumulativeShare", y: "name", symbol: "square", r: 3.5, fill: ink.accentDark }),
+      Plot.ruleX([0]),
+    ],
+  };
+};
+
+export function ErrorParetoChart({ rows, attempts, title = "Which errors matter most" }: { rows: readonly ParetoRow[]; attempts: number | null; title?: string }) {
+  return (
+    <Chart
+      title={title}
+      description={describePareto(rows, attempts)}
+      data={rows}
+      columns={paretoColumns}
+      rowKey={(r) => r.error}
+      plot={plot}
+      exportFileName="errors-pareto"
+      legend={
+        <ChartLegend
+          items={[
+            { label: "Share of errors (number: times counted)", swatch: shapeSwatch("bar", ink.main) },
+            { label: "Running total", swatch: <>{lineSwatch(ink.accentDark)}<rect x="9" y="3" width="6" height="6" fill={ink.accentDark} /></> },
+          ]}
+        />
+      }
+    />
+  );
+}

@@ -1,0 +1,98 @@
+// My error profile against the network's: for each kind of error, the share of my attempts that showed it
+// beside the share of all attempts in the network, as paired bars.
+import * as Plot from "@observablehq/plot";
+import type { StandingAnswer } from "../../../../shared/schemas/insight";
+import { Chart, type ChartSize } from "../../../components/Chart";
+import type { Column } from "../../../components/DataTable";
+import { ChartLegend, shapeSwatch } from "../ChartLegend";
+import { ink, percentTick, shareAxisTop } from "../chartStyle";
+import { errorShortLabels, formatPercent, formatPoints, percentValue, roundTo, suppressedText } from "../format";
+
+export type ErrorProfileRow = StandingAnswer["errorProfile"]["rows"][number];
+
+export function describeErrorProfile(rows: readonly ErrorProfileRow[], networkSuppressed: boolean, minCount: number): string {
+  const mine = rows.filter((r) => r.mine !== null);
+  if (mine.length === 0) return "You have no attempts in this period.";
+  const top = [...mine].sort((a, b) => (b.mine ?? 0) - (a.mine ?? 0))[0];
+  let text = `Your most common error is ${errorShortLabels[top.error].toLowerCase()}, in ${formatPercent(top.mine)} of your attempts`;
+  if (networkSuppressed) return `${text}. The network's figures are hidden (${suppressedText(minCount)}).`;
+  text += top.network === null ? "." : ` (network: ${formatPercent(top.network)}).`;
+  const worse = rows.filter((r) => r.mine !== null && r.network !== null && r.mine - r.network >= 0.05);
+  const better = rows.filter((r) => r.mine !== null && r.network !== null && r.network - r.mine >= 0.05);
+  if (worse.length) text += ` At least 5 points more often than the network: ${worse.map((r) => errorShortLabels[r.error].toLowerCase()).join(", ")}.`;
+  if (better.length) text += ` At least 5 points less often: ${better.map((r) => errorShortLabels[r.error].toLowerCase()).join(", ")}.`;
+  return text;
+}
+
+export function errorProfileColumns(networkSuppressed: boolean, minCount: number): Column<ErrorProfileRow>[] {
+  return [
+    { key: "label", header: "Error", value: (r) => r.label, wrap: true },
+    { key: "mine", header: "Your attempts (%)", value: (r) => percentValue(r.mine), render: (r) => formatPercent(r.mine), align: "right" },
+    {
+      key: "network",
+      header: "Network attempts (%)",
+      value: (r) => percentValue(r.network),
+      render: (r) => (networkSuppressed ? suppressedText(minCount) : formatPercent(r.network)),
+      align: "right",
+    },
+    {
+      key: "difference",
+      header: "Difference (points)",
+      value: (r) => (r.mine === null || r.network === null ? null : roundTo((r.mine - r.network) * 100, 1)),
+      render: (r) => (r.mine === null || r.network === null ? "–" : formatPoints(r.mine - r.network)),
+      align: "right",
+    },
+  ];
+}
+
+const plot = (rows: readonly ErrorProfileRow[], { width }: ChartSize): Plot.PlotOptions => {
+  const long = rows.flatMap((r) => [
+    { name: errorShortLabels[r.error], who: "You", share: r.mine },
+    { name: errorShortLabels[r.error], who: "Network", share: r.network },
+  ]);
+  const shown = long.filter((d) => d.share !== null);
+  return {
+    height: rows.length * 50 + 50,
+    marginLeft: 128,
+    marginRight: 48,
+    x: { domain: [0, shareAxisTop(shown.map((d) => d.share), 0.2)], tickFormat: percentTick, label: "Share of attempts with this error", grid: true, ticks: width < 420 ? 4 : 8 },
+    fy: { domain: rows.map((r) => errorShortLabels[r.error]), label: null },
+    y: { domain: ["You", "Network"], axis: null, paddingInner: 0.1 },
+    marks: [
+      Plot.barX(shown, { x: "share", y: "who", fy: "name", fill: (d: { who: string }) => (d.who === "You" ? ink.accent : ink.main), stroke: (d: { who: string }) => (d.who === "You" ? ink.text : "none") }),
+      Plot.text(shown, {
+        x: "share",
+        y: "who",
+        fy: "name",
+        text: (d: { who: string; share: number }) => `${d.who === "You" ? "you" : "net"} ${formatPercent(d.share)}`,
+        dx: 4,
+        textAnchor: "start",
+        fill: ink.text,
+        fontSize: 11,
+      }),
+      Plot.ruleX([0]),
+    ],
+  };
+};
+
+export function ErrorProfileChart({ rows, networkSuppressed, minCount }: { rows: readonly ErrorProfileRow[]; networkSuppressed: boolean; minCount: number }) {
+  return (
+    <Chart
+      title="Your errors against the network's"
+      description={describeErrorProfile(rows, networkSuppressed, minCount)}
+      data={rows}
+      columns={errorProfileColumns(networkSuppressed, minCount)}
+      rowKey={(r) => r.error}
+      plot={plot}
+      exportFileName="error-profile"
+      legend={
+        <ChartLegend
+          items={[
+            { label: "Your attempts", swatch: shapeSwatch("bar", ink.accent, ink.text) },
+            { label: networkSuppressed ? `Network (hidden: ${suppressedText(minCount)})` : "Network", swatch: shapeSwatch("bar", ink.main) },
+          ]}
+        />
+      }
+    />
+  );
+}

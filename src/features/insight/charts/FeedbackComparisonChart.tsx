@@ -1,0 +1,64 @@
+// Live display against hidden display: the pass rate of attempts where learners saw depth and rate while
+// compressing, beside attempts where the display was hidden.
+import { useCallback } from "react";
+import type { z } from "zod";
+import type { feedbackGroupSchema } from "../../../../shared/schemas/insight";
+import { Chart, type ChartSize } from "../../../components/Chart";
+import type { Column } from "../../../components/DataTable";
+import { ChartLegend, shapeSwatch } from "../ChartLegend";
+import { ink } from "../chartStyle";
+import { describeRate, feedbackWords, formatCount, formatInterval, formatPercent, formatPoints, formatScore, percentValue, suppressedText } from "../format";
+import { intervalBarsPlot } from "./intervalPlot";
+
+export type FeedbackGroup = z.infer<typeof feedbackGroupSchema>;
+
+export function describeFeedback(groups: readonly FeedbackGroup[], minCount: number): string {
+  const live = groups.find((g) => g.mode === "live");
+  const hidden = groups.find((g) => g.mode === "hidden");
+  const part = (g: FeedbackGroup | undefined) =>
+    !g ? "no attempts" : g.suppressed ? suppressedText(minCount) : `${describeRate(g.passRate, minCount)}${g.attempts ? ` over ${formatCount(g.attempts)} attempts` : ""}`;
+  let text = `With the display live, the pass rate was ${part(live)}; with it hidden, ${part(hidden)}.`;
+  if (live?.passRate.rate != null && hidden?.passRate.rate != null) {
+    const gap = live.passRate.rate - hidden.passRate.rate;
+    text += ` Live display is ${formatPoints(Math.abs(gap)).replace("+", "")} ${gap >= 0 ? "higher" : "lower"}.`;
+    if (live.passRate.low !== null && hidden.passRate.high !== null && live.passRate.low > hidden.passRate.high) {
+      text += " The intervals do not overlap: learners do clearly better while they can see the display.";
+    }
+  }
+  return text;
+}
+
+export function feedbackColumns(minCount: number): Column<FeedbackGroup>[] {
+  const hidden = suppressedText(minCount);
+  return [
+    { key: "mode", header: "Display", value: (g) => feedbackWords[g.mode] },
+    { key: "attempts", header: "Attempts", value: (g) => g.attempts, render: (g) => (g.suppressed ? hidden : formatCount(g.attempts)), align: "right" },
+    { key: "rate", header: "Pass rate (%)", value: (g) => percentValue(g.passRate.rate), render: (g) => (g.suppressed ? hidden : formatPercent(g.passRate.rate)), align: "right" },
+    { key: "interval", header: "95 % interval", value: (g) => (g.passRate.low === null ? null : formatInterval(g.passRate.low, g.passRate.high)), sortable: false, align: "right" },
+    { key: "median", header: "Median score", value: (g) => (g.medianScore === null ? null : Math.round(g.medianScore * 10) / 10), render: (g) => (g.suppressed ? hidden : formatScore(g.medianScore)), align: "right" },
+  ];
+}
+
+export function FeedbackComparisonChart({ groups, minCount }: { groups: readonly FeedbackGroup[]; minCount: number }) {
+  const plot = useCallback(
+    (rows: readonly FeedbackGroup[], size: ChartSize) =>
+      intervalBarsPlot(
+        rows.map((g) => ({ label: feedbackWords[g.mode], rate: g.passRate.rate, low: g.passRate.low, high: g.passRate.high, fill: g.mode === "live" ? ink.main : ink.soft })),
+        size,
+        120,
+      ),
+    [],
+  );
+  return (
+    <Chart
+      title="Live display against hidden display"
+      description={describeFeedback(groups, minCount)}
+      data={groups}
+      columns={feedbackColumns(minCount)}
+      rowKey={(g) => g.mode}
+      plot={plot}
+      exportFileName="pass-rate-by-display"
+      legend={<ChartLegend items={[{ label: "Pass rate; whisker: 95 % interval", swatch: shapeSwatch("bar", ink.main) }]} />}
+    />
+  );
+}

@@ -1,0 +1,131 @@
+// The measured pass rate per quarter as a p-chart: the centre line (all passes over all attempts of the
+// series) and 3-sigma control limits for each quarter's number of attempts. A quarter outside the limits is
+// drawn as a diamond and labelled, so it stands out without colour.
+import * as Plot from "@observablehq/plot";
+import { useCallback } from "react";
+import type { z } from "zod";
+import type { passRateSeriesSchema } from "../../../../shared/schemas/insight";
+import { Chart, type ChartSize } from "../../../components/Chart";
+import type { Column } from "../../../components/DataTable";
+import { ChartLegend, lineSwatch, shapeSwatch } from "../ChartLegend";
+import { ink, percentTick, shareAxisTop } from "../chartStyle";
+import { formatCount, formatInterval, formatPercent, percentValue, quarterLabel, suppressedText } from "../format";
+
+export type PassRateSeries = z.infer<typeof passRateSeriesSchema>;
+export type SeriesPoint = PassRateSeries["points"][number];
+
+function side(point: SeriesPoint): "above" | "below" | null {
+  if (!point.outside || point.rate === null) return null;
+  return point.ucl !== null && point.rate > point.ucl ? "above" : "below";
+}
+
+export function describeSeries(series: PassRateSeries): string {
+  const shown = series.points.filter((p) => p.rate !== null);
+  if (shown.length === 0) return "No quarter in this range has attempts to chart.";
+  const first = series.points[0].quarter;
+  const last = series.points[series.points.length - 1];
+  const outside = shown.filter((p) => p.outside);
+  const parts = [
+    `Measured pass rate each quarter from ${quarterLabel(first)} to ${quarterLabel(last.quarter)}, around a centre line of ${formatPercent(series.centre)}.`,
+  ];
+  if (last.rate !== null) parts.push(`The latest quarter is at ${formatPercent(last.rate)}.`);
+  if (outside.length === 0) {
+    parts.push("Every quarter stays inside the control limits: the ups and downs are what chance alone would give.");
+  } else {
+    const above = outside.filter((p) => side(p) === "above").map((p) => quarterLabel(p.quarter));
+    const below = outside.filter((p) => side(p) === "below").map((p) => quarterLabel(p.quarter));
+    const words = [above.length ? `above in ${above.join(", ")}` : "", below.length ? `below in ${below.join(", ")}` : ""].filter(Boolean);
+    parts.push(
+      `${outside.length} of ${shown.length} quarters fall outside the control limits (${words.join("; ")}): more change than chance alone explains.`,
+    );
+  }
+  const hidden = series.points.filter((p) => p.suppressed).length;
+  if (hidden > 0) parts.push(`${hidden} quarter${hidden === 1 ? " is" : "s are"} hidden because they hold too few attempts.`);
+  return parts.join(" ");
+}
+
+export function seriesColumns(minCount: number): Column<SeriesPoint>[] {
+  const hidden = suppressedText(minCount);
+  return [
+    { key: "quarter", header: "Quarter", value: (p) => p.quarter, render: (p) => quarterLabel(p.quarter) },
+    { key: "attempts", header: "Attempts", value: (p) => p.attempts, render: (p) => (p.suppressed ? hidden : formatCount(p.attempts)), align: "right" },
+    { key: "passed", header: "Passed", value: (p) => p.passed, render: (p) => (p.suppressed ? hidden : formatCount(p.passed)), align: "right" },
+    { key: "rate", header: "Pass rate (%)", value: (p) => percentValue(p.rate), render: (p) => (p.suppressed ? hidden : formatPercent(p.rate)), align: "right" },
+    { key: "interval", header: "95 % interval", value: (p) => (p.low === null ? null : formatInterval(p.low, p.high)), sortable: false, align: "right" },
+    { key: "lcl", header: "Lower control limit (%)", value: (p) => percentValue(p.lcl), render: (p) => formatPercent(p.lcl), align: "right" },
+    { key: "ucl", header: "Upper control limit (%)", value: (p) => percentValue(p.ucl), render: (p) => formatPercent(p.ucl), align: "right" },
+    {
+      key: "outside",
+      header: "Outside the limits",
+      value: (p) => (p.rate === null ? null : side(p) === "above" ? "Yes, above" : side(p) === "below" ? "Yes, below" : "No"),
+    },
+  ];
+}
+
+export function PassRateControlChart({ series, minCount, title = "Measured pass rate by quarter" }: { series: PassRateSeries; minCount: number; title?: string }) {
+  const centre = series.centre;
+  const plot = useCallback(
+    (points: readonly SeriesPoint[], { width }: ChartSize): Plot.PlotOptions => {
+      const shown = points.filter((p) => p.rate !== null);
+      const outside = shown.filter((p) => p.outside);
+      const top = shareAxisTop(shown.flatMap((p) => [p.ucl, p.high, p.rate]));
+      return {
+        height: width < 500 ? 260 : 320,
+        marginLeft: 48,
+        marginRight: width < 500 ? 12 : 72,
+        marginTop: 24,
+        x: { type: "point", domain: points.map((p) => p.quarter), tickFormat: (q: string) => (width < 500 ? q.slice(2).replace("-", " ") : quarterLabel(q)), label: null, padding: 0.4 },
+        y: { domain: [0, top], tickFormat: percentTick, label: "Measured pass rate", grid: true },
+        marks: [
+          centre === null ? null : Plot.ruleY([centre], { stroke: ink.main, strokeWidth: 1.5 }),
+          width < 500 || centre === null
+            ? null
+            : Plot.text([centre], { x: () => points[points.length - 1].quarter, y: (c: number) => c, text: () => `centre ${formatPercent(centre)}`, dx: 14, dy: -8, textAnchor: "start", fill: ink.text }),
+          Plot.line(shown, { x: "quarter", y: "ucl", curve: "step", stroke: ink.limit, strokeDasharray: "5 4" }),
+          Plot.line(shown, { x: "quarter", y: "lcl", curve: "step", stroke: ink.limit, strokeDasharray: "5 4" }),
+          Plot.ruleX(shown, { x: "quarter", y1: "low", y2: "high", stroke: ink.soft, strokeWidth: 3 }),
+          Plot.line(shown, { x: "quarter", y: "rate", stroke: ink.main, strokeWidth: 1.5 }),
+          Plot.dot(
+            shown.filter((p) => !p.outside),
+            { x: "quarter", y: "rate", r: 4.5, fill: ink.main, stroke: "white", title: (p: SeriesPoint) => `${quarterLabel(p.quarter)}: ${formatPercent(p.rate)}` },
+          ),
+          Plot.dot(outside, {
+            x: "quarter",
+            y: "rate",
+            symbol: "diamond",
+            r: 7,
+            fill: ink.accent,
+            stroke: ink.text,
+            strokeWidth: 1.5,
+            title: (p: SeriesPoint) => `${quarterLabel(p.quarter)}: ${formatPercent(p.rate)}, outside the control limits`,
+          }),
+          Plot.text(outside.filter((p) => side(p) === "above"), { x: "quarter", y: "rate", text: () => "above", dy: -15, fill: ink.text, fontWeight: 600 }),
+          Plot.text(outside.filter((p) => side(p) === "below"), { x: "quarter", y: "rate", text: () => "below", dy: 17, fill: ink.text, fontWeight: 600 }),
+        ],
+      };
+    },
+    [centre],
+  );
+
+  return (
+    <Chart
+      title={title}
+      description={describeSeries(series)}
+      data={series.points}
+      columns={seriesColumns(minCount)}
+      rowKey={(p) => p.quarter}
+      plot={plot}
+      exportFileName="pass-rate-by-quarter"
+      legend={
+        <ChartLegend
+          items={[
+            { label: "Pass rate (bar: 95 % interval)", swatch: <><path d="M12 0v12" stroke={ink.soft} strokeWidth="3" />{shapeSwatch("circle", ink.main, "white")}</> },
+            { label: "Centre line", swatch: lineSwatch(ink.main) },
+            { label: "Control limits", swatch: lineSwatch(ink.limit, "5 4") },
+            { label: "Outside the limits", swatch: shapeSwatch("diamond", ink.accent, ink.text) },
+          ]}
+        />
+      }
+    />
+  );
+}

@@ -1,0 +1,148 @@
+// How the insight pages write numbers: shares as "29.5 %", intervals as "27.1–31.9 %", changes in
+// percentage points, and the words for kappa and for a funnel position. One place, so every page, table
+// and CSV agrees.
+import type { z } from "zod";
+import type { funnelPositionSchema, Rate } from "../../../shared/schemas/insight";
+import type { FeedbackMode } from "../../../shared/domain";
+import type { AttemptError } from "../../../shared/scoring/scoreAttempt";
+import type { PatientType } from "../../../shared/scoring/policy";
+
+export type FunnelPosition = z.infer<typeof funnelPositionSchema>;
+
+/** A share 0–1 as a percentage with one decimal: 0.2953 → "29.5 %"; missing → "–". */
+export function formatPercent(share: number | null | undefined): string {
+  if (share === null || share === undefined || !Number.isFinite(share)) return "–";
+  return `${(share * 100).toFixed(1)} %`;
+}
+
+/** A percentage that is already 0–100 (metrics such as depth_ok_pct): 80 → "80.0 %". */
+export function formatPct(value: number | null | undefined): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return "–";
+  return `${value.toFixed(1)} %`;
+}
+
+/** The share as a number of percent with one decimal, for sorting and CSV: 0.29534 → 29.5. */
+export function percentValue(share: number | null | undefined): number | null {
+  if (share === null || share === undefined || !Number.isFinite(share)) return null;
+  return Math.round(share * 1000) / 10;
+}
+
+/** "27.1–31.9 %"; missing → "–". */
+export function formatInterval(low: number | null | undefined, high: number | null | undefined): string {
+  if (low === null || low === undefined || high === null || high === undefined) return "–";
+  return `${(low * 100).toFixed(1)}–${(high * 100).toFixed(1)} %`;
+}
+
+/** A difference of two shares in percentage points: 0.0399 → "+4.0 points", -0.012 → "−1.2 points". */
+export function formatPoints(difference: number | null | undefined): string {
+  if (difference === null || difference === undefined || !Number.isFinite(difference)) return "–";
+  const points = difference * 100;
+  const text = Math.abs(points).toFixed(1);
+  if (text === "0.0") return "0.0 points";
+  return `${points > 0 ? "+" : "−"}${text} points`;
+}
+
+/** Scores run 0–100; one decimal is finer than any difference worth acting on. */
+export function formatScore(score: number | null | undefined): string {
+  if (score === null || score === undefined || !Number.isFinite(score)) return "–";
+  return score.toFixed(1);
+}
+
+export function roundTo(value: number | null | undefined, decimals: number): number | null {
+  if (value === null || value === undefined || !Number.isFinite(value)) return null;
+  const factor = 10 ** decimals;
+  return Math.round(value * factor) / factor;
+}
+
+export function formatCount(value: number | null | undefined): string {
+  if (value === null || value === undefined) return "–";
+  return value.toLocaleString("en-GB");
+}
+
+/** "2026-Q3" → "2026 Q3" (how people say it). */
+export function quarterLabel(quarter: string): string {
+  return quarter.replace("-", " ");
+}
+
+/** What a hidden group says instead of its value: never a zero that looks like a result. */
+export function suppressedText(minCount: number): string {
+  return `fewer than ${minCount} attempts`;
+}
+
+/** A rate as one line: "29.5 % (95 % interval 27.1–31.9 %)", or why it has no value. */
+export function describeRate(rate: Rate, minCount: number): string {
+  if (rate.suppressed) return suppressedText(minCount);
+  if (rate.rate === null) return "no attempts";
+  return `${formatPercent(rate.rate)} (95 % interval ${formatInterval(rate.low, rate.high)})`;
+}
+
+/**
+ * Words for Cohen's kappa, from the bands of Landis JR, Koch GG. The measurement of observer agreement for
+ * categorical data. Biometrics 1977;33:159–174 (below 0 poor, to 0.20 slight, to 0.40 fair, to 0.60
+ * moderate, to 0.80 substantial, above almost perfect).
+ */
+export function kappaWords(kappa: number | null | undefined): string {
+  if (kappa === null || kappa === undefined || !Number.isFinite(kappa)) return "not enough pairs";
+  if (kappa < 0) return "poor agreement";
+  if (kappa <= 0.2) return "slight agreement";
+  if (kappa <= 0.4) return "fair agreement";
+  if (kappa <= 0.6) return "moderate agreement";
+  if (kappa <= 0.8) return "substantial agreement";
+  return "almost perfect agreement";
+}
+
+/** Where a pass rate sits on the funnel, in words a coordinator can act on. */
+export const funnelPositionWords: Record<FunnelPosition, string> = {
+  inside: "Within the expected range",
+  above95: "Higher than expected (outside 95 % limit)",
+  above998: "Well above the network (outside 99.8 % limit)",
+  below95: "Lower than expected (outside 95 % limit)",
+  below998: "Well below the network (outside 99.8 % limit)",
+};
+
+/** The same, short enough for a table column. */
+export const funnelPositionShort: Record<FunnelPosition, string> = {
+  inside: "Expected range",
+  above95: "Above (95 % limit)",
+  above998: "Well above (99.8 % limit)",
+  below95: "Below (95 % limit)",
+  below998: "Well below (99.8 % limit)",
+};
+
+export function funnelPositionText(position: FunnelPosition | null | undefined): string {
+  return position ? funnelPositionWords[position] : "No attempts to place";
+}
+
+/** Short names for chart axes; the tables carry the full labels from the API. */
+export const errorShortLabels: Record<AttemptError, string> = {
+  too_shallow: "Too shallow",
+  too_deep: "Too deep",
+  too_slow: "Too slow",
+  too_fast: "Too fast",
+  incomplete_recoil: "Incomplete release",
+  low_hands_on: "Low hands-on time",
+  long_pause: "Long interruption",
+};
+
+export const feedbackWords: Record<FeedbackMode, string> = {
+  live: "Live display",
+  hidden: "Hidden display",
+};
+
+export const profileWords: Record<PatientType, string> = { infant: "Infant", child: "Child", adult: "Adult" };
+
+export const courseWords: Record<string, string> = { infant: "Infant", child: "Child", adult: "Adult", "all-ages": "All ages" };
+
+/** "17 Oct 2026" from "2026-10-17" (no time zone shift: the date is read as written). */
+export function formatDate(date: string): string {
+  const match = /^(\d{4})-(\d{2})-(\d{2})/.exec(date);
+  if (!match) return date;
+  const months = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
+  return `${Number(match[3])} ${months[Number(match[2]) - 1]} ${match[1]}`;
+}
+
+/** "09:11" from an ISO time stamp, as recorded (UTC in the files). */
+export function formatTime(stamp: string): string {
+  const match = /T(\d{2}):(\d{2})/.exec(stamp);
+  return match ? `${match[1]}:${match[2]}` : stamp;
+}

@@ -1,0 +1,147 @@
+// Recorded completions beside measured passes. Instructors sign learners off in the class log; the manikin
+// measures whether the compressions met the targets. The gap between the two is the overview's key message.
+import { useCallback } from "react";
+import type { OverviewAnswer } from "../../../../shared/schemas/insight";
+import { Chart, type ChartSize } from "../../../components/Chart";
+import { DataTable, type Column } from "../../../components/DataTable";
+import { ChartLegend, shapeSwatch } from "../ChartLegend";
+import { ink } from "../chartStyle";
+import { intervalBarsPlot } from "../charts/intervalPlot";
+import { formatCount, formatInterval, formatPercent, formatPoints, percentValue, suppressedText } from "../format";
+import { Suppressed } from "../Suppressed";
+
+type Rate = OverviewAnswer["passRate"];
+
+interface MeasureRow {
+  key: "recorded" | "measured";
+  label: string;
+  counted: string;
+  rate: Rate;
+}
+
+export const whyGapMatters =
+  "Every learner signed off whose compressions did not meet the targets leaves believing their CPR would work, so a wide gap shows where assessment in class needs attention.";
+
+export function gapSentence(recorded: Rate, measured: Rate): string | null {
+  if (recorded.rate === null || measured.rate === null) return null;
+  const gap = recorded.rate - measured.rate;
+  if (Math.abs(gap) < 0.005) return `Instructors recorded ${formatPercent(recorded.rate)} of learners as completed, the same as the ${formatPercent(measured.rate)} of attempts that passed on the manikin.`;
+  return gap > 0
+    ? `Instructors recorded ${formatPercent(recorded.rate)} of learners as completed, but only ${formatPercent(measured.rate)} of measured attempts passed: a gap of ${formatPoints(gap).replace("+", "")}.`
+    : `Instructors recorded ${formatPercent(recorded.rate)} of learners as completed, fewer than the ${formatPercent(measured.rate)} of measured attempts that passed (${formatPoints(-gap).replace("+", "")} lower).`;
+}
+
+function measureColumns(minCount: number): Column<MeasureRow>[] {
+  const hidden = suppressedText(minCount);
+  return [
+    { key: "label", header: "Measure", value: (r) => r.label },
+    { key: "counted", header: "Counted over", value: (r) => r.counted },
+    { key: "successes", header: "Passed or completed", value: (r) => r.rate.successes, render: (r) => (r.rate.suppressed ? hidden : formatCount(r.rate.successes)), align: "right" },
+    { key: "n", header: "Out of", value: (r) => r.rate.n, render: (r) => (r.rate.suppressed ? hidden : formatCount(r.rate.n)), align: "right" },
+    { key: "rate", header: "Rate (%)", value: (r) => percentValue(r.rate.rate), render: (r) => (r.rate.suppressed ? hidden : formatPercent(r.rate.rate)), align: "right" },
+    { key: "interval", header: "95 % interval", value: (r) => (r.rate.low === null ? null : formatInterval(r.rate.low, r.rate.high)), sortable: false, align: "right" },
+  ];
+}
+
+interface AgreementRow {
+  instructor: "pass" | "fail";
+  measuredPass: number;
+  measuredFail: number;
+}
+
+const agreementColumns: Column<AgreementRow>[] = [
+  { key: "instructor", header: "Instructor's result", value: (r) => (r.instructor === "pass" ? "Recorded as passed" : "Recorded as not passed"), primary: true },
+  { key: "pass", header: "Measured: passed", value: (r) => r.measuredPass, align: "right" },
+  { key: "fail", header: "Measured: not passed", value: (r) => r.measuredFail, align: "right" },
+  { key: "total", header: "Total", value: (r) => r.measuredPass + r.measuredFail, align: "right" },
+];
+
+export function RecordedVsMeasured({ answer }: { answer: OverviewAnswer }) {
+  const min = answer.suppressionMinCount;
+  const rows: MeasureRow[] = [
+    { key: "recorded", label: "Instructor-recorded completion", counted: "learners in class logs", rate: answer.recordedCompletion },
+    { key: "measured", label: "Measured pass rate", counted: "manikin attempts", rate: answer.passRate },
+  ];
+  const plot = useCallback(
+    (data: readonly MeasureRow[], size: ChartSize) =>
+      intervalBarsPlot(
+        data.map((r) => ({ label: r.key === "recorded" ? "Recorded completion" : "Measured pass rate", rate: r.rate.rate, low: r.rate.low, high: r.rate.high, fill: r.key === "recorded" ? ink.soft : ink.main })),
+        size,
+        150,
+      ),
+    [],
+  );
+  const sentence = gapSentence(answer.recordedCompletion, answer.passRate);
+  const table = answer.agreement.table;
+  const agreementRows: AgreementRow[] = table
+    ? [
+        { instructor: "pass", measuredPass: table[0][0], measuredFail: table[0][1] },
+        { instructor: "fail", measuredPass: table[1][0], measuredFail: table[1][1] },
+      ]
+    : [];
+  const signedOffButFailed = table ? table[0][1] : null;
+
+  return (
+    <section aria-labelledby="gap-heading" className="flex flex-col gap-4">
+      <h2 id="gap-heading" className="text-title">
+        Recorded completions against measured passes
+      </h2>
+      <div className="rounded-card border-l-4 border-marigold-500 bg-surface p-4 shadow-card">
+        {sentence ? <p className="text-lead font-semibold">{sentence}</p> : <p className="text-lead font-semibold">The gap cannot be shown: <Suppressed minCount={min} />.</p>}
+        <p className="mt-1">
+          <strong>Why it matters:</strong> {whyGapMatters}
+        </p>
+        <p className="mt-1 text-small text-muted">
+          Completions count learners in the class logs; passes count manikin attempts, and a learner may make several.
+        </p>
+      </div>
+      <div className="grid gap-4 2xl:grid-cols-2">
+        <Chart
+          title="Recorded completion and measured pass rate"
+          description={`${sentence ?? "Not enough attempts to compare."} The whiskers are the 95 % intervals: the range the true rate is likely to lie in, given how many were counted.`}
+          data={rows}
+          columns={measureColumns(min)}
+          rowKey={(r) => r.key}
+          plot={plot}
+          exportFileName="recorded-and-measured"
+          legend={
+            <ChartLegend
+              items={[
+                { label: "Recorded completion", swatch: shapeSwatch("bar", ink.soft) },
+                { label: "Measured pass rate", swatch: shapeSwatch("bar", ink.main) },
+                { label: "95 % interval", swatch: <path d="M3 6h18M3 2v8M21 2v8" stroke={ink.text} strokeWidth="1.5" fill="none" /> },
+              ]}
+            />
+          }
+        />
+        <div className="flex flex-col gap-3 rounded-card border border-line bg-surface p-4 shadow-card">
+          <h3 className="text-lead font-semibold">Same attempt, two results</h3>
+          {answer.agreement.suppressed ? (
+            <p>
+              <Suppressed minCount={min} /> carry both results, so the comparison is hidden.
+            </p>
+          ) : agreementRows.length === 0 || !answer.agreement.pairs ? (
+            <p className="text-muted">No attempt carries an instructor's result in this period.</p>
+          ) : (
+            <>
+              <p className="text-small text-muted">
+                Attempts where the instructor also recorded a pass or fail: {formatCount(answer.agreement.pairs)}.
+                {signedOffButFailed !== null &&
+                  ` ${formatCount(signedOffButFailed)} of them (${formatPercent(signedOffButFailed / answer.agreement.pairs)}) were recorded as passed but did not meet the targets.`}
+              </p>
+              <DataTable
+                caption="Instructor's result against the measured result"
+                columns={agreementColumns}
+                rows={agreementRows}
+                rowKey={(r) => r.instructor}
+                filterable={false}
+                exportFileName="instructor-and-measured-results"
+                phoneLayout="scroll"
+              />
+            </>
+          )}
+        </div>
+      </div>
+    </section>
+  );
+}

@@ -1,0 +1,66 @@
+// My medians beside the network's, with my percentile among instructors, one card per measure.
+import type { StandingAnswer } from "../../../../shared/schemas/insight";
+import { formatPct, formatScore } from "../format";
+import { Suppressed } from "../Suppressed";
+
+type Metric = StandingAnswer["metrics"][number];
+
+export const metricWords: Record<Metric["key"], { label: string; hint: string }> = {
+  score: { label: "Score", hint: "Median attempt score, out of 100" },
+  depth_ok_pct: { label: "Depth", hint: "Median share of compressions at the target depth" },
+  rate_ok_pct: { label: "Rate", hint: "Median share of compressions at the target rate" },
+  recoil_ok_pct: { label: "Release (recoil)", hint: "Median share of compressions with the chest fully released" },
+  hands_on_pct: { label: "Hands-on time", hint: "Median share of the attempt spent compressing" },
+};
+
+export function formatMetric(key: Metric["key"], value: number | null): string {
+  return key === "score" ? formatScore(value) : formatPct(value);
+}
+
+export function ordinal(n: number): string {
+  const rest100 = n % 100;
+  if (rest100 >= 11 && rest100 <= 13) return `${n}th`;
+  return `${n}${({ 1: "st", 2: "nd", 3: "rd" } as Record<number, string>)[n % 10] ?? "th"}`;
+}
+
+export function percentileSentence(rank: number | null, instructors: number): string {
+  if (rank === null) return "No rank: not enough instructors to compare with.";
+  const rounded = Math.round(rank);
+  const where = rounded >= 75 ? "among the highest" : rounded > 55 ? "above the middle" : rounded >= 45 ? "near the middle" : rounded > 25 ? "below the middle" : "among the lowest";
+  return `${ordinal(rounded)} percentile of ${instructors} instructors: ${where}.`;
+}
+
+export function StandingMetrics({ answer }: { answer: StandingAnswer }) {
+  const instructors = answer.spread.points.length;
+  const networkHidden = answer.errorProfile.networkSuppressed;
+  return (
+    <ul className="grid gap-4 sm:grid-cols-2 xl:grid-cols-5" aria-label="Your medians beside the network's">
+      {answer.metrics.map((metric) => {
+        const words = metricWords[metric.key];
+        const mine = metric.mine;
+        const diff = mine !== null && metric.network !== null ? mine - metric.network : null;
+        return (
+          <li key={metric.key} className="flex flex-col gap-1 rounded-card border border-line bg-surface p-4 shadow-card">
+            <h3 className="text-small font-semibold text-muted">{words.label}</h3>
+            <p className="text-caption text-muted">{words.hint}</p>
+            <p className="mt-1 flex items-baseline gap-2">
+              <span className="text-headline tabular-nums">{formatMetric(metric.key, mine)}</span>
+              <span className="text-small text-muted">you</span>
+            </p>
+            <p className="text-small tabular-nums">
+              Network: {networkHidden ? <Suppressed minCount={answer.suppressionMinCount} /> : <strong>{formatMetric(metric.key, metric.network)}</strong>}
+              {diff !== null && Math.abs(diff) >= 0.05 && (
+                <span className="text-muted">
+                  {" "}
+                  ({diff > 0 ? "you +" : "you −"}
+                  {metric.key === "score" ? Math.abs(diff).toFixed(1) : `${Math.abs(diff).toFixed(1)} points`})
+                </span>
+              )}
+            </p>
+            <p className="mt-auto pt-1 text-caption text-ink">{networkHidden ? "No rank while the network is hidden." : percentileSentence(metric.percentileRank, instructors)}</p>
+          </li>
+        );
+      })}
+    </ul>
+  );
+}

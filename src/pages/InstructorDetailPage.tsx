@@ -1,0 +1,99 @@
+// One instructor (coordinator, quality lead): quarterly pass rate with its interval beside the network's,
+// median score, and the classes of the chosen quarter.
+import { keepPreviousData, useQuery } from "@tanstack/react-query";
+import { Link, useParams, useSearchParams } from "react-router";
+import type { InstructorDetailAnswer, OverviewAnswer } from "../../shared/schemas/insight";
+import { ApiError } from "../api/http";
+import { PageHeader } from "../components/PageHeader";
+import { SafetyNote } from "../components/SafetyNote";
+import { EmptyState } from "../components/States";
+import { ClassTable } from "../features/insight/ClassTable";
+import { MedianScoreTrendChart, PassRateTrendChart, type TrendRow } from "../features/insight/charts/InstructorTrendCharts";
+import { quarterLabel } from "../features/insight/format";
+import { InsightFilters } from "../features/insight/InsightFilters";
+import { QueryStatus } from "../features/insight/QueryStatus";
+import { insightQueries } from "../features/insight/queries";
+import type { InsightFilterState } from "../features/insight/useInsightFilters";
+
+export default function InstructorDetailPage() {
+  const { id = "" } = useParams();
+  return (
+    <div>
+      <BackLink />
+      <InsightFilters optional={["patientType", "feedback"]} label="Filter this instructor's figures" before={(state) => <InstructorHeader id={id} state={state} />}>
+        {(state) => <InstructorBody id={id} state={state} />}
+      </InsightFilters>
+    </div>
+  );
+}
+
+/** The instructor's name comes with the filter options, so the heading does not wait for the figures. */
+function InstructorHeader({ id, state }: { id: string; state: InsightFilterState }) {
+  const known = state.options.instructors.find((i) => String(i.id) === id || i.code === id);
+  const site = known?.siteId == null ? null : state.options.sites.find((s) => s.id === known.siteId);
+  if (!known) return <PageHeader title="Instructor" />;
+  return (
+    <PageHeader
+      title={`${known.code} · ${known.name}`}
+      description={`${site ? `${site.code} · ${site.name}. ` : ""}Pass rate and median score quarter by quarter, and the classes of the chosen quarter.`}
+    />
+  );
+}
+
+function BackLink() {
+  const [params] = useSearchParams();
+  const search = params.toString() ? `?${params.toString()}` : "";
+  return (
+    <Link to={`/instructors${search}`} className="mb-3 inline-flex min-h-9 items-center gap-1 font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+      <span aria-hidden="true">←</span> All instructors
+    </Link>
+  );
+}
+
+function InstructorBody({ id, state }: { id: string; state: InsightFilterState }) {
+  const query = useQuery({ ...insightQueries.instructor(id, state.api), placeholderData: keepPreviousData });
+  // the network's series with the same filters, for the comparison line
+  const network = useQuery({ ...insightQueries.overview(state.api), placeholderData: keepPreviousData });
+  return (
+    <QueryStatus
+      query={query}
+      loadingLabel="Loading the instructor…"
+      errorTitle="This instructor could not be loaded"
+      renderError={(error) =>
+        error instanceof ApiError && (error.status === 404 || error.status === 422) ? (
+          <>
+            <EmptyState title={`No instructor has the id “${id}”`}>The link may be old or mistyped. Go back to the list of instructors.</EmptyState>
+          </>
+        ) : null
+      }
+    >
+      {(answer) => <InstructorContent answer={answer} network={network.data ?? null} />}
+    </QueryStatus>
+  );
+}
+
+export function trendRows(answer: InstructorDetailAnswer, network: OverviewAnswer | null): TrendRow[] {
+  const byQuarter = new Map((network?.series.points ?? []).map((p) => [p.quarter, p.rate]));
+  return answer.trend.map((t) => ({ quarter: t.quarter, passRate: t.passRate, medianScore: t.medianScore, network: byQuarter.get(t.quarter) ?? null }));
+}
+
+export function InstructorContent({ answer, network }: { answer: InstructorDetailAnswer; network: OverviewAnswer | null }) {
+  const { instructor } = answer;
+  const rows = trendRows(answer, network);
+  const quarter = quarterLabel(answer.period.from);
+  return (
+    <div className="flex flex-col gap-6">
+      <div className="grid gap-4 xl:grid-cols-2">
+        <PassRateTrendChart rows={rows} who={instructor.code} />
+        <MedianScoreTrendChart rows={rows} who={instructor.code} />
+      </div>
+      <SafetyNote compact />
+      <section aria-labelledby="classes-heading" className="flex flex-col gap-3">
+        <h2 id="classes-heading" className="text-title">
+          Classes in {quarter}
+        </h2>
+        <ClassTable classes={answer.classes} caption="Classes" exportFileName={`classes-${instructor.code}-${answer.period.from}`} />
+      </section>
+    </div>
+  );
+}

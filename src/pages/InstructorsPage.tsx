@@ -1,0 +1,122 @@
+// Instructors (coordinator, quality lead): every instructor's pass rate on the funnel plot and in a table,
+// each linking to that instructor's page.
+import { keepPreviousData, useQuery } from "@tanstack/react-query";
+import { Link, useSearchParams } from "react-router";
+import type { InstructorsAnswer } from "../../shared/schemas/insight";
+import { DataTable, type Column } from "../components/DataTable";
+import { PageHeader } from "../components/PageHeader";
+import { FunnelChart, PositionText, type FunnelUnit } from "../features/insight/charts/FunnelChart";
+import { formatCount, formatInterval, formatPercent, formatScore, funnelPositionText, percentValue, quarterLabel, roundTo } from "../features/insight/format";
+import { InsightFilters } from "../features/insight/InsightFilters";
+import { NoDataForFilters } from "../features/insight/NoDataForFilters";
+import { QueryStatus } from "../features/insight/QueryStatus";
+import { insightQueries } from "../features/insight/queries";
+import type { InsightFilterState } from "../features/insight/useInsightFilters";
+
+type InstructorRow = InstructorsAnswer["instructors"][number];
+
+export default function InstructorsPage() {
+  return (
+    <div>
+      <PageHeader
+        title="Instructors"
+        description="Each instructor's measured pass rate, judged against what chance allows for their number of attempts."
+      />
+      <InsightFilters optional={["site", "patientType", "feedback"]} label="Filter the instructors">
+        {(state) => <InstructorsBody state={state} />}
+      </InsightFilters>
+    </div>
+  );
+}
+
+function InstructorsBody({ state }: { state: InsightFilterState }) {
+  const query = useQuery({ ...insightQueries.instructors(state.api), placeholderData: keepPreviousData });
+  return (
+    <QueryStatus query={query} loadingLabel={`Loading the instructors for ${quarterLabel(state.quarter)}…`} errorTitle="The instructors could not be loaded">
+      {(answer) => (answer.instructors.length === 0 ? <NoDataForFilters state={state} /> : <InstructorsContent answer={answer} />)}
+    </QueryStatus>
+  );
+}
+
+function instructorColumns(search: string): Column<InstructorRow>[] {
+  return [
+    {
+      key: "code",
+      header: "Code",
+      value: (r) => r.code,
+      render: (r) => (
+        <Link to={`/instructors/${r.id}${search}`} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+          {r.code}
+        </Link>
+      ),
+      primary: true,
+    },
+    { key: "name", header: "Name", value: (r) => r.name },
+    { key: "site", header: "Site", value: (r) => r.site?.code ?? "" },
+    { key: "classes", header: "Classes", value: (r) => r.classes, align: "right" },
+    { key: "attempts", header: "Attempts", value: (r) => r.attempts, render: (r) => formatCount(r.attempts), align: "right" },
+    { key: "rate", header: "Pass rate (%)", value: (r) => percentValue(r.passRate.rate), render: (r) => formatPercent(r.passRate.rate), align: "right" },
+    { key: "interval", header: "95 % interval", value: (r) => (r.passRate.low === null ? null : formatInterval(r.passRate.low, r.passRate.high)), sortable: false, align: "right" },
+    { key: "median", header: "Median score", value: (r) => roundTo(r.medianScore, 1), render: (r) => formatScore(r.medianScore), align: "right" },
+    { key: "position", header: "Funnel position", value: (r) => funnelPositionText(r.position), render: (r) => <PositionText position={r.position} short /> },
+  ];
+}
+
+export function InstructorsContent({ answer }: { answer: InstructorsAnswer }) {
+  const [params] = useSearchParams();
+  const search = params.toString() ? `?${params.toString()}` : "";
+  const units: FunnelUnit[] = answer.instructors
+    .filter((r) => r.passRate.rate !== null && r.passRate.successes !== null)
+    .map((r) => ({ key: r.id, label: r.code, n: r.attempts, successes: r.passRate.successes!, rate: r.passRate.rate!, position: r.position }));
+  const outside = answer.instructors.filter((r) => r.position && r.position !== "inside");
+  return (
+    <div className="flex flex-col gap-6">
+      <div className="rounded-card border-l-4 border-marigold-500 bg-surface p-4 shadow-card">
+        <p className="text-lead font-semibold">
+          {answer.instructors.length} instructors in {quarterLabel(answer.period.from)}; network pass rate {formatPercent(answer.funnel.networkRate)}.
+        </p>
+        {outside.length === 0 ? (
+          <p className="mt-1">Every instructor is inside the 95 % limits: their differences are within what chance gives.</p>
+        ) : (
+          <>
+            <p className="mt-1">Outside the limits:</p>
+            <ul className="mt-1 flex flex-col gap-1">
+              {outside.map((r) => (
+                <li key={r.id} className="flex flex-wrap items-center gap-x-2">
+                  <Link to={`/instructors/${r.id}${search}`} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+                    {r.code} · {r.name}
+                  </Link>
+                  <PositionText position={r.position} />
+                  <span className="text-small text-muted tabular-nums">
+                    {formatPercent(r.passRate.rate)} of {formatCount(r.attempts)} attempts
+                  </span>
+                </li>
+              ))}
+            </ul>
+          </>
+        )}
+        <p className="mt-1 text-small text-muted">
+          The funnel narrows as attempts add up: a small group far from the network rate can be chance, a large one rarely is. Outside the 95 %
+          limits is worth a look; outside 99.8 % is very unlikely to be chance.
+        </p>
+      </div>
+      <FunnelChart
+        title="Pass rate against number of attempts"
+        units={units}
+        curve={answer.funnel.curve}
+        networkRate={answer.funnel.networkRate}
+        subject="each instructor"
+        unitHeader="Instructor"
+        exportFileName={`instructor-funnel-${answer.period.from}`}
+      />
+      <DataTable
+        caption="Instructors"
+        columns={instructorColumns(search)}
+        rows={answer.instructors}
+        rowKey={(r) => r.id}
+        exportFileName={`instructors-${answer.period.from}`}
+        initialSort={{ key: "code", direction: "asc" }}
+      />
+    </div>
+  );
+}

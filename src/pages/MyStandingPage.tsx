@@ -1,0 +1,112 @@
+// My standing (instructors): my medians and pass rate beside the network's, where I sit among instructors
+// (others anonymous), my point on the funnel, my errors against the network's and my classes.
+import { keepPreviousData, useQuery } from "@tanstack/react-query";
+import type { StandingAnswer } from "../../shared/schemas/insight";
+import { PageHeader } from "../components/PageHeader";
+import { SafetyNote } from "../components/SafetyNote";
+import { ClassTable } from "../features/insight/ClassTable";
+import { ErrorProfileChart } from "../features/insight/charts/ErrorProfileChart";
+import { FunnelChart, type FunnelUnit } from "../features/insight/charts/FunnelChart";
+import { SpreadChart } from "../features/insight/charts/SpreadChart";
+import { formatCount, funnelPositionText, quarterLabel } from "../features/insight/format";
+import { InsightFilters } from "../features/insight/InsightFilters";
+import { NoDataForFilters } from "../features/insight/NoDataForFilters";
+import { QueryStatus } from "../features/insight/QueryStatus";
+import { RateText } from "../features/insight/RateText";
+import { StandingMetrics } from "../features/insight/standing/StandingMetrics";
+import { Suppressed } from "../features/insight/Suppressed";
+import { insightQueries } from "../features/insight/queries";
+import type { InsightFilterState } from "../features/insight/useInsightFilters";
+
+export default function MyStandingPage() {
+  return (
+    <div>
+      <PageHeader
+        title="My standing"
+        description="How your learners' attempts compare with the whole network. Other instructors appear only as anonymous points and network figures."
+      />
+      <InsightFilters optional={["patientType", "feedback"]} label="Filter my standing">
+        {(state) => <StandingBody state={state} />}
+      </InsightFilters>
+    </div>
+  );
+}
+
+function StandingBody({ state }: { state: InsightFilterState }) {
+  const query = useQuery({ ...insightQueries.standing(state.api), placeholderData: keepPreviousData });
+  return (
+    <QueryStatus query={query} loadingLabel={`Loading your standing for ${quarterLabel(state.quarter)}…`} errorTitle="Your standing could not be loaded">
+      {(answer) => (answer.attempts === 0 ? <NoDataForFilters state={state} what="attempts in your classes" /> : <StandingContent answer={answer} />)}
+    </QueryStatus>
+  );
+}
+
+export function StandingContent({ answer }: { answer: StandingAnswer }) {
+  const min = answer.suppressionMinCount;
+  const me = answer.funnel.me;
+  const units: FunnelUnit[] =
+    me.n && me.rate !== null && me.successes !== null
+      ? [{ key: "me", label: "You", n: me.n, successes: me.successes, rate: me.rate, position: me.position, isMe: true }]
+      : [];
+  const networkHidden = answer.errorProfile.networkSuppressed;
+  return (
+    <div className="flex flex-col gap-8">
+      <section aria-labelledby="me-heading" className="flex flex-col gap-3">
+        <h2 id="me-heading" className="text-title">
+          {answer.me.code} · {answer.me.name}, {quarterLabel(answer.period.from)}
+        </h2>
+        <p>
+          {formatCount(answer.attempts)} attempts in your classes. Your measured pass rate: <RateText rate={me} minCount={min} stacked={false} />.{" "}
+          {me.position && <span className="font-semibold">{funnelPositionText(me.position)} for a group of this size.</span>}
+        </p>
+        <StandingMetrics answer={answer} />
+        <SafetyNote compact />
+      </section>
+
+      <section aria-labelledby="spread-heading" className="flex flex-col gap-3">
+        <h2 id="spread-heading" className="text-title">
+          Compared with other instructors
+        </h2>
+        {networkHidden ? (
+          <p className="rounded-card border border-line bg-surface p-4">
+            The network's figures are hidden for these filters: <Suppressed minCount={min} />. Widen the filters to compare.
+          </p>
+        ) : (
+          <div className="grid gap-4 xl:grid-cols-2">
+            <SpreadChart points={answer.spread.points} minAttempts={answer.spread.minAttempts} instructorsLeftOut={answer.spread.instructorsLeftOut} />
+            <div className="flex flex-col gap-2">
+              <FunnelChart
+                title="Your pass rate on the network funnel"
+                units={units}
+                curve={answer.funnel.curve}
+                networkRate={answer.funnel.networkRate}
+                subject="your attempts"
+                unitHeader="Who"
+                exportFileName="my-funnel-position"
+              />
+              <p className="text-small text-muted">
+                The funnel narrows as attempts add up: with few attempts a rate far from the network's can be chance. A point outside the 95 %
+                limits is worth a look; outside the 99.8 % limits it is very unlikely to be chance.
+              </p>
+            </div>
+          </div>
+        )}
+      </section>
+
+      <section aria-labelledby="errors-heading" className="flex flex-col gap-3">
+        <h2 id="errors-heading" className="text-title">
+          Your errors
+        </h2>
+        <ErrorProfileChart rows={answer.errorProfile.rows} networkSuppressed={networkHidden} minCount={min} />
+      </section>
+
+      <section aria-labelledby="classes-heading" className="flex flex-col gap-3">
+        <h2 id="classes-heading" className="text-title">
+          Your classes in {quarterLabel(answer.period.from)}
+        </h2>
+        <p className="text-small text-muted">Open a class to see each learner's attempts. Recorded completions are what you entered in the class log.</p>
+        <ClassTable classes={answer.classes} caption="Your classes" exportFileName={`my-classes-${answer.period.from}`} />
+      </section>
+    </div>
+  );
+}

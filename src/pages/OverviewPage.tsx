@@ -1,0 +1,101 @@
+// Network overview: the quarter's measured pass rate against what instructors recorded, the quarterly
+// p-chart, the error Pareto and live against hidden display. Landing page for coordinators and quality leads.
+import { keepPreviousData, useQuery } from "@tanstack/react-query";
+import type { OverviewAnswer } from "../../shared/schemas/insight";
+import { PageHeader } from "../components/PageHeader";
+import { SafetyNote } from "../components/SafetyNote";
+import { PassRateControlChart } from "../features/insight/charts/PassRateControlChart";
+import { ErrorParetoChart } from "../features/insight/charts/ErrorParetoChart";
+import { FeedbackComparisonChart } from "../features/insight/charts/FeedbackComparisonChart";
+import { InsightFilters } from "../features/insight/InsightFilters";
+import { NoDataForFilters } from "../features/insight/NoDataForFilters";
+import { Notice } from "../components/Notice";
+import { OverviewStats } from "../features/insight/overview/OverviewStats";
+import { RecordedVsMeasured } from "../features/insight/overview/RecordedVsMeasured";
+import { QueryStatus } from "../features/insight/QueryStatus";
+import { Suppressed } from "../features/insight/Suppressed";
+import { quarterLabel } from "../features/insight/format";
+import { insightQueries } from "../features/insight/queries";
+import type { InsightFilterState } from "../features/insight/useInsightFilters";
+
+export default function OverviewPage() {
+  return (
+    <div>
+      <PageHeader
+        title="Network overview"
+        description="How many learners' compressions met the targets on the manikin, set beside what instructors recorded in class."
+      />
+      <InsightFilters optional={["site", "patientType", "feedback"]} label="Filter the overview">
+        {(state) => <OverviewBody state={state} />}
+      </InsightFilters>
+    </div>
+  );
+}
+
+function OverviewBody({ state }: { state: InsightFilterState }) {
+  const query = useQuery({ ...insightQueries.overview(state.api), placeholderData: keepPreviousData });
+  return (
+    <QueryStatus query={query} loadingLabel={`Loading ${quarterLabel(state.quarter)}…`} errorTitle="The overview could not be loaded">
+      {(answer) => (answer.attempts === 0 ? <NoDataForFilters state={state} /> : <OverviewContent answer={answer} />)}
+    </QueryStatus>
+  );
+}
+
+export function OverviewContent({ answer }: { answer: OverviewAnswer }) {
+  const min = answer.suppressionMinCount;
+  return (
+    <div className="flex flex-col gap-8">
+      {answer.suppressed && (
+        <Notice tone="info">
+          Fewer than {min} attempts match these filters. To protect learners, the figures for this selection are hidden; widen the filters to see them.
+        </Notice>
+      )}
+      <section aria-labelledby="headline-heading" className="flex flex-col gap-3">
+        <h2 id="headline-heading" className="text-title">
+          {quarterLabel(answer.period.from)} at a glance
+        </h2>
+        <OverviewStats answer={answer} />
+        <p className="text-small text-muted">
+          A pass means the attempt met every target of the network's pass rule. The 95 % interval is the range the true rate very likely lies
+          in, given how many were counted: the fewer counted, the wider it is.
+        </p>
+        <SafetyNote compact />
+      </section>
+
+      <RecordedVsMeasured answer={answer} />
+
+      <section aria-labelledby="trend-heading" className="flex flex-col gap-3">
+        <h2 id="trend-heading" className="text-title">
+          Quarter by quarter
+        </h2>
+        <p className="max-w-3xl text-small text-muted">
+          The control limits show how far a quarter's pass rate can move by chance alone, given its number of attempts. A quarter outside them
+          is a real change worth looking into, for better or worse.
+        </p>
+        <PassRateControlChart series={answer.series} minCount={min} />
+      </section>
+
+      <section aria-labelledby="errors-heading" className="flex flex-col gap-3">
+        <h2 id="errors-heading" className="text-title">
+          Errors and feedback
+        </h2>
+        <div className="grid gap-4 xl:grid-cols-2">
+          {answer.errors.suppressed ? (
+            <p className="rounded-card border border-line bg-surface p-4">
+              Errors are hidden: <Suppressed minCount={min} />.
+            </p>
+          ) : (
+            <ErrorParetoChart rows={answer.errors.rows} attempts={answer.errors.attempts} />
+          )}
+          <div className="flex flex-col gap-2">
+            <FeedbackComparisonChart groups={answer.feedback} minCount={min} />
+            <p className="text-small text-muted">
+              Live display shows learners their depth and rate as they compress; hidden display tests them without that help. A large gap means
+              learners lean on the display.
+            </p>
+          </div>
+        </div>
+      </section>
+    </div>
+  );
+}
