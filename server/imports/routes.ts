@@ -2,7 +2,7 @@
 // (a dry-run job the page polls) → import (a job) → summary; history, undo and mapping presets.
 import fs from "node:fs";
 import path from "node:path";
-import { Router, type Request } from "express";
+import { Router, type Request, type RequestHandler } from "express";
 import multer from "multer";
 import { importColumns } from "../../shared/import/columns";
 import {
@@ -61,6 +61,14 @@ export function importRoutes(db: Db, options: ImportRouteOptions = {}): Router {
 
   router.use("/imports", allow("importData"));
 
+  // multer's own "File too large" names no limit: say what the limit is and what to do instead
+  const maxMb = Math.round((options.maxUploadBytes ?? MAX_UPLOAD_BYTES) / 1024 / 1024);
+  const receiveFile: RequestHandler = (req, res, next) =>
+    upload.single("file")(req, res, (err?: unknown) => {
+      if ((err as { code?: string } | undefined)?.code !== "LIMIT_FILE_SIZE") return next(err);
+      next(new AppError("too_large", 413, `The file is larger than ${maxMb} MB, the most a web upload may be. Split it into smaller files, or import it with the command line (quarterbeat import).`));
+    });
+
   router.get("/imports/formats", (_req, res) => {
     const formats = Object.fromEntries(
       Object.entries(importColumns).map(([kind, columns]) => [kind, columns.map((c) => ({ name: c.name, required: c.required, description: c.description, unit: c.unit ?? null }))]),
@@ -68,7 +76,7 @@ export function importRoutes(db: Db, options: ImportRouteOptions = {}): Router {
     res.json({ formats });
   });
 
-  router.post("/imports/uploads", upload.single("file"), async (req, res) => {
+  router.post("/imports/uploads", receiveFile, async (req, res) => {
     const user = signedInUser(req);
     const file = req.file;
     if (!file) throw badRequest("Attach the CSV file in the form field named file.");
