@@ -5,8 +5,8 @@ import type { Db } from "../db/client";
 import { allow, signedInUser } from "../auth/guard";
 import { forbidden } from "../errors";
 import { parseWith } from "../http/validate";
-import { cached } from "../insight/cache";
 import { filtersKey, resolveFilters } from "../insight/filters";
+import { sendCached } from "../insight/routes";
 import { viewerKey, viewerOf } from "../insight/viewer";
 import { currentPolicy } from "../policy/service";
 import { equipmentReport } from "./service";
@@ -25,10 +25,8 @@ export function equipmentRoutes(db: Db): Router {
     }
     const asOf = new Date().toISOString().slice(0, 10);
     const onlyInstructorId = viewer.seesEveryone ? null : (viewer.ownInstructorId ?? -1);
-    res.json(
-      cached(db, `equipment|${asOf}|${viewerKey(viewer)}|${filtersKey(filters)}`, () =>
-        equipmentReport(db, currentPolicy(db).policy.equipment, { filters, onlyInstructorId, asOf }),
-      ),
+    sendCached(db, res, `equipment|${asOf}|${viewerKey(viewer)}|${filtersKey(filters)}`, () =>
+      equipmentReport(db, currentPolicy(db).policy.equipment, { filters, onlyInstructorId, asOf }),
     );
   });
 

@@ -3,8 +3,8 @@
 // imported, rescored or edited; so each answer is computed once per state of the database.
 //
 // The state is read cheaply on every request: SQLite's data_version changes when another connection (a CLI
-// import) commits, and total_changes() counts every row this connection has written. Any write therefore
-// empties the cache; nothing is ever served from before it.
+// import, the import worker thread) commits, and total_changes() counts every row this connection has
+// written. Any write therefore empties the cache; nothing is ever served from before it.
 import type { Statement } from "better-sqlite3";
 import type { Db } from "../db/client";
 
@@ -13,6 +13,7 @@ const MAX_ENTRIES = 500;
 interface Store {
   version: string;
   entries: Map<string, unknown>;
+  readDataVersion: Statement;
   readChanges: Statement;
 }
 
@@ -27,34 +28,39 @@ export function setInsightCache(on: boolean): void {
 function storeFor(db: Db): Store {
   let store = stores.get(db);
   if (!store) {
-    store = { version: "", entries: new Map(), readChanges: db.$client.prepare("SELECT total_changes()").pluck() };
+    store = {
+      version: "",
+      entries: new Map(),
+      readDataVersion: db.$client.prepare("PRAGMA data_version").pluck(),
+      readChanges: db.$client.prepare("SELECT total_changes()").pluck(),
+    };
     stores.set(db, store);
   }
   return store;
 }
 
-function databaseState(db: Db, store: Store): string {
-  return `${db.$client.pragma("data_version", { simple: true })}:${store.readChanges.get()}`;
+function databaseState(store: Store): string {
+  return `${store.readDataVersion.get()}:${store.readChanges.get()}`;
 }
 
-/** The answer for `key` in the database's present state, computing it when there is none yet. */
+/**
+ * The answer for `key` in the database's present state, computing it when there is none yet. The computation
+ * reads one snapshot (a read transaction), and its answer is kept only if nothing was written meanwhile.
+ */
 export function cached<T>(db: Db, key: string, compute: () => T): T {
   if (!enabled) return compute();
   const store = storeFor(db);
-  const version = databaseState(db, store);
-  if (version !== store.version) {
-    store.version = version;
+  const before = databaseState(store);
+  if (before !== store.version) {
+    store.version = before;
     store.entries.clear();
   }
   if (store.entries.has(key)) return store.entries.get(key) as T;
-  const value = compute();
-  // the computation may have written (the policy's first version); key it to the state after that
-  const after = databaseState(db, store);
-  if (after !== store.version) {
-    store.version = after;
-    store.entries.clear();
+  const sqlite = db.$client;
+  const value = sqlite.inTransaction ? compute() : sqlite.transaction(compute).deferred();
+  if (databaseState(store) === before) {
+    if (store.entries.size >= MAX_ENTRIES) store.entries.delete(store.entries.keys().next().value as string);
+    store.entries.set(key, value);
   }
-  if (store.entries.size >= MAX_ENTRIES) store.entries.delete(store.entries.keys().next().value as string);
-  store.entries.set(key, value);
   return value;
 }

@@ -1,7 +1,7 @@
 // The network overview: headline figures for the period, the quarterly pass-rate p-chart, the error Pareto
 // and live-display against hidden-display results. One grouped scan of attempts (by quarter and feedback
 // mode) feeds everything but the medians and the class logs.
-import { sql } from "drizzle-orm";
+import { and, eq, sql } from "drizzle-orm";
 import { feedbackModes, type FeedbackMode } from "../../shared/domain";
 import type { OverviewAnswer } from "../../shared/schemas/insight";
 import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
@@ -12,7 +12,7 @@ import { ownRowsOnly, type ResolvedFilters } from "./filters";
 import { errorPareto } from "./pareto";
 import { previousPeriod, trendQuarters } from "./quarters";
 import { rateFor } from "./rates";
-import { attemptConditions, classConditions, errorCountColumns, errorCountsOf, medianOf, mediansBy } from "./sql";
+import { attemptConditions, classConditions, errorCountColumns, errorCountsOf, medianOfSorted, sortedUnion, sortedValues } from "./sql";
 import { hidesGroup, type Viewer } from "./viewer";
 
 interface Tally {
@@ -100,7 +100,10 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): Over
   ]);
 
   const chart = pChart(trend.quarters.map((q) => ({ n: byQuarter.get(q)!.n, count: byQuarter.get(q)!.passed })));
-  const feedbackMedians = hidden ? new Map<FeedbackMode, number>() : mediansBy<FeedbackMode>(db, attempts.score, attempts.feedback, where);
+  // scores per feedback mode, sorted; the period's median is that of both lists together
+  const scores = new Map(
+    feedbackModes.map((mode) => [mode, hidden ? new Float64Array() : sortedValues(db, attempts.score, and(where, eq(attempts.feedback, mode))!)]),
+  );
 
   return {
     period,
@@ -126,7 +129,7 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): Over
           kappa: kappa.kappa,
           suppressed: false,
         },
-    medianScore: hidden ? null : medianOf(db, attempts.score, where),
+    medianScore: hidden ? null : medianOfSorted(sortedUnion(scores.get("live")!, scores.get("hidden")!)),
     series: {
       centre: chart.centre,
       points: trend.quarters.map((quarter, i) => {
@@ -146,7 +149,7 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): Over
         mode,
         attempts: groupHidden ? null : tally.n,
         passRate: rateFor(tally.passed, tally.n, groupHidden),
-        medianScore: groupHidden ? null : (feedbackMedians.get(mode) ?? null),
+        medianScore: groupHidden ? null : medianOfSorted(scores.get(mode)!),
         suppressed: groupHidden,
       };
     }),

@@ -1,5 +1,5 @@
 // Network-insight routes: parse the filters, apply the viewer's scope, answer from the per-state cache.
-import { Router, type Request } from "express";
+import { Router, type Request, type Response } from "express";
 import { z } from "zod";
 import { attemptListQuerySchema, errorsQuerySchema, insightFiltersSchema } from "../../shared/filters";
 import type { Db } from "../db/client";
@@ -18,6 +18,11 @@ import { viewerKey, viewerOf } from "./viewer";
 
 const rowIdSchema = z.string().trim().min(1, "Give an id").max(100, "An id has at most 100 characters");
 
+/** Sends the answer for `key`, computed and serialised once per state of the database. */
+export function sendCached(db: Db, res: Response, key: string, compute: () => unknown): void {
+  res.type("application/json").send(cached(db, key, () => JSON.stringify(compute())));
+}
+
 export function insightRoutes(db: Db): Router {
   const router = Router();
 
@@ -30,34 +35,34 @@ export function insightRoutes(db: Db): Router {
 
   router.get("/insight/options", allow("readInsightOptions"), (req, res) => {
     const viewer = viewerOf(db, signedInUser(req));
-    res.json(cached(db, `options|${viewerKey(viewer)}`, () => filterOptions(db, viewer)));
+    sendCached(db, res, `options|${viewerKey(viewer)}`, () => filterOptions(db, viewer));
   });
 
   router.get("/insight/overview", allow("readNetwork"), (req, res) => {
     const { viewer, filters, key } = context(req, "overview");
-    res.json(cached(db, key, () => overview(db, viewer, filters)));
+    sendCached(db, res, key, () => overview(db, viewer, filters));
   });
 
   router.get("/insight/standing", allow("readOwnStanding"), (req, res) => {
     const { viewer, filters, key } = context(req, "standing");
-    res.json(cached(db, key, () => standing(db, viewer, filters)));
+    sendCached(db, res, key, () => standing(db, viewer, filters));
   });
 
   router.get("/insight/instructors", allow("drillDown"), (req, res) => {
     const { filters, key } = context(req, "instructors");
-    res.json(cached(db, key, () => instructorTable(db, filters)));
+    sendCached(db, res, key, () => instructorTable(db, filters));
   });
 
   router.get("/insight/instructors/:id", allow("drillDown"), (req, res) => {
     const id = parseId(req.params.id);
     const { filters, key } = context(req, `instructor:${id}`);
-    res.json(cached(db, key, () => instructorDetail(db, id, filters)));
+    sendCached(db, res, key, () => instructorDetail(db, id, filters));
   });
 
   router.get("/insight/errors", allow("drillDown"), (req, res) => {
     const { error, ...filterQuery } = parseWith(errorsQuerySchema, req.query, "The filters");
     const { filters, key } = context(req, `errors:${error ?? ""}`, filterQuery);
-    res.json(cached(db, key, () => errorAnalysis(db, filters, error)));
+    sendCached(db, res, key, () => errorAnalysis(db, filters, error));
   });
 
   router.get("/classes/:id", allow("readNetwork"), (req, res) => {
@@ -70,7 +75,7 @@ export function insightRoutes(db: Db): Router {
     const { error, class: classId, page, pageSize, ...filterQuery } = parseWith(attemptListQuerySchema, req.query, "The filters");
     const { filters, key } = context(req, `attempts:${error ?? ""}:${classId ?? ""}:${page}:${pageSize}`, filterQuery);
     const onlyInstructorId = rowScope(signedInUser(req)).instructorId;
-    res.json(cached(db, key, () => attemptList(db, filters, { error, classId, page, pageSize, onlyInstructorId })));
+    sendCached(db, res, key, () => attemptList(db, filters, { error, classId, page, pageSize, onlyInstructorId }));
   });
 
   router.get("/attempts/:id", allow("readNetwork"), (req, res) => {

@@ -54,35 +54,57 @@ export function errorCountsOf(row: Record<AttemptError, number>): Record<Attempt
 }
 
 /**
- * Median of `value` per group (type 7: the mean of the two middle values for an even count), computed in
- * SQLite: number each group's rows in value order and keep only the one or two middle rows. Only those
- * rows reach JavaScript. `group` null gives the single median of all matching rows under the key 0.
+ * The values of one column over the matching rows, sorted. Only that column leaves SQLite (a plain list of
+ * numbers, the cheapest thing better-sqlite3 can hand over), and a Float64Array sorts it natively.
  */
-export function mediansBy<K extends string | number>(
-  db: Db,
-  value: SQLWrapper,
-  group: SQLWrapper | null,
-  where: SQL,
-): Map<K, number> {
-  const key = group ?? sql`0`;
-  const rows = db.all<{ k: K; v: number }>(
-    sql`SELECT k, v FROM (
-          SELECT ${key} AS k, ${value} AS v,
-                 row_number() OVER (PARTITION BY ${key} ORDER BY ${value}) - 1 AS i,
-                 count(*) OVER (PARTITION BY ${key}) AS n
-          FROM ${attempts} WHERE ${where}
-        ) WHERE i = (n - 1) / 2 OR i = n / 2`,
-  );
-  const sums = new Map<K, { total: number; count: number }>();
-  for (const { k, v } of rows) {
-    const entry = sums.get(k) ?? { total: 0, count: 0 };
-    entry.total += v;
-    entry.count += 1;
-    sums.set(k, entry);
-  }
-  return new Map([...sums].map(([k, { total, count }]) => [k, total / count]));
+export function sortedValues(db: Db, value: SQLWrapper, where: SQL): Float64Array {
+  const query = db.select({ v: sql<number>`${value}` }).from(attempts).where(where).toSQL();
+  return Float64Array.from(db.$client.prepare(query.sql).pluck(true).all(...query.params) as number[]).sort();
+}
+
+/** Written as shared/stats interpolates (lower + ½ · (upper − lower)), so both give the same last bit. */
+function midpoint(lower: number, upper: number): number {
+  return lower + 0.5 * (upper - lower);
+}
+
+/** Type-7 median of sorted values (Hyndman & Fan 1996; the definition of shared/stats `median`); null when empty. */
+export function medianOfSorted(sorted: Float64Array): number | null {
+  const n = sorted.length;
+  if (n === 0) return null;
+  return midpoint(sorted[Math.floor((n - 1) / 2)], sorted[Math.ceil((n - 1) / 2)]);
+}
+
+/** Sorted values of two sorted lists together. */
+export function sortedUnion(a: Float64Array, b: Float64Array): Float64Array {
+  const all = new Float64Array(a.length + b.length);
+  all.set(a);
+  all.set(b, a.length);
+  return all.sort();
 }
 
 export function medianOf(db: Db, value: SQLWrapper, where: SQL): number | null {
-  return mediansBy<number>(db, value, null, where).get(0) ?? null;
+  return medianOfSorted(sortedValues(db, value, where));
+}
+
+/**
+ * Median of `value` for each of many groups (instructors, quarters), type 7 as above. SQLite numbers each
+ * group's rows in value order and hands back only the one or two middle rows of each group. Both window
+ * functions share one window definition, so SQLite sorts once.
+ */
+export function mediansBy<K extends string | number>(db: Db, value: SQLWrapper, group: SQLWrapper, where: SQL): Map<K, number> {
+  const rows = db.all<{ k: K; v: number }>(
+    sql`SELECT k, v FROM (
+          SELECT ${group} AS k, ${value} AS v,
+                 row_number() OVER w - 1 AS i,
+                 count(*) OVER w AS n
+          FROM ${attempts} WHERE ${where}
+          WINDOW w AS (PARTITION BY ${group} ORDER BY ${value} ROWS BETWEEN UNBOUNDED PRECEDING AND UNBOUNDED FOLLOWING)
+        ) WHERE i = (n - 1) / 2 OR i = n / 2`,
+  );
+  const middles = new Map<K, { lower: number; upper: number }>();
+  for (const { k, v } of rows) {
+    const entry = middles.get(k);
+    middles.set(k, entry ? { lower: Math.min(entry.lower, v), upper: Math.max(entry.upper, v) } : { lower: v, upper: v });
+  }
+  return new Map([...middles].map(([k, { lower, upper }]) => [k, midpoint(lower, upper)]));
 }

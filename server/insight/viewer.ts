@@ -4,6 +4,7 @@
 import type { CurrentUser } from "../../shared/schemas/auth";
 import type { Db } from "../db/client";
 import { currentPolicy } from "../policy/service";
+import { cached } from "./cache";
 
 export interface Viewer {
   user: CurrentUser;
@@ -19,7 +20,7 @@ export function viewerOf(db: Db, user: CurrentUser): Viewer {
     user,
     seesEveryone: user.role === "coordinator" || user.role === "quality_lead",
     ownInstructorId: user.role === "instructor" ? user.instructorId : null,
-    suppressionMinCount: currentPolicy(db).policy.suppressionMinCount,
+    suppressionMinCount: cached(db, "suppressionMinCount", () => currentPolicy(db).policy.suppressionMinCount),
   };
 }
 

@@ -1,8 +1,9 @@
 // GET /api/insight/overview against the hand-worked fixture (tests/fixtures/insight/network.ts), its filters,
 // its validation and its suppression of small groups.
-import { count } from "drizzle-orm";
+import { count, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { overviewAnswerSchema, type OverviewAnswer } from "../../shared/schemas/insight";
+import { openDatabase } from "../../server/db/client";
 import { attempts } from "../../server/db/schema";
 import { resolveFilters } from "../../server/insight/filters";
 import { overview } from "../../server/insight/overview";
@@ -151,6 +152,23 @@ describe("overview of other periods", () => {
     const o = await get("/api/insight/overview?from=2025-Q4");
     expect(o.period).toMatchObject({ from: "2025-Q4", to: "2026-Q2" });
     expect(o.passRate).toMatchObject({ successes: 0 + 81 + 28, n: 20 + 263 + 44 });
+  });
+});
+
+describe("answers kept per state of the database", () => {
+  it("follows a write made through another connection, as a CLI import would", async () => {
+    const first = await get("/api/insight/overview?instructor=C1");
+    expect(first.passRate).toMatchObject({ successes: 0, n: 4 });
+    const other = openDatabase(t.db.$client.name);
+    try {
+      other.update(attempts).set({ passed: true, errorMask: 0 }).where(eq(attempts.id, "C1-2605-001")).run();
+      const after = await get("/api/insight/overview?instructor=C1");
+      expect(after.passRate).toMatchObject({ successes: 1, n: 4 });
+      other.update(attempts).set({ passed: false, errorMask: 16 }).where(eq(attempts.id, "C1-2605-001")).run();
+    } finally {
+      other.$client.close();
+    }
+    expect((await get("/api/insight/overview?instructor=C1")).passRate).toMatchObject({ successes: 0, n: 4 });
   });
 });
 
