@@ -248,6 +248,20 @@ export const attempts = sqliteTable(
     index("attempts_class_idx").on(t.classId),
     index("attempts_manikin_idx").on(t.manikinId, t.quarter),
     index("attempts_batch_idx").on(t.batchId),
+    // covers the network statistics (counts, results, error bits, scores by quarter and feedback mode), so a
+    // period is read from this index alone, in quarter and feedback order, without touching the table rows
+    index("attempts_insight_idx").on(
+      t.quarter,
+      t.feedback,
+      t.profile,
+      t.siteId,
+      t.instructorId,
+      t.manikinId,
+      t.passed,
+      t.instructorResult,
+      t.errorMask,
+      t.score,
+    ),
   ],
 );
 

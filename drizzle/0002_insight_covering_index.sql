@@ -1,0 +1,1 @@
+CREATE INDEX `attempts_insight_idx` ON `attempts` (`quarter`,`feedback`,`profile`,`site_id`,`instructor_id`,`manikin_id`,`passed`,`instructor_result`,`error_mask`,`score`);
