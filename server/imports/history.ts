@@ -4,6 +4,7 @@ import type { ImportBatch } from "../../shared/import/api";
 import type { ImportKind } from "../../shared/domain";
 import type { Db } from "../db/client";
 import { notFound } from "../errors";
+import { csvLine } from "./run";
 
 interface BatchRow {
   id: number;
@@ -121,8 +122,4 @@ export function* rejectedRowsCsv(db: Db, batchId: number): Generator<string> {
     yield csvLine([String(row.row_number ?? ""), row.column ?? "", row.reason, ...header.map((h) => raw[h] ?? "")]);
   }
   if (header === null) yield csvLine(["row", "column", "reason"]);
-}
-
-function csvLine(values: string[]): string {
-  return `${values.map((v) => (/[",\r\n]/.test(v) || /^\s|\s$/.test(v) ? `"${v.replace(/"/g, '""')}"` : v)).join(",")}\n`;
 }

@@ -114,11 +114,6 @@ export class RowStore {
     this.flat.length = 0;
   }
 
-  /** The stored row (values in column order), or undefined. */
-  existing(key: string): unknown[] | undefined {
-    return this.select.get(key) as unknown[] | undefined;
-  }
-
   write(values: unknown[]): WriteOutcome {
     const key = values[0] as string;
     const { write, batchId } = this.options;

@@ -136,7 +136,12 @@ export class ImportRun {
   }
 }
 
-export function csvField(value: string): string {
+/**
+ * One CSV field for the refused-rows downloads. A text starting like a spreadsheet formula (=, +, -, @) gets
+ * a leading apostrophe so opening the download cannot run it (OWASP "CSV injection"); numbers stay as they are.
+ */
+export function csvField(raw: string): string {
+  const value = /^[=+\-@\t\r]/.test(raw) && Number.isNaN(Number(raw)) ? `'${raw}` : raw;
   return /[",\r\n]/.test(value) || /^\s|\s$/.test(value) ? `"${value.replace(/"/g, '""')}"` : value;
 }
 
