@@ -148,6 +148,11 @@ function ReportForPeriod({ period, coordinator }: { period: string; coordinator:
           <Button variant="secondary" onClick={() => window.print()}>
             Print this page
           </Button>
+          {coordinator && (
+            <a href="#prepare-heading" className="text-small font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+              Go to your text, versions and sending
+            </a>
+          )}
         </div>
         {latest && (
           <div role="radiogroup" aria-label="Figures to show" className="flex flex-wrap items-center gap-x-4 gap-y-1 text-small">
@@ -187,7 +192,7 @@ function ReportForPeriod({ period, coordinator }: { period: string; coordinator:
       {coordinator && (
         <section data-print="hide" aria-labelledby="prepare-heading" className="mt-4 flex flex-col gap-8 border-t-4 border-dusk-200 pt-6">
           <div>
-            <h2 id="prepare-heading" className="text-headline">
+            <h2 id="prepare-heading" tabIndex={-1} className="text-headline outline-none">
               Prepare and send
             </h2>
             <p className="text-muted">Only coordinators see this part. Funders see the report above and download the latest version's PDF.</p>

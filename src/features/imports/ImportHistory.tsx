@@ -38,22 +38,39 @@ export function ImportHistory({ highlightBatch }: { highlightBatch?: number | nu
         key: "when",
         header: "When",
         value: (b) => b.createdAt,
-        render: (b) => (
-          <span>
-            {formatDateTime(b.createdAt)}
-            {b.id === highlightBatch && <span className="ml-2 rounded-full bg-marigold-100 px-2 text-caption font-semibold text-ink">just now</span>}
-          </span>
-        ),
+        render: (b) => formatDateTime(b.createdAt),
         sortLabels: { asc: "oldest first", desc: "newest first" },
       },
-      { key: "batch", header: "Batch", value: (b) => b.id, align: "right" },
-      { key: "who", header: "Who", value: (b) => who(b), render: (b) => <span title={`via ${sourceLabels[b.source]}`}>{who(b)}</span> },
-      { key: "file", header: "File", value: (b) => b.fileName, primary: true, render: (b) => <span className="font-medium">{b.fileName}</span> },
-      { key: "kind", header: "Kind", value: (b) => kindLabels[b.kind] },
-      { key: "read", header: "Rows read", value: (b) => b.rowsRead, render: (b) => formatCount(b.rowsRead), align: "right" },
-      { key: "inserted", header: "Added", value: (b) => b.inserted, render: (b) => formatCount(b.inserted), align: "right" },
-      { key: "updated", header: "Updated", value: (b) => b.updated, render: (b) => formatCount(b.updated), align: "right" },
-      { key: "unchanged", header: "Unchanged", value: (b) => b.unchanged, render: (b) => formatCount(b.unchanged), align: "right" },
+      { key: "who", header: "Who", value: (b) => who(b), render: (b) => <Who batch={b} />, wrap: true },
+      {
+        key: "file",
+        header: "File",
+        value: (b) => `${b.fileName} (batch ${b.id})`,
+        primary: true,
+        render: (b) => (
+          <span>
+            <span className="font-medium">{b.fileName}</span>
+            <span className="block text-caption text-muted">
+              batch {b.id} · {kindLabels[b.kind].toLowerCase()}
+              {b.id === highlightBatch && <span className="ml-1 rounded-full bg-marigold-100 px-1.5 font-semibold text-ink">just imported</span>}
+            </span>
+          </span>
+        ),
+      },
+      {
+        key: "counts",
+        header: "Rows",
+        value: (b) => `${b.rowsRead} read, ${b.inserted} added, ${b.updated} updated, ${b.unchanged} unchanged`,
+        sortable: false,
+        render: (b) => (
+          <span className="tabular-nums">
+            <span className="block">{formatCount(b.rowsRead)} read</span>
+            <span className="block text-caption text-muted">
+              {formatCount(b.inserted)} added · {formatCount(b.updated)} updated · {formatCount(b.unchanged)} unchanged
+            </span>
+          </span>
+        ),
+      },
       {
         key: "rejected",
         header: "Refused",
@@ -146,6 +163,20 @@ export function ImportHistory({ highlightBatch }: { highlightBatch?: number | nu
         }}
       />
     </section>
+  );
+}
+
+/** The importer's address, allowed to break before the "@" so the table stays narrow. */
+function Who({ batch }: { batch: ImportBatch }) {
+  const email = batch.userEmail;
+  if (!email || !email.includes("@")) return <span title={`via ${sourceLabels[batch.source]}`}>{who(batch)}</span>;
+  const at = email.indexOf("@");
+  return (
+    <span title={`${email}, via ${sourceLabels[batch.source]}`}>
+      {email.slice(0, at)}
+      <wbr />
+      <span className="text-muted">{email.slice(at)}</span>
+    </span>
   );
 }
 

@@ -2,8 +2,8 @@
 // words as the PDF); suppressed figures read "fewer than 5" or "not shown" exactly as the API gives them.
 import clsx from "clsx";
 import type { ReactNode } from "react";
-import type { ChangeVerdict, GroupResult, ReportData } from "../../../shared/schemas/report";
-import { FigureText, RateText, formatPoints, formatPointsSize, formatShare, formatWhole, rateWithInterval } from "./figures";
+import type { ChangeVerdict, GroupResult, HiddenReason, ReportData } from "../../../shared/schemas/report";
+import { FigureText, formatPoints, formatPointsSize, formatShare, formatWhole, hiddenReasons, rateWithInterval } from "./figures";
 import { MethodsBox } from "./MethodsBox";
 import { ReportTable } from "./ReportTable";
 import { TrendChart } from "./TrendChart";
@@ -55,6 +55,18 @@ const groupColumns = (first: string) => [
   { header: "Pass rate", cell: (g: GroupResult) => <FigureText figure={g.passRate} />, align: "right" as const },
   { header: "95 % interval", cell: (g: GroupResult) => (g.passRate.hidden ? "" : g.passRate.intervalText), align: "right" as const },
 ];
+
+/** Says what "fewer than 5" and "not shown" mean, under a table that has such figures. */
+function HiddenFiguresNote({ hidden }: { hidden: readonly (HiddenReason | null)[] }) {
+  const reasons = new Set(hidden.filter((h): h is HiddenReason => h !== null));
+  if (reasons.size === 0) return null;
+  return (
+    <ul className="text-caption text-muted">
+      {reasons.has("small") && <li>“fewer than 5”: {hiddenReasons.small}</li>}
+      {reasons.has("protects-other") && <li>“not shown”: {hiddenReasons["protects-other"]}</li>}
+    </ul>
+  );
+}
 
 function feedbackSentence(points: number, verdict: ChangeVerdict | null): string {
   if (Math.abs(points) < 0.05) return "The pass rate was the same with the display shown and hidden.";
@@ -150,7 +162,9 @@ export function ReportView({ data, source, actionsSlot }: ReportViewProps) {
                   <VerdictMark verdict={comparison.verdict} />
                   <span>
                     {comparison.text}
-                    {comparison.changePoints !== null && <span className="text-muted"> Change: {formatPoints(comparison.changePoints)}.</span>}
+                    {comparison.verdict === "about the same" && comparison.changePoints !== null && (
+                      <span className="text-muted"> ({formatPoints(comparison.changePoints)}, within what chance would give.)</span>
+                    )}
                   </span>
                 </li>
               ))}
@@ -182,6 +196,7 @@ export function ReportView({ data, source, actionsSlot }: ReportViewProps) {
                 { header: "Share of errors found", cell: (e) => (e.share === null ? "" : formatShare(e.share)), align: "right" },
               ]}
             />
+            <HiddenFiguresNote hidden={data.errors.rows.map((e) => e.count.hidden)} />
           </>
         )}
         <div className="flex flex-col gap-1 rounded-card border-l-4 border-marigold-500 bg-surface p-4 shadow-card print:shadow-none">
@@ -212,8 +227,16 @@ export function ReportView({ data, source, actionsSlot }: ReportViewProps) {
           <Stat label="Agreement beyond chance (Cohen's kappa)" note="0 = no better than chance, 1 = full agreement">
             <span className="tabular-nums">{data.agreement.kappaText || "–"}</span>
           </Stat>
-          <Stat label="Learners recorded as completing" note={<>objective pass rate: {rateWithInterval(data.agreement.objectivePassRate)}</>}>
-            <RateText rate={data.agreement.completionRate} />
+          <Stat
+            label="Learners the instructors recorded as completing"
+            note={
+              <>
+                {data.agreement.completionRate.intervalText && <>95 % interval {data.agreement.completionRate.intervalText}. </>}
+                Measured pass rate: {rateWithInterval(data.agreement.objectivePassRate)}.
+              </>
+            }
+          >
+            <FigureText figure={data.agreement.completionRate} />
           </Stat>
         </dl>
       </Section>

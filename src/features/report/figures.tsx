@@ -5,15 +5,15 @@ import clsx from "clsx";
 import type { CountFigure, HiddenReason, PerHundredFigure, RateFigure } from "../../../shared/schemas/report";
 
 export const hiddenReasons: Record<HiddenReason, string> = {
-  small: "Hidden to protect the people behind it: it comes from fewer than the smallest group the report shows.",
-  "protects-other": "Hidden so that a total shown elsewhere cannot give away a small figure.",
+  small: "hidden because it comes from too few people or events to show without risk of identifying someone.",
+  "protects-other": "hidden so that a total shown elsewhere cannot give away a small figure.",
 };
 
 /** A count, per-100 figure or rate's text; hidden ones are muted and say why on hover and to screen readers. */
 export function FigureText({ figure, className }: { figure: CountFigure | PerHundredFigure | RateFigure; className?: string }) {
   if (!figure.hidden) return <span className={clsx("tabular-nums", className)}>{figure.text}</span>;
   return (
-    <span className={clsx("text-muted italic", className)} title={hiddenReasons[figure.hidden]}>
+    <span className={clsx("text-muted italic", className)} title={`This figure is ${hiddenReasons[figure.hidden]}`}>
       {figure.text}
     </span>
   );
@@ -23,16 +23,6 @@ export function FigureText({ figure, className }: { figure: CountFigure | PerHun
 export function rateWithInterval(rate: RateFigure): string {
   if (rate.hidden || !rate.intervalText) return rate.text;
   return `${rate.text} (95 % interval ${rate.intervalText})`;
-}
-
-export function RateText({ rate }: { rate: RateFigure }) {
-  if (rate.hidden) return <FigureText figure={rate} />;
-  return (
-    <span className="tabular-nums">
-      <span className="font-semibold">{rate.text}</span>
-      {rate.intervalText && <span className="text-muted"> (95 % interval {rate.intervalText})</span>}
-    </span>
-  );
 }
 
 const percentFormat = new Intl.NumberFormat("en-GB", { maximumFractionDigits: 1, minimumFractionDigits: 1 });
