@@ -267,11 +267,12 @@ describe("equipment logs", () => {
 
   it("requires a patient type on commissioning and refuses a repeated event", async () => {
     const { db } = await freshDb();
-    const s = await load(db, "equipment", "date,manikin,site,event,quantity,patient_type,note\n2026-06-01,MK-5,NORTH,commissioned,,,\n2026-06-02,MK-5,NORTH,serviced,,,\n2026-06-02,MK-5,NORTH,serviced,,,\n2026-06-03,MK-5,NORTH,exploded,,,\n");
+    const s = await load(db, "equipment", "equipment-bad.csv");
     expect(s.issues).toEqual([
       { row: 1, column: "patient_type", reason: "is required when the event is commissioned (infant, child or adult)" },
       { row: 3, column: null, reason: "the same event as row 2; give one row with a quantity instead of repeating it" },
       { row: 4, column: "event", reason: `"exploded" is not allowed; use one of commissioned, lung_replaced, mouthpiece_cleaned, battery_replaced, serviced, fault, retired` },
+      { row: 5, column: "quantity", reason: "must be a whole number from 1 to 10000; got 0" },
     ]);
   });
 });

@@ -1,12 +1,14 @@
 // Compression streams: the packed codec, grouping rows in any order (in memory and spilled), and the import
 // of streams as attempts with their metrics checked by hand.
+import fs from "node:fs";
 import { describe, expect, it } from "vitest";
+import { importMappingSchema } from "../../../shared/import/mapping";
 import Database from "better-sqlite3";
 import { analyzeStream } from "../../../shared/scoring/analyzeStream";
 import { DEFAULT_POLICY } from "../../../shared/scoring/policy";
 import { decodeStream, encodeStream, StreamCodecError, tenthsToMm } from "../../../server/streams/codec";
 import { StreamGrouper } from "../../../server/streams/grouper";
-import { count, freshDb, load, STREAM_HEADER } from "./helpers";
+import { count, fixture, freshDb, load, STREAM_HEADER } from "./helpers";
 
 describe("stream codec", () => {
   it("round-trips a stream with short steps in 6 bytes a compression", () => {
@@ -136,16 +138,7 @@ describe("importing compression streams", () => {
   it("refuses an attempt whose rows disagree on a shared column, or that has two compressions at one time", async () => {
     const { db } = await freshDb();
     await load(db, "classes", "classes-valid.csv");
-    const csv = [
-      STREAM_HEADER,
-      "D-1,C-001,L-1,MK-1,adult,live,2026-07-14T10:00:00Z,,0,55,0",
-      "D-1,C-001,L-1,MK-1,adult,hidden,2026-07-14T10:00:00Z,,500,55,0",
-      "D-2,C-001,L-2,MK-1,adult,live,2026-07-14T10:00:00Z,,0,55,0",
-      "D-2,C-001,L-2,MK-1,adult,live,2026-07-14T10:00:00Z,,500,55,0",
-      "D-2,C-001,L-2,MK-1,adult,live,2026-07-14T10:00:00Z,,500,56,0",
-      "D-3,C-001,L-3,MK-1,adult,live,2026-07-14T10:00:00Z,,0,55,0",
-      "D-3,C-001,L-3,MK-1,adult,live,2026-07-14T10:00:00Z,,0.5,101,0",
-    ].join("\n");
+    const csv = fs.readFileSync(fixture("compressions-bad.csv"), "utf8").trimEnd();
     const s = await load(db, "compressions", csv);
     expect(s.status).toBe("refused");
     expect(s.issues).toEqual([
@@ -163,19 +156,15 @@ describe("importing compression streams", () => {
     expect(db.$client.prepare("SELECT id FROM attempts").pluck().all()).toEqual(["D-4"]);
   });
 
-  it("converts seconds and centimetres through a mapping", async () => {
+  it("converts seconds and centimetres through a mapping (an invented device's export)", async () => {
     const { db } = await freshDb();
     await load(db, "classes", "classes-valid.csv");
-    const csv = "Run,Class,Trainee,Unit,Patient,Mode,Begin,Verdict,Time (s),Depth (cm),Residual (cm)\nM-1,C-001,L-9,MK-1,adult,live,2026-07-14T10:00:00Z,,0,5.5,0\nM-1,C-001,L-9,MK-1,adult,live,2026-07-14T10:00:00Z,,0.52,5.52,0.1\n";
-    const mapping = {
-      columns: { attempt_id: "Run", class_id: "Class", learner: "Trainee", manikin: "Unit", profile: "Patient", feedback: "Mode", started_at: "Begin", instructor_result: "Verdict", t_ms: "Time (s)", depth_mm: "Depth (cm)", release_mm: "Residual (cm)" },
-      units: { depth: "cm" as const, time: "s" as const, shares: "percent" as const },
-      values: {},
-    };
-    expect((await load(db, "compressions", csv, { mapping })).status).toBe("imported");
+    const mapping = importMappingSchema.parse(JSON.parse(fs.readFileSync(fixture("device-x7.map.json"), "utf8")));
+    expect((await load(db, "compressions", "compressions-device-x7.csv", { mapping })).status).toBe("imported");
     const stream = decodeStream(db.$client.prepare("SELECT data FROM compression_streams WHERE attempt_id = 'M-1'").pluck().get() as Buffer);
-    expect(Array.from(stream.tMs)).toEqual([0, 520]);
-    expect(Array.from(stream.depthTenths)).toEqual([550, 552]);
-    expect(Array.from(stream.releaseTenths)).toEqual([0, 10]);
+    expect(Array.from(stream.tMs)).toEqual([0, 520]); // 0.52 s
+    expect(Array.from(stream.depthTenths)).toEqual([550, 552]); // 5.5 cm, 5.52 cm
+    expect(Array.from(stream.releaseTenths)).toEqual([0, 10]); // 0.1 cm
+    expect(db.$client.prepare("SELECT feedback FROM attempts WHERE id = 'M-1'").pluck().get()).toBe("live");
   });
 });
