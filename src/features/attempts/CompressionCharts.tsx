@@ -2,7 +2,7 @@
 // shape), rate from each interval (100–120 band by default), recoil (release depth against the tolerance), and
 // pauses as shaded spans with their length. Each chart has its table; the time axes line up.
 import * as Plot from "@observablehq/plot";
-import { useCallback, useMemo } from "react";
+import { useCallback, useId, useMemo } from "react";
 import type { Band } from "../../../shared/scoring/policy";
 import { formatLength, fromMm, type LengthUnit } from "../../../shared/units";
 import { Chart, type ChartSize } from "../../components/Chart";
@@ -81,6 +81,7 @@ const pauseMark = <span className="inline-block h-3 w-5 bg-[#E4E1EC]" aria-hidde
 
 export function CompressionCharts({ series, band, unit, pauseThresholdS, longPauseLimitS, pauseNote }: CompressionChartsProps) {
   const { points, pauses, counts } = series;
+  const pausesHeadingId = useId();
   const n = points.length;
   const len = useCallback((mm: number) => formatLength(mm, unit), [unit]);
   const rated = useMemo(() => points.filter((p) => p.rate !== null), [points]);
@@ -282,8 +283,8 @@ export function CompressionCharts({ series, band, unit, pauseThresholdS, longPau
           />
         }
       />
-      <section aria-labelledby="pauses-heading" className="flex flex-col gap-2 rounded-card border border-line bg-surface p-4 shadow-card">
-        <h3 id="pauses-heading" className="text-lead font-semibold">
+      <section aria-labelledby={pausesHeadingId} className="flex flex-col gap-2 rounded-card border border-line bg-surface p-4 shadow-card">
+        <h3 id={pausesHeadingId} className="text-lead font-semibold">
           Pauses
         </h3>
         <p className="text-small text-muted">

@@ -80,9 +80,12 @@ export function BreakdownPanel({ dimension, rows, nameOf, attemptsHref, errorLab
         const href = attemptsHref(row);
         if (!href || row.count === 0) return <span className="text-small text-muted">{row.count === 0 ? "None with the error" : "Group not recorded"}</span>;
         return (
-          <Link to={href} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+          <Link
+            to={href}
+            aria-label={`${row.count} attempt${row.count === 1 ? "" : "s"} with this error, ${dimension} ${row.name}`}
+            className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900"
+          >
             {row.count} attempt{row.count === 1 ? "" : "s"}
-            <span className="sr-only"> with this error, {dimension} {row.name}</span>
           </Link>
         );
       },

@@ -71,8 +71,8 @@ export function ParetoChart({ rows, attempts, examineHref, selected }: ParetoCha
         row.error === selected ? (
           <span className="text-small font-semibold text-muted">Shown below</span>
         ) : (
-          <Link to={examineHref(row)} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
-            Trend and breakdown<span className="sr-only"> of “{row.label}”</span>
+          <Link to={examineHref(row)} aria-label={`Trend and breakdown of “${row.label}”`} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+            Trend and breakdown
           </Link>
         ),
     },
