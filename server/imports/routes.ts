@@ -65,8 +65,14 @@ export function importRoutes(db: Db, options: ImportRouteOptions = {}): Router {
   const maxMb = Math.round((options.maxUploadBytes ?? MAX_UPLOAD_BYTES) / 1024 / 1024);
   const receiveFile: RequestHandler = (req, res, next) =>
     upload.single("file")(req, res, (err?: unknown) => {
-      if ((err as { code?: string } | undefined)?.code !== "LIMIT_FILE_SIZE") return next(err);
-      next(new AppError("too_large", 413, `The file is larger than ${maxMb} MB, the most a web upload may be. Split it into smaller files, or import it with the command line (quarterbeat import).`));
+      if (!err || err instanceof AppError) return next(err);
+      if (err instanceof multer.MulterError && err.code === "LIMIT_FILE_SIZE") {
+        return next(new AppError("too_large", 413, `The file is larger than ${maxMb} MB, the most a web upload may be. Split it into smaller files, or import it with the command line (quarterbeat import).`));
+      }
+      // a form the client got wrong (extra files or fields, cut off, no boundary) is a 400, not a server fault
+      if (err instanceof multer.MulterError) return next(badRequest(`The upload form was not as expected (${err.message.toLowerCase()}): send one CSV file in the field named file, and the kind.`));
+      if (err instanceof Error && !("syscall" in err)) return next(badRequest("The upload could not be read: the form was cut off or is not a multipart form. Try again."));
+      next(err);
     });
 
   router.get("/imports/formats", (_req, res) => {
