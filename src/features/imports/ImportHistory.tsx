@@ -253,7 +253,15 @@ function RejectedRowsPanel({ batch, onClose }: { batch: ImportBatch; onClose: ()
               Showing the first {formatCount(rows.length)} of {formatCount(detail.data.rejectedTotal)}; the CSV holds them all.
             </p>
           )}
-          <DataTable caption={`Refused rows of batch ${batch.id}`} captionHidden columns={columns} rows={rows} rowKey={(r) => r.key} emptyMessage="This batch refused no rows." />
+          <DataTable
+            caption={`Refused rows of batch ${batch.id}`}
+            captionHidden
+            columns={columns}
+            rows={rows}
+            rowKey={(r) => r.key}
+            filterable={rows.length > 10}
+            emptyMessage="This batch refused no rows."
+          />
         </>
       )}
     </section>

@@ -21,8 +21,7 @@ export function NotesEditor({ period }: { period: string }) {
 
   useEffect(() => {
     if (notes.data !== undefined) setText(notes.data);
-    setMessage(null);
-  }, [notes.data, period]);
+  }, [notes.data]);
 
   const save = useMutation({
     mutationFn: (actions: string) => saveNotes(period, actions),
