@@ -83,7 +83,7 @@ export function InstructorContent({ answer, network }: { answer: InstructorDetai
   const quarter = quarterLabel(answer.period.from);
   return (
     <div className="flex flex-col gap-6">
-      <div className="grid gap-4 xl:grid-cols-2">
+      <div className="grid grid-cols-1 gap-4 xl:grid-cols-2">
         <PassRateTrendChart rows={rows} who={instructor.code} />
         <MedianScoreTrendChart rows={rows} who={instructor.code} />
       </div>

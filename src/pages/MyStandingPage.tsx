@@ -72,7 +72,7 @@ export function StandingContent({ answer }: { answer: StandingAnswer }) {
             The network's figures are hidden for these filters: <Suppressed minCount={min} />. Widen the filters to compare.
           </p>
         ) : (
-          <div className="grid gap-4 xl:grid-cols-2">
+          <div className="grid grid-cols-1 gap-4 xl:grid-cols-2">
             <SpreadChart points={answer.spread.points} minAttempts={answer.spread.minAttempts} instructorsLeftOut={answer.spread.instructorsLeftOut} />
             <div className="flex flex-col gap-2">
               <FunnelChart

@@ -79,7 +79,7 @@ export function OverviewContent({ answer }: { answer: OverviewAnswer }) {
         <h2 id="errors-heading" className="text-title">
           Errors and feedback
         </h2>
-        <div className="grid gap-4 xl:grid-cols-2">
+        <div className="grid grid-cols-1 gap-4 xl:grid-cols-2">
           {answer.errors.suppressed ? (
             <p className="rounded-card border border-line bg-surface p-4">
               Errors are hidden: <Suppressed minCount={min} />.

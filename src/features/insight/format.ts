@@ -9,35 +9,49 @@ import type { PatientType } from "../../../shared/scoring/policy";
 
 export type FunnelPosition = z.infer<typeof funnelPositionSchema>;
 
+/**
+ * Rounds half away from zero at `decimals`, as people round by hand (51.85 → 51.9). toFixed alone would
+ * round the binary value, which is often a hair below the half (51.8499…).
+ */
+export function roundHalf(value: number, decimals: number): number {
+  const factor = 10 ** decimals;
+  const scaled = Number((Math.abs(value) * factor).toPrecision(12));
+  return (Math.sign(value) * Math.round(scaled)) / factor;
+}
+
+export function formatFixed(value: number, decimals: number): string {
+  return roundHalf(value, decimals).toFixed(decimals);
+}
+
 /** A share 0–1 as a percentage with one decimal: 0.2953 → "29.5 %"; missing → "–". */
 export function formatPercent(share: number | null | undefined): string {
   if (share === null || share === undefined || !Number.isFinite(share)) return "–";
-  return `${(share * 100).toFixed(1)} %`;
+  return `${formatFixed(share * 100, 1)} %`;
 }
 
 /** A percentage that is already 0–100 (metrics such as depth_ok_pct): 80 → "80.0 %". */
 export function formatPct(value: number | null | undefined): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return "–";
-  return `${value.toFixed(1)} %`;
+  return `${formatFixed(value, 1)} %`;
 }
 
 /** The share as a number of percent with one decimal, for sorting and CSV: 0.29534 → 29.5. */
 export function percentValue(share: number | null | undefined): number | null {
   if (share === null || share === undefined || !Number.isFinite(share)) return null;
-  return Math.round(share * 1000) / 10;
+  return roundHalf(share * 100, 1);
 }
 
 /** "27.1–31.9 %"; missing → "–". */
 export function formatInterval(low: number | null | undefined, high: number | null | undefined): string {
   if (low === null || low === undefined || high === null || high === undefined) return "–";
-  return `${(low * 100).toFixed(1)}–${(high * 100).toFixed(1)} %`;
+  return `${formatFixed(low * 100, 1)}–${formatFixed(high * 100, 1)} %`;
 }
 
 /** A difference of two shares in percentage points: 0.0399 → "+4.0 points", -0.012 → "−1.2 points". */
 export function formatPoints(difference: number | null | undefined): string {
   if (difference === null || difference === undefined || !Number.isFinite(difference)) return "–";
   const points = difference * 100;
-  const text = Math.abs(points).toFixed(1);
+  const text = formatFixed(Math.abs(points), 1);
   if (text === "0.0") return "0.0 points";
   return `${points > 0 ? "+" : "−"}${text} points`;
 }
@@ -45,13 +59,12 @@ export function formatPoints(difference: number | null | undefined): string {
 /** Scores run 0–100; one decimal is finer than any difference worth acting on. */
 export function formatScore(score: number | null | undefined): string {
   if (score === null || score === undefined || !Number.isFinite(score)) return "–";
-  return score.toFixed(1);
+  return formatFixed(score, 1);
 }
 
 export function roundTo(value: number | null | undefined, decimals: number): number | null {
   if (value === null || value === undefined || !Number.isFinite(value)) return null;
-  const factor = 10 ** decimals;
-  return Math.round(value * factor) / factor;
+  return roundHalf(value, decimals);
 }
 
 export function formatCount(value: number | null | undefined): string {

@@ -43,7 +43,7 @@ export function FeedbackComparisonChart({ groups, minCount }: { groups: readonly
   const plot = useCallback(
     (rows: readonly FeedbackGroup[], size: ChartSize) =>
       intervalBarsPlot(
-        rows.map((g) => ({ label: feedbackWords[g.mode], rate: g.passRate.rate, low: g.passRate.low, high: g.passRate.high, fill: g.mode === "live" ? ink.main : ink.soft })),
+        rows.map((g) => ({ label: feedbackWords[g.mode], shortLabel: g.mode === "live" ? "Live" : "Hidden", rate: g.passRate.rate, low: g.passRate.low, high: g.passRate.high, fill: g.mode === "live" ? ink.main : ink.soft })),
         size,
         120,
       ),

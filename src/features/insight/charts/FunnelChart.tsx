@@ -107,7 +107,7 @@ export function FunnelChart({ title, units, curve, networkRate, subject, unitHea
       return {
         height: width < 500 ? 280 : 360,
         marginLeft: 48,
-        marginRight: 24,
+        marginRight: 44,
         marginTop: 20,
         x: { domain: [0, Math.ceil(nMax * 1.08)], label: "Attempts", grid: true, ticks: width < 420 ? 4 : 8 },
         y: { domain: [0, 1], tickFormat: percentTick, label: "Measured pass rate", grid: true },

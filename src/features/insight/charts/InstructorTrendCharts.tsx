@@ -17,7 +17,7 @@ export interface TrendRow {
   network: number | null;
 }
 
-const quarterTick = (width: number) => (q: string) => (width < 500 ? q.slice(2).replace("-", " ") : quarterLabel(q));
+const quarterTick = (width: number) => (q: string) => (width < 560 ? `${q.slice(5)}\n${q.slice(0, 4)}` : quarterLabel(q));
 
 export function describeTrend(rows: readonly TrendRow[], who: string): string {
   const withData = rows.filter((r) => r.passRate.rate !== null);
@@ -50,6 +50,7 @@ export function PassRateTrendChart({ rows, who }: { rows: readonly TrendRow[]; w
       marginLeft: 48,
       marginRight: 16,
       marginTop: 20,
+      marginBottom: width < 560 ? 40 : 30,
       x: { type: "point", domain: data.map((r) => r.quarter), tickFormat: quarterTick(width), label: null, padding: 0.4 },
       y: { domain: [0, top], tickFormat: percentTick, label: "Measured pass rate", grid: true },
       marks: [
@@ -105,6 +106,7 @@ export function MedianScoreTrendChart({ rows, who }: { rows: readonly TrendRow[]
       marginLeft: 48,
       marginRight: 16,
       marginTop: 20,
+      marginBottom: width < 560 ? 40 : 30,
       x: { type: "point", domain: data.map((r) => r.quarter), tickFormat: quarterTick(width), label: null, padding: 0.4 },
       y: { domain: [low, 100], label: "Median score", grid: true },
       marks: [

@@ -74,7 +74,8 @@ export function PassRateControlChart({ series, minCount, title = "Measured pass 
         marginLeft: 48,
         marginRight: width < 500 ? 12 : 72,
         marginTop: 24,
-        x: { type: "point", domain: points.map((p) => p.quarter), tickFormat: (q: string) => (width < 500 ? q.slice(2).replace("-", " ") : quarterLabel(q)), label: null, padding: 0.4 },
+        marginBottom: width < 500 ? 40 : 30,
+        x: { type: "point", domain: points.map((p) => p.quarter), tickFormat: (q: string) => (width < 500 ? `${q.slice(5)}\n${q.slice(0, 4)}` : quarterLabel(q)), label: null, padding: 0.4 },
         y: { domain: [0, top], tickFormat: percentTick, label: "Measured pass rate", grid: true },
         marks: [
           centre === null ? null : Plot.ruleY([centre], { stroke: ink.main, strokeWidth: 1.5 }),
@@ -99,8 +100,9 @@ export function PassRateControlChart({ series, minCount, title = "Measured pass 
             strokeWidth: 1.5,
             title: (p: SeriesPoint) => `${quarterLabel(p.quarter)}: ${formatPercent(p.rate)}, outside the control limits`,
           }),
-          Plot.text(outside.filter((p) => side(p) === "above"), { x: "quarter", y: "rate", text: () => "above", dy: -15, fill: ink.text, fontWeight: 600 }),
-          Plot.text(outside.filter((p) => side(p) === "below"), { x: "quarter", y: "rate", text: () => "below", dy: 17, fill: ink.text, fontWeight: 600 }),
+          // on narrow screens the diamonds alone mark these quarters (the words would overlap)
+          width < 500 ? null : Plot.text(outside.filter((p) => side(p) === "above"), { x: "quarter", y: "rate", text: () => "above", dy: -15, fill: ink.text, fontWeight: 600 }),
+          width < 500 ? null : Plot.text(outside.filter((p) => side(p) === "below"), { x: "quarter", y: "rate", text: () => "below", dy: 17, fill: ink.text, fontWeight: 600 }),
         ],
       };
     },

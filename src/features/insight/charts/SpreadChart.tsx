@@ -21,7 +21,8 @@ export function describeSpread(points: readonly SpreadPoint[], minAttempts: numb
   if (others.length === 0) return `Your median score is ${formatScore(me.medianScore)} and your pass rate ${formatPercent(me.passRate)}. No other instructor has ${minAttempts} or more attempts to compare with.`;
   const lowerScore = others.filter((p) => p.medianScore < me.medianScore).length;
   const lowerRate = others.filter((p) => p.passRate < me.passRate).length;
-  return `Each point is one instructor with at least ${minAttempts} attempts (${others.length} others, shown without names). You are the star: median score ${formatScore(me.medianScore)}, pass rate ${formatPercent(me.passRate)}. Your median score is above ${lowerScore} of the ${others.length} others, and your pass rate above ${lowerRate}.`;
+  const of = (count: number) => (count === others.length ? `all ${others.length} others` : `${count} of the ${others.length} others`);
+  return `Each point is one instructor with at least ${minAttempts} attempts (${others.length} others, shown without names). You are the star: median score ${formatScore(me.medianScore)}, pass rate ${formatPercent(me.passRate)}. Your median score is above ${of(lowerScore)}; your pass rate is above ${of(lowerRate)}.`;
 }
 
 const columns: Column<Row>[] = [

@@ -7,6 +7,8 @@ import { formatPercent } from "../format";
 
 export interface IntervalBar {
   label: string;
+  /** Used instead of the label on narrow screens. */
+  shortLabel?: string;
   rate: number | null;
   low: number | null;
   high: number | null;
@@ -14,13 +16,15 @@ export interface IntervalBar {
 }
 
 export function intervalBarsPlot(bars: readonly IntervalBar[], { width }: ChartSize, marginLeft = 150): Plot.PlotOptions {
-  const shown = bars.filter((b) => b.rate !== null);
+  const narrow = width < 420;
+  const named = bars.map((b) => ({ ...b, label: narrow && b.shortLabel ? b.shortLabel : b.label }));
+  const shown = named.filter((b) => b.rate !== null);
   return {
     height: bars.length * 56 + 50,
-    marginLeft: width < 420 ? Math.min(marginLeft, 110) : marginLeft,
+    marginLeft: narrow ? Math.min(marginLeft, 96) : marginLeft,
     marginRight: 20,
     x: { domain: [0, 1], tickFormat: percentTick, label: null, grid: true, ticks: width < 700 ? 5 : 10 },
-    y: { domain: bars.map((b) => b.label), label: null, padding: 0.35 },
+    y: { domain: named.map((b) => b.label), label: null, padding: 0.35 },
     marks: [
       Plot.barX(shown, { x: "rate", y: "label", fill: (b: IntervalBar) => b.fill ?? ink.main }),
       Plot.link(shown, { x1: "low", x2: "high", y1: "label", y2: "label", stroke: ink.text, strokeWidth: 1.5 }),

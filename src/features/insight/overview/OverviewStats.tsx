@@ -2,7 +2,7 @@
 // the volume behind them. Hidden groups say "fewer than N attempts" instead of a number.
 import type { OverviewAnswer } from "../../../../shared/schemas/insight";
 import { StatCard, type StatChange } from "../../../components/StatCard";
-import { formatCount, formatInterval, formatPercent, formatPoints, formatScore, kappaWords, quarterLabel } from "../format";
+import { formatCount, formatFixed, formatInterval, formatPercent, formatPoints, formatScore, kappaWords, quarterLabel } from "../format";
 import { Suppressed } from "../Suppressed";
 
 type Rate = OverviewAnswer["passRate"];
@@ -34,7 +34,7 @@ export function OverviewStats({ answer }: { answer: OverviewAnswer }) {
 
   return (
     <div className="flex flex-col gap-4">
-      <div className="grid gap-4 sm:grid-cols-2 xl:grid-cols-3">
+      <div className="grid grid-cols-1 gap-4 sm:grid-cols-2 xl:grid-cols-3">
         <StatCard
           label="Measured pass rate"
           value={passRate.suppressed ? hidden : formatPercent(passRate.rate)}
@@ -59,7 +59,7 @@ export function OverviewStats({ answer }: { answer: OverviewAnswer }) {
         />
         <StatCard
           label="Agreement, instructor and measurement (kappa)"
-          value={agreement.suppressed ? hidden : agreement.kappa === null ? "–" : agreement.kappa.toFixed(2)}
+          value={agreement.suppressed ? hidden : agreement.kappa === null ? "–" : formatFixed(agreement.kappa, 2)}
           footnote={
             agreement.suppressed
               ? undefined

@@ -65,7 +65,7 @@ export function RecordedVsMeasured({ answer }: { answer: OverviewAnswer }) {
   const plot = useCallback(
     (data: readonly MeasureRow[], size: ChartSize) =>
       intervalBarsPlot(
-        data.map((r) => ({ label: r.key === "recorded" ? "Recorded completion" : "Measured pass rate", rate: r.rate.rate, low: r.rate.low, high: r.rate.high, fill: r.key === "recorded" ? ink.soft : ink.main })),
+        data.map((r) => ({ label: r.key === "recorded" ? "Recorded completion" : "Measured pass rate", shortLabel: r.key === "recorded" ? "Recorded" : "Measured", rate: r.rate.rate, low: r.rate.low, high: r.rate.high, fill: r.key === "recorded" ? ink.soft : ink.main })),
         size,
         150,
       ),
@@ -95,7 +95,7 @@ export function RecordedVsMeasured({ answer }: { answer: OverviewAnswer }) {
           Completions count learners in the class logs; passes count manikin attempts, and a learner may make several.
         </p>
       </div>
-      <div className="grid gap-4 2xl:grid-cols-2">
+      <div className="grid grid-cols-1 gap-4 2xl:grid-cols-2">
         <Chart
           title="Recorded completion and measured pass rate"
           description={`${sentence ?? "Not enough attempts to compare."} The whiskers are the 95 % intervals: the range the true rate is likely to lie in, given how many were counted.`}

@@ -1,6 +1,6 @@
 // My medians beside the network's, with my percentile among instructors, one card per measure.
 import type { StandingAnswer } from "../../../../shared/schemas/insight";
-import { formatPct, formatScore } from "../format";
+import { formatFixed, formatPct, formatScore } from "../format";
 import { Suppressed } from "../Suppressed";
 
 type Metric = StandingAnswer["metrics"][number];
@@ -34,7 +34,7 @@ export function StandingMetrics({ answer }: { answer: StandingAnswer }) {
   const instructors = answer.spread.points.length;
   const networkHidden = answer.errorProfile.networkSuppressed;
   return (
-    <ul className="grid gap-4 sm:grid-cols-2 xl:grid-cols-5" aria-label="Your medians beside the network's">
+    <ul className="grid grid-cols-1 gap-4 sm:grid-cols-2 xl:grid-cols-5" aria-label="Your medians beside the network's">
       {answer.metrics.map((metric) => {
         const words = metricWords[metric.key];
         const mine = metric.mine;
@@ -53,7 +53,7 @@ export function StandingMetrics({ answer }: { answer: StandingAnswer }) {
                 <span className="text-muted">
                   {" "}
                   ({diff > 0 ? "you +" : "you −"}
-                  {metric.key === "score" ? Math.abs(diff).toFixed(1) : `${Math.abs(diff).toFixed(1)} points`})
+                  {metric.key === "score" ? formatFixed(Math.abs(diff), 1) : `${formatFixed(Math.abs(diff), 1)} points`})
                 </span>
               )}
             </p>
