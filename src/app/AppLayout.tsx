@@ -9,7 +9,8 @@ import { Logo } from "../components/Logo";
 import { useSignOut } from "../features/auth/mutations";
 import { useCurrentUser } from "../features/auth/useSession";
 import { RequireSession } from "./RouteGuard";
-import { navGroups, routesFor } from "./routes";
+import { useRouteTable } from "./RouteTable";
+import { navGroups } from "./routes";
 
 export function AppLayout() {
   return (
@@ -112,6 +113,7 @@ function SignedInLayout() {
 
 function MainNav() {
   const user = useCurrentUser();
+  const { routesFor } = useRouteTable();
   const routes = routesFor(user.role).filter((route) => route.nav !== false);
   return (
     <div className="flex flex-col gap-5">

@@ -1,5 +1,5 @@
 // Builds the router from the route table. Tests call buildRoutes() with a memory router.
-import { Navigate, type RouteObject } from "react-router";
+import { Navigate, Outlet, type RouteObject } from "react-router";
 import { PageHeader } from "../components/PageHeader";
 import { LoadingState } from "../components/States";
 import { useSession } from "../features/auth/useSession";
@@ -7,10 +7,12 @@ import SignInPage from "../pages/SignInPage";
 import { AppLayout } from "./AppLayout";
 import { RouteErrorPage } from "./RouteErrorPage";
 import { RouteGuard, useDocumentTitle } from "./RouteGuard";
-import { appRoutes, homePathFor, type AppRoute } from "./routes";
+import { RouteTableProvider, useRouteTable } from "./RouteTable";
+import { appRoutes, type AppRoute } from "./routes";
 
 function HomeRedirect() {
   const session = useSession();
+  const { homePathFor } = useRouteTable();
   if (!session.data) return <LoadingState />;
   return <Navigate to={homePathFor(session.data.user.role)} replace />;
 }
@@ -26,15 +28,25 @@ function NotFoundPage() {
 
 export function buildRoutes(routes: readonly AppRoute[] = appRoutes): RouteObject[] {
   return [
-    { path: "/sign-in", element: <SignInPage />, errorElement: <RouteErrorPage /> },
     {
-      path: "/",
-      element: <AppLayout />,
+      element: (
+        <RouteTableProvider routes={routes}>
+          <Outlet />
+        </RouteTableProvider>
+      ),
       errorElement: <RouteErrorPage />,
       children: [
-        { index: true, element: <HomeRedirect /> },
-        ...routes.map((route) => ({ path: route.path, element: <RouteGuard route={route} /> })),
-        { path: "*", element: <NotFoundPage /> },
+        { path: "/sign-in", element: <SignInPage /> },
+        {
+          path: "/",
+          element: <AppLayout />,
+          errorElement: <RouteErrorPage />,
+          children: [
+            { index: true, element: <HomeRedirect /> },
+            ...routes.map((route) => ({ path: route.path, element: <RouteGuard route={route} /> })),
+            { path: "*", element: <NotFoundPage /> },
+          ],
+        },
       ],
     },
   ];

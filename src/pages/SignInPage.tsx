@@ -4,7 +4,7 @@ import { signInSchema } from "../../shared/schemas/auth";
 import { ApiError } from "../api/http";
 import { SkipLink } from "../app/AppLayout";
 import { useDocumentTitle } from "../app/RouteGuard";
-import { homePathFor } from "../app/routes";
+import { useRouteTable } from "../app/RouteTable";
 import { Button } from "../components/Button";
 import { Input } from "../components/Field";
 import { Logo } from "../components/Logo";
@@ -34,6 +34,7 @@ export default function SignInPage() {
   const form = useZodForm(signInSchema, { email: "", password: "" });
   const [problem, setProblem] = useState<{ tone: "error"; text: string } | null>(null);
   const next = safeNextPath(params.get("next"));
+  const { homePathFor } = useRouteTable();
 
   if (session.isPending) return <LoadingState label="Checking your session…" />;
   if (session.data && !signIn.isPending && !signIn.isSuccess) {

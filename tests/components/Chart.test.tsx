@@ -1,8 +1,11 @@
 import * as Plot from "@observablehq/plot";
 import { cleanup, fireEvent, render, screen, within } from "@testing-library/react";
-import { afterEach, describe, expect, it } from "vitest";
+import { afterEach, describe, expect, it, vi } from "vitest";
 import { Chart } from "../../src/components/Chart";
 import type { Column } from "../../src/components/DataTable";
+
+// Rendering with role queries in jsdom is slow on a busy machine; allow for it.
+vi.setConfig({ testTimeout: 20_000 });
 
 interface QuarterShare {
   quarter: string;

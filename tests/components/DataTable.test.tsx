@@ -2,6 +2,9 @@ import { cleanup, fireEvent, render, screen, within } from "@testing-library/rea
 import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 import { DataTable, type Column } from "../../src/components/DataTable";
 
+// Rendering with role queries in jsdom is slow on a busy machine; allow for it.
+vi.setConfig({ testTimeout: 20_000 });
+
 interface Row {
   code: string;
   name: string;

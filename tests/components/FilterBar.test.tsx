@@ -1,7 +1,10 @@
 import { cleanup, fireEvent, render, screen } from "@testing-library/react";
 import { RouterProvider, createMemoryRouter } from "react-router";
-import { afterEach, describe, expect, it } from "vitest";
+import { afterEach, describe, expect, it, vi } from "vitest";
 import { FilterBar, feedbackFilter, readFilterValues, useFilterValues, type FilterDefinition } from "../../src/components/FilterBar";
+
+// Rendering with role queries in jsdom is slow on a busy machine; allow for it.
+vi.setConfig({ testTimeout: 20_000 });
 
 afterEach(cleanup);
 

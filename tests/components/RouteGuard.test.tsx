@@ -5,6 +5,9 @@ import { homePathFor, type AppRoute } from "../../src/app/routes";
 import { renderApp } from "./renderApp";
 import { fakeServer, sessionFor, signedOut } from "./testServer";
 
+// Rendering with role queries in jsdom is slow on a busy machine; allow for it.
+vi.setConfig({ testTimeout: 20_000 });
+
 afterEach(() => {
   cleanup();
   vi.unstubAllGlobals();

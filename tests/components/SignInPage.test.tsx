@@ -4,6 +4,9 @@ import { wrongCredentialsMessage } from "../../src/pages/SignInPage";
 import { renderApp } from "./renderApp";
 import { fakeServer, signedOut } from "./testServer";
 
+// Rendering with role queries in jsdom is slow on a busy machine; allow for it.
+vi.setConfig({ testTimeout: 20_000 });
+
 afterEach(() => {
   cleanup();
   vi.unstubAllGlobals();

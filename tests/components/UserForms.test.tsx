@@ -7,6 +7,9 @@ import { createQueryClient } from "../../src/app/queryClient";
 import { AddUserForm, EditUserForm } from "../../src/features/users/UserForms";
 import { fakeServer } from "./testServer";
 
+// Rendering with role queries in jsdom is slow on a busy machine; allow for it.
+vi.setConfig({ testTimeout: 20_000 });
+
 afterEach(() => {
   cleanup();
   vi.unstubAllGlobals();
