@@ -10,11 +10,12 @@ import { ApiError } from "../api/http";
 import { DataTable, type Column } from "../components/DataTable";
 import { PageHeader } from "../components/PageHeader";
 import { SafetyNote } from "../components/SafetyNote";
+import { Notice } from "../components/Notice";
 import { EmptyState, ErrorState, LoadingState } from "../components/States";
 import { TargetBadge } from "../components/TargetBadge";
 import { AttemptSummary } from "../features/attempts/AttemptSummary";
 import { CompressionCharts } from "../features/attempts/CompressionCharts";
-import { compressionSeries } from "../features/attempts/compressionSeries";
+import { compressionSeries, type CompressionSeries } from "../features/attempts/compressionSeries";
 import { dateTime, errorLabel, feedbackLabels, patientTypeLabels } from "../features/attempts/labels";
 import { attemptQueries } from "../features/attempts/queries";
 import { useScoringPolicy } from "../features/attempts/useScoringPolicy";
@@ -171,6 +172,11 @@ function AttemptView({ answer }: { answer: AttemptDetailAnswer }) {
           <h2 id="stream-heading" className="text-title">
             Compression by compression
           </h2>
+          {stream && series && !agreesWithStored(series, attempt.metrics) && (
+            <Notice tone="info">
+              The figures above were measured when the attempt was imported; this chart classes each compression against the band of policy version {attempt.policyVersion}, which scored it later. Where the two bands differ, the counts here differ from the figures above.
+            </Notice>
+          )}
           {stream && series ? (
             <CompressionCharts
               series={series}
@@ -211,4 +217,12 @@ function AttemptView({ answer }: { answer: AttemptDetailAnswer }) {
       </div>
     </>
   );
+}
+
+/** Whether the stream, classed against the band shown, gives the stored depth and recoil shares (to half a point). */
+function agreesWithStored(series: CompressionSeries, metrics: AttemptDetailAnswer["attempt"]["metrics"]): boolean {
+  const n = series.points.length;
+  if (n === 0) return true;
+  const close = (a: number, b: number) => Math.abs(a - b) <= 0.5;
+  return close((100 * series.counts.onTarget) / n, metrics.depthOkPct) && close((100 * series.counts.recoilFull) / n, metrics.recoilOkPct);
 }

@@ -26,7 +26,7 @@ export function AttemptSummary({ attempt, band, policy, unit }: AttemptSummaryPr
   const passNeeds = (min: number | undefined, what = "at least") => (min === undefined ? null : `Pass needs ${what} ${min} %`);
   const noRate = m.compressions < 2 || (m.rateCpm === 0 && m.rateOkPct === 0);
   return (
-    <div className="grid grid-cols-[repeat(auto-fill,minmax(min(100%,13rem),1fr))] gap-3">
+    <div className="grid grid-cols-[repeat(auto-fill,minmax(9.5rem,1fr))] gap-3">
       <StatCard
         label="Mean depth"
         value={len(m.depthMm).replace(` ${unit}`, "")}

@@ -48,15 +48,19 @@ function timeFrame(points: readonly CompressionPoint[], pauses: readonly PauseSp
     x: { domain: [0, Math.ceil(end / 5) * 5], label: "Time since the attempt started (s)", ticks: width < 500 ? 5 : 10 },
     pauseMarks: [
       Plot.rect(pauses as PauseSpan[], { x1: "start", x2: "end", fill: pauseFill }),
-      Plot.text(pauses as PauseSpan[], {
-        x: (p: PauseSpan) => (p.start + p.end) / 2,
-        frameAnchor: "top",
-        dy: 4,
-        text: (p: PauseSpan) => `${p.long ? "Long pause" : "Pause"}\n${seconds(p.lengthS)}`,
-        fill: ink,
-        fontWeight: 600,
-        lineAnchor: "top",
-      }),
+      // neighbouring pauses take turns at two heights so their labels never overlap; phones get the length only
+      ...[0, 1].map((row) =>
+        Plot.text(pauses as PauseSpan[], {
+          filter: (p: PauseSpan) => pauses.indexOf(p) % 2 === row,
+          x: (p: PauseSpan) => (p.start + p.end) / 2,
+          frameAnchor: "top",
+          dy: 4 + row * (width < 500 ? 14 : 28),
+          text: (p: PauseSpan) => (width < 500 ? seconds(p.lengthS) : `${p.long ? "Long pause" : "Pause"}\n${seconds(p.lengthS)}`),
+          fill: ink,
+          fontWeight: 600,
+          lineAnchor: "top",
+        }),
+      ),
     ],
   };
 }

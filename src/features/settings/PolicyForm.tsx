@@ -8,7 +8,7 @@ import { Button } from "../../components/Button";
 import { Field, controlClass } from "../../components/Field";
 import { Notice } from "../../components/Notice";
 import { patientTypeLabels } from "../attempts/labels";
-import { displayValue, errorsByPath, fieldGroups, formValuesOf, policyFromValues, readPath, unitWord, type FormValues, type PolicyField } from "./policyFields";
+import { allFields, displayValue, errorsByPath, fieldGroups, formValuesOf, policyFromValues, readPath, unitWord, type FormValues, type PolicyField } from "./policyFields";
 
 export interface PolicyFormProps {
   /** The version in force: the form starts from it. */
@@ -69,8 +69,9 @@ export function PolicyForm({ current, defaults, fieldSources, unit, canEdit, sav
     const result = check(values);
     setErrors(result.errors);
     if (Object.keys(result.errors).length > 0) {
-      const first = event.currentTarget.querySelector<HTMLInputElement>("[aria-invalid=true]");
-      first?.focus();
+      const firstPath = allFields.find((field) => result.errors[field.path])?.path;
+      const first = firstPath ? event.currentTarget.elements.namedItem(firstPath) : null;
+      if (first instanceof HTMLElement) first.focus();
       return;
     }
     if (note.length > 500) return;
