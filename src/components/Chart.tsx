@@ -68,6 +68,8 @@ export function Chart<Row>({ title, description, data, columns, rowKey, plot, ex
       ariaDescription: null,
       style: { fontFamily: "inherit", fontSize: "12px", background: "transparent", overflow: "visible", ...(typeof options.style === "object" ? options.style : {}) },
     });
+    // Plot names each mark's <g> ("bar", "rule"); inside role="img" those names are not allowed and say nothing.
+    figure.querySelectorAll("g[aria-label]").forEach((mark) => mark.removeAttribute("aria-label"));
     target.replaceChildren(figure);
     return () => figure.remove();
   }, [data, plot, width, showTable]);
