@@ -192,7 +192,7 @@ function ReportForPeriod({ period, coordinator }: { period: string; coordinator:
       {coordinator && (
         <section data-print="hide" aria-labelledby="prepare-heading" className="mt-4 flex flex-col gap-8 border-t-4 border-dusk-200 pt-6">
           <div>
-            <h2 id="prepare-heading" tabIndex={-1} className="text-headline outline-none">
+            <h2 id="prepare-heading" tabIndex={-1} className="scroll-mt-24 text-headline outline-none">
               Prepare and send
             </h2>
             <p className="text-muted">Only coordinators see this part. Funders see the report above and download the latest version's PDF.</p>

@@ -91,7 +91,7 @@ export function ImportHistory({ highlightBatch }: { highlightBatch?: number | nu
         exportable: false,
         value: () => "",
         render: (b) => (
-          <div className="-mx-2.5 flex gap-0.5">
+          <div className="-mx-2.5 flex flex-wrap gap-0.5 sm:flex-col sm:items-start">
             {b.rejected > 0 && (
               <Button size="sm" variant="quiet" onClick={() => setOpenBatch(b)}>
                 Refused rows<span className="sr-only"> of batch {b.id}</span>
@@ -224,7 +224,7 @@ function RejectedRowsPanel({ batch, onClose }: { batch: ImportBatch; onClose: ()
     <section aria-labelledby="rejected-heading" className="flex flex-col gap-3 rounded-card border border-line-strong bg-surface p-4 shadow-card">
       <div className="flex flex-wrap items-start justify-between gap-3">
         <div>
-          <h3 id="rejected-heading" ref={headingRef} tabIndex={-1} className="text-lead font-semibold outline-none">
+          <h3 id="rejected-heading" ref={headingRef} tabIndex={-1} className="scroll-mt-24 text-lead font-semibold outline-none">
             Refused rows of batch {batch.id}: {batch.fileName}
           </h3>
           <p className="text-small text-muted">Row 1 is the first data row after the header. Correct these rows and import them as a new file.</p>
@@ -287,8 +287,8 @@ function UndoDialog({ batch, onClose, onDone }: { batch: ImportBatch | null; onC
           </p>
           <p>Undo takes this import back out of Quarterbeat:</p>
           <ul className="list-disc pl-5 text-small">
-            <li>the {plural(batch.inserted, batch.kind === "compressions" ? "attempt" : "row")} it added are deleted;</li>
-            <li>the {plural(batch.updated, batch.kind === "compressions" ? "attempt" : "row")} it changed get back the values they had before;</li>
+            {batch.inserted > 0 && <li>the {plural(batch.inserted, batch.kind === "compressions" ? "attempt" : "row")} it added are deleted;</li>}
+            {batch.updated > 0 && <li>the {plural(batch.updated, batch.kind === "compressions" ? "attempt" : "row")} it changed get back the values they had before;</li>}
             <li>sites, instructors and manikins it created are removed if nothing else uses them.</li>
           </ul>
           <p className="text-small text-muted">

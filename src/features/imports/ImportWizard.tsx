@@ -148,7 +148,7 @@ export function ImportWizard({ onImported }: { onImported?: (batchId: number | n
       </ol>
 
       <div className="flex flex-col gap-4">
-        <h3 ref={headingRef} tabIndex={-1} className="text-title outline-none">
+        <h3 ref={headingRef} tabIndex={-1} className="scroll-mt-24 text-title outline-none">
           Step {current + 1} of {steps.length}: {steps[current].title}
         </h3>
 

@@ -14,7 +14,7 @@ export const MessageView = forwardRef<HTMLHeadingElement, MessageViewProps>(func
   return (
     <article aria-labelledby={`message-${message.id}-subject`} className="flex flex-col gap-4 rounded-card border border-line-strong bg-surface p-4 shadow-card sm:p-6">
       <div className="flex flex-wrap items-start justify-between gap-3">
-        <h2 id={`message-${message.id}-subject`} ref={headingRef} tabIndex={-1} className="min-w-0 text-title break-words outline-none">
+        <h2 id={`message-${message.id}-subject`} ref={headingRef} tabIndex={-1} className="min-w-0 scroll-mt-24 text-title break-words outline-none">
           {message.subject || "(no subject)"}
         </h2>
         <Button variant="secondary" size="sm" onClick={onClose}>

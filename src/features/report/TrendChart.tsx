@@ -73,12 +73,14 @@ export function TrendChart({ trend }: { trend: Trend }) {
         .map((p) => ({ quarter: p.quarter, rate: p.passRate.value!, low: p.passRate.low, high: p.passRate.high, lcl: p.lcl, ucl: p.ucl, outside: p.outside }));
       const outside = shown.filter((p) => p.outside);
       const narrow = width < 500;
-      const tick = (q: string) => (narrow ? q.slice(2).replace("-", " ") : periodName(q));
+      // On a phone eight quarters only fit as two short lines: "Q3" over "2026".
+      const tick = (q: string) => (narrow ? `${q.slice(5)}\n${q.slice(0, 4)}` : periodName(q));
       return {
         height: narrow ? 260 : 320,
         marginLeft: 48,
         marginRight: narrow ? 12 : 80,
         marginTop: 24,
+        marginBottom: narrow ? 40 : 30,
         x: { type: "point", domain: points.map((p) => p.quarter), tickFormat: tick, label: null, padding: 0.4 },
         y: { domain: [0, shareAxisTop(shown.flatMap((p) => [p.ucl, p.high, p.rate]))], tickFormat: percentTick, label: "Pass rate", grid: true },
         marks: [
