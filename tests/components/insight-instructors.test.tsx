@@ -1,0 +1,187 @@
+// Instructors list with the funnel plot, and one instructor's page, through the real router with the
+// server's answers stubbed at the HTTP boundary.
+import { cleanup, configure, fireEvent, screen, within } from "@testing-library/react";
+import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
+import {
+  instructorDetailAnswerSchema,
+  instructorsAnswerSchema,
+  optionsAnswerSchema,
+  overviewAnswerSchema,
+  type InstructorsAnswer,
+} from "../../shared/schemas/insight";
+import { funnelLimits, wilsonInterval } from "../../shared/stats";
+import { renderApp } from "./renderApp";
+import { fakeServer, sessionFor } from "./testServer";
+
+vi.setConfig({ testTimeout: 30_000 });
+configure({ asyncUtilTimeout: 10_000 });
+
+beforeAll(async () => {
+  await import("../../src/pages/InstructorsPage");
+  await import("../../src/pages/InstructorDetailPage");
+}, 120_000);
+
+afterEach(() => {
+  cleanup();
+  vi.unstubAllGlobals();
+});
+
+const options = optionsAnswerSchema.parse({
+  quarters: ["2026-Q4", "2026-Q3"],
+  sites: [{ id: 2, code: "CLB", name: "Callowby Fire Station Training Room" }],
+  patientTypes: ["infant", "child", "adult"],
+  feedbackModes: ["live", "hidden"],
+  errors: [],
+  instructors: [
+    { id: 4, code: "IN04", name: "Callum Ferrowin", siteId: 2 },
+    { id: 6, code: "IN06", name: "Desmond Quarrie", siteId: 2 },
+  ],
+  manikins: [],
+});
+
+function rate(successes: number, n: number) {
+  const interval = wilsonInterval(successes, n);
+  return { successes, n, rate: n === 0 ? null : successes / n, low: interval?.[0] ?? null, high: interval?.[1] ?? null, suppressed: false };
+}
+
+const instructors: InstructorsAnswer = instructorsAnswerSchema.parse({
+  period: { from: "2026-Q4", to: "2026-Q4", quarters: ["2026-Q4"] },
+  funnel: {
+    networkRate: 0.42,
+    method: "exact",
+    curve: [
+      { n: 1, low95: 0, high95: 0.94, low998: 0, high998: 0.998 },
+      { n: 60, low95: 0.3, high95: 0.55, low998: 0.23, high998: 0.62 },
+      { n: 120, low95: 0.33, high95: 0.51, low998: 0.28, high998: 0.56 },
+    ],
+  },
+  instructors: [
+    { id: 4, code: "IN04", name: "Callum Ferrowin", site: { id: 2, code: "CLB" }, classes: 2, attempts: 30, passRate: rate(12, 30), medianScore: 83.5, position: "inside" },
+    { id: 6, code: "IN06", name: "Desmond Quarrie", site: { id: 2, code: "CLB" }, classes: 2, attempts: 68, passRate: rate(7, 68), medianScore: 62.8333, position: "below998" },
+    { id: 8, code: "IN08", name: "Jonah Thistlecombe", site: null, classes: 3, attempts: 117, passRate: rate(63, 117), medianScore: 90, position: "above95" },
+  ],
+});
+
+const pct = (share: number) => `${(Math.round(share * 1000) / 10).toFixed(1)} %`;
+const range = (low: number, high: number) => `${(Math.round(low * 1000) / 10).toFixed(1)}–${(Math.round(high * 1000) / 10).toFixed(1)} %`;
+
+function tableOf(title: string): string[][] {
+  const frame = screen.getByRole("heading", { name: title, level: 3 }).closest("figure")!;
+  fireEvent.click(within(frame).getByRole("button", { name: "Show as table" }));
+  return within(within(frame).getByRole("table"))
+    .getAllByRole("row")
+    .slice(1)
+    .map((row) => within(row).getAllByRole("cell").map((cell) => cell.textContent ?? ""));
+}
+
+describe("instructors", () => {
+  function serve() {
+    return fakeServer({
+      "GET /api/me": sessionFor("quality_lead"),
+      "GET /api/insight/options": { status: 200, body: options },
+      "GET /api/insight/instructors?quarter=2026-Q4": { status: 200, body: instructors },
+    });
+  }
+
+  it("the funnel's table holds each instructor's attempts and rate, with the limits at that size and the position in words", async () => {
+    serve();
+    renderApp("/instructors?quarter=2026-Q4");
+    await screen.findByRole("heading", { name: "Pass rate against number of attempts" });
+    const words = { inside: "Expected range", below998: "Well below (99.8 % limit)", above95: "Above (95 % limit)" } as const;
+    expect(tableOf("Pass rate against number of attempts")).toEqual(
+      instructors.instructors.map((r) => {
+        const inner = funnelLimits(0.42, r.attempts, { level: 0.95, method: "exact" });
+        const outer = funnelLimits(0.42, r.attempts, { level: 0.998, method: "exact" });
+        return [r.code, String(r.attempts), pct(r.passRate.rate!), range(inner.low, inner.high), range(outer.low, outer.high), words[r.position as keyof typeof words]];
+      }),
+    );
+  });
+
+  it("names the instructors outside the limits in words, linking to each, not by colour alone", async () => {
+    serve();
+    renderApp("/instructors?quarter=2026-Q4");
+    await screen.findByText("Outside the limits:");
+    const link = screen.getByRole("link", { name: "IN06 · Desmond Quarrie" });
+    expect(link.getAttribute("href")).toBe("/instructors/6?quarter=2026-Q4");
+    expect(link.closest("li")!.textContent).toContain("Well below the network (outside 99.8 % limit)");
+    expect(screen.getByRole("link", { name: "IN08 · Jonah Thistlecombe" }).closest("li")!.textContent).toContain("Higher than expected (outside 95 % limit)");
+    expect(screen.queryByRole("link", { name: "IN04 · Callum Ferrowin" })).toBeNull();
+    // in the plot itself, points outside the limits carry their code as a label; points inside do not
+    const plot = screen.getByRole("img", { name: "Pass rate against number of attempts" });
+    const labels = [...plot.querySelectorAll("text")].map((t) => t.textContent);
+    expect(labels).toContain("IN06");
+    expect(labels).toContain("IN08");
+    expect(labels).not.toContain("IN04");
+  });
+
+  it("lists every instructor in a table whose rows link to the instructor's page, keeping the filters", async () => {
+    serve();
+    renderApp("/instructors?quarter=2026-Q4");
+    const table = await screen.findByRole("table", { name: "Instructors" });
+    const rows = within(table).getAllByRole("row").slice(1).map((row) => within(row).getAllByRole("cell").map((c) => c.textContent));
+    expect(rows[1]).toEqual(["IN06", "Desmond Quarrie", "CLB", "2", "68", "10.3 %", range(rate(7, 68).low!, rate(7, 68).high!), "62.8", "Well below (99.8 % limit)"]);
+    expect(within(table).getByRole("link", { name: "IN04" }).getAttribute("href")).toBe("/instructors/4?quarter=2026-Q4");
+    // sortable: attempts, largest first after two clicks
+    fireEvent.click(within(table).getByRole("button", { name: "Attempts" }));
+    fireEvent.click(within(table).getByRole("button", { name: "Attempts" }));
+    expect(within(table).getAllByRole("row")[1].textContent).toContain("IN08");
+  });
+});
+
+describe("one instructor", () => {
+  const detail = instructorDetailAnswerSchema.parse({
+    period: { from: "2026-Q4", to: "2026-Q4", quarters: ["2026-Q4"] },
+    instructor: { id: 6, code: "IN06", name: "Desmond Quarrie", site: { id: 2, code: "CLB" } },
+    trend: [
+      { quarter: "2026-Q2", passRate: rate(0, 0), medianScore: null },
+      { quarter: "2026-Q3", passRate: rate(5, 41), medianScore: 65.0 },
+      { quarter: "2026-Q4", passRate: rate(7, 68), medianScore: 62.8333 },
+    ],
+    classes: [{ id: "CL-0283", date: "2026-11-12", course: "adult", learners: 9, passed: 2, attempts: 18, passRate: rate(1, 18) }],
+  });
+  const point = (quarter: string, passed: number, attempts: number) => ({
+    quarter, attempts, passed, rate: passed / attempts, low: null, high: null, lcl: null, ucl: null, outside: false, suppressed: false,
+  });
+  const network = overviewAnswerSchema.parse({
+    period: detail.period,
+    previousPeriod: { from: "2026-Q3", to: "2026-Q3", quarters: ["2026-Q3"] },
+    suppressionMinCount: 5, suppressed: false, learners: 10, classes: 2, attempts: 615,
+    passRate: rate(259, 615), passRateChange: { previous: rate(326, 855), absolute: 0.04, relative: 0.1 },
+    recordedCompletion: rate(158, 262),
+    agreement: { pairs: 0, table: [[0, 0], [0, 0]], observed: null, expected: null, kappa: null, suppressed: false },
+    medianScore: 83, series: { centre: 0.3, points: [point("2026-Q2", 325, 859), point("2026-Q3", 326, 855), point("2026-Q4", 259, 615)] },
+    errors: { attempts: 615, rows: [], suppressed: false }, feedback: [],
+  });
+
+  it("shows the quarterly trend with the same numbers in its table, beside the network's rate, and the classes", async () => {
+    fakeServer({
+      "GET /api/me": sessionFor("coordinator"),
+      "GET /api/insight/options": { status: 200, body: options },
+      "GET /api/insight/instructors/6?quarter=2026-Q4": { status: 200, body: detail },
+      "GET /api/insight/overview?quarter=2026-Q4": { status: 200, body: network },
+    });
+    renderApp("/instructors/6?quarter=2026-Q4");
+    expect(await screen.findByRole("heading", { name: "IN06 · Desmond Quarrie", level: 1 })).toBeTruthy();
+    await screen.findByRole("heading", { name: "Pass rate by quarter" });
+    const rows = tableOf("Pass rate by quarter");
+    expect(rows).toEqual([
+      ["2026 Q2", "0", "no attempts", "", pct(325 / 859), "–"],
+      ["2026 Q3", "41", pct(5 / 41), range(rate(5, 41).low!, rate(5, 41).high!), pct(326 / 855), "65.0"],
+      ["2026 Q4", "68", pct(7 / 68), range(rate(7, 68).low!, rate(7, 68).high!), pct(259 / 615), "62.8"],
+    ]);
+    expect(tableOf("Median score by quarter").map((r) => r[2])).toEqual(["no attempts", "65.0", "62.8"]);
+    const classes = screen.getByRole("table", { name: "Classes" });
+    expect(within(classes).getByRole("link", { name: "CL-0283" }).getAttribute("href")).toBe("/classes/CL-0283");
+  });
+
+  it("says plainly when no instructor has the id", async () => {
+    fakeServer({
+      "GET /api/me": sessionFor("coordinator"),
+      "GET /api/insight/options": { status: 200, body: options },
+      "GET /api/insight/instructors/99?quarter=2026-Q4": { status: 404, body: { error: { code: "not_found", message: "The instructor was not found." } } },
+      "GET /api/insight/overview?quarter=2026-Q4": { status: 200, body: network },
+    });
+    renderApp("/instructors/99?quarter=2026-Q4");
+    expect(await screen.findByText("No instructor has the id “99”")).toBeTruthy();
+  });
+});
