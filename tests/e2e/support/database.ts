@@ -10,6 +10,8 @@ import { seedDemo } from "../../../server/seed/seedDemo";
 
 /** The demo network's "today": its current quarter is 2026-Q4. */
 export const SEED_TODAY = "2026-12-01";
+/** The quarter of SEED_TODAY: the latest quarter with data, which the insight pages open on. */
+export const SEED_QUARTER = `${SEED_TODAY.slice(0, 4)}-Q${Math.ceil(Number(SEED_TODAY.slice(5, 7)) / 3)}`;
 
 const templatesRoot = path.join(os.tmpdir(), "quarterbeat-e2e");
 

@@ -1,0 +1,99 @@
+// An instructor: signs in, reads their medians and percentile beside the network's on My standing (the same
+// figures the API gives), and cannot open another instructor's class or attempt by editing the address.
+import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
+import type { StandingAnswer } from "../../shared/schemas/insight";
+import { formatMetric, metricWords, percentileSentence } from "../../src/features/insight/standing/StandingMetrics";
+import { describeFindings } from "./support/a11y";
+import { demoAccount } from "./support/accounts";
+import { SEED_QUARTER } from "./support/database";
+import { JOURNEY_TIMEOUT, Journey, textOf } from "./support/journey";
+
+const instructor = demoAccount("instructor");
+
+let journey: Journey;
+
+beforeAll(async () => {
+  journey = await Journey.start("instructor");
+});
+
+afterEach(async (context) => {
+  if (context.task.result?.state === "fail") await journey.shotAfterFailure();
+});
+
+afterAll(async () => {
+  await journey?.close();
+});
+
+interface OtherClass {
+  id: string;
+  date: string;
+  code: string;
+  name: string;
+}
+
+describe("instructor", () => {
+  it("finds their medians and percentile against the network, and cannot open another instructor's class", async () => {
+    const { page } = await journey.newPage();
+    await journey.signIn(page, instructor.email, instructor.password);
+
+    // My standing is the instructor's start page, on the latest quarter
+    await page.waitForURL((url) => url.pathname === "/my-standing" && url.searchParams.get("quarter") === SEED_QUARTER);
+    const answer = await journey.api<StandingAnswer>(page, `/api/insight/standing?quarter=${SEED_QUARTER}`);
+    expect(answer.status).toBe(200);
+    const standing = answer.body;
+    expect(standing.me.code).toBe(instructor.instructor);
+    expect(standing.metrics.length).toBeGreaterThan(0);
+
+    const cards = page.getByRole("list", { name: "Your medians beside the network's" }).getByRole("listitem");
+    await cards.first().waitFor();
+    expect(await cards.count()).toBe(standing.metrics.length);
+    const instructors = standing.spread.points.length;
+    for (const [i, metric] of standing.metrics.entries()) {
+      const card = cards.nth(i);
+      const words = metricWords[metric.key];
+      expect(await textOf(card.getByRole("heading"))).toBe(words.label);
+      // mine, the network's median and my percentile among the instructors, as the API reports them
+      expect(await textOf(card.locator("p").nth(1).locator("span").first())).toBe(formatMetric(metric.key, metric.mine));
+      expect(await textOf(card.locator("p strong"))).toBe(formatMetric(metric.key, metric.network));
+      expect(await textOf(card.locator("p").last())).toBe(percentileSentence(metric.percentileRank, instructors));
+    }
+    // the heading names the instructor and the quarter
+    await page.getByRole("heading", { name: new RegExp(`^${standing.me.code} · ${standing.me.name}, ${SEED_QUARTER.replace("-", " ")}$`) }).waitFor();
+    await journey.visited(page, "my-standing");
+
+    // another instructor's class in the same quarter, found in the database
+    const other = journey.db.$client
+      .prepare(
+        `SELECT c.id, c.date, i.code, i.name FROM classes c JOIN instructors i ON i.id = c.instructor_id
+         WHERE i.code <> ? AND c.quarter = ? AND EXISTS (SELECT 1 FROM attempts a WHERE a.class_id = c.id) ORDER BY c.id LIMIT 1`,
+      )
+      .get(instructor.instructor, SEED_QUARTER) as OtherClass;
+    expect(other).toBeDefined();
+    const theirAttempts = journey.db.$client.prepare("SELECT id, learner FROM attempts WHERE class_id = ? ORDER BY id").all(other.id) as { id: string; learner: string }[];
+    expect(theirAttempts.length).toBeGreaterThan(0);
+    // (the instructor's own class table links none of them)
+    expect(await page.locator(`a[href^="/classes/${encodeURIComponent(other.id)}"]`).count()).toBe(0);
+
+    await page.goto(`/classes/${encodeURIComponent(other.id)}`);
+    await page.getByRole("heading", { name: "Class not found or not yours", level: 1 }).waitFor();
+    await page.getByText("No class has this id, or it was taught by another instructor.").waitFor();
+    const shown = await textOf(page.locator("main"));
+    for (const secret of [other.code, other.name, ...theirAttempts.map((a) => a.learner), ...theirAttempts.map((a) => a.id)]) {
+      expect(shown, `the page shows ${secret}`).not.toContain(secret);
+    }
+    await journey.visited(page, "other-class-refused");
+    // the API answers such a class as missing, and lists none of its attempts
+    expect((await journey.api(page, `/api/classes/${encodeURIComponent(other.id)}`)).status).toBe(404);
+    const listed = await journey.api<{ attempts?: unknown[] }>(page, `/api/attempts?class=${encodeURIComponent(other.id)}&quarter=${SEED_QUARTER}`);
+    expect(listed.status === 404 || listed.body.attempts?.length === 0).toBe(true);
+
+    // nor one of its attempts
+    await page.goto(`/attempts/${encodeURIComponent(theirAttempts[0].id)}`);
+    await page.getByRole("heading", { name: "Attempt not found", level: 1 }).waitFor();
+    expect(await textOf(page.locator("main"))).not.toContain(theirAttempts[0].learner);
+    expect((await journey.api(page, `/api/attempts/${encodeURIComponent(theirAttempts[0].id)}`)).status).toBe(404);
+    await journey.visited(page, "other-attempt-refused");
+
+    expect(journey.findings, describeFindings(journey.findings)).toEqual([]);
+  }, JOURNEY_TIMEOUT);
+});
