@@ -57,6 +57,26 @@ export function safeFileName(name: string): string {
   return base === "" || base === "." || base === ".." ? "upload.csv" : base;
 }
 
+/** How long an import waits for another writer (an import from the CLI or the web) before it gives up. */
+const WRITE_LOCK_WAIT_MS = 30 * 60 * 1000;
+
+/**
+ * BEGIN IMMEDIATE, tried again while another connection holds the write lock: one try waits the connection's
+ * busy timeout (15 s), and a big import beside this one can write for longer than that.
+ */
+async function beginWriting(sqlite: Database.Database): Promise<void> {
+  const giveUpAt = Date.now() + WRITE_LOCK_WAIT_MS;
+  for (;;) {
+    try {
+      sqlite.exec("BEGIN IMMEDIATE");
+      return;
+    } catch (err) {
+      if ((err as { code?: string }).code !== "SQLITE_BUSY" || Date.now() > giveUpAt) throw err;
+    }
+    await new Promise((resolve) => setTimeout(resolve, 100));
+  }
+}
+
 export async function importFile(db: Db, options: ImportFileOptions): Promise<ImportSummary> {
   const sqlite: Database.Database = db.$client;
   const { kind, input } = options;
@@ -74,7 +94,8 @@ export async function importFile(db: Db, options: ImportFileOptions): Promise<Im
   // A bigger page cache while importing: a big file's inserts touch index pages all over the B-trees.
   const cacheSize = sqlite.pragma("cache_size", { simple: true }) as number;
   sqlite.pragma(`cache_size = ${IMPORT_CACHE_KIB > Math.abs(cacheSize) ? -IMPORT_CACHE_KIB : cacheSize}`);
-  sqlite.exec(dryRun ? "BEGIN" : "BEGIN IMMEDIATE");
+  if (dryRun) sqlite.exec("BEGIN");
+  else await beginWriting(sqlite);
   let run: ImportRun | undefined;
   try {
     const batchId = dryRun
