@@ -10,9 +10,12 @@ export class SqliteSessionStore extends session.Store {
   private readonly statements;
   private readonly lastTouched = new Map<string, number>();
 
+  private readonly sqlite;
+
   constructor(db: Db) {
     super();
     const sqlite = db.$client;
+    this.sqlite = sqlite;
     this.statements = {
       get: sqlite.prepare<[string, number], { sess: string }>("SELECT sess FROM sessions WHERE sid = ? AND expires_at > ?"),
       set: sqlite.prepare(
@@ -50,10 +53,21 @@ export class SqliteSessionStore extends session.Store {
   override touch(sid: string, sess: session.SessionData, callback?: () => void): void {
     // Reads should not write: extend a session's expiry at most every few minutes, so dashboards keep
     // working without waiting for the write lock while an import holds it.
+    // A touch never waits for the lock either: it would stall every request for the busy timeout and then
+    // throw inside the response's end, leaving the request unanswered. A skipped touch is tried again later.
     const now = Date.now();
     if (now - (this.lastTouched.get(sid) ?? 0) > TOUCH_EVERY_MS) {
-      this.statements.touch.run(SqliteSessionStore.expiry(sess), sid);
-      this.lastTouched.set(sid, now);
+      const sqlite = this.sqlite;
+      const busyTimeout = sqlite.pragma("busy_timeout", { simple: true }) as number;
+      sqlite.pragma("busy_timeout = 0");
+      try {
+        this.statements.touch.run(SqliteSessionStore.expiry(sess), sid);
+        this.lastTouched.set(sid, now);
+      } catch (err) {
+        if ((err as { code?: string }).code !== "SQLITE_BUSY") throw err;
+      } finally {
+        sqlite.pragma(`busy_timeout = ${busyTimeout}`);
+      }
     }
     callback?.();
   }
