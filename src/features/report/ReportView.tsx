@@ -90,12 +90,21 @@ export function ReportView({ data, source, actionsSlot }: ReportViewProps) {
         {source && <div className="mt-1 text-small">{source}</div>}
       </header>
 
-      {!data.hasData && (
-        <p className="rounded-card border border-dashed border-line-strong bg-surface p-4">
-          No classes or measured attempts were recorded for {data.periodLabel}. The sections below are empty.
-        </p>
+      {!data.hasData ? (
+        <div className="flex flex-col gap-2 rounded-card border border-dashed border-line-strong bg-surface p-6">
+          <p className="text-lead font-semibold">Nothing to report for {data.periodLabel}</p>
+          <p className="text-muted">No classes or measured attempts were recorded in this period. Choose another period above.</p>
+        </div>
+      ) : (
+        <ReportSections data={data} actionsSlot={actionsSlot} />
       )}
+    </article>
+  );
+}
 
+function ReportSections({ data, actionsSlot }: { data: ReportData; actionsSlot?: ReactNode }) {
+  return (
+    <>
       <Section id="report-brief" title="In brief">
         {data.narrative.length === 0 ? (
           <p className="text-muted">There is nothing to summarise for this period.</p>
@@ -271,6 +280,6 @@ export function ReportView({ data, source, actionsSlot }: ReportViewProps) {
       </Section>
 
       <MethodsBox data={data} />
-    </article>
+    </>
   );
 }
