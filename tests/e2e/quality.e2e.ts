@@ -1,0 +1,143 @@
+// The quality lead: from the error Pareto on Error trends to one error's breakdown, on to the attempts of a
+// group, to one attempt with a compression stream and its compression charts. What the screens show is
+// checked against the API's answers.
+import type { Locator, Page } from "playwright-core";
+import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
+import type { AttemptDetailAnswer, ErrorsAnswer } from "../../shared/schemas/insight";
+import { formatLength, fromMm, type LengthUnit } from "../../shared/units";
+import { percentOf100 } from "../../src/features/attempts/labels";
+import { describeFindings } from "./support/a11y";
+import { demoAccount } from "./support/accounts";
+import { SEED_QUARTER } from "./support/database";
+import { JOURNEY_TIMEOUT, Journey, textOf } from "./support/journey";
+
+const qualityLead = demoAccount("quality_lead");
+/** Pages of attempts to look through for one with a stream (about one attempt in twenty has one). */
+const MAX_PAGES = 10;
+
+let journey: Journey;
+
+beforeAll(async () => {
+  journey = await Journey.start("quality");
+});
+
+afterEach(async (context) => {
+  if (context.task.result?.state === "fail") await journey.shotAfterFailure();
+});
+
+afterAll(async () => {
+  await journey?.close();
+});
+
+/** A figure of the UI kit's Chart, by its title. */
+function chart(page: Page, title: string): Locator {
+  return page.locator("figure").filter({ has: page.getByRole("heading", { name: title, exact: true }) });
+}
+
+/** The drawn chart inside a Chart figure: Plot's svg in the labelled role="img" frame. */
+function picture(figure: Locator): Locator {
+  return figure.locator('div[role="img"] svg').first();
+}
+
+/** The big number of a stat card, by its label. */
+function statValue(scope: Page | Locator, label: string): Locator {
+  return scope.getByRole("heading", { name: label, exact: true }).locator("xpath=..").locator("p").first().locator("span").first();
+}
+
+describe("quality lead", () => {
+  it("goes from the error Pareto to one error's breakdown, to an attempt with a stream and its compression chart", async () => {
+    const { page } = await journey.newPage();
+    await journey.signIn(page, qualityLead.email, qualityLead.password);
+    await page.waitForURL((url) => url.pathname === "/overview");
+
+    await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Error trends" }).click();
+    await page.waitForURL((url) => url.pathname === "/errors");
+    const pareto = chart(page, "Errors, most frequent first");
+    await picture(pareto).waitFor();
+    const errors = await journey.api<ErrorsAnswer>(page, `/api/insight/errors?quarter=${SEED_QUARTER}`);
+    expect(errors.status).toBe(200);
+    const top = errors.body.pareto.rows[0];
+    expect(top.count).toBeGreaterThan(0);
+    await journey.visited(page, "error-trends");
+
+    // the Pareto's table view: the most frequent error first, with the API's count
+    await pareto.getByRole("button", { name: "Show as table" }).click();
+    const firstRow = pareto.locator("tbody tr").first();
+    expect(await textOf(firstRow.locator("th, td").first())).toBe(top.label);
+    expect(await textOf(firstRow)).toContain(String(top.count));
+    await journey.shot(page, "pareto-table");
+
+    // one error's trend and breakdown
+    await firstRow.getByRole("link", { name: `Trend and breakdown of “${top.label}”` }).click();
+    await page.waitForURL((url) => url.searchParams.get("error") === top.error);
+    await page.getByRole("heading", { name: top.label, level: 2 }).waitFor();
+    const selected = await journey.api<ErrorsAnswer>(page, `/api/insight/errors?quarter=${SEED_QUARTER}&error=${top.error}`);
+    const withError = selected.body.selected!.byProfile.reduce((sum, row) => sum + row.count, 0);
+    await page.getByText(`${withError} of ${selected.body.selected!.byProfile.reduce((sum, row) => sum + row.attempts, 0)} attempts in the period have this error.`).waitFor();
+    const breakdown = page.getByRole("table", { name: "Attempts with the error by patient type" });
+    await breakdown.waitFor();
+    await journey.visited(page, "error-breakdown");
+
+    // the group with the most attempts with the error, to its attempts
+    const biggest = [...selected.body.selected!.byProfile].sort((a, b) => b.count - a.count)[0];
+    await breakdown.getByRole("link", { name: new RegExp(`^${biggest.count} attempts? with this error, patient type`) }).click();
+    await page.waitForURL((url) => url.pathname === "/attempts" && url.searchParams.get("error") === top.error);
+    await page.getByText(new RegExp(`^Attempts 1–\\d+ of ${biggest.count.toLocaleString("en-GB")}, newest first$`)).waitFor();
+    await journey.visited(page, "attempts");
+
+    // an attempt with a compression stream, looking further back a page at a time if needed
+    const table = page.getByRole("table", { name: "Attempts on this page" });
+    const withStream = table.locator("tbody tr").filter({ has: page.locator("span", { hasText: /^\s*Stream\s*$/ }) });
+    for (let pageNumber = 1; (await withStream.count()) === 0; pageNumber += 1) {
+      expect(pageNumber, "no attempt with a stream on the first pages").toBeLessThan(MAX_PAGES);
+      await page.getByRole("button", { name: "Older" }).first().click();
+      await page.getByText(new RegExp(`^Page ${pageNumber + 1} of`)).first().waitFor();
+      await table.waitFor();
+    }
+    const link = withStream.first().getByRole("link").first();
+    const attemptId = await textOf(link);
+    await link.click();
+    await page.waitForURL((url) => url.pathname === `/attempts/${encodeURIComponent(attemptId)}`);
+    await page.getByRole("heading", { name: `Attempt ${attemptId}`, level: 1 }).waitFor();
+
+    const detail = await journey.api<AttemptDetailAnswer>(page, `/api/attempts/${encodeURIComponent(attemptId)}`);
+    expect(detail.status).toBe(200);
+    const { attempt, stream } = detail.body;
+    expect(stream).not.toBeNull();
+    expect(attempt.errors).toContain(top.error);
+    const unit = ((await journey.api<{ user: { lengthUnit: LengthUnit } }>(page, "/api/me")).body.user.lengthUnit);
+
+    // the compression charts are there, each a labelled picture
+    await page.getByRole("heading", { name: "Compression by compression", level: 2 }).waitFor();
+    const depth = chart(page, "Depth of each compression");
+    await picture(depth).waitFor();
+    expect(await depth.locator('div[role="img"]').getAttribute("aria-labelledby")).toBe(await depth.getByRole("heading", { name: "Depth of each compression" }).getAttribute("id"));
+    expect(await textOf(depth.locator("p").first())).toContain(`${stream!.compressions} compressions`);
+    await journey.visited(page, "attempt");
+
+    // the attempt's numbers on screen equal the API's
+    const m = attempt.metrics;
+    expect(await textOf(page.locator("#result-heading").locator("xpath=..").locator("p.text-display"))).toBe(String(Math.round(attempt.score)));
+    expect(await textOf(statValue(page, "Compressions"))).toBe(String(m.compressions));
+    expect(await textOf(statValue(page, "Mean depth"))).toBe(formatLength(m.depthMm, unit).replace(` ${unit}`, ""));
+    expect(await textOf(statValue(page, "Depth on target"))).toBe(percentOf100(m.depthOkPct));
+    expect(await textOf(statValue(page, "Mean rate"))).toBe(String(Math.round(m.rateCpm)));
+    expect(await textOf(statValue(page, "Rate on target"))).toBe(percentOf100(m.rateOkPct));
+    expect(await textOf(statValue(page, "Full recoil"))).toBe(percentOf100(m.recoilOkPct));
+    expect(await textOf(statValue(page, "Hands-on time"))).toBe(percentOf100(m.handsOnPct));
+    expect(await textOf(statValue(page, "Longest pause"))).toBe(m.longestPauseS.toFixed(1));
+    expect(m.compressions).toBe(stream!.compressions);
+
+    // the depth chart's table view: one row per compression of the stream
+    await depth.getByRole("button", { name: "Show as table" }).click();
+    const depthRows = depth.locator("tbody tr");
+    await depthRows.first().waitFor();
+    expect(await depthRows.count()).toBe(stream!.compressions);
+    const firstCells = await depthRows.first().locator("th, td").allTextContents();
+    expect(Number(firstCells[0])).toBe(1);
+    expect(Number(firstCells[2])).toBe(Number(fromMm(stream!.depth_mm[0], unit).toFixed(unit === "in" ? 2 : 1)));
+    await journey.visited(page, "attempt-depth-table", { axe: false });
+
+    expect(journey.findings, describeFindings(journey.findings)).toEqual([]);
+  }, JOURNEY_TIMEOUT);
+});
