@@ -6,6 +6,7 @@ import { useMemo } from "react";
 import type { EquipmentAnswer } from "../../../shared/schemas/equipment";
 import { Chart, type ChartSize } from "../../components/Chart";
 import type { Column } from "../../components/DataTable";
+import { EmptyState } from "../../components/States";
 import { dusk } from "../../styles/palette";
 
 export interface ConsumablesBySite {
@@ -71,6 +72,9 @@ const plots = { lungs: plotFor("lungs"), mouthpieces: plotFor("mouthpieces"), ba
 export function ConsumablesCharts({ rows, period }: { rows: EquipmentAnswer["consumables"]; period: string }) {
   const data = useMemo(() => consumablesBySite(rows), [rows]);
   const withLearners = data.filter((r) => r.learners > 0);
+  if (data.length === 0) {
+    return <EmptyState title={`No consumables recorded in ${period}`}>Class logs and equipment events of the period fill these charts.</EmptyState>;
+  }
   return (
     <div className="grid gap-4 lg:grid-cols-3">
       {items.map(({ key, title, noun }) => {

@@ -95,6 +95,7 @@ export function PolicyForm({ current, defaults, fieldSources, unit, canEdit, sav
             Default {defaultText}
             {word ? ` ${word}` : ""} — {sourceWords}
             {source?.note ? `. ${source.note}` : ""}
+            {readPath(current.policy, field.path) !== readPath(defaults, field.path) && <strong className="font-semibold text-ink"> In force: changed from the default.</strong>}
           </>
         }
         error={shown[field.path]}

@@ -1,0 +1,52 @@
+import { cleanup, fireEvent, screen, waitFor, within } from "@testing-library/react";
+import { afterEach, describe, expect, it, vi } from "vitest";
+import { POLICY_FIELD_SOURCES } from "../../shared/schemas/policySettings";
+import { DEFAULT_POLICY, GUIDELINE_SOURCES, SAFETY_NOTE } from "../../shared/scoring/policy";
+import { renderApp } from "./renderApp";
+import { fakeServer, type FakeAnswer } from "./testServer";
+
+afterEach(() => {
+  cleanup();
+  vi.unstubAllGlobals();
+});
+
+const coordinatorInInches: FakeAnswer = {
+  status: 200,
+  body: {
+    user: { id: 1, email: "robin@example.org", displayName: "Robin Example", role: "coordinator", instructorId: null, siteId: null, lengthUnit: "in" },
+    csrfToken: "token-1",
+  },
+};
+const version1 = { version: 1, policy: DEFAULT_POLICY, note: "Project defaults", createdAt: "2026-01-05T09:00:00.000Z" };
+
+describe("settings page", { timeout: 30_000 }, () => {
+  it("saves depths typed in inches as millimetres, as a new version", async () => {
+    const server = fakeServer({
+      "GET /api/me": coordinatorInInches,
+      "GET /api/settings/policy": {
+        status: 200,
+        body: { current: version1, defaults: DEFAULT_POLICY, fieldSources: POLICY_FIELD_SOURCES, sources: GUIDELINE_SOURCES, safetyNote: SAFETY_NOTE },
+      },
+      "GET /api/settings/policy/versions": { status: 200, body: { versions: [version1] } },
+      "GET /api/insight/options": { status: 200, body: { quarters: [], sites: [], patientTypes: [], feedbackModes: [], errors: [], instructors: [], manikins: [] } },
+      "PUT /api/settings/policy": (init) => ({ status: 200, body: { ...version1, version: 2, ...JSON.parse(String(init?.body)) } }),
+    });
+    renderApp("/settings");
+    const adult = await screen.findByRole("group", { name: "Adult" }, { timeout: 10_000 });
+    // 1 in = 25.4 mm (1959 international yard and pound agreement): 1.9 in = 48.26 mm, 2.5 in = 63.5 mm.
+    fireEvent.change(within(adult).getByLabelText("Depth at least (in)"), { target: { value: "1.9" } });
+    fireEvent.change(within(adult).getByLabelText("Depth at most (in)"), { target: { value: "2.5" } });
+    fireEvent.change(screen.getByLabelText(/Note for this version/), { target: { value: "Wider adult band for the trial" } });
+    fireEvent.click(screen.getByRole("button", { name: "Save as version 2" }));
+
+    await waitFor(() => expect(server.requests.some((r) => r.method === "PUT")).toBe(true));
+    const put = server.requests.find((r) => r.method === "PUT")!;
+    expect(put.path).toBe("/api/settings/policy");
+    const body = put.body as { policy: typeof DEFAULT_POLICY; note: string };
+    expect(body.policy.bands.adult.depthMinMm).toBe(48.26);
+    expect(body.policy.bands.adult.depthMaxMm).toBe(63.5);
+    expect(body.policy.bands.child).toEqual(DEFAULT_POLICY.bands.child);
+    expect(body.note).toBe("Wider adult band for the trial");
+    expect(await screen.findByText(/Saved as version 2/)).toBeTruthy();
+  });
+});
