@@ -4,14 +4,14 @@ import { eq, sql } from "drizzle-orm";
 import type { InstructorDetailAnswer, InstructorsAnswer } from "../../shared/schemas/insight";
 import { classifyAgainstFunnel } from "../../shared/stats";
 import type { Db } from "../db/client";
-import { attempts, instructors, sites } from "../db/schema";
+import { attempts, classes, instructors, sites } from "../db/schema";
 import { notFound } from "../errors";
 import { classRows } from "./classes";
 import type { ResolvedFilters } from "./filters";
 import { funnelLimitCurve } from "./funnel";
 import { trendQuarters } from "./quarters";
 import { rateOf } from "./rates";
-import { attemptConditions, classConditions, mediansBy } from "./sql";
+import { attemptConditions, classConditions, groupSummaries } from "./sql";
 
 function instructorDirectory(db: Db) {
   return new Map(
@@ -25,46 +25,49 @@ function instructorDirectory(db: Db) {
 }
 
 export function instructorTable(db: Db, filters: ResolvedFilters): InstructorsAnswer {
-  const where = attemptConditions(filters);
-  const rows = db
-    .select({
-      instructorId: attempts.instructorId,
-      n: sql<number>`count(*)`,
-      passed: sql<number>`sum(${attempts.passed})`,
-      classes: sql<number>`count(DISTINCT ${attempts.classId})`,
-    })
-    .from(attempts)
-    .where(where)
-    .groupBy(attempts.instructorId)
-    .all();
-  const medians = mediansBy<number>(db, attempts.score, attempts.instructorId, where);
+  const summaries = groupSummaries<number>(db, attempts.score, attempts.instructorId, attemptConditions(filters));
+  // classes come from the class logs (with a matching attempt when an attempt filter is set)
+  const classCounts = new Map(
+    db
+      .select({ instructorId: classes.instructorId, n: sql<number>`count(*)` })
+      .from(classes)
+      .where(classConditions(filters))
+      .groupBy(classes.instructorId)
+      .all()
+      .map((row) => [row.instructorId, row.n]),
+  );
   const directory = instructorDirectory(db);
-  const total = rows.reduce((sum, row) => ({ n: sum.n + row.n, passed: sum.passed + row.passed }), { n: 0, passed: 0 });
-  const networkRate = total.n === 0 ? null : total.passed / total.n;
+  let total = 0;
+  let passed = 0;
+  for (const summary of summaries.values()) {
+    total += summary.n;
+    passed += summary.passed;
+  }
+  const networkRate = total === 0 ? null : passed / total;
   // many instructors share a size and a pass count; classify each pair once
   const positions = new Map<string, ReturnType<typeof classifyAgainstFunnel>>();
-  const positionOf = (passed: number, n: number) => {
-    const key = `${passed}/${n}`;
-    if (!positions.has(key)) positions.set(key, networkRate === null ? null : classifyAgainstFunnel(passed, n, networkRate));
+  const positionOf = (successes: number, n: number) => {
+    const key = `${successes}/${n}`;
+    if (!positions.has(key)) positions.set(key, networkRate === null ? null : classifyAgainstFunnel(successes, n, networkRate));
     return positions.get(key)!;
   };
 
   return {
     period: filters.period,
-    funnel: { networkRate, method: "exact", curve: funnelLimitCurve(networkRate, Math.max(0, ...rows.map((row) => row.n))) },
-    instructors: rows
-      .map((row) => {
-        const person = directory.get(row.instructorId);
+    funnel: { networkRate, method: "exact", curve: funnelLimitCurve(networkRate, Math.max(0, ...[...summaries.values()].map((s) => s.n))) },
+    instructors: [...summaries]
+      .map(([id, summary]) => {
+        const person = directory.get(id);
         return {
-          id: row.instructorId,
-          code: person?.code ?? `#${row.instructorId}`,
+          id,
+          code: person?.code ?? `#${id}`,
           name: person?.name ?? "(unknown instructor)",
           site: person?.siteId != null && person.siteCode != null ? { id: person.siteId, code: person.siteCode } : null,
-          classes: row.classes,
-          attempts: row.n,
-          passRate: rateOf(row.passed, row.n),
-          medianScore: medians.get(row.instructorId) ?? null,
-          position: positionOf(row.passed, row.n),
+          classes: classCounts.get(id) ?? 0,
+          attempts: summary.n,
+          passRate: rateOf(summary.passed, summary.n),
+          medianScore: summary.median,
+          position: positionOf(summary.passed, summary.n),
         };
       })
       .sort((a, b) => (a.code < b.code ? -1 : a.code > b.code ? 1 : 0)),
@@ -76,17 +79,7 @@ export function instructorDetail(db: Db, instructorId: number, filters: Resolved
   if (!person) throw notFound("The instructor");
   const own = { ...filters, instructorId };
   const trend = trendQuarters(filters.period);
-  const trendWhere = attemptConditions(own, trend);
-  const byQuarter = new Map(
-    db
-      .select({ quarter: attempts.quarter, n: sql<number>`count(*)`, passed: sql<number>`sum(${attempts.passed})` })
-      .from(attempts)
-      .where(trendWhere)
-      .groupBy(attempts.quarter)
-      .all()
-      .map((row) => [row.quarter, row]),
-  );
-  const medians = mediansBy<string>(db, attempts.score, attempts.quarter, trendWhere);
+  const byQuarter = groupSummaries<string>(db, attempts.score, attempts.quarter, attemptConditions(own, trend));
   return {
     period: filters.period,
     instructor: {
@@ -98,7 +91,7 @@ export function instructorDetail(db: Db, instructorId: number, filters: Resolved
     trend: trend.quarters.map((quarter) => ({
       quarter,
       passRate: rateOf(byQuarter.get(quarter)?.passed ?? 0, byQuarter.get(quarter)?.n ?? 0),
-      medianScore: medians.get(quarter) ?? null,
+      medianScore: byQuarter.get(quarter)?.median ?? null,
     })),
     classes: classRows(db, classConditions(own)),
   };

@@ -86,25 +86,32 @@ export function medianOf(db: Db, value: SQLWrapper, where: SQL): number | null {
   return medianOfSorted(sortedValues(db, value, where));
 }
 
+export interface GroupSummary {
+  n: number;
+  passed: number;
+  median: number;
+}
+
 /**
- * Median of `value` for each of many groups (instructors, quarters), type 7 as above. SQLite numbers each
- * group's rows in value order and hands back only the one or two middle rows of each group. Both window
- * functions share one window definition, so SQLite sorts once.
+ * Attempts, passes and the median of `value` for each of many groups (instructors, quarters), type 7 as
+ * above. SQLite numbers each group's rows in value order and hands back only the one or two middle rows of
+ * each group, with the group's count and passes from the same window: one sort for all three figures.
  */
-export function mediansBy<K extends string | number>(db: Db, value: SQLWrapper, group: SQLWrapper, where: SQL): Map<K, number> {
-  const rows = db.all<{ k: K; v: number }>(
-    sql`SELECT k, v FROM (
+export function groupSummaries<K extends string | number>(db: Db, value: SQLWrapper, group: SQLWrapper, where: SQL): Map<K, GroupSummary> {
+  const rows = db.all<{ k: K; v: number; n: number; passed: number }>(
+    sql`SELECT k, v, n, passed FROM (
           SELECT ${group} AS k, ${value} AS v,
                  row_number() OVER w - 1 AS i,
-                 count(*) OVER w AS n
+                 count(*) OVER w AS n,
+                 sum(${attempts.passed}) OVER w AS passed
           FROM ${attempts} WHERE ${where}
           WINDOW w AS (PARTITION BY ${group} ORDER BY ${value} ROWS BETWEEN UNBOUNDED PRECEDING AND UNBOUNDED FOLLOWING)
         ) WHERE i = (n - 1) / 2 OR i = n / 2`,
   );
-  const middles = new Map<K, { lower: number; upper: number }>();
-  for (const { k, v } of rows) {
+  const middles = new Map<K, { n: number; passed: number; lower: number; upper: number }>();
+  for (const { k, v, n, passed } of rows) {
     const entry = middles.get(k);
-    middles.set(k, entry ? { lower: Math.min(entry.lower, v), upper: Math.max(entry.upper, v) } : { lower: v, upper: v });
+    middles.set(k, entry ? { ...entry, lower: Math.min(entry.lower, v), upper: Math.max(entry.upper, v) } : { n, passed, lower: v, upper: v });
   }
-  return new Map([...middles].map(([k, { lower, upper }]) => [k, midpoint(lower, upper)]));
+  return new Map([...middles].map(([k, { n, passed, lower, upper }]) => [k, { n, passed, median: midpoint(lower, upper) }]));
 }

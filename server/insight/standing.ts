@@ -1,7 +1,7 @@
 // "My standing": an instructor's own medians and pass rate beside the network's, the anonymous spread of all
 // instructors, the funnel with the instructor's own point, the error profile and the classes. Other
 // instructors appear only as anonymous points and network aggregates.
-import { eq, sql } from "drizzle-orm";
+import { eq } from "drizzle-orm";
 import { standingMetricKeys, type StandingAnswer } from "../../shared/schemas/insight";
 import { attemptErrorLabels, attemptErrorNames } from "../../shared/scoring/scoreAttempt";
 import { classifyAgainstFunnel, percentileRank } from "../../shared/stats";
@@ -12,7 +12,7 @@ import type { ResolvedFilters } from "./filters";
 import { funnelLimitCurve } from "./funnel";
 import { classRows } from "./classes";
 import { rateOf } from "./rates";
-import { attemptConditions, classConditions, errorCountColumns, errorCountsOf, medianOf, mediansBy } from "./sql";
+import { attemptConditions, classConditions, errorCountColumns, errorCountsOf, groupSummaries, medianOf, type GroupSummary } from "./sql";
 import { hidesGroup, type Viewer } from "./viewer";
 
 const metricColumns = {
@@ -34,12 +34,11 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
   const networkWhere = attemptConditions(network);
   const min = viewer.suppressionMinCount;
 
-  const perInstructor = db
-    .select({ instructorId: attempts.instructorId, n: sql<number>`count(*)`, passed: sql<number>`sum(${attempts.passed})` })
-    .from(attempts)
-    .where(networkWhere)
-    .groupBy(attempts.instructorId)
-    .all();
+  // per instructor and metric: attempts, passes and median, one window sort each
+  const byInstructor = Object.fromEntries(
+    standingMetricKeys.map((key) => [key, groupSummaries<number>(db, metricColumns[key], attempts.instructorId, networkWhere)]),
+  ) as Record<(typeof standingMetricKeys)[number], Map<number, GroupSummary>>;
+  const perInstructor = [...byInstructor.score].map(([instructorId, { n, passed }]) => ({ instructorId, n, passed }));
   const totals = perInstructor.reduce((sum, row) => ({ n: sum.n + row.n, passed: sum.passed + row.passed }), { n: 0, passed: 0 });
   const networkHidden = hidesGroup(viewer, totals.n);
   const myTally = perInstructor.find((row) => row.instructorId === me) ?? { instructorId: me, n: 0, passed: 0 };
@@ -47,13 +46,9 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
   const shown = perInstructor.filter((row) => row.n >= min || row.instructorId === me);
   const shownIds = new Set(shown.map((row) => row.instructorId));
 
-  const medians = Object.fromEntries(
-    standingMetricKeys.map((key) => [key, mediansBy<number>(db, metricColumns[key], attempts.instructorId, networkWhere)]),
-  ) as Record<(typeof standingMetricKeys)[number], Map<number, number>>;
-
   const metrics = standingMetricKeys.map((key) => {
-    const mineValue = medians[key].get(me) ?? null;
-    const others = [...medians[key]].filter(([id]) => shownIds.has(id)).map(([, value]) => value);
+    const mineValue = byInstructor[key].get(me)?.median ?? null;
+    const others = [...byInstructor[key]].filter(([id]) => shownIds.has(id)).map(([, summary]) => summary.median);
     return {
       key,
       mine: mineValue,
@@ -63,8 +58,7 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
   });
 
   const points = shown
-    .filter((row) => medians.score.has(row.instructorId))
-    .map((row) => ({ medianScore: medians.score.get(row.instructorId)!, passRate: row.passed / row.n, isMe: row.instructorId === me }))
+    .map((row) => ({ medianScore: byInstructor.score.get(row.instructorId)!.median, passRate: row.passed / row.n, isMe: row.instructorId === me }))
     .sort((a, b) => a.medianScore - b.medianScore || a.passRate - b.passRate);
 
   const networkRate = networkHidden || totals.n === 0 ? null : totals.passed / totals.n;

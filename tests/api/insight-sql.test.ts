@@ -4,7 +4,7 @@ import { and, eq, sql } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { median } from "../../shared/stats";
 import { attempts } from "../../server/db/schema";
-import { medianOf, mediansBy, sortedUnion, sortedValues, medianOfSorted } from "../../server/insight/sql";
+import { groupSummaries, medianOf, medianOfSorted, sortedUnion, sortedValues } from "../../server/insight/sql";
 import { makeTestDb } from "../helpers/testApp";
 import { seedInsightNetwork } from "../fixtures/insight/network";
 import type { Db } from "../../server/db/client";
@@ -28,11 +28,17 @@ beforeAll(async () => {
 });
 afterAll(() => db.$client.close());
 
-function jsMedians(where: ReturnType<typeof sql>, group: "instructorId" | "quarter" | "feedback") {
+/** The same figures in plain JavaScript over every row. */
+function jsSummaries(where: ReturnType<typeof sql>, group: "instructorId" | "quarter") {
   const rows = db.select().from(attempts).where(where).all();
-  const groups = new Map<string | number, number[]>();
-  for (const row of rows) groups.set(row[group], [...(groups.get(row[group]) ?? []), row.score]);
-  return new Map([...groups].map(([k, values]) => [k, median(values)]));
+  const groups = new Map<string | number, (typeof rows)[number][]>();
+  for (const row of rows) groups.set(row[group], [...(groups.get(row[group]) ?? []), row]);
+  return new Map(
+    [...groups].map(([k, members]) => [
+      k,
+      { n: members.length, passed: members.filter((m) => m.passed).length, median: median(members.map((m) => m.score)) },
+    ]),
+  );
 }
 
 describe("medians computed in SQL", () => {
@@ -42,9 +48,9 @@ describe("medians computed in SQL", () => {
     sql`${attempts.feedback} = 'live' AND ${attempts.siteId} = 2`,
     sql`${attempts.profile} = 'infant'`,
   ];
-  it.each(filters.map((where, i) => [i, where] as const))("per group equal shared median (filter %i)", (_i, where) => {
-    expect(mediansBy(db, attempts.score, attempts.instructorId, where)).toEqual(jsMedians(where, "instructorId"));
-    expect(mediansBy(db, attempts.score, attempts.quarter, where)).toEqual(jsMedians(where, "quarter"));
+  it.each(filters.map((where, i) => [i, where] as const))("per group equal shared median, counts and passes (filter %i)", (_i, where) => {
+    expect(groupSummaries(db, attempts.score, attempts.instructorId, where)).toEqual(jsSummaries(where, "instructorId"));
+    expect(groupSummaries(db, attempts.score, attempts.quarter, where)).toEqual(jsSummaries(where, "quarter"));
   });
 
   it.each(filters.map((where, i) => [i, where] as const))("over all rows equal shared median (filter %i)", (_i, where) => {
@@ -61,7 +67,7 @@ describe("medians computed in SQL", () => {
 
   it("gives null for no rows, and the value itself for one", () => {
     expect(medianOf(db, attempts.score, sql`0 = 1`)).toBeNull();
-    expect(mediansBy(db, attempts.score, attempts.instructorId, sql`0 = 1`).size).toBe(0);
+    expect(groupSummaries(db, attempts.score, attempts.instructorId, sql`0 = 1`).size).toBe(0);
     expect(medianOf(db, attempts.score, eq(attempts.id, "A1-2604-001"))).toBe(95);
   });
 
