@@ -19,6 +19,8 @@ export default defineConfig({
         test: {
           name: "components",
           environment: "jsdom",
+          // rendering charts in jsdom is slow on a busy 2-core machine
+          testTimeout: 30_000,
           include: ["tests/components/**/*.test.tsx"],
           deps: { optimizer: { client: { include: ["react-router", "react-router/dom"] } } },
         },

@@ -12,8 +12,9 @@ export function listSites(db: Db): SiteRow[] {
       code: sites.code,
       name: sites.name,
       active: sites.active,
-      instructors: sql<number>`(SELECT count(*) FROM ${instructors} WHERE ${instructors.siteId} = ${sites.id})`,
-      manikins: sql<number>`(SELECT count(*) FROM ${manikins} WHERE ${manikins.siteId} = ${sites.id})`,
+      // qualified names: inside the subquery a bare `id` would mean the inner table's id
+      instructors: sql<number>`(SELECT count(*) FROM instructors i WHERE i.site_id = sites.id)`,
+      manikins: sql<number>`(SELECT count(*) FROM manikins m WHERE m.site_id = sites.id)`,
     })
     .from(sites)
     .orderBy(sites.code)

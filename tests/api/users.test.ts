@@ -65,3 +65,15 @@ describe("user administration", () => {
     await funder.get("/api/me").expect(401);
   });
 });
+
+describe("sites", () => {
+  it("counts each site's own instructors", async () => {
+    const coordinator = await signIn(app, "coord@test.example");
+    const created = await coordinator.post("/api/instructors", { code: "A2", name: "Instructor A2", siteId: people.sites.north.id }).expect(201);
+    expect(created.body.instructor.siteCode).toBe("NORTH");
+    const { body } = await coordinator.get("/api/sites").expect(200);
+    const bySite = Object.fromEntries(body.sites.map((s: { code: string; instructors: number }) => [s.code, s.instructors]));
+    // NORTH: A1 and A2; SOUTH: B1
+    expect(bySite).toEqual({ NORTH: 2, SOUTH: 1 });
+  });
+});
