@@ -25,8 +25,8 @@ export default function SettingsPage() {
   return (
     <div>
       <PageHeader
-        title="Scoring policy"
-        description="The targets each compression is judged against, the rule that decides whether an attempt passes, and the equipment thresholds. Every saved change is a new version; stored scores name the version that made them."
+        title="Settings"
+        description="The network's scoring policy: the targets each compression is judged against, the rule that decides whether an attempt passes, and the equipment thresholds. Every saved change is a new version; stored scores name the version that made them."
       />
       {settings.isPending ? (
         <LoadingState label="Loading the policy…" />

@@ -64,7 +64,7 @@ export function attemptColumns(unit: LengthUnit, from: string): Column<AttemptRo
 
 function ErrorList({ errors }: { errors: AttemptRow["errors"] }) {
   return (
-    <ul className="flex min-w-56 flex-col gap-0.5">
+    <ul className="flex flex-col gap-0.5 sm:min-w-56">
       {errors.map((e) => (
         <li key={e}>{errorLabel(e)}</li>
       ))}
