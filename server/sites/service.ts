@@ -2,7 +2,7 @@
 import { eq, sql } from "drizzle-orm";
 import type { InstructorRow, NewSite, SiteRow } from "../../shared/schemas/sites";
 import type { Db } from "../db/client";
-import { instructors, manikins, sites } from "../db/schema";
+import { instructors, sites } from "../db/schema";
 import { conflict, notFound } from "../errors";
 
 export function listSites(db: Db): SiteRow[] {
