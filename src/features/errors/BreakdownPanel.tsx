@@ -108,7 +108,7 @@ export function BreakdownPanel({ dimension, rows, nameOf, attemptsHref, errorLab
 
   return (
     <div className="flex min-w-0 flex-col gap-4">
-      <Chart title={`By ${dimension}`} description={description} data={charted} columns={columns.filter((c) => c.key !== "attemptsLink")} rowKey={(row) => row.key} plot={breakdownPlot} />
+      <Chart title={`By ${dimension}`} description={description} data={charted} columns={columns.filter((c) => c.key !== "attemptsLink")} rowKey={(row) => row.key} plot={breakdownPlot} exportFileName={`error-by-${dimension.replace(/\s+/g, "-")}-chart`} />
       <DataTable
         caption={`Attempts with the error by ${dimension}`}
         columns={columns}
