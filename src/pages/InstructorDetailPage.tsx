@@ -92,6 +92,7 @@ export function InstructorContent({ answer, network }: { answer: InstructorDetai
         <h2 id="classes-heading" className="text-title">
           Classes in {quarter}
         </h2>
+        <p className="text-small text-muted">Each class's figures cover all of its attempts, whatever the filters.</p>
         <ClassTable classes={answer.classes} caption="Classes" exportFileName={`classes-${instructor.code}-${answer.period.from}`} />
       </section>
     </div>

@@ -104,7 +104,10 @@ export function StandingContent({ answer }: { answer: StandingAnswer }) {
         <h2 id="classes-heading" className="text-title">
           Your classes in {quarterLabel(answer.period.from)}
         </h2>
-        <p className="text-small text-muted">Open a class to see each learner's attempts. Recorded completions are what you entered in the class log.</p>
+        <p className="text-small text-muted">
+          Open a class to see each learner's attempts. Recorded completions are what you entered in the class log; each class's figures cover
+          all of its attempts, whatever the filters.
+        </p>
         <ClassTable classes={answer.classes} caption="Your classes" exportFileName={`my-classes-${answer.period.from}`} />
       </section>
     </div>

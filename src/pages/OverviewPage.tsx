@@ -13,8 +13,8 @@ import { Notice } from "../components/Notice";
 import { OverviewStats } from "../features/insight/overview/OverviewStats";
 import { RecordedVsMeasured } from "../features/insight/overview/RecordedVsMeasured";
 import { QueryStatus } from "../features/insight/QueryStatus";
-import { Suppressed } from "../features/insight/Suppressed";
-import { quarterLabel } from "../features/insight/format";
+import { NothingToChart } from "../features/insight/charts/NothingToChart";
+import { quarterLabel, suppressedText } from "../features/insight/format";
 import { insightQueries } from "../features/insight/queries";
 import type { InsightFilterState } from "../features/insight/useInsightFilters";
 
@@ -81,9 +81,9 @@ export function OverviewContent({ answer }: { answer: OverviewAnswer }) {
         </h2>
         <div className="grid grid-cols-1 gap-4 xl:grid-cols-2">
           {answer.errors.suppressed ? (
-            <p className="rounded-card border border-line bg-surface p-4">
-              Errors are hidden: <Suppressed minCount={min} />.
-            </p>
+            <div className="self-start">
+              <NothingToChart title="Which errors matter most" text={`The errors are hidden: ${suppressedText(min)}.`} />
+            </div>
           ) : (
             <ErrorParetoChart rows={answer.errors.rows} attempts={answer.errors.attempts} />
           )}

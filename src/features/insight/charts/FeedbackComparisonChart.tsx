@@ -9,6 +9,7 @@ import { ChartLegend, shapeSwatch } from "../ChartLegend";
 import { ink } from "../chartStyle";
 import { describeRate, feedbackWords, formatCount, formatInterval, formatPercent, formatPoints, formatScore, percentValue, suppressedText } from "../format";
 import { intervalBarsPlot } from "./intervalPlot";
+import { NothingToChart } from "./NothingToChart";
 
 export type FeedbackGroup = z.infer<typeof feedbackGroupSchema>;
 
@@ -16,8 +17,12 @@ export function describeFeedback(groups: readonly FeedbackGroup[], minCount: num
   const live = groups.find((g) => g.mode === "live");
   const hidden = groups.find((g) => g.mode === "hidden");
   const part = (g: FeedbackGroup | undefined) =>
-    !g ? "no attempts" : g.suppressed ? suppressedText(minCount) : `${describeRate(g.passRate, minCount)}${g.attempts ? ` over ${formatCount(g.attempts)} attempts` : ""}`;
-  let text = `With the display live, the pass rate was ${part(live)}; with it hidden, ${part(hidden)}.`;
+    !g || (!g.suppressed && g.passRate.rate === null)
+      ? "there were no attempts"
+      : g.suppressed
+        ? `the figures are hidden (${suppressedText(minCount)})`
+        : `the pass rate was ${describeRate(g.passRate, minCount)} over ${formatCount(g.attempts)} attempts`;
+  let text = `With the display live, ${part(live)}; with it hidden, ${part(hidden)}.`;
   if (live?.passRate.rate != null && hidden?.passRate.rate != null) {
     const gap = live.passRate.rate - hidden.passRate.rate;
     text += ` Live display is ${formatPoints(Math.abs(gap)).replace("+", "")} ${gap >= 0 ? "higher" : "lower"}.`;
@@ -49,6 +54,9 @@ export function FeedbackComparisonChart({ groups, minCount }: { groups: readonly
       ),
     [],
   );
+  if (groups.every((g) => g.passRate.rate === null)) {
+    return <NothingToChart title="Live display against hidden display" text={describeFeedback(groups, minCount)} />;
+  }
   return (
     <Chart
       title="Live display against hidden display"

@@ -8,6 +8,7 @@ import type { passRateSeriesSchema } from "../../../../shared/schemas/insight";
 import { Chart, type ChartSize } from "../../../components/Chart";
 import type { Column } from "../../../components/DataTable";
 import { ChartLegend, lineSwatch, shapeSwatch } from "../ChartLegend";
+import { NothingToChart } from "./NothingToChart";
 import { ink, percentTick, shareAxisTop } from "../chartStyle";
 import { formatCount, formatInterval, formatPercent, percentValue, quarterLabel, suppressedText } from "../format";
 
@@ -63,7 +64,9 @@ export function seriesColumns(minCount: number): Column<SeriesPoint>[] {
 }
 
 export function PassRateControlChart({ series, minCount, title = "Measured pass rate by quarter" }: { series: PassRateSeries; minCount: number; title?: string }) {
-  const centre = series.centre;
+  // without a single quarter to show, a centre line alone would only hint at the hidden figures
+  const nothingShown = series.points.every((p) => p.rate === null);
+  const centre = nothingShown ? null : series.centre;
   const plot = useCallback(
     (points: readonly SeriesPoint[], { width }: ChartSize): Plot.PlotOptions => {
       const shown = points.filter((p) => p.rate !== null);
@@ -109,6 +112,10 @@ export function PassRateControlChart({ series, minCount, title = "Measured pass 
     [centre],
   );
 
+  if (nothingShown) {
+    const hidden = series.points.some((p) => p.suppressed);
+    return <NothingToChart title={title} text={hidden ? `No quarter in this range can be shown: each has ${suppressedText(minCount)}, or none.` : "No quarter in this range has attempts."} />;
+  }
   return (
     <Chart
       title={title}

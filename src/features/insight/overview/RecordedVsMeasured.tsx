@@ -7,6 +7,7 @@ import { DataTable, type Column } from "../../../components/DataTable";
 import { ChartLegend, shapeSwatch } from "../ChartLegend";
 import { ink } from "../chartStyle";
 import { intervalBarsPlot } from "../charts/intervalPlot";
+import { NothingToChart } from "../charts/NothingToChart";
 import { formatCount, formatInterval, formatPercent, formatPoints, percentValue, suppressedText } from "../format";
 import { Suppressed } from "../Suppressed";
 
@@ -96,29 +97,33 @@ export function RecordedVsMeasured({ answer }: { answer: OverviewAnswer }) {
         </p>
       </div>
       <div className="grid grid-cols-1 gap-4 2xl:grid-cols-2">
-        <Chart
-          title="Recorded completion and measured pass rate"
-          description={`${sentence ?? "Not enough attempts to compare."} The whiskers are the 95 % intervals: the range the true rate is likely to lie in, given how many were counted.`}
-          data={rows}
-          columns={measureColumns(min)}
-          rowKey={(r) => r.key}
-          plot={plot}
-          exportFileName="recorded-and-measured"
-          legend={
-            <ChartLegend
-              items={[
-                { label: "Recorded completion", swatch: shapeSwatch("bar", ink.soft) },
-                { label: "Measured pass rate", swatch: shapeSwatch("bar", ink.main) },
-                { label: "95 % interval", swatch: <path d="M3 6h18M3 2v8M21 2v8" stroke={ink.text} strokeWidth="1.5" fill="none" /> },
-              ]}
-            />
-          }
-        />
+        {rows.every((r) => r.rate.rate === null) ? (
+          <NothingToChart title="Recorded completion and measured pass rate" text={`Both figures are hidden (${suppressedText(min)}) or have nothing counted.`} />
+        ) : (
+          <Chart
+            title="Recorded completion and measured pass rate"
+            description={`${sentence ?? "Not enough attempts to compare."} The whiskers are the 95 % intervals: the range the true rate is likely to lie in, given how many were counted.`}
+            data={rows}
+            columns={measureColumns(min)}
+            rowKey={(r) => r.key}
+            plot={plot}
+            exportFileName="recorded-and-measured"
+            legend={
+              <ChartLegend
+                items={[
+                  { label: "Recorded completion", swatch: shapeSwatch("bar", ink.soft) },
+                  { label: "Measured pass rate", swatch: shapeSwatch("bar", ink.main) },
+                  { label: "95 % interval", swatch: <path d="M3 6h18M3 2v8M21 2v8" stroke={ink.text} strokeWidth="1.5" fill="none" /> },
+                ]}
+              />
+            }
+          />
+        )}
         <div className="flex flex-col gap-3 rounded-card border border-line bg-surface p-4 shadow-card">
           <h3 className="text-lead font-semibold">Same attempt, two results</h3>
           {answer.agreement.suppressed ? (
             <p>
-              <Suppressed minCount={min} /> carry both results, so the comparison is hidden.
+              The comparison is hidden: <Suppressed minCount={min} />.
             </p>
           ) : agreementRows.length === 0 || !answer.agreement.pairs ? (
             <p className="text-muted">No attempt carries an instructor's result in this period.</p>

@@ -24,7 +24,7 @@ export function ordinal(n: number): string {
 }
 
 export function percentileSentence(rank: number | null, instructors: number): string {
-  if (rank === null) return "No rank: not enough instructors to compare with.";
+  if (rank === null || instructors < 2) return "No rank: no other instructor has enough attempts to compare with.";
   const rounded = Math.round(rank);
   const where = rounded >= 75 ? "among the highest" : rounded > 55 ? "above the middle" : rounded >= 45 ? "near the middle" : rounded > 25 ? "below the middle" : "among the lowest";
   return `${ordinal(rounded)} percentile of ${instructors} instructors: ${where}.`;
