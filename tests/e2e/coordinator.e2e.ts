@@ -9,7 +9,7 @@ import { formatCount, formatPercent } from "../../src/features/insight/format";
 import { describeFindings } from "./support/a11y";
 import { demoAccount, demoDirectory } from "./support/accounts";
 import { SEED_QUARTER, SEED_TODAY } from "./support/database";
-import { JOURNEY_TIMEOUT, Journey, tabTo, textOf } from "./support/journey";
+import { JOURNEY_TIMEOUT, Journey, SETUP_TIMEOUT, tabTo, textOf } from "./support/journey";
 
 const coordinator = demoAccount("coordinator");
 const QUARTER = SEED_QUARTER;
@@ -94,10 +94,10 @@ let journey: Journey;
 
 beforeAll(async () => {
   journey = await Journey.start("coordinator");
-});
+}, SETUP_TIMEOUT);
 
 afterEach(async (context) => {
-  if (context.task.result?.state === "fail") await journey.shotAfterFailure();
+  if (context.task.result?.state === "fail") await journey?.shotAfterFailure();
 });
 
 afterAll(async () => {

@@ -6,7 +6,7 @@ import { formatMetric, metricWords, percentileSentence } from "../../src/feature
 import { describeFindings } from "./support/a11y";
 import { demoAccount } from "./support/accounts";
 import { SEED_QUARTER } from "./support/database";
-import { JOURNEY_TIMEOUT, Journey, textOf } from "./support/journey";
+import { JOURNEY_TIMEOUT, Journey, SETUP_TIMEOUT, textOf } from "./support/journey";
 
 const instructor = demoAccount("instructor");
 
@@ -14,10 +14,10 @@ let journey: Journey;
 
 beforeAll(async () => {
   journey = await Journey.start("instructor");
-});
+}, SETUP_TIMEOUT);
 
 afterEach(async (context) => {
-  if (context.task.result?.state === "fail") await journey.shotAfterFailure();
+  if (context.task.result?.state === "fail") await journey?.shotAfterFailure();
 });
 
 afterAll(async () => {

@@ -9,7 +9,7 @@ import { percentOf100 } from "../../src/features/attempts/labels";
 import { describeFindings } from "./support/a11y";
 import { demoAccount } from "./support/accounts";
 import { SEED_QUARTER } from "./support/database";
-import { JOURNEY_TIMEOUT, Journey, textOf } from "./support/journey";
+import { JOURNEY_TIMEOUT, Journey, SETUP_TIMEOUT, textOf } from "./support/journey";
 
 const qualityLead = demoAccount("quality_lead");
 /** Pages of attempts to look through for one with a stream (about one attempt in twenty has one). */
@@ -19,10 +19,10 @@ let journey: Journey;
 
 beforeAll(async () => {
   journey = await Journey.start("quality");
-});
+}, SETUP_TIMEOUT);
 
 afterEach(async (context) => {
-  if (context.task.result?.state === "fail") await journey.shotAfterFailure();
+  if (context.task.result?.state === "fail") await journey?.shotAfterFailure();
 });
 
 afterAll(async () => {

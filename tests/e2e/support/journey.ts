@@ -13,6 +13,8 @@ import { startApp, type RunningApp } from "./server";
 
 /** A whole journey: a dozen pages, each waited for, with an accessibility scan on most of them. */
 export const JOURNEY_TIMEOUT = 300_000;
+/** Start-up: the first journey of a run may build the client and seed the demo network. */
+export const SETUP_TIMEOUT = 420_000;
 
 export interface ApiAnswer<T> {
   status: number;
@@ -91,6 +93,14 @@ export class Journey {
       // not JSON: keep the text
     }
     return { status: response.status(), body: body as T };
+  }
+
+  /** POST to an API path as the page's user, with the CSRF token the session hands out. */
+  async apiPost<T = unknown>(page: Page, pathname: string, body: object = {}): Promise<ApiAnswer<T>> {
+    const me = await this.api<{ csrfToken: string }>(page, "/api/me");
+    const response = await page.request.post(this.url(pathname), { data: body, headers: { "x-csrf-token": me.body.csrfToken } });
+    const text = await response.text();
+    return { status: response.status(), body: (text ? JSON.parse(text) : null) as T };
   }
 
   /** Runs axe on the page as it stands and keeps its serious and critical findings. */

@@ -1,0 +1,92 @@
+// A funder: signs in, opens the quarter's report, downloads its PDF, and is refused every drill-down page
+// (and the API behind them) that would show instructors, errors, classes or single attempts.
+import fs from "node:fs";
+import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
+import { defaultPeriod } from "../../src/features/report/period";
+import { describeFindings } from "./support/a11y";
+import { demoAccount } from "./support/accounts";
+import { JOURNEY_TIMEOUT, Journey, SETUP_TIMEOUT } from "./support/journey";
+
+const funder = demoAccount("funder");
+const coordinator = demoAccount("coordinator");
+
+let journey: Journey;
+/** The period the report page opens on: the latest quarter that has ended (by the browser's clock). */
+let period: string;
+let versionId: number;
+
+beforeAll(async () => {
+  journey = await Journey.start("funder");
+  // the coordinator stores a version of the report, which is what makes a PDF for funders
+  const { context, page } = await journey.newPage();
+  await journey.signIn(page, coordinator.email, coordinator.password);
+  const options = await journey.api<{ quarters: string[] }>(page, "/api/insight/options");
+  period = defaultPeriod(options.body.quarters)!;
+  const created = await journey.apiPost<{ report: { id: number; version: number } }>(page, `/api/reports/${period}`);
+  expect(created.status).toBe(201);
+  versionId = created.body.report.id;
+  await context.close();
+}, SETUP_TIMEOUT);
+
+afterEach(async (context) => {
+  if (context.task.result?.state === "fail") await journey?.shotAfterFailure();
+});
+
+afterAll(async () => {
+  await journey?.close();
+});
+
+describe("funder", () => {
+  it("opens the quarter's report, downloads its PDF, and is refused every drill-down", async () => {
+    const { page } = await journey.newPage();
+    await journey.signIn(page, funder.email, funder.password);
+
+    // the report is the funder's start page, showing the stored version
+    await page.waitForURL((url) => url.pathname === "/report");
+    await page.getByRole("heading", { name: "Funder report", level: 1 }).waitFor();
+    const download = page.getByRole("link", { name: /^Download PDF/ });
+    await download.waitFor();
+    expect(await download.getAttribute("href")).toBe(`/api/reports/${versionId}/pdf`);
+    await page.getByText("You are reading version 1").waitFor();
+    expect(await page.getByRole("combobox", { name: "Quarter" }).inputValue()).toBe(period);
+    await page.getByText(new RegExp(`^Period ${period}`)).waitFor();
+    await journey.visited(page, "report");
+
+    const downloaded = page.waitForEvent("download");
+    await download.click();
+    const file = await downloaded;
+    expect(file.suggestedFilename()).toMatch(/\.pdf$/);
+    const saved = await file.path();
+    const head = fs.readFileSync(saved).subarray(0, 5).toString("latin1");
+    expect(head).toBe("%PDF-");
+
+    // the navigation offers none of the drill-down pages
+    const nav = page.getByRole("navigation", { name: "Main" });
+    for (const name of ["Instructors", "Error trends", "Attempts", "Network overview"]) {
+      expect(await nav.getByRole("link", { name, exact: true }).count(), `nav link ${name}`).toBe(0);
+    }
+
+    // a class and an attempt of the network, typed into the address bar
+    const anAttempt = journey.db.$client.prepare("SELECT id, class_id AS classId, learner FROM attempts ORDER BY id LIMIT 1").get() as { id: string; classId: string; learner: string };
+    const pages = ["/instructors", "/errors", "/attempts", `/attempts/${anAttempt.id}`, `/classes/${anAttempt.classId}`];
+    for (const [i, path] of pages.entries()) {
+      await page.goto(path);
+      await page.getByRole("heading", { name: "Not available for your role", level: 1 }).waitFor();
+      const main = (await page.locator("main").textContent()) ?? "";
+      expect(main).toContain("You are signed in as funder");
+      expect(main).not.toContain(anAttempt.learner);
+      if (i === 0) await journey.visited(page, "drill-down-refused");
+      else await journey.shot(page, `refused-${path.split("/")[1]}`);
+    }
+
+    // the API behind those pages refuses the funder too
+    const apiPaths = ["/api/insight/instructors", "/api/insight/errors", "/api/attempts", `/api/attempts/${anAttempt.id}`, `/api/classes/${anAttempt.classId}`, "/api/insight/overview"];
+    const statuses = Object.fromEntries(await Promise.all(apiPaths.map(async (path) => [path, (await journey.api(page, path)).status] as const)));
+    expect(statuses).toEqual(Object.fromEntries(apiPaths.map((path) => [path, 403])));
+    // while the report's own PDF is open to them
+    const pdf = await page.request.get(journey.url(`/api/reports/${versionId}/pdf`));
+    expect(pdf.status()).toBe(200);
+
+    expect(journey.findings, describeFindings(journey.findings)).toEqual([]);
+  }, JOURNEY_TIMEOUT);
+});
