@@ -1,0 +1,173 @@
+// `quarterbeat backup <file>` while the server is up and busy (reads, writes, an import): the copy is a
+// consistent database of its own, and the quarter statistics computed on it equal the original's.
+import type { Server } from "node:http";
+import type { AddressInfo } from "node:net";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import Database from "better-sqlite3";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { openDatabase, type Db } from "../../server/db/client";
+import { quarterSummary } from "../../server/stats/quarterSummary";
+import { makeTestApp, tempDbFile } from "../helpers/testApp";
+import { seedInsightNetwork } from "../fixtures/insight/network";
+import { CLASSES_FIXTURE, runCli, sleep, startCli, waitFor, writeAttemptsFile, writeLockHeld } from "./helpers";
+
+const QUARTERS = ["2025-Q3", "2025-Q4", "2026-Q1", "2026-Q2", "2026-Q3"];
+
+let dbFile: string;
+let db: Db;
+let server: Server;
+let base: string;
+let dir: string;
+
+beforeAll(async () => {
+  dbFile = tempDbFile("qb-fault-backup");
+  db = openDatabase(dbFile);
+  await seedInsightNetwork(db);
+  dir = fs.mkdtempSync(path.join(os.tmpdir(), "qb-fault-backup-files-"));
+  expect((await runCli(dbFile, ["import", "classes", CLASSES_FIXTURE])).code).toBe(0);
+  const attempts = writeAttemptsFile(path.join(dir, "attempts.csv"), "BK", 20_000);
+  const imported = await runCli(dbFile, ["import", "attempts", attempts]);
+  expect(imported.code, imported.stderr).toBe(0);
+  const app = makeTestApp(db);
+  server = app.listen(0, "127.0.0.1");
+  await new Promise((resolve) => server.once("listening", resolve));
+  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+}, 300_000);
+afterAll(async () => {
+  await new Promise((resolve) => server.close(resolve));
+  db.$client.close();
+  fs.rmSync(dir, { recursive: true, force: true });
+});
+
+/** A signed-in browser-like client over real HTTP: cookies kept by hand, the CSRF header on writes. */
+async function signedInClient(email: string) {
+  const cookies = new Map<string, string>();
+  let token = "";
+  const call = async (method: string, url: string, body?: unknown) => {
+    const res = await fetch(base + url, {
+      method,
+      headers: {
+        cookie: [...cookies].map(([k, v]) => `${k}=${v}`).join("; "),
+        ...(body !== undefined ? { "content-type": "application/json" } : {}),
+        ...(method !== "GET" ? { "x-csrf-token": token } : {}),
+      },
+      body: body === undefined ? undefined : JSON.stringify(body),
+    });
+    for (const line of res.headers.getSetCookie()) {
+      const [pair] = line.split(";");
+      cookies.set(pair.slice(0, pair.indexOf("=")), pair.slice(pair.indexOf("=") + 1));
+    }
+    const text = await res.text();
+    const json = text && res.headers.get("content-type")?.includes("json") ? JSON.parse(text) : null;
+    if (json?.csrfToken) token = json.csrfToken;
+    return { status: res.status, json };
+  };
+  await call("GET", "/api/auth/csrf");
+  const login = await call("POST", "/api/auth/login", { email, password: "correct-horse-battery" });
+  expect(login.status).toBe(200);
+  return call;
+}
+
+/** Reads and writes against the running server until `stop` says so; counts what was answered. */
+async function traffic(stop: () => boolean) {
+  const call = await signedInClient("coord@test.example");
+  const statuses: number[] = [];
+  let n = 0;
+  while (!stop()) {
+    n++;
+    statuses.push((await call("GET", "/api/insight/overview?quarter=2026-Q2")).status);
+    statuses.push((await call("GET", `/api/attempts?quarter=2026-Q1&page=${(n % 5) + 1}`)).status);
+    statuses.push((await call("PUT", "/api/reports/2026-Q2/notes", { actions: `Depth drill, round ${n}` })).status);
+    statuses.push((await call("POST", "/api/sites", { code: `BK${n}`, name: `Backup traffic site ${n}` })).status);
+  }
+  return statuses;
+}
+
+function tableCounts(file: string, skip: string[]): Record<string, number> {
+  const conn = new Database(file, { readonly: true });
+  try {
+    const names = conn.prepare("SELECT name FROM sqlite_master WHERE type = 'table' ORDER BY name").pluck().all() as string[];
+    return Object.fromEntries(names.filter((n) => !skip.includes(n)).map((n) => [n, conn.prepare(`SELECT count(*) FROM "${n}"`).pluck().get() as number]));
+  } finally {
+    conn.close();
+  }
+}
+
+function integrity(file: string): string {
+  const conn = new Database(file, { readonly: true });
+  try {
+    return conn.prepare("PRAGMA integrity_check").pluck().get() as string;
+  } finally {
+    conn.close();
+  }
+}
+
+async function stats(file: string, quarter: string): Promise<unknown> {
+  const res = await runCli(file, ["stats", "--quarter", quarter, "--json"]);
+  expect(res.code, res.stderr).toBe(0);
+  return JSON.parse(res.stdout);
+}
+
+describe("backup while the server serves requests", () => {
+  it("makes a consistent copy whose statistics equal the original's", { timeout: 300_000 }, async () => {
+    const copy = path.join(dir, "copy.sqlite");
+    let backupDone = false;
+    const load = traffic(() => backupDone);
+    await sleep(300); // the traffic is under way before the backup starts
+    const backup = await runCli(dbFile, ["backup", copy]);
+    backupDone = true;
+    const statuses = await load;
+
+    expect(backup.code, backup.stderr).toBe(0);
+    expect(backup.stdout).toMatch(/Backed up/);
+    expect(statuses.length).toBeGreaterThan(0);
+    expect(statuses.filter((s) => s >= 500)).toEqual([]);
+    expect(new Set(statuses)).toEqual(new Set([200, 201]));
+
+    expect(integrity(copy)).toBe("ok");
+    // rows the traffic did not touch are all there; sites the traffic added are there up to the backup
+    const skip = ["sessions", "sites"];
+    expect(tableCounts(copy, skip)).toEqual(tableCounts(dbFile, skip));
+    expect(tableCounts(copy, [])["attempts"]).toBeGreaterThan(20_000);
+    // the command a person would run, for the quarters with the fixture's and the import's data …
+    for (const quarter of ["2026-Q2", "2026-Q3"]) {
+      expect(await stats(copy, quarter), quarter).toEqual(await stats(dbFile, quarter));
+    }
+    // … and the same service in this process for every quarter
+    const original = openDatabase(dbFile, { migrate: false });
+    const copied = openDatabase(copy, { migrate: false });
+    try {
+      expect(quarterSummary(original, "2026-Q3").attempts).toBeGreaterThanOrEqual(20_000);
+      for (const quarter of QUARTERS) expect(quarterSummary(copied, quarter), quarter).toEqual(quarterSummary(original, quarter));
+    } finally {
+      original.$client.close();
+      copied.$client.close();
+    }
+  });
+
+  it("copies either none or all of an import under way, never part of it", { timeout: 300_000 }, async () => {
+    const copy = path.join(dir, "copy-during-import.sqlite");
+    const file = writeAttemptsFile(path.join(dir, "during.csv"), "DUR", 30_000);
+    const before = tableCounts(dbFile, ["sessions"]);
+    const load = { stop: false };
+    const reads = traffic(() => load.stop);
+    const importing = startCli(dbFile, ["import", "attempts", file, "--json"]);
+    expect(await waitFor(() => importing.child.exitCode !== null || writeLockHeld(dbFile), 120_000)).toBe(true);
+    const backup = await runCli(dbFile, ["backup", copy]);
+    const imported = await importing.done;
+    load.stop = true;
+    await reads;
+
+    expect(backup.code, backup.stderr).toBe(0);
+    expect(imported.code, imported.stderr).toBe(0);
+    expect(integrity(copy)).toBe("ok");
+    const conn = new Database(copy, { readonly: true });
+    const copied = conn.prepare("SELECT count(*) FROM attempts WHERE id LIKE 'DUR-%'").pluck().get();
+    const batches = conn.prepare("SELECT count(*) FROM import_batches").pluck().get();
+    conn.close();
+    expect([0, 30_000]).toContain(copied);
+    expect(batches).toBe(copied === 0 ? before.import_batches : before.import_batches + 1);
+  });
+});
