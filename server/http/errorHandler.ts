@@ -8,7 +8,7 @@ export const notFoundHandler: RequestHandler = (req, _res, next) => {
 /** Answers `{ error: { code, message, details } }`; never leaks stack traces or SQL to the client. */
 export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
   if (err instanceof AppError) {
-    res.status(err.status).json({ error: { code: err.code, message: err.message, details: err.details } });
+    res.status(err.status).json({ error: { code: err.code, message: err.message, details: err.details, hint: err.hint } });
     return;
   }
   // body-parser and multer errors carry a status and a type of their own
