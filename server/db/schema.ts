@@ -248,6 +248,18 @@ export const attempts = sqliteTable(
     index("attempts_class_idx").on(t.classId),
     index("attempts_manikin_idx").on(t.manikinId, t.quarter),
     index("attempts_batch_idx").on(t.batchId),
+    // each instructor's attempts in score order with every filter column: per-instructor medians are read by
+    // walking to the middle, per-instructor counts in one pass, neither touching the table rows
+    index("attempts_instructor_score_idx").on(
+      t.instructorId,
+      t.score,
+      t.quarter,
+      t.feedback,
+      t.profile,
+      t.siteId,
+      t.manikinId,
+      t.passed,
+    ),
     // covers the network statistics (counts, results, error bits, scores by quarter and feedback mode), so a
     // period is read from this index alone, in quarter and feedback order, without touching the table rows
     index("attempts_insight_idx").on(

@@ -11,7 +11,7 @@ import type { ResolvedFilters } from "./filters";
 import { funnelLimitCurve } from "./funnel";
 import { trendQuarters } from "./quarters";
 import { rateOf } from "./rates";
-import { attemptConditions, classConditions, groupSummaries } from "./sql";
+import { attemptConditions, classConditions, groupSummaries, scoreSummariesByInstructor } from "./sql";
 
 function instructorDirectory(db: Db) {
   return new Map(
@@ -25,7 +25,7 @@ function instructorDirectory(db: Db) {
 }
 
 export function instructorTable(db: Db, filters: ResolvedFilters): InstructorsAnswer {
-  const summaries = groupSummaries<number>(db, attempts.score, attempts.instructorId, attemptConditions(filters));
+  const summaries = scoreSummariesByInstructor(db, attemptConditions(filters));
   // classes come from the class logs (with a matching attempt when an attempt filter is set)
   const classCounts = new Map(
     db

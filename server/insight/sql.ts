@@ -1,6 +1,6 @@
 // SQL pieces every insight query shares: the filter conditions, error counts from the error bitmask and
 // group medians with window functions. Values are always bound parameters; only constants are inlined.
-import { and, between, eq, sql, type SQL, type SQLWrapper } from "drizzle-orm";
+import { and, asc, between, eq, sql, type SQL, type SQLWrapper } from "drizzle-orm";
 import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
 import type { Db } from "../db/client";
 import { attempts, classes } from "../db/schema";
@@ -114,4 +114,33 @@ export function groupSummaries<K extends string | number>(db: Db, value: SQLWrap
     middles.set(k, entry ? { ...entry, lower: Math.min(entry.lower, v), upper: Math.max(entry.upper, v) } : { n, passed, lower: v, upper: v });
   }
   return new Map([...middles].map(([k, { n, passed, lower, upper }]) => [k, { n, passed, median: midpoint(lower, upper) }]));
+}
+
+/**
+ * Attempts, passes and median score of every instructor, type 7 as above, without sorting anything: the
+ * counts come from one pass over the instructor/score index, then each instructor's one or two middle scores
+ * are read by walking that index in score order to the middle (LIMIT/OFFSET), so only those scores leave SQLite.
+ */
+export function scoreSummariesByInstructor(db: Db, where: SQL): Map<number, GroupSummary> {
+  const counts = db
+    .select({ instructorId: attempts.instructorId, n: sql<number>`count(*)`, passed: sql<number>`sum(${attempts.passed})` })
+    .from(attempts)
+    .where(where)
+    .groupBy(attempts.instructorId)
+    .all();
+  const middle = db
+    .select({ v: attempts.score })
+    .from(attempts)
+    .where(and(eq(attempts.instructorId, sql.placeholder("instructorId")), where))
+    .orderBy(asc(attempts.score))
+    .limit(sql.placeholder("limit"))
+    .offset(sql.placeholder("offset"))
+    .prepare();
+  return new Map(
+    counts.map(({ instructorId, n, passed }) => {
+      const lower = Math.floor((n - 1) / 2);
+      const values = middle.all({ instructorId, limit: Math.ceil((n - 1) / 2) - lower + 1, offset: lower }).map((row) => row.v);
+      return [instructorId, { n, passed, median: midpoint(values[0], values[values.length - 1]) }];
+    }),
+  );
 }

@@ -12,7 +12,16 @@ import type { ResolvedFilters } from "./filters";
 import { funnelLimitCurve } from "./funnel";
 import { classRows } from "./classes";
 import { rateOf } from "./rates";
-import { attemptConditions, classConditions, errorCountColumns, errorCountsOf, groupSummaries, medianOf, type GroupSummary } from "./sql";
+import {
+  attemptConditions,
+  classConditions,
+  errorCountColumns,
+  errorCountsOf,
+  groupSummaries,
+  medianOf,
+  scoreSummariesByInstructor,
+  type GroupSummary,
+} from "./sql";
 import { hidesGroup, type Viewer } from "./viewer";
 
 const metricColumns = {
@@ -34,9 +43,14 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
   const networkWhere = attemptConditions(network);
   const min = viewer.suppressionMinCount;
 
-  // per instructor and metric: attempts, passes and median, one window sort each
+  // per instructor and metric: attempts, passes and median (the score from its index, the others by a window sort)
   const byInstructor = Object.fromEntries(
-    standingMetricKeys.map((key) => [key, groupSummaries<number>(db, metricColumns[key], attempts.instructorId, networkWhere)]),
+    standingMetricKeys.map((key) => [
+      key,
+      key === "score"
+        ? scoreSummariesByInstructor(db, networkWhere)
+        : groupSummaries<number>(db, metricColumns[key], attempts.instructorId, networkWhere),
+    ]),
   ) as Record<(typeof standingMetricKeys)[number], Map<number, GroupSummary>>;
   const perInstructor = [...byInstructor.score].map(([instructorId, { n, passed }]) => ({ instructorId, n, passed }));
   const totals = perInstructor.reduce((sum, row) => ({ n: sum.n + row.n, passed: sum.passed + row.passed }), { n: 0, passed: 0 });

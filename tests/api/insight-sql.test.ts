@@ -4,7 +4,7 @@ import { and, eq, sql } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { median } from "../../shared/stats";
 import { attempts } from "../../server/db/schema";
-import { groupSummaries, medianOf, medianOfSorted, sortedUnion, sortedValues } from "../../server/insight/sql";
+import { groupSummaries, medianOf, medianOfSorted, scoreSummariesByInstructor, sortedUnion, sortedValues } from "../../server/insight/sql";
 import { makeTestDb } from "../helpers/testApp";
 import { seedInsightNetwork } from "../fixtures/insight/network";
 import type { Db } from "../../server/db/client";
@@ -51,6 +51,7 @@ describe("medians computed in SQL", () => {
   it.each(filters.map((where, i) => [i, where] as const))("per group equal shared median, counts and passes (filter %i)", (_i, where) => {
     expect(groupSummaries(db, attempts.score, attempts.instructorId, where)).toEqual(jsSummaries(where, "instructorId"));
     expect(groupSummaries(db, attempts.score, attempts.quarter, where)).toEqual(jsSummaries(where, "quarter"));
+    expect(scoreSummariesByInstructor(db, where)).toEqual(jsSummaries(where, "instructorId"));
   });
 
   it.each(filters.map((where, i) => [i, where] as const))("over all rows equal shared median (filter %i)", (_i, where) => {

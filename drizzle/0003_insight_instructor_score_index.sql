@@ -1,0 +1,1 @@
+CREATE INDEX `attempts_instructor_score_idx` ON `attempts` (`instructor_id`,`score`,`quarter`,`feedback`,`profile`,`site_id`,`manikin_id`,`passed`);
