@@ -81,6 +81,10 @@ describe("kill -9 in the middle of an import", () => {
     const rerun = cli(["import", "attempts", big, "--json"]);
     expect(rerun.status).toBe(0);
     expect(JSON.parse(rerun.stdout).files[0]).toMatchObject({ status: "imported", inserted: ROWS });
+    const final = new Database(db);
+    expect(final.prepare("SELECT count(*) FROM attempts").pluck().get()).toBe(ROWS);
+    expect(final.prepare("PRAGMA integrity_check").pluck().get()).toBe("ok");
+    final.close();
     fs.rmSync(dir, { recursive: true, force: true });
   });
 });
