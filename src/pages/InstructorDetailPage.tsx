@@ -9,7 +9,10 @@ import { SafetyNote } from "../components/SafetyNote";
 import { EmptyState } from "../components/States";
 import { ClassTable } from "../features/insight/ClassTable";
 import { MedianScoreTrendChart, PassRateTrendChart, type TrendRow } from "../features/insight/charts/InstructorTrendCharts";
-import { quarterLabel } from "../features/insight/format";
+import { classifyAgainstFunnel } from "../../shared/stats";
+import { PositionText } from "../features/insight/charts/FunnelChart";
+import { formatCount, formatPercent, formatScore, quarterLabel } from "../features/insight/format";
+import { RateText } from "../features/insight/RateText";
 import { InsightFilters } from "../features/insight/InsightFilters";
 import { QueryStatus } from "../features/insight/QueryStatus";
 import { insightQueries } from "../features/insight/queries";
@@ -81,8 +84,34 @@ export function InstructorContent({ answer, network }: { answer: InstructorDetai
   const { instructor } = answer;
   const rows = trendRows(answer, network);
   const quarter = quarterLabel(answer.period.from);
+  const current = answer.trend.find((t) => t.quarter === answer.period.to);
+  // where this quarter sits on the network's funnel (same filters), as on the instructors page
+  const networkRate = network?.passRate.rate ?? null;
+  const position =
+    current && networkRate !== null && current.passRate.n && current.passRate.successes !== null
+      ? classifyAgainstFunnel(current.passRate.successes, current.passRate.n, networkRate)
+      : null;
   return (
     <div className="flex flex-col gap-6">
+      {current && (
+        <p className="text-lead">
+          <strong>{quarter}:</strong>{" "}
+          {current.passRate.rate === null ? (
+            "no attempts."
+          ) : (
+            <>
+              measured pass rate <RateText rate={current.passRate} stacked={false} /> over {formatCount(current.passRate.n)} attempts; median score{" "}
+              {formatScore(current.medianScore)}.
+              {position && (
+                <>
+                  {" "}
+                  <PositionText position={position} /> <span className="text-muted">(network {formatPercent(networkRate)}).</span>
+                </>
+              )}
+            </>
+          )}
+        </p>
+      )}
       <div className="grid grid-cols-1 gap-4 xl:grid-cols-2">
         <PassRateTrendChart rows={rows} who={instructor.code} />
         <MedianScoreTrendChart rows={rows} who={instructor.code} />

@@ -52,7 +52,8 @@ const plot = (rows: readonly ParetoRow[], { width }: ChartSize): Plot.PlotOption
     height: Math.max(220, rows.length * 38 + 60),
     marginLeft: 128,
     marginRight: 16,
-    x: { domain: [0, 1], tickFormat: percentTick, label: "Share of all errors counted", grid: true, ticks: width < 700 ? 5 : 10 },
+    marginBottom: 44,
+    x: { domain: [0, 1], tickFormat: percentTick, label: "Share of all errors counted", labelAnchor: "center", labelOffset: 38, grid: true, ticks: width < 700 ? 5 : 10 },
     y: { domain: labelled.map((row) => row.name), label: null, padding: 0.25 },
     marks: [
       Plot.barX(labelled, { x: "share", y: "name", fill: ink.main, title: (r: ParetoRow) => `${r.label}: ${r.count} (${formatPercent(r.share)})` }),

@@ -55,7 +55,8 @@ const plot = (rows: readonly ErrorProfileRow[], { width }: ChartSize): Plot.Plot
     height: rows.length * 50 + 50,
     marginLeft: 128,
     marginRight: 48,
-    x: { domain: [0, shareAxisTop(shown.map((d) => d.share), 0.2)], tickFormat: percentTick, label: "Share of attempts with this error", grid: true, ticks: width < 420 ? 4 : 8 },
+    marginBottom: 44,
+    x: { domain: [0, shareAxisTop(shown.map((d) => d.share), 0.2)], tickFormat: percentTick, label: "Share of attempts with this error", labelAnchor: "center", labelOffset: 38, grid: true, ticks: width < 420 ? 4 : 8 },
     fy: { domain: rows.map((r) => errorShortLabels[r.error]), label: null },
     y: { domain: ["You", "Network"], axis: null, paddingInner: 0.1 },
     marks: [

@@ -66,7 +66,15 @@ export function FeedbackComparisonChart({ groups, minCount }: { groups: readonly
       rowKey={(g) => g.mode}
       plot={plot}
       exportFileName="pass-rate-by-display"
-      legend={<ChartLegend items={[{ label: "Pass rate; whisker: 95 % interval", swatch: shapeSwatch("bar", ink.main) }]} />}
+      legend={
+        <ChartLegend
+          items={[
+            { label: "Live display", swatch: shapeSwatch("bar", ink.main) },
+            { label: "Hidden display", swatch: shapeSwatch("bar", ink.soft) },
+            { label: "95 % interval", swatch: <path d="M3 6h18M3 2v8M21 2v8" stroke={ink.text} strokeWidth="1.5" fill="none" /> },
+          ]}
+        />
+      }
     />
   );
 }

@@ -109,7 +109,8 @@ export function FunnelChart({ title, units, curve, networkRate, subject, unitHea
         marginLeft: 48,
         marginRight: 44,
         marginTop: 20,
-        x: { domain: [0, Math.ceil(nMax * 1.08)], label: "Attempts", grid: true, ticks: width < 420 ? 4 : 8 },
+        marginBottom: 44,
+        x: { domain: [0, Math.ceil(nMax * 1.08)], label: "Number of attempts", labelAnchor: "center", labelOffset: 38, grid: true, ticks: width < 420 ? 4 : 8 },
         y: { domain: [0, 1], tickFormat: percentTick, label: "Measured pass rate", grid: true },
         marks: [
           Plot.line(curve, { x: "n", y: "high998", stroke: ink.limit, strokeWidth: 1.5 }),

@@ -42,7 +42,8 @@ export function SpreadChart({ points, minAttempts, instructorsLeftOut }: { point
       marginLeft: 48,
       marginRight: 24,
       marginTop: 20,
-      x: { domain: [low, high], label: "Median score", grid: true },
+      marginBottom: 44,
+      x: { domain: [low, high], label: "Median score", labelAnchor: "center", labelOffset: 38, grid: true },
       y: { domain: [0, 1], tickFormat: percentTick, label: "Pass rate", grid: true },
       marks: [
         Plot.dot(
