@@ -43,6 +43,16 @@ const matrix: Row[] = [
   { method: "get", path: "/api/settings/policy/versions", expect: directory },
   { method: "put", path: "/api/settings/policy", body: { policy: DEFAULT_POLICY, note: "Same as before" }, expect: coordinatorOnly },
   { method: "post", path: "/api/settings/rescore", body: {}, expect: coordinatorOnly },
+  { method: "patch", path: "/api/me", body: { lengthUnit: "mm" }, expect: everyone },
+  { method: "get", path: "/api/imports/formats", expect: { coordinator: 200, quality_lead: 403, instructor: 200, funder: 403 } },
+  { method: "get", path: "/api/imports/batches", expect: { coordinator: 200, quality_lead: 403, instructor: 200, funder: 403 } },
+  { method: "get", path: "/api/imports/presets", expect: { coordinator: 200, quality_lead: 403, instructor: 200, funder: 403 } },
+  { method: "get", path: "/api/reports", expect: { coordinator: 200, quality_lead: 403, instructor: 403, funder: 200 } },
+  { method: "get", path: "/api/reports/2026-Q2/preview", expect: { coordinator: 200, quality_lead: 403, instructor: 403, funder: 200 } },
+  { method: "get", path: "/api/reports/2026-Q2/notes", expect: { coordinator: 200, quality_lead: 403, instructor: 403, funder: 200 } },
+  { method: "put", path: "/api/reports/2026-Q2/notes", body: { actions: "Depth drill first" }, expect: coordinatorOnly },
+  { method: "get", path: "/api/report-sends", expect: coordinatorOnly },
+  { method: "get", path: "/api/outbox", expect: coordinatorOnly },
 ];
 
 /** Row scope: an instructor asking for another instructor's row is told it does not exist. */
