@@ -76,7 +76,7 @@ describe("funder", () => {
       expect(main).toContain("You are signed in as funder");
       expect(main).not.toContain(anAttempt.learner);
       if (i === 0) await journey.visited(page, "drill-down-refused");
-      else await journey.shot(page, `refused-${path.split("/")[1]}`);
+      else await journey.shot(page, `refused-${path.slice(1).replace(/\//g, "-")}`);
     }
 
     // the API behind those pages refuses the funder too
