@@ -5,6 +5,8 @@ import type { Db } from "../db/client";
 
 const DAY_MS = 24 * 60 * 60 * 1000;
 const TOUCH_EVERY_MS = 5 * 60 * 1000;
+/** How long a sign-in or sign-out waits for an import's write lock before it fails. */
+const WRITE_WAIT_MS = 5 * 60 * 1000;
 
 export class SqliteSessionStore extends session.Store {
   private readonly statements;
@@ -42,12 +44,36 @@ export class SqliteSessionStore extends session.Store {
   }
 
   override set(sid: string, sess: session.SessionData, callback?: (err?: unknown) => void): void {
+    this.writeWhenFree(() => this.statements.set.run(sid, JSON.stringify(sess), SqliteSessionStore.expiry(sess)), callback);
+  }
+
+  /** Runs `run` at once, without the connection's busy wait: SQLITE_BUSY instead of a stalled server. */
+  private withoutWaiting(run: () => void): void {
+    const busyTimeout = this.sqlite.pragma("busy_timeout", { simple: true }) as number;
+    this.sqlite.pragma("busy_timeout = 0");
     try {
-      this.statements.set.run(sid, JSON.stringify(sess), SqliteSessionStore.expiry(sess));
-      callback?.();
-    } catch (err) {
-      callback?.(err);
+      run();
+    } finally {
+      this.sqlite.pragma(`busy_timeout = ${busyTimeout}`);
     }
+  }
+
+  /**
+   * A session write (sign-in, sign-out) while an import holds the write lock waits for it without blocking
+   * the server: the connection's busy timeout would stall every request and then fail the sign-in with a 500.
+   */
+  private writeWhenFree(run: () => void, callback?: (err?: unknown) => void, giveUpAt = Date.now() + WRITE_WAIT_MS): void {
+    try {
+      this.withoutWaiting(run);
+    } catch (err) {
+      if ((err as { code?: string }).code === "SQLITE_BUSY" && Date.now() < giveUpAt) {
+        setTimeout(() => this.writeWhenFree(run, callback, giveUpAt), 50);
+        return;
+      }
+      callback?.(err);
+      return;
+    }
+    callback?.();
   }
 
   override touch(sid: string, sess: session.SessionData, callback?: () => void): void {
@@ -57,29 +83,19 @@ export class SqliteSessionStore extends session.Store {
     // throw inside the response's end, leaving the request unanswered. A skipped touch is tried again later.
     const now = Date.now();
     if (now - (this.lastTouched.get(sid) ?? 0) > TOUCH_EVERY_MS) {
-      const sqlite = this.sqlite;
-      const busyTimeout = sqlite.pragma("busy_timeout", { simple: true }) as number;
-      sqlite.pragma("busy_timeout = 0");
       try {
-        this.statements.touch.run(SqliteSessionStore.expiry(sess), sid);
+        this.withoutWaiting(() => this.statements.touch.run(SqliteSessionStore.expiry(sess), sid));
         this.lastTouched.set(sid, now);
       } catch (err) {
         if ((err as { code?: string }).code !== "SQLITE_BUSY") throw err;
-      } finally {
-        sqlite.pragma(`busy_timeout = ${busyTimeout}`);
       }
     }
     callback?.();
   }
 
   override destroy(sid: string, callback?: (err?: unknown) => void): void {
-    try {
-      this.statements.destroy.run(sid);
-      this.lastTouched.delete(sid);
-      callback?.();
-    } catch (err) {
-      callback?.(err);
-    }
+    this.lastTouched.delete(sid);
+    this.writeWhenFree(() => this.statements.destroy.run(sid), callback);
   }
 
   prune(): void {
