@@ -164,3 +164,34 @@ describe("reads while another writer holds the lock", () => {
     await fresh.get("/api/me").expect(200);
   });
 });
+
+describe("sign-in and sign-out while another writer holds the lock", () => {
+  it("wait for the lock without stalling the server, then succeed", { timeout: 120_000 }, async () => {
+    const leaving = await signIn(app, "funder@test.example");
+    const holder = new Database(dbFile);
+    holder.exec("BEGIN IMMEDIATE");
+    let released = false;
+    try {
+      const signingIn = signIn(app, "a1@test.example");
+      const signingOut = leaving.post("/api/auth/logout");
+      // meanwhile the server answers other requests at once (its event loop is free)
+      let answered = 0;
+      const until = Date.now() + 17_000; // beyond the connection's 15 s busy timeout
+      while (Date.now() < until) {
+        expect((await coordinator.get("/api/sites")).status).toBe(200);
+        answered++;
+        await sleep(500);
+      }
+      expect(answered).toBeGreaterThan(10);
+      holder.exec("COMMIT");
+      released = true;
+      const instructor = await signingIn;
+      expect((await instructor.get("/api/me").expect(200)).body.user.email).toBe("a1@test.example");
+      expect((await signingOut).status).toBe(204);
+      await leaving.get("/api/me").expect(401);
+    } finally {
+      if (!released) holder.exec("ROLLBACK");
+      holder.close();
+    }
+  });
+});
