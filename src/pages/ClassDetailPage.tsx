@@ -81,35 +81,29 @@ export function ClassContent({ answer, backTo }: { answer: ClassDetailAnswer; ba
       header: "Attempt",
       value: (a) => a.id,
       render: (a) => (
-        <Link to={`/attempts/${encodeURIComponent(a.id)}`} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
-          {a.id}
-        </Link>
+        <span className="flex flex-col leading-tight">
+          <Link to={`/attempts/${encodeURIComponent(a.id)}`} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+            {a.id}
+          </Link>
+          <span className="text-caption text-muted">started {formatTime(a.startedAt)}</span>
+        </span>
       ),
       primary: true,
     },
-    { key: "learner", header: "Learner code", value: (a) => a.learner },
-    { key: "time", header: "Started", value: (a) => a.startedAt, render: (a) => formatTime(a.startedAt) },
-    { key: "profile", header: "Manikin type", value: (a) => profileWords[a.profile] },
+    { key: "learner", header: "Learner", value: (a) => a.learner },
+    // a class usually uses one manikin type (then the course says it); all-ages classes mix them
+    ...(new Set(answer.attempts.map((a) => a.profile)).size > 1
+      ? [{ key: "profile", header: "Manikin type", value: (a: ClassAttempt) => profileWords[a.profile] }]
+      : []),
     { key: "feedback", header: "Display", value: (a) => (a.feedback === "live" ? "Live" : "Hidden") },
     { key: "score", header: "Score", value: (a) => roundTo(a.score, 1), render: (a) => formatScore(a.score), align: "right" },
-    { key: "passed", header: "Result", value: (a) => (a.passed ? "Passed" : "Not passed"), render: (a) => <PassMark passed={a.passed} /> },
+    { key: "passed", header: "Measured", value: (a) => (a.passed ? "Passed" : "Not passed"), render: (a) => <PassMark passed={a.passed} /> },
     {
       key: "instructor",
-      header: "Instructor's call",
+      header: "Instructor said",
       value: (a) => (a.instructorResult === null ? "" : a.instructorResult === "pass" ? "Passed" : "Not passed"),
       render: (a) => (a.instructorResult === null ? notRecorded : <PassMark passed={a.instructorResult === "pass"} />),
     },
-    {
-      key: "depth",
-      header: `Mean depth (${unit})`,
-      value: (a) => {
-        const depth = metrics.get(a.id)?.depthMm;
-        return depth === undefined ? null : roundTo(fromMm(depth), unit === "in" ? 2 : 1);
-      },
-      render: (a) => (metrics.has(a.id) ? formatLength(metrics.get(a.id)!.depthMm) : "–"),
-      align: "right",
-    },
-    { key: "rate", header: "Rate (per min)", value: (a) => roundTo(metrics.get(a.id)?.rateCpm, 0), align: "right" },
     {
       key: "errors",
       header: "Errors",
@@ -118,10 +112,23 @@ export function ClassContent({ answer, backTo }: { answer: ClassDetailAnswer; ba
         a.errors.length === 0 ? (
           <span className="text-muted">None</span>
         ) : (
-          <span title={a.errors.map((e) => attemptErrorLabels[e]).join("; ")}>{a.errors.map((e) => errorShortLabels[e]).join(", ")}</span>
+          <span className="block min-w-32" title={a.errors.map((e) => attemptErrorLabels[e]).join("; ")}>
+            {a.errors.map((e) => errorShortLabels[e]).join(", ")}
+          </span>
         ),
       wrap: true,
     },
+    {
+      key: "depth",
+      header: `Depth (${unit})`,
+      value: (a) => {
+        const depth = metrics.get(a.id)?.depthMm;
+        return depth === undefined ? null : roundTo(fromMm(depth), unit === "in" ? 2 : 1);
+      },
+      render: (a) => (metrics.has(a.id) ? formatLength(metrics.get(a.id)!.depthMm) : "–"),
+      align: "right",
+    },
+    { key: "rate", header: "Rate (/min)", value: (a) => roundTo(metrics.get(a.id)?.rateCpm, 0), align: "right" },
   ];
 
   const recordedShare = c.learners === 0 ? null : c.passed / c.learners;
@@ -149,7 +156,7 @@ export function ClassContent({ answer, backTo }: { answer: ClassDetailAnswer; ba
           <Fact label="Measured pass rate" wide>
             <RateText rate={answer.passRate} stacked={false} />
           </Fact>
-          <Fact label="Manikins">{c.manikins.length ? c.manikins.join(", ") : notRecorded}</Fact>
+          <Fact label="Manikins" wide>{c.manikins.length ? c.manikins.join(", ") : notRecorded}</Fact>
           <Fact label="Lungs replaced">{c.lungsReplaced ?? notRecorded}</Fact>
           <Fact label="Mouthpieces cleaned">{c.mouthpiecesCleaned ?? notRecorded}</Fact>
           <Fact label="Batteries replaced">{c.batteriesReplaced ?? notRecorded}</Fact>

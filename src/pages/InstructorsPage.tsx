@@ -58,7 +58,7 @@ function instructorColumns(search: string): Column<InstructorRow>[] {
     { key: "rate", header: "Pass rate (%)", value: (r) => percentValue(r.passRate.rate), render: (r) => formatPercent(r.passRate.rate), align: "right" },
     { key: "interval", header: "95 % interval", value: (r) => (r.passRate.low === null ? null : formatInterval(r.passRate.low, r.passRate.high)), sortable: false, align: "right" },
     { key: "median", header: "Median score", value: (r) => roundTo(r.medianScore, 1), render: (r) => formatScore(r.medianScore), align: "right" },
-    { key: "position", header: "Funnel position", value: (r) => funnelPositionText(r.position), render: (r) => <PositionText position={r.position} short /> },
+    { key: "position", header: "Funnel position", value: (r) => funnelPositionText(r.position), render: (r) => <PositionText position={r.position} short />, wrap: true },
   ];
 }
 

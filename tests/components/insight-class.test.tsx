@@ -80,7 +80,7 @@ describe("class page", () => {
     });
     renderApp("/classes/CL-0276");
     const table = await screen.findByRole("table", { name: "Attempts" });
-    expect(within(table).getByRole("button", { name: "Mean depth (in)" })).toBeTruthy();
+    expect(within(table).getByRole("button", { name: "Depth (in)" })).toBeTruthy();
     // 44.45 mm = 1.75 in exactly (1 in = 25.4 mm, international yard and pound agreement, 1959)
     expect(await within(table).findByText("1.75 in")).toBeTruthy();
     expect(within(table).getByText("2.06 in")).toBeTruthy();
