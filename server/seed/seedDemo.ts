@@ -11,6 +11,8 @@ import type { Db } from "../db/client";
 import { attempts, classes, importBatches, instructors, sites, users } from "../db/schema";
 import { AppError } from "../errors";
 import { importFile } from "../imports/service";
+import { generateReport } from "../reports/store";
+import { previousQuarter, quarterOf } from "../../shared/quarter";
 import { setSetting } from "../settings/store";
 import { createInstructor, createSite, listInstructors, listSites } from "../sites/service";
 import { createUser, findUserByEmail } from "../users/service";
@@ -59,7 +61,8 @@ export function clearNetwork(db: Db): void {
 }
 
 export async function seedDemo(db: Db, options: { today?: string; seed?: number } = {}): Promise<SeedResult> {
-  const demo = generateDemoNetwork({ seed: options.seed, today: options.today ?? new Date().toISOString().slice(0, 10) });
+  const today = options.today ?? new Date().toISOString().slice(0, 10);
+  const demo = generateDemoNetwork({ seed: options.seed, today });
   setSetting(db, "network_name", demo.network.name);
   setSetting(db, "network_region", demo.network.region);
 
@@ -96,6 +99,8 @@ export async function seedDemo(db: Db, options: { today?: string; seed?: number 
     }
     imports.push(summary);
   }
+  // A funder signing in to the demo finds the last complete quarter's report already issued.
+  await generateReport(db, previousQuarter(quarterOf(today)));
   return { network: demo.network, accounts: demo.accounts, imports };
 }
 
