@@ -90,11 +90,6 @@ export function resolveFilters(db: Db, filters: InsightFilters, viewer: Viewer):
   };
 }
 
-/** Whether the filtered attempts are all the viewer's own (an instructor filtering on themselves). */
-export function ownRowsOnly(viewer: Viewer, filters: ResolvedFilters): boolean {
-  return viewer.ownInstructorId !== null && filters.instructorId === viewer.ownInstructorId;
-}
-
 /** Stable text for cache keys. */
 export function filtersKey(filters: ResolvedFilters): string {
   const { period, ...rest } = filters;

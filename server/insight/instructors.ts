@@ -13,14 +13,19 @@ import { trendQuarters } from "./quarters";
 import { rateOf } from "./rates";
 import { attemptConditions, classConditions, groupSummaries, scoreSummariesByInstructor } from "./sql";
 
-function instructorDirectory(db: Db) {
+/** Instructors with their site, by id (one instructor when `id` is given). */
+function instructorDirectory(db: Db, id?: number) {
   return new Map(
     db
       .select({ id: instructors.id, code: instructors.code, name: instructors.name, siteId: sites.id, siteCode: sites.code })
       .from(instructors)
       .leftJoin(sites, eq(instructors.siteId, sites.id))
+      .where(id === undefined ? undefined : eq(instructors.id, id))
       .all()
-      .map((row) => [row.id, row]),
+      .map(({ siteId, siteCode, ...person }) => [
+        person.id,
+        { ...person, site: siteId !== null && siteCode !== null ? { id: siteId, code: siteCode } : null },
+      ]),
   );
 }
 
@@ -62,7 +67,7 @@ export function instructorTable(db: Db, filters: ResolvedFilters): InstructorsAn
           id,
           code: person?.code ?? `#${id}`,
           name: person?.name ?? "(unknown instructor)",
-          site: person?.siteId != null && person.siteCode != null ? { id: person.siteId, code: person.siteCode } : null,
+          site: person?.site ?? null,
           classes: classCounts.get(id) ?? 0,
           attempts: summary.n,
           passRate: rateOf(summary.passed, summary.n),
@@ -75,19 +80,14 @@ export function instructorTable(db: Db, filters: ResolvedFilters): InstructorsAn
 }
 
 export function instructorDetail(db: Db, instructorId: number, filters: ResolvedFilters): InstructorDetailAnswer {
-  const person = instructorDirectory(db).get(instructorId);
+  const person = instructorDirectory(db, instructorId).get(instructorId);
   if (!person) throw notFound("The instructor");
   const own = { ...filters, instructorId };
   const trend = trendQuarters(filters.period);
   const byQuarter = groupSummaries<string>(db, attempts.score, attempts.quarter, attemptConditions(own, trend));
   return {
     period: filters.period,
-    instructor: {
-      id: person.id,
-      code: person.code,
-      name: person.name,
-      site: person.siteId != null && person.siteCode != null ? { id: person.siteId, code: person.siteCode } : null,
-    },
+    instructor: person,
     trend: trend.quarters.map((quarter) => ({
       quarter,
       passRate: rateOf(byQuarter.get(quarter)?.passed ?? 0, byQuarter.get(quarter)?.n ?? 0),

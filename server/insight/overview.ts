@@ -1,6 +1,9 @@
 // The network overview: headline figures for the period, the quarterly pass-rate p-chart, the error Pareto
-// and live-display against hidden-display results. One grouped scan of attempts (by quarter and feedback
-// mode) feeds everything but the medians and the class logs.
+// and live-display against hidden-display results. Two grouped scans of attempts feed it: the period in full
+// (by quarter and feedback mode) and attempts and passes per quarter for the trend and the previous period.
+//
+// Shown to an instructor, each group is judged by the attempts of others in it (they know their own), and
+// groups that add up to a shown total are hidden together when one alone would be revealed by subtraction.
 import { and, eq, sql } from "drizzle-orm";
 import { feedbackModes, type FeedbackMode } from "../../shared/domain";
 import type { OverviewAnswer } from "../../shared/schemas/insight";
@@ -8,12 +11,12 @@ import { attemptErrorNames, type AttemptError } from "../../shared/scoring/score
 import { changeFrom, cohensKappa, pChart } from "../../shared/stats";
 import type { Db } from "../db/client";
 import { attempts, classes } from "../db/schema";
-import { ownRowsOnly, type ResolvedFilters } from "./filters";
+import type { ResolvedFilters } from "./filters";
 import { errorPareto } from "./pareto";
 import { previousPeriod, trendQuarters } from "./quarters";
-import { rateFor } from "./rates";
+import { rateFor, rateOf } from "./rates";
 import { attemptConditions, classConditions, errorCountColumns, errorCountsOf, medianOfSorted, sortedUnion, sortedValues } from "./sql";
-import { hidesGroup, type Viewer } from "./viewer";
+import { hidesGroup, withComplementaryHiding, type Viewer } from "./viewer";
 
 interface Tally {
   n: number;
@@ -40,13 +43,19 @@ function add(into: Tally, row: Tally): void {
   for (const name of attemptErrorNames) into.errors[name] += row.errors[name];
 }
 
+/** Attempts (and those with an instructor's result) by quarter and feedback mode. */
+interface Counted {
+  quarter: string;
+  feedback: FeedbackMode;
+  n: number;
+  pairs: number;
+}
+
 export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): OverviewAnswer {
-  const own = ownRowsOnly(viewer, filters);
-  const hides = (n: number) => hidesGroup(viewer, n, own);
   const period = filters.period;
   const before = previousPeriod(period);
   const trend = trendQuarters(period);
-  const scanFrom = trend.from < before.from ? trend.from : before.from;
+  const scan = { from: trend.from < before.from ? trend.from : before.from, to: period.to };
 
   const where = attemptConditions(filters);
   // the period in full (results, agreement, error bits; grouped in the covering index's order, no sort) …
@@ -70,9 +79,24 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): Over
   const quarterRows = db
     .select({ quarter: attempts.quarter, n: sql<number>`count(*)`, passed: sql<number>`sum(${attempts.passed})` })
     .from(attempts)
-    .where(attemptConditions(filters, { from: scanFrom, to: period.to }))
+    .where(attemptConditions(filters, scan))
     .groupBy(attempts.quarter)
     .all();
+  // an instructor's own attempts in the same groups, to judge each group by the attempts of others
+  const me = viewer.seesEveryone ? null : viewer.ownInstructorId;
+  const ownRows: Counted[] =
+    me === null
+      ? []
+      : db
+          .select({ quarter: attempts.quarter, feedback: attempts.feedback, n: sql<number>`count(*)`, pairs: sql<number>`count(${attempts.instructorResult})` })
+          .from(attempts)
+          .where(attemptConditions({ ...filters, instructorId: me }, scan))
+          .groupBy(attempts.quarter, attempts.feedback)
+          .all();
+  const own = (quarters: readonly string[], feedback?: FeedbackMode) =>
+    ownRows
+      .filter((row) => quarters.includes(row.quarter) && (feedback === undefined || row.feedback === feedback))
+      .reduce((sum, row) => ({ n: sum.n + row.n, pairs: sum.pairs + row.pairs }), { n: 0, pairs: 0 });
 
   const inPeriod = emptyTally();
   const byFeedback = new Map<FeedbackMode, Tally>(feedbackModes.map((mode) => [mode, emptyTally()]));
@@ -91,25 +115,35 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): Over
     }
   }
 
-  const hidden = hides(inPeriod.n);
+  const hidden = hidesGroup(viewer, inPeriod.n - own(period.quarters).n);
   const passRate = rateFor(inPeriod.passed, inPeriod.n, hidden);
-  const previousRate = rateFor(inPrevious.passed, inPrevious.n, hides(inPrevious.n));
+  const previousRate = rateFor(inPrevious.passed, inPrevious.n, hidesGroup(viewer, inPrevious.n - own(before.quarters).n));
   const change = changeFrom(passRate.rate, previousRate.rate);
+
+  // feedback modes add up to the period; the quarters of a range do too
+  const feedbackOthers = feedbackModes.map((mode) => byFeedback.get(mode)!.n - own(period.quarters, mode).n);
+  const feedbackHidden = withComplementaryHiding(viewer, feedbackOthers, feedbackOthers.map((n) => hidesGroup(viewer, n)));
+  const quarterOthers = trend.quarters.map((q) => byQuarter.get(q)!.n - own([q]).n);
+  const quarterHidden = quarterOthers.map((n) => hidesGroup(viewer, n));
+  const seriesHidden = period.quarters.length > 1 ? withComplementaryHiding(viewer, quarterOthers, quarterHidden) : quarterHidden;
 
   const logs = db
     .select({ classes: sql<number>`count(*)`, learners: sql<number>`coalesce(sum(${classes.learners}), 0)`, passed: sql<number>`coalesce(sum(${classes.passed}), 0)` })
     .from(classes)
     .where(classConditions(filters))
     .get()!;
+  const ownLearners =
+    me === null ? 0 : db.select({ learners: sql<number>`coalesce(sum(${classes.learners}), 0)` }).from(classes).where(classConditions({ ...filters, instructorId: me })).get()!.learners;
 
   const pairs = inPeriod.pp + inPeriod.pf + inPeriod.fp + inPeriod.ff;
-  const pairsHidden = hidden || hides(pairs);
+  const pairsHidden = hidden || hidesGroup(viewer, pairs - own(period.quarters).pairs);
   const kappa = cohensKappa([
     [inPeriod.pp, inPeriod.pf],
     [inPeriod.fp, inPeriod.ff],
   ]);
 
-  const chart = pChart(trend.quarters.map((q) => ({ n: byQuarter.get(q)!.n, count: byQuarter.get(q)!.passed })));
+  // hidden quarters stay out of the centre line too, so it cannot be used to work them out
+  const chart = pChart(trend.quarters.map((q, i) => (seriesHidden[i] ? { n: 0, count: 0 } : { n: byQuarter.get(q)!.n, count: byQuarter.get(q)!.passed })));
   // scores per feedback mode, sorted; the period's median is that of both lists together
   const scores = new Map(
     feedbackModes.map((mode) => [mode, hidden ? new Float64Array() : sortedValues(db, attempts.score, and(where, eq(attempts.feedback, mode))!)]),
@@ -125,7 +159,7 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): Over
     attempts: hidden ? null : inPeriod.n,
     passRate,
     passRateChange: { previous: previousRate, absolute: change.absolute, relative: change.relative },
-    recordedCompletion: rateFor(Math.min(logs.passed, logs.learners), logs.learners, hidden || hides(logs.learners)),
+    recordedCompletion: rateFor(Math.min(logs.passed, logs.learners), logs.learners, hidden || hidesGroup(viewer, logs.learners - ownLearners)),
     agreement: pairsHidden
       ? { pairs: null, table: null, observed: null, expected: null, kappa: null, suppressed: true }
       : {
@@ -143,18 +177,18 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): Over
     series: {
       centre: chart.centre,
       points: trend.quarters.map((quarter, i) => {
-        const point = chart.points[i];
-        const rate = rateFor(point.count, point.n, hides(point.n));
-        if (rate.suppressed) {
+        if (seriesHidden[i]) {
           return { quarter, attempts: null, passed: null, rate: null, low: null, high: null, lcl: null, ucl: null, outside: false, suppressed: true };
         }
+        const point = chart.points[i];
+        const rate = rateOf(point.count, point.n);
         return { quarter, attempts: point.n, passed: point.count, rate: point.p, low: rate.low, high: rate.high, lcl: point.lcl, ucl: point.ucl, outside: point.outside, suppressed: false };
       }),
     },
     errors: errorPareto(inPeriod.errors, inPeriod.n, hidden),
-    feedback: feedbackModes.map((mode) => {
+    feedback: feedbackModes.map((mode, i) => {
       const tally = byFeedback.get(mode)!;
-      const groupHidden = hides(tally.n);
+      const groupHidden = feedbackHidden[i];
       return {
         mode,
         attempts: groupHidden ? null : tally.n,

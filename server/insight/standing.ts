@@ -54,8 +54,9 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
   ) as Record<(typeof standingMetricKeys)[number], Map<number, GroupSummary>>;
   const perInstructor = [...byInstructor.score].map(([instructorId, { n, passed }]) => ({ instructorId, n, passed }));
   const totals = perInstructor.reduce((sum, row) => ({ n: sum.n + row.n, passed: sum.passed + row.passed }), { n: 0, passed: 0 });
-  const networkHidden = hidesGroup(viewer, totals.n);
   const myTally = perInstructor.find((row) => row.instructorId === me) ?? { instructorId: me, n: 0, passed: 0 };
+  // the network minus my own attempts is the others': judge the network figures by that
+  const networkHidden = hidesGroup(viewer, totals.n - myTally.n);
   // instructors shown as points and ranked against: enough attempts to be shown, and always me
   const shown = perInstructor.filter((row) => row.n >= min || row.instructorId === me);
   const shownIds = new Set(shown.map((row) => row.instructorId));

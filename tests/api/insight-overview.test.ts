@@ -295,6 +295,20 @@ describe("suppression of small groups", () => {
     }
   });
 
+  it("judges a group by the attempts of others, so an instructor cannot subtract their own", async () => {
+    // NORTH in 2026-Q2: A1's own 10 attempts + C1's 4. Shown in full to the quality lead …
+    expect((await get("/api/insight/overview?site=NORTH", t.quality)).passRate).toMatchObject({ n: 14, successes: 6 });
+    // … but to A1 the 14 minus their own 10 would be C1's 4: hidden
+    const a1 = await get("/api/insight/overview?site=NORTH", t.instructor);
+    expect(a1).toMatchObject({ suppressed: true, attempts: null });
+    expect(a1.series.points.at(-1)).toMatchObject({ suppressed: true, attempts: null });
+    // to B1, who has no attempts at NORTH, the 14 are a group of others large enough to show; within it the
+    // hidden-display attempts (A1 5 + C1 4 = 9) and live (A1 5) are both large enough too
+    const b1 = await get("/api/insight/overview?site=NORTH", t.otherInstructor);
+    expect(b1.passRate).toMatchObject({ n: 14, successes: 6 });
+    expect(b1.feedback.map((f) => [f.mode, f.attempts])).toEqual([["live", 5], ["hidden", 9]]);
+  });
+
   it("lets an instructor filter on themselves only", async () => {
     await t.instructor.get("/api/insight/overview?instructor=B1").expect(403);
     await t.instructor.get(`/api/insight/overview?instructor=${t.net.instructors.b1.id}`).expect(403);

@@ -116,6 +116,17 @@ describe("standing with filters and small groups", () => {
     expect(res.text).not.toContain("C1");
   });
 
+  it("hides the network figures when the others in it are too few, however many are mine", async () => {
+    // NORTH: my 10 attempts + C1's 4 → the network minus me is C1's 4 attempts
+    const res = await t.instructor.get("/api/insight/standing?site=NORTH").expect(200);
+    const north = standingAnswerSchema.parse(res.body);
+    expect(north.attempts).toBe(10);
+    expect(north.errorProfile.networkSuppressed).toBe(true);
+    expect(north.funnel.networkRate).toBeNull();
+    expect(north.metrics.find((m) => m.key === "score")).toMatchObject({ mine: 75, network: null, percentileRank: null });
+    expect(north.spread.points).toEqual([{ medianScore: 75, passRate: 0.6, isMe: true }]);
+  });
+
   it("covers earlier quarters on request", async () => {
     const q3 = standingAnswerSchema.parse((await t.instructor.get("/api/insight/standing?quarter=2025-Q3").expect(200)).body);
     // 2025-Q3: A1's 29 attempts are the whole network
