@@ -14,10 +14,11 @@ let journey: Journey;
 /** The period the report page opens on: the latest quarter that has ended (by the browser's clock). */
 let period: string;
 let versionId: number;
+let versionNumber: number;
 
 beforeAll(async () => {
   journey = await Journey.start("funder");
-  // the coordinator stores a version of the report, which is what makes a PDF for funders
+  // the coordinator stores a new version of the report, so the test knows which PDF funders must get
   const { context, page } = await journey.newPage();
   await journey.signIn(page, coordinator.email, coordinator.password);
   const options = await journey.api<{ quarters: string[] }>(page, "/api/insight/options");
@@ -25,6 +26,7 @@ beforeAll(async () => {
   const created = await journey.apiPost<{ report: { id: number; version: number } }>(page, `/api/reports/${period}`);
   expect(created.status).toBe(201);
   versionId = created.body.report.id;
+  versionNumber = created.body.report.version;
   await context.close();
 }, SETUP_TIMEOUT);
 
@@ -47,7 +49,7 @@ describe("funder", () => {
     const download = page.getByRole("link", { name: /^Download PDF/ });
     await download.waitFor();
     expect(await download.getAttribute("href")).toBe(`/api/reports/${versionId}/pdf`);
-    await page.getByText("You are reading version 1").waitFor();
+    await page.getByText(`You are reading version ${versionNumber}`).waitFor();
     expect(await page.getByRole("combobox", { name: "Quarter" }).inputValue()).toBe(period);
     await page.getByText(new RegExp(`^Period ${period}`)).waitFor();
     await journey.visited(page, "report");
