@@ -2,7 +2,7 @@
 // where the score, the result or the errors change, the old ones move to score_history first. All in one
 // transaction: a failure leaves every attempt as it was.
 import { analyzeSorted, emptyMetrics, type AttemptMetrics } from "../../shared/scoring/analyzeStream";
-import { scoreAttempt, errorsToMask } from "../../shared/scoring/scoreAttempt";
+import { scoreAttempt, errorsToMask, type ScoringInput } from "../../shared/scoring/scoreAttempt";
 import { bandFor, type NetworkPolicy, type PatientType } from "../../shared/scoring/policy";
 import type { Db } from "../db/client";
 import { currentPolicy } from "../policy/service";
@@ -10,20 +10,11 @@ import { decodeStream, tenthsToMm } from "../streams/codec";
 
 const BATCH = 5_000;
 
-interface StoredAttempt {
+/** A row as selected below: the scoring input's columns carry the same snake_case names in SQLite. */
+interface StoredAttempt extends ScoringInput {
   rowid: number;
   id: string;
   profile: PatientType;
-  compressions: number;
-  depth_ok_pct: number;
-  too_shallow_pct: number;
-  too_deep_pct: number;
-  rate_ok_pct: number;
-  too_slow_pct: number;
-  too_fast_pct: number;
-  recoil_ok_pct: number;
-  hands_on_pct: number;
-  longest_pause_s: number;
   score: number;
   passed: number;
   error_mask: number;
