@@ -6,7 +6,7 @@ import { allow, signedInUser } from "../auth/guard";
 import { forbidden } from "../errors";
 import { parseWith } from "../http/validate";
 import { filtersKey, resolveFilters } from "../insight/filters";
-import { sendCached } from "../insight/routes";
+import { sendCached } from "../insight/cache";
 import { viewerKey, viewerOf } from "../insight/viewer";
 import { currentPolicy } from "../policy/service";
 import { equipmentReport } from "./service";

@@ -6,6 +6,7 @@
 // import, the import worker thread) commits, and total_changes() counts every row this connection has
 // written. Any write therefore empties the cache; nothing is ever served from before it.
 import type { Statement } from "better-sqlite3";
+import type { Response } from "express";
 import type { Db } from "../db/client";
 
 const MAX_ENTRIES = 500;
@@ -63,4 +64,9 @@ export function cached<T>(db: Db, key: string, compute: () => T): T {
     store.entries.set(key, value);
   }
   return value;
+}
+
+/** Sends the answer for `key`, computed and serialised once per state of the database. */
+export function sendCached(db: Db, res: Response, key: string, compute: () => unknown): void {
+  res.type("application/json").send(cached(db, key, () => JSON.stringify(compute())));
 }

@@ -1,12 +1,12 @@
 // Network-insight routes: parse the filters, apply the viewer's scope, answer from the per-state cache.
-import { Router, type Request, type Response } from "express";
+import { Router, type Request } from "express";
 import { z } from "zod";
 import { attemptListQuerySchema, errorsQuerySchema, insightFiltersSchema } from "../../shared/filters";
 import type { Db } from "../db/client";
 import { allow, rowScope, signedInUser } from "../auth/guard";
 import { parseId, parseWith } from "../http/validate";
 import { attemptDetail, attemptList } from "./attempts";
-import { cached } from "./cache";
+import { sendCached } from "./cache";
 import { classDetail } from "./classes";
 import { errorAnalysis } from "./errors";
 import { filtersKey, resolveFilters } from "./filters";
@@ -17,11 +17,6 @@ import { standing } from "./standing";
 import { viewerKey, viewerOf } from "./viewer";
 
 const rowIdSchema = z.string().trim().min(1, "Give an id").max(100, "An id has at most 100 characters");
-
-/** Sends the answer for `key`, computed and serialised once per state of the database. */
-export function sendCached(db: Db, res: Response, key: string, compute: () => unknown): void {
-  res.type("application/json").send(cached(db, key, () => JSON.stringify(compute())));
-}
 
 export function insightRoutes(db: Db): Router {
   const router = Router();
