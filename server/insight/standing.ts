@@ -1,14 +1,15 @@
 // "My standing": an instructor's own medians and pass rate beside the network's, the anonymous spread of all
 // instructors, the funnel with the instructor's own point, the error profile and the classes. Other
 // instructors appear only as anonymous points and network aggregates.
-import { eq } from "drizzle-orm";
+import { eq, type SQL } from "drizzle-orm";
 import { standingMetricKeys, type StandingAnswer } from "../../shared/schemas/insight";
-import { attemptErrorLabels, attemptErrorNames } from "../../shared/scoring/scoreAttempt";
+import { attemptErrorLabels, attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
 import { classifyAgainstFunnel, percentileRank } from "../../shared/stats";
 import type { Db } from "../db/client";
 import { attempts, instructors } from "../db/schema";
 import { forbidden } from "../errors";
-import type { ResolvedFilters } from "./filters";
+import { cached } from "./cache";
+import { filtersKey, type ResolvedFilters } from "./filters";
 import { funnelLimitCurve } from "./funnel";
 import { classRows } from "./classes";
 import { rateOf } from "./rates";
@@ -32,26 +33,44 @@ const metricColumns = {
   hands_on_pct: attempts.handsOnPct,
 } as const;
 
+type MetricKey = (typeof standingMetricKeys)[number];
+
+/** The figures every instructor's standing shares for the same filters: computed once per database state. */
+interface NetworkFigures {
+  /** Per instructor and metric: attempts, passes and median. */
+  byInstructor: Record<MetricKey, Map<number, GroupSummary>>;
+  medians: Record<MetricKey, number | null>;
+  errors: Record<AttemptError, number>;
+}
+
+function errorCounts(db: Db, where: SQL): Record<AttemptError, number> {
+  return errorCountsOf(db.select(errorCountColumns()).from(attempts).where(where).get()!);
+}
+
+function networkFigures(db: Db, network: ResolvedFilters): NetworkFigures {
+  return cached(db, `standing-network|${filtersKey(network)}`, () => {
+    const where = attemptConditions(network);
+    const byMetric = <T>(compute: (key: MetricKey) => T) => Object.fromEntries(standingMetricKeys.map((key) => [key, compute(key)])) as Record<MetricKey, T>;
+    return {
+      // the score from its index; the other metrics by a window sort each
+      byInstructor: byMetric((key) =>
+        key === "score" ? scoreSummariesByInstructor(db, where) : groupSummaries<number>(db, metricColumns[key], attempts.instructorId, where),
+      ),
+      medians: byMetric((key) => medianOf(db, metricColumns[key], where)),
+      errors: errorCounts(db, where),
+    };
+  });
+}
+
 export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): StandingAnswer {
   const me = viewer.ownInstructorId;
   if (me === null) throw forbidden("Your account is not linked to an instructor.");
   const self = db.select({ code: instructors.code, name: instructors.name }).from(instructors).where(eq(instructors.id, me)).get();
   if (!self) throw forbidden("Your account is not linked to an instructor.");
 
-  const network = { ...filters, instructorId: null };
   const mine = { ...filters, instructorId: me };
-  const networkWhere = attemptConditions(network);
   const min = viewer.suppressionMinCount;
-
-  // per instructor and metric: attempts, passes and median (the score from its index, the others by a window sort)
-  const byInstructor = Object.fromEntries(
-    standingMetricKeys.map((key) => [
-      key,
-      key === "score"
-        ? scoreSummariesByInstructor(db, networkWhere)
-        : groupSummaries<number>(db, metricColumns[key], attempts.instructorId, networkWhere),
-    ]),
-  ) as Record<(typeof standingMetricKeys)[number], Map<number, GroupSummary>>;
+  const { byInstructor, medians, errors: networkErrorCounts } = networkFigures(db, { ...filters, instructorId: null });
   const perInstructor = [...byInstructor.score].map(([instructorId, { n, passed }]) => ({ instructorId, n, passed }));
   const totals = perInstructor.reduce((sum, row) => ({ n: sum.n + row.n, passed: sum.passed + row.passed }), { n: 0, passed: 0 });
   const myTally = perInstructor.find((row) => row.instructorId === me) ?? { instructorId: me, n: 0, passed: 0 };
@@ -67,7 +86,7 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
     return {
       key,
       mine: mineValue,
-      network: networkHidden ? null : medianOf(db, metricColumns[key], networkWhere),
+      network: networkHidden ? null : medians[key],
       percentileRank: mineValue === null || networkHidden ? null : percentileRank(others, mineValue),
     };
   });
@@ -79,10 +98,8 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
   const networkRate = networkHidden || totals.n === 0 ? null : totals.passed / totals.n;
   const nMax = Math.max(0, ...perInstructor.map((row) => row.n));
 
-  const errorCounts = (where: ReturnType<typeof attemptConditions>) =>
-    errorCountsOf(db.select(errorCountColumns()).from(attempts).where(where).get()!);
-  const myErrors = errorCounts(attemptConditions(mine));
-  const networkErrors = networkHidden ? null : errorCounts(networkWhere);
+  const myErrors = errorCounts(db, attemptConditions(mine));
+  const networkErrors = networkHidden ? null : networkErrorCounts;
 
   return {
     period: filters.period,
