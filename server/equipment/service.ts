@@ -1,6 +1,7 @@
 // The manikin fleet, consumables per 100 learners and the list of what needs attention, judged against the
 // equipment thresholds of the network policy (project defaults unless the network changed them).
-import { and, between, eq, inArray, isNotNull, lt, sql, type SQL } from "drizzle-orm";
+import { and, between, eq, gte, inArray, isNotNull, lt, sql, type SQL } from "drizzle-orm";
+import { quarterOf } from "../../shared/quarter";
 import type { EquipmentAnswer } from "../../shared/schemas/equipment";
 import { DEFAULT_POLICY, type EquipmentPolicy } from "../../shared/scoring/policy";
 import type { Db } from "../db/client";
@@ -83,17 +84,25 @@ export function equipmentReport(db: Db, policy: EquipmentPolicy, scope: Equipmen
     .all();
   const eventsOf = new Map(events.map((row) => [row.manikinId, row]));
 
-  const lastService = sql`(SELECT max(${equipmentEvents.date}) FROM ${equipmentEvents}
-                            WHERE ${equipmentEvents.manikinId} = ${attempts.manikinId} AND ${equipmentEvents.event} = 'serviced')`;
+  // compressions since each manikin's last service: from the quarter of that service on (manikin/quarter index),
+  // then by day; an attempt on the service day counts after it, as the log has no time of day and counting it
+  // errs towards servicing early
+  const sinceServiceOf = db
+    .select({ compressions: sql<number>`coalesce(sum(${attempts.compressions}), 0)` })
+    .from(attempts)
+    .where(
+      and(
+        eq(attempts.manikinId, sql.placeholder("manikinId")),
+        gte(attempts.quarter, sql.placeholder("quarter")),
+        sql`substr(${attempts.startedAt}, 1, 10) >= ${sql.placeholder("day")}`,
+      ),
+    )
+    .prepare();
   const sinceService = new Map(
-    db
-      .select({ manikinId: attempts.manikinId, compressions: sql<number>`sum(${attempts.compressions})` })
-      .from(attempts)
-      // an attempt on the service day counts after it: the log has no time of day, and counting it errs towards servicing early
-      .where(and(onFleet(attempts.manikinId), sql`(${lastService} IS NULL OR substr(${attempts.startedAt}, 1, 10) >= ${lastService})`))
-      .groupBy(attempts.manikinId)
-      .all()
-      .map((row) => [row.manikinId, row.compressions]),
+    ids.map((id) => {
+      const day = eventsOf.get(id)?.lastService ?? "";
+      return [id, sinceServiceOf.get({ manikinId: id, quarter: day ? quarterOf(day) : "", day })!.compressions];
+    }),
   );
 
   const fleetRows: EquipmentAnswer["fleet"] = fleet.map(({ manikin: m, siteCode }) => ({
