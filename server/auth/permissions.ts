@@ -10,6 +10,8 @@ export const permissions = {
   undoImport: ["coordinator"],
   /** The filter bar's choices; what each role gets is narrowed by the insight options service. */
   readInsightOptions: ["coordinator", "quality_lead", "instructor", "funder"],
+  /** The token that tells an open page the figures may have changed; it reveals nothing else. */
+  watchDataVersion: ["coordinator", "quality_lead", "instructor", "funder"],
   readNetwork: ["coordinator", "quality_lead", "instructor"],
   drillDown: ["coordinator", "quality_lead"],
   readOwnStanding: ["instructor"],

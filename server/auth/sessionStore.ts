@@ -2,6 +2,7 @@
 // in the Drizzle migrations, and there is one writer connection for the whole process.
 import session from "express-session";
 import type { Db } from "../db/client";
+import { noteHousekeepingWrite } from "../db/dataState";
 
 const DAY_MS = 24 * 60 * 60 * 1000;
 const TOUCH_EVERY_MS = 5 * 60 * 1000;
@@ -44,7 +45,12 @@ export class SqliteSessionStore extends session.Store {
   }
 
   override set(sid: string, sess: session.SessionData, callback?: (err?: unknown) => void): void {
-    this.writeWhenFree(() => this.statements.set.run(sid, JSON.stringify(sess), SqliteSessionStore.expiry(sess)), callback);
+    this.writeWhenFree(() => this.housekeeping(this.statements.set.run(sid, JSON.stringify(sess), SqliteSessionStore.expiry(sess))), callback);
+  }
+
+  /** Session rows are no figure's input: their writes are kept out of the data state (see db/dataState). */
+  private housekeeping(info: { changes: number; lastInsertRowid: number | bigint }): void {
+    noteHousekeepingWrite(this.sqlite, info);
   }
 
   /** Runs `run` at once, without the connection's busy wait: SQLITE_BUSY instead of a stalled server. */
@@ -84,7 +90,7 @@ export class SqliteSessionStore extends session.Store {
     const now = Date.now();
     if (now - (this.lastTouched.get(sid) ?? 0) > TOUCH_EVERY_MS) {
       try {
-        this.withoutWaiting(() => this.statements.touch.run(SqliteSessionStore.expiry(sess), sid));
+        this.withoutWaiting(() => this.housekeeping(this.statements.touch.run(SqliteSessionStore.expiry(sess), sid)));
         this.lastTouched.set(sid, now);
       } catch (err) {
         if ((err as { code?: string }).code !== "SQLITE_BUSY") throw err;
@@ -95,10 +101,10 @@ export class SqliteSessionStore extends session.Store {
 
   override destroy(sid: string, callback?: (err?: unknown) => void): void {
     this.lastTouched.delete(sid);
-    this.writeWhenFree(() => this.statements.destroy.run(sid), callback);
+    this.writeWhenFree(() => this.housekeeping(this.statements.destroy.run(sid)), callback);
   }
 
   prune(): void {
-    this.statements.prune.run(Date.now());
+    this.housekeeping(this.statements.prune.run(Date.now()));
   }
 }

@@ -2,20 +2,20 @@
 // take from a few hundred milliseconds to seconds to compute, while the data changes only when something is
 // imported, rescored or edited; so each answer is computed once per state of the database.
 //
-// The state is read cheaply on every request: SQLite's data_version changes when another connection (a CLI
-// import, the import worker thread) commits, and total_changes() counts every row this connection has
-// written. Any write therefore empties the cache; nothing is ever served from before it.
-import type { Statement } from "better-sqlite3";
+// The state is read cheaply on every request (see db/dataState): any write a figure could depend on empties
+// the cache, from this process or another; nothing is ever served from before it.
+import { randomUUID } from "node:crypto";
 import type { Response } from "express";
 import type { Db } from "../db/client";
+import { dataState } from "../db/dataState";
 
 const MAX_ENTRIES = 500;
+/** Tells this process's database states apart from those of an earlier run, whose counters started alike. */
+const PROCESS_RUN = randomUUID().slice(0, 8);
 
 interface Store {
   version: string;
   entries: Map<string, unknown>;
-  readDataVersion: Statement;
-  readChanges: Statement;
 }
 
 const stores = new WeakMap<Db, Store>();
@@ -29,19 +29,19 @@ export function setInsightCache(on: boolean): void {
 function storeFor(db: Db): Store {
   let store = stores.get(db);
   if (!store) {
-    store = {
-      version: "",
-      entries: new Map(),
-      readDataVersion: db.$client.prepare("PRAGMA data_version").pluck(),
-      readChanges: db.$client.prepare("SELECT total_changes()").pluck(),
-    };
+    store = { version: "", entries: new Map() };
     stores.set(db, store);
   }
   return store;
 }
 
-function databaseState(store: Store): string {
-  return `${store.readDataVersion.get()}:${store.readChanges.get()}`;
+
+/**
+ * An opaque token for the database's present state, as the cache sees it. Clients compare it with the one
+ * they saw last: when it differs, figures may have changed (an import from the CLI, say) and they refetch.
+ */
+export function dataVersion(db: Db): string {
+  return `${PROCESS_RUN}:${dataState(db.$client)}`;
 }
 
 /**
@@ -51,7 +51,7 @@ function databaseState(store: Store): string {
 export function cached<T>(db: Db, key: string, compute: () => T): T {
   if (!enabled) return compute();
   const store = storeFor(db);
-  const before = databaseState(store);
+  const before = dataState(db.$client);
   if (before !== store.version) {
     store.version = before;
     store.entries.clear();
@@ -59,7 +59,7 @@ export function cached<T>(db: Db, key: string, compute: () => T): T {
   if (store.entries.has(key)) return store.entries.get(key) as T;
   const sqlite = db.$client;
   const value = sqlite.inTransaction ? compute() : sqlite.transaction(compute).deferred();
-  if (databaseState(store) === before) {
+  if (dataState(db.$client) === before) {
     if (store.entries.size >= MAX_ENTRIES) store.entries.delete(store.entries.keys().next().value as string);
     store.entries.set(key, value);
   }

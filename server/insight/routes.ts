@@ -6,7 +6,7 @@ import type { Db } from "../db/client";
 import { allow, rowScope, signedInUser } from "../auth/guard";
 import { parseId, parseWith } from "../http/validate";
 import { attemptDetail, attemptList } from "./attempts";
-import { sendCached } from "./cache";
+import { dataVersion, sendCached } from "./cache";
 import { classDetail } from "./classes";
 import { errorAnalysis } from "./errors";
 import { filtersKey, resolveFilters } from "./filters";
@@ -27,6 +27,11 @@ export function insightRoutes(db: Db): Router {
     const filters = resolveFilters(db, parseWith(insightFiltersSchema, query, "The filters"), viewer);
     return { viewer, filters, key: `${route}|${viewerKey(viewer)}|${filtersKey(filters)}` };
   }
+
+  // Never cached by the browser: an open page asks on focus whether anything was written since it last looked.
+  router.get("/data-version", allow("watchDataVersion"), (_req, res) => {
+    res.set("Cache-Control", "no-store").json({ version: dataVersion(db) });
+  });
 
   router.get("/insight/options", allow("readInsightOptions"), (req, res) => {
     const viewer = viewerOf(db, signedInUser(req));

@@ -11,6 +11,7 @@ import { useCurrentUser } from "../features/auth/useSession";
 import { RequireSession } from "./RouteGuard";
 import { useRouteTable } from "./RouteTable";
 import { navGroups } from "./routes";
+import { useFollowDataChanges } from "./useFollowDataChanges";
 
 export function AppLayout() {
   return (
@@ -38,6 +39,7 @@ function SignedInLayout() {
   const navId = useId();
   const mainRef = useRef<HTMLElement>(null);
   const firstRender = useRef(true);
+  useFollowDataChanges();
 
   // After moving to another page: close the phone menu and put focus at the start of the new page, so
   // keyboard and screen-reader users continue from there rather than from the old link.

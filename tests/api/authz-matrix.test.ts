@@ -29,6 +29,7 @@ const matrix: Row[] = [
   { method: "get", path: "/api/users", expect: coordinatorOnly },
   { method: "get", path: "/api/sites", expect: directory },
   { method: "get", path: "/api/instructors", expect: directory },
+  { method: "get", path: "/api/data-version", expect: everyone },
   { method: "get", path: "/api/insight/options", expect: everyone },
   { method: "get", path: "/api/insight/overview", expect: network },
   { method: "get", path: "/api/insight/standing", expect: instructorOnly },

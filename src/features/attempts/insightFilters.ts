@@ -1,20 +1,14 @@
 // The network filters of the drill-down pages (error trends, attempts, equipment): their choices come from
 // GET /api/insight/options, their values live in the URL, and they turn into the API's query string.
-import { queryOptions, useQuery } from "@tanstack/react-query";
+import { useQuery } from "@tanstack/react-query";
 import { feedbackFilter, filterParamName, type FilterDefinition, type FilterValues } from "../../components/FilterBar";
-import { http } from "../../api/http";
 import type { OptionsAnswer } from "../../../shared/schemas/insight";
+import { insightQueries } from "../insight/queries";
 import { patientTypeLabels } from "./labels";
 
-export const insightOptionsQuery = () =>
-  queryOptions({
-    queryKey: ["insight", "options"] as const,
-    queryFn: ({ signal }) => http.get<OptionsAnswer>("/api/insight/options", signal),
-    staleTime: 5 * 60_000,
-  });
-
+/** The filter choices, from the one options query every page shares. */
 export function useInsightOptions() {
-  return useQuery(insightOptionsQuery());
+  return useQuery(insightQueries.options());
 }
 
 /** Period choices besides single quarters. */

@@ -4,15 +4,16 @@ import type { AttemptDetailAnswer, AttemptListAnswer } from "../../../shared/sch
 import { http } from "../../api/http";
 
 export const attemptQueries = {
+  all: () => ["attempts"] as const,
   list: (query: Record<string, string | undefined>) =>
     queryOptions({
-      queryKey: ["attempts", "list", query] as const,
+      queryKey: [...attemptQueries.all(), "list", query] as const,
       queryFn: ({ signal }) => http.get<AttemptListAnswer>(`/api/attempts?${filtersToQuery(query)}`, signal),
       placeholderData: keepPreviousData,
     }),
   detail: (id: string) =>
     queryOptions({
-      queryKey: ["attempts", "detail", id] as const,
+      queryKey: [...attemptQueries.all(), "detail", id] as const,
       queryFn: ({ signal }) => http.get<AttemptDetailAnswer>(`/api/attempts/${encodeURIComponent(id)}`, signal),
       retry: (count, error) => !(error instanceof Error && "status" in error && (error as { status: number }).status === 404) && count < 2,
     }),

@@ -4,9 +4,10 @@ import type { ErrorsAnswer } from "../../../shared/schemas/insight";
 import { http } from "../../api/http";
 
 export const errorQueries = {
+  all: () => ["errors"] as const,
   analysis: (query: Record<string, string | undefined>) =>
     queryOptions({
-      queryKey: ["insight", "errors", query] as const,
+      queryKey: [...errorQueries.all(), query] as const,
       queryFn: ({ signal }) => http.get<ErrorsAnswer>(`/api/insight/errors?${filtersToQuery(query)}`, signal),
       placeholderData: keepPreviousData,
     }),

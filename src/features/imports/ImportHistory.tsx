@@ -1,6 +1,6 @@
 // Every import batch: who, when, which file, what it changed and whether it still stands. Coordinators can
 // undo a batch; anyone can open the rows a batch refused. Instructors see their own batches only.
-import { useInfiniteQuery, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
+import { useInfiniteQuery, useMutation, useQuery } from "@tanstack/react-query";
 import { useEffect, useMemo, useRef, useState } from "react";
 import type { ImportBatch } from "../../../shared/import/api";
 import { Button } from "../../components/Button";
@@ -93,13 +93,13 @@ export function ImportHistory({ highlightBatch }: { highlightBatch?: number | nu
         render: (b) => (
           <div className="-mx-2.5 flex flex-wrap gap-0.5 sm:flex-col sm:items-start">
             {b.rejected > 0 && (
-              <Button size="sm" variant="quiet" onClick={() => setOpenBatch(b)}>
-                Refused rows<span className="sr-only"> of batch {b.id}</span>
+              <Button size="sm" variant="quiet" onClick={() => setOpenBatch(b)} aria-label={`Refused rows of batch ${b.id}`}>
+                Refused rows
               </Button>
             )}
             {coordinator && b.status === "applied" && (
-              <Button size="sm" variant="dangerQuiet" onClick={() => setUndoing(b)}>
-                Undo<span className="sr-only"> batch {b.id}</span>
+              <Button size="sm" variant="dangerQuiet" onClick={() => setUndoing(b)} aria-label={`Undo batch ${b.id}`}>
+                Undo
               </Button>
             )}
           </div>
@@ -269,10 +269,9 @@ function RejectedRowsPanel({ batch, onClose }: { batch: ImportBatch; onClose: ()
 }
 
 function UndoDialog({ batch, onClose, onDone }: { batch: ImportBatch | null; onClose: () => void; onDone: (message: string) => void }) {
-  const queryClient = useQueryClient();
   const undo = useMutation({
     mutationFn: (id: number) => undoBatch(id),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: importQueries.all() }),
+    meta: { changesFigures: true },
   });
   const close = () => {
     undo.reset();

@@ -5,6 +5,7 @@ import { useEffect, useRef, useState } from "react";
 import type { ImportKind } from "../../../shared/domain";
 import type { ImportJob, Preview, Upload } from "../../../shared/import/api";
 import type { ImportMapping } from "../../../shared/import/mapping";
+import { invalidateFigures } from "../../app/figureQueries";
 import { Button } from "../../components/Button";
 import { Notice } from "../../components/Notice";
 import { errorMessage } from "../../components/States";
@@ -61,13 +62,13 @@ export function ImportWizard({ onImported }: { onImported?: (batchId: number | n
   const validateJob = useQuery({ ...importQueries.job(validateJobId ?? ""), enabled: validateJobId !== null });
   const importJob = useQuery({ ...importQueries.job(importJobId ?? ""), enabled: importJobId !== null });
 
-  // A finished import changes the history below (once per job).
+  // A finished import changes the history below and every figure computed from the data (once per job).
   const announced = useRef<string | null>(null);
   const finishedImport = importJob.data?.status === "done" ? importJob.data : null;
   useEffect(() => {
     if (!finishedImport || announced.current === finishedImport.id) return;
     announced.current = finishedImport.id;
-    void queryClient.invalidateQueries({ queryKey: importQueries.history().queryKey });
+    void invalidateFigures(queryClient);
     onImported?.(finishedImport.summary?.batchId ?? null);
   }, [finishedImport, queryClient, onImported]);
 

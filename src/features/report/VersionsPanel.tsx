@@ -1,6 +1,6 @@
 // The stored versions of a period's report, and "Create report version": each version keeps its figures
 // and its PDF exactly as they were, so what funders received can always be downloaded again.
-import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { useMutation } from "@tanstack/react-query";
 import { useState } from "react";
 import type { ReportVersion } from "../../../shared/schemas/report";
 import { Button } from "../../components/Button";
@@ -24,11 +24,10 @@ export interface VersionsPanelProps {
 }
 
 export function VersionsPanel({ period, versions, onCreated }: VersionsPanelProps) {
-  const queryClient = useQueryClient();
   const [message, setMessage] = useState<{ tone: "success" | "error"; text: string } | null>(null);
   const create = useMutation({
     mutationFn: () => createVersion(period),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: reportQueries.versions(period).queryKey }),
+    meta: { invalidates: [reportQueries.all()] },
   });
 
   function run() {

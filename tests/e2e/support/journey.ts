@@ -30,6 +30,8 @@ export class Journey {
   private constructor(
     readonly name: string,
     readonly db: Db,
+    /** The SQLite file the server serves, for writes made from outside the page (a CLI import). */
+    readonly dbFile: string,
     private readonly dbDir: string,
     private readonly app: RunningApp,
     readonly browser: Browser,
@@ -38,13 +40,13 @@ export class Journey {
 
   static async start(name: string): Promise<Journey> {
     const clientDir = await builtClientDir();
-    const { db, dir } = await seededDatabase(name);
+    const { db, file, dir } = await seededDatabase(name);
     const app = await startApp(db, clientDir);
     const browser = await launchChromium();
     const shotsDir = path.join(repoRoot, "test-results/e2e", name);
     fs.rmSync(shotsDir, { recursive: true, force: true });
     fs.mkdirSync(shotsDir, { recursive: true });
-    return new Journey(name, db, dir, app, browser, shotsDir);
+    return new Journey(name, db, file, dir, app, browser, shotsDir);
   }
 
   get baseUrl(): string {
