@@ -4,12 +4,12 @@ import fs from "node:fs";
 import type { Command } from "commander";
 import { z } from "zod";
 import { attemptMetricKeys } from "../../shared/scoring/analyzeStream";
-import { attemptErrorLabels } from "../../shared/scoring/scoreAttempt";
 import { patientTypes } from "../../shared/scoring/policy";
 import { AppError } from "../../server/errors";
 import { analyzeFile } from "../../server/streams/analyzeFile";
 import { UsageError } from "../errors";
 import { readMappingFile } from "./import";
+import { errorLabels } from "../../shared/vocabulary";
 
 const optionsSchema = z.object({
   profile: z.enum(patientTypes).optional(),
@@ -62,7 +62,7 @@ export function registerAnalyze(program: Command) {
           "longest pause s": fmt(a.metrics.longest_pause_s),
           score: fmt(a.score),
           result: a.passed ? "pass" : "fail",
-          why: a.passed ? "" : (a.reason ?? a.errors.map((e) => attemptErrorLabels[e]).join("; ")),
+          why: a.passed ? "" : (a.reason ?? a.errors.map((e) => errorLabels[e]).join("; ")),
         })),
       );
       console.log(`${result.attempts.length} attempts from ${result.rowsRead} rows, scored under the default network policy.`);

@@ -2,7 +2,7 @@
 import { and, desc, eq, sql, type SQL } from "drizzle-orm";
 import type { AttemptDetailAnswer, AttemptListAnswer, AttemptRow } from "../../shared/schemas/insight";
 import { bandFor } from "../../shared/scoring/policy";
-import { attemptErrorLabels, maskToErrors, type AttemptError } from "../../shared/scoring/scoreAttempt";
+import { maskToErrors, type AttemptError } from "../../shared/scoring/scoreAttempt";
 import type { Db } from "../db/client";
 import { attempts, compressionStreams, instructors, manikins, scoreHistory, sites } from "../db/schema";
 import { notFound } from "../errors";
@@ -10,6 +10,7 @@ import { policyVersion } from "../policy/service";
 import { decodeStream } from "../streams/codec";
 import type { ResolvedFilters } from "./filters";
 import { attemptConditions, hasError } from "./sql";
+import { errorLabels } from "../../shared/vocabulary";
 
 export interface AttemptListOptions {
   error?: AttemptError;
@@ -131,7 +132,7 @@ export function attemptDetail(db: Db, id: string, onlyInstructorId: number | nul
   }
   return {
     attempt,
-    errorLabels: attempt.errors.map((error) => ({ error, label: attemptErrorLabels[error] })),
+    errorLabels: attempt.errors.map((error) => ({ error, label: errorLabels[error] })),
     scoreHistory: history,
     stream,
   };

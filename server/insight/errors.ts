@@ -3,7 +3,7 @@
 import { sql, type SQL } from "drizzle-orm";
 import type { SQLiteColumn } from "drizzle-orm/sqlite-core";
 import type { ErrorsAnswer } from "../../shared/schemas/insight";
-import { attemptErrorLabels, type AttemptError } from "../../shared/scoring/scoreAttempt";
+import { type AttemptError } from "../../shared/scoring/scoreAttempt";
 import type { Db } from "../db/client";
 import { attempts, instructors, manikins, sites } from "../db/schema";
 import type { ResolvedFilters } from "./filters";
@@ -11,6 +11,7 @@ import { errorPareto } from "./pareto";
 import { trendQuarters } from "./quarters";
 import { rateOf } from "./rates";
 import { attemptConditions, errorCountColumns, errorCountsOf, hasError } from "./sql";
+import { errorLabels } from "../../shared/vocabulary";
 
 type Breakdown = NonNullable<ErrorsAnswer["selected"]>["byProfile"];
 
@@ -62,7 +63,7 @@ export function errorAnalysis(db: Db, filters: ResolvedFilters, error: AttemptEr
 
   answer.selected = {
     error,
-    label: attemptErrorLabels[error],
+    label: errorLabels[error],
     trend: trend.quarters.map((quarter) => {
       const row = byQuarter.get(quarter) ?? { n: 0, count: 0 };
       const rate = rateOf(row.count, row.n);

@@ -5,11 +5,12 @@ import { eq } from "drizzle-orm";
 import { feedbackModes } from "../../shared/domain";
 import type { OptionsAnswer } from "../../shared/schemas/insight";
 import { patientTypes } from "../../shared/scoring/policy";
-import { attemptErrorLabels, attemptErrorNames } from "../../shared/scoring/scoreAttempt";
+import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
 import type { Db } from "../db/client";
 import { instructors, manikins, sites } from "../db/schema";
 import { quartersWithData } from "./quarters";
 import type { Viewer } from "./viewer";
+import { errorLabels } from "../../shared/vocabulary";
 
 export function filterOptions(db: Db, viewer: Viewer): OptionsAnswer {
   const quarters = quartersWithData(db);
@@ -24,7 +25,7 @@ export function filterOptions(db: Db, viewer: Viewer): OptionsAnswer {
     sites: db.select({ id: sites.id, code: sites.code, name: sites.name }).from(sites).orderBy(sites.code).all(),
     patientTypes: [...patientTypes],
     feedbackModes: [...feedbackModes],
-    errors: attemptErrorNames.map((name) => ({ name, label: attemptErrorLabels[name] })),
+    errors: attemptErrorNames.map((name) => ({ name, label: errorLabels[name] })),
     instructors: viewer.seesEveryone
       ? db.select(instructorColumns).from(instructors).orderBy(instructors.code).all()
       : own === null

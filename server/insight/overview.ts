@@ -8,7 +8,7 @@ import { and, eq, sql } from "drizzle-orm";
 import { feedbackModes, type FeedbackMode } from "../../shared/domain";
 import type { OverviewAnswer } from "../../shared/schemas/insight";
 import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
-import { changeFrom, cohensKappa, pChart } from "../../shared/stats";
+import { changeFrom, changeVerdict, cohensKappa, pChart, proportionDifference } from "../../shared/stats";
 import type { Db } from "../db/client";
 import { attempts, classes } from "../db/schema";
 import type { ResolvedFilters } from "./filters";
@@ -119,6 +119,9 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): Over
   const passRate = rateFor(inPeriod.passed, inPeriod.n, hidden);
   const previousRate = rateFor(inPrevious.passed, inPrevious.n, hidesGroup(viewer, inPrevious.n - own(before.quarters).n));
   const change = changeFrom(passRate.rate, previousRate.rate);
+  // the same test of change as the funder report: called only when its 95 % interval excludes zero
+  const difference =
+    passRate.suppressed || previousRate.suppressed ? null : proportionDifference(inPeriod.passed, inPeriod.n, inPrevious.passed, inPrevious.n);
 
   // feedback modes add up to the period; the quarters of a range do too
   const feedbackOthers = feedbackModes.map((mode) => byFeedback.get(mode)!.n - own(period.quarters, mode).n);
@@ -158,7 +161,14 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): Over
     classes: hidden ? null : logs.classes,
     attempts: hidden ? null : inPeriod.n,
     passRate,
-    passRateChange: { previous: previousRate, absolute: change.absolute, relative: change.relative },
+    passRateChange: {
+      previous: previousRate,
+      absolute: change.absolute,
+      relative: change.relative,
+      low: difference?.low ?? null,
+      high: difference?.high ?? null,
+      verdict: difference ? changeVerdict(difference) : null,
+    },
     recordedCompletion: rateFor(Math.min(logs.passed, logs.learners), logs.learners, hidden || hidesGroup(viewer, logs.learners - ownLearners)),
     agreement: pairsHidden
       ? { pairs: null, table: null, observed: null, expected: null, kappa: null, suppressed: true }

@@ -1,8 +1,9 @@
 // Error Pareto rows from per-error counts: the shared Pareto plus each error's share of attempts and its label.
 import type { z } from "zod";
 import type { paretoSchema } from "../../shared/schemas/insight";
-import { attemptErrorLabels, type AttemptError } from "../../shared/scoring/scoreAttempt";
+import { type AttemptError } from "../../shared/scoring/scoreAttempt";
 import { pareto } from "../../shared/stats";
+import { errorLabels } from "../../shared/vocabulary";
 
 export type ParetoAnswer = z.infer<typeof paretoSchema>;
 
@@ -12,7 +13,7 @@ export function errorPareto(counts: Record<AttemptError, number>, attemptCount: 
     attempts: attemptCount,
     rows: pareto(counts).map((row) => ({
       error: row.name as AttemptError,
-      label: attemptErrorLabels[row.name as AttemptError],
+      label: errorLabels[row.name as AttemptError],
       count: row.count,
       share: row.share,
       cumulativeShare: row.cumulativeShare,

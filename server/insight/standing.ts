@@ -3,7 +3,7 @@
 // instructors appear only as anonymous points and network aggregates.
 import { eq, type SQL } from "drizzle-orm";
 import { standingMetricKeys, type StandingAnswer } from "../../shared/schemas/insight";
-import { attemptErrorLabels, attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
+import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
 import { classifyAgainstFunnel, percentileRank } from "../../shared/stats";
 import type { Db } from "../db/client";
 import { attempts, instructors } from "../db/schema";
@@ -13,17 +13,9 @@ import { filtersKey, type ResolvedFilters } from "./filters";
 import { funnelLimitCurve } from "./funnel";
 import { classRows } from "./classes";
 import { rateOf } from "./rates";
-import {
-  attemptConditions,
-  classConditions,
-  errorCountColumns,
-  errorCountsOf,
-  groupSummaries,
-  medianOf,
-  scoreSummariesByInstructor,
-  type GroupSummary,
-} from "./sql";
+import { attemptConditions, classConditions, errorCountColumns, errorCountsOf, groupSummaries, medianOf, scoreSummariesByInstructor, type GroupSummary } from "./sql";
 import { hidesGroup, type Viewer } from "./viewer";
+import { errorLabels } from "../../shared/vocabulary";
 
 const metricColumns = {
   score: attempts.score,
@@ -121,7 +113,7 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
       networkSuppressed: networkHidden,
       rows: attemptErrorNames.map((error) => ({
         error,
-        label: attemptErrorLabels[error],
+        label: errorLabels[error],
         mine: myTally.n === 0 ? null : myErrors[error] / myTally.n,
         network: networkErrors === null || totals.n === 0 ? null : networkErrors[error] / totals.n,
       })),

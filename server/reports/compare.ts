@@ -1,14 +1,18 @@
-// Whether one pass rate differs from another in a way worth putting into words. This is a plain-language
-// reading, not a significance test: when each rate lies inside the other's 95 % interval the intervals
-// overlap heavily and the report says "about the same" rather than inviting readers to see a trend in noise.
+// Whether one pass rate differs from another in a way worth putting into words: the same test the overview
+// uses (the 95 % interval of the difference, Newcombe's hybrid score, must exclude zero), so the report and
+// the pages never read one change two ways.
 import type { ChangeVerdict, RateFigure } from "../../shared/schemas/report";
+import { changeVerdict, proportionDifference } from "../../shared/stats/difference";
 
 export function compareRates(current: RateFigure, earlier: RateFigure): ChangeVerdict | null {
-  if (!isShown(current) || !isShown(earlier)) return null;
-  const currentInsideEarlier = current.value >= earlier.low && current.value <= earlier.high;
-  const earlierInsideCurrent = earlier.value >= current.low && earlier.value <= current.high;
-  if (currentInsideEarlier && earlierInsideCurrent) return "about the same";
-  return current.value > earlier.value ? "higher" : current.value < earlier.value ? "lower" : "about the same";
+  if (!isShown(current) || !isShown(earlier) || current.n.value === null || earlier.n.value === null) return null;
+  const difference = proportionDifference(successesOf(current, current.n.value), current.n.value, successesOf(earlier, earlier.n.value), earlier.n.value);
+  return difference ? changeVerdict(difference) : null;
+}
+
+/** A shown rate is successes / n exactly; rounding recovers the whole count from the stored fraction. */
+function successesOf(rate: ShownRate, n: number): number {
+  return Math.round(rate.value * n);
 }
 
 type ShownRate = RateFigure & { value: number; low: number; high: number };

@@ -25,7 +25,7 @@ export function reportCsv(data: ReportData): string {
     count("reach", "instructors", data.reach.instructors),
     count("reach", "sites", data.reach.sites),
     ...data.reach.byCourse.flatMap((c) => [count("reach by course", `${c.label}: classes`, c.classes), count("reach by course", `${c.label}: learners`, c.learners)]),
-    rate("pass rate", `objective pass rate ${data.period}`, data.passRate),
+    rate("pass rate", `measured pass rate ${data.period}`, data.passRate),
     ...data.comparisons.map((c) => rate("pass rate", `${c.label} (${c.period})`, c.passRate)),
     ...data.trend.points.map((p) => rate("trend", p.quarter, p.passRate)),
     ...data.byPatientType.map((g) => rate("by patient type", g.label, g.passRate)),

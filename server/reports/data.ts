@@ -1,12 +1,12 @@
-// The funder report's content for one period: reach, objective pass rate with its interval, comparisons,
+// The funder report's content for one period: reach, measured pass rate with its interval, comparisons,
 // trend, common errors with the coordinator's actions, live vs hidden display, instructor agreement and
 // equipment use. Every figure passes through small-cell suppression here, so nothing downstream (web page,
 // PDF, e-mail, CSV) can show a hidden cell by mistake.
 import { eq } from "drizzle-orm";
-import { courseTypes, feedbackModes, type CourseType } from "../../shared/domain";
+import { courseTypes, feedbackModes } from "../../shared/domain";
 import type { ErrorRow, GroupResult, RateFigure, ReportComparison, ReportData, TrendPoint } from "../../shared/schemas/report";
 import { GUIDELINE_SOURCES, SAFETY_NOTE, patientTypes, type NetworkPolicy } from "../../shared/scoring/policy";
-import { attemptErrorLabels, attemptErrorNames } from "../../shared/scoring/scoreAttempt";
+import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
 import { changeFrom, cohensKappa, pareto, pChart } from "../../shared/stats";
 import type { Db } from "../db/client";
 import { quarterNotes } from "../db/schema";
@@ -18,18 +18,11 @@ import { writeNarrative } from "./narrative";
 import { comparisonPeriods, parsePeriod, periodLabel, quartersOf, trailingQuarters } from "./period";
 import { passTallyByQuarter, reportNumbers, type PassTally } from "./queries";
 import { suppressBreakdown } from "./suppress";
+import { courseTypeNames, errorLabels, feedbackNames, patientTypeNames } from "../../shared/vocabulary";
 
 export const TREND_QUARTERS = 8;
 export const DEFAULT_NETWORK_NAME = "Quarterbeat training network";
 
-const courseLabels: Record<CourseType, string> = {
-  infant: "Infant CPR",
-  child: "Child CPR",
-  adult: "Adult CPR",
-  "all-ages": "All ages",
-};
-const patientLabels = { infant: "Infant", child: "Child", adult: "Adult" } as const;
-const feedbackLabels = { live: "Live display shown", hidden: "Live display hidden" } as const;
 
 export function networkName(db: Db): string {
   return getSetting(db, "network_name") ?? DEFAULT_NETWORK_NAME;
@@ -99,7 +92,7 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
   );
   const byCourse = courseTypes.map((course, i) => ({
     key: course,
-    label: courseLabels[course],
+    label: courseTypeNames[course],
     classes: countFigure(numbers.byCourse[course].classes, min, classSplit.cells[i]),
     learners: countFigure(numbers.byCourse[course].learners, min, learnerSplit.cells[i]),
   }));
@@ -150,7 +143,7 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
     prefixShown = prefixShown && hidden === null;
     return {
       name: row.name,
-      label: attemptErrorLabels[row.name as keyof typeof attemptErrorLabels] ?? row.name,
+      label: errorLabels[row.name as keyof typeof errorLabels] ?? row.name,
       count: countFigure(row.count, min, hidden),
       share: hidden === null ? row.share : null,
       cumulativeShare: prefixShown ? row.cumulativeShare : null,
@@ -159,7 +152,7 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
 
   // Live vs hidden display
   const feedbackGroups = groupResults(
-    feedbackModes.map((mode) => ({ key: mode, label: feedbackLabels[mode], tally: numbers.byFeedback[mode] })),
+    feedbackModes.map((mode) => ({ key: mode, label: feedbackNames[mode], tally: numbers.byFeedback[mode] })),
     min,
     attemptsShown.hidden === null,
   );
@@ -196,7 +189,7 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
     comparisons,
     trend: { points: trendPoints, centre: chart.centre },
     byPatientType: groupResults(
-      patientTypes.map((p) => ({ key: p, label: patientLabels[p], tally: numbers.byPatientType[p] })),
+      patientTypes.map((p) => ({ key: p, label: patientTypeNames[p], tally: numbers.byPatientType[p] })),
       min,
       attemptsShown.hidden === null,
     ),
@@ -253,7 +246,7 @@ function methodsText(policy: NetworkPolicy, version: number, scoredUnder: number
       const band = policy.bands[p];
       return {
         key: p,
-        label: patientLabels[p],
+        label: patientTypeNames[p],
         depth: `${band.depthMinMm}–${band.depthMaxMm} mm`,
         rate: `${band.rateMin}–${band.rateMax} per minute`,
         recoil: `released to within ${band.recoilMaxMm} mm`,

@@ -85,7 +85,7 @@ export function writeNarrative(data: ReportData): string[] {
   if (agreement.completionRate.value !== null && rate.value !== null) {
     sentences.push(
       `Instructors recorded ${agreement.completionRate.text} of learners as completing the course, ` +
-        `against an objective pass rate of ${rate.text}.`,
+        `against a measured pass rate of ${rate.text}.`,
     );
   }
   return sentences;

@@ -4,6 +4,7 @@ import PDFDocument from "pdfkit";
 import type { CountFigure, ReportData } from "../../shared/schemas/report";
 import { drawErrorBars, drawRateBars, drawTrendChart } from "./pdfCharts";
 import { colours, FONT, registerFonts, textRuns, type Doc } from "./pdfStyle";
+import { dimensionNames, figureNames } from "../../shared/vocabulary";
 
 export interface PdfMeta {
   version: number;
@@ -186,7 +187,7 @@ function drawPassRatePanel(page: PageFlow, data: ReportData) {
   doc.rect(MARGIN.left, top, CONTENT_WIDTH, height).fill(colours.tint);
   doc.rect(MARGIN.left, top, 4, height).fill(colours.brand);
   const rate = data.passRate;
-  doc.font(FONT).fontSize(9).fillColor(colours.muted).text("Objective pass rate", MARGIN.left + 16, top + 10, { lineBreak: false });
+  doc.font(FONT).fontSize(9).fillColor(colours.muted).text(figureNames.passRate, MARGIN.left + 16, top + 10, { lineBreak: false });
   doc.fontSize(rate.value === null ? 16 : 32).fillColor(colours.ink).text(rate.text, MARGIN.left + 16, top + 24, { lineBreak: false });
   const sub = rate.value === null ? "too few measured attempts to show" : `95 % interval ${rate.intervalText}`;
   doc.fontSize(9).fillColor(colours.ink).text(sub, MARGIN.left + 16, top + 62, { lineBreak: false });
@@ -297,7 +298,7 @@ function drawPatientTypes(page: PageFlow, data: ReportData) {
   drawTable(
     page,
     [
-      { title: "Manikin profile", width: 160 },
+      { title: dimensionNames.patientType, width: 160 },
       { title: "Measured attempts", width: 110, align: "right" },
       { title: "Pass rate", width: 100, align: "right" },
       { title: "95 % interval", width: CONTENT_WIDTH - 370, align: "right" },

@@ -24,6 +24,7 @@ export const fleetRowSchema = z.object({
 const consumable = z.object({
   fromClassLogs: count,
   fromEvents: count,
+  /** The class logs' count, the figure every page and the report use; fromEvents is shown beside it, not added. */
   total: count,
   /** total × 100 / learners; null without learners. */
   per100Learners: z.number().nullable(),

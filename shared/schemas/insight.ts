@@ -139,6 +139,11 @@ export const overviewAnswerSchema = z.object({
     /** Difference of the two rates (fraction points); relative = difference / previous. */
     absolute: z.number().nullable(),
     relative: z.number().nullable(),
+    /** 95 % interval of the difference (Newcombe's hybrid score); null when either rate is hidden or empty. */
+    low: z.number().nullable(),
+    high: z.number().nullable(),
+    /** "higher" or "lower" only when that interval excludes zero. */
+    verdict: z.enum(["higher", "lower", "about the same"]).nullable(),
   }),
   /** Σ passed / Σ learners over the class logs of the period: what instructors recorded. */
   recordedCompletion: rateSchema,

@@ -15,16 +15,6 @@ export const attemptErrorNames = [
 ] as const;
 export type AttemptError = (typeof attemptErrorNames)[number];
 
-export const attemptErrorLabels: Record<AttemptError, string> = {
-  too_shallow: "Compressions mostly not deep enough",
-  too_deep: "Compressions mostly deeper than the target",
-  too_slow: "Compression rate mostly below the target",
-  too_fast: "Compression rate mostly above the target",
-  incomplete_recoil: "Chest not released fully between compressions",
-  low_hands_on: "Too little of the time spent compressing",
-  long_pause: "An interruption longer than allowed",
-};
-
 /** What scoring reads; device summaries carry these even when they have no pause count. */
 export type ScoringInput = Pick<
   AttemptMetrics,

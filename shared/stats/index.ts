@@ -7,3 +7,4 @@ export * from "./pchart";
 export * from "./kappa";
 export * from "./pareto";
 export * from "./change";
+export * from "./difference";

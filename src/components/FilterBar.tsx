@@ -9,6 +9,7 @@ import { useSearchParams } from "react-router";
 import { feedbackModes } from "../../shared/domain";
 import { Button } from "./Button";
 import { Select, type SelectOption } from "./Field";
+import { dimensionNames, feedbackNames } from "../../shared/vocabulary";
 
 /** The network-wide filters; a page may also pass a key of its own. */
 export type StandardFilterKey = "quarter" | "site" | "patientType" | "feedback" | "instructor" | "manikin";
@@ -23,12 +24,12 @@ export interface FilterDefinition {
 }
 
 export const standardFilterLabels: Record<StandardFilterKey, string> = {
-  quarter: "Quarter",
-  site: "Site",
-  patientType: "Patient type",
-  feedback: "Feedback",
-  instructor: "Instructor",
-  manikin: "Manikin",
+  quarter: dimensionNames.period,
+  site: dimensionNames.site,
+  patientType: dimensionNames.patientType,
+  feedback: dimensionNames.feedback,
+  instructor: dimensionNames.instructor,
+  manikin: dimensionNames.manikin,
 };
 
 /** URL parameter names: short, lower-case, stable (links in e-mails must keep working). */
@@ -49,7 +50,7 @@ export const feedbackFilter: FilterDefinition = {
   key: "feedback",
   options: feedbackModes.map((mode) => ({
     value: mode,
-    label: mode === "live" ? "Shown live to the learner" : "Hidden from the learner",
+    label: feedbackNames[mode],
   })),
   allLabel: "Live and hidden",
 };

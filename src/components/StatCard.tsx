@@ -19,6 +19,8 @@ export interface StatChange {
   comparedWith?: string;
   /** Which direction is an improvement; omit when neither is. */
   better?: "up" | "down";
+  /** False when the change is within chance variation: it reads "about the same" and is not coloured. */
+  clear?: boolean;
 }
 
 export interface StatCardProps {
@@ -55,7 +57,8 @@ export function StatCard({ label, value, unit, interval, change, status, footnot
 
 function ChangeLine({ change }: { change: StatChange }) {
   const direction = change.value > 0 ? "up" : change.value < 0 ? "down" : "flat";
-  const verdict = direction === "flat" || !change.better ? null : direction === change.better ? "better" : "worse";
+  const verdict =
+    change.clear === false ? "about the same" : direction === "flat" || !change.better ? null : direction === change.better ? "better" : "worse";
   return (
     <p
       className={clsx(

@@ -16,11 +16,12 @@ import { TargetBadge } from "../components/TargetBadge";
 import { AttemptSummary } from "../features/attempts/AttemptSummary";
 import { CompressionCharts } from "../features/attempts/CompressionCharts";
 import { compressionSeries, type CompressionSeries } from "../features/attempts/compressionSeries";
-import { dateTime, errorLabel, feedbackLabels, patientTypeLabels } from "../features/attempts/labels";
+import { dateTime, errorLabel } from "../features/attempts/labels";
 import { attemptQueries } from "../features/attempts/queries";
 import { useScoringPolicy } from "../features/attempts/useScoringPolicy";
 import { useCurrentUser } from "../features/auth/useSession";
 import { useLengthUnit } from "../lib/useLengthUnit";
+import { dimensionNames, feedbackNames, patientTypeNames } from "../../shared/vocabulary";
 
 export default function AttemptDetailPage() {
   const { id = "" } = useParams();
@@ -91,8 +92,8 @@ function AttemptView({ answer }: { answer: AttemptDetailAnswer }) {
     ["Site", attempt.site?.code ?? "Not recorded"],
     ["Instructor", attempt.instructor?.code ?? "Not recorded"],
     ["Manikin", attempt.manikin?.assetId ?? "Not recorded"],
-    ["Patient type", patientTypeLabels[attempt.profile]],
-    ["Feedback", feedbackLabels[attempt.feedback] + " to the learner"],
+    [dimensionNames.patientType, patientTypeNames[attempt.profile]],
+    [dimensionNames.feedback, feedbackNames[attempt.feedback]],
     ["Data", attempt.source === "stream" ? "Compression stream" : "Device summary"],
   ];
 
@@ -100,7 +101,7 @@ function AttemptView({ answer }: { answer: AttemptDetailAnswer }) {
     <>
       <PageHeader
         title={`Attempt ${attempt.id}`}
-        description={`${patientTypeLabels[attempt.profile]} manikin, ${dateTime(attempt.startedAt)}. Scored under policy version ${attempt.policyVersion}.`}
+        description={`${patientTypeNames[attempt.profile]} manikin, ${dateTime(attempt.startedAt)}. Scored under policy version ${attempt.policyVersion}.`}
       />
       <div className="flex flex-col gap-6">
         <section aria-labelledby="result-heading" className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_minmax(0,1.4fr)]">

@@ -4,18 +4,18 @@
 import { useQuery } from "@tanstack/react-query";
 import { Link, useParams } from "react-router";
 import type { AttemptRow, ClassDetailAnswer } from "../../shared/schemas/insight";
-import { attemptErrorLabels } from "../../shared/scoring/scoreAttempt";
 import { ApiError } from "../api/http";
 import { DataTable, type Column } from "../components/DataTable";
 import { PageHeader } from "../components/PageHeader";
 import { SafetyNote } from "../components/SafetyNote";
 import { EmptyState } from "../components/States";
 import { useCurrentUser } from "../features/auth/useSession";
-import { courseWords, errorShortLabels, formatCount, formatDate, formatPercent, formatScore, formatTime, profileWords, quarterLabel, roundTo } from "../features/insight/format";
+import { formatCount, formatDate, formatPercent, formatScore, formatTime, quarterLabel, roundTo } from "../features/insight/format";
 import { QueryStatus } from "../features/insight/QueryStatus";
 import { RateText } from "../features/insight/RateText";
 import { insightQueries } from "../features/insight/queries";
 import { useLengthUnit } from "../lib/useLengthUnit";
+import { courseTypeNames, dimensionNames, errorLabels, errorShortNames, feedbackNames, patientTypeNames } from "../../shared/vocabulary";
 
 type ClassAttempt = ClassDetailAnswer["attempts"][number];
 type Measured = Pick<AttemptRow["metrics"], "depthMm" | "rateCpm">;
@@ -93,9 +93,9 @@ export function ClassContent({ answer, backTo }: { answer: ClassDetailAnswer; ba
     { key: "learner", header: "Learner", value: (a) => a.learner },
     // a class usually uses one manikin type (then the course says it); all-ages classes mix them
     ...(new Set(answer.attempts.map((a) => a.profile)).size > 1
-      ? [{ key: "profile", header: "Manikin type", value: (a: ClassAttempt) => profileWords[a.profile] }]
+      ? [{ key: "profile", header: dimensionNames.patientType, value: (a: ClassAttempt) => patientTypeNames[a.profile] }]
       : []),
-    { key: "feedback", header: "Display", value: (a) => (a.feedback === "live" ? "Live" : "Hidden") },
+    { key: "feedback", header: dimensionNames.feedback, value: (a) => feedbackNames[a.feedback] },
     { key: "score", header: "Score", value: (a) => roundTo(a.score, 1), render: (a) => formatScore(a.score), align: "right" },
     { key: "passed", header: "Measured", value: (a) => (a.passed ? "Passed" : "Not passed"), render: (a) => <PassMark passed={a.passed} /> },
     {
@@ -107,13 +107,13 @@ export function ClassContent({ answer, backTo }: { answer: ClassDetailAnswer; ba
     {
       key: "errors",
       header: "Errors",
-      value: (a) => (a.errors.length === 0 ? "None" : a.errors.map((e) => attemptErrorLabels[e]).join("; ")),
+      value: (a) => (a.errors.length === 0 ? "None" : a.errors.map((e) => errorLabels[e]).join("; ")),
       render: (a) =>
         a.errors.length === 0 ? (
           <span className="text-muted">None</span>
         ) : (
-          <span className="block min-w-32" title={a.errors.map((e) => attemptErrorLabels[e]).join("; ")}>
-            {a.errors.map((e) => errorShortLabels[e]).join(", ")}
+          <span className="block min-w-32" title={a.errors.map((e) => errorLabels[e]).join("; ")}>
+            {a.errors.map((e) => errorShortNames[e]).join(", ")}
           </span>
         ),
       wrap: true,
@@ -139,7 +139,7 @@ export function ClassContent({ answer, backTo }: { answer: ClassDetailAnswer; ba
       </Link>
       <PageHeader
         title={`Class ${c.id}`}
-        description={`${courseWords[c.course] ?? c.course} course on ${formatDate(c.date)} at ${c.site.code}, taught by ${c.instructor.code} · ${c.instructor.name}.`}
+        description={`${courseTypeNames[c.course] ?? c.course} course on ${formatDate(c.date)} at ${c.site.code}, taught by ${c.instructor.code} · ${c.instructor.name}.`}
       />
       <section aria-labelledby="log-heading" className="rounded-card border border-line bg-surface p-4 shadow-card">
         <h2 id="log-heading" className="mb-3 text-title">
@@ -148,7 +148,7 @@ export function ClassContent({ answer, backTo }: { answer: ClassDetailAnswer; ba
         <dl className="grid grid-cols-2 gap-x-6 gap-y-3 sm:grid-cols-3 lg:grid-cols-5">
           <Fact label="Date">{formatDate(c.date)} ({quarterLabel(c.quarter)})</Fact>
           <Fact label="Site">{c.site.code}</Fact>
-          <Fact label="Course">{courseWords[c.course] ?? c.course}</Fact>
+          <Fact label="Course">{courseTypeNames[c.course] ?? c.course}</Fact>
           <Fact label="Learners">{formatCount(c.learners)}</Fact>
           <Fact label="Recorded completions">
             {formatCount(c.passed)} of {formatCount(c.learners)} ({formatPercent(recordedShare)})

@@ -123,7 +123,7 @@ function EquipmentView({ answer, ownSite }: { answer: EquipmentAnswer; ownSite: 
         <h2 id="consumables-heading" className="text-title">
           Consumables
         </h2>
-        <p className="text-small text-muted">From the class logs and the equipment events together, per 100 learners at each site.</p>
+        <p className="text-small text-muted">From the class logs, per 100 learners at each site. The equipment log records the same work per manikin, so it is not added again.</p>
         <ConsumablesCharts rows={answer.consumables} period={periodWords(answer.period)} />
       </section>
     </div>

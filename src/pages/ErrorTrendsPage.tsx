@@ -12,11 +12,11 @@ import { FilterBar, useFilterValues, type FilterValues } from "../components/Fil
 import { PageHeader } from "../components/PageHeader";
 import { EmptyState, ErrorState, LoadingState } from "../components/States";
 import { apiFilterQuery, insightFilters, linkParams, periodWords, useInsightOptions } from "../features/attempts/insightFilters";
-import { feedbackLabels, patientTypeLabels } from "../features/attempts/labels";
 import { BreakdownPanel, type BreakdownRow } from "../features/errors/BreakdownPanel";
 import { ErrorTrendChart } from "../features/errors/ErrorTrendChart";
 import { ParetoChart } from "../features/errors/ParetoChart";
 import { errorQueries } from "../features/errors/queries";
+import { feedbackNames, patientTypeNames } from "../../shared/vocabulary";
 
 const filterKeys = ["quarter", "site", "patientType", "feedback", "instructor", "manikin"] as const;
 
@@ -175,7 +175,7 @@ function Breakdowns({ selected, attemptsLink }: { selected: Selected; attemptsLi
       <BreakdownPanel
         dimension="patient type"
         rows={selected.byProfile}
-        nameOf={(row) => patientTypeLabels[row.key as PatientType] ?? row.key}
+        nameOf={(row) => patientTypeNames[row.key as PatientType] ?? row.key}
         attemptsHref={(row) => attemptsLink({ patientType: row.key })}
         errorLabel={selected.label}
       />
@@ -184,7 +184,7 @@ function Breakdowns({ selected, attemptsLink }: { selected: Selected; attemptsLi
       <BreakdownPanel
         dimension="feedback mode"
         rows={selected.byFeedback}
-        nameOf={(row) => feedbackLabels[row.key as FeedbackMode] ?? row.key}
+        nameOf={(row) => feedbackNames[row.key as FeedbackMode] ?? row.key}
         attemptsHref={(row) => attemptsLink({ feedback: row.key })}
         errorLabel={selected.label}
       />

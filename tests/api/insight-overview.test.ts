@@ -10,6 +10,7 @@ import { overview } from "../../server/insight/overview";
 import { viewerOf } from "../../server/insight/viewer";
 import { findActiveUser } from "../../server/users/service";
 import { startInsightApp, type InsightTestContext } from "../fixtures/insight/setup";
+import { proportionDifference } from "../../shared/stats/difference";
 
 let t: InsightTestContext;
 beforeAll(async () => {
@@ -46,6 +47,11 @@ describe("overview of the latest quarter (2026-Q2), seen by the coordinator", ()
     // 28/44 − 81/263 = 0.636364 − 0.307985 = 0.328379; relative 0.328379 / 0.307985 = 1.06622
     expect(o.passRateChange.absolute).toBeCloseTo(0.328379, 5);
     expect(o.passRateChange.relative).toBeCloseTo(1.06622, 4);
+    // the change is called with the same test the funder report uses (Newcombe's hybrid score interval)
+    const difference = proportionDifference(28, 44, 81, 263)!;
+    expect(o.passRateChange.low).toBeCloseTo(difference.low, 12);
+    expect(o.passRateChange.high).toBeCloseTo(difference.high, 12);
+    expect(o.passRateChange.verdict).toBe("higher");
   });
 
   it("puts the instructors' recorded completion rate beside it", () => {

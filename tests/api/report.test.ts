@@ -121,7 +121,7 @@ describe("stored versions", () => {
   it("exports the stored figures as CSV with hidden cells left empty", async () => {
     const res = await funder.get(`/api/reports/${firstId}/csv`).expect(200);
     expect(res.headers["content-type"]).toMatch(/^text\/csv/);
-    expect(res.text).toContain("pass rate,objective pass rate 2026-Q3,0.65,0.4951,0.7787,65.0 % (49.5–77.9 %)");
+    expect(res.text).toContain("pass rate,measured pass rate 2026-Q3,0.65,0.4951,0.7787,65.0 % (49.5–77.9 %)");
     expect(res.text).toContain("reach,instructors,,,,fewer than 5");
   });
 

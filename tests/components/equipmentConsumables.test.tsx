@@ -8,8 +8,8 @@ afterEach(cleanup);
 const item = (fromClassLogs: number, fromEvents: number, learners: number) => ({
   fromClassLogs,
   fromEvents,
-  total: fromClassLogs + fromEvents,
-  per100Learners: learners ? (100 * (fromClassLogs + fromEvents)) / learners : null,
+  total: fromClassLogs,
+  per100Learners: learners ? (100 * fromClassLogs) / learners : null,
 });
 const row = (site: string, id: number, quarter: string, learners: number, lungs: [number, number], mouthpieces: [number, number], batteries: [number, number]) => ({
   site: { id, code: site },
@@ -21,8 +21,9 @@ const row = (site: string, id: number, quarter: string, learners: number, lungs:
 });
 
 // Two quarters at NTH (40 + 60 learners) and one at RIV (30 learners). Per 100 learners = 100 × total /
-// learners over the whole period, not the mean of the quarters' rates: NTH lungs (2+1)+(1+1) = 5 over 100
-// learners = 5.0; RIV lungs 2 over 30 learners = 6.7 (worked by hand).
+// learners over the whole period, not the mean of the quarters' rates; the total is the class logs' count
+// (the equipment log's, second in each pair, is not added): NTH lungs 2 + 1 = 3 over 100 learners = 3.0;
+// RIV lungs 2 over 30 learners = 6.7 (worked by hand).
 const rows: EquipmentAnswer["consumables"] = [
   row("NTH", 1, "2026-Q1", 40, [2, 1], [40, 10], [1, 0]),
   row("NTH", 1, "2026-Q2", 60, [1, 1], [70, 0], [0, 2]),
@@ -32,7 +33,7 @@ const rows: EquipmentAnswer["consumables"] = [
 describe("consumables per 100 learners", { timeout: 30_000 }, () => {
   it("sums each site's quarters before dividing by its learners", () => {
     expect(consumablesBySite(rows)).toEqual([
-      { site: "NTH", learners: 100, lungs: 5, mouthpieces: 120, batteries: 3 },
+      { site: "NTH", learners: 100, lungs: 3, mouthpieces: 110, batteries: 1 },
       { site: "RIV", learners: 30, lungs: 2, mouthpieces: 25, batteries: 0 },
     ]);
   });
@@ -40,14 +41,14 @@ describe("consumables per 100 learners", { timeout: 30_000 }, () => {
   it("shows the rates in the table view of each chart", () => {
     render(<ConsumablesCharts rows={rows} period="2026 Q1 to 2026 Q2" />);
     const figure = screen.getByRole("heading", { name: "Lungs replaced" }).closest("figure")!;
-    expect(figure.textContent).toContain("most at RIV (6.7), fewest at NTH (5)");
+    expect(figure.textContent).toContain("most at RIV (6.7), fewest at NTH (3)");
     fireEvent.click(within(figure).getByRole("button", { name: "Show as table" }));
     const cells = within(within(figure).getByRole("table"))
       .getAllByRole("row")
       .slice(1)
       .map((r) => within(r).getAllByRole("cell").map((c) => c.textContent));
     expect(cells).toEqual([
-      ["NTH", "100", "5", "5"],
+      ["NTH", "100", "3", "3"],
       ["RIV", "30", "2", "6.7"],
     ]);
   });

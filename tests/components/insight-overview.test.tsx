@@ -44,7 +44,8 @@ const overview: OverviewAnswer = overviewAnswerSchema.parse({
   classes: 48,
   attempts: 1392,
   passRate: rate(411, 1392, 0.2953, 0.2712, 0.3188),
-  passRateChange: { previous: rate(240, 941, 0.2551, 0.2283, 0.2838), absolute: 0.0402, relative: 0.1576 },
+  // 411/1392 against 240/941: difference interval 0.0031 to 0.0765 (Newcombe's hybrid score), a clear rise
+  passRateChange: { previous: rate(240, 941, 0.2551, 0.2283, 0.2838), absolute: 0.0402, relative: 0.1576, low: 0.0031, high: 0.0765, verdict: "higher" },
   recordedCompletion: rate(761, 1262, 0.603, 0.5757, 0.6297),
   agreement: { pairs: 537, table: [[212, 165], [12, 148]], observed: 0.6704, expected: 0.4665, kappa: 0.3822, suppressed: false },
   medianScore: 83.3333,
@@ -102,6 +103,23 @@ function tableOf(title: string): string[][] {
 }
 
 describe("network overview", () => {
+  it("calls a change whose interval includes zero about the same, without a colour of better or worse", async () => {
+    // 300/1000 against 295/1000: difference +0.5 points, interval −3.5 to +4.5 points (Newcombe's hybrid score)
+    const small = overviewAnswerSchema.parse({
+      ...overview,
+      passRate: rate(300, 1000, 0.3, 0.2724, 0.3291),
+      passRateChange: { previous: rate(295, 1000, 0.295, 0.2675, 0.324), absolute: 0.005, relative: 0.0169, low: -0.035, high: 0.045, verdict: "about the same" },
+    });
+    serve("coordinator", small);
+    renderApp("/overview?quarter=2026-Q3");
+    await screen.findByRole("heading", { name: "2026 Q3 at a glance" });
+
+    const measured = card("Measured pass rate");
+    expect(measured.textContent).toContain("+0.5 points since 2026 Q2 (about the same)");
+    expect(measured.textContent).not.toContain("(better)");
+    expect(measured.textContent).toContain("runs from −3.5 points to +4.5 points, so it may be chance.");
+  });
+
   it("shows the API's headline figures formatted: rate, its 95 % interval, change, completion, kappa", async () => {
     serve("coordinator", overview);
     renderApp("/overview?quarter=2026-Q3");
@@ -112,6 +130,7 @@ describe("network overview", () => {
     expect(measured.textContent).toContain("95 % interval: 27.1–31.9 %");
     expect(measured.textContent).toContain("+4.0 points since 2026 Q2 (better)");
     expect(measured.textContent).toContain("411 of 1,392 manikin attempts");
+    expect(measured.textContent).toContain("The change's 95 % interval runs from +0.3 points to +7.7 points.");
 
     const recorded = card("Instructor-recorded completion");
     expect(within(recorded).getByText("60.3 %")).toBeTruthy();
@@ -203,7 +222,7 @@ describe("network overview", () => {
       classes: null,
       attempts: null,
       passRate: hiddenRate,
-      passRateChange: { previous: hiddenRate, absolute: null, relative: null },
+      passRateChange: { previous: hiddenRate, absolute: null, relative: null, low: null, high: null, verdict: null },
       recordedCompletion: hiddenRate,
       agreement: { pairs: null, table: null, observed: null, expected: null, kappa: null, suppressed: true },
       medianScore: null,

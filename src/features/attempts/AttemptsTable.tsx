@@ -5,7 +5,8 @@ import type { AttemptRow } from "../../../shared/schemas/insight";
 import { formatLength, type LengthUnit } from "../../../shared/units";
 import { DataTable, type Column } from "../../components/DataTable";
 import { TargetBadge } from "../../components/TargetBadge";
-import { dateTime, errorLabel, feedbackLabels, patientTypeLabels } from "./labels";
+import { dateTime, errorLabel } from "./labels";
+import { dimensionNames, feedbackNames, patientTypeNames } from "../../../shared/vocabulary";
 
 export function attemptColumns(unit: LengthUnit, from: string): Column<AttemptRow>[] {
   const pct = (value: number) => Math.round(value);
@@ -57,8 +58,8 @@ export function attemptColumns(unit: LengthUnit, from: string): Column<AttemptRo
     { key: "site", header: "Site", value: (a) => a.site?.code ?? null },
     { key: "instructor", header: "Instructor", value: (a) => a.instructor?.code ?? null },
     { key: "manikin", header: "Manikin", value: (a) => a.manikin?.assetId ?? null },
-    { key: "profile", header: "Patient type", value: (a) => patientTypeLabels[a.profile] },
-    { key: "feedback", header: "Feedback", value: (a) => feedbackLabels[a.feedback] },
+    { key: "profile", header: dimensionNames.patientType, value: (a) => patientTypeNames[a.profile] },
+    { key: "feedback", header: dimensionNames.feedback, value: (a) => feedbackNames[a.feedback] },
   ];
 }
 

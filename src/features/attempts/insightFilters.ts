@@ -4,7 +4,7 @@ import { useQuery } from "@tanstack/react-query";
 import { feedbackFilter, filterParamName, type FilterDefinition, type FilterValues } from "../../components/FilterBar";
 import type { OptionsAnswer } from "../../../shared/schemas/insight";
 import { insightQueries } from "../insight/queries";
-import { patientTypeLabels } from "./labels";
+import { patientTypeNames } from "../../../shared/vocabulary";
 
 /** The filter choices, from the one options query every page shares. */
 export function useInsightOptions() {
@@ -31,7 +31,7 @@ export function insightFilters(options: OptionsAnswer, keys: readonly InsightFil
       ],
     },
     site: { key: "site", options: options.sites.map((s) => ({ value: s.code, label: `${s.code} · ${s.name}` })) },
-    patientType: { key: "patientType", options: options.patientTypes.map((p) => ({ value: p, label: patientTypeLabels[p] })) },
+    patientType: { key: "patientType", options: options.patientTypes.map((p) => ({ value: p, label: patientTypeNames[p] })) },
     feedback: feedbackFilter,
     instructor: { key: "instructor", options: options.instructors.map((i) => ({ value: i.code, label: `${i.code} · ${i.name}` })) },
     manikin: { key: "manikin", options: options.manikins.map((m) => ({ value: m.assetId, label: m.assetId })) },

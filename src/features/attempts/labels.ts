@@ -1,14 +1,9 @@
-// Words for the vocabulary the drill-down pages show: patient types, feedback modes, errors, numbers.
-import type { FeedbackMode } from "../../../shared/domain";
-import type { PatientType } from "../../../shared/scoring/policy";
-import { attemptErrorLabels, type AttemptError } from "../../../shared/scoring/scoreAttempt";
-
-export const patientTypeLabels: Record<PatientType, string> = { infant: "Infant", child: "Child", adult: "Adult" };
-
-export const feedbackLabels: Record<FeedbackMode, string> = { live: "Shown live", hidden: "Hidden" };
+// How the drill-down pages write errors, numbers and times; the words themselves are in shared/vocabulary.
+import type { AttemptError } from "../../../shared/scoring/scoreAttempt";
+import { errorLabels } from "../../../shared/vocabulary";
 
 export function errorLabel(error: AttemptError): string {
-  return attemptErrorLabels[error];
+  return errorLabels[error];
 }
 
 /** A share 0–1 as "41.8 %"; null as "–". */

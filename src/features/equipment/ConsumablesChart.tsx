@@ -1,5 +1,5 @@
 // Lungs replaced, mouthpiece cleans and batteries replaced per 100 learners, by site, over the period: from
-// the class logs and the equipment events together. One small chart per consumable, each on its own scale
+// the class logs (the equipment log records the same work per manikin, so it is not added). One small chart per consumable, each on its own scale
 // (cleans run to hundreds per 100 learners, lungs to a handful).
 import * as Plot from "@observablehq/plot";
 import { useMemo } from "react";
@@ -73,7 +73,7 @@ export function ConsumablesCharts({ rows, period }: { rows: EquipmentAnswer["con
   const data = useMemo(() => consumablesBySite(rows), [rows]);
   const withLearners = data.filter((r) => r.learners > 0);
   if (data.length === 0) {
-    return <EmptyState title={`No consumables recorded in ${period}`}>Class logs and equipment events of the period fill these charts.</EmptyState>;
+    return <EmptyState title={`No consumables recorded in ${period}`}>The class logs of the period fill these charts.</EmptyState>;
   }
   return (
     <div className="grid gap-4 lg:grid-cols-3">

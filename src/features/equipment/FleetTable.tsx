@@ -2,7 +2,8 @@
 // and whether a fault is open.
 import type { EquipmentAnswer } from "../../../shared/schemas/equipment";
 import { DataTable, type Column } from "../../components/DataTable";
-import { dateOnly, patientTypeLabels } from "../attempts/labels";
+import { dateOnly } from "../attempts/labels";
+import { patientTypeNames } from "../../../shared/vocabulary";
 
 export type FleetRow = EquipmentAnswer["fleet"][number];
 
@@ -32,7 +33,7 @@ export function FleetTable({ answer }: { answer: EquipmentAnswer }) {
   const number = (value: number) => value.toLocaleString("en-GB");
   const columns: Column<ShownFleetRow>[] = [
     { key: "assetId", header: "Asset id", value: (m) => m.assetId, primary: true },
-    { key: "patientType", header: "Patient type", value: (m) => (m.patientType ? patientTypeLabels[m.patientType] : null) },
+    { key: "patientType", header: "Patient type", value: (m) => (m.patientType ? patientTypeNames[m.patientType] : null) },
     { key: "site", header: "Site", value: (m) => m.site?.code ?? null },
     { key: "inServiceSince", header: "In service since", value: (m) => m.inServiceSince, render: (m) => dateOnly(m.inServiceSince) },
     { key: "retiredOn", header: "Retired", value: (m) => m.retiredOn, render: (m) => (m.retiredOn ? dateOnly(m.retiredOn) : <span className="text-muted">In service</span>) },

@@ -7,7 +7,7 @@ import { Chart, type ChartSize } from "../../components/Chart";
 import type { Column } from "../../components/DataTable";
 import { dusk, marigold } from "../../styles/palette";
 import { percent, percentNumber, wholeNumber } from "../attempts/labels";
-import { shortErrorNames } from "./errorNames";
+import { errorShortNames } from "../../../shared/vocabulary";
 
 export type ParetoRow = ErrorsAnswer["pareto"]["rows"][number];
 
@@ -29,10 +29,10 @@ function paretoPlot(data: readonly ParetoRow[], { width }: ChartSize): Plot.Plot
     marginBottom: narrow ? 90 : 40,
     marginRight: 48,
     marginTop: 28,
-    x: { domain: rows.map((row) => row.error), tickFormat: (e: keyof typeof shortErrorNames) => shortErrorNames[e], tickRotate: narrow ? -40 : 0, label: null },
+    x: { domain: rows.map((row) => row.error), tickFormat: (e: keyof typeof errorShortNames) => errorShortNames[e], tickRotate: narrow ? -40 : 0, label: null },
     y: { domain: [0, total], label: "Attempts with the error", grid: true, nice: false },
     marks: [
-      Plot.barY(rows, { x: "error", y: "count", fill: dusk[600], title: (row: ParetoRow) => `${shortErrorNames[row.error]}: ${row.count}` }),
+      Plot.barY(rows, { x: "error", y: "count", fill: dusk[600], title: (row: ParetoRow) => `${errorShortNames[row.error]}: ${row.count}` }),
       // counts sit inside tall bars (the first bar's top is also the first point of the line) and above short ones
       Plot.text(rows, { x: "error", y: "count", text: (row: ParetoRow) => String(row.count), dy: 10, fill: "white", fontWeight: 600, filter: (row: ParetoRow) => row.count >= total * 0.08 }),
       Plot.text(rows, { x: "error", y: "count", text: (row: ParetoRow) => String(row.count), dy: -7, fill: "#1C1B2E", filter: (row: ParetoRow) => row.count < total * 0.08 }),
@@ -52,7 +52,7 @@ export function ParetoChart({ rows, attempts, examineHref, selected }: ParetoCha
     totalErrors === 0
       ? `No errors among ${wholeNumber(attempts)} attempts.`
       : `${wholeNumber(totalErrors)} errors in ${wholeNumber(attempts)} attempts. Bars: attempts with each error, most frequent first; line and right-hand axis: running share of all errors. ` +
-        `The most frequent, ${shortErrorNames[top[0].error].toLowerCase()}, is ${percent(top[0].share)} of all errors` +
+        `The most frequent, ${errorShortNames[top[0].error].toLowerCase()}, is ${percent(top[0].share)} of all errors` +
         (needed >= 0 ? `; the first ${needed + 1} make up ${percent(top[needed].cumulativeShare)}.` : ".");
 
   const columns: Column<ParetoRow>[] = [

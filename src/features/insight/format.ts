@@ -3,9 +3,6 @@
 // and CSV agrees.
 import type { z } from "zod";
 import type { funnelPositionSchema, Rate } from "../../../shared/schemas/insight";
-import type { FeedbackMode } from "../../../shared/domain";
-import type { AttemptError } from "../../../shared/scoring/scoreAttempt";
-import type { PatientType } from "../../../shared/scoring/policy";
 
 export type FunnelPosition = z.infer<typeof funnelPositionSchema>;
 
@@ -125,26 +122,6 @@ export const funnelPositionShort: Record<FunnelPosition, string> = {
 export function funnelPositionText(position: FunnelPosition | null | undefined): string {
   return position ? funnelPositionWords[position] : "No attempts to place";
 }
-
-/** Short names for chart axes; the tables carry the full labels from the API. */
-export const errorShortLabels: Record<AttemptError, string> = {
-  too_shallow: "Too shallow",
-  too_deep: "Too deep",
-  too_slow: "Too slow",
-  too_fast: "Too fast",
-  incomplete_recoil: "Incomplete release",
-  low_hands_on: "Low hands-on time",
-  long_pause: "Long interruption",
-};
-
-export const feedbackWords: Record<FeedbackMode, string> = {
-  live: "Live display",
-  hidden: "Hidden display",
-};
-
-export const profileWords: Record<PatientType, string> = { infant: "Infant", child: "Child", adult: "Adult" };
-
-export const courseWords: Record<string, string> = { infant: "Infant", child: "Child", adult: "Adult", "all-ages": "All ages" };
 
 /** "17 Oct 2026" from "2026-10-17" (no time zone shift: the date is read as written). */
 export function formatDate(date: string): string {

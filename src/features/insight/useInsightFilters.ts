@@ -6,8 +6,9 @@ import { useEffect, useMemo } from "react";
 import { useSearchParams } from "react-router";
 import type { OptionsAnswer } from "../../../shared/schemas/insight";
 import { feedbackFilter, filterParamName, readFilterValues, type FilterDefinition } from "../../components/FilterBar";
-import { profileWords, quarterLabel } from "./format";
+import { quarterLabel } from "./format";
 import { insightQueries, type ApiFilters } from "./queries";
+import { dimensionNames, patientTypeNames } from "../../../shared/vocabulary";
 
 export type OptionalFilter = "site" | "patientType" | "feedback" | "instructor" | "manikin";
 
@@ -20,7 +21,7 @@ export function filterDefinitions(options: OptionsAnswer, optional: readonly Opt
       definitions.push({ key, options: options.sites.map((s) => ({ value: s.code, label: `${s.code} · ${s.name}` })), allLabel: "All sites" });
     }
     if (key === "patientType" && options.patientTypes.length > 0) {
-      definitions.push({ key, label: "Manikin type", options: options.patientTypes.map((p) => ({ value: p, label: profileWords[p] })), allLabel: "All types" });
+      definitions.push({ key, label: dimensionNames.patientType, options: options.patientTypes.map((p) => ({ value: p, label: patientTypeNames[p] })), allLabel: "All types" });
     }
     if (key === "feedback" && options.feedbackModes.length > 0) {
       definitions.push({ ...feedbackFilter, label: "Feedback display" });

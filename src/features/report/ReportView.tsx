@@ -7,6 +7,7 @@ import { FigureText, formatPoints, formatPointsSize, formatShare, formatWhole, h
 import { MethodsBox } from "./MethodsBox";
 import { ReportTable } from "./ReportTable";
 import { TrendChart } from "./TrendChart";
+import { figureNames } from "../../../shared/vocabulary";
 
 export interface ReportViewProps {
   data: ReportData;
@@ -149,7 +150,7 @@ function ReportSections({ data, actionsSlot }: { data: ReportData; actionsSlot?:
         )}
       </Section>
 
-      <Section id="report-pass" title="Objective pass rate">
+      <Section id="report-pass" title={figureNames.passRate}>
         <div className="flex flex-col gap-2 rounded-card border border-line bg-surface p-4 shadow-card print:shadow-none">
           <p className="text-small text-muted">Measured attempts that met every part of the network's pass rule (see “How these figures are made”).</p>
           <p className="flex flex-wrap items-baseline gap-x-3">

@@ -7,8 +7,8 @@ import type { LengthUnit } from "../../../shared/units";
 import { Button } from "../../components/Button";
 import { Field, controlClass } from "../../components/Field";
 import { Notice } from "../../components/Notice";
-import { patientTypeLabels } from "../attempts/labels";
 import { allFields, displayValue, errorsByPath, fieldGroups, formValuesOf, policyFromValues, readPath, unitWord, type FormValues, type PolicyField } from "./policyFields";
+import { patientTypeNames } from "../../../shared/vocabulary";
 
 export interface PolicyFormProps {
   /** The version in force: the form starts from it. */
@@ -138,7 +138,7 @@ export function PolicyForm({ current, defaults, fieldSources, unit, canEdit, sav
       <p className="-mt-3 text-small text-muted">
         Depths in {unit === "mm" ? "millimetres" : unit === "cm" ? "centimetres" : "inches"} (your unit, set on your account page); they are stored in millimetres.
       </p>
-      <div className="grid gap-4 xl:grid-cols-3">{patientTypes.map((type) => fieldset(patientTypeLabels[type], fieldGroups.bands[type]))}</div>
+      <div className="grid gap-4 xl:grid-cols-3">{patientTypes.map((type) => fieldset(patientTypeNames[type], fieldGroups.bands[type]))}</div>
       {fieldset("Pauses", fieldGroups.pauses)}
       {fieldset(
         "Pass rule",

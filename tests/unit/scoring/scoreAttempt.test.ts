@@ -4,7 +4,6 @@ import { describe, expect, it } from "vitest";
 import { analyzeStream } from "../../../shared/scoring/analyzeStream";
 import { DEFAULT_POLICY, type NetworkPolicy } from "../../../shared/scoring/policy";
 import {
-  attemptErrorLabels,
   attemptErrorNames,
   errorsToMask,
   maskToErrors,
@@ -14,6 +13,7 @@ import {
   type ScoringInput,
 } from "../../../shared/scoring/scoreAttempt";
 import { exampleA } from "./streamFixtures";
+import { errorLabels } from "../../../shared/vocabulary";
 
 /** A device summary that passes every criterion; tests change one field at a time. */
 const good: ScoringInput = {
@@ -117,7 +117,7 @@ describe("scoreAttempt", () => {
 
 describe("error labels and masks", () => {
   it("has a label for every error", () => {
-    for (const name of attemptErrorNames) expect(attemptErrorLabels[name].length).toBeGreaterThan(5);
+    for (const name of attemptErrorNames) expect(errorLabels[name].length).toBeGreaterThan(5);
   });
 
   it("bit i stands for attemptErrorNames[i]", () => {

@@ -7,7 +7,8 @@ import { Chart, type ChartSize } from "../../../components/Chart";
 import type { Column } from "../../../components/DataTable";
 import { ChartLegend, lineSwatch, shapeSwatch } from "../ChartLegend";
 import { ink, percentTick } from "../chartStyle";
-import { errorShortLabels, formatCount, formatPercent, percentValue } from "../format";
+import { formatCount, formatPercent, percentValue } from "../format";
+import { errorShortNames } from "../../../../shared/vocabulary";
 
 export type ParetoRow = z.infer<typeof paretoRowSchema>;
 
@@ -27,14 +28,14 @@ export function describePareto(rows: readonly ParetoRow[], attempts: number | nu
   if (total === 0) return `No errors were counted${attempts ? ` in ${formatCount(attempts)} attempts` : ""}.`;
   const few = vitalFew(rows);
   const last = few[few.length - 1];
-  const named = few.map((row) => `${errorShortLabels[row.error].toLowerCase()} (${formatPercent(row.share)})`).join(", ");
+  const named = few.map((row) => `${errorShortNames[row.error].toLowerCase()} (${formatPercent(row.share)})`).join(", ");
   const lead =
     few.length === 1
       ? `One kind of error makes up ${formatPercent(last.cumulativeShare)} of the ${formatCount(total)} errors counted: ${named}.`
       : `${few.length} kinds of error make up ${formatPercent(last.cumulativeShare)} of the ${formatCount(total)} errors counted: ${named}.`;
   const top = rows[0];
   return attempts
-    ? `${lead} The most common, ${errorShortLabels[top.error].toLowerCase()}, affected ${formatPercent(top.attemptShare)} of ${formatCount(attempts)} attempts.`
+    ? `${lead} The most common, ${errorShortNames[top.error].toLowerCase()}, affected ${formatPercent(top.attemptShare)} of ${formatCount(attempts)} attempts.`
     : lead;
 }
 
@@ -47,7 +48,7 @@ export const paretoColumns: Column<ParetoRow>[] = [
 ];
 
 const plot = (rows: readonly ParetoRow[], { width }: ChartSize): Plot.PlotOptions => {
-  const labelled = rows.map((row) => ({ ...row, name: errorShortLabels[row.error] }));
+  const labelled = rows.map((row) => ({ ...row, name: errorShortNames[row.error] }));
   return {
     height: Math.max(220, rows.length * 38 + 60),
     marginLeft: 128,

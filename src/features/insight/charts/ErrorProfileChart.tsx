@@ -6,7 +6,8 @@ import { Chart, type ChartSize } from "../../../components/Chart";
 import type { Column } from "../../../components/DataTable";
 import { ChartLegend, shapeSwatch } from "../ChartLegend";
 import { ink, percentTick, shareAxisTop } from "../chartStyle";
-import { errorShortLabels, formatPercent, formatPoints, percentValue, roundTo, suppressedText } from "../format";
+import { formatPercent, formatPoints, percentValue, roundTo, suppressedText } from "../format";
+import { errorShortNames } from "../../../../shared/vocabulary";
 
 export type ErrorProfileRow = StandingAnswer["errorProfile"]["rows"][number];
 
@@ -14,13 +15,13 @@ export function describeErrorProfile(rows: readonly ErrorProfileRow[], networkSu
   const mine = rows.filter((r) => r.mine !== null);
   if (mine.length === 0) return "You have no attempts in this period.";
   const top = [...mine].sort((a, b) => (b.mine ?? 0) - (a.mine ?? 0))[0];
-  let text = `Your most common error is ${errorShortLabels[top.error].toLowerCase()}, in ${formatPercent(top.mine)} of your attempts`;
+  let text = `Your most common error is ${errorShortNames[top.error].toLowerCase()}, in ${formatPercent(top.mine)} of your attempts`;
   if (networkSuppressed) return `${text}. The network's figures are hidden (${suppressedText(minCount)}).`;
   text += top.network === null ? "." : ` (network: ${formatPercent(top.network)}).`;
   const worse = rows.filter((r) => r.mine !== null && r.network !== null && r.mine - r.network >= 0.05);
   const better = rows.filter((r) => r.mine !== null && r.network !== null && r.network - r.mine >= 0.05);
-  if (worse.length) text += ` At least 5 points more often than the network: ${worse.map((r) => errorShortLabels[r.error].toLowerCase()).join(", ")}.`;
-  if (better.length) text += ` At least 5 points less often: ${better.map((r) => errorShortLabels[r.error].toLowerCase()).join(", ")}.`;
+  if (worse.length) text += ` At least 5 points more often than the network: ${worse.map((r) => errorShortNames[r.error].toLowerCase()).join(", ")}.`;
+  if (better.length) text += ` At least 5 points less often: ${better.map((r) => errorShortNames[r.error].toLowerCase()).join(", ")}.`;
   return text;
 }
 
@@ -47,8 +48,8 @@ export function errorProfileColumns(networkSuppressed: boolean, minCount: number
 
 const plot = (rows: readonly ErrorProfileRow[], { width }: ChartSize): Plot.PlotOptions => {
   const long = rows.flatMap((r) => [
-    { name: errorShortLabels[r.error], who: "You", share: r.mine },
-    { name: errorShortLabels[r.error], who: "Network", share: r.network },
+    { name: errorShortNames[r.error], who: "You", share: r.mine },
+    { name: errorShortNames[r.error], who: "Network", share: r.network },
   ]);
   const shown = long.filter((d) => d.share !== null);
   return {
@@ -57,7 +58,7 @@ const plot = (rows: readonly ErrorProfileRow[], { width }: ChartSize): Plot.Plot
     marginRight: 48,
     marginBottom: 44,
     x: { domain: [0, shareAxisTop(shown.map((d) => d.share), 0.2)], tickFormat: percentTick, label: "Share of attempts with this error", labelAnchor: "center", labelOffset: 38, grid: true, ticks: width < 420 ? 4 : 8 },
-    fy: { domain: rows.map((r) => errorShortLabels[r.error]), label: null },
+    fy: { domain: rows.map((r) => errorShortNames[r.error]), label: null },
     y: { domain: ["You", "Network"], axis: null, paddingInner: 0.1 },
     marks: [
       Plot.barX(shown, { x: "share", y: "who", fy: "name", fill: (d: { who: string }) => (d.who === "You" ? ink.accent : ink.main), stroke: (d: { who: string }) => (d.who === "You" ? ink.text : "none") }),

@@ -7,9 +7,10 @@ import { Chart, type ChartSize } from "../../../components/Chart";
 import type { Column } from "../../../components/DataTable";
 import { ChartLegend, shapeSwatch } from "../ChartLegend";
 import { ink } from "../chartStyle";
-import { describeRate, feedbackWords, formatCount, formatInterval, formatPercent, formatPoints, formatScore, percentValue, suppressedText } from "../format";
+import { describeRate, formatCount, formatInterval, formatPercent, formatPoints, formatScore, percentValue, suppressedText } from "../format";
 import { intervalBarsPlot } from "./intervalPlot";
 import { NothingToChart } from "./NothingToChart";
+import { feedbackNames } from "../../../../shared/vocabulary";
 
 export type FeedbackGroup = z.infer<typeof feedbackGroupSchema>;
 
@@ -36,7 +37,7 @@ export function describeFeedback(groups: readonly FeedbackGroup[], minCount: num
 export function feedbackColumns(minCount: number): Column<FeedbackGroup>[] {
   const hidden = suppressedText(minCount);
   return [
-    { key: "mode", header: "Display", value: (g) => feedbackWords[g.mode] },
+    { key: "mode", header: "Display", value: (g) => feedbackNames[g.mode] },
     { key: "attempts", header: "Attempts", value: (g) => g.attempts, render: (g) => (g.suppressed ? hidden : formatCount(g.attempts)), align: "right" },
     { key: "rate", header: "Pass rate (%)", value: (g) => percentValue(g.passRate.rate), render: (g) => (g.suppressed ? hidden : formatPercent(g.passRate.rate)), align: "right" },
     { key: "interval", header: "95 % interval", value: (g) => (g.passRate.low === null ? null : formatInterval(g.passRate.low, g.passRate.high)), sortable: false, align: "right" },
@@ -48,7 +49,7 @@ export function FeedbackComparisonChart({ groups, minCount }: { groups: readonly
   const plot = useCallback(
     (rows: readonly FeedbackGroup[], size: ChartSize) =>
       intervalBarsPlot(
-        rows.map((g) => ({ label: feedbackWords[g.mode], shortLabel: g.mode === "live" ? "Live" : "Hidden", rate: g.passRate.rate, low: g.passRate.low, high: g.passRate.high, fill: g.mode === "live" ? ink.main : ink.soft })),
+        rows.map((g) => ({ label: feedbackNames[g.mode], shortLabel: g.mode === "live" ? "Live" : "Hidden", rate: g.passRate.rate, low: g.passRate.low, high: g.passRate.high, fill: g.mode === "live" ? ink.main : ink.soft })),
         size,
         120,
       ),

@@ -25,7 +25,13 @@ export function OverviewStats({ answer }: { answer: OverviewAnswer }) {
   const change: StatChange | undefined =
     passRateChange.absolute === null
       ? undefined
-      : { value: passRateChange.absolute, text: formatPoints(passRateChange.absolute), comparedWith: `since ${periodLabel(answer.previousPeriod)}`, better: "up" };
+      : {
+          value: passRateChange.absolute,
+          text: formatPoints(passRateChange.absolute),
+          comparedWith: `since ${periodLabel(answer.previousPeriod)}`,
+          better: "up",
+          clear: passRateChange.verdict !== "about the same",
+        };
   const noComparison = passRateChange.previous.suppressed
     ? `${periodLabel(answer.previousPeriod)} had fewer than ${min} attempts, so there is no comparison.`
     : passRateChange.previous.rate === null
@@ -44,6 +50,9 @@ export function OverviewStats({ answer }: { answer: OverviewAnswer }) {
             <>
               {passRate.n !== null && `${formatCount(passRate.successes)} of ${formatCount(passRate.n)} manikin attempts met every target.`}
               {noComparison && ` ${noComparison}`}
+              {passRateChange.low !== null &&
+                passRateChange.high !== null &&
+                ` The change's 95 % interval runs from ${formatPoints(passRateChange.low)} to ${formatPoints(passRateChange.high)}${passRateChange.verdict === "about the same" ? ", so it may be chance." : "."}`}
             </>
           }
         />

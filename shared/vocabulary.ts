@@ -1,0 +1,50 @@
+// The one vocabulary of figures and dimensions: every page, chart, table, CSV export, the PDF report and the
+// CLI take their words from here, so the same thing is never called two names. Add a word here, not in a page.
+import type { CourseType, FeedbackMode } from "./domain";
+import type { PatientType } from "./scoring/policy";
+import type { AttemptError } from "./scoring/scoreAttempt";
+
+/** The ways figures can be narrowed or grouped. */
+export const dimensionNames = {
+  period: "Period",
+  site: "Site",
+  instructor: "Instructor",
+  patientType: "Patient type",
+  feedback: "Feedback display",
+  manikin: "Manikin",
+} as const;
+export type Dimension = keyof typeof dimensionNames;
+
+export const patientTypeNames: Record<PatientType, string> = { infant: "Infant", child: "Child", adult: "Adult" };
+
+export const courseTypeNames: Record<CourseType, string> = { ...patientTypeNames, "all-ages": "All ages" };
+
+/** Whether the learner saw depth and rate while compressing. */
+export const feedbackNames: Record<FeedbackMode, string> = { live: "Live display", hidden: "Hidden display" };
+
+/** Each error an attempt can fail on: a short name (axes, badges, filters) and what it means (tables, text). */
+export const errorVocabulary: Record<AttemptError, { short: string; label: string }> = {
+  too_shallow: { short: "Too shallow", label: "Compressions mostly not deep enough" },
+  too_deep: { short: "Too deep", label: "Compressions mostly deeper than the target" },
+  too_slow: { short: "Too slow", label: "Compression rate mostly below the target" },
+  too_fast: { short: "Too fast", label: "Compression rate mostly above the target" },
+  incomplete_recoil: { short: "Incomplete release", label: "Chest not released fully between compressions" },
+  low_hands_on: { short: "Low hands-on time", label: "Too little of the time spent compressing" },
+  long_pause: { short: "Long interruption", label: "An interruption longer than allowed" },
+};
+
+export const errorShortNames = Object.fromEntries(Object.entries(errorVocabulary).map(([error, words]) => [error, words.short])) as Record<AttemptError, string>;
+export const errorLabels = Object.fromEntries(Object.entries(errorVocabulary).map(([error, words]) => [error, words.label])) as Record<AttemptError, string>;
+
+/** The headline figures, named the same on every page, in the report and the CLI. */
+export const figureNames = {
+  /** Attempts that met every measured criterion, of attempts measured by a manikin. */
+  passRate: "Measured pass rate",
+  /** Learners the instructor recorded as completing, of learners in the class logs. */
+  recordedCompletion: "Recorded completion",
+  attempts: "Attempts measured",
+  learners: "Learners",
+  classes: "Classes",
+  medianScore: "Median score",
+  agreement: "Agreement of instructors with the measurement",
+} as const;
