@@ -2,6 +2,7 @@
 // group. An instructor sees their own rows in full and everyone else's only as aggregates of at least
 // policy.suppressionMinCount attempts; a funder sees aggregates of at least that size and nothing else.
 import type { CurrentUser } from "../../shared/schemas/auth";
+import { hidesOthers, withComplementaryHiding as hideComplements } from "../../shared/suppression";
 import type { Db } from "../db/client";
 import { currentPolicy } from "../policy/service";
 import { cached } from "./cache";
@@ -32,27 +33,14 @@ export function viewerKey(viewer: Viewer): string {
 /**
  * Whether a group must be hidden from this viewer. `othersN` counts the group's attempts that are not the
  * viewer's own: an instructor knows their own rows, so only the rest protects anyone (a shown total minus
- * their own rows would otherwise reveal a small group of others). Nothing of others' (0) reveals nothing.
+ * their own rows would otherwise reveal a small group of others).
  */
 export function hidesGroup(viewer: Viewer, othersN: number): boolean {
-  if (viewer.seesEveryone) return false;
-  return othersN > 0 && othersN < viewer.suppressionMinCount;
+  return !viewer.seesEveryone && hidesOthers(othersN, viewer.suppressionMinCount);
 }
 
-/**
- * Complementary suppression for groups that add up to a total shown beside them (the quarters of a range,
- * the feedback modes of a period): if the hidden groups together hold fewer than the threshold of others'
- * attempts, the total minus the shown groups would reveal them, so the smallest shown groups are hidden too
- * until the hidden ones hold enough. Returns the new hidden flags.
- */
+/** Complementary hiding (shared/suppression) for this viewer; nothing is hidden from those who see everyone. */
 export function withComplementaryHiding(viewer: Viewer, othersN: readonly number[], hidden: readonly boolean[]): boolean[] {
-  const result = [...hidden];
-  const hiddenSum = () => othersN.reduce((sum, n, i) => sum + (result[i] ? n : 0), 0);
-  while (hidesGroup(viewer, hiddenSum())) {
-    const candidates = othersN.map((n, i) => ({ n, i })).filter(({ n, i }) => !result[i] && n > 0);
-    if (candidates.length === 0) break;
-    candidates.sort((a, b) => a.n - b.n);
-    result[candidates[0].i] = true;
-  }
-  return result;
+  if (viewer.seesEveryone) return [...hidden];
+  return hideComplements(othersN, hidden, viewer.suppressionMinCount);
 }

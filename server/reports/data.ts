@@ -17,7 +17,7 @@ import { countFigure, formatPoints, hiddenText, perHundredFigure, rateFigure } f
 import { writeNarrative } from "./narrative";
 import { comparisonPeriods, parsePeriod, periodLabel, quartersOf, trailingQuarters } from "./period";
 import { passTallyByQuarter, reportNumbers, type PassTally } from "./queries";
-import { suppressBreakdown } from "./suppress";
+import { suppressBreakdown } from "../../shared/suppression";
 import { courseTypeNames, errorLabels, feedbackNames, patientTypeNames } from "../../shared/vocabulary";
 
 export const TREND_QUARTERS = 8;

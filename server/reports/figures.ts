@@ -2,7 +2,7 @@
 // display text the web page and the PDF both print.
 import { wilsonInterval } from "../../shared/stats";
 import type { CountFigure, HiddenReason, PerHundredFigure, RateFigure } from "../../shared/schemas/report";
-import { isSmall } from "./suppress";
+import { isSmall } from "../../shared/suppression";
 
 export function hiddenText(reason: HiddenReason, minCount: number): string {
   return reason === "small" ? `fewer than ${minCount}` : "not shown";

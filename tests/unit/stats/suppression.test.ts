@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import type { HiddenReason } from "../../../shared/schemas/report";
-import { anyHiddenCellPinned, suppressBreakdown } from "../../../server/reports/suppress";
+import { anyHiddenCellPinned, hidesOthers, suppressBreakdown, withComplementaryHiding } from "../../../shared/suppression";
 
 const MIN = 5;
 
@@ -121,5 +121,20 @@ describe("suppressBreakdown", () => {
 
   it("hides nothing with a threshold of 1 (a group of 0 holds nobody)", () => {
     expect(suppressBreakdown([0, 3], 1).cells).toEqual([null, null]);
+  });
+});
+
+describe("the pages' rules", () => {
+  it("hide a group holding 1 to 4 of others' attempts, never an empty one", () => {
+    expect([0, 1, 4, 5, 12].map((n) => hidesOthers(n, MIN))).toEqual([false, true, true, false, false]);
+  });
+
+  it("hide the smallest shown group beside a hidden one until the hidden groups hold at least the threshold", () => {
+    // feedback modes 3 and 40 under a shown total of 43: 43 − 40 would give the 3 away, so 40 goes too
+    expect(withComplementaryHiding([3, 40], [true, false], MIN)).toEqual([true, true]);
+    // quarters 3, 4, 30: hiding 3 and 4 together holds 7 ≥ 5, so the 30 stays
+    expect(withComplementaryHiding([3, 4, 30], [true, true, false], MIN)).toEqual([true, true, false]);
+    // nothing hidden, nothing added
+    expect(withComplementaryHiding([8, 9], [false, false], MIN)).toEqual([false, false]);
   });
 });

@@ -1,14 +1,17 @@
-// Small-cell suppression for the funder report. Pure: numbers in, decisions out.
+// Small-cell suppression: the one module that decides what instructors and funders may not see, for the
+// pages' API and the funder report alike. Pure: numbers in, decisions out.
 //
 // Primary suppression: a count below the network's smallest group shown (policy.suppressionMinCount) is
-// hidden, and so is every rate made from fewer than that many.
+// hidden, and so is every rate made from fewer than that many. The pages count only other people's attempts
+// (a viewer knows their own) and show an empty group (nothing of anyone's reveals nothing); the report
+// hides every count below the threshold.
 // Complementary suppression: in a breakdown whose total is shown, total minus the shown cells equals the sum
 // of the hidden cells. One hidden cell would be given away at once, and even several can be pinned down
 // (two hidden cells of a breakdown with threshold 5 whose remainder is 8 must both be 4). So while any hidden
 // cell can be worked out exactly, the smallest shown cell is hidden too; when none is left, the total goes.
 // A reader knows a "small" cell lies in 0 … min − 1 and a cell hidden to protect another is at least min, so
 // the check below uses exactly that knowledge.
-import type { HiddenReason } from "../../shared/schemas/report";
+import type { HiddenReason } from "./schemas/report";
 
 export interface BreakdownSuppression {
   cells: (HiddenReason | null)[];
@@ -81,4 +84,27 @@ export function anyHiddenCellPinned(
 /** What a reader knows about a hidden cell from its label alone. */
 function knownBounds(reason: HiddenReason, minCount: number): [number, number] {
   return reason === "small" ? [0, minCount - 1] : [minCount, Number.POSITIVE_INFINITY];
+}
+
+/** The pages' primary rule: a group holding some, but fewer than the threshold, of other people's attempts. */
+export function hidesOthers(othersN: number, minCount: number): boolean {
+  return othersN > 0 && othersN < minCount;
+}
+
+/**
+ * The pages' complementary rule, for groups that add up to a total shown beside them (the quarters of a
+ * range, the feedback modes of a period): if the hidden groups together hold fewer than the threshold of
+ * others' attempts, the total minus the shown groups would reveal them, so the smallest shown groups are
+ * hidden too until the hidden ones hold enough. Returns the new hidden flags.
+ */
+export function withComplementaryHiding(othersN: readonly number[], hidden: readonly boolean[], minCount: number): boolean[] {
+  const result = [...hidden];
+  const hiddenSum = () => othersN.reduce((sum, n, i) => sum + (result[i] ? n : 0), 0);
+  while (hidesOthers(hiddenSum(), minCount)) {
+    const candidates = othersN.map((n, i) => ({ n, i })).filter(({ n, i }) => !result[i] && n > 0);
+    if (candidates.length === 0) break;
+    candidates.sort((a, b) => a.n - b.n);
+    result[candidates[0].i] = true;
+  }
+  return result;
 }
