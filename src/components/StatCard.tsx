@@ -30,12 +30,14 @@ export interface StatCardProps {
   interval?: StatInterval;
   change?: StatChange;
   status?: TargetStatus;
+  /** The badge's words when the default ("Too low", …) would not say which way a value missed. */
+  statusLabel?: string;
   /** A short note under the number, e.g. "n = 263 attempts". */
   footnote?: ReactNode;
   className?: string;
 }
 
-export function StatCard({ label, value, unit, interval, change, status, footnote, className }: StatCardProps) {
+export function StatCard({ label, value, unit, interval, change, status, statusLabel, footnote, className }: StatCardProps) {
   return (
     <section className={clsx("flex flex-col gap-1 rounded-card border border-line bg-surface p-4 shadow-card", className)}>
       <h3 className="text-small font-semibold text-muted">{label}</h3>
@@ -49,7 +51,7 @@ export function StatCard({ label, value, unit, interval, change, status, footnot
         </p>
       )}
       {change && <ChangeLine change={change} />}
-      {status && <TargetBadge status={status} className="self-start" />}
+      {status && <TargetBadge status={status} label={statusLabel} className="self-start" />}
       {footnote && <p className="text-caption text-muted">{footnote}</p>}
     </section>
   );

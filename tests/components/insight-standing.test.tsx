@@ -112,7 +112,10 @@ describe("my standing", () => {
     const depth = metricCard("Depth");
     expect(within(depth).getByText("80.0 %")).toBeTruthy();
     expect(depth.textContent).toContain("Network: 82.0 %");
-    expect(depth.textContent).toContain("38th percentile of 4 instructors: below the middle.");
+    // 80 % against 82 %: two points from the network's median reads as about the same, whatever the rank
+    expect(depth.textContent).toContain("38th percentile of 4 instructors, but within 3 points of the network's median: about the same as the network.");
+    const rate = metricCard("Rate");
+    expect(rate.textContent).toContain("88th percentile of 4 instructors: among the highest.");
   });
 
   it("the spread's table lists every instructor's point, me as 'You' and others without names", async () => {

@@ -23,9 +23,20 @@ export function ordinal(n: number): string {
   return `${n}${({ 1: "st", 2: "nd", 3: "rd" } as Record<number, string>)[n % 10] ?? "th"}`;
 }
 
-export function percentileSentence(rank: number | null, instructors: number): string {
+/**
+ * Closer than this to the network's median (in points of a share, or of the score) reads as no real
+ * difference whatever the rank: instructors' medians often lie within a few points of each other, so a low
+ * rank alone would call a gap of one point "among the lowest". A product choice, stated on the page.
+ */
+export const CLOSE_TO_NETWORK_POINTS = 3;
+
+/** Words for my standing that follow the size of my difference from the network first and my rank second. */
+export function percentileSentence(rank: number | null, instructors: number, difference: number | null): string {
   if (rank === null || instructors < 2) return "No rank: no other instructor has enough attempts to compare with.";
   const rounded = Math.round(rank);
+  if (difference !== null && Math.abs(difference) < CLOSE_TO_NETWORK_POINTS) {
+    return `${ordinal(rounded)} percentile of ${instructors} instructors, but within ${CLOSE_TO_NETWORK_POINTS} points of the network's median: about the same as the network.`;
+  }
   const where = rounded >= 75 ? "among the highest" : rounded > 55 ? "above the middle" : rounded >= 45 ? "near the middle" : rounded > 25 ? "below the middle" : "among the lowest";
   return `${ordinal(rounded)} percentile of ${instructors} instructors: ${where}.`;
 }
@@ -57,7 +68,7 @@ export function StandingMetrics({ answer }: { answer: StandingAnswer }) {
                 </span>
               )}
             </p>
-            <p className="mt-auto pt-1 text-caption text-ink">{networkHidden ? "No rank while the network is hidden." : percentileSentence(metric.percentileRank, instructors)}</p>
+            <p className="mt-auto pt-1 text-caption text-ink">{networkHidden ? "No rank while the network is hidden." : percentileSentence(metric.percentileRank, instructors, diff)}</p>
           </li>
         );
       })}
