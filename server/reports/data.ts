@@ -234,8 +234,8 @@ function comparisonText(
 ): string {
   if (current.value === null) return `Too few attempts in this period to compare with ${label}.`;
   if (earlier.value === null) return `Too few attempts in ${label} to compare with.`;
-  if (verdict === "about the same" || verdict === null || points === null) return `About the same as ${label} (${earlier.text}).`;
-  return `${verdict === "higher" ? "Up" : "Down"} ${formatPoints(points)} on ${label} (${earlier.text}).`;
+  if (verdict === "no clear change" || verdict === null || points === null) return `No clear change from ${label} (${earlier.text}).`;
+  return `${verdict === "up" ? "Up" : "Down"} ${formatPoints(points)} on ${label} (${earlier.text}).`;
 }
 
 function methodsText(policy: NetworkPolicy, version: number, scoredUnder: number[]): ReportData["methods"] {

@@ -38,12 +38,12 @@ export function writeNarrative(data: ReportData): string[] {
     for (const comparison of data.comparisons) {
       const earlier = comparison.passRate;
       if (comparison.verdict === null || earlier.value === null || comparison.changePoints === null) continue;
-      if (comparison.verdict === "about the same") {
+      if (comparison.verdict === "no clear change") {
         sentences.push(
-          `That is about the same as ${comparison.label} (${earlier.text}): the two intervals overlap too much to call it a change.`,
+          `That is no clear change from ${comparison.label} (${earlier.text}): the 95 % interval of the difference includes no change.`,
         );
       } else {
-        const direction = comparison.verdict === "higher" ? "rose" : "fell";
+        const direction = comparison.verdict === "up" ? "rose" : "fell";
         sentences.push(
           `Compared with ${comparison.label}, the pass rate ${direction} from ${earlier.text} to ${rate.text} ` +
             `(${formatPoints(comparison.changePoints)}).`,
@@ -65,9 +65,9 @@ export function writeNarrative(data: ReportData): string[] {
   const { live, hidden, verdict } = data.feedback;
   if (live.passRate.value !== null && hidden.passRate.value !== null && verdict) {
     const comparison =
-      verdict === "about the same"
-        ? "about the same as"
-        : verdict === "higher"
+      verdict === "no clear change"
+        ? "not clearly different from"
+        : verdict === "up"
           ? "higher than"
           : "lower than";
     sentences.push(

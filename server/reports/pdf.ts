@@ -257,9 +257,9 @@ function drawFeedback(page: PageFlow, data: ReportData) {
   const reading =
     verdict === null || differencePoints === null
       ? "One of the two groups is too small to compare."
-      : verdict === "about the same"
-        ? "The two intervals overlap heavily: the pass rates are about the same."
-        : `Attempts with the display shown passed ${verdict === "higher" ? "more" : "less"} often, by ${Math.abs(differencePoints).toFixed(1)} percentage points.`;
+      : verdict === "no clear change"
+        ? "The gap is within what chance alone could give: no clear difference."
+        : `Attempts with the display shown passed ${verdict === "up" ? "more" : "less"} often, by ${Math.abs(differencePoints).toFixed(1)} percentage points.`;
   page.paragraph(`Bars show the pass rate, whiskers its 95 % interval. ${reading}`, { size: 7.5, colour: colours.muted, gapAfter: 14 });
 }
 
@@ -378,8 +378,9 @@ function drawMethods(page: PageFlow, data: ReportData) {
     {
       title: "Intervals and comparisons",
       text:
-        "Pass rates carry a Wilson 95 % score interval. A change is described as \"about the same\" when each period's rate lies " +
-        "inside the other's interval. Quarterly control limits are those of a p-chart (3 sigma).",
+        "Pass rates carry a Wilson 95 % score interval. A change between periods, and the gap between live and hidden display, " +
+        "is called up or down only when the 95 % interval of the difference (Newcombe's hybrid score method) excludes zero; " +
+        "otherwise it reads \"no clear change\". Quarterly control limits are those of a p-chart (3 sigma).",
       size: 8.5,
     },
     { title: "Small numbers", text: m.suppressionNote, size: 8.5 },

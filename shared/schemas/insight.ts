@@ -142,8 +142,8 @@ export const overviewAnswerSchema = z.object({
     /** 95 % interval of the difference (Newcombe's hybrid score); null when either rate is hidden or empty. */
     low: z.number().nullable(),
     high: z.number().nullable(),
-    /** "higher" or "lower" only when that interval excludes zero. */
-    verdict: z.enum(["higher", "lower", "about the same"]).nullable(),
+    /** "up" or "down" only when that interval excludes zero. */
+    verdict: z.enum(["up", "down", "no clear change"]).nullable(),
   }),
   /** Σ passed / Σ learners over the class logs of the period: what instructors recorded. */
   recordedCompletion: rateSchema,

@@ -2,6 +2,7 @@
 // made (so the web page and the PDF say exactly the same thing), and the request bodies of the report routes.
 import { z } from "zod";
 import { emailSchema } from "./auth";
+import type { ChangeVerdict } from "../stats/difference";
 
 /** A quarter such as 2026-Q3, or a whole year such as 2026. */
 export const periodSchema = z
@@ -55,7 +56,8 @@ export interface PerHundredFigure {
   text: string;
 }
 
-export type ChangeVerdict = "higher" | "lower" | "about the same";
+
+export type { ChangeVerdict };
 
 export interface ReportComparison {
   /** "the previous quarter", "the same quarter last year", "the previous year" */

@@ -1,7 +1,7 @@
 // Difference between two independent proportions with Newcombe's hybrid score interval (method 10 in
 // Newcombe, Stat Med 1998;17:873–890): each rate's Wilson interval is combined into one for the difference.
 // It keeps its coverage near 95 % for small groups and rates near 0 or 1, where the simple Wald interval
-// does not. A change is called only when this interval excludes zero; otherwise it is "about the same".
+// does not. A change is called only when this interval excludes zero; otherwise it is "no clear change".
 import { Z_95, wilsonInterval } from "./wilson";
 
 export interface ProportionDifference {
@@ -11,7 +11,7 @@ export interface ProportionDifference {
   high: number;
 }
 
-export type ChangeVerdict = "higher" | "lower" | "about the same";
+export type ChangeVerdict = "up" | "down" | "no clear change";
 
 /** The difference x1/n1 − x2/n2 with its 95 % interval; null when either group is empty. */
 export function proportionDifference(x1: number, n1: number, x2: number, n2: number, z: number = Z_95): ProportionDifference | null {
@@ -28,9 +28,9 @@ export function proportionDifference(x1: number, n1: number, x2: number, n2: num
   return { difference, low: Math.max(-1, low), high: Math.min(1, high) };
 }
 
-/** "higher" or "lower" only when the interval of the difference lies wholly on one side of zero. */
+/** "up" or "down" only when the interval of the difference lies wholly on one side of zero. */
 export function changeVerdict(difference: ProportionDifference): ChangeVerdict {
-  if (difference.low > 0) return "higher";
-  if (difference.high < 0) return "lower";
-  return "about the same";
+  if (difference.low > 0) return "up";
+  if (difference.high < 0) return "down";
+  return "no clear change";
 }

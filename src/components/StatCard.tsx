@@ -19,7 +19,7 @@ export interface StatChange {
   comparedWith?: string;
   /** Which direction is an improvement; omit when neither is. */
   better?: "up" | "down";
-  /** False when the change is within chance variation: it reads "about the same" and is not coloured. */
+  /** False when the change is within chance variation: it reads "no clear change" and is not coloured. */
   clear?: boolean;
 }
 
@@ -60,7 +60,7 @@ export function StatCard({ label, value, unit, interval, change, status, statusL
 function ChangeLine({ change }: { change: StatChange }) {
   const direction = change.value > 0 ? "up" : change.value < 0 ? "down" : "flat";
   const verdict =
-    change.clear === false ? "about the same" : direction === "flat" || !change.better ? null : direction === change.better ? "better" : "worse";
+    change.clear === false ? "no clear change" : direction === "flat" || !change.better ? null : direction === change.better ? "better" : "worse";
   return (
     <p
       className={clsx(

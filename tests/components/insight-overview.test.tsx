@@ -45,7 +45,7 @@ const overview: OverviewAnswer = overviewAnswerSchema.parse({
   attempts: 1392,
   passRate: rate(411, 1392, 0.2953, 0.2712, 0.3188),
   // 411/1392 against 240/941: difference interval 0.0031 to 0.0765 (Newcombe's hybrid score), a clear rise
-  passRateChange: { previous: rate(240, 941, 0.2551, 0.2283, 0.2838), absolute: 0.0402, relative: 0.1576, low: 0.0031, high: 0.0765, verdict: "higher" },
+  passRateChange: { previous: rate(240, 941, 0.2551, 0.2283, 0.2838), absolute: 0.0402, relative: 0.1576, low: 0.0031, high: 0.0765, verdict: "up" },
   recordedCompletion: rate(761, 1262, 0.603, 0.5757, 0.6297),
   agreement: { pairs: 537, table: [[212, 165], [12, 148]], observed: 0.6704, expected: 0.4665, kappa: 0.3822, suppressed: false },
   medianScore: 83.3333,
@@ -103,19 +103,19 @@ function tableOf(title: string): string[][] {
 }
 
 describe("network overview", () => {
-  it("calls a change whose interval includes zero about the same, without a colour of better or worse", async () => {
+  it("calls a change whose interval includes zero no clear change, without a colour of better or worse", async () => {
     // 300/1000 against 295/1000: difference +0.5 points, interval −3.5 to +4.5 points (Newcombe's hybrid score)
     const small = overviewAnswerSchema.parse({
       ...overview,
       passRate: rate(300, 1000, 0.3, 0.2724, 0.3291),
-      passRateChange: { previous: rate(295, 1000, 0.295, 0.2675, 0.324), absolute: 0.005, relative: 0.0169, low: -0.035, high: 0.045, verdict: "about the same" },
+      passRateChange: { previous: rate(295, 1000, 0.295, 0.2675, 0.324), absolute: 0.005, relative: 0.0169, low: -0.035, high: 0.045, verdict: "no clear change" },
     });
     serve("coordinator", small);
     renderApp("/overview?quarter=2026-Q3");
     await screen.findByRole("heading", { name: "2026 Q3 at a glance" });
 
     const measured = card("Measured pass rate");
-    expect(measured.textContent).toContain("+0.5 points since 2026 Q2 (about the same)");
+    expect(measured.textContent).toContain("+0.5 points since 2026 Q2 (no clear change)");
     expect(measured.textContent).not.toContain("(better)");
     expect(measured.textContent).toContain("runs from −3.5 points to +4.5 points, so it may be chance.");
   });

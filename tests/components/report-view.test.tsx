@@ -54,8 +54,8 @@ function reportData(): ReportData {
         passRate: rate(0.378, 0.3465, 0.4113, 859, "37.8 %", "34.7–41.1 %"),
         changePoints: 0.29,
         relativeChange: 0.0078,
-        verdict: "about the same",
-        text: "About the same as the previous quarter (37.8 %).",
+        verdict: "no clear change",
+        text: "No clear change from the previous quarter (37.8 %).",
       },
     ],
     trend: {
@@ -81,7 +81,7 @@ function reportData(): ReportData {
       live: { key: "live", label: "Live display shown", attempts: count(481), passRate: rate(0.4574, 0.4134, 0.5021, 481, "45.7 %", "41.3–50.2 %") },
       hidden: { key: "hidden", label: "Live display hidden", attempts: count(374), passRate: rate(0.2834, 0.2401, 0.3311, 374, "28.3 %", "24.0–33.1 %") },
       differencePoints: 17.4,
-      verdict: "higher",
+      verdict: "up",
     },
     agreement: {
       pairs: count(753),
@@ -148,7 +148,7 @@ describe("funder report page", () => {
 
   it("reads the comparisons, the coordinator's text, the feedback difference and the caution", () => {
     render(<ReportView data={reportData()} />);
-    expect(screen.getByText(/About the same as the previous quarter \(37\.8 %\)\./)).toBeTruthy();
+    expect(screen.getByText(/No clear change from the previous quarter \(37\.8 %\)\./)).toBeTruthy();
     expect(screen.getByText("Refresher sessions on compression rate at every site.")).toBeTruthy();
     expect(screen.getByText("The pass rate with the display shown was 17.4 percentage points higher than with it hidden.")).toBeTruthy();
     expect(screen.getByRole("complementary", { name: "Caution" }).textContent).toContain("not a medical device");

@@ -4,6 +4,7 @@ import type { ErrorsAnswer } from "../../../shared/schemas/insight";
 import { Chart, type ChartSize } from "../../components/Chart";
 import type { Column } from "../../components/DataTable";
 import { dusk } from "../../styles/palette";
+import { changeVerdict, proportionDifference } from "../../../shared/stats/difference";
 import { percent, percentNumber } from "../attempts/labels";
 
 type TrendRow = NonNullable<ErrorsAnswer["selected"]>["trend"][number];
@@ -38,13 +39,15 @@ export function ErrorTrendChart({ label, trend }: { label: string; trend: readon
   const shown = trend.filter((row) => row.share !== null);
   const first = shown[0];
   const last = shown[shown.length - 1];
-  const overlap = first && last && first !== last && first.low !== null && last.high !== null && last.low !== null && first.high !== null && last.low <= first.high && first.low <= last.high;
+  // the same test of change as everywhere else: the 95 % interval of the difference must exclude zero
+  const difference = first && last && first !== last ? proportionDifference(last.count, last.attempts, first.count, first.attempts) : null;
+  const clear = difference !== null && changeVerdict(difference) !== "no clear change";
   const description =
     shown.length === 0
       ? "No attempts in these quarters."
       : first === last
         ? `${percent(first.share)} of attempts in ${first.quarter.replace("-", " ")}. Bars show the 95 % interval.`
         : `Share of attempts with “${label.toLowerCase()}” per quarter, from ${percent(first.share)} in ${first.quarter.replace("-", " ")} to ${percent(last.share)} in ${last.quarter.replace("-", " ")}. ` +
-          `Bars show the 95 % interval; ${overlap ? "the first and last intervals overlap, so the change may be chance" : "the first and last intervals do not overlap"}.`;
+          `Bars show the 95 % interval; ${clear ? "the change from first to last is clear of chance (the 95 % interval of the difference excludes zero)" : "the change from first to last may be chance (the 95 % interval of the difference includes zero)"}.`;
   return <Chart title="Trend by quarter" description={description} data={trend} columns={columns} rowKey={(row) => row.quarter} plot={trendPlot} exportFileName="error-trend" />;
 }

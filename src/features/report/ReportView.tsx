@@ -43,9 +43,9 @@ function Stat({ label, children, note }: { label: string; children: ReactNode; n
 function VerdictMark({ verdict }: { verdict: ChangeVerdict | null }) {
   return (
     <svg viewBox="0 0 12 12" className="mt-1.5 size-3 shrink-0 text-dusk-700" aria-hidden="true">
-      {verdict === "higher" && <path d="M1 9.5h10L6 1z" fill="currentColor" />}
-      {verdict === "lower" && <path d="M1 2.5h10L6 11z" fill="currentColor" />}
-      {(verdict === "about the same" || verdict === null) && <path d="M1 6h10" stroke="currentColor" strokeWidth="2" />}
+      {verdict === "up" && <path d="M1 9.5h10L6 1z" fill="currentColor" />}
+      {verdict === "down" && <path d="M1 2.5h10L6 11z" fill="currentColor" />}
+      {(verdict === "no clear change" || verdict === null) && <path d="M1 6h10" stroke="currentColor" strokeWidth="2" />}
     </svg>
   );
 }
@@ -71,7 +71,7 @@ function HiddenFiguresNote({ hidden }: { hidden: readonly (HiddenReason | null)[
 
 function feedbackSentence(points: number, verdict: ChangeVerdict | null): string {
   if (Math.abs(points) < 0.05) return "The pass rate was the same with the display shown and hidden.";
-  const chance = verdict === "about the same" ? ", a difference small enough to be chance (the two intervals overlap too much to call it)" : "";
+  const chance = verdict === "no clear change" ? ", a difference small enough to be chance (the 95 % interval of the difference includes no difference)" : "";
   return `The pass rate with the display shown was ${formatPointsSize(points)} ${points > 0 ? "higher" : "lower"} than with it hidden${chance}.`;
 }
 
@@ -172,7 +172,7 @@ function ReportSections({ data, actionsSlot }: { data: ReportData; actionsSlot?:
                   <VerdictMark verdict={comparison.verdict} />
                   <span>
                     {comparison.text}
-                    {comparison.verdict === "about the same" && comparison.changePoints !== null && (
+                    {comparison.verdict === "no clear change" && comparison.changePoints !== null && (
                       <span className="text-muted"> ({formatPoints(comparison.changePoints)}, within what chance would give.)</span>
                     )}
                   </span>

@@ -5,23 +5,23 @@ import { countFigure, formatCount, perHundredFigure, rateFigure } from "../../..
 import { kappaWords } from "../../../server/reports/narrative";
 
 describe("compareRates", () => {
-  it("calls 61/100 against 68/100 about the same: the interval of the difference includes zero", () => {
+  it("calls 61/100 against 68/100 no clear change: the interval of the difference includes zero", () => {
     // 68/100 − 61/100 = +7 points; hybrid score 95 % interval about −6.2 to +19.8 points (Newcombe 1998, method 10)
-    expect(compareRates(rateFigure(68, 100, 5), rateFigure(61, 100, 5))).toBe("about the same");
+    expect(compareRates(rateFigure(68, 100, 5), rateFigure(61, 100, 5))).toBe("no clear change");
   });
 
   it("agrees with the overview's test where the intervals' overlap would have called a change", () => {
     // 56/70 against 48/80: the interval of the difference is 0.0524 to 0.3339 (Newcombe 1998, Table II): higher
-    expect(compareRates(rateFigure(56, 70, 5), rateFigure(48, 80, 5))).toBe("higher");
+    expect(compareRates(rateFigure(56, 70, 5), rateFigure(48, 80, 5))).toBe("up");
     // 130/500 against 110/500: each rate lies just outside the other's Wilson interval (0.2235–0.3002 and
     // 0.1859–0.2584), which once read as a rise; the difference's interval, −1.3 to +9.3 points, includes zero
-    expect(compareRates(rateFigure(130, 500, 5), rateFigure(110, 500, 5))).toBe("about the same");
+    expect(compareRates(rateFigure(130, 500, 5), rateFigure(110, 500, 5))).toBe("no clear change");
   });
 
   it("calls the same 7-point step a rise once the samples are large", () => {
     // 680/1000 → 0.651–0.708 does not hold 0.61, so the rise is more than the intervals' noise
-    expect(compareRates(rateFigure(680, 1000, 5), rateFigure(610, 1000, 5))).toBe("higher");
-    expect(compareRates(rateFigure(610, 1000, 5), rateFigure(680, 1000, 5))).toBe("lower");
+    expect(compareRates(rateFigure(680, 1000, 5), rateFigure(610, 1000, 5))).toBe("up");
+    expect(compareRates(rateFigure(610, 1000, 5), rateFigure(680, 1000, 5))).toBe("down");
     expect(differencePoints(rateFigure(680, 1000, 5), rateFigure(610, 1000, 5))).toBeCloseTo(7, 10);
   });
 

@@ -47,17 +47,18 @@ describe("report data for 2026-Q3", () => {
     expect(q3.passRate.intervalText).toBe("49.5–77.9 %");
   });
 
-  it("compares with the previous quarter (6/20, clearly lower) and the same quarter last year (6/10, overlapping)", () => {
+  it("compares with the previous quarter (6/20, clearly lower) and the same quarter last year (6/10, no clear change)", () => {
     const [previous, lastYear] = q3.comparisons;
     expect(previous.period).toBe("2026-Q2");
     expect(previous.passRate.value).toBe(0.3);
-    expect(previous.verdict).toBe("higher");
+    // 26/40 − 6/20 = +35 points, 95 % interval +8.2 to +55.1 (Newcombe's hybrid score): up
+    expect(previous.verdict).toBe("up");
     expect(previous.changePoints).toBeCloseTo(35, 6);
     expect(previous.relativeChange).toBeCloseTo(0.35 / 0.3, 6);
     expect(lastYear.period).toBe("2025-Q3");
     expect(lastYear.passRate.value).toBe(0.6);
-    // 0.65 lies in 6/10's interval 0.313–0.832 and 0.60 in 26/40's 0.495–0.779: about the same
-    expect(lastYear.verdict).toBe("about the same");
+    // 26/40 − 6/10 = +5 points, 95 % interval −22.9 to +36.5: no clear change
+    expect(lastYear.verdict).toBe("no clear change");
   });
 
   it("draws eight quarters with p-chart limits from the eight-quarter centre 38/70", () => {
@@ -95,11 +96,11 @@ describe("report data for 2026-Q3", () => {
     expect(q3.errors.actions).toBe("Depth drill at the start of every class.");
   });
 
-  it("compares live display shown (17/24) with hidden (9/16) and calls it about the same", () => {
+  it("compares live display shown (17/24) with hidden (9/16) and calls it no clear change", () => {
     expect(q3.feedback.live.passRate.text).toBe("70.8 %");
     expect(q3.feedback.hidden.passRate.text).toBe("56.3 %");
     expect(q3.feedback.differencePoints).toBeCloseTo((17 / 24 - 9 / 16) * 100, 6);
-    expect(q3.feedback.verdict).toBe("about the same");
+    expect(q3.feedback.verdict).toBe("no clear change");
   });
 
   it("measures agreement between instructors and measurement with Cohen's kappa", () => {
@@ -163,11 +164,11 @@ describe("consistency with the statistics service", () => {
 });
 
 describe("narrative", () => {
-  it("says what rose, what stayed about the same, and nothing about hidden cells", () => {
+  it("says what rose, what did not clearly change, and nothing about hidden cells", () => {
     const text = q3.narrative.join(" ");
     expect(text).toContain("65.0 % of measured attempts met the network's pass rule (95 % interval 49.5–77.9 %)");
     expect(text).toContain("the pass rate rose from 30.0 % to 65.0 %");
-    expect(text).toContain("about the same as the same quarter last year (60.0 %)");
+    expect(text).toContain("That is no clear change from the same quarter last year (60.0 %)");
     expect(text).toContain("fewer than 5 instructors at fewer than 5 sites");
     expect(text).toContain("moderate agreement");
     expect(text).not.toMatch(/infant/i);

@@ -27,14 +27,14 @@ describe("proportionDifference", () => {
 
 describe("changeVerdict", () => {
   it("calls a change only when the interval of the difference excludes zero", () => {
-    expect(changeVerdict(proportionDifference(56, 70, 48, 80)!)).toBe("higher");
-    expect(changeVerdict(proportionDifference(48, 80, 56, 70)!)).toBe("lower");
+    expect(changeVerdict(proportionDifference(56, 70, 48, 80)!)).toBe("up");
+    expect(changeVerdict(proportionDifference(48, 80, 56, 70)!)).toBe("down");
     // 5/56 against 0/29: the interval (−3.8 to +19.3 points) includes no change
-    expect(changeVerdict(proportionDifference(5, 56, 0, 29)!)).toBe("about the same");
+    expect(changeVerdict(proportionDifference(5, 56, 0, 29)!)).toBe("no clear change");
   });
 
-  it("reads 0.5 points on about a thousand attempts a quarter as about the same", () => {
+  it("reads 0.5 points on about a thousand attempts a quarter as no clear change", () => {
     // 300/1000 against 295/1000: a difference of 0.5 points is far inside chance variation
-    expect(changeVerdict(proportionDifference(300, 1000, 295, 1000)!)).toBe("about the same");
+    expect(changeVerdict(proportionDifference(300, 1000, 295, 1000)!)).toBe("no clear change");
   });
 });

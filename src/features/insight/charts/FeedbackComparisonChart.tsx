@@ -11,6 +11,7 @@ import { describeRate, formatCount, formatInterval, formatPercent, formatPoints,
 import { intervalBarsPlot } from "./intervalPlot";
 import { NothingToChart } from "./NothingToChart";
 import { feedbackNames } from "../../../../shared/vocabulary";
+import { changeVerdict, proportionDifference } from "../../../../shared/stats/difference";
 
 export type FeedbackGroup = z.infer<typeof feedbackGroupSchema>;
 
@@ -27,8 +28,16 @@ export function describeFeedback(groups: readonly FeedbackGroup[], minCount: num
   if (live?.passRate.rate != null && hidden?.passRate.rate != null) {
     const gap = live.passRate.rate - hidden.passRate.rate;
     text += ` Live display is ${formatPoints(Math.abs(gap)).replace("+", "")} ${gap >= 0 ? "higher" : "lower"}.`;
-    if (live.passRate.low !== null && hidden.passRate.high !== null && live.passRate.low > hidden.passRate.high) {
-      text += " The intervals do not overlap: learners do clearly better while they can see the display.";
+    // the same test of a difference as everywhere else (shared/stats/difference)
+    const { successes: x1, n: n1 } = live.passRate;
+    const { successes: x2, n: n2 } = hidden.passRate;
+    const difference = x1 !== null && n1 !== null && x2 !== null && n2 !== null ? proportionDifference(x1, n1, x2, n2) : null;
+    if (difference) {
+      const verdict = changeVerdict(difference);
+      text +=
+        verdict === "no clear change"
+          ? " The 95 % interval of the difference includes no difference: the gap may be chance."
+          : ` The 95 % interval of the difference lies wholly ${verdict === "up" ? "above" : "below"} zero: learners do clearly ${verdict === "up" ? "better" : "worse"} while they can see the display.`;
     }
   }
   return text;

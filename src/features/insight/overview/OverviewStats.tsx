@@ -30,7 +30,7 @@ export function OverviewStats({ answer }: { answer: OverviewAnswer }) {
           text: formatPoints(passRateChange.absolute),
           comparedWith: `since ${periodLabel(answer.previousPeriod)}`,
           better: "up",
-          clear: passRateChange.verdict !== "about the same",
+          clear: passRateChange.verdict !== "no clear change",
         };
   const noComparison = passRateChange.previous.suppressed
     ? `${periodLabel(answer.previousPeriod)} had fewer than ${min} attempts, so there is no comparison.`
@@ -52,7 +52,7 @@ export function OverviewStats({ answer }: { answer: OverviewAnswer }) {
               {noComparison && ` ${noComparison}`}
               {passRateChange.low !== null &&
                 passRateChange.high !== null &&
-                ` The change's 95 % interval runs from ${formatPoints(passRateChange.low)} to ${formatPoints(passRateChange.high)}${passRateChange.verdict === "about the same" ? ", so it may be chance." : "."}`}
+                ` The change's 95 % interval runs from ${formatPoints(passRateChange.low)} to ${formatPoints(passRateChange.high)}${passRateChange.verdict === "no clear change" ? ", so it may be chance." : "."}`}
             </>
           }
         />
