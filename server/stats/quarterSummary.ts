@@ -4,8 +4,10 @@
 import { median } from "../../shared/stats/quantiles";
 import { wilsonInterval } from "../../shared/stats/wilson";
 import { cohensKappa } from "../../shared/stats/kappa";
+import { kappaInterval, mcnemarExactP, pabak } from "../../shared/stats/agreement";
+import { changeVerdict, proportionDifference, type ChangeVerdict } from "../../shared/stats/difference";
 import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
-import { parseQuarter } from "../../shared/quarter";
+import { parseQuarter, previousQuarter } from "../../shared/quarter";
 import type { Db } from "../db/client";
 import { badRequest } from "../errors";
 
@@ -23,12 +25,31 @@ export interface QuarterSummary {
   pass_rate_ci95: [number, number] | null;
   /** Sum of instructors' recorded completions / sum of learners in the quarter's class logs. */
   course_pass_rate: number | null;
+  /** Learner codes with at least one measured attempt in the quarter. */
+  learners_measured: number;
+  /** Share of measured learners whose earliest attempt of the quarter (by start time) passed. */
+  first_attempt_pass_rate: number | null;
+  /** Share of measured learners with at least one passed attempt: the like-for-like match to course_pass_rate. */
+  ever_passed_rate: number | null;
+  attempts_per_learner: number | null;
+  /** Pass rate against the previous quarter; absent when that quarter has no attempts. */
+  change?: { from: string; difference: number; ci95: [number, number]; verdict: ChangeVerdict };
   median: { score: number | null; depth_ok_pct: number | null; rate_ok_pct: number | null; recoil_ok_pct: number | null; hands_on_pct: number | null };
   /** Attempts with each error. */
   errors: Record<AttemptError, number>;
   by_feedback: { live: { attempts: number; pass_rate: number | null }; hidden: { attempts: number; pass_rate: number | null } };
   /** Instructor's pass/fail against Quarterbeat's, over attempts where the instructor gave one. */
-  agreement: { attempts: number; kappa: number | null };
+  agreement: {
+    attempts: number;
+    kappa: number | null;
+    kappa_ci95: [number, number] | null;
+    pabak: number | null;
+    /** Exact McNemar p: are the two kinds of disagreement balanced? */
+    mcnemar_p: number;
+    /** Attempts without an instructor's pass or fail. */
+    unjudged: number;
+    table: { both_pass: number; instructor_pass_measured_fail: number; instructor_fail_measured_pass: number; both_fail: number };
+  };
 }
 
 export interface SummaryFilter {
@@ -74,6 +95,7 @@ export function quarterSummary(db: Db, quarter: string, filter: SummaryFilter = 
          coalesce(sum(instructor_result = 'pass' AND NOT passed), 0) AS instructor_only,
          coalesce(sum(instructor_result = 'fail' AND passed), 0) AS quarterbeat_only,
          coalesce(sum(instructor_result = 'fail' AND NOT passed), 0) AS both_fail,
+         coalesce(sum(instructor_result IS NULL), 0) AS unjudged,
          ${errorSums}
        FROM attempts WHERE ${where}`,
     )
@@ -100,6 +122,25 @@ export function quarterSummary(db: Db, quarter: string, filter: SummaryFilter = 
   ] as const;
   const agreement = cohensKappa(table);
 
+  // Learners by their pseudonymous code: the earliest attempt of the quarter (start time, then id) decides
+  // the first-attempt outcome; any passed attempt makes the learner "ever passed".
+  const learnerOutcomes = sqlite
+    .prepare(
+      `WITH ranked AS (
+         SELECT learner, passed, row_number() OVER (PARTITION BY learner ORDER BY started_at, id) AS k FROM attempts WHERE ${where}
+       ), per_learner AS (
+         SELECT learner, max(CASE WHEN k = 1 THEN passed END) AS first_passed, max(passed) AS ever_passed FROM ranked GROUP BY learner
+       )
+       SELECT count(*) AS learners, coalesce(sum(first_passed), 0) AS first_passed, coalesce(sum(ever_passed), 0) AS ever_passed FROM per_learner`,
+    )
+    .get(...params) as { learners: number; first_passed: number; ever_passed: number };
+
+  const before = previousQuarter(quarter);
+  const previous = sqlite
+    .prepare(`SELECT count(*) AS attempts, coalesce(sum(passed), 0) AS passed FROM attempts WHERE ${where}`)
+    .get(before, ...params.slice(1)) as { attempts: number; passed: number };
+  const difference = previous.attempts > 0 ? proportionDifference(passed, attempts, previous.passed, previous.attempts) : null;
+
   return {
     quarter,
     classes: logs.classes,
@@ -111,12 +152,25 @@ export function quarterSummary(db: Db, quarter: string, filter: SummaryFilter = 
     pass_rate: rate(passed, attempts),
     pass_rate_ci95: wilsonInterval(passed, attempts),
     course_pass_rate: rate(logs.passed, logs.learners),
+    learners_measured: learnerOutcomes.learners,
+    first_attempt_pass_rate: rate(learnerOutcomes.first_passed, learnerOutcomes.learners),
+    ever_passed_rate: rate(learnerOutcomes.ever_passed, learnerOutcomes.learners),
+    attempts_per_learner: rate(attempts, learnerOutcomes.learners),
+    ...(difference ? { change: { from: before, difference: difference.difference, ci95: [difference.low, difference.high] as [number, number], verdict: changeVerdict(difference) } } : {}),
     median: medians,
     errors,
     by_feedback: {
       live: { attempts: n("live"), pass_rate: rate(n("live_passed"), n("live")) },
       hidden: { attempts: n("hidden"), pass_rate: rate(n("hidden_passed"), n("hidden")) },
     },
-    agreement: { attempts: agreement.n, kappa: agreement.kappa },
+    agreement: {
+      attempts: agreement.n,
+      kappa: agreement.kappa,
+      kappa_ci95: kappaInterval(table),
+      pabak: pabak(table),
+      mcnemar_p: mcnemarExactP(table),
+      unjudged: n("unjudged"),
+      table: { both_pass: table[0][0], instructor_pass_measured_fail: table[0][1], instructor_fail_measured_pass: table[1][0], both_fail: table[1][1] },
+    },
   };
 }

@@ -8,3 +8,4 @@ export * from "./kappa";
 export * from "./pareto";
 export * from "./change";
 export * from "./difference";
+export * from "./agreement";

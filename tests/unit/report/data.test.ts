@@ -161,6 +161,27 @@ describe("consistency with the statistics service", () => {
     expect(q3.agreement.kappa).toBeCloseTo(summary.agreement.kappa!, 12);
     expect(q3.passRate.low).toBeCloseTo(summary.pass_rate_ci95![0], 12);
   });
+
+  it("adds learner outcomes, the change against the previous quarter and agreement in full", () => {
+    const summary = quarterSummary(db, "2026-Q3");
+    // every fixture attempt has its own learner code: 40 learners, first attempt = ever passed = 26/40
+    expect(summary).toMatchObject({ learners_measured: 40, attempts_per_learner: 1 });
+    expect(summary.first_attempt_pass_rate).toBeCloseTo(26 / 40, 12);
+    expect(summary.ever_passed_rate).toBeCloseTo(26 / 40, 12);
+    // 26/40 − 6/20 = +0.35, 95 % interval 0.0818 to 0.5511 (Newcombe's hybrid score, method 10): up
+    expect(summary.change).toMatchObject({ from: "2026-Q2", verdict: "up" });
+    expect(summary.change!.difference).toBeCloseTo(0.35, 12);
+    expect(summary.change!.ci95[0]).toBeCloseTo(0.0818, 4);
+    expect(summary.change!.ci95[1]).toBeCloseTo(0.5511, 4);
+    // the 32 adult attempts were judged: 22 passes both ways, 6 measured failures passed, 4 failed both ways;
+    // the 8 child and infant attempts have no judgement
+    expect(summary.agreement.table).toEqual({ both_pass: 22, instructor_pass_measured_fail: 6, instructor_fail_measured_pass: 0, both_fail: 4 });
+    expect(summary.agreement.unjudged).toBe(8);
+    // 6 against 0 disagreements: 2 × P(X ≤ 0), X ~ Binomial(6, 0.5) = 2/64 = 0.03125 (exact McNemar)
+    expect(summary.agreement.mcnemar_p).toBeCloseTo(0.03125, 12);
+    expect(summary.agreement.pabak).toBeCloseTo(2 * (26 / 32) - 1, 12);
+    expect(summary.agreement.kappa_ci95).not.toBeNull();
+  });
 });
 
 describe("narrative", () => {
