@@ -12,6 +12,7 @@ import { changeFrom, changeVerdict, cohensKappa, pChart, proportionDifference } 
 import type { Db } from "../db/client";
 import { attempts, classes } from "../db/schema";
 import type { ResolvedFilters } from "./filters";
+import { learnerOutcomes } from "../metrics/learnerOutcomes";
 import { errorPareto } from "./pareto";
 import { previousPeriod, trendQuarters } from "./quarters";
 import { rateFor, rateOf } from "./rates";
@@ -119,6 +120,11 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): Over
   const passRate = rateFor(inPeriod.passed, inPeriod.n, hidden);
   const previousRate = rateFor(inPrevious.passed, inPrevious.n, hidesGroup(viewer, inPrevious.n - own(before.quarters).n));
   const change = changeFrom(passRate.rate, previousRate.rate);
+  // learners measured in the period (by pseudonymous code), judged like every group by the learners of others
+  const measured = learnerOutcomes(db, where);
+  const ownMeasured = me === null ? 0 : learnerOutcomes(db, attemptConditions({ ...filters, instructorId: me })).learners;
+  const measuredHidden = hidden || hidesGroup(viewer, measured.learners - ownMeasured);
+
   // the same test of change as the funder report: called only when its 95 % interval excludes zero
   const difference =
     passRate.suppressed || previousRate.suppressed ? null : proportionDifference(inPeriod.passed, inPeriod.n, inPrevious.passed, inPrevious.n);
@@ -168,6 +174,11 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): Over
       low: difference?.low ?? null,
       high: difference?.high ?? null,
       verdict: difference ? changeVerdict(difference) : null,
+    },
+    learnerOutcomes: {
+      measured: measuredHidden ? null : measured.learners,
+      firstAttempt: rateFor(measured.firstPassed, measured.learners, measuredHidden),
+      everPassed: rateFor(measured.everPassed, measured.learners, measuredHidden),
     },
     recordedCompletion: rateFor(Math.min(logs.passed, logs.learners), logs.learners, hidden || hidesGroup(viewer, logs.learners - ownLearners)),
     agreement: pairsHidden

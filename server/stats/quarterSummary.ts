@@ -8,7 +8,10 @@ import { kappaInterval, mcnemarExactP, pabak } from "../../shared/stats/agreemen
 import { changeVerdict, proportionDifference, type ChangeVerdict } from "../../shared/stats/difference";
 import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
 import { parseQuarter, previousQuarter } from "../../shared/quarter";
+import { and, eq } from "drizzle-orm";
 import type { Db } from "../db/client";
+import { attempts as attemptsTable } from "../db/schema";
+import { learnerOutcomes } from "../metrics/learnerOutcomes";
 import { badRequest } from "../errors";
 
 export interface QuarterSummary {
@@ -122,18 +125,14 @@ export function quarterSummary(db: Db, quarter: string, filter: SummaryFilter = 
   ] as const;
   const agreement = cohensKappa(table);
 
-  // Learners by their pseudonymous code: the earliest attempt of the quarter (start time, then id) decides
-  // the first-attempt outcome; any passed attempt makes the learner "ever passed".
-  const learnerOutcomes = sqlite
-    .prepare(
-      `WITH ranked AS (
-         SELECT learner, passed, row_number() OVER (PARTITION BY learner ORDER BY started_at, id) AS k FROM attempts WHERE ${where}
-       ), per_learner AS (
-         SELECT learner, max(CASE WHEN k = 1 THEN passed END) AS first_passed, max(passed) AS ever_passed FROM ranked GROUP BY learner
-       )
-       SELECT count(*) AS learners, coalesce(sum(first_passed), 0) AS first_passed, coalesce(sum(ever_passed), 0) AS ever_passed FROM per_learner`,
-    )
-    .get(...params) as { learners: number; first_passed: number; ever_passed: number };
+  const learners = learnerOutcomes(
+    db,
+    and(
+      eq(attemptsTable.quarter, quarter),
+      filter.instructorId === undefined ? undefined : eq(attemptsTable.instructorId, filter.instructorId),
+      filter.siteId === undefined ? undefined : eq(attemptsTable.siteId, filter.siteId),
+    ),
+  );
 
   const before = previousQuarter(quarter);
   const previous = sqlite
@@ -152,10 +151,10 @@ export function quarterSummary(db: Db, quarter: string, filter: SummaryFilter = 
     pass_rate: rate(passed, attempts),
     pass_rate_ci95: wilsonInterval(passed, attempts),
     course_pass_rate: rate(logs.passed, logs.learners),
-    learners_measured: learnerOutcomes.learners,
-    first_attempt_pass_rate: rate(learnerOutcomes.first_passed, learnerOutcomes.learners),
-    ever_passed_rate: rate(learnerOutcomes.ever_passed, learnerOutcomes.learners),
-    attempts_per_learner: rate(attempts, learnerOutcomes.learners),
+    learners_measured: learners.learners,
+    first_attempt_pass_rate: rate(learners.firstPassed, learners.learners),
+    ever_passed_rate: rate(learners.everPassed, learners.learners),
+    attempts_per_learner: rate(attempts, learners.learners),
     ...(difference ? { change: { from: before, difference: difference.difference, ci95: [difference.low, difference.high] as [number, number], verdict: changeVerdict(difference) } } : {}),
     median: medians,
     errors,

@@ -145,6 +145,11 @@ export const overviewAnswerSchema = z.object({
     /** "up" or "down" only when that interval excludes zero. */
     verdict: z.enum(["up", "down", "no clear change"]).nullable(),
   }),
+  /**
+   * Per learner (pseudonymous code) rather than per attempt: learners measured, those whose first attempt of
+   * the period passed, and those who passed at least once — the like-for-like figure beside recorded completion.
+   */
+  learnerOutcomes: z.object({ measured: count.nullable(), firstAttempt: rateSchema, everPassed: rateSchema }),
   /** Σ passed / Σ learners over the class logs of the period: what instructors recorded. */
   recordedCompletion: rateSchema,
   agreement: agreementSchema,

@@ -83,6 +83,11 @@ describe("the pages, the report and the CLI agree", () => {
       expect(report.agreement.kappa, where).toBeCloseTo(cli.agreement.kappa!, 12);
       expect(overview.medianScore, where).toBeCloseTo(cli.median.score!, 12);
 
+      // per learner: measured, first attempt, at least once
+      expect(overview.learnerOutcomes.measured, where).toBe(cli.learners_measured);
+      expect(overview.learnerOutcomes.firstAttempt.rate, where).toBeCloseTo(cli.first_attempt_pass_rate!, 12);
+      expect(overview.learnerOutcomes.everPassed.rate, where).toBeCloseTo(cli.ever_passed_rate!, 12);
+
       // errors: the same count of attempts with each error everywhere; the funder report may hide a small cell
       // (and one beside it, so the hidden one cannot be worked out from the total), but never changes one
       for (const error of attemptErrorNames) {

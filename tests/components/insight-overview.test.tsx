@@ -46,6 +46,7 @@ const overview: OverviewAnswer = overviewAnswerSchema.parse({
   passRate: rate(411, 1392, 0.2953, 0.2712, 0.3188),
   // 411/1392 against 240/941: difference interval 0.0031 to 0.0765 (Newcombe's hybrid score), a clear rise
   passRateChange: { previous: rate(240, 941, 0.2551, 0.2283, 0.2838), absolute: 0.0402, relative: 0.1576, low: 0.0031, high: 0.0765, verdict: "up" },
+  learnerOutcomes: { measured: 1180, firstAttempt: rate(380, 1180, 0.322, 0.296, 0.3492), everPassed: rate(566, 1180, 0.4797, 0.4513, 0.5082) },
   recordedCompletion: rate(761, 1262, 0.603, 0.5757, 0.6297),
   agreement: { pairs: 537, table: [[212, 165], [12, 148]], observed: 0.6704, expected: 0.4665, kappa: 0.3822, suppressed: false },
   medianScore: 83.3333,
@@ -149,7 +150,8 @@ describe("network overview", () => {
   it("makes the gap between recorded completions and measured passes visible and says why it matters", async () => {
     serve("quality_lead", overview);
     renderApp("/overview?quarter=2026-Q3");
-    const callout = await screen.findByText("Instructors recorded 60.3 % of learners as completed, but only 29.5 % of measured attempts passed: a gap of 30.8 points.");
+    // like with like: learners recorded as completed against learners who passed at least once (60.3 − 48.0)
+    const callout = await screen.findByText("Instructors recorded 60.3 % of learners as completed, but only 48.0 % of measured learners passed on the manikin at least once: a gap of 12.3 points.");
     expect(callout.tagName).toBe("P");
     expect(screen.getByText(/Why it matters:/).parentElement?.textContent).toMatch(/leaves believing their CPR would work/);
     // the 2×2 table of the same attempts under both results
@@ -199,6 +201,8 @@ describe("network overview", () => {
     ]);
     expect(tableOf("Recorded completion and measured pass rate")).toEqual([
       ["Instructor-recorded completion", "learners in class logs", "761", "1,262", "60.3 %", "57.6–63.0 %"],
+      ["Passed at least once", "learners measured", "566", "1,180", "48.0 %", "45.1–50.8 %"],
+      ["Passed on the first attempt", "learners measured", "380", "1,180", "32.2 %", "29.6–34.9 %"],
       ["Measured pass rate", "manikin attempts", "411", "1,392", "29.5 %", "27.1–31.9 %"],
     ]);
   });
@@ -223,6 +227,7 @@ describe("network overview", () => {
       attempts: null,
       passRate: hiddenRate,
       passRateChange: { previous: hiddenRate, absolute: null, relative: null, low: null, high: null, verdict: null },
+      learnerOutcomes: { measured: null, firstAttempt: hiddenRate, everPassed: hiddenRate },
       recordedCompletion: hiddenRate,
       agreement: { pairs: null, table: null, observed: null, expected: null, kappa: null, suppressed: true },
       medianScore: null,

@@ -1,5 +1,6 @@
 // Recorded completions beside measured passes. Instructors sign learners off in the class log; the manikin
-// measures whether the compressions met the targets. The gap between the two is the overview's key message.
+// measures whether the compressions met the targets. The gap between the two is the overview's key message,
+// measured like with like: learners recorded as completed against learners who passed at least once.
 import { useCallback } from "react";
 import type { OverviewAnswer } from "../../../../shared/schemas/insight";
 import { Chart, type ChartSize } from "../../../components/Chart";
@@ -13,8 +14,15 @@ import { Suppressed } from "../Suppressed";
 
 type Rate = OverviewAnswer["passRate"];
 
+const shortLabels: Record<"recorded" | "everPassed" | "firstAttempt" | "measured", string> = {
+  recorded: "Recorded",
+  everPassed: "At least once",
+  firstAttempt: "First attempt",
+  measured: "Per attempt",
+};
+
 interface MeasureRow {
-  key: "recorded" | "measured";
+  key: "recorded" | "everPassed" | "firstAttempt" | "measured";
   label: string;
   counted: string;
   rate: Rate;
@@ -23,13 +31,14 @@ interface MeasureRow {
 export const whyGapMatters =
   "Every learner signed off whose compressions did not meet the targets leaves believing their CPR would work, so a wide gap shows where assessment in class needs attention.";
 
-export function gapSentence(recorded: Rate, measured: Rate): string | null {
-  if (recorded.rate === null || measured.rate === null) return null;
-  const gap = recorded.rate - measured.rate;
-  if (Math.abs(gap) < 0.005) return `Instructors recorded ${formatPercent(recorded.rate)} of learners as completed, the same as the ${formatPercent(measured.rate)} of attempts that passed on the manikin.`;
+/** Recorded completion against learners who passed at least once: both count learners, so the gap is fair. */
+export function gapSentence(recorded: Rate, everPassed: Rate): string | null {
+  if (recorded.rate === null || everPassed.rate === null) return null;
+  const gap = recorded.rate - everPassed.rate;
+  if (Math.abs(gap) < 0.005) return `Instructors recorded ${formatPercent(recorded.rate)} of learners as completed, the same as the ${formatPercent(everPassed.rate)} of measured learners who passed on the manikin at least once.`;
   return gap > 0
-    ? `Instructors recorded ${formatPercent(recorded.rate)} of learners as completed, but only ${formatPercent(measured.rate)} of measured attempts passed: a gap of ${formatPoints(gap).replace("+", "")}.`
-    : `Instructors recorded ${formatPercent(recorded.rate)} of learners as completed, fewer than the ${formatPercent(measured.rate)} of measured attempts that passed (${formatPoints(-gap).replace("+", "")} lower).`;
+    ? `Instructors recorded ${formatPercent(recorded.rate)} of learners as completed, but only ${formatPercent(everPassed.rate)} of measured learners passed on the manikin at least once: a gap of ${formatPoints(gap).replace("+", "")}.`
+    : `Instructors recorded ${formatPercent(recorded.rate)} of learners as completed, fewer than the ${formatPercent(everPassed.rate)} of measured learners who passed on the manikin at least once (${formatPoints(-gap).replace("+", "")} lower).`;
 }
 
 function measureColumns(minCount: number): Column<MeasureRow>[] {
@@ -61,18 +70,20 @@ export function RecordedVsMeasured({ answer }: { answer: OverviewAnswer }) {
   const min = answer.suppressionMinCount;
   const rows: MeasureRow[] = [
     { key: "recorded", label: "Instructor-recorded completion", counted: "learners in class logs", rate: answer.recordedCompletion },
+    { key: "everPassed", label: "Passed at least once", counted: "learners measured", rate: answer.learnerOutcomes.everPassed },
+    { key: "firstAttempt", label: "Passed on the first attempt", counted: "learners measured", rate: answer.learnerOutcomes.firstAttempt },
     { key: "measured", label: "Measured pass rate", counted: "manikin attempts", rate: answer.passRate },
   ];
   const plot = useCallback(
     (data: readonly MeasureRow[], size: ChartSize) =>
       intervalBarsPlot(
-        data.map((r) => ({ label: r.key === "recorded" ? "Recorded completion" : "Measured pass rate", shortLabel: r.key === "recorded" ? "Recorded" : "Measured", rate: r.rate.rate, low: r.rate.low, high: r.rate.high, fill: r.key === "recorded" ? ink.soft : ink.main })),
+        data.map((r) => ({ label: r.label, shortLabel: shortLabels[r.key], rate: r.rate.rate, low: r.rate.low, high: r.rate.high, fill: r.key === "recorded" ? ink.soft : ink.main })),
         size,
-        150,
+        220,
       ),
     [],
   );
-  const sentence = gapSentence(answer.recordedCompletion, answer.passRate);
+  const sentence = gapSentence(answer.recordedCompletion, answer.learnerOutcomes.everPassed);
   const table = answer.agreement.table;
   const agreementRows: AgreementRow[] = table
     ? [
@@ -93,12 +104,13 @@ export function RecordedVsMeasured({ answer }: { answer: OverviewAnswer }) {
           <strong>Why it matters:</strong> {whyGapMatters}
         </p>
         <p className="mt-1 text-small text-muted">
-          Completions count learners in the class logs; passes count manikin attempts, and a learner may make several.
+          Completions count learners in the class logs, so they are set beside learners who passed at least once on the manikin. The measured pass rate counts
+          attempts, and a learner may make several.
         </p>
       </div>
       <div className="grid grid-cols-1 gap-4 2xl:grid-cols-2">
         {rows.every((r) => r.rate.rate === null) ? (
-          <NothingToChart title="Recorded completion and measured pass rate" text={`Both figures are hidden (${suppressedText(min)}) or have nothing counted.`} />
+          <NothingToChart title="Recorded completion and measured pass rate" text={`The figures are hidden (${suppressedText(min)}) or have nothing counted.`} />
         ) : (
           <Chart
             title="Recorded completion and measured pass rate"
@@ -112,7 +124,7 @@ export function RecordedVsMeasured({ answer }: { answer: OverviewAnswer }) {
               <ChartLegend
                 items={[
                   { label: "Recorded completion", swatch: shapeSwatch("bar", ink.soft) },
-                  { label: "Measured pass rate", swatch: shapeSwatch("bar", ink.main) },
+                  { label: "Measured on the manikin", swatch: shapeSwatch("bar", ink.main) },
                   { label: "95 % interval", swatch: <path d="M3 6h18M3 2v8M21 2v8" stroke={ink.text} strokeWidth="1.5" fill="none" /> },
                 ]}
               />
