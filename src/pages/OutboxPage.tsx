@@ -81,7 +81,7 @@ export default function OutboxPage() {
     <div className="flex flex-col gap-6">
       <PageHeader
         title="Outbox"
-        description="On a machine without SMTP_URL, Quarterbeat keeps outgoing mail here instead of sending it."
+        description="While no mail server is set up, Quarterbeat keeps outgoing mail here instead of sending it: nothing listed here has left this machine."
         actions={
           <Button variant="secondary" onClick={() => messages.refetch()} busy={messages.isFetching && !messages.isPending}>
             Check for new mail

@@ -25,7 +25,7 @@ describe("outbox", () => {
   it("lists received mail, opens one to read its text and download its PDF", async () => {
     fakeServer({ "GET /api/me": sessionFor("coordinator"), "GET /api/outbox": { status: 200, body: { messages: [message] } } });
     const { router } = renderApp("/outbox");
-    expect(await screen.findByText(/without SMTP_URL, Quarterbeat keeps outgoing mail here instead of sending it/)).toBeTruthy();
+    expect(await screen.findByText(/While no mail server is set up, Quarterbeat keeps outgoing mail here instead of sending it/)).toBeTruthy();
     const table = await screen.findByRole("table");
     expect(within(table).getByText("funder@example.org, board@example.org")).toBeTruthy();
 
