@@ -8,6 +8,8 @@ import { registerImport } from "./commands/import";
 import { registerAnalyze } from "./commands/analyze";
 import { registerStats } from "./commands/stats";
 import { registerReport } from "./commands/report";
+import { registerRetention } from "./commands/retention";
+import { registerAgreement } from "./commands/agreement";
 import { closeContext } from "./context";
 import { handleError } from "./errors";
 
@@ -25,6 +27,8 @@ export function buildProgram(): Command {
   registerAnalyze(program);
   registerStats(program);
   registerReport(program);
+  registerRetention(program);
+  registerAgreement(program);
   return program;
 }
 
