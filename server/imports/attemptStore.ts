@@ -3,6 +3,7 @@
 import type { AttemptIdentity } from "../../shared/import/rows";
 import type { AttemptMetrics } from "../../shared/scoring/analyzeStream";
 import { errorsToMask, scoreAttempt, type ScoringInput } from "../../shared/scoring/scoreAttempt";
+import type { ScopeIssue } from "./instructorScope";
 import { RowStore, type WriteOutcome } from "./rowStore";
 import type { ClassInfo, ImportRun } from "./run";
 
@@ -98,6 +99,12 @@ export class AttemptStore {
       return `class ${classId} is another instructor's class; instructors may import attempts only for their own classes`;
     }
     return info;
+  }
+
+  /** Why an instructor's file may not name this attempt's manikin (one the network does not have), or null. */
+  manikinIssue(identity: AttemptIdentity): ScopeIssue | null {
+    if (identity.manikin === null || !this.run.instructorScope) return null;
+    return this.run.instructorScope.manikinIssue("manikin", identity.manikin);
   }
 
   /** Scores and writes an attempt; `done` gets the outcome, at once or when the queued batch is written. */

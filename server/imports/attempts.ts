@@ -41,6 +41,11 @@ export function attemptsImporter(run: ImportRun, reader: RowReader): KindImporte
         reader.fail("class_id", cls);
         return run.rejectRow(fields, issues);
       }
+      const outOfScope = store.manikinIssue(a);
+      if (outOfScope) {
+        reader.fail(outOfScope.column, outOfScope.reason);
+        return run.rejectRow(fields, issues);
+      }
       metrics.compressions = a.compressions;
       metrics.duration_s = a.durationS;
       metrics.rate_cpm = a.rateCpm;

@@ -6,6 +6,7 @@ import type { ImportKind, UserRole } from "../../shared/domain";
 import type { RowIssue } from "../../shared/import/rows";
 import type { NetworkPolicy } from "../../shared/scoring/policy";
 import { CodeRegistry } from "./codes";
+import { InstructorScope } from "./instructorScope";
 
 /** Who imports. role null = the command line, which may import anything. */
 export interface ImportActor {
@@ -35,6 +36,8 @@ export class ImportRun {
   readonly issues: RowIssue[] = [];
   readonly warnings: string[] = [];
   readonly codes: CodeRegistry;
+  /** Set for an instructor's import: what their file may name (see instructorScope.ts). */
+  readonly instructorScope: InstructorScope | null;
   header: string[] = [];
   private readonly insertRejected;
   private readonly insertChange;
@@ -55,6 +58,8 @@ export class ImportRun {
     rejectedCsvPath?: string,
   ) {
     this.codes = new CodeRegistry(sqlite, write);
+    const own = this.restrictedToInstructor;
+    this.instructorScope = own === null ? null : new InstructorScope(this.codes, own, (classId) => this.classInfo(classId));
     this.insertRejected = sqlite.prepare("INSERT INTO rejected_rows (batch_id, row_number, column, reason, raw) VALUES (?, ?, ?, ?, ?)");
     this.insertChange = sqlite.prepare("INSERT INTO batch_changes (batch_id, table_name, row_key, previous) VALUES (?, ?, ?, ?)");
     this.classLookup = sqlite.prepare("SELECT quarter, site_id, instructor_id FROM classes WHERE id = ?").raw();
