@@ -41,9 +41,9 @@ export function attemptsImporter(run: ImportRun, reader: RowReader): KindImporte
         reader.fail("class_id", cls);
         return run.rejectRow(fields, issues);
       }
-      const outOfScope = store.manikinIssue(a);
-      if (outOfScope) {
-        reader.fail(outOfScope.column, outOfScope.reason);
+      const misfit = store.classFitIssue(a, cls);
+      if (misfit) {
+        reader.fail(misfit.column, misfit.reason);
         return run.rejectRow(fields, issues);
       }
       metrics.compressions = a.compressions;

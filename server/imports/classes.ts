@@ -78,7 +78,7 @@ export function classesImporter(run: ImportRun, reader: RowReader): KindImporter
       run.count(outcome);
       if (outcome === "updated" && run.write) syncAttempts.run(quarter, siteId, instructorId, cls.id);
       // A dry run writes nothing, so later files of the same command learn about these classes from here.
-      if (!run.write) run.pendingClasses.set(cls.id, { quarter, siteId, instructorId });
+      if (!run.write) run.pendingClasses.set(cls.id, { date: cls.date, quarter, siteId, instructorId });
     },
     finish() {},
   };

@@ -4,13 +4,7 @@
 // upload cannot add a site to everyone's filters or file a class under someone else's site.
 import type { ClassRow } from "../../shared/import/rows";
 import type { CodeRegistry } from "./codes";
-import type { ClassInfo } from "./run";
-
-/** A refused row's column and reason. */
-export interface ScopeIssue {
-  column: string;
-  reason: string;
-}
+import type { ClassInfo, RowProblem } from "./run";
 
 export class InstructorScope {
   private readonly siteId: number | null;
@@ -26,7 +20,7 @@ export class InstructorScope {
   }
 
   /** The first reason this class row is outside the instructor's own scope, or null. */
-  classIssue(cls: ClassRow): ScopeIssue | null {
+  classIssue(cls: ClassRow): RowProblem | null {
     if (this.codes.find("instructors", cls.instructorCode) !== this.instructorId) {
       return { column: "instructor", reason: `${cls.instructorCode} is not your instructor code; instructors may import only their own classes` };
     }
@@ -52,7 +46,7 @@ export class InstructorScope {
   }
 
   /** A manikin the network does not have yet: only the coordinator adds manikins. */
-  manikinIssue(column: string, assetId: string): ScopeIssue | null {
+  manikinIssue(column: string, assetId: string): RowProblem | null {
     if (this.codes.find("manikins", assetId) !== undefined) return null;
     return { column, reason: `manikin ${assetId} is not registered in the network; instructors may name only existing manikins (the coordinator adds new ones)` };
   }
