@@ -40,6 +40,7 @@ const QUERY_KEYS: Record<string, string[]> = {
   "/api/imports/batches/:id": [],
   "/api/imports/batches/:id/rejected.csv": [],
   "/api/imports/presets": ["kind"],
+  "/api/data-version": [],
   "/api/insight/options": [],
   "/api/insight/overview": FILTERS,
   "/api/insight/standing": FILTERS,
