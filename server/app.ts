@@ -3,15 +3,17 @@ import fs from "node:fs";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import cookieParser from "cookie-parser";
-import express, { Router } from "express";
+import express, { Router, type Request, type Response } from "express";
 import session from "express-session";
 import helmet from "helmet";
 import type { Config } from "./config";
 import type { Db } from "./db/client";
-import { csrfRefused, createCsrf } from "./auth/csrf";
+import { csrfCookie, csrfRefused, createCsrf } from "./auth/csrf";
 import { createPassport } from "./auth/passport";
+import { endSessionsAfterPasswordChange, type EndSessionsAfterPasswordChange } from "./auth/passwordChangeSessions";
 import { authRoutes } from "./auth/routes";
 import { SqliteSessionStore } from "./auth/sessionStore";
+import type { SignInLimit } from "./auth/signInLimits";
 import { errorHandler, notFoundHandler } from "./http/errorHandler";
 import { importRoutes } from "./imports/routes";
 import { createMailer } from "./mail/mailer";
@@ -25,8 +27,10 @@ import { siteRoutes } from "./sites/routes";
 import { userRoutes } from "./users/routes";
 
 export interface AppOptions {
-  /** Sign-in attempts allowed per window and address. */
-  signInLimit?: { windowMs: number; limit: number };
+  /** Failed sign-ins allowed per window (see auth/signInLimits). */
+  signInLimit?: SignInLimit;
+  /** Express's "trust proxy": production trusts one proxy; tests set it to send client addresses. */
+  trustProxy?: boolean | number;
   /** Folder of the built client; omitted in API-only tests. */
   clientDir?: string | null;
 }
@@ -35,9 +39,9 @@ const defaultClientDir = path.resolve(path.dirname(fileURLToPath(import.meta.url
 const VERSION = "1.0.0";
 
 /** Feature routers mounted under /api. Each one guards its own routes with `allow(...)`. */
-function featureRouters(db: Db, config: Config): Router[] {
+function featureRouters(db: Db, config: Config, endSessions: EndSessionsAfterPasswordChange): Router[] {
   const mailer = createMailer(config.smtpUrl);
-  return [userRoutes(db, mailer), siteRoutes(db), insightRoutes(db), equipmentRoutes(db), policyRoutes(db), reportRoutes(db, mailer), outboxRoutes(db), importRoutes(db)];
+  return [userRoutes(db, mailer, endSessions), siteRoutes(db), insightRoutes(db), equipmentRoutes(db), policyRoutes(db), reportRoutes(db, mailer), outboxRoutes(db), importRoutes(db)];
 }
 
 export function createApp(db: Db, config: Config, options: AppOptions = {}) {
@@ -48,7 +52,8 @@ export function createApp(db: Db, config: Config, options: AppOptions = {}) {
   const app = express();
 
   app.disable("x-powered-by");
-  if (production) app.set("trust proxy", 1);
+  const trustProxy = options.trustProxy ?? (production ? 1 : false);
+  if (trustProxy !== false) app.set("trust proxy", trustProxy);
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -57,11 +62,12 @@ export function createApp(db: Db, config: Config, options: AppOptions = {}) {
     }),
   );
   app.use(express.json({ limit: "1mb" }));
+  const sessionStore = new SqliteSessionStore(db);
   app.use(
     session({
       name: "qb.sid",
       secret,
-      store: new SqliteSessionStore(db),
+      store: sessionStore,
       resave: false,
       saveUninitialized: false,
       rolling: true,
@@ -78,15 +84,19 @@ export function createApp(db: Db, config: Config, options: AppOptions = {}) {
   api.use((req, res, next) => {
     csrf.doubleCsrfProtection(req, res, (err?: unknown) => next(err ? csrfRefused() : undefined));
   });
+  const csrfToken = (req: Request, res: Response) => csrf.generateCsrfToken(req, res, { overwrite: true });
+  const endSessions = endSessionsAfterPasswordChange(sessionStore, csrfToken);
   api.use(
     authRoutes({
       db,
       passport,
-      csrfToken: (req, res) => csrf.generateCsrfToken(req, res, { overwrite: true }),
+      csrfToken,
+      csrfCookie: csrfCookie(production),
+      endSessionsAfterPasswordChange: endSessions,
       signInLimit: options.signInLimit ?? { windowMs: 15 * 60 * 1000, limit: 10 },
     }),
   );
-  for (const router of featureRouters(db, config)) api.use(router);
+  for (const router of featureRouters(db, config, endSessions)) api.use(router);
   api.use(notFoundHandler);
   app.use("/api", api);
 

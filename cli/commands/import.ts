@@ -131,8 +131,13 @@ class ProgressBar {
 }
 
 function printSummary(s: ImportSummary) {
-  const verdict =
-    s.status === "imported" ? `imported as batch ${s.batchId}` : s.status === "validated" ? "valid (dry run, nothing written)" : s.dryRun ? "would be refused (dry run)" : "REFUSED, nothing written";
+  const verdicts: Record<ImportSummary["status"], string> = {
+    imported: `imported as batch ${s.batchId}`,
+    validated: "valid (dry run, nothing written)",
+    unchanged: "nothing changed: every row is already stored as in this file; no batch recorded",
+    refused: s.dryRun ? "would be refused (dry run)" : "REFUSED, nothing written",
+  };
+  const verdict = verdicts[s.status];
   console.log(`\n${s.file} (${s.kind}): ${verdict}`);
   const unit = s.unit === "attempts" ? " attempts" : "";
   const attempts = s.attemptsRead !== null ? ` · attempts ${s.attemptsRead}` : "";

@@ -1,5 +1,4 @@
-import { Router, type Request, type Response } from "express";
-import rateLimit from "express-rate-limit";
+import { Router, type CookieOptions, type Request, type Response } from "express";
 import type passport from "passport";
 import { changePasswordSchema, preferencesSchema, signInSchema, type CurrentUser } from "../../shared/schemas/auth";
 import type { Db } from "../db/client";
@@ -7,36 +6,24 @@ import { AppError } from "../errors";
 import { parseWith } from "../http/validate";
 import { findActiveUser, findUserForSignIn, setLengthUnit, setPassword } from "../users/service";
 import { signedIn, signedInUser } from "./guard";
+import { logIn, type EndSessionsAfterPasswordChange } from "./passwordChangeSessions";
 import { verifyPassword } from "./passwords";
+import { countAsGuess, passwordGuessLimits, typedEmail, type SignInLimit } from "./signInLimits";
 
 interface Deps {
   db: Db;
   passport: passport.Authenticator;
   csrfToken: (req: Request, res: Response) => string;
-  signInLimit: { windowMs: number; limit: number };
+  /** The token cookie, cleared at sign-out. */
+  csrfCookie: { name: string; options: CookieOptions };
+  endSessionsAfterPasswordChange: EndSessionsAfterPasswordChange;
+  signInLimit: SignInLimit;
 }
 
-function signIn(req: Request, user: CurrentUser): Promise<void> {
-  // passport 0.7 regenerates the session id on login, which defeats session fixation
-  return new Promise((resolve, reject) => req.logIn(user, (err) => (err ? reject(err) : resolve())));
-}
-
-export function authRoutes({ db, passport, csrfToken, signInLimit }: Deps): Router {
+export function authRoutes({ db, passport, csrfToken, csrfCookie, endSessionsAfterPasswordChange, signInLimit }: Deps): Router {
   const router = Router();
-
-  const limiter = rateLimit({
-    windowMs: signInLimit.windowMs,
-    limit: signInLimit.limit,
-    standardHeaders: "draft-8",
-    legacyHeaders: false,
-    // only failed attempts count, so a busy training room behind one address can still sign in
-    skipSuccessfulRequests: true,
-    handler: (_req, res) => {
-      res.status(429).json({
-        error: { code: "rate_limited", message: "Too many sign-in attempts from here. Wait a few minutes, then try again." },
-      });
-    },
-  });
+  const signInLimits = passwordGuessLimits(signInLimit, typedEmail);
+  const passwordChangeLimits = passwordGuessLimits(signInLimit, (req) => signedInUser(req).email);
 
   router.get("/auth/csrf", (req, res) => {
     // mark the session so it is saved and the token's session id stays the same until sign-in
@@ -44,14 +31,17 @@ export function authRoutes({ db, passport, csrfToken, signInLimit }: Deps): Rout
     res.json({ csrfToken: csrfToken(req, res) });
   });
 
-  router.post("/auth/login", limiter, async (req, res) => {
+  router.post("/auth/login", ...signInLimits, async (req, res) => {
     const credentials = parseWith(signInSchema, req.body, "The sign-in form");
     const user = await new Promise<CurrentUser | false>((resolve, reject) => {
       req.body = credentials;
       passport.authenticate("local", (err: unknown, found: CurrentUser | false) => (err ? reject(err) : resolve(found)))(req, res, () => {});
     });
-    if (!user) throw new AppError("invalid_credentials", 401, "The e-mail or password is not right.");
-    await signIn(req, user);
+    if (!user) {
+      countAsGuess(res);
+      throw new AppError("invalid_credentials", 401, "The e-mail or password is not right.");
+    }
+    await logIn(req, user);
     res.json({ user, csrfToken: csrfToken(req, res) });
   });
 
@@ -60,6 +50,7 @@ export function authRoutes({ db, passport, csrfToken, signInLimit }: Deps): Rout
       if (err) return next(err);
       req.session.destroy(() => {
         res.clearCookie("qb.sid");
+        res.clearCookie(csrfCookie.name, csrfCookie.options);
         res.status(204).end();
       });
     });
@@ -77,17 +68,18 @@ export function authRoutes({ db, passport, csrfToken, signInLimit }: Deps): Rout
     res.json({ user: findActiveUser(db, user.id) });
   });
 
-  router.post("/me/password", signedIn, limiter, async (req, res) => {
+  router.post("/me/password", signedIn, ...passwordChangeLimits, async (req, res) => {
     const user = signedInUser(req);
     const input = parseWith(changePasswordSchema, req.body, "The password form");
     const account = findUserForSignIn(db, user.email);
     if (!account || !(await verifyPassword(input.currentPassword, account.passwordHash))) {
+      countAsGuess(res);
       throw new AppError("invalid", 422, "The current password is not right.", [
         { path: "currentPassword", message: "Not your current password" },
       ]);
     }
     await setPassword(db, user.id, input.newPassword);
-    res.status(204).end();
+    res.json(await endSessionsAfterPasswordChange(req, res, user.id));
   });
 
   return router;

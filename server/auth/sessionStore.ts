@@ -8,10 +8,14 @@ const DAY_MS = 24 * 60 * 60 * 1000;
 const TOUCH_EVERY_MS = 5 * 60 * 1000;
 /** How long a sign-in or sign-out waits for an import's write lock before it fails. */
 const WRITE_WAIT_MS = 5 * 60 * 1000;
+/** How long an ended session id is remembered, so a request still in flight cannot write it back. */
+const ENDED_MEMORY_MS = 10 * 60 * 1000;
 
 export class SqliteSessionStore extends session.Store {
   private readonly statements;
   private readonly lastTouched = new Map<string, number>();
+  /** Ended session id → when it ended. */
+  private readonly ended = new Map<string, number>();
 
   private readonly sqlite;
 
@@ -26,6 +30,9 @@ export class SqliteSessionStore extends session.Store {
       ),
       touch: sqlite.prepare("UPDATE sessions SET expires_at = ? WHERE sid = ?"),
       destroy: sqlite.prepare("DELETE FROM sessions WHERE sid = ?"),
+      // passport keeps the signed-in user's id in the session JSON; a user has a handful of sessions at most,
+      // so a scan of the table is cheaper to keep than a second copy of the id in its own column
+      ofUser: sqlite.prepare<[number], string>("SELECT sid FROM sessions WHERE json_extract(sess, '$.passport.user') = ?").pluck(),
       prune: sqlite.prepare("DELETE FROM sessions WHERE expires_at <= ?"),
     };
   }
@@ -45,6 +52,8 @@ export class SqliteSessionStore extends session.Store {
   }
 
   override set(sid: string, sess: session.SessionData, callback?: (err?: unknown) => void): void {
+    // a request that loaded the session before it ended would otherwise save it again when it finishes
+    if (this.ended.has(sid)) return callback?.();
     this.writeWhenFree(() => this.housekeeping(this.statements.set.run(sid, JSON.stringify(sess), SqliteSessionStore.expiry(sess))), callback);
   }
 
@@ -100,8 +109,31 @@ export class SqliteSessionStore extends session.Store {
   }
 
   override destroy(sid: string, callback?: (err?: unknown) => void): void {
-    this.lastTouched.delete(sid);
+    this.rememberEnded([sid]);
     this.writeWhenFree(() => this.housekeeping(this.statements.destroy.run(sid)), callback);
+  }
+
+  /** Ends every session of a user except `keepSid` (the one making the request, when it is theirs). */
+  endSessionsOfUser(userId: number, keepSid?: string): Promise<void> {
+    return new Promise((resolve, reject) => {
+      this.writeWhenFree(
+        () => {
+          const sids = this.statements.ofUser.all(userId).filter((sid) => sid !== keepSid);
+          this.rememberEnded(sids);
+          for (const sid of sids) this.housekeeping(this.statements.destroy.run(sid));
+        },
+        (err) => (err ? reject(err) : resolve()),
+      );
+    });
+  }
+
+  private rememberEnded(sids: string[]): void {
+    const now = Date.now();
+    for (const [sid, endedAt] of this.ended) if (now - endedAt > ENDED_MEMORY_MS) this.ended.delete(sid);
+    for (const sid of sids) {
+      this.ended.set(sid, now);
+      this.lastTouched.delete(sid);
+    }
   }
 
   prune(): void {

@@ -1,10 +1,10 @@
 // Writes attempts (from device summaries or analysed streams) with Quarterbeat's own score under the current
 // policy; the device's score is never read. Shared by attempts.ts and compressions.ts.
-import type { AttemptIdentity } from "../../shared/import/rows";
+import { startOutsideClassDate, type AttemptIdentity } from "../../shared/import/rows";
 import type { AttemptMetrics } from "../../shared/scoring/analyzeStream";
 import { errorsToMask, scoreAttempt, type ScoringInput } from "../../shared/scoring/scoreAttempt";
 import { RowStore, type WriteOutcome } from "./rowStore";
-import type { ClassInfo, ImportRun } from "./run";
+import type { ClassInfo, ImportRun, RowProblem } from "./run";
 
 export const ATTEMPT_COLUMNS = [
   "id",
@@ -98,6 +98,17 @@ export class AttemptStore {
       return `class ${classId} is another instructor's class; instructors may import attempts only for their own classes`;
     }
     return info;
+  }
+
+  /**
+   * Why an attempt does not fit its class, or null: its start must lie within a day of the class date, and an
+   * instructor's file may not name a manikin the network does not have.
+   */
+  classFitIssue(identity: AttemptIdentity, cls: ClassInfo): RowProblem | null {
+    const start = startOutsideClassDate(identity.startedAt, cls.date);
+    if (start) return { column: "started_at", reason: start };
+    if (identity.manikin === null || !this.run.instructorScope) return null;
+    return this.run.instructorScope.manikinIssue("manikin", identity.manikin);
   }
 
   /** Scores and writes an attempt; `done` gets the outcome, at once or when the queued batch is written. */

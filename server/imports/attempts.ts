@@ -41,6 +41,11 @@ export function attemptsImporter(run: ImportRun, reader: RowReader): KindImporte
         reader.fail("class_id", cls);
         return run.rejectRow(fields, issues);
       }
+      const misfit = store.classFitIssue(a, cls);
+      if (misfit) {
+        reader.fail(misfit.column, misfit.reason);
+        return run.rejectRow(fields, issues);
+      }
       metrics.compressions = a.compressions;
       metrics.duration_s = a.durationS;
       metrics.rate_cpm = a.rateCpm;

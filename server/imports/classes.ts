@@ -32,7 +32,6 @@ export function classesImporter(run: ImportRun, reader: RowReader): KindImporter
   });
   // Attempts copy their class's quarter, site and instructor: keep the copies in step with a correction.
   const syncAttempts = run.sqlite.prepare("UPDATE attempts SET quarter = ?, site_id = ?, instructor_id = ? WHERE class_id = ?");
-  const ownInstructor = run.restrictedToInstructor;
 
   return {
     unit: "rows",
@@ -42,17 +41,10 @@ export function classesImporter(run: ImportRun, reader: RowReader): KindImporter
       const cls = reader.at(fields, row).classRow();
       if (!cls) return run.rejectRow(fields, issues);
 
-      if (ownInstructor !== null) {
-        const named = run.codes.find("instructors", cls.instructorCode);
-        if (named !== ownInstructor) {
-          reader.fail("instructor", `${cls.instructorCode} is not your instructor code; instructors may import only their own classes`);
-          return run.rejectRow(fields, issues);
-        }
-        const existing = run.classInfo(cls.id);
-        if (existing && existing.instructorId !== ownInstructor) {
-          reader.fail("class_id", `class ${cls.id} is already recorded for another instructor; instructors may change only their own classes`);
-          return run.rejectRow(fields, issues);
-        }
+      const outOfScope = run.instructorScope?.classIssue(cls);
+      if (outOfScope) {
+        reader.fail(outOfScope.column, outOfScope.reason);
+        return run.rejectRow(fields, issues);
       }
 
       const siteId = run.codes.site(cls.siteCode);
@@ -86,7 +78,7 @@ export function classesImporter(run: ImportRun, reader: RowReader): KindImporter
       run.count(outcome);
       if (outcome === "updated" && run.write) syncAttempts.run(quarter, siteId, instructorId, cls.id);
       // A dry run writes nothing, so later files of the same command learn about these classes from here.
-      if (!run.write) run.pendingClasses.set(cls.id, { quarter, siteId, instructorId });
+      if (!run.write) run.pendingClasses.set(cls.id, { date: cls.date, quarter, siteId, instructorId });
     },
     finish() {},
   };

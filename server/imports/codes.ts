@@ -43,6 +43,12 @@ export class CodeRegistry {
     return this.ids[kind].get(code);
   }
 
+  /** The code of an id; null when there is none. */
+  codeOf(kind: CodeKind, id: number): string | null {
+    for (const [code, known] of this.ids[kind]) if (known === id) return code;
+    return null;
+  }
+
   isNew(kind: CodeKind, code: string): boolean {
     return this.created[kind].includes(code);
   }

@@ -27,6 +27,8 @@ export function compressionsImporter(run: ImportRun, reader: RowReader, bufferRo
     accept(attempt) {
       const cls = attempts.classFor(attempt.identity!.classId);
       if (typeof cls === "string") return { column: "class_id", reason: cls };
+      const misfit = attempts.classFitIssue(attempt.identity!, cls);
+      if (misfit) return misfit;
       classes.set(attempt.idx, cls);
       return null;
     },

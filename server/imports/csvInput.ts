@@ -79,6 +79,8 @@ export async function readCsv(input: ImportInput, handlers: CsvHandlers): Promis
     while ((record = parser.read() as string[] | null) !== null) {
       if (stopped) continue;
       if (!headerSeen) {
+        // a line of spaces (or a stray \r) before the header is blank too; skip_empty_lines skips only empty ones
+        if (record.length === 1 && record[0].trim() === "") continue;
         headerSeen = true;
         if (!handlers.header(record)) stopped = true;
       } else {

@@ -6,6 +6,7 @@ import type { ImportKind, UserRole } from "../../shared/domain";
 import type { RowIssue } from "../../shared/import/rows";
 import type { NetworkPolicy } from "../../shared/scoring/policy";
 import { CodeRegistry } from "./codes";
+import { InstructorScope } from "./instructorScope";
 
 /** Who imports. role null = the command line, which may import anything. */
 export interface ImportActor {
@@ -18,9 +19,16 @@ export const CLI_ACTOR: ImportActor = { userId: null, role: null, instructorId: 
 
 /** What an attempt copies from its class. */
 export interface ClassInfo {
+  date: string;
   quarter: string;
   siteId: number;
   instructorId: number;
+}
+
+/** Why a row is refused, found after the row itself was read: the column and the reason. */
+export interface RowProblem {
+  column: string;
+  reason: string;
 }
 
 /** Most refused rows listed in a summary; all of them are counted (and kept with --skip-invalid). */
@@ -35,6 +43,8 @@ export class ImportRun {
   readonly issues: RowIssue[] = [];
   readonly warnings: string[] = [];
   readonly codes: CodeRegistry;
+  /** Set for an instructor's import: what their file may name (see instructorScope.ts). */
+  readonly instructorScope: InstructorScope | null;
   header: string[] = [];
   private readonly insertRejected;
   private readonly insertChange;
@@ -55,9 +65,11 @@ export class ImportRun {
     rejectedCsvPath?: string,
   ) {
     this.codes = new CodeRegistry(sqlite, write);
+    const own = this.restrictedToInstructor;
+    this.instructorScope = own === null ? null : new InstructorScope(this.codes, own, (classId) => this.classInfo(classId));
     this.insertRejected = sqlite.prepare("INSERT INTO rejected_rows (batch_id, row_number, column, reason, raw) VALUES (?, ?, ?, ?, ?)");
     this.insertChange = sqlite.prepare("INSERT INTO batch_changes (batch_id, table_name, row_key, previous) VALUES (?, ?, ?, ?)");
-    this.classLookup = sqlite.prepare("SELECT quarter, site_id, instructor_id FROM classes WHERE id = ?").raw();
+    this.classLookup = sqlite.prepare("SELECT date, quarter, site_id, instructor_id FROM classes WHERE id = ?").raw();
     if (rejectedCsvPath) this.rejectedCsv = fs.openSync(rejectedCsvPath, "w");
   }
 
@@ -123,8 +135,8 @@ export class ImportRun {
     if (pending) return pending;
     let info = this.classCache.get(classId);
     if (info === undefined) {
-      const row = this.classLookup.get(classId) as [string, number, number] | undefined;
-      info = row ? { quarter: row[0], siteId: row[1], instructorId: row[2] } : null;
+      const row = this.classLookup.get(classId) as [string, string, number, number] | undefined;
+      info = row ? { date: row[0], quarter: row[1], siteId: row[2], instructorId: row[3] } : null;
       this.classCache.set(classId, info);
     }
     return info;

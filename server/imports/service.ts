@@ -119,6 +119,12 @@ export async function importFile(db: Db, options: ImportFileOptions): Promise<Im
     try {
       csv = await readCsv(input, {
         header(fields) {
+          const blank = headerBlankness(fields);
+          if (blank) {
+            current.headerIssue(null, blank);
+            headerRefused = true;
+            return false;
+          }
           const resolved = resolveHeader(fields, kind, mapping);
           for (const problem of resolved.problems) current.headerIssue(problem.column, problem.reason);
           if (resolved.problems.length > 0 || headerRefused) {
@@ -150,17 +156,22 @@ export async function importFile(db: Db, options: ImportFileOptions): Promise<Im
       current.addIssue({ row: err.row, column: null, reason: err.message });
     }
     if (importer && !syntaxError) importer.finish();
+    // A header and nothing else would record an empty batch: most likely the export went wrong.
+    const noRows = importer !== undefined && !syntaxError && csv !== undefined && csv.rows === 0;
+    if (noRows) current.addIssue({ row: null, column: null, reason: "the file has a header but no rows" });
 
     // Batched writes report duplicates a few rows late: list reasons in file order (header first).
     current.issues.sort((a, b) => (a.row ?? 0) - (b.row ?? 0));
-    const refused = headerRefused || syntaxError !== undefined || (current.rejectedRows > 0 && !skipInvalid);
+    const refused = headerRefused || syntaxError !== undefined || noRows || (current.rejectedRows > 0 && !skipInvalid);
+    // Every row already stored as the file has it: no batch is recorded, so history lists only real changes.
+    const changedNothing = !refused && !dryRun && current.inserted === 0 && current.updated === 0 && current.rejectedRows === 0 && !createdCodes(current);
     const stream = importer && "attemptsRead" in importer ? (importer as ReturnType<typeof compressionsImporter>) : undefined;
     const summary: ImportSummary = {
       file: fileName,
       kind,
       dryRun,
-      status: refused ? "refused" : dryRun ? "validated" : "imported",
-      batchId: refused || dryRun ? null : batchId,
+      status: refused ? "refused" : dryRun ? "validated" : changedNothing ? "unchanged" : "imported",
+      batchId: refused || dryRun || changedNothing ? null : batchId,
       sha256: csv?.sha256 ?? null,
       unit: importer?.unit ?? (kind === "compressions" ? "attempts" : "rows"),
       rowsRead: csv?.rows ?? 0,
@@ -176,7 +187,7 @@ export async function importFile(db: Db, options: ImportFileOptions): Promise<Im
       issuesTotal: current.issuesTotal,
       durationMs: Math.round(performance.now() - started),
     };
-    if (refused || dryRun) {
+    if (refused || dryRun || changedNothing) {
       sqlite.exec("ROLLBACK");
       if (refused && !dryRun) {
         summary.inserted = summary.updated = summary.unchanged = 0;
@@ -197,6 +208,18 @@ export async function importFile(db: Db, options: ImportFileOptions): Promise<Im
     run?.close();
     sqlite.pragma(`cache_size = ${cacheSize}`);
   }
+}
+
+/** Why a header row is no header at all, or null: one message instead of one per missing column. */
+function headerBlankness(fields: readonly string[]): string | null {
+  if (fields.length === 0) return "the file is empty";
+  if (fields.every((name) => name.trim() === "")) return "the first row has no column names; the file must start with its header row";
+  return null;
+}
+
+function createdCodes(run: ImportRun): boolean {
+  const { sites, instructors, manikins } = run.codes.created;
+  return sites.length + instructors.length + manikins.length > 0;
 }
 
 function makeImporter(run: ImportRun, reader: RowReader, streamBufferRows?: number): KindImporter {

@@ -1,5 +1,6 @@
 // Uploaded files waiting for preview, validation and import. Stored under random names in a private temp
-// folder (the original name is only ever shown, never used as a path) and forgotten after a few hours.
+// folder (the original name is only ever shown, never used as a path) and forgotten after a few hours. The
+// folders that stopped servers left behind are removed when a new store starts (uploadSweep.ts).
 import crypto from "node:crypto";
 import fs from "node:fs";
 import os from "node:os";
@@ -8,6 +9,7 @@ import { parse } from "csv-parse";
 import type { ImportKind } from "../../shared/domain";
 import type { Upload } from "../../shared/import/api";
 import { notFound } from "../errors";
+import { sweepOrphanedUploadFolders, uploadFolderPrefix } from "./uploadSweep";
 
 export interface StoredUpload extends Upload {
   path: string;
@@ -20,8 +22,14 @@ export class UploadStore {
   readonly dir: string;
   private readonly uploads = new Map<string, StoredUpload>();
 
-  constructor(dir?: string) {
-    this.dir = dir ?? fs.mkdtempSync(path.join(os.tmpdir(), "quarterbeat-uploads-"));
+  /** `dir`: a folder to use as it is; otherwise a new one of this process under `root`, after sweeping. */
+  constructor(dir?: string, root = os.tmpdir()) {
+    if (dir === undefined) {
+      sweepOrphanedUploadFolders(root);
+      this.dir = fs.mkdtempSync(uploadFolderPrefix(root));
+    } else {
+      this.dir = dir;
+    }
     fs.mkdirSync(this.dir, { recursive: true, mode: 0o700 });
   }
 

@@ -2,12 +2,13 @@ import { Router } from "express";
 import { newUserSchema, resetPasswordSchema, updateUserSchema } from "../../shared/schemas/users";
 import type { Db } from "../db/client";
 import { allow, signedInUser } from "../auth/guard";
+import type { EndSessionsAfterPasswordChange } from "../auth/passwordChangeSessions";
 import { AppError } from "../errors";
 import { parseId, parseWith } from "../http/validate";
 import type { Mailer } from "../mail/mailer";
 import { createUser, listUsers, setPassword, updateUser } from "./service";
 
-export function userRoutes(db: Db, mailer: Mailer): Router {
+export function userRoutes(db: Db, mailer: Mailer, endSessionsAfterPasswordChange: EndSessionsAfterPasswordChange): Router {
   const router = Router();
   router.use("/users", allow("manageUsers"));
 
@@ -40,7 +41,10 @@ export function userRoutes(db: Db, mailer: Mailer): Router {
     const id = parseId(req.params.id);
     const { password } = parseWith(resetPasswordSchema, req.body, "The password");
     await setPassword(db, id, password);
-    res.status(204).end();
+    // a reset of one's own account answers the rotated session, like a change on the account page
+    const ownSession = await endSessionsAfterPasswordChange(req, res, id);
+    if (ownSession) res.json(ownSession);
+    else res.status(204).end();
   });
 
   return router;

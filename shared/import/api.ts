@@ -23,8 +23,11 @@ export const importSummarySchema = z.object({
   file: z.string(),
   kind: importKindSchema,
   dryRun: z.boolean(),
-  /** imported: written; validated: a dry run that would import; refused: nothing written (see issues). */
-  status: z.enum(["imported", "validated", "refused"]),
+  /**
+   * imported: written; validated: a dry run that would import; unchanged: every row is already stored as the
+   * file has it, so nothing was written and no batch recorded; refused: nothing written (see issues).
+   */
+  status: z.enum(["imported", "validated", "unchanged", "refused"]),
   batchId: z.number().int().nullable(),
   sha256: z.string().nullable(),
   /** What inserted/updated/unchanged count: file rows, or attempts (compressions files). */

@@ -83,6 +83,21 @@ const NOTE_MAX = 500;
 const EARLIEST_DATE = "2000-01-01";
 /** Start times may run up to a day ahead of the server's clock (time zones, device clocks). */
 const FUTURE_SLACK_MS = 24 * 60 * 60 * 1000;
+const DAY_MS = 24 * 60 * 60 * 1000;
+/** One attempt on one manikin lasts minutes; an hour leaves room for a long scenario and stops nonsense. */
+export const ATTEMPT_MAX_S = 3600;
+/** How many days an attempt's start may lie from its class's date: time zones and classes past midnight. */
+export const START_DAYS_FROM_CLASS = 1;
+
+/**
+ * Why an attempt's start does not fit its class's date, or null. The start's own calendar date (as written,
+ * in its offset: the local date where the class was held) may differ from the class date by one day at most.
+ */
+export function startOutsideClassDate(startedAt: string, classDate: string): string | null {
+  const days = Math.round((Date.parse(startedAt.slice(0, 10)) - Date.parse(classDate)) / DAY_MS);
+  if (Math.abs(days) <= START_DAYS_FROM_CLASS) return null;
+  return `${startedAt} is ${Math.abs(days)} days ${days < 0 ? "before" : "after"} the class date ${classDate}; an attempt must start within ${START_DAYS_FROM_CLASS} day of its class's date`;
+}
 
 function isIdChar(c: number): boolean {
   return (c >= 48 && c <= 57) || (c >= 65 && c <= 90) || (c >= 97 && c <= 122) || c === 46 || c === 95 || c === 45;
@@ -188,7 +203,8 @@ export class RowReader {
   private readonly index: Record<string, number>;
   private readonly factors: Record<UnitGroup, number>;
   private readonly unitOf: Record<string, UnitGroup | undefined>;
-  private readonly values: Record<string, Record<string, string>>;
+  /** Value translations as Maps: a file's value such as "constructor" must never find an inherited property. */
+  private readonly values: Map<string, Map<string, string>>;
   private readonly today: string;
   private readonly latestStartMs: number;
   private readonly yesterday: string;
@@ -201,7 +217,7 @@ export class RowReader {
   ) {
     this.index = header.index;
     this.factors = unitFactors(mapping);
-    this.values = mapping.values;
+    this.values = new Map(Object.entries(mapping.values).map(([column, table]) => [column, new Map(Object.entries(table))]));
     this.unitOf = Object.fromEntries(importColumns[kind].map((c) => [c.name, c.unit]));
     this.today = now.toISOString().slice(0, 10);
     this.latestStartMs = now.getTime() + FUTURE_SLACK_MS;
@@ -233,9 +249,9 @@ export class RowReader {
     const raw = this.fields[position];
     if (raw === undefined) return "";
     const value = raw.trim();
-    const translate = this.values[column];
+    const translate = this.values.get(column);
     if (translate !== undefined) {
-      const mapped = translate[value];
+      const mapped = translate.get(value);
       if (mapped !== undefined) return mapped;
     }
     return value;
@@ -340,12 +356,14 @@ export class RowReader {
     return n;
   }
 
-  positive(column: string, what = ""): number | null {
+  /** A number more than 0 and at most `max`; null after an issue. */
+  positive(column: string, max: number, what = ""): number | null {
     const value = this.required(column);
     if (value === null) return null;
     const n = parseDecimal(value);
     if (Number.isNaN(n)) return this.fail(column, `${quoted(value)} is not a number`);
     if (!(n > 0 && Number.isFinite(n))) return this.fail(column, `must be more than 0${what}; got ${value}`);
+    if (n > max) return this.fail(column, `must be at most ${max}${what}; got ${value}`);
     return n;
   }
 
@@ -450,7 +468,7 @@ export class RowReader {
   attemptRow(): AttemptSummaryRow | null {
     const before = this.issues.length;
     const identity = this.attemptIdentity();
-    const durationS = this.positive("duration_s", " seconds");
+    const durationS = this.positive("duration_s", ATTEMPT_MAX_S, " seconds");
     const compressions = this.integer("compressions", 1, 100_000);
     const rateCpm = this.number("rate_cpm", 20, 300, " compressions per minute");
     const depthMm = this.number("depth_mm", 0, 100, " mm");

@@ -56,7 +56,7 @@ describe("sign-in", () => {
     const funder = await signIn(app, "funder@test.example");
     await funder
       .post("/api/me/password", { currentPassword: TEST_PASSWORD, newPassword: "a-new-long-password", confirmPassword: "a-new-long-password" })
-      .expect(204);
+      .expect(200);
     const anon = await anonymousAgent(app);
     await anon.post("/api/auth/login", { email: "funder@test.example", password: TEST_PASSWORD }).expect(401);
     await signIn(app, "funder@test.example", "a-new-long-password");

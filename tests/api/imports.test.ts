@@ -122,6 +122,30 @@ describe("roles and row scope", () => {
     expect(job.summary?.issues.map((i) => i.row)).toEqual([2, 3]);
   });
 
+  it("refuses an instructor's upload that names a new site or manikin, or another site, and creates no code", async () => {
+    const sites = count("sites");
+    const manikins = count("manikins");
+    const res = await instructor.agent
+      .post("/api/imports/uploads")
+      .set("x-csrf-token", instructor.csrfToken)
+      .field("kind", "classes")
+      .attach(
+        "file",
+        Buffer.from("class_id,date,site,instructor,course,learners,passed,manikins\nC-A1-20,2026-09-01,EVILSITE,A1,adult,4,4,\nC-A1-21,2026-09-01,SOUTH,A1,adult,4,4,\nC-A1-22,2026-09-01,NORTH,A1,adult,4,4,EVIL-M1\n"),
+        { filename: "evil.csv", contentType: "text/csv" },
+      )
+      .expect(201);
+    const job = await finished(instructor, (await instructor.post(`/api/imports/uploads/${res.body.upload.id}/import`, {}).expect(202)).body.job.id);
+    expect(job.summary).toMatchObject({ status: "refused", file: "evil.csv" });
+    expect(job.summary?.issues.map((i) => [i.row, i.column])).toEqual([
+      [1, "site"],
+      [2, "site"],
+      [3, "manikins"],
+    ]);
+    expect(count("sites")).toBe(sites);
+    expect(count("manikins")).toBe(manikins);
+  });
+
   it("keeps equipment imports for coordinators", async () => {
     const res = await upload(instructor, "equipment", fixture("equipment-valid.csv"));
     expect(res.status).toBe(403);

@@ -86,5 +86,10 @@ describe("validation report", () => {
     expect(summarySentence({ ...refused, dryRun: false, status: "imported", batchId: 9 })).toBe(
       "Imported 8 rows; 3 refused rows kept in the import history to fix.",
     );
+    const same = { ...refused, inserted: 0, updated: 0, unchanged: 8, rejected: 0, issues: [], issuesTotal: 0 };
+    expect(summarySentence({ ...same, status: "validated" })).toBe("Nothing would change: all 8 rows are already stored as in this file.");
+    expect(summarySentence({ ...same, dryRun: false, status: "unchanged" })).toBe(
+      "Nothing changed: all 8 rows are already stored as in this file. No batch was recorded.",
+    );
   });
 });

@@ -36,7 +36,9 @@ export function useSignOut() {
 
 export function useChangePassword() {
   return useMutation({
-    mutationFn: (values: ChangePassword) => http.post<void>("/api/me/password", values),
+    mutationFn: (values: ChangePassword) => http.post<SessionAnswer>("/api/me/password", values),
+    // the change ends the other sessions and gives this one a new id, and with it a new token
+    onSuccess: (answer) => setCsrfToken(answer.csrfToken),
   });
 }
 

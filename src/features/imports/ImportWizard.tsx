@@ -301,13 +301,15 @@ function ImportStep({ job, pollError, fileName, onNewFile, onBackToMapping }: { 
           {fileName} is imported{summary.batchId !== null ? ` as batch ${summary.batchId}` : ""}. It is listed in the import history below
           {summary.rejected > 0 ? ", with its refused rows" : ""}.
         </Notice>
+      ) : summary.status === "unchanged" ? (
+        <Notice tone="info">Nothing changed: every row of {fileName} is already stored as it is in the file, so no batch was recorded.</Notice>
       ) : (
         <Notice tone="error">The import was refused and nothing was written: the file or the data changed since it was validated. See the problems below.</Notice>
       )}
       <ValidationReport summary={summary} rejectedCsvUrl={job.rejectedCsvUrl} />
       <div className="flex flex-wrap gap-2">
         {again}
-        {summary.status !== "imported" && (
+        {summary.status === "refused" && (
           <Button variant="secondary" onClick={onBackToMapping}>
             Change the column matches
           </Button>

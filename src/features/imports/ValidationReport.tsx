@@ -35,6 +35,10 @@ export function summarySentence(summary: ImportSummary): string {
       ? `Imported ${plural(good, summary.unit === "attempts" ? "attempt" : "row")}; ${plural(summary.rejected, "refused row")} kept in the import history to fix.`
       : `Imported every one of the ${formatCount(good)} ${things}.`;
   }
+  if (summary.status === "unchanged") return `Nothing changed: all ${formatCount(good)} ${things} are already stored as in this file. No batch was recorded.`;
+  if (summary.status === "validated" && summary.inserted + summary.updated === 0 && summary.rejected === 0) {
+    return `Nothing would change: all ${formatCount(good)} ${things} are already stored as in this file.`;
+  }
   if (summary.status === "validated") return `All ${formatCount(good)} ${things} can be imported. Nothing has been written yet.`;
   if (good === 0) return `No ${things} can be imported as the file stands. Nothing has been written.`;
   return `${plural(summary.rejected, "row")} of ${formatCount(summary.rowsRead)} ${summary.rejected === 1 ? "has" : "have"} problems. Nothing has been written yet.`;

@@ -1,7 +1,8 @@
 // Account administration (coordinator only). Every change refreshes the user list.
 import { useMutation, useQueryClient } from "@tanstack/react-query";
+import type { SessionAnswer } from "../../../shared/schemas/auth";
 import type { NewUser, UpdateUser, UserRow } from "../../../shared/schemas/users";
-import { http } from "../../api/http";
+import { http, setCsrfToken } from "../../api/http";
 import { userQueries } from "./queries";
 
 function useInvalidateUsers() {
@@ -29,6 +30,10 @@ export function useUpdateUser() {
 export function useResetUserPassword() {
   return useMutation({
     mutationFn: ({ id, password }: { id: number; password: string }) =>
-      http.post<void>(`/api/users/${id}/password`, { password }),
+      http.post<SessionAnswer | undefined>(`/api/users/${id}/password`, { password }),
+    // resetting one's own password gives this session a new id, and with it a new token
+    onSuccess: (answer) => {
+      if (answer) setCsrfToken(answer.csrfToken);
+    },
   });
 }

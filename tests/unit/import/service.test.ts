@@ -25,7 +25,8 @@ describe("class logs", () => {
     const { db } = await freshDb();
     const first = await load(db, "classes", "classes-valid.csv");
     const again = await load(db, "classes", "classes-valid.csv");
-    expect(again).toMatchObject({ status: "imported", inserted: 0, updated: 0, unchanged: 3 });
+    expect(again).toMatchObject({ status: "unchanged", batchId: null, inserted: 0, updated: 0, unchanged: 3 });
+    expect(count(db, "import_batches")).toBe(1); // no empty batch record for a file that changed nothing
     expect(again.newCodes).toEqual({ sites: [], instructors: [], manikins: [] });
     const corrected = await load(db, "classes", "classes-corrected.csv");
     expect(corrected).toMatchObject({ inserted: 0, updated: 1, unchanged: 2 });
