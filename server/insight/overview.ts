@@ -8,7 +8,7 @@ import { and, eq, sql } from "drizzle-orm";
 import { feedbackModes, type FeedbackMode } from "../../shared/domain";
 import type { OverviewAnswer } from "../../shared/schemas/insight";
 import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
-import { changeFrom, changeVerdict, cohensKappa, pChart, proportionDifference } from "../../shared/stats";
+import { changeFrom, changeVerdict, cohensKappa, pChart, proportionDifference, runChartSignals } from "../../shared/stats";
 import type { Db } from "../db/client";
 import { attempts, classes } from "../db/schema";
 import type { ResolvedFilters } from "./filters";
@@ -197,6 +197,7 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): Over
     medianScore: hidden ? null : medianOfSorted(sortedUnion(scores.get("live")!, scores.get("hidden")!)),
     series: {
       centre: chart.centre,
+      runChart: runChartSignals(chart.points.flatMap((point, i) => (seriesHidden[i] || point.p === null ? [] : [point.p]))),
       points: trend.quarters.map((quarter, i) => {
         if (seriesHidden[i]) {
           return { quarter, attempts: null, passed: null, rate: null, low: null, high: null, lcl: null, ucl: null, outside: false, suppressed: true };

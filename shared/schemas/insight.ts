@@ -104,6 +104,13 @@ export const passRateSeriesSchema = z.object({
   /** p̄ = Σpassed / Σattempts over the series (Montgomery p-chart). */
   centre: share.nullable(),
   points: z.array(seriesPointSchema),
+  /**
+   * Run-chart rules over the shown quarters' rates around their median (Anhøj & Olesen 2014): the longest
+   * run on one side and the crossings, with their limits; null for fewer than two quarters off the median.
+   */
+  runChart: z
+    .object({ median: share, useful: count, run: count, longestRun: count, crossings: count, fewestCrossings: count, shift: z.boolean() })
+    .nullable(),
 });
 
 export const agreementSchema = z.object({

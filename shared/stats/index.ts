@@ -9,3 +9,4 @@ export * from "./pareto";
 export * from "./change";
 export * from "./difference";
 export * from "./agreement";
+export * from "./runChart";

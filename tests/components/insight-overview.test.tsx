@@ -52,6 +52,8 @@ const overview: OverviewAnswer = overviewAnswerSchema.parse({
   medianScore: 83.3333,
   series: {
     centre: 0.2719,
+    // 25.7 %, 25.5 %, 29.5 %: around the median 25.7 % one point below, one above (Anhøj limits for 2 points: run 4, crossings 0)
+    runChart: { median: 0.2568, useful: 2, run: 1, longestRun: 4, crossings: 1, fewestCrossings: 0, shift: false },
     points: [
       { quarter: "2026-Q1", attempts: 666, passed: 171, rate: 0.2568, low: 0.225, high: 0.2913, lcl: 0.2196, ucl: 0.3242, outside: false, suppressed: false },
       { quarter: "2026-Q2", attempts: 941, passed: 240, rate: 0.2551, low: 0.2283, high: 0.2838, lcl: 0.2282, ucl: 0.3156, outside: false, suppressed: false },
@@ -132,6 +134,8 @@ describe("network overview", () => {
     expect(measured.textContent).toContain("+4.0 points since 2026 Q2 (better)");
     expect(measured.textContent).toContain("411 of 1,392 manikin attempts");
     expect(measured.textContent).toContain("The change's 95 % interval runs from +0.3 points to +7.7 points.");
+    const trend = screen.getByRole("heading", { name: "Measured pass rate by quarter" }).closest("figure")!;
+    expect(trend.textContent).toContain("The run-chart rules find no shift: the longest run on one side of the median 25.7 % is 1 (a shift needs more than 4) and the series crosses it 1 time.");
 
     const recorded = card("Instructor-recorded completion");
     expect(within(recorded).getByText("60.3 %")).toBeTruthy();
@@ -233,6 +237,7 @@ describe("network overview", () => {
       medianScore: null,
       series: {
         centre: 0.2719,
+        runChart: null,
         points: [
           overview.series.points[0],
           { quarter: "2026-Q2", attempts: null, passed: null, rate: null, low: null, high: null, lcl: null, ucl: null, outside: false, suppressed: true },

@@ -40,6 +40,14 @@ export function describeSeries(series: PassRateSeries): string {
       `${outside.length} of ${shown.length} quarters fall outside the control limits (${words.join("; ")}): more change than chance alone explains.`,
     );
   }
+  const runs = series.runChart;
+  if (runs) {
+    parts.push(
+      runs.shift
+        ? `The run-chart rules signal a shift: ${runs.run > runs.longestRun ? `${runs.run} quarters in a row on one side of the median ${formatPercent(runs.median)} (more than ${runs.longestRun} is unlikely by chance)` : `only ${runs.crossings} crossings of the median ${formatPercent(runs.median)} (fewer than ${runs.fewestCrossings} is unlikely by chance)`}.`
+        : `The run-chart rules find no shift: the longest run on one side of the median ${formatPercent(runs.median)} is ${runs.run} (a shift needs more than ${runs.longestRun}) and the series crosses it ${runs.crossings} time${runs.crossings === 1 ? "" : "s"}.`,
+    );
+  }
   const hidden = series.points.filter((p) => p.suppressed).length;
   if (hidden > 0) parts.push(`${hidden} quarter${hidden === 1 ? " is" : "s are"} hidden because they hold too few attempts.`);
   return parts.join(" ");
