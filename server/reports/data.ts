@@ -2,14 +2,14 @@
 // trend, common errors with the coordinator's actions, live vs hidden display, instructor agreement and
 // equipment use. Every figure passes through small-cell suppression here, so nothing downstream (web page,
 // PDF, e-mail, CSV) can show a hidden cell by mistake.
-import { eq } from "drizzle-orm";
+import { eq, inArray } from "drizzle-orm";
 import { courseTypes, feedbackModes } from "../../shared/domain";
 import type { ErrorRow, GroupResult, RateFigure, ReportComparison, ReportData, TrendPoint } from "../../shared/schemas/report";
 import { GUIDELINE_SOURCES, SAFETY_NOTE, patientTypes, type NetworkPolicy } from "../../shared/scoring/policy";
 import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
 import { changeFrom, cohensKappa, pareto, pChart } from "../../shared/stats";
 import type { Db } from "../db/client";
-import { quarterNotes } from "../db/schema";
+import { attempts, quarterNotes } from "../db/schema";
 import { currentPolicy } from "../policy/service";
 import { getSetting } from "../settings/store";
 import { compareRates, differencePoints } from "./compare";
@@ -19,6 +19,7 @@ import { comparisonPeriods, parsePeriod, periodLabel, quartersOf, trailingQuarte
 import { passTallyByQuarter, reportNumbers, type PassTally } from "./queries";
 import { suppressBreakdown } from "../../shared/suppression";
 import { courseTypeNames, errorLabels, feedbackNames, patientTypeNames } from "../../shared/vocabulary";
+import { learnerOutcomes } from "../metrics/learnerOutcomes";
 
 export const TREND_QUARTERS = 8;
 export const DEFAULT_NETWORK_NAME = "Quarterbeat training network";
@@ -74,6 +75,7 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
   const { policy, version } = currentPolicy(db);
   const min = policy.suppressionMinCount;
   const numbers = reportNumbers(db, quarters);
+  const measuredLearners = learnerOutcomes(db, inArray(attempts.quarter, quarters));
   const hasData = numbers.classes > 0 || numbers.attempts.attempts > 0;
 
   // Reach
@@ -206,6 +208,7 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
       observedAgreement: kappaShown ? kappa.p0 : null,
       kappaText: kappaShown ? kappa.kappa!.toFixed(2) : pairs.hidden ? hiddenText(pairs.hidden, min) : "not available",
       completionRate: rateFigure(completions, numbers.learners, min),
+      everPassedRate: rateFigure(measuredLearners.everPassed, measuredLearners.learners, min),
       objectivePassRate: passRate,
     },
     equipment: {

@@ -82,10 +82,10 @@ export function writeNarrative(data: ReportData): string[] {
         `of attempts (Cohen's kappa ${agreement.kappaText}, ${kappaWords(Number(agreement.kappaText))} agreement beyond chance).`,
     );
   }
-  if (agreement.completionRate.value !== null && rate.value !== null) {
+  if (agreement.completionRate.value !== null && agreement.everPassedRate.value !== null) {
     sentences.push(
-      `Instructors recorded ${agreement.completionRate.text} of learners as completing the course, ` +
-        `against a measured pass rate of ${rate.text}.`,
+      `Instructors recorded ${agreement.completionRate.text} of learners as completing the course; ` +
+        `on the manikin, ${agreement.everPassedRate.text} of the learners measured passed at least once.`,
     );
   }
   return sentences;

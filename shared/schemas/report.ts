@@ -136,6 +136,8 @@ export interface ReportData {
     observedAgreement: number | null;
     kappaText: string;
     completionRate: RateFigure;
+    /** Learners (by pseudonymous code) who passed at least once: the like-for-like figure beside completionRate. */
+    everPassedRate: RateFigure;
     objectivePassRate: RateFigure;
   };
   equipment: {

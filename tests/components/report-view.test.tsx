@@ -89,6 +89,7 @@ function reportData(): ReportData {
       observedAgreement: 0.6746,
       kappaText: "0.40",
       completionRate: rate(0.6355, 0.5883, 0.6803, 417, "63.5 %", "58.8–68.0 %"),
+      everPassedRate: rate(0.5746, 0.5257, 0.6221, 402, "57.5 %", "52.6–62.2 %"),
       objectivePassRate: pass,
     },
     equipment: {

@@ -242,7 +242,8 @@ function ReportSections({ data, actionsSlot }: { data: ReportData; actionsSlot?:
             note={
               <>
                 {data.agreement.completionRate.intervalText && <>95 % interval {data.agreement.completionRate.intervalText}. </>}
-                Measured pass rate: {rateWithInterval(data.agreement.objectivePassRate)}.
+                Learners who passed on the manikin at least once: {rateWithInterval(data.agreement.everPassedRate)}. Measured pass rate per attempt:{" "}
+                {rateWithInterval(data.agreement.objectivePassRate)}.
               </>
             }
           >

@@ -192,6 +192,8 @@ describe("narrative", () => {
     expect(text).toContain("That is no clear change from the same quarter last year (60.0 %)");
     expect(text).toContain("fewer than 5 instructors at fewer than 5 sites");
     expect(text).toContain("moderate agreement");
+    // like with like: 42 of 48 learners recorded as completing against 26 of 40 learners passing at least once
+    expect(text).toContain("Instructors recorded 87.5 % of learners as completing the course; on the manikin, 65.0 % of the learners measured passed at least once.");
     expect(text).not.toMatch(/infant/i);
   });
 });
