@@ -167,7 +167,16 @@ describe("quarterbeat stats", () => {
     expect(s.by_feedback).toEqual({ live: { attempts: 4, pass_rate: 0.5 }, hidden: { attempts: 2, pass_rate: 0 } });
     // Judged by both: A-001 (pass, pass), A-002 (fail, fail), A-004 (fail, fail), S-001 (pass, fail):
     // p0 = 3/4; instructor says pass 2/4, Quarterbeat 1/4 → pe = ½·¼ + ½·¾ = ½ → κ = (¾ − ½)/(1 − ½) = 0.5.
-    expect(s.agreement).toEqual({ attempts: 4, kappa: 0.5 });
+    // A-003 and S-002 carry no judgement. The disagreements, 1 against 0, are balanced as far as 1 can tell:
+    // exact McNemar p = 2 × P(X ≤ 0), X ~ Binomial(1, 0.5) = 1, capped at 1; PABAK = 2 × ¾ − 1 = 0.5.
+    expect(s.agreement).toMatchObject({
+      attempts: 4,
+      kappa: 0.5,
+      pabak: 0.5,
+      mcnemar_p: 1,
+      unjudged: 2,
+      table: { both_pass: 1, instructor_pass_measured_fail: 1, instructor_fail_measured_pass: 0, both_fail: 2 },
+    });
   });
 
   it("checks the interval and kappa on imported data against published examples", SLOW, () => {

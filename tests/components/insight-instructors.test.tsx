@@ -147,9 +147,10 @@ describe("one instructor", () => {
     previousPeriod: { from: "2026-Q3", to: "2026-Q3", quarters: ["2026-Q3"] },
     suppressionMinCount: 5, suppressed: false, learners: 10, classes: 2, attempts: 615,
     passRate: rate(259, 615), passRateChange: { previous: rate(326, 855), absolute: 0.04, relative: 0.1, low: null, high: null, verdict: null },
+    learnerOutcomes: { measured: 600, firstAttempt: rate(240, 600), everPassed: rate(250, 600) },
     recordedCompletion: rate(158, 262),
     agreement: { pairs: 0, table: [[0, 0], [0, 0]], observed: null, expected: null, kappa: null, suppressed: false },
-    medianScore: 83, series: { centre: 0.3, points: [point("2026-Q2", 325, 859), point("2026-Q3", 326, 855), point("2026-Q4", 259, 615)] },
+    medianScore: 83, series: { centre: 0.3, runChart: null, points: [point("2026-Q2", 325, 859), point("2026-Q3", 326, 855), point("2026-Q4", 259, 615)] },
     errors: { attempts: 615, rows: [], suppressed: false }, feedback: [],
   });
 
