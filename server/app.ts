@@ -16,6 +16,7 @@ import { errorHandler, notFoundHandler } from "./http/errorHandler";
 import { importRoutes } from "./imports/routes";
 import { createMailer } from "./mail/mailer";
 import { outboxRoutes } from "./mail/routes";
+import { healthRoutes } from "./ops/healthRoutes";
 import { reportRoutes } from "./reports/routes";
 import { equipmentRoutes } from "./equipment/routes";
 import { insightRoutes } from "./insight/routes";
@@ -32,7 +33,6 @@ export interface AppOptions {
 }
 
 const defaultClientDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../dist/client");
-const VERSION = "1.0.0";
 
 /** Feature routers mounted under /api. Each one guards its own routes with `allow(...)`. */
 function featureRouters(db: Db, config: Config): Router[] {
@@ -72,9 +72,7 @@ export function createApp(db: Db, config: Config, options: AppOptions = {}) {
   app.use(passport.session());
 
   const api = Router();
-  api.get("/health", (_req, res) => {
-    res.json({ ok: true, version: VERSION });
-  });
+  api.use(healthRoutes(db));
   api.use((req, res, next) => {
     csrf.doubleCsrfProtection(req, res, (err?: unknown) => next(err ? csrfRefused() : undefined));
   });
