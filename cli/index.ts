@@ -8,6 +8,7 @@ import { registerImport } from "./commands/import";
 import { registerAnalyze } from "./commands/analyze";
 import { registerStats } from "./commands/stats";
 import { registerReport } from "./commands/report";
+import { registerRestore } from "./commands/restore";
 import { closeContext } from "./context";
 import { handleError } from "./errors";
 
@@ -19,6 +20,7 @@ export function buildProgram(): Command {
     .showHelpAfterError("(run with --help for usage)");
   registerDb(program);
   registerBackup(program);
+  registerRestore(program);
   registerDemo(program);
   registerUsers(program);
   registerImport(program);

@@ -7,6 +7,8 @@ import { loadConfig } from "./config";
 import { openDatabase } from "./db/client";
 import { createApp } from "./app";
 import { startLocalMailService } from "./mail/localService";
+import { holdServerLock } from "./ops/serverLock";
+import { AppError } from "./errors";
 import { demoAccountsPresent, isEmpty, seedDemo } from "./seed/seedDemo";
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
@@ -21,6 +23,8 @@ async function ensureClientBuilt() {
 
 async function main() {
   const config = loadConfig();
+  // `quarterbeat restore` reads this lock and refuses to replace the file while this server runs
+  const releaseLock = holdServerLock(config.dbFile);
   await ensureClientBuilt();
   const db = openDatabase(config.dbFile);
   if (isEmpty(db)) {
@@ -46,6 +50,7 @@ async function main() {
   const stop = () => server.close(async () => {
     await localMail?.close();
     db.$client.close();
+    releaseLock();
     process.exit(0);
   });
   process.on("SIGINT", stop);
@@ -54,5 +59,6 @@ async function main() {
 
 main().catch((err) => {
   console.error(`quarterbeat: could not start: ${err instanceof Error ? err.message : String(err)}`);
+  if (err instanceof AppError && err.hint) console.error(`  → ${err.hint}`);
   process.exit(1);
 });

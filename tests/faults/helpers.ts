@@ -53,20 +53,7 @@ export async function runCli(db: string, args: string[]) {
   return startCli(db, args).done;
 }
 
-/** True while another connection holds the write lock (an import's BEGIN IMMEDIATE). */
-export function writeLockHeld(file: string): boolean {
-  const probe = new Database(file, { timeout: 0 });
-  try {
-    probe.exec("BEGIN IMMEDIATE");
-    probe.exec("ROLLBACK");
-    return false;
-  } catch (err) {
-    if ((err as { code?: string }).code === "SQLITE_BUSY") return true;
-    throw err;
-  } finally {
-    probe.close();
-  }
-}
+export { writeLockHeld } from "../../server/db/writeLock";
 
 export const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
 
