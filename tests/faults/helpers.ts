@@ -75,3 +75,24 @@ export function countRows(file: string, sql: string, ...params: unknown[]): numb
     db.close();
   }
 }
+
+/** Row count of every table but those in `skip`, by name. */
+export function tableCounts(file: string, skip: string[]): Record<string, number> {
+  const conn = new Database(file, { readonly: true });
+  try {
+    const names = conn.prepare("SELECT name FROM sqlite_master WHERE type = 'table' ORDER BY name").pluck().all() as string[];
+    return Object.fromEntries(names.filter((n) => !skip.includes(n)).map((n) => [n, conn.prepare(`SELECT count(*) FROM "${n}"`).pluck().get() as number]));
+  } finally {
+    conn.close();
+  }
+}
+
+/** SQLite's integrity check of the file: "ok" or the first problem. */
+export function integrity(file: string): string {
+  const conn = new Database(file, { readonly: true });
+  try {
+    return conn.prepare("PRAGMA integrity_check").pluck().get() as string;
+  } finally {
+    conn.close();
+  }
+}
