@@ -24,7 +24,6 @@ const FILTERS = ["quarter", "from", "to", "site", "profile", "feedback", "instru
 const QUERY_KEYS: Record<string, string[]> = {
   "/api/health": [],
   "/api/health/ready": [],
-  "/api/data-version": [],
   "/api/auth/csrf": [],
   "/api/me": [],
   "/api/users": [],
@@ -42,6 +41,7 @@ const QUERY_KEYS: Record<string, string[]> = {
   "/api/imports/batches/:id": [],
   "/api/imports/batches/:id/rejected.csv": [],
   "/api/imports/presets": ["kind"],
+  "/api/data-version": [],
   "/api/insight/options": [],
   "/api/insight/overview": FILTERS,
   "/api/insight/standing": FILTERS,
