@@ -13,6 +13,8 @@ import { createPassport } from "./auth/passport";
 import { authRoutes } from "./auth/routes";
 import { SqliteSessionStore } from "./auth/sessionStore";
 import { errorHandler, notFoundHandler } from "./http/errorHandler";
+import { createLogger, type Logger } from "./logging/logger";
+import { rememberRoute, requestLog } from "./logging/requestLog";
 import { importRoutes } from "./imports/routes";
 import { createMailer } from "./mail/mailer";
 import { outboxRoutes } from "./mail/routes";
@@ -30,14 +32,16 @@ export interface AppOptions {
   signInLimit?: { windowMs: number; limit: number };
   /** Folder of the built client; omitted in API-only tests. */
   clientDir?: string | null;
+  /** Where request and event lines go; by default a logger at the configured level on standard output. */
+  logger?: Logger;
 }
 
 const defaultClientDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../dist/client");
 
 /** Feature routers mounted under /api. Each one guards its own routes with `allow(...)`. */
-function featureRouters(db: Db, config: Config): Router[] {
+function featureRouters(db: Db, config: Config, logger: Logger): Router[] {
   const mailer = createMailer(config.smtpUrl);
-  return [userRoutes(db, mailer), siteRoutes(db), insightRoutes(db), equipmentRoutes(db), policyRoutes(db), reportRoutes(db, mailer), outboxRoutes(db), importRoutes(db)];
+  return [userRoutes(db, mailer), siteRoutes(db), insightRoutes(db), equipmentRoutes(db), policyRoutes(db), reportRoutes(db, mailer, logger), outboxRoutes(db), importRoutes(db, { logger })];
 }
 
 export function createApp(db: Db, config: Config, options: AppOptions = {}) {
@@ -45,9 +49,11 @@ export function createApp(db: Db, config: Config, options: AppOptions = {}) {
   const secret = sessionSecret(db, config.sessionSecret);
   const passport = createPassport(db);
   const csrf = createCsrf(secret, production);
+  const logger = options.logger ?? createLogger(config);
   const app = express();
 
   app.disable("x-powered-by");
+  app.use(requestLog(logger));
   if (production) app.set("trust proxy", 1);
   app.use(
     helmet({
@@ -84,7 +90,8 @@ export function createApp(db: Db, config: Config, options: AppOptions = {}) {
       signInLimit: options.signInLimit ?? { windowMs: 15 * 60 * 1000, limit: 10 },
     }),
   );
-  for (const router of featureRouters(db, config)) api.use(router);
+  for (const router of featureRouters(db, config, logger)) api.use(router);
+  api.use(rememberRoute);
   api.use(notFoundHandler);
   app.use("/api", api);
 
