@@ -7,6 +7,8 @@ import { loadConfig } from "./config";
 import { openDatabase } from "./db/client";
 import { createApp } from "./app";
 import { startLocalMailService } from "./mail/localService";
+import { createLogger } from "./logging/logger";
+import { startBackupSchedule } from "./ops/backupSchedule";
 import { holdServerLock } from "./ops/serverLock";
 import { AppError } from "./errors";
 import { demoAccountsPresent, isEmpty, seedDemo } from "./seed/seedDemo";
@@ -34,11 +36,15 @@ async function main() {
   const demoAccounts = demoAccountsPresent(db);
   // Without SMTP_URL, mail goes to a local SMTP server whose messages land in the outbox, never out.
   const localMail = config.smtpUrl ? null : await startLocalMailService(db);
-  const app = createApp(db, localMail ? { ...config, smtpUrl: localMail.url } : config, { clientDir });
+  const logger = createLogger(config);
+  const app = createApp(db, localMail ? { ...config, smtpUrl: localMail.url } : config, { clientDir, logger });
+  const { dir: backupDir, hourUtc, keep } = config.backups;
+  const backups = backupDir ? startBackupSchedule({ dbFile: config.dbFile, dir: backupDir, hourUtc, keep, logger }) : null;
   const server = app.listen(config.port, () => {
     const address = server.address();
     const port = typeof address === "object" && address ? address.port : config.port;
     console.log(`Quarterbeat is running at http://localhost:${port}  (database: ${config.dbFile})`);
+    if (backupDir) console.log(`Verified backups daily at ${String(hourUtc).padStart(2, "0")}:00 UTC into ${backupDir}.`);
     if (localMail) {
       console.log(`Local mail service on 127.0.0.1:${localMail.port} (no SMTP_URL set): e-mail is kept in the Outbox, not delivered.`);
     }
@@ -48,6 +54,8 @@ async function main() {
     }
   });
   const stop = () => server.close(async () => {
+    backups?.stop();
+    await backups?.idle();
     await localMail?.close();
     db.$client.close();
     releaseLock();

@@ -17,10 +17,21 @@ export interface DatabaseCheck {
 
 const refused = (message: string, hint: string) => new AppError("backup_refused", 422, message, undefined, hint);
 
-function openReadOnly(file: string): Database.Database {
+/**
+ * Reads a copy that nothing else has open. A copy of a WAL database is itself in WAL mode, and reading it
+ * creates -wal and -shm files beside it; those this read created are removed again (they hold nothing).
+ */
+export async function readCopy<T>(file: string, read: (conn: Database.Database) => T | Promise<T>): Promise<T> {
   if (!fs.existsSync(file)) throw refused(`There is no file ${file}.`, "Give the path of a file written by `quarterbeat backup`.");
   if (!fs.statSync(file).isFile()) throw refused(`${file} is not a file.`, "Give the path of a file written by `quarterbeat backup`.");
-  return new Database(file, { readonly: true, fileMustExist: true });
+  const created = ["-wal", "-shm"].map((suffix) => file + suffix).filter((sidecar) => !fs.existsSync(sidecar));
+  const conn = new Database(file, { readonly: true, fileMustExist: true });
+  try {
+    return await read(conn);
+  } finally {
+    conn.close();
+    for (const sidecar of created) fs.rmSync(sidecar, { force: true });
+  }
 }
 
 export function tableNames(conn: Database.Database): string[] {
@@ -44,9 +55,8 @@ function integrityProblems(conn: Database.Database, file: string): string[] {
 }
 
 /** Throws an AppError naming the file and what is wrong with it; otherwise returns its level and row counts. */
-export function checkQuarterbeatDatabase(file: string): DatabaseCheck {
-  const conn = openReadOnly(file);
-  try {
+export function checkQuarterbeatDatabase(file: string): Promise<DatabaseCheck> {
+  return readCopy(file, (conn) => {
     const problems = integrityProblems(conn, file);
     if (problems.length > 0) {
       throw refused(`${file} failed SQLite's integrity check: ${problems.slice(0, 3).join("; ")}`, "The copy is damaged; use an older backup.");
@@ -66,7 +76,5 @@ export function checkQuarterbeatDatabase(file: string): DatabaseCheck {
       throw refused(`${file} was written by a newer Quarterbeat (migration ${migration.applied} is unknown to this version).`, "Restore it with the Quarterbeat version that made it, or upgrade this one first.");
     }
     return { migration, tables: tableCounts(conn) };
-  } finally {
-    conn.close();
-  }
+  });
 }

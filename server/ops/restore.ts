@@ -2,10 +2,9 @@
 // backup API beside the target, checked again, and only then moved into place in one rename.
 import fs from "node:fs";
 import path from "node:path";
-import Database from "better-sqlite3";
 import { writeLockHeld } from "../db/writeLock";
 import { AppError } from "../errors";
-import { checkQuarterbeatDatabase, type DatabaseCheck } from "./databaseCheck";
+import { checkQuarterbeatDatabase, readCopy, type DatabaseCheck } from "./databaseCheck";
 import { inUseError, lockFileOf, serverHolding } from "./serverLock";
 
 export interface RestoreRequest {
@@ -41,34 +40,25 @@ export async function restoreDatabase(request: RestoreRequest): Promise<RestoreR
   if (backupFile === targetFile) {
     throw refused("The backup and the target database are the same file.", "Give the database to restore into with --db.");
   }
-  checkQuarterbeatDatabase(backupFile);
+  await checkQuarterbeatDatabase(backupFile);
   refuseUnsafeTarget(targetFile, request.force ?? false);
 
   fs.mkdirSync(path.dirname(targetFile), { recursive: true });
   const staging = `${targetFile}.restoring-${process.pid}`;
   fs.rmSync(staging, { force: true });
-  const source = new Database(backupFile, { readonly: true, fileMustExist: true });
-  try {
-    await source.backup(staging);
-  } finally {
-    source.close();
-  }
-  const removeStaging = (withFile: boolean) => {
-    for (const suffix of [...(withFile ? [""] : []), "-wal", "-shm"]) fs.rmSync(staging + suffix, { force: true });
-  };
+  await readCopy(backupFile, (source) => source.backup(staging));
+  const removeStaging = () => fs.rmSync(staging, { force: true });
   let check: DatabaseCheck;
   try {
-    check = checkQuarterbeatDatabase(staging);
+    check = await checkQuarterbeatDatabase(staging);
   } catch (err) {
-    removeStaging(true);
+    removeStaging();
     throw err;
-  } finally {
-    removeStaging(false); // the read-only check may leave empty sidecar files
   }
   // checked again just before the swap: a server may have started while the copy was written
   const holder = serverHolding(targetFile);
   if (holder) {
-    removeStaging(true);
+    removeStaging();
     throw inUseError(targetFile, holder);
   }
   const replaced = fs.existsSync(targetFile);

@@ -58,7 +58,8 @@ describe("restoreDatabase", () => {
     expect(result).toMatchObject({ replaced: false, migration: { current: true } });
     expect(result.tables.sites).toBe(1);
     expect(sites(to)).toEqual(["KEEP"]);
-    expect(fs.readdirSync(dir).filter((f) => f.includes("restoring"))).toEqual([]);
+    // no staging copy left, and reading the backup left no -wal or -shm beside it
+    expect(fs.readdirSync(dir).filter((f) => f.includes("restoring") || f.startsWith("backup.sqlite-"))).toEqual([]);
   });
 
   it("refuses an existing database without force, and replaces it with force (dropping its old write-ahead log)", async () => {
