@@ -8,6 +8,8 @@ import { openDatabase } from "./db/client";
 import { createApp } from "./app";
 import { startLocalMailService } from "./mail/localService";
 import { createLogger } from "./logging/logger";
+import { createMailer } from "./mail/mailer";
+import { alertCoordinators, type BackupProblem } from "./ops/backupAlert";
 import { startBackupSchedule } from "./ops/backupSchedule";
 import { holdServerLock } from "./ops/serverLock";
 import { AppError } from "./errors";
@@ -39,7 +41,9 @@ async function main() {
   const logger = createLogger(config);
   const app = createApp(db, localMail ? { ...config, smtpUrl: localMail.url } : config, { clientDir, logger });
   const { dir: backupDir, hourUtc, keep } = config.backups;
-  const backups = backupDir ? startBackupSchedule({ dbFile: config.dbFile, dir: backupDir, hourUtc, keep, logger }) : null;
+  const alertMailer = createMailer(localMail?.url ?? config.smtpUrl);
+  const onProblem = (problem: BackupProblem) => alertCoordinators(db, alertMailer, logger, problem);
+  const backups = backupDir ? startBackupSchedule({ dbFile: config.dbFile, dir: backupDir, hourUtc, keep, logger, onProblem }) : null;
   const server = app.listen(config.port, () => {
     const address = server.address();
     const port = typeof address === "object" && address ? address.port : config.port;

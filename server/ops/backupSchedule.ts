@@ -3,6 +3,7 @@
 // injected so that tests can run weeks of schedule in a moment.
 import path from "node:path";
 import type { Logger } from "../logging/logger";
+import type { BackupProblem } from "./backupAlert";
 import type { KeepCounts } from "./rotation";
 import { listBackups, takeScheduledBackup, type BackupRecord } from "./scheduledBackup";
 
@@ -28,6 +29,8 @@ export interface BackupScheduleOptions {
   keep: KeepCounts;
   logger: Logger;
   clock?: Clock;
+  /** Told of a failed backup, and of a missed day (not of the very first backup). */
+  onProblem?: (problem: BackupProblem) => Promise<void>;
 }
 
 const DAY_MS = 24 * 60 * 60 * 1000;
@@ -69,11 +72,15 @@ export function startBackupSchedule(options: BackupScheduleOptions): BackupSched
     running = running.then(async () => {
       if (stopped) return;
       const started = Date.now();
+      const at = clock.now();
       try {
-        logResult(await takeScheduledBackup(options.dbFile, options.dir, options.keep, clock.now()), Date.now() - started);
+        const record = await takeScheduledBackup(options.dbFile, options.dir, options.keep, at);
+        logResult(record, Date.now() - started);
+        if (!record.ok) await options.onProblem?.({ kind: "failed", file: record.file, at: record.takenAt, problem: record.problem ?? "unknown" });
       } catch (err) {
         // e.g. the backup folder cannot be written: the schedule goes on, and the next run tries again
         options.logger.error({ event: "backup", ok: false, err }, "backup failed");
+        await options.onProblem?.({ kind: "failed", file: options.dir, at: at.toISOString(), problem: (err as Error).message });
       }
     });
     return running;
@@ -87,7 +94,9 @@ export function startBackupSchedule(options: BackupScheduleOptions): BackupSched
 
   const newest = Math.max(0, ...listBackups(options.dir).map((backup) => backup.takenAt.getTime()));
   if (clock.now().getTime() - newest > DAY_MS) {
-    options.logger.warn({ event: "backup", lastBackupAt: newest ? new Date(newest).toISOString() : null }, "backup missed: taking one now");
+    const lastBackupAt = newest ? new Date(newest).toISOString() : null;
+    options.logger.warn({ event: "backup", lastBackupAt }, "backup missed: taking one now");
+    if (lastBackupAt) void options.onProblem?.({ kind: "missed", lastBackupAt, at: clock.now().toISOString() });
     void run().then(scheduleNext);
   } else {
     scheduleNext();

@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { loadConfig } from "../../../server/config";
 import { openDatabase } from "../../../server/db/client";
 import { createLogger } from "../../../server/logging/logger";
+import type { BackupProblem } from "../../../server/ops/backupAlert";
 import { startBackupSchedule, nextRunAfter, type Clock } from "../../../server/ops/backupSchedule";
 import { backupsToKeep } from "../../../server/ops/rotation";
 import { backupFileName, listBackups, type BackupRecord } from "../../../server/ops/scheduledBackup";
@@ -88,7 +89,8 @@ describe("the backup schedule", () => {
     const dir = path.join(path.dirname(dbFile), "backups");
     const time = fakeClock("2026-01-01T12:00:00Z");
     const { lines, logger } = captureLogger();
-    const schedule = startBackupSchedule({ dbFile, dir, hourUtc: 3, keep: KEEP, logger, clock: time.clock });
+    const problems: BackupProblem[] = [];
+    const schedule = startBackupSchedule({ dbFile, dir, hourUtc: 3, keep: KEEP, logger, clock: time.clock, onProblem: async (p) => void problems.push(p) });
     await time.settle();
     expect(lines[0]).toMatchObject({ level: 40, event: "backup", lastBackupAt: null });
     expect(listBackups(dir).map((b) => path.basename(b.file))).toEqual([backupFileName(new Date("2026-01-01T12:00:00Z"))]);
@@ -110,6 +112,7 @@ describe("the backup schedule", () => {
     const verified = lines.filter((line) => line.msg === "backup verified");
     expect(verified).toHaveLength(60); // the catch-up copy and 59 scheduled days
     expect(verified.every((line) => line.ok === true && typeof line.durationMs === "number")).toBe(true);
+    expect(problems).toEqual([]); // the first backup ever is not a missed one
   });
 
   it("logs a failed backup and deletes nothing when a copy cannot be made", { timeout: 60_000 }, async () => {
@@ -119,9 +122,16 @@ describe("the backup schedule", () => {
     for (const file of old) fs.copyFileSync(dbFile, file);
     const time = fakeClock("2026-02-01T12:00:00Z");
     const { lines, logger } = captureLogger();
-    const schedule = startBackupSchedule({ dbFile: path.join(dir, "no-such-database.sqlite"), dir, hourUtc: 3, keep: { daily: 1, weekly: 0, monthly: 0 }, logger, clock: time.clock });
+    const problems: BackupProblem[] = [];
+    const onProblem = async (p: BackupProblem) => void problems.push(p);
+    const schedule = startBackupSchedule({ dbFile: path.join(dir, "no-such-database.sqlite"), dir, hourUtc: 3, keep: { daily: 1, weekly: 0, monthly: 0 }, logger, clock: time.clock, onProblem });
     await time.settle();
     schedule.stop();
+    // the newest copy is from 2026-01-02: a missed day, then the catch-up copy fails
+    expect(problems).toEqual([
+      { kind: "missed", lastBackupAt: "2026-01-02T03:00:00.000Z", at: "2026-02-01T12:00:00.000Z" },
+      expect.objectContaining({ kind: "failed", at: "2026-02-01T12:00:00.000Z" }),
+    ]);
     expect(lines.find((line) => line.msg === "backup failed")).toMatchObject({ level: 50, ok: false, problem: expect.stringMatching(/no-such-database|unable to open|directory does not exist/) });
     expect(listBackups(dir).map((b) => b.file).sort()).toEqual(old);
   });
