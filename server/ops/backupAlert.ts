@@ -1,25 +1,14 @@
 // Tells the coordinators by e-mail when a scheduled backup failed or a day went by without one, so that a
 // network does not find out on the day it needs a restore.
 import path from "node:path";
-import { and, eq } from "drizzle-orm";
 import type { Db } from "../db/client";
-import { users } from "../db/schema";
 import type { Logger } from "../logging/logger";
 import type { Mailer, OutgoingMail } from "../mail/mailer";
+import { activeAddresses } from "../users/service";
 
 export type BackupProblem =
   | { kind: "failed"; file: string; at: string; problem: string }
   | { kind: "missed"; lastBackupAt: string; at: string };
-
-function coordinatorAddresses(db: Db): string[] {
-  return db
-    .select({ email: users.email })
-    .from(users)
-    .where(and(eq(users.role, "coordinator"), eq(users.active, true)))
-    .orderBy(users.email)
-    .all()
-    .map((u) => u.email);
-}
 
 export function backupAlertMessage(problem: BackupProblem, to: string[]): OutgoingMail {
   const text =
@@ -40,7 +29,7 @@ export function backupAlertMessage(problem: BackupProblem, to: string[]): Outgoi
 
 /** Sends the alert; a mail failure is logged, never thrown (the schedule must go on). */
 export async function alertCoordinators(db: Db, mailer: Mailer, logger: Logger, problem: BackupProblem): Promise<void> {
-  const to = coordinatorAddresses(db);
+  const to = activeAddresses(db, "coordinator");
   if (to.length === 0) return;
   try {
     await mailer.send(backupAlertMessage(problem, to));
