@@ -10,6 +10,7 @@ import { registerStats } from "./commands/stats";
 import { registerReport } from "./commands/report";
 import { registerRetention } from "./commands/retention";
 import { registerAgreement } from "./commands/agreement";
+import { registerRestore } from "./commands/restore";
 import { closeContext } from "./context";
 import { handleError } from "./errors";
 
@@ -21,6 +22,7 @@ export function buildProgram(): Command {
     .showHelpAfterError("(run with --help for usage)");
   registerDb(program);
   registerBackup(program);
+  registerRestore(program);
   registerDemo(program);
   registerUsers(program);
   registerImport(program);

@@ -15,9 +15,12 @@ import { authRoutes } from "./auth/routes";
 import { SqliteSessionStore } from "./auth/sessionStore";
 import type { SignInLimit } from "./auth/signInLimits";
 import { errorHandler, notFoundHandler } from "./http/errorHandler";
+import { createLogger, type Logger } from "./logging/logger";
+import { rememberRoute, requestLog } from "./logging/requestLog";
 import { importRoutes } from "./imports/routes";
 import { createMailer } from "./mail/mailer";
 import { outboxRoutes } from "./mail/routes";
+import { healthRoutes } from "./ops/healthRoutes";
 import { reportRoutes } from "./reports/routes";
 import { equipmentRoutes } from "./equipment/routes";
 import { insightRoutes } from "./insight/routes";
@@ -33,15 +36,25 @@ export interface AppOptions {
   trustProxy?: boolean | number;
   /** Folder of the built client; omitted in API-only tests. */
   clientDir?: string | null;
+  /** Where request and event lines go; by default a logger at the configured level on standard output. */
+  logger?: Logger;
 }
 
 const defaultClientDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../dist/client");
-const VERSION = "1.0.0";
 
 /** Feature routers mounted under /api. Each one guards its own routes with `allow(...)`. */
-function featureRouters(db: Db, config: Config, endSessions: EndSessionsAfterPasswordChange): Router[] {
+function featureRouters(db: Db, config: Config, endSessions: EndSessionsAfterPasswordChange, logger: Logger): Router[] {
   const mailer = createMailer(config.smtpUrl);
-  return [userRoutes(db, mailer, endSessions), siteRoutes(db), insightRoutes(db), equipmentRoutes(db), policyRoutes(db), reportRoutes(db, mailer), outboxRoutes(db), importRoutes(db)];
+  return [
+    userRoutes(db, mailer, endSessions),
+    siteRoutes(db),
+    insightRoutes(db),
+    equipmentRoutes(db),
+    policyRoutes(db),
+    reportRoutes(db, mailer, logger),
+    outboxRoutes(db),
+    importRoutes(db, { logger }),
+  ];
 }
 
 export function createApp(db: Db, config: Config, options: AppOptions = {}) {
@@ -49,9 +62,11 @@ export function createApp(db: Db, config: Config, options: AppOptions = {}) {
   const secret = sessionSecret(db, config.sessionSecret);
   const passport = createPassport(db);
   const csrf = createCsrf(secret, production);
+  const logger = options.logger ?? createLogger(config);
   const app = express();
 
   app.disable("x-powered-by");
+  app.use(requestLog(logger));
   const trustProxy = options.trustProxy ?? (production ? 1 : false);
   if (trustProxy !== false) app.set("trust proxy", trustProxy);
   app.use(
@@ -78,9 +93,7 @@ export function createApp(db: Db, config: Config, options: AppOptions = {}) {
   app.use(passport.session());
 
   const api = Router();
-  api.get("/health", (_req, res) => {
-    res.json({ ok: true, version: VERSION });
-  });
+  api.use(healthRoutes(db));
   api.use((req, res, next) => {
     csrf.doubleCsrfProtection(req, res, (err?: unknown) => next(err ? csrfRefused() : undefined));
   });
@@ -96,7 +109,8 @@ export function createApp(db: Db, config: Config, options: AppOptions = {}) {
       signInLimit: options.signInLimit ?? { windowMs: 15 * 60 * 1000, limit: 10 },
     }),
   );
-  for (const router of featureRouters(db, config, endSessions)) api.use(router);
+  for (const router of featureRouters(db, config, endSessions, logger)) api.use(router);
+  api.use(rememberRoute);
   api.use(notFoundHandler);
   app.use("/api", api);
 

@@ -7,6 +7,12 @@ import { loadConfig } from "./config";
 import { openDatabase } from "./db/client";
 import { createApp } from "./app";
 import { startLocalMailService } from "./mail/localService";
+import { createLogger } from "./logging/logger";
+import { createMailer } from "./mail/mailer";
+import { alertCoordinators, type BackupProblem } from "./ops/backupAlert";
+import { startBackupSchedule } from "./ops/backupSchedule";
+import { holdServerLock } from "./ops/serverLock";
+import { AppError } from "./errors";
 import { demoAccountsPresent, isEmpty, seedDemo } from "./seed/seedDemo";
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
@@ -21,6 +27,8 @@ async function ensureClientBuilt() {
 
 async function main() {
   const config = loadConfig();
+  // `quarterbeat restore` reads this lock and refuses to replace the file while this server runs
+  const releaseLock = holdServerLock(config.dbFile);
   await ensureClientBuilt();
   const db = openDatabase(config.dbFile);
   if (isEmpty(db)) {
@@ -30,11 +38,17 @@ async function main() {
   const demoAccounts = demoAccountsPresent(db);
   // Without SMTP_URL, mail goes to a local SMTP server whose messages land in the outbox, never out.
   const localMail = config.smtpUrl ? null : await startLocalMailService(db);
-  const app = createApp(db, localMail ? { ...config, smtpUrl: localMail.url } : config, { clientDir });
+  const logger = createLogger(config);
+  const app = createApp(db, localMail ? { ...config, smtpUrl: localMail.url } : config, { clientDir, logger });
+  const { dir: backupDir, hourUtc, keep } = config.backups;
+  const alertMailer = createMailer(localMail?.url ?? config.smtpUrl);
+  const onProblem = (problem: BackupProblem) => alertCoordinators(db, alertMailer, logger, problem);
+  const backups = backupDir ? startBackupSchedule({ dbFile: config.dbFile, dir: backupDir, hourUtc, keep, logger, onProblem }) : null;
   const server = app.listen(config.port, () => {
     const address = server.address();
     const port = typeof address === "object" && address ? address.port : config.port;
     console.log(`Quarterbeat is running at http://localhost:${port}  (database: ${config.dbFile})`);
+    if (backupDir) console.log(`Verified backups daily at ${String(hourUtc).padStart(2, "0")}:00 UTC into ${backupDir}.`);
     if (localMail) {
       console.log(`Local mail service on 127.0.0.1:${localMail.port} (no SMTP_URL set): e-mail is kept in the Outbox, not delivered.`);
     }
@@ -44,8 +58,11 @@ async function main() {
     }
   });
   const stop = () => server.close(async () => {
+    backups?.stop();
+    await backups?.idle();
     await localMail?.close();
     db.$client.close();
+    releaseLock();
     process.exit(0);
   });
   process.on("SIGINT", stop);
@@ -54,5 +71,6 @@ async function main() {
 
 main().catch((err) => {
   console.error(`quarterbeat: could not start: ${err instanceof Error ? err.message : String(err)}`);
+  if (err instanceof AppError && err.hint) console.error(`  → ${err.hint}`);
   process.exit(1);
 });

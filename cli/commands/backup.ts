@@ -21,6 +21,6 @@ export function registerBackup(program: Command) {
       await db.$client.backup(target);
       const size = fs.statSync(target).size;
       console.log(`Backed up ${config.dbFile} to ${file} (${(size / 1024 / 1024).toFixed(1)} MB in ${Date.now() - started} ms).`);
-      console.log(`To restore: stop the server, then use the copy with --db ${file} or QUARTERBEAT_DB=${file}.`);
+      console.log(`To restore: stop the server, then run \`quarterbeat restore ${file} --force\` (or restore into a new file with --db).`);
     });
 }

@@ -21,6 +21,7 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
     res.status(status).json({ error: { code: "bad_request", message: "The request could not be read." } });
     return;
   }
-  console.error(err);
+  // the request's log line carries the error (message, stack) at level error
+  res.err = err instanceof Error ? err : new Error(String(err));
   res.status(500).json({ error: { code: "internal", message: "Something went wrong on the server. It has been logged." } });
 };

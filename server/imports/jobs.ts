@@ -8,6 +8,8 @@ import { Worker } from "node:worker_threads";
 import type { ImportJob, ImportSummary } from "../../shared/import/api";
 import type { ImportMapping } from "../../shared/import/mapping";
 import { AppError } from "../errors";
+import { logImport } from "../logging/events";
+import type { Logger } from "../logging/logger";
 import type { ImportActor } from "./run";
 import type { StoredUpload } from "./uploads";
 import type { WorkerInput, WorkerMessage } from "./importWorker";
@@ -26,7 +28,10 @@ export class ImportJobs {
   private worker: Worker | null = null;
   private current: { job: JobState; finish: (summary: ImportSummary | null, error: string | null) => void } | null = null;
 
-  constructor(private readonly dbFile: string) {}
+  constructor(
+    private readonly dbFile: string,
+    private readonly logger?: Logger,
+  ) {}
 
   start(upload: StoredUpload, mode: "validate" | "import", mapping: ImportMapping, skipInvalid: boolean, actor: ImportActor & { userId: number }): ImportJob {
     const id = crypto.randomBytes(12).toString("hex");
@@ -87,11 +92,16 @@ export class ImportJobs {
 
   private run(job: JobState, input: WorkerInput): Promise<void> {
     job.status = "running";
+    const started = Date.now();
     return new Promise((resolve) => {
       let finished = false;
       const finish = (summary: ImportSummary | null, error: string | null) => {
         if (finished) return;
         finished = true;
+        if (this.logger) {
+          const durationMs = Date.now() - started;
+          logImport(this.logger, { jobId: job.id, userId: job.userId, mode: job.mode, kind: input.options.kind, summary, failed: error !== null, durationMs });
+        }
         this.current = null;
         job.summary = summary;
         job.error = error;

@@ -21,6 +21,7 @@ import type { Db } from "../db/client";
 import { allow, signedInUser } from "../auth/guard";
 import { AppError, badRequest } from "../errors";
 import { parseId, parseWith } from "../http/validate";
+import type { Logger } from "../logging/logger";
 import { getBatch, listBatches, rejectedRows, rejectedRowsCsv } from "./history";
 import { ImportJobs } from "./jobs";
 import { createPreset, deletePreset, getPreset, listPresets } from "./presets";
@@ -36,12 +37,13 @@ export interface ImportRouteOptions {
   uploads?: UploadStore;
   jobs?: ImportJobs;
   maxUploadBytes?: number;
+  logger?: Logger;
 }
 
 export function importRoutes(db: Db, options: ImportRouteOptions = {}): Router {
   const router = Router();
   const uploads = options.uploads ?? new UploadStore();
-  const jobs = options.jobs ?? new ImportJobs(db.$client.name);
+  const jobs = options.jobs ?? new ImportJobs(db.$client.name, options.logger);
   const upload = multer({
     storage: multer.diskStorage({
       destination: uploads.dir,

@@ -15,6 +15,8 @@ import { quarterNotesSchema, sendReportSchema } from "../../shared/schemas/repor
 import type { Db } from "../db/client";
 import { allow, signedInUser } from "../auth/guard";
 import { parseId, parseWith } from "../http/validate";
+import { logReportSend } from "../logging/events";
+import type { Logger } from "../logging/logger";
 import type { Mailer } from "../mail/mailer";
 import { reportCsv } from "./csvExport";
 import { buildReportData, readQuarterNotes, saveQuarterNotes } from "./data";
@@ -23,7 +25,7 @@ import { parsePeriod } from "./period";
 import { listSends, retrySend, sendReport } from "./send";
 import { findReport, generateReport, listReports, reportFileName } from "./store";
 
-export function reportRoutes(db: Db, mailer: Mailer): Router {
+export function reportRoutes(db: Db, mailer: Mailer, logger: Logger): Router {
   const router = Router();
 
   router.get("/reports", allow("readReport"), (req, res) => {
@@ -77,7 +79,10 @@ export function reportRoutes(db: Db, mailer: Mailer): Router {
 
   router.post("/reports/:id/send", allow("sendReport"), async (req, res) => {
     const { extraRecipients } = parseWith(sendReportSchema, req.body ?? {}, "The send");
-    const send = await sendReport(db, mailer, parseId(req.params.id), { userId: signedInUser(req).id, extraRecipients });
+    const userId = signedInUser(req).id;
+    const started = Date.now();
+    const send = await sendReport(db, mailer, parseId(req.params.id), { userId, extraRecipients });
+    logReportSend(logger, send, userId, Date.now() - started);
     res.status(201).json({ send });
   });
 
@@ -86,7 +91,11 @@ export function reportRoutes(db: Db, mailer: Mailer): Router {
   });
 
   router.post("/report-sends/:id/retry", allow("sendReport"), async (req, res) => {
-    res.json({ send: await retrySend(db, mailer, parseId(req.params.id), signedInUser(req).id) });
+    const userId = signedInUser(req).id;
+    const started = Date.now();
+    const send = await retrySend(db, mailer, parseId(req.params.id), userId);
+    logReportSend(logger, send, userId, Date.now() - started);
+    res.json({ send });
   });
 
   return router;

@@ -1,23 +1,16 @@
 // E-mailing a stored report version to the funders. Every send is recorded, sent or failed, with the exact
 // recipients and the version; a failed one can be retried later without generating a new version.
-import { and, desc, eq } from "drizzle-orm";
+import { desc, eq } from "drizzle-orm";
 import type { ReportSendRow } from "../../shared/schemas/report";
 import type { Db } from "../db/client";
 import { reports, reportSends, users } from "../db/schema";
 import { AppError, conflict, notFound } from "../errors";
 import type { Mailer, OutgoingMail } from "../mail/mailer";
+import { activeAddresses } from "../users/service";
 import { findReport, reportFileName, type StoredReport } from "./store";
 
 /** E-mail addresses of every active funder account. */
-export function funderAddresses(db: Db): string[] {
-  return db
-    .select({ email: users.email })
-    .from(users)
-    .where(and(eq(users.role, "funder"), eq(users.active, true)))
-    .orderBy(users.email)
-    .all()
-    .map((u) => u.email);
-}
+export const funderAddresses = (db: Db): string[] => activeAddresses(db, "funder");
 
 export function reportMessage(report: StoredReport, to: string[]): OutgoingMail {
   const { data } = report;

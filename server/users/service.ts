@@ -1,5 +1,6 @@
 // User accounts: used by the web admin pages, the CLI's `users` commands and sign-in.
 import { and, eq } from "drizzle-orm";
+import type { UserRole } from "../../shared/domain";
 import type { CurrentUser } from "../../shared/schemas/auth";
 import type { NewUser, UpdateUser, UserRow } from "../../shared/schemas/users";
 import type { Db } from "../db/client";
@@ -112,4 +113,15 @@ export function setLengthUnit(db: Db, id: number, lengthUnit: CurrentUser["lengt
 
 export function findUserByEmail(db: Db, email: string): UserRow | undefined {
   return listUsers(db).find((u) => u.email === email.trim().toLowerCase());
+}
+
+/** E-mail addresses of every active account with the role, in order: who reports and alerts go to. */
+export function activeAddresses(db: Db, role: UserRole): string[] {
+  return db
+    .select({ email: users.email })
+    .from(users)
+    .where(and(eq(users.role, role), eq(users.active, true)))
+    .orderBy(users.email)
+    .all()
+    .map((u) => u.email);
 }

@@ -6,21 +6,13 @@ import os from "node:os";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { attemptMetricKeys } from "../../shared/scoring/analyzeStream";
+import { cli } from "../helpers/cli";
 import { tempDbFile } from "../helpers/testApp";
 
 const root = path.resolve(__dirname, "../..");
 // Each CLI run starts Node and tsx afresh: seconds each on a busy machine.
 const SLOW = { timeout: 180_000 };
 const fixture = (name: string) => path.join(root, "tests/fixtures/import", name);
-
-function cli(args: string[]) {
-  const result = spawnSync(process.execPath, ["--import", "tsx", path.join(root, "cli/main.ts"), ...args], {
-    cwd: root,
-    encoding: "utf8",
-    env: { ...process.env, QUARTERBEAT_DB: "" },
-  });
-  return { code: result.status, stdout: result.stdout, stderr: result.stderr };
-}
 
 describe("quarterbeat import", () => {
   const db = tempDbFile("qb-cli-import");

@@ -6,27 +6,13 @@ import os from "node:os";
 import path from "node:path";
 import Database from "better-sqlite3";
 import { describe, expect, it } from "vitest";
+import { writeLockHeld } from "../../server/db/writeLock";
 import { tempDbFile } from "../helpers/testApp";
 
 const root = path.resolve(__dirname, "../..");
 const ROWS = 300_000;
 
 const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
-
-/** True while another connection holds the write lock (an import's BEGIN IMMEDIATE). */
-function writeLockHeld(file: string): boolean {
-  const probe = new Database(file, { timeout: 0 });
-  try {
-    probe.exec("BEGIN IMMEDIATE");
-    probe.exec("ROLLBACK");
-    return false;
-  } catch (err) {
-    if ((err as { code?: string }).code === "SQLITE_BUSY") return true;
-    throw err;
-  } finally {
-    probe.close();
-  }
-}
 
 describe("kill -9 in the middle of an import", () => {
   it("leaves the file's rows absent, and a re-run completes", { timeout: 600_000 }, async () => {

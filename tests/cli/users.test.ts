@@ -1,19 +1,6 @@
-import { spawnSync } from "node:child_process";
-import path from "node:path";
 import { describe, expect, it } from "vitest";
+import { cli } from "../helpers/cli";
 import { tempDbFile } from "../helpers/testApp";
-
-const root = path.resolve(__dirname, "../..");
-
-function cli(args: string[], input?: string) {
-  const result = spawnSync(process.execPath, ["--import", "tsx", path.join(root, "cli/main.ts"), ...args], {
-    cwd: root,
-    input,
-    encoding: "utf8",
-    env: { ...process.env, QUARTERBEAT_DB: "" },
-  });
-  return { code: result.status, stdout: result.stdout, stderr: result.stderr };
-}
 
 describe("quarterbeat users", () => {
   const db = tempDbFile("qb-cli-users");

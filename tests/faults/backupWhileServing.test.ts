@@ -1,7 +1,5 @@
 // `quarterbeat backup <file>` while the server is up and busy (reads, writes, an import): the copy is a
 // consistent database of its own, and the quarter statistics computed on it equal the original's.
-import type { Server } from "node:http";
-import type { AddressInfo } from "node:net";
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
@@ -9,15 +7,16 @@ import Database from "better-sqlite3";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { openDatabase, type Db } from "../../server/db/client";
 import { quarterSummary } from "../../server/stats/quarterSummary";
-import { makeTestApp, tempDbFile } from "../helpers/testApp";
+import { tempDbFile } from "../helpers/testApp";
 import { seedInsightNetwork } from "../fixtures/insight/network";
-import { CLASSES_FIXTURE, runCli, sleep, startCli, waitFor, writeAttemptsFile, writeLockHeld } from "./helpers";
+import { CLASSES_FIXTURE, integrity, runCli, sleep, startCli, tableCounts, waitFor, writeAttemptsFile, writeLockHeld } from "./helpers";
+import { serve, traffic } from "./traffic";
 
 const QUARTERS = ["2025-Q3", "2025-Q4", "2026-Q1", "2026-Q2", "2026-Q3"];
 
 let dbFile: string;
 let db: Db;
-let server: Server;
+let close: () => Promise<void>;
 let base: string;
 let dir: string;
 
@@ -30,79 +29,13 @@ beforeAll(async () => {
   const attempts = writeAttemptsFile(path.join(dir, "attempts.csv"), "BK", 20_000);
   const imported = await runCli(dbFile, ["import", "attempts", attempts]);
   expect(imported.code, imported.stderr).toBe(0);
-  const app = makeTestApp(db);
-  server = app.listen(0, "127.0.0.1");
-  await new Promise((resolve) => server.once("listening", resolve));
-  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  ({ base, close } = await serve(db));
 }, 300_000);
 afterAll(async () => {
-  await new Promise((resolve) => server.close(resolve));
+  await close();
   db.$client.close();
   fs.rmSync(dir, { recursive: true, force: true });
 });
-
-/** A signed-in browser-like client over real HTTP: cookies kept by hand, the CSRF header on writes. */
-async function signedInClient(email: string) {
-  const cookies = new Map<string, string>();
-  let token = "";
-  const call = async (method: string, url: string, body?: unknown) => {
-    const res = await fetch(base + url, {
-      method,
-      headers: {
-        cookie: [...cookies].map(([k, v]) => `${k}=${v}`).join("; "),
-        ...(body !== undefined ? { "content-type": "application/json" } : {}),
-        ...(method !== "GET" ? { "x-csrf-token": token } : {}),
-      },
-      body: body === undefined ? undefined : JSON.stringify(body),
-    });
-    for (const line of res.headers.getSetCookie()) {
-      const [pair] = line.split(";");
-      cookies.set(pair.slice(0, pair.indexOf("=")), pair.slice(pair.indexOf("=") + 1));
-    }
-    const text = await res.text();
-    const json = text && res.headers.get("content-type")?.includes("json") ? JSON.parse(text) : null;
-    if (json?.csrfToken) token = json.csrfToken;
-    return { status: res.status, json };
-  };
-  await call("GET", "/api/auth/csrf");
-  const login = await call("POST", "/api/auth/login", { email, password: "correct-horse-battery" });
-  expect(login.status).toBe(200);
-  return call;
-}
-
-/** Reads and writes against the running server until `stop` says so; counts what was answered. */
-async function traffic(stop: () => boolean) {
-  const call = await signedInClient("coord@test.example");
-  const statuses: number[] = [];
-  let n = 0;
-  while (!stop()) {
-    n++;
-    statuses.push((await call("GET", "/api/insight/overview?quarter=2026-Q2")).status);
-    statuses.push((await call("GET", `/api/attempts?quarter=2026-Q1&page=${(n % 5) + 1}`)).status);
-    statuses.push((await call("PUT", "/api/reports/2026-Q2/notes", { actions: `Depth drill, round ${n}` })).status);
-    statuses.push((await call("POST", "/api/sites", { code: `BK${n}`, name: `Backup traffic site ${n}` })).status);
-  }
-  return statuses;
-}
-
-function tableCounts(file: string, skip: string[]): Record<string, number> {
-  const conn = new Database(file, { readonly: true });
-  try {
-    const names = conn.prepare("SELECT name FROM sqlite_master WHERE type = 'table' ORDER BY name").pluck().all() as string[];
-    return Object.fromEntries(names.filter((n) => !skip.includes(n)).map((n) => [n, conn.prepare(`SELECT count(*) FROM "${n}"`).pluck().get() as number]));
-  } finally {
-    conn.close();
-  }
-}
-
-function integrity(file: string): string {
-  const conn = new Database(file, { readonly: true });
-  try {
-    return conn.prepare("PRAGMA integrity_check").pluck().get() as string;
-  } finally {
-    conn.close();
-  }
-}
 
 async function stats(file: string, quarter: string): Promise<unknown> {
   const res = await runCli(file, ["stats", "--quarter", quarter, "--json"]);
@@ -114,7 +47,7 @@ describe("backup while the server serves requests", () => {
   it("makes a consistent copy whose statistics equal the original's", { timeout: 300_000 }, async () => {
     const copy = path.join(dir, "copy.sqlite");
     let backupDone = false;
-    const load = traffic(() => backupDone);
+    const load = traffic(base, () => backupDone);
     await sleep(300); // the traffic is under way before the backup starts
     const backup = await runCli(dbFile, ["backup", copy]);
     backupDone = true;
@@ -152,7 +85,7 @@ describe("backup while the server serves requests", () => {
     const file = writeAttemptsFile(path.join(dir, "during.csv"), "DUR", 30_000);
     const before = tableCounts(dbFile, ["sessions"]);
     const load = { stop: false };
-    const reads = traffic(() => load.stop);
+    const reads = traffic(base, () => load.stop);
     const importing = startCli(dbFile, ["import", "attempts", file, "--json"]);
     expect(await waitFor(() => importing.child.exitCode !== null || writeLockHeld(dbFile), 120_000)).toBe(true);
     const backup = await runCli(dbFile, ["backup", copy]);

@@ -53,20 +53,7 @@ export async function runCli(db: string, args: string[]) {
   return startCli(db, args).done;
 }
 
-/** True while another connection holds the write lock (an import's BEGIN IMMEDIATE). */
-export function writeLockHeld(file: string): boolean {
-  const probe = new Database(file, { timeout: 0 });
-  try {
-    probe.exec("BEGIN IMMEDIATE");
-    probe.exec("ROLLBACK");
-    return false;
-  } catch (err) {
-    if ((err as { code?: string }).code === "SQLITE_BUSY") return true;
-    throw err;
-  } finally {
-    probe.close();
-  }
-}
+export { writeLockHeld } from "../../server/db/writeLock";
 
 export const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
 
@@ -86,5 +73,26 @@ export function countRows(file: string, sql: string, ...params: unknown[]): numb
     return db.prepare(sql).pluck().get(...params) as number;
   } finally {
     db.close();
+  }
+}
+
+/** Row count of every table but those in `skip`, by name. */
+export function tableCounts(file: string, skip: string[]): Record<string, number> {
+  const conn = new Database(file, { readonly: true });
+  try {
+    const names = conn.prepare("SELECT name FROM sqlite_master WHERE type = 'table' ORDER BY name").pluck().all() as string[];
+    return Object.fromEntries(names.filter((n) => !skip.includes(n)).map((n) => [n, conn.prepare(`SELECT count(*) FROM "${n}"`).pluck().get() as number]));
+  } finally {
+    conn.close();
+  }
+}
+
+/** SQLite's integrity check of the file: "ok" or the first problem. */
+export function integrity(file: string): string {
+  const conn = new Database(file, { readonly: true });
+  try {
+    return conn.prepare("PRAGMA integrity_check").pluck().get() as string;
+  } finally {
+    conn.close();
   }
 }

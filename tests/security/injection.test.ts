@@ -23,6 +23,7 @@ const FILTERS = ["quarter", "from", "to", "site", "profile", "feedback", "instru
 /** The query parameters each GET route reads (an empty list: it reads none). */
 const QUERY_KEYS: Record<string, string[]> = {
   "/api/health": [],
+  "/api/health/ready": [],
   "/api/auth/csrf": [],
   "/api/me": [],
   "/api/users": [],
