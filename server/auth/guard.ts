@@ -1,7 +1,7 @@
 import type { Request, RequestHandler } from "express";
 import type { CurrentUser } from "../../shared/schemas/auth";
 import { forbidden, unauthorized } from "../errors";
-import { roleMay, type Permission } from "./permissions";
+import { can, reachOf, type Permission } from "../../shared/permissions";
 
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace
@@ -17,11 +17,11 @@ export function signedInUser(req: Request): CurrentUser {
   return req.user;
 }
 
-/** Route guard: 401 when signed out, 403 when the role lacks the permission. */
+/** Route guard: 401 when signed out, 403 when the role lacks the permission (shared/permissions.ts). */
 export function allow(permission: Permission): RequestHandler {
   return (req, _res, next) => {
     const user = signedInUser(req);
-    if (!roleMay(user.role, permission)) throw forbidden();
+    if (!can(user, permission)) throw forbidden();
     next();
   };
 }
@@ -36,9 +36,11 @@ export interface RowScope {
   instructorId: number | null;
 }
 
-export function rowScope(user: CurrentUser): RowScope {
-  if (user.role === "coordinator" || user.role === "quality_lead") return { instructorId: null };
-  if (user.role === "instructor" && user.instructorId !== null) return { instructorId: user.instructorId };
-  // an instructor account without a linked instructor, or a funder: no identifiable rows at all
+/** The rows a permission reaches for this user: "any" every instructor's, "own" their linked instructor's. */
+export function rowScope(user: CurrentUser, permission: Permission): RowScope {
+  const reach = reachOf(user.role, permission);
+  if (reach === "any") return { instructorId: null };
+  if (reach === "own" && user.instructorId !== null) return { instructorId: user.instructorId };
+  // an account without a linked instructor, or without the permission: no identifiable rows at all
   return { instructorId: -1 };
 }

@@ -1,8 +1,9 @@
 // GET /api/equipment: coordinators and quality leads see the whole fleet; an instructor sees their own site.
 import { Router } from "express";
 import { insightFiltersSchema } from "../../shared/filters";
+import { can } from "../../shared/permissions";
 import type { Db } from "../db/client";
-import { allow, signedInUser } from "../auth/guard";
+import { allow, rowScope, signedInUser } from "../auth/guard";
 import { forbidden } from "../errors";
 import { parseWith } from "../http/validate";
 import { filtersKey, resolveFilters } from "../insight/filters";
@@ -18,13 +19,13 @@ export function equipmentRoutes(db: Db): Router {
     const user = signedInUser(req);
     const viewer = viewerOf(db, user);
     const filters = resolveFilters(db, parseWith(insightFiltersSchema, req.query, "The filters"), viewer);
-    if (!viewer.seesEveryone) {
-      // an instructor's view is their own site's equipment
+    if (!can(user, "readEquipment", "any")) {
+      // "own" reach: the user's own site's equipment
       if (filters.siteId !== null && filters.siteId !== user.siteId) throw forbidden("You can see the equipment of your own site only.");
       filters.siteId = user.siteId ?? -1;
     }
     const asOf = new Date().toISOString().slice(0, 10);
-    const onlyInstructorId = viewer.seesEveryone ? null : (viewer.ownInstructorId ?? -1);
+    const onlyInstructorId = rowScope(user, "readEquipment").instructorId;
     sendCached(db, res, `equipment|${asOf}|${viewerKey(viewer)}|${filtersKey(filters)}`, () =>
       equipmentReport(db, currentPolicy(db).policy.equipment, { filters, onlyInstructorId, asOf }),
     );

@@ -5,8 +5,10 @@
 import crypto from "node:crypto";
 import fs from "node:fs";
 import { Worker } from "node:worker_threads";
+import type { UserRole } from "../../shared/domain";
 import type { ImportJob, ImportSummary } from "../../shared/import/api";
 import type { ImportMapping } from "../../shared/import/mapping";
+import { can } from "../../shared/permissions";
 import { AppError } from "../errors";
 import { logImport } from "../logging/events";
 import type { Logger } from "../logging/logger";
@@ -68,12 +70,12 @@ export class ImportJobs {
     return publicJob(job);
   }
 
-  get(id: string, user: { id: number; role: string }): ImportJob {
+  get(id: string, user: { id: number; role: UserRole }): ImportJob {
     return publicJob(this.own(id, user));
   }
 
   /** Path of the job's refused rows as CSV, once it has some. */
-  rejectedCsv(id: string, user: { id: number; role: string }): string {
+  rejectedCsv(id: string, user: { id: number; role: UserRole }): string {
     const job = this.own(id, user);
     if (job.status !== "done" || !job.rejectedCsvUrl || !fs.existsSync(job.rejectedPath)) throw new AppError("not_found", 404, "This job has no refused rows to download.");
     return job.rejectedPath;
@@ -84,9 +86,9 @@ export class ImportJobs {
     return this.tail;
   }
 
-  private own(id: string, user: { id: number; role: string }): JobState {
+  private own(id: string, user: { id: number; role: UserRole }): JobState {
     const job = this.jobs.get(id);
-    if (!job || (job.userId !== user.id && user.role !== "coordinator")) throw new AppError("not_found", 404, "The import job was not found.");
+    if (!job || (job.userId !== user.id && !can(user, "importData", "any"))) throw new AppError("not_found", 404, "The import job was not found.");
     return job;
   }
 

@@ -1,7 +1,8 @@
 // Saved column mappings ("presets") for the upload page: the same JSON the CLI reads with --map.
-import type { ImportKind } from "../../shared/domain";
+import type { ImportKind, UserRole } from "../../shared/domain";
 import type { ImportPreset } from "../../shared/import/api";
 import { importMappingSchema, unknownMappingColumns, type ImportMapping } from "../../shared/import/mapping";
+import { can } from "../../shared/permissions";
 import type { Db } from "../db/client";
 import { AppError, conflict, forbidden, notFound } from "../errors";
 
@@ -48,9 +49,9 @@ export function createPreset(db: Db, input: { name: string; kind: ImportKind; ma
   return getPreset(db, id);
 }
 
-/** Coordinators delete any preset; others only their own. */
-export function deletePreset(db: Db, id: number, user: { id: number; role: string }) {
+/** Importers with "any" reach delete any preset; others only their own. */
+export function deletePreset(db: Db, id: number, user: { id: number; role: UserRole }) {
   const preset = getPreset(db, id);
-  if (user.role !== "coordinator" && preset.createdBy !== user.id) throw forbidden("Only the preset's author or a coordinator can delete it.");
+  if (!can(user, "importData", "any") && preset.createdBy !== user.id) throw forbidden("Only the preset's author or a coordinator can delete it.");
   db.$client.prepare("DELETE FROM import_presets WHERE id = ?").run(id);
 }

@@ -5,6 +5,7 @@ import path from "node:path";
 import { Router, type Request, type RequestHandler } from "express";
 import multer from "multer";
 import { importColumns } from "../../shared/import/columns";
+import { can } from "../../shared/permissions";
 import {
   batchListQuerySchema,
   newPresetSchema,
@@ -93,7 +94,7 @@ export function importRoutes(db: Db, options: ImportRouteOptions = {}): Router {
       fs.rmSync(file.path, { force: true });
       throw new AppError("invalid", 422, "Say what the file holds.", [{ path: "kind", message: "Choose classes, attempts, compressions or equipment" }]);
     }
-    if (form.data.kind === "equipment" && user.role !== "coordinator") {
+    if (form.data.kind === "equipment" && !can(user, "importEquipment")) {
       fs.rmSync(file.path, { force: true });
       throw new AppError("forbidden", 403, "Equipment logs are imported by coordinators only.");
     }
@@ -193,9 +194,9 @@ function actorOf(user: CurrentUser) {
   return { userId: user.id, role: user.role, instructorId: user.instructorId ?? null };
 }
 
-/** Coordinators see every batch; anyone else only their own. */
+/** Importers with "any" reach see every batch; the others only their own. */
 function ownBatchesOnly(user: CurrentUser): number | null {
-  return user.role === "coordinator" ? null : user.id;
+  return can(user, "importData", "any") ? null : user.id;
 }
 
 function publicUpload(stored: StoredUpload) {

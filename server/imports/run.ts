@@ -3,6 +3,7 @@
 import fs from "node:fs";
 import type Database from "better-sqlite3";
 import type { ImportKind, UserRole } from "../../shared/domain";
+import { reachOf } from "../../shared/permissions";
 import type { RowIssue } from "../../shared/import/rows";
 import type { NetworkPolicy } from "../../shared/scoring/policy";
 import { CodeRegistry } from "./codes";
@@ -78,8 +79,10 @@ export class ImportRun {
     return this.write && this.skipInvalid;
   }
 
+  /** The instructor whose classes this actor may import ("own" reach), or null for any instructor's. */
   get restrictedToInstructor(): number | null {
-    return this.actor.role === "instructor" ? (this.actor.instructorId ?? -1) : null;
+    if (this.actor.role === null || reachOf(this.actor.role, "importData") === "any") return null;
+    return this.actor.instructorId ?? -1;
   }
 
   setHeader(header: string[]) {

@@ -5,6 +5,7 @@
 import path from "node:path";
 import type Database from "better-sqlite3";
 import { importKinds, type ImportKind } from "../../shared/domain";
+import { can } from "../../shared/permissions";
 import type { ImportSummary } from "../../shared/import/api";
 import { resolveHeader } from "../../shared/import/header";
 import { identityMapping, unknownMappingColumns, type ImportMapping } from "../../shared/import/mapping";
@@ -84,7 +85,7 @@ export async function importFile(db: Db, options: ImportFileOptions): Promise<Im
   const mapping = options.mapping ?? identityMapping;
   const dryRun = options.dryRun ?? false;
   const skipInvalid = options.skipInvalid ?? false;
-  if (kind === "equipment" && actor.role !== null && actor.role !== "coordinator") {
+  if (kind === "equipment" && actor.role !== null && !can(actor.role, "importEquipment")) {
     throw forbidden("Equipment logs are imported by coordinators only.");
   }
   const fileName = safeFileName(inputName(input));

@@ -6,7 +6,8 @@ import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { parse } from "csv-parse";
-import type { ImportKind } from "../../shared/domain";
+import type { ImportKind, UserRole } from "../../shared/domain";
+import { can } from "../../shared/permissions";
 import type { Upload } from "../../shared/import/api";
 import { notFound } from "../errors";
 import { sweepOrphanedUploadFolders, uploadFolderPrefix } from "./uploadSweep";
@@ -53,10 +54,10 @@ export class UploadStore {
     return upload;
   }
 
-  /** The upload, if it exists and belongs to this user (coordinators may use anyone's). */
-  get(id: string, user: { id: number; role: string }): StoredUpload {
+  /** The upload, if it exists and belongs to this user (importers with "any" reach may use anyone's). */
+  get(id: string, user: { id: number; role: UserRole }): StoredUpload {
     const upload = this.uploads.get(id);
-    if (!upload || (upload.userId !== user.id && user.role !== "coordinator")) throw notFound("The upload");
+    if (!upload || (upload.userId !== user.id && !can(user, "importData", "any"))) throw notFound("The upload");
     return upload;
   }
 

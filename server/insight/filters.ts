@@ -5,6 +5,7 @@ import { eq } from "drizzle-orm";
 import type { SQLiteColumn } from "drizzle-orm/sqlite-core";
 import type { FeedbackMode } from "../../shared/domain";
 import type { InsightFilters } from "../../shared/filters";
+import { can } from "../../shared/permissions";
 import { parseQuarter, quarterOf, quartersBetween } from "../../shared/quarter";
 import type { Period } from "../../shared/schemas/insight";
 import type { PatientType } from "../../shared/scoring/policy";
@@ -63,7 +64,7 @@ export function resolvePeriod(db: Db, filters: Pick<InsightFilters, "quarter" | 
 }
 
 export function resolveFilters(db: Db, filters: InsightFilters, viewer: Viewer): ResolvedFilters {
-  if (viewer.user.role === "funder" && (filters.site || filters.instructor || filters.manikin)) {
+  if (!can(viewer.user, "readNetwork") && (filters.site || filters.instructor || filters.manikin)) {
     throw forbidden("Funders see network figures only: site, instructor and manikin filters are not available.");
   }
   let instructorId: number | null = null;

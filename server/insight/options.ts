@@ -3,6 +3,7 @@
 // gets only themselves and their site's manikins; a funder none of these).
 import { eq } from "drizzle-orm";
 import { feedbackModes } from "../../shared/domain";
+import { can } from "../../shared/permissions";
 import type { OptionsAnswer } from "../../shared/schemas/insight";
 import { patientTypes } from "../../shared/scoring/policy";
 import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
@@ -14,7 +15,7 @@ import { errorLabels } from "../../shared/vocabulary";
 
 export function filterOptions(db: Db, viewer: Viewer): OptionsAnswer {
   const quarters = quartersWithData(db);
-  if (viewer.user.role === "funder") {
+  if (!can(viewer.user, "readNetwork")) {
     return { quarters, sites: [], patientTypes: [], feedbackModes: [], errors: [], instructors: [], manikins: [] };
   }
   const instructorColumns = { id: instructors.id, code: instructors.code, name: instructors.name, siteId: instructors.siteId };

@@ -65,22 +65,22 @@ export function insightRoutes(db: Db): Router {
     sendCached(db, res, key, () => errorAnalysis(db, filters, error));
   });
 
-  router.get("/classes/:id", allow("readNetwork"), (req, res) => {
+  router.get("/classes/:id", allow("readAttempts"), (req, res) => {
     const id = parseWith(rowIdSchema, req.params.id, "The class id");
-    res.json(classDetail(db, id, rowScope(signedInUser(req)).instructorId));
+    res.json(classDetail(db, id, rowScope(signedInUser(req), "readAttempts").instructorId));
   });
 
   // Instructors see their own attempts only; others' are answered as missing, never as forbidden.
-  router.get("/attempts", allow("readNetwork"), (req, res) => {
+  router.get("/attempts", allow("readAttempts"), (req, res) => {
     const { error, class: classId, page, pageSize, ...filterQuery } = parseWith(attemptListQuerySchema, req.query, "The filters");
     const { filters, key } = context(req, `attempts:${error ?? ""}:${classId ?? ""}:${page}:${pageSize}`, filterQuery);
-    const onlyInstructorId = rowScope(signedInUser(req)).instructorId;
+    const onlyInstructorId = rowScope(signedInUser(req), "readAttempts").instructorId;
     sendCached(db, res, key, () => attemptList(db, filters, { error, classId, page, pageSize, onlyInstructorId }));
   });
 
-  router.get("/attempts/:id", allow("readNetwork"), (req, res) => {
+  router.get("/attempts/:id", allow("readAttempts"), (req, res) => {
     const id = parseWith(rowIdSchema, req.params.id, "The attempt id");
-    res.json(attemptDetail(db, id, rowScope(signedInUser(req)).instructorId));
+    res.json(attemptDetail(db, id, rowScope(signedInUser(req), "readAttempts").instructorId));
   });
 
   return router;

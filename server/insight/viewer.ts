@@ -1,6 +1,7 @@
 // Who is looking, and therefore which groups they may see in full. Coordinators and quality leads see every
 // group. An instructor sees their own rows in full and everyone else's only as aggregates of at least
 // policy.suppressionMinCount attempts; a funder sees aggregates of at least that size and nothing else.
+import { can, reachOf } from "../../shared/permissions";
 import type { CurrentUser } from "../../shared/schemas/auth";
 import { hidesOthers, withComplementaryHiding as hideComplements } from "../../shared/suppression";
 import type { Db } from "../db/client";
@@ -9,9 +10,9 @@ import { cached } from "./cache";
 
 export interface Viewer {
   user: CurrentUser;
-  /** Coordinator or quality lead: every row, no suppression. */
+  /** Reads every instructor's rows (coordinator, quality lead): nothing suppressed. */
   seesEveryone: boolean;
-  /** The instructor an instructor account is linked to; null for every other account. */
+  /** The instructor whose rows are this user's own (an instructor account's); null for every other account. */
   ownInstructorId: number | null;
   suppressionMinCount: number;
 }
@@ -19,8 +20,8 @@ export interface Viewer {
 export function viewerOf(db: Db, user: CurrentUser): Viewer {
   return {
     user,
-    seesEveryone: user.role === "coordinator" || user.role === "quality_lead",
-    ownInstructorId: user.role === "instructor" ? user.instructorId : null,
+    seesEveryone: can(user, "readAttempts", "any"),
+    ownInstructorId: reachOf(user.role, "readAttempts") === "own" ? user.instructorId : null,
     suppressionMinCount: cached(db, "suppressionMinCount", () => currentPolicy(db).policy.suppressionMinCount),
   };
 }

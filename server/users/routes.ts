@@ -1,4 +1,5 @@
 import { Router } from "express";
+import { can } from "../../shared/permissions";
 import { newUserSchema, resetPasswordSchema, updateUserSchema } from "../../shared/schemas/users";
 import type { Db } from "../db/client";
 import { allow, signedInUser } from "../auth/guard";
@@ -31,7 +32,7 @@ export function userRoutes(db: Db, mailer: Mailer, endSessionsAfterPasswordChang
   router.patch("/users/:id", (req, res) => {
     const id = parseId(req.params.id);
     const changes = parseWith(updateUserSchema, req.body, "The change");
-    if (id === signedInUser(req).id && (changes.active === false || (changes.role && changes.role !== "coordinator"))) {
+    if (id === signedInUser(req).id && (changes.active === false || (changes.role && !can(changes.role, "manageUsers")))) {
       throw new AppError("conflict", 409, "You cannot deactivate yourself or remove your own coordinator role.");
     }
     res.json({ user: updateUser(db, id, changes) });
