@@ -6,7 +6,7 @@ import { roleLabels } from "../../shared/domain";
 import { PageHeader } from "../components/PageHeader";
 import { ErrorState, LoadingState } from "../components/States";
 import { useSession } from "../features/auth/useSession";
-import type { AppRoute } from "./routes";
+import { mayOpen, rolesFor, type AppRoute } from "./routes";
 
 export function signInPathFor(location: { pathname: string; search: string }): string {
   const back = `${location.pathname}${location.search}`;
@@ -36,7 +36,7 @@ export function RouteGuard({ route }: { route: AppRoute }) {
   if (session.isPending) return <LoadingState label="Checking your session…" />;
   if (session.isError) return <ErrorState error={session.error} onRetry={() => session.refetch()} />;
   if (!session.data) return <Navigate to={signInPathFor(location)} replace />;
-  if (!route.roles.includes(session.data.user.role)) return <NotAvailable route={route} />;
+  if (!mayOpen(route, session.data.user.role)) return <NotAvailable route={route} />;
   const Page = route.page;
   return (
     <Suspense fallback={<LoadingState label={`Opening ${route.title.toLowerCase()}…`} />}>
@@ -54,7 +54,7 @@ function NotAvailable({ route }: { route: AppRoute }) {
       <div className="flex max-w-2xl flex-col gap-3 rounded-card border border-line bg-surface p-6 shadow-card">
         <p>
           <strong>{route.title}</strong> is open to{" "}
-          {route.roles.map((r) => roleLabels[r]).join(", ").replace(/, ([^,]*)$/, " and $1")} accounts. You are signed in as{" "}
+          {rolesFor(route).map((r) => roleLabels[r]).join(", ").replace(/, ([^,]*)$/, " and $1")} accounts. You are signed in as{" "}
           {role ? roleLabels[role].toLowerCase() : "another role"}.
         </p>
         <p className="text-muted">If you need this page for your work, ask your regional coordinator to change your role.</p>

@@ -1,14 +1,18 @@
-// The route table: one line per page, with the roles that may use it. The same table builds the router,
-// guards every page and draws each role's navigation, so a role never sees a link it cannot open.
+// The route table: one line per page, with the permission it needs (shared/permissions.ts, the table the
+// server's guards read too). The same table builds the router, guards every page and draws each role's
+// navigation, so a role never sees a link it cannot open.
 //
 // To add a page:
 //   1. Write the page as the default export of src/pages/<Name>Page.tsx.
 //   2. Add one line below, in the order it should appear in the navigation, e.g.
-//        { path: "overview", title: "Network overview", group: "quality", roles: ["coordinator", "quality_lead", "funder"], page: lazy(() => import("../pages/OverviewPage")), landing: true },
-//   `landing: true` makes the page a candidate for "/": each role starts on the first landing page (in
-//   table order) that it may use. `nav: false` hides the page from the navigation but still guards it.
+//        { path: "overview", title: "Network overview", group: "quality", permission: "readNetwork", page: lazy(() => import("../pages/OverviewPage")), landing: true },
+//   Leave out `permission` for a page every signed-in user may open. `needs: "any"` asks for network-wide
+//   reach (a page about everyone's rows). `landing: true` makes the page a candidate for "/": each role
+//   starts on the first landing page (in table order) that it may use. `nav: false` hides the page from the
+//   navigation but still guards it.
 import { lazy, type ComponentType, type LazyExoticComponent } from "react";
 import { userRoles, type UserRole } from "../../shared/domain";
+import { can, type Permission, type Reach } from "../../shared/permissions";
 
 export type NavGroup = "quality" | "data" | "admin" | "you";
 
@@ -26,7 +30,10 @@ export interface AppRoute {
   /** Navigation label and browser tab title. */
   title: string;
   group: NavGroup;
-  roles: readonly UserRole[];
+  /** What a role must hold to open the page; none: every signed-in user. */
+  permission?: Permission;
+  /** The reach the permission must have (default "own": either reach). */
+  needs?: Reach;
   page: LazyExoticComponent<ComponentType>;
   /** Shown in the navigation (default true). */
   nav?: boolean;
@@ -34,38 +41,46 @@ export interface AppRoute {
   landing?: boolean;
 }
 
-const everyone = userRoles;
-
 export const appRoutes: readonly AppRoute[] = [
-  { path: "my-standing", title: "My standing", group: "quality", roles: ["instructor"], page: lazy(() => import("../pages/MyStandingPage")), landing: true },
-  { path: "overview", title: "Network overview", group: "quality", roles: ["coordinator", "quality_lead", "instructor"], page: lazy(() => import("../pages/OverviewPage")), landing: true },
-  { path: "instructors", title: "Instructors", group: "quality", roles: ["coordinator", "quality_lead"], page: lazy(() => import("../pages/InstructorsPage")) },
-  { path: "instructors/:id", title: "Instructor", group: "quality", roles: ["coordinator", "quality_lead"], nav: false, page: lazy(() => import("../pages/InstructorDetailPage")) },
-  { path: "classes/:id", title: "Class", group: "quality", roles: ["coordinator", "quality_lead", "instructor"], nav: false, page: lazy(() => import("../pages/ClassDetailPage")) },
-  { path: "errors", title: "Error trends", group: "quality", roles: ["coordinator", "quality_lead"], page: lazy(() => import("../pages/ErrorTrendsPage")) },
-  { path: "attempts", title: "Attempts", group: "quality", roles: ["coordinator", "quality_lead"], page: lazy(() => import("../pages/AttemptsPage")) },
-  { path: "attempts/:id", title: "Attempt", group: "quality", roles: ["coordinator", "quality_lead", "instructor"], nav: false, page: lazy(() => import("../pages/AttemptDetailPage")) },
-  { path: "equipment", title: "Equipment", group: "quality", roles: ["coordinator", "quality_lead", "instructor"], page: lazy(() => import("../pages/EquipmentPage")) },
-  { path: "report", title: "Funder report", group: "quality", roles: ["coordinator", "funder"], page: lazy(() => import("../pages/ReportPage")), landing: true },
-  { path: "imports", title: "Imports", group: "data", roles: ["coordinator", "instructor"], page: lazy(() => import("../pages/ImportsPage")) },
-  { path: "settings", title: "Settings", group: "admin", roles: ["coordinator", "quality_lead"], page: lazy(() => import("../pages/SettingsPage")) },
-  { path: "admin/users", title: "Users", group: "admin", roles: ["coordinator"], page: lazy(() => import("../pages/UsersAdminPage")) },
-  { path: "admin/sites", title: "Sites and instructors", group: "admin", roles: ["coordinator"], page: lazy(() => import("../pages/SitesAdminPage")) },
-  { path: "outbox", title: "Outbox", group: "admin", roles: ["coordinator"], page: lazy(() => import("../pages/OutboxPage")) },
-  { path: "account", title: "My account", group: "you", roles: everyone, page: lazy(() => import("../pages/AccountPage")), landing: true },
+  { path: "my-standing", title: "My standing", group: "quality", permission: "readOwnStanding", page: lazy(() => import("../pages/MyStandingPage")), landing: true },
+  { path: "overview", title: "Network overview", group: "quality", permission: "readNetwork", page: lazy(() => import("../pages/OverviewPage")), landing: true },
+  { path: "instructors", title: "Instructors", group: "quality", permission: "drillDown", page: lazy(() => import("../pages/InstructorsPage")) },
+  { path: "instructors/:id", title: "Instructor", group: "quality", permission: "drillDown", nav: false, page: lazy(() => import("../pages/InstructorDetailPage")) },
+  { path: "classes/:id", title: "Class", group: "quality", permission: "readAttempts", nav: false, page: lazy(() => import("../pages/ClassDetailPage")) },
+  { path: "errors", title: "Error trends", group: "quality", permission: "drillDown", page: lazy(() => import("../pages/ErrorTrendsPage")) },
+  { path: "attempts", title: "Attempts", group: "quality", permission: "readAttempts", needs: "any", page: lazy(() => import("../pages/AttemptsPage")) },
+  { path: "attempts/:id", title: "Attempt", group: "quality", permission: "readAttempts", nav: false, page: lazy(() => import("../pages/AttemptDetailPage")) },
+  { path: "equipment", title: "Equipment", group: "quality", permission: "readEquipment", page: lazy(() => import("../pages/EquipmentPage")) },
+  { path: "report", title: "Funder report", group: "quality", permission: "readReport", page: lazy(() => import("../pages/ReportPage")), landing: true },
+  { path: "imports", title: "Imports", group: "data", permission: "importData", page: lazy(() => import("../pages/ImportsPage")) },
+  { path: "settings", title: "Settings", group: "admin", permission: "readSettings", page: lazy(() => import("../pages/SettingsPage")) },
+  { path: "admin/users", title: "Users", group: "admin", permission: "manageUsers", page: lazy(() => import("../pages/UsersAdminPage")) },
+  { path: "admin/sites", title: "Sites and instructors", group: "admin", permission: "manageSites", page: lazy(() => import("../pages/SitesAdminPage")) },
+  { path: "outbox", title: "Outbox", group: "admin", permission: "sendReport", page: lazy(() => import("../pages/OutboxPage")) },
+  { path: "account", title: "My account", group: "you", page: lazy(() => import("../pages/AccountPage")), landing: true },
   // Development builds only: a gallery of the UI kit.
   ...(import.meta.env.DEV
-    ? [{ path: "kit", title: "UI kit", group: "you" as const, roles: everyone, nav: false, page: lazy(() => import("../pages/dev/KitPreviewPage")) }]
+    ? [{ path: "kit", title: "UI kit", group: "you" as const, nav: false, page: lazy(() => import("../pages/dev/KitPreviewPage")) }]
     : []),
 ];
 
+/** Whether a role may open a page of the table. */
+export function mayOpen(route: AppRoute, role: UserRole): boolean {
+  return route.permission === undefined || can(role, route.permission, route.needs);
+}
+
+/** The roles that may open a page (for "open to … accounts"); every role when it needs no permission. */
+export function rolesFor(route: AppRoute): UserRole[] {
+  return userRoles.filter((role) => mayOpen(route, role));
+}
+
 /** Where "/" sends a role: its first landing page, or its first page of any kind (never one that needs an id). */
 export function homePathFor(role: UserRole, routes: readonly AppRoute[] = appRoutes): string {
-  const allowed = routes.filter((route) => route.roles.includes(role) && !route.path.includes(":"));
+  const allowed = routes.filter((route) => mayOpen(route, role) && !route.path.includes(":"));
   const landing = allowed.find((route) => route.landing) ?? allowed[0];
   return landing ? `/${landing.path}` : "/account";
 }
 
 export function routesFor(role: UserRole, routes: readonly AppRoute[] = appRoutes): AppRoute[] {
-  return routes.filter((route) => route.roles.includes(role));
+  return routes.filter((route) => mayOpen(route, role));
 }

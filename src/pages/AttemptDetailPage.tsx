@@ -19,7 +19,7 @@ import { compressionSeries, type CompressionSeries } from "../features/attempts/
 import { dateTime, errorLabel } from "../features/attempts/labels";
 import { attemptQueries } from "../features/attempts/queries";
 import { useScoringPolicy } from "../features/attempts/useScoringPolicy";
-import { useCurrentUser } from "../features/auth/useSession";
+import { useCan } from "../features/auth/useCan";
 import { useLengthUnit } from "../lib/useLengthUnit";
 import { dimensionNames, feedbackNames, patientTypeNames } from "../../shared/vocabulary";
 
@@ -54,9 +54,10 @@ export default function AttemptDetailPage() {
 
 function BackLink() {
   const location = useLocation();
-  const user = useCurrentUser();
+  // the attempts list is a page about everyone's attempts; without it there is nowhere to go back to
+  const opensAttemptList = useCan("readAttempts", "any");
   const from = (location.state as { from?: string } | null)?.from;
-  if (!from && user.role === "instructor") return null;
+  if (!from && !opensAttemptList) return null;
   return (
     <Link to={from ?? "/attempts"} className="mb-3 inline-flex min-h-9 items-center gap-1 font-medium text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
       <span aria-hidden="true">←</span> Back to attempts

@@ -9,7 +9,7 @@ import { DataTable, type Column } from "../components/DataTable";
 import { PageHeader } from "../components/PageHeader";
 import { SafetyNote } from "../components/SafetyNote";
 import { EmptyState } from "../components/States";
-import { useCurrentUser } from "../features/auth/useSession";
+import { useCan } from "../features/auth/useCan";
 import { formatCount, formatDate, formatPercent, formatScore, formatTime, quarterLabel, roundTo } from "../features/insight/format";
 import { QueryStatus } from "../features/insight/QueryStatus";
 import { RateText } from "../features/insight/RateText";
@@ -22,7 +22,7 @@ type Measured = Pick<AttemptRow["metrics"], "depthMm" | "rateCpm">;
 
 export default function ClassDetailPage() {
   const { id = "" } = useParams();
-  const user = useCurrentUser();
+  const ownClassesOnly = !useCan("readAttempts", "any");
   const query = useQuery(insightQueries.classDetail(id));
   return (
     <QueryStatus
@@ -32,16 +32,16 @@ export default function ClassDetailPage() {
       renderError={(error) =>
         error instanceof ApiError && (error.status === 404 || error.status === 422) ? (
           <>
-            <PageHeader title={user.role === "instructor" ? "Class not found or not yours" : "Class not found"} />
+            <PageHeader title={ownClassesOnly ? "Class not found or not yours" : "Class not found"} />
             <EmptyState
               title={`Class “${id}” cannot be shown`}
               action={
-                <Link to={user.role === "instructor" ? "/my-standing" : "/instructors"} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
-                  {user.role === "instructor" ? "Go to your classes" : "Go to the instructors"}
+                <Link to={ownClassesOnly ? "/my-standing" : "/instructors"} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+                  {ownClassesOnly ? "Go to your classes" : "Go to the instructors"}
                 </Link>
               }
             >
-              {user.role === "instructor"
+              {ownClassesOnly
                 ? "No class has this id, or it was taught by another instructor. Instructors can open their own classes only."
                 : "No class has this id. The link may be old or mistyped."}
             </EmptyState>
@@ -49,7 +49,7 @@ export default function ClassDetailPage() {
         ) : null
       }
     >
-      {(answer) => <ClassContent answer={answer} backTo={user.role === "instructor" ? "standing" : "instructor"} />}
+      {(answer) => <ClassContent answer={answer} backTo={ownClassesOnly ? "standing" : "instructor"} />}
     </QueryStatus>
   );
 }

@@ -9,7 +9,7 @@ import { PageHeader } from "../components/PageHeader";
 import { EmptyState, ErrorState, LoadingState } from "../components/States";
 import { dateOnly } from "../features/attempts/labels";
 import { apiFilterQuery, insightFilters, periodWords, useInsightOptions, type InsightFilterKey } from "../features/attempts/insightFilters";
-import { useCurrentUser } from "../features/auth/useSession";
+import { useCan } from "../features/auth/useCan";
 import { AttentionList } from "../features/equipment/AttentionList";
 import { ConsumablesCharts } from "../features/equipment/ConsumablesChart";
 import { FleetTable } from "../features/equipment/FleetTable";
@@ -18,8 +18,8 @@ import { UsageChart } from "../features/equipment/UsageChart";
 
 export default function EquipmentPage() {
   const options = useInsightOptions();
-  const user = useCurrentUser();
-  const ownSite = user.role === "instructor";
+  // "own" reach: an instructor sees their own site's manikins and their own classes
+  const ownSite = !useCan("readEquipment", "any");
   return (
     <div>
       <PageHeader

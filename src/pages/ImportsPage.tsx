@@ -2,12 +2,12 @@
 // events in from CSV files, step by step, and see what every earlier import changed.
 import { useCallback, useState } from "react";
 import { PageHeader } from "../components/PageHeader";
-import { useCurrentUser } from "../features/auth/useSession";
+import { useCan } from "../features/auth/useCan";
 import { ImportHistory } from "../features/imports/ImportHistory";
 import { ImportWizard } from "../features/imports/ImportWizard";
 
 export default function ImportsPage() {
-  const user = useCurrentUser();
+  const importsForEveryone = useCan("importData", "any");
   const [lastBatch, setLastBatch] = useState<number | null>(null);
   const imported = useCallback((batchId: number | null) => setLastBatch(batchId), []);
   return (
@@ -15,7 +15,7 @@ export default function ImportsPage() {
       <PageHeader
         title="Imports"
         description={
-          user.role === "coordinator"
+          importsForEveryone
             ? "Bring CSV files from class logs, manikins and equipment records into Quarterbeat. Every file is checked first; nothing is written until you confirm."
             : "Bring in the CSV files of your own classes and the attempts measured in them. Every file is checked first; nothing is written until you confirm."
         }

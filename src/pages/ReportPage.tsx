@@ -9,7 +9,7 @@ import { Button } from "../components/Button";
 import { Notice } from "../components/Notice";
 import { PageHeader } from "../components/PageHeader";
 import { EmptyState, ErrorState, LoadingState } from "../components/States";
-import { useCurrentUser } from "../features/auth/useSession";
+import { useCan } from "../features/auth/useCan";
 import { NotesEditor } from "../features/report/NotesEditor";
 import { defaultPeriod, periodIsRunning, periodName } from "../features/report/period";
 import { PeriodPicker } from "../features/report/PeriodPicker";
@@ -21,8 +21,8 @@ import { formatKb, formatTime, VersionsPanel } from "../features/report/Versions
 import "../styles/print.css";
 
 export default function ReportPage() {
-  const user = useCurrentUser();
-  const coordinator = user.role === "coordinator";
+  // who prepares and sends the report: the text for funders, versions and sending
+  const coordinator = useCan("sendReport");
   const quarters = useQuery(reportQueries.quarters());
   const [params, setParams] = useSearchParams();
   const requested = params.get("period");

@@ -11,7 +11,7 @@ import { SafetyNote } from "../components/SafetyNote";
 import { ErrorState, LoadingState } from "../components/States";
 import { dateTime } from "../features/attempts/labels";
 import { useInsightOptions } from "../features/attempts/insightFilters";
-import { useCurrentUser } from "../features/auth/useSession";
+import { useCan } from "../features/auth/useCan";
 import { useSavePolicy } from "../features/settings/mutations";
 import { PolicyForm, shortSourceName } from "../features/settings/PolicyForm";
 import { errorsByPath } from "../features/settings/policyFields";
@@ -40,8 +40,7 @@ export default function SettingsPage() {
 }
 
 function Settings({ answer }: { answer: PolicySettingsAnswer }) {
-  const user = useCurrentUser();
-  const canEdit = user.role === "coordinator";
+  const canEdit = useCan("editSettings");
   const { unit } = useLengthUnit();
   const versions = useQuery(settingsQueries.versions());
   const options = useInsightOptions();

@@ -18,8 +18,8 @@ function TestReportPage() {
 }
 
 const testRoutes: AppRoute[] = [
-  { path: "report", title: "Quarterly report", group: "quality", roles: ["coordinator", "funder"], page: lazy(async () => ({ default: TestReportPage })), landing: true },
-  { path: "account", title: "My account", group: "you", roles: ["coordinator", "quality_lead", "instructor", "funder"], page: lazy(async () => ({ default: () => <h1>Account page</h1> })), landing: true },
+  { path: "report", title: "Quarterly report", group: "quality", permission: "readReport", page: lazy(async () => ({ default: TestReportPage })), landing: true },
+  { path: "account", title: "My account", group: "you", page: lazy(async () => ({ default: () => <h1>Account page</h1> })), landing: true },
 ];
 
 describe("route guard", () => {
@@ -45,8 +45,8 @@ describe("route guard", () => {
     fakeServer({ "GET /api/me": sessionFor("funder") });
     renderApp("/account", [
       ...testRoutes,
-      { path: "admin/users", title: "Users", group: "admin", roles: ["coordinator"], page: lazy(async () => ({ default: () => <h1>Users</h1> })) },
-      { path: "report/:id", title: "One report", group: "quality", roles: ["funder"], nav: false, page: lazy(async () => ({ default: () => <h1>One</h1> })) },
+      { path: "admin/users", title: "Users", group: "admin", permission: "manageUsers", page: lazy(async () => ({ default: () => <h1>Users</h1> })) },
+      { path: "report/:id", title: "One report", group: "quality", permission: "readReport", nav: false, page: lazy(async () => ({ default: () => <h1>One</h1> })) },
     ]);
     const nav = await screen.findByRole("navigation", { name: "Main" });
     expect(within(nav).getAllByRole("link").map((link) => link.textContent)).toEqual(["Quarterly report", "My account"]);

@@ -1,8 +1,8 @@
-// The policy version that scored an attempt. Coordinators and quality leads read every version; other roles
+// The policy version that scored an attempt. Roles that may read the settings read every version; other roles
 // cannot, so for them only version 1 is known (the project defaults it always starts as).
 import { useQuery } from "@tanstack/react-query";
 import { DEFAULT_POLICY, type NetworkPolicy } from "../../../shared/scoring/policy";
-import { useCurrentUser } from "../auth/useSession";
+import { useCan } from "../auth/useCan";
 import { settingsQueries } from "../settings/queries";
 
 export interface ScoringPolicy {
@@ -13,8 +13,7 @@ export interface ScoringPolicy {
 }
 
 export function useScoringPolicy(version: number | undefined): ScoringPolicy {
-  const user = useCurrentUser();
-  const readsVersions = user.role === "coordinator" || user.role === "quality_lead";
+  const readsVersions = useCan("readSettings");
   const versions = useQuery({ ...settingsQueries.versions(), enabled: readsVersions && version !== undefined });
   if (version === undefined) return { policy: null, known: null, pending: true };
   if (readsVersions) {

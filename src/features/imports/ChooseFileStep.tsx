@@ -2,7 +2,7 @@
 // while) and can be cancelled.
 import { useQuery } from "@tanstack/react-query";
 import { useId, useRef, useState, type FormEvent } from "react";
-import { importKinds, type ImportKind, type UserRole } from "../../../shared/domain";
+import { importKinds, type ImportKind } from "../../../shared/domain";
 import type { Preview, Upload } from "../../../shared/import/api";
 import type { UploadProgress } from "../../api/upload";
 import { ApiError } from "../../api/http";
@@ -10,6 +10,7 @@ import { Button } from "../../components/Button";
 import { Field, controlClass } from "../../components/Field";
 import { Notice } from "../../components/Notice";
 import { errorMessage } from "../../components/States";
+import { useCan } from "../auth/useCan";
 import { formatBytes, kindHints, kindLabels } from "./labels";
 import { ProgressBar } from "./ProgressBar";
 import { importQueries, uploadImportFile } from "./queries";
@@ -18,12 +19,13 @@ import { importQueries, uploadImportFile } from "./queries";
 export const MAX_UPLOAD_BYTES = 50 * 1024 * 1024;
 
 export interface ChooseFileStepProps {
-  role: UserRole;
   initialKind: ImportKind | null;
   onUploaded: (upload: Upload, preview: Preview) => void;
 }
 
-export function ChooseFileStep({ role, initialKind, onUploaded }: ChooseFileStepProps) {
+export function ChooseFileStep({ initialKind, onUploaded }: ChooseFileStepProps) {
+  const importsEquipment = useCan("importEquipment");
+  const importsOwnOnly = !useCan("importData", "any");
   const [kind, setKind] = useState<ImportKind | "">(initialKind ?? "");
   const [file, setFile] = useState<File | null>(null);
   const [errors, setErrors] = useState<{ kind?: string; file?: string; form?: string }>({});
@@ -67,7 +69,7 @@ export function ChooseFileStep({ role, initialKind, onUploaded }: ChooseFileStep
         <legend className="mb-1 text-small font-semibold text-ink">What does the file hold?</legend>
         <div className="grid gap-2 sm:grid-cols-2">
           {importKinds.map((value) => {
-            const coordinatorOnly = value === "equipment" && role !== "coordinator";
+            const coordinatorOnly = value === "equipment" && !importsEquipment;
             return (
               <label
                 key={value}
@@ -98,7 +100,7 @@ export function ChooseFileStep({ role, initialKind, onUploaded }: ChooseFileStep
             {errors.kind}
           </p>
         )}
-        {role === "instructor" && (
+        {importsOwnOnly && (
           <p className="text-small text-muted">You can import your own classes and the attempts measured in them. Rows for another instructor's classes are refused.</p>
         )}
       </fieldset>

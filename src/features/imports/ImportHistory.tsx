@@ -8,7 +8,7 @@ import { DataTable, type Column } from "../../components/DataTable";
 import { Dialog } from "../../components/Dialog";
 import { Notice } from "../../components/Notice";
 import { EmptyState, ErrorState, LoadingState, errorMessage } from "../../components/States";
-import { useCurrentUser } from "../auth/useSession";
+import { useCan } from "../auth/useCan";
 import { formatCount, formatDateTime, kindLabels, plural } from "./labels";
 import { importQueries, undoBatch, type RejectedRow } from "./queries";
 
@@ -22,8 +22,8 @@ function who(batch: ImportBatch): string {
 }
 
 export function ImportHistory({ highlightBatch }: { highlightBatch?: number | null }) {
-  const user = useCurrentUser();
-  const coordinator = user.role === "coordinator";
+  const mayUndo = useCan("undoImport");
+  const seesEveryImport = useCan("importData", "any");
   const history = useInfiniteQuery(importQueries.history());
   const [openBatch, setOpenBatch] = useState<ImportBatch | null>(null);
   const [undoing, setUndoing] = useState<ImportBatch | null>(null);
@@ -97,7 +97,7 @@ export function ImportHistory({ highlightBatch }: { highlightBatch?: number | nu
                 Refused rows
               </Button>
             )}
-            {coordinator && b.status === "applied" && (
+            {mayUndo && b.status === "applied" && (
               <Button size="sm" variant="dangerQuiet" onClick={() => setUndoing(b)} aria-label={`Undo batch ${b.id}`}>
                 Undo
               </Button>
@@ -106,7 +106,7 @@ export function ImportHistory({ highlightBatch }: { highlightBatch?: number | nu
         ),
       },
     ],
-    [coordinator, highlightBatch],
+    [mayUndo, highlightBatch],
   );
 
   return (
@@ -116,7 +116,7 @@ export function ImportHistory({ highlightBatch }: { highlightBatch?: number | nu
           Import history
         </h2>
         <p className="text-small text-muted">
-          {coordinator
+          {seesEveryImport
             ? "Every import into the network, newest first. Undo takes a batch's changes back out."
             : "Your imports, newest first. Ask the coordinator if an import needs to be undone."}
         </p>

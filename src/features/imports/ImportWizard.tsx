@@ -9,7 +9,6 @@ import { invalidateFigures } from "../../app/figureQueries";
 import { Button } from "../../components/Button";
 import { Notice } from "../../components/Notice";
 import { errorMessage } from "../../components/States";
-import { useCurrentUser } from "../auth/useSession";
 import { ChooseFileStep } from "./ChooseFileStep";
 import { JobProgress } from "./JobProgress";
 import { formatCount, kindLabels, plural } from "./labels";
@@ -34,7 +33,6 @@ interface Loaded {
 }
 
 export function ImportWizard({ onImported }: { onImported?: (batchId: number | null) => void }) {
-  const user = useCurrentUser();
   const queryClient = useQueryClient();
   const [step, setStep] = useState<Step>("choose");
   const [kind, setKind] = useState<ImportKind | null>(null);
@@ -153,7 +151,7 @@ export function ImportWizard({ onImported }: { onImported?: (batchId: number | n
           Step {current + 1} of {steps.length}: {steps[current].title}
         </h3>
 
-        {step === "choose" && <ChooseFileStep role={user.role} initialKind={kind} onUploaded={uploaded} />}
+        {step === "choose" && <ChooseFileStep initialKind={kind} onUploaded={uploaded} />}
 
         {step === "map" && loaded && (
           <>

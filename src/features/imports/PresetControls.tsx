@@ -11,6 +11,7 @@ import { Input, Select } from "../../components/Field";
 import { Notice } from "../../components/Notice";
 import { errorMessage } from "../../components/States";
 import { fieldErrorsFromDetails } from "../../lib/fieldErrors";
+import { useCan } from "../auth/useCan";
 import { useCurrentUser } from "../auth/useSession";
 import { kindLabels } from "./labels";
 import { draftFromMapping, type MappingDraft } from "./mappingDraft";
@@ -39,7 +40,8 @@ export function PresetControls({ kind, header, mapping, onApply }: PresetControl
   const remove = useMutation({ mutationFn: deletePreset, onSuccess: refresh });
 
   const selected = presets.data?.find((p) => String(p.id) === chosen) ?? null;
-  const mayDelete = selected !== null && (user.role === "coordinator" || selected.createdBy === user.id);
+  const deletesAnyPreset = useCan("importData", "any");
+  const mayDelete = selected !== null && (deletesAnyPreset || selected.createdBy === user.id);
 
   function apply() {
     if (!selected) {
