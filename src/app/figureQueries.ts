@@ -2,7 +2,8 @@
 // every insight page, the drill-downs, equipment, reports and the import history; those queries are
 // invalidated at once, through their key factories, instead of waiting for them to go stale.
 import type { QueryClient, QueryKey } from "@tanstack/react-query";
-import { http } from "../api/http";
+import { dataVersionAnswerSchema } from "../../shared/schemas/dataVersion";
+import { getParsed } from "../api/getParsed";
 import { attemptQueries } from "../features/attempts/queries";
 import { equipmentQueries } from "../features/equipment/queries";
 import { errorQueries } from "../features/errors/queries";
@@ -52,15 +53,11 @@ export function familiesChangedBy(meta: ChangeMeta | undefined): readonly QueryK
   return [...(meta?.changesFigures ? figureQueryFamilies : []), ...(meta?.invalidates ?? [])];
 }
 
-export interface DataVersionAnswer {
-  version: string;
-}
-
 /** The server's token for its database state; asked for again whenever the window regains focus. */
 export const dataVersionQuery = {
   all: () => ["data-version"] as const,
   current: () => ({
     queryKey: dataVersionQuery.all(),
-    queryFn: ({ signal }: { signal: AbortSignal }) => http.get<DataVersionAnswer>("/api/data-version", signal),
+    queryFn: ({ signal }: { signal: AbortSignal }) => getParsed(dataVersionAnswerSchema, "/api/data-version", signal),
   }),
 };

@@ -13,6 +13,7 @@ import { useCan } from "../features/auth/useCan";
 import { NotesEditor } from "../features/report/NotesEditor";
 import { defaultPeriod, periodIsRunning, periodName } from "../features/report/period";
 import { PeriodPicker } from "../features/report/PeriodPicker";
+import { insightQueries } from "../features/insight/queries";
 import { pdfUrl, reportQueries } from "../features/report/queries";
 import { ReportView } from "../features/report/ReportView";
 import { SendForm } from "../features/report/SendForm";
@@ -23,7 +24,8 @@ import "../styles/print.css";
 export default function ReportPage() {
   // who prepares and sends the report: the text for funders, versions and sending
   const coordinator = useCan("sendReport");
-  const quarters = useQuery(reportQueries.quarters());
+  // the quarters with data: the one filter options query holds them for every role that may read reports
+  const quarters = useQuery({ ...insightQueries.options(), select: (options) => options.quarters });
   const [params, setParams] = useSearchParams();
   const requested = params.get("period");
   const parsed = requested === null ? null : periodSchema.safeParse(requested);

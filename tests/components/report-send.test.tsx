@@ -105,7 +105,7 @@ describe("report page", () => {
   it("offers funders the latest version's stored PDF and none of the coordinator's tools", async () => {
     const server = fakeServer({
       "GET /api/me": sessionFor("funder"),
-      "GET /api/insight/options": { status: 200, body: { quarters: ["2026-Q3"] } },
+      "GET /api/insight/options": { status: 200, body: { quarters: ["2026-Q3"], sites: [], patientTypes: [], feedbackModes: [], errors: [], instructors: [], manikins: [] } },
       "GET /api/reports?period=2026-Q3": { status: 200, body: { reports: [version, { ...version, id: 3, version: 1 }] } },
       "GET /api/reports/4/data": { status: 404, body: { error: { code: "not_found", message: "The report was not found." } } },
     });

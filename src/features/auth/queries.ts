@@ -1,7 +1,8 @@
 // Query options for the signed-in session. Everything that needs "who am I" reads authQueries.me().
 import { queryOptions } from "@tanstack/react-query";
-import type { SessionAnswer } from "../../../shared/schemas/auth";
-import { ApiError, http, setCsrfToken } from "../../api/http";
+import { sessionAnswerSchema, type SessionAnswer } from "../../../shared/schemas/auth";
+import { getParsed } from "../../api/getParsed";
+import { ApiError, setCsrfToken } from "../../api/http";
 
 export const authQueries = {
   all: () => ["auth"] as const,
@@ -11,7 +12,7 @@ export const authQueries = {
       queryKey: [...authQueries.all(), "me"] as const,
       queryFn: async ({ signal }): Promise<SessionAnswer | null> => {
         try {
-          const answer = await http.get<SessionAnswer>("/api/me", signal);
+          const answer = await getParsed(sessionAnswerSchema, "/api/me", signal);
           setCsrfToken(answer.csrfToken);
           return answer;
         } catch (error) {

@@ -1,31 +1,28 @@
 // The web import API (server/imports/routes.ts) as TanStack Query options and plain calls. Answers are
-// typed with the shared schemas the server builds them from.
+// checked against the shared schemas the server builds them from.
 import { infiniteQueryOptions, queryOptions } from "@tanstack/react-query";
+import type { z } from "zod";
 import type { ImportKind } from "../../../shared/domain";
-import type { ImportBatch, ImportJob, ImportPreset, Preview, Upload } from "../../../shared/import/api";
+import {
+  batchDetailResponseSchema,
+  batchListResponseSchema,
+  formatsResponseSchema,
+  jobResponseSchema,
+  presetListResponseSchema,
+  type ImportBatch,
+  type ImportJob,
+  type ImportPreset,
+  type Preview,
+  type Upload,
+} from "../../../shared/import/api";
 import type { ImportMapping } from "../../../shared/import/mapping";
+import { getParsed } from "../../api/getParsed";
 import { http } from "../../api/http";
 import { upload, type UploadProgress } from "../../api/upload";
 
-export interface FormatColumn {
-  name: string;
-  required: boolean;
-  description: string;
-  unit: "depth" | "time" | "share" | null;
-}
-
-export interface RejectedRow {
-  rowNumber: number | null;
-  column: string | null;
-  reason: string;
-  raw: Record<string, string> | null;
-}
-
-export interface BatchDetail {
-  batch: ImportBatch;
-  rejectedRows: RejectedRow[];
-  rejectedTotal: number;
-}
+export type FormatColumn = z.infer<typeof formatsResponseSchema>["formats"][ImportKind][number];
+export type BatchDetail = z.infer<typeof batchDetailResponseSchema>;
+export type RejectedRow = BatchDetail["rejectedRows"][number];
 
 export const HISTORY_PAGE_SIZE = 25;
 
@@ -34,19 +31,18 @@ export const importQueries = {
   formats: () =>
     queryOptions({
       queryKey: [...importQueries.all(), "formats"] as const,
-      queryFn: async ({ signal }) => (await http.get<{ formats: Record<ImportKind, FormatColumn[]> }>("/api/imports/formats", signal)).formats,
+      queryFn: async ({ signal }) => (await getParsed(formatsResponseSchema, "/api/imports/formats", signal)).formats,
       staleTime: Infinity,
     }),
   presets: (kind: ImportKind) =>
     queryOptions({
       queryKey: [...importQueries.all(), "presets", kind] as const,
-      queryFn: async ({ signal }) => (await http.get<{ presets: ImportPreset[] }>(`/api/imports/presets?kind=${kind}`, signal)).presets,
+      queryFn: async ({ signal }) => (await getParsed(presetListResponseSchema, `/api/imports/presets?kind=${kind}`, signal)).presets,
     }),
   history: () =>
     infiniteQueryOptions({
       queryKey: [...importQueries.all(), "batches"] as const,
-      queryFn: ({ pageParam, signal }) =>
-        http.get<{ batches: ImportBatch[]; total: number }>(`/api/imports/batches?limit=${HISTORY_PAGE_SIZE}&offset=${pageParam}`, signal),
+      queryFn: ({ pageParam, signal }) => getParsed(batchListResponseSchema, `/api/imports/batches?limit=${HISTORY_PAGE_SIZE}&offset=${pageParam}`, signal),
       initialPageParam: 0,
       getNextPageParam: (last, pages) => {
         const loaded = pages.reduce((sum, page) => sum + page.batches.length, 0);
@@ -56,12 +52,12 @@ export const importQueries = {
   batch: (id: number) =>
     queryOptions({
       queryKey: [...importQueries.all(), "batch", id] as const,
-      queryFn: ({ signal }) => http.get<BatchDetail>(`/api/imports/batches/${id}`, signal),
+      queryFn: ({ signal }) => getParsed(batchDetailResponseSchema, `/api/imports/batches/${id}`, signal),
     }),
   job: (id: string) =>
     queryOptions({
       queryKey: [...importQueries.all(), "job", id] as const,
-      queryFn: async ({ signal }) => (await http.get<{ job: ImportJob }>(`/api/imports/jobs/${id}`, signal)).job,
+      queryFn: async ({ signal }) => (await getParsed(jobResponseSchema, `/api/imports/jobs/${id}`, signal)).job,
       // Poll while the job works; stop once it has an answer.
       refetchInterval: (query) => (query.state.data && (query.state.data.status === "done" || query.state.data.status === "failed") ? false : 400),
       staleTime: 0,

@@ -1,8 +1,6 @@
-// Query options for the network-insight API. Every answer is checked against its shared zod schema, so a
-// page never draws numbers the server did not promise.
+// Query options for the network-insight API. Every answer is checked against its shared zod schema
+// (src/api/getParsed.ts).
 import { queryOptions } from "@tanstack/react-query";
-import type { z } from "zod";
-import { filtersToQuery } from "../../../shared/filters";
 import {
   attemptListAnswerSchema,
   classDetailAnswerSchema,
@@ -12,29 +10,20 @@ import {
   overviewAnswerSchema,
   standingAnswerSchema,
 } from "../../../shared/schemas/insight";
-import { ApiError, http } from "../../api/http";
+import { getParsed } from "../../api/getParsed";
+import { withQuery } from "../../api/withQuery";
 
 /** The filters as the API names them (the URL uses the filter bar's names; see useInsightFilters). */
 export interface ApiFilters {
+  /** One quarter, or a from/to range. */
   quarter?: string;
+  from?: string;
+  to?: string;
   site?: string;
   profile?: string;
   feedback?: string;
   instructor?: string;
   manikin?: string;
-}
-
-/** Parses an answer; a shape the schema refuses becomes a readable error rather than wrong numbers. */
-async function getParsed<S extends z.ZodType>(schema: S, path: string, signal: AbortSignal): Promise<z.infer<S>> {
-  const parsed = schema.safeParse(await http.get<unknown>(path, signal));
-  if (parsed.success) return parsed.data;
-  // Status 200 keeps the query client from retrying: asking again brings the same answer.
-  throw new ApiError(200, "unexpected_answer", "The server's answer was not in the expected form, so its figures are not shown. Reload the page; if it stays, tell your coordinator.", parsed.error.issues);
-}
-
-function withQuery(path: string, filters: ApiFilters): string {
-  const query = filtersToQuery({ ...filters });
-  return query ? `${path}?${query}` : path;
 }
 
 export const insightQueries = {
@@ -76,6 +65,6 @@ export const insightQueries = {
     queryOptions({
       queryKey: [...insightQueries.all(), "class", id, "attempts", quarter] as const,
       queryFn: ({ signal }) =>
-        getParsed(attemptListAnswerSchema, `/api/attempts?${filtersToQuery({ class: id, quarter, pageSize: 200 })}`, signal),
+        getParsed(attemptListAnswerSchema, withQuery("/api/attempts", { class: id, quarter, pageSize: 200 }), signal),
     }),
 };

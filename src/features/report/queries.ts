@@ -6,13 +6,6 @@ import { http } from "../../api/http";
 
 export const reportQueries = {
   all: () => ["report"] as const,
-  /** The quarters with data; the filter options answer holds them for every role that may read reports. */
-  quarters: () =>
-    queryOptions({
-      queryKey: [...reportQueries.all(), "quarters"] as const,
-      queryFn: async ({ signal }) => (await http.get<{ quarters: string[] }>("/api/insight/options", signal)).quarters,
-      staleTime: 5 * 60_000,
-    }),
   /** The report as a new version would show it now. */
   preview: (period: string) =>
     queryOptions({

@@ -1,25 +1,20 @@
 import { queryOptions } from "@tanstack/react-query";
-import type { PolicySettingsAnswer } from "../../../shared/schemas/policySettings";
-import type { NetworkPolicy } from "../../../shared/scoring/policy";
-import { http } from "../../api/http";
+import type { z } from "zod";
+import { policySettingsAnswerSchema, policyVersionSchema, policyVersionsAnswerSchema } from "../../../shared/schemas/policySettings";
+import { getParsed } from "../../api/getParsed";
 
-export interface PolicyVersionRow {
-  version: number;
-  policy: NetworkPolicy;
-  note: string;
-  createdAt: string;
-}
+export type PolicyVersionRow = z.infer<typeof policyVersionSchema>;
 
 export const settingsQueries = {
   all: () => ["settings"] as const,
   policy: () =>
     queryOptions({
       queryKey: [...settingsQueries.all(), "policy"] as const,
-      queryFn: ({ signal }) => http.get<PolicySettingsAnswer>("/api/settings/policy", signal),
+      queryFn: ({ signal }) => getParsed(policySettingsAnswerSchema, "/api/settings/policy", signal),
     }),
   versions: () =>
     queryOptions({
       queryKey: [...settingsQueries.all(), "versions"] as const,
-      queryFn: async ({ signal }) => (await http.get<{ versions: PolicyVersionRow[] }>("/api/settings/policy/versions", signal)).versions,
+      queryFn: async ({ signal }) => (await getParsed(policyVersionsAnswerSchema, "/api/settings/policy/versions", signal)).versions,
     }),
 };
