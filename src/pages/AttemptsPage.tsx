@@ -4,20 +4,20 @@ import { useQuery } from "@tanstack/react-query";
 import { useEffect, useRef } from "react";
 import { useSearchParams } from "react-router";
 import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
-import type { OptionsAnswer } from "../../shared/schemas/insight";
 import { Button } from "../components/Button";
 import { FilterBar, useFilterValues, type FilterDefinition } from "../components/FilterBar";
 import { PageHeader } from "../components/PageHeader";
 import { EmptyState, ErrorState, LoadingState } from "../components/States";
 import { AttemptsTable } from "../features/attempts/AttemptsTable";
-import { apiFilterQuery, insightFilters, useInsightOptions } from "../features/attempts/insightFilters";
 import { attemptQueries } from "../features/attempts/queries";
+import { useInsightFilters, type InsightFilterState, type OptionalFilter } from "../features/insight/useInsightFilters";
 import { useLengthUnit } from "../lib/useLengthUnit";
 
 const PAGE_SIZE = 50;
+const filterKeys: readonly OptionalFilter[] = ["site", "patientType", "feedback", "instructor", "manikin"];
 
 export default function AttemptsPage() {
-  const options = useInsightOptions();
+  const { optionsQuery: options, state } = useInsightFilters(filterKeys, { ranges: true });
   return (
     <div>
       <PageHeader title="Attempts" description="Each attempt with the figures that decide its result, and its errors in words. Open one to see its compressions where the manikin sent a stream." />
@@ -25,23 +25,24 @@ export default function AttemptsPage() {
         <LoadingState label="Loading the filters…" />
       ) : options.isError ? (
         <ErrorState error={options.error} onRetry={() => options.refetch()} />
-      ) : options.data.quarters.length === 0 ? (
+      ) : !state ? (
         <EmptyState title="No attempts yet">Attempts appear here once they have been imported.</EmptyState>
       ) : (
-        <AttemptList options={options.data} />
+        <AttemptList state={state} />
       )}
     </div>
   );
 }
 
-function AttemptList({ options }: { options: OptionsAnswer }) {
+function AttemptList({ state }: { state: InsightFilterState }) {
+  const { options } = state;
   const errorFilter: FilterDefinition = {
     key: "error",
     label: "Error",
     options: options.errors.filter((e) => (attemptErrorNames as readonly string[]).includes(e.name)).map((e) => ({ value: e.name, label: e.label })),
     allLabel: "Any result",
   };
-  const filters = [...insightFilters(options, ["quarter", "site", "patientType", "feedback", "instructor", "manikin"]), errorFilter];
+  const filters = [...state.definitions, errorFilter];
   const values = useFilterValues(filters);
   const [params, setParams] = useSearchParams();
   const page = Math.max(1, Number.parseInt(params.get("page") ?? "1", 10) || 1);
@@ -61,7 +62,7 @@ function AttemptList({ options }: { options: OptionsAnswer }) {
       { replace: true },
     );
   }, [filterKey, setParams]);
-  const list = useQuery(attemptQueries.list({ ...apiFilterQuery(values, options.quarters), error: values.error ?? undefined, page: String(page), pageSize: String(PAGE_SIZE) }));
+  const list = useQuery(attemptQueries.list({ ...state.api, error: values.error ?? undefined, page, pageSize: PAGE_SIZE }));
 
   function goTo(next: number) {
     setParams((previous) => {

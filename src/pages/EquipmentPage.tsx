@@ -3,23 +3,26 @@
 import { useQuery } from "@tanstack/react-query";
 import { Link } from "react-router";
 import type { EquipmentAnswer } from "../../shared/schemas/equipment";
-import type { OptionsAnswer } from "../../shared/schemas/insight";
-import { FilterBar, useFilterValues } from "../components/FilterBar";
+import { FilterBar } from "../components/FilterBar";
 import { PageHeader } from "../components/PageHeader";
 import { EmptyState, ErrorState, LoadingState } from "../components/States";
 import { dateOnly } from "../features/attempts/labels";
-import { apiFilterQuery, insightFilters, periodWords, useInsightOptions, type InsightFilterKey } from "../features/attempts/insightFilters";
 import { useCan } from "../features/auth/useCan";
 import { AttentionList } from "../features/equipment/AttentionList";
 import { ConsumablesCharts } from "../features/equipment/ConsumablesChart";
 import { FleetTable } from "../features/equipment/FleetTable";
 import { equipmentQueries } from "../features/equipment/queries";
 import { UsageChart } from "../features/equipment/UsageChart";
+import { periodWords, useInsightFilters, type InsightFilterState, type OptionalFilter } from "../features/insight/useInsightFilters";
+
+// an instructor's view is their own site already: no site filter
+const filterKeys: readonly OptionalFilter[] = ["site", "patientType", "manikin"];
+const ownSiteFilterKeys: readonly OptionalFilter[] = ["patientType", "manikin"];
 
 export default function EquipmentPage() {
-  const options = useInsightOptions();
   // "own" reach: an instructor sees their own site's manikins and their own classes
   const ownSite = !useCan("readEquipment", "any");
+  const { optionsQuery: options, state } = useInsightFilters(ownSite ? ownSiteFilterKeys : filterKeys, { ranges: true });
   return (
     <div>
       <PageHeader
@@ -35,20 +38,18 @@ export default function EquipmentPage() {
       ) : options.isError ? (
         <ErrorState error={options.error} onRetry={() => options.refetch()} />
       ) : (
-        <Equipment options={options.data} ownSite={ownSite} />
+        <Equipment state={state} ownSite={ownSite} />
       )}
     </div>
   );
 }
 
-function Equipment({ options, ownSite }: { options: OptionsAnswer; ownSite: boolean }) {
-  const keys: InsightFilterKey[] = ownSite ? ["quarter", "patientType", "manikin"] : ["quarter", "site", "patientType", "manikin"];
-  const filters = insightFilters(options, keys);
-  const values = useFilterValues(filters);
-  const report = useQuery(equipmentQueries.report(apiFilterQuery(values, options.quarters)));
+/** The fleet is shown even before any attempt (and so any quarter) exists: then without filters. */
+function Equipment({ state, ownSite }: { state: InsightFilterState | null; ownSite: boolean }) {
+  const report = useQuery(equipmentQueries.report(state?.api ?? {}));
   return (
     <>
-      {options.quarters.length > 0 && <FilterBar filters={filters} label="Filter the equipment view" />}
+      {state && <FilterBar filters={state.definitions} label="Filter the equipment view" />}
       {report.isPending ? (
         <LoadingState label="Loading the fleet…" />
       ) : report.isError ? (

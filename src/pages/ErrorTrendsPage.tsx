@@ -4,24 +4,23 @@ import { useQuery } from "@tanstack/react-query";
 import { useCallback } from "react";
 import { Link, useSearchParams } from "react-router";
 import type { FeedbackMode } from "../../shared/domain";
-import type { OptionsAnswer } from "../../shared/schemas/insight";
 import type { PatientType } from "../../shared/scoring/policy";
 import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
 import { Select } from "../components/Field";
-import { FilterBar, useFilterValues, type FilterValues } from "../components/FilterBar";
+import { FilterBar, type FilterValues } from "../components/FilterBar";
 import { PageHeader } from "../components/PageHeader";
 import { EmptyState, ErrorState, LoadingState } from "../components/States";
-import { apiFilterQuery, insightFilters, linkParams, periodWords, useInsightOptions } from "../features/attempts/insightFilters";
 import { BreakdownPanel, type BreakdownRow } from "../features/errors/BreakdownPanel";
 import { ErrorTrendChart } from "../features/errors/ErrorTrendChart";
 import { ParetoChart } from "../features/errors/ParetoChart";
 import { errorQueries } from "../features/errors/queries";
+import { linkParams, periodWords, useInsightFilters, type InsightFilterState, type OptionalFilter } from "../features/insight/useInsightFilters";
 import { feedbackNames, patientTypeNames } from "../../shared/vocabulary";
 
-const filterKeys = ["quarter", "site", "patientType", "feedback", "instructor", "manikin"] as const;
+const filterKeys: readonly OptionalFilter[] = ["site", "patientType", "feedback", "instructor", "manikin"];
 
 export default function ErrorTrendsPage() {
-  const options = useInsightOptions();
+  const { optionsQuery: options, state } = useInsightFilters(filterKeys, { ranges: true });
   return (
     <div>
       <PageHeader
@@ -32,10 +31,10 @@ export default function ErrorTrendsPage() {
         <LoadingState label="Loading the filters…" />
       ) : options.isError ? (
         <ErrorState error={options.error} onRetry={() => options.refetch()} />
-      ) : options.data.quarters.length === 0 ? (
+      ) : !state ? (
         <EmptyState title="No attempts yet">Error trends appear once attempts have been imported.</EmptyState>
       ) : (
-        <ErrorTrends options={options.data} />
+        <ErrorTrends state={state} />
       )}
     </div>
   );
@@ -45,13 +44,12 @@ function isError(value: string | null): value is AttemptError {
   return value !== null && (attemptErrorNames as readonly string[]).includes(value);
 }
 
-function ErrorTrends({ options }: { options: OptionsAnswer }) {
-  const filters = insightFilters(options, filterKeys);
-  const values = useFilterValues(filters);
+function ErrorTrends({ state }: { state: InsightFilterState }) {
+  const { options, definitions: filters, values } = state;
   const [params, setParams] = useSearchParams();
   const rawError = params.get("error");
   const error = isError(rawError) ? rawError : null;
-  const query = { ...apiFilterQuery(values, options.quarters), error: error ?? undefined };
+  const query = { ...state.api, error: error ?? undefined };
   const analysis = useQuery(errorQueries.analysis(query));
 
   const examineHref = useCallback(

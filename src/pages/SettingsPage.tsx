@@ -10,7 +10,7 @@ import { PageHeader } from "../components/PageHeader";
 import { SafetyNote } from "../components/SafetyNote";
 import { ErrorState, LoadingState } from "../components/States";
 import { dateTime } from "../features/attempts/labels";
-import { useInsightOptions } from "../features/attempts/insightFilters";
+import { useInsightOptions } from "../features/insight/useInsightFilters";
 import { useCan } from "../features/auth/useCan";
 import { useSavePolicy } from "../features/settings/mutations";
 import { PolicyForm, shortSourceName } from "../features/settings/PolicyForm";

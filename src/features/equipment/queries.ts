@@ -1,14 +1,15 @@
 import { keepPreviousData, queryOptions } from "@tanstack/react-query";
-import { filtersToQuery } from "../../../shared/filters";
-import type { EquipmentAnswer } from "../../../shared/schemas/equipment";
-import { http } from "../../api/http";
+import { equipmentAnswerSchema } from "../../../shared/schemas/equipment";
+import { getParsed } from "../../api/getParsed";
+import { withQuery } from "../../api/withQuery";
+import type { ApiFilters } from "../insight/queries";
 
 export const equipmentQueries = {
   all: () => ["equipment"] as const,
-  report: (query: Record<string, string | undefined>) =>
+  report: (query: ApiFilters) =>
     queryOptions({
       queryKey: [...equipmentQueries.all(), query] as const,
-      queryFn: ({ signal }) => http.get<EquipmentAnswer>(`/api/equipment?${filtersToQuery(query)}`, signal),
+      queryFn: ({ signal }) => getParsed(equipmentAnswerSchema, withQuery("/api/equipment", query), signal),
       placeholderData: keepPreviousData,
     }),
 };

@@ -1,14 +1,15 @@
 import { keepPreviousData, queryOptions } from "@tanstack/react-query";
-import { filtersToQuery } from "../../../shared/filters";
-import type { ErrorsAnswer } from "../../../shared/schemas/insight";
-import { http } from "../../api/http";
+import { errorsAnswerSchema } from "../../../shared/schemas/insight";
+import { getParsed } from "../../api/getParsed";
+import { withQuery } from "../../api/withQuery";
+import type { ApiFilters } from "../insight/queries";
 
 export const errorQueries = {
   all: () => ["errors"] as const,
-  analysis: (query: Record<string, string | undefined>) =>
+  analysis: (query: ApiFilters & { error?: string }) =>
     queryOptions({
       queryKey: [...errorQueries.all(), query] as const,
-      queryFn: ({ signal }) => http.get<ErrorsAnswer>(`/api/insight/errors?${filtersToQuery(query)}`, signal),
+      queryFn: ({ signal }) => getParsed(errorsAnswerSchema, withQuery("/api/insight/errors", query), signal),
       placeholderData: keepPreviousData,
     }),
 };
