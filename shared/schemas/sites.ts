@@ -28,6 +28,8 @@ export const siteRowSchema = z.object({
   manikins: z.number(),
 });
 export type SiteRow = z.infer<typeof siteRowSchema>;
+/** GET /api/sites. */
+export const siteListAnswerSchema = z.object({ sites: z.array(siteRowSchema) });
 
 export const newInstructorSchema = z.object({
   code: codeSchema,
@@ -52,3 +54,5 @@ export const instructorRowSchema = z.object({
   active: z.boolean(),
 });
 export type InstructorRow = z.infer<typeof instructorRowSchema>;
+/** GET /api/instructors. */
+export const instructorListAnswerSchema = z.object({ instructors: z.array(instructorRowSchema) });

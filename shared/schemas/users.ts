@@ -41,3 +41,5 @@ export const userRowSchema = z.object({
   createdAt: z.string(),
 });
 export type UserRow = z.infer<typeof userRowSchema>;
+/** GET /api/users. */
+export const userListAnswerSchema = z.object({ users: z.array(userRowSchema) });

@@ -7,6 +7,8 @@ import { batchDetailResponseSchema, batchListResponseSchema, formatsResponseSche
 import { sessionAnswerSchema } from "../../shared/schemas/auth";
 import { dataVersionAnswerSchema } from "../../shared/schemas/dataVersion";
 import { optionsAnswerSchema } from "../../shared/schemas/insight";
+import { instructorListAnswerSchema, siteListAnswerSchema } from "../../shared/schemas/sites";
+import { userListAnswerSchema } from "../../shared/schemas/users";
 import type { Db } from "../../server/db/client";
 import { makeTestApp, makeTestDb, seedPeople, signIn, type Agent, type TestApp } from "../helpers/testApp";
 
@@ -44,6 +46,12 @@ describe("answers fit the schemas the client parses them with", () => {
     expect(sessionAnswerSchema.parse((await instructor.get("/api/me").expect(200)).body).user.role).toBe("instructor");
     expect(dataVersionAnswerSchema.parse((await instructor.get("/api/data-version").expect(200)).body).version).not.toBe("");
     expect(optionsAnswerSchema.parse((await instructor.get("/api/insight/options").expect(200)).body).quarters).toEqual([]);
+  });
+
+  it("users, sites and instructors", async () => {
+    expect(userListAnswerSchema.parse((await coordinator.get("/api/users").expect(200)).body).users.length).toBeGreaterThan(1);
+    expect(siteListAnswerSchema.parse((await coordinator.get("/api/sites").expect(200)).body).sites.map((s) => s.code)).toEqual(["NORTH", "SOUTH"]);
+    expect(instructorListAnswerSchema.parse((await coordinator.get("/api/instructors").expect(200)).body).instructors.length).toBeGreaterThan(1);
   });
 
   it("import formats, presets, history, one batch and a job", async () => {

@@ -55,6 +55,9 @@ describe("answers are checked against their shared schemas", () => {
     { name: "import presets", options: importQueries.presets("classes"), path: "/api/imports/presets?kind=classes" },
     { name: "import batch", options: importQueries.batch(3), path: "/api/imports/batches/3" },
     { name: "import job", options: importQueries.job("j1"), path: "/api/imports/jobs/j1" },
+    { name: "users", options: userQueries.list(), path: "/api/users" },
+    { name: "sites", options: siteQueries.list(), path: "/api/sites" },
+    { name: "instructors", options: instructorQueries.list(), path: "/api/instructors" },
   ];
 
   it.each(checked)("refuses an answer of the wrong shape: $name", async ({ options, path }) => {

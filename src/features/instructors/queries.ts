@@ -1,13 +1,12 @@
 import { queryOptions } from "@tanstack/react-query";
-import type { InstructorRow } from "../../../shared/schemas/sites";
-import { http } from "../../api/http";
+import { instructorListAnswerSchema } from "../../../shared/schemas/sites";
+import { getParsed } from "../../api/getParsed";
 
 export const instructorQueries = {
   all: () => ["instructors"] as const,
   list: () =>
     queryOptions({
       queryKey: [...instructorQueries.all(), "list"] as const,
-      queryFn: async ({ signal }) =>
-        (await http.get<{ instructors: InstructorRow[] }>("/api/instructors", signal)).instructors,
+      queryFn: async ({ signal }) => (await getParsed(instructorListAnswerSchema, "/api/instructors", signal)).instructors,
     }),
 };

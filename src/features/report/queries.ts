@@ -1,7 +1,8 @@
 // The funder report API (server/reports/routes.ts) as TanStack Query options.
 import { queryOptions } from "@tanstack/react-query";
 import type { ReportData, ReportSendRow, ReportVersion } from "../../../shared/schemas/report";
-import type { UserRow } from "../../../shared/schemas/users";
+import { userListAnswerSchema } from "../../../shared/schemas/users";
+import { getParsed } from "../../api/getParsed";
 import { http } from "../../api/http";
 
 export const reportQueries = {
@@ -39,7 +40,8 @@ export const reportQueries = {
     queryOptions({
       queryKey: [...reportQueries.all(), "funders"] as const,
       queryFn: async ({ signal }) =>
-        (await http.get<{ users: UserRow[] }>("/api/users", signal)).users.filter((u) => u.role === "funder" && u.active).map((u) => u.email),
+        // the role here is the data asked for (who receives the report), not a permission check
+        (await getParsed(userListAnswerSchema, "/api/users", signal)).users.filter((u) => u.role === "funder" && u.active).map((u) => u.email),
     }),
 };
 

@@ -1,12 +1,12 @@
 import { queryOptions } from "@tanstack/react-query";
-import type { SiteRow } from "../../../shared/schemas/sites";
-import { http } from "../../api/http";
+import { siteListAnswerSchema } from "../../../shared/schemas/sites";
+import { getParsed } from "../../api/getParsed";
 
 export const siteQueries = {
   all: () => ["sites"] as const,
   list: () =>
     queryOptions({
       queryKey: [...siteQueries.all(), "list"] as const,
-      queryFn: async ({ signal }) => (await http.get<{ sites: SiteRow[] }>("/api/sites", signal)).sites,
+      queryFn: async ({ signal }) => (await getParsed(siteListAnswerSchema, "/api/sites", signal)).sites,
     }),
 };

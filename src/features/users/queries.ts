@@ -1,12 +1,12 @@
 import { queryOptions } from "@tanstack/react-query";
-import type { UserRow } from "../../../shared/schemas/users";
-import { http } from "../../api/http";
+import { userListAnswerSchema } from "../../../shared/schemas/users";
+import { getParsed } from "../../api/getParsed";
 
 export const userQueries = {
   all: () => ["users"] as const,
   list: () =>
     queryOptions({
       queryKey: [...userQueries.all(), "list"] as const,
-      queryFn: async ({ signal }) => (await http.get<{ users: UserRow[] }>("/api/users", signal)).users,
+      queryFn: async ({ signal }) => (await getParsed(userListAnswerSchema, "/api/users", signal)).users,
     }),
 };
