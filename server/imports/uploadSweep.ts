@@ -4,6 +4,7 @@
 // alone, so several servers can share the temp folder.
 import fs from "node:fs";
 import path from "node:path";
+import { processIsAlive } from "../ops/processAlive";
 
 const PREFIX = "quarterbeat-uploads-";
 /** quarterbeat-uploads-<pid>-<six random characters from mkdtemp> */
@@ -14,16 +15,6 @@ const UNOWNED_KEEP_MS = 6 * 60 * 60 * 1000;
 /** The prefix for this process's upload folder, for fs.mkdtemp. */
 export function uploadFolderPrefix(root: string): string {
   return path.join(root, `${PREFIX}${process.pid}-`);
-}
-
-function processIsAlive(pid: number): boolean {
-  try {
-    process.kill(pid, 0);
-    return true;
-  } catch (err) {
-    // EPERM: the process exists but belongs to someone else
-    return (err as NodeJS.ErrnoException).code === "EPERM";
-  }
 }
 
 function isOrphaned(dir: string, name: string, now: number): boolean {

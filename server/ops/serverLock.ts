@@ -11,6 +11,7 @@ import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { AppError } from "../errors";
+import { processIsAlive } from "./processAlive";
 
 export interface LockHolder {
   pid: number;
@@ -19,16 +20,6 @@ export interface LockHolder {
 }
 
 export const lockFileOf = (dbFile: string) => `${path.resolve(dbFile)}.server-lock`;
-
-function processAlive(pid: number): boolean {
-  try {
-    process.kill(pid, 0);
-    return true;
-  } catch (err) {
-    // EPERM: the process exists but belongs to someone else
-    return (err as NodeJS.ErrnoException).code === "EPERM";
-  }
-}
 
 function readHolder(lockFile: string): LockHolder | null {
   try {
@@ -44,7 +35,7 @@ function readHolder(lockFile: string): LockHolder | null {
 export function serverHolding(dbFile: string): LockHolder | null {
   const holder = readHolder(lockFileOf(dbFile));
   if (!holder) return null;
-  if (holder.host === os.hostname() && holder.pid > 0 && !processAlive(holder.pid)) return null;
+  if (holder.host === os.hostname() && holder.pid > 0 && !processIsAlive(holder.pid)) return null;
   return holder;
 }
 
