@@ -248,36 +248,95 @@ export const attempts = sqliteTable(
     index("attempts_class_idx").on(t.classId),
     index("attempts_manikin_idx").on(t.manikinId, t.quarter),
     index("attempts_batch_idx").on(t.batchId),
-    // each instructor's attempts in score order with every filter column: per-instructor medians are read by
-    // walking to the middle, per-instructor counts in one pass, neither touching the table rows
-    index("attempts_instructor_score_idx").on(
-      t.instructorId,
-      t.score,
-      t.quarter,
-      t.feedback,
-      t.profile,
-      t.siteId,
-      t.manikinId,
-      t.passed,
-    ),
-    // covers the network statistics (counts, results, error bits, scores by quarter and feedback mode), so a
-    // period is read from this index alone, in quarter and feedback order, without touching the table rows
-    index("attempts_insight_idx").on(
-      t.quarter,
-      t.feedback,
-      t.profile,
-      t.siteId,
-      t.instructorId,
-      t.manikinId,
-      t.passed,
-      t.instructorResult,
-      t.errorMask,
-      t.score,
-    ),
   ],
 );
 
 /** Raw compressions of an attempt, packed (server/streams/codec.ts). */
+/**
+ * Attempt tallies by every dimension a figure can be filtered or grouped on (quarter, site, instructor,
+ * manikin — 0 for none —, patient type, feedback display) and the policy version that scored them: counts,
+ * passes, the instructor-against-measurement cells and each error's count. Kept by triggers on `attempts`
+ * (drizzle/0005_attempt_summary_triggers.sql) in the transaction that writes the attempts, so every figure is
+ * a sum over a few of these rows instead of a scan of attempts. See docs/decisions/004-metric-summaries.md.
+ */
+export const attemptTallies = sqliteTable(
+  "attempt_tallies",
+  {
+    quarter: text().notNull(),
+    siteId: integer().notNull(),
+    instructorId: integer().notNull(),
+    manikinId: integer().notNull(), // 0 when the attempt names no manikin
+    profile: text({ enum: patientTypes }).notNull(),
+    feedback: text({ enum: feedbackModes }).notNull(),
+    policyVersion: integer().notNull(),
+    n: integer().notNull(),
+    passed: integer().notNull(),
+    /** instructor's result × measured result: pass/pass, pass/fail, fail/pass, fail/fail */
+    judgedPp: integer().notNull(),
+    judgedPf: integer().notNull(),
+    judgedFp: integer().notNull(),
+    judgedFf: integer().notNull(),
+    withErrors: integer().notNull(),
+    compressions: integer().notNull(),
+    // one column per attempt error, in attemptErrorNames order (bit i of the error mask)
+    errTooShallow: integer().notNull(),
+    errTooDeep: integer().notNull(),
+    errTooSlow: integer().notNull(),
+    errTooFast: integer().notNull(),
+    errIncompleteRecoil: integer().notNull(),
+    errLowHandsOn: integer().notNull(),
+    errLongPause: integer().notNull(),
+  },
+  (t) => [
+    primaryKey({ columns: [t.quarter, t.profile, t.feedback, t.siteId, t.instructorId, t.manikinId, t.policyVersion] }),
+    index("attempt_tallies_instructor_idx").on(t.instructorId, t.quarter),
+  ],
+);
+
+const summaryMetrics = ["score", "depth_ok_pct", "rate_ok_pct", "recoil_ok_pct", "hands_on_pct"] as const;
+
+/**
+ * How many attempts of each group (the dimensions of attempt_tallies) have each value of a metric: the exact
+ * distribution at the values as recorded, from which medians of filtered scopes and of each instructor are read
+ * without touching attempts. Kept by the same triggers.
+ */
+export const attemptValues = sqliteTable(
+  "attempt_values",
+  {
+    metric: text({ enum: summaryMetrics }).notNull(),
+    quarter: text().notNull(),
+    instructorId: integer().notNull(),
+    profile: text({ enum: patientTypes }).notNull(),
+    feedback: text({ enum: feedbackModes }).notNull(),
+    siteId: integer().notNull(),
+    manikinId: integer().notNull(),
+    value: real().notNull(),
+    count: integer().notNull(),
+  },
+  (t) => [
+    primaryKey({ columns: [t.metric, t.quarter, t.instructorId, t.profile, t.feedback, t.siteId, t.manikinId, t.value] }),
+    index("attempt_values_instructor_idx").on(t.metric, t.instructorId, t.quarter),
+    index("attempt_values_site_idx").on(t.metric, t.siteId, t.quarter),
+  ],
+);
+
+/**
+ * The same distributions for the whole network by quarter, patient type and feedback display only: a few
+ * hundred values per group at the resolution devices record, so a network median reads a few thousand rows.
+ */
+export const networkValues = sqliteTable(
+  "network_values",
+  {
+    metric: text({ enum: summaryMetrics }).notNull(),
+    quarter: text().notNull(),
+    profile: text({ enum: patientTypes }).notNull(),
+    feedback: text({ enum: feedbackModes }).notNull(),
+    value: real().notNull(),
+    count: integer().notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.metric, t.quarter, t.profile, t.feedback, t.value] })],
+);
+
 export const compressionStreams = sqliteTable(
   "compression_streams",
   {

@@ -7,6 +7,7 @@ import { DEFAULT_POLICY, type EquipmentPolicy } from "../../shared/scoring/polic
 import type { Db } from "../db/client";
 import { attempts, classes, equipmentEvents, manikins, sites } from "../db/schema";
 import type { ResolvedFilters } from "../insight/filters";
+import { talliesByPair } from "../metrics/summaries";
 import { trendQuarters } from "../insight/quarters";
 
 const DAY_MS = 86_400_000;
@@ -69,12 +70,14 @@ export function equipmentReport(db: Db, policy: EquipmentPolicy, scope: Equipmen
   const onFleet = (column: typeof attempts.manikinId | typeof equipmentEvents.manikinId) =>
     fleetConditions.length === 0 ? isNotNull(column) : inArray(column, ids.length ? ids : [-1]);
 
-  const usage = db
-    .select({ manikinId: attempts.manikinId, quarter: attempts.quarter, n: sql<number>`count(*)`, compressions: sql<number>`sum(${attempts.compressions})` })
-    .from(attempts)
-    .where(and(onFleet(attempts.manikinId), between(attempts.quarter, trend.from, trend.to)))
-    .groupBy(attempts.manikinId, attempts.quarter)
-    .all();
+  // attempts and compressions per manikin and quarter, from the attempt summaries
+  const fleetIds = new Set(ids);
+  const usage = [...talliesByPair(db, { from: trend.from, to: trend.to, siteId: null, profile: null, feedback: null, instructorId: null, manikinId: null }, "manikinId", "quarter")]
+    .map(([key, tally]) => {
+      const [manikinId, quarter] = key.split("|");
+      return { manikinId: Number(manikinId), quarter, n: tally.n, compressions: tally.compressions };
+    })
+    .filter((row) => fleetIds.has(row.manikinId));
   const usageOf = new Map(usage.map((row) => [`${row.manikinId}|${row.quarter}`, row]));
 
   const events = db

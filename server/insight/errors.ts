@@ -1,34 +1,27 @@
 // Drill-down on errors: the Pareto for the filters and, for one chosen error, its quarterly trend and where
 // it happens (patient type, feedback mode, site, instructor, manikin).
-import { sql, type SQL } from "drizzle-orm";
-import type { SQLiteColumn } from "drizzle-orm/sqlite-core";
 import type { ErrorsAnswer } from "../../shared/schemas/insight";
 import { type AttemptError } from "../../shared/scoring/scoreAttempt";
 import type { Db } from "../db/client";
-import { attempts, instructors, manikins, sites } from "../db/schema";
+import { instructors, manikins, sites } from "../db/schema";
+import { talliesBy, totalTally, type Dimension, type SummaryScope } from "../metrics/summaries";
 import type { ResolvedFilters } from "./filters";
 import { errorPareto } from "./pareto";
 import { trendQuarters } from "./quarters";
 import { rateOf } from "./rates";
-import { attemptConditions, errorCountColumns, errorCountsOf, hasError } from "./sql";
+import { scopeOf } from "./sql";
 import { errorLabels } from "../../shared/vocabulary";
 
 type Breakdown = NonNullable<ErrorsAnswer["selected"]>["byProfile"];
 
-function breakdown(db: Db, column: SQLiteColumn, where: SQL, error: AttemptError, nameOf: (key: string | number | null) => string): Breakdown {
-  return db
-    .select({ key: column, attempts: sql<number>`count(*)`, count: sql<number>`sum(${hasError(error)})` })
-    .from(attempts)
-    .where(where)
-    .groupBy(column)
-    .all()
-    .map((row) => ({
-      key: nameOf(row.key as string | number | null),
-      id: typeof row.key === "number" ? row.key : null,
-      count: row.count,
-      attempts: row.attempts,
-      share: row.count / row.attempts,
-    }))
+/** Attempts with `error` among the attempts of each value of `dimension`, most frequent first. */
+function breakdown(db: Db, scope: SummaryScope, dimension: Dimension, error: AttemptError, nameOf: (key: string | number | null) => string): Breakdown {
+  return [...talliesBy<string | number>(db, scope, dimension)]
+    .map(([stored, tally]) => {
+      // a manikin key of 0 stands for attempts that name no manikin
+      const key = dimension === "manikinId" && stored === 0 ? null : stored;
+      return { key: nameOf(key), id: typeof key === "number" ? key : null, count: tally.errors[error], attempts: tally.n, share: tally.errors[error] / tally.n };
+    })
     .sort((a, b) => b.count - a.count || b.share - a.share || (a.key < b.key ? -1 : 1));
 }
 
@@ -37,25 +30,13 @@ function codes(db: Db, table: typeof sites | typeof instructors): Map<number, st
 }
 
 export function errorAnalysis(db: Db, filters: ResolvedFilters, error: AttemptError | undefined): ErrorsAnswer {
-  const where = attemptConditions(filters);
-  const totals = db
-    .select({ n: sql<number>`count(*)`, ...errorCountColumns() })
-    .from(attempts)
-    .where(where)
-    .get()!;
-  const answer: ErrorsAnswer = { period: filters.period, pareto: errorPareto(errorCountsOf(totals), totals.n, false), selected: null };
+  const scope = scopeOf(filters);
+  const totals = totalTally(db, scope);
+  const answer: ErrorsAnswer = { period: filters.period, pareto: errorPareto(totals.errors, totals.n, false), selected: null };
   if (!error) return answer;
 
   const trend = trendQuarters(filters.period);
-  const byQuarter = new Map(
-    db
-      .select({ quarter: attempts.quarter, n: sql<number>`count(*)`, count: sql<number>`sum(${hasError(error)})` })
-      .from(attempts)
-      .where(attemptConditions(filters, trend))
-      .groupBy(attempts.quarter)
-      .all()
-      .map((row) => [row.quarter, row]),
-  );
+  const byQuarter = talliesBy<string>(db, scopeOf(filters, trend), "quarter");
   const siteCodes = codes(db, sites);
   const instructorCodes = codes(db, instructors);
   const assetIds = new Map(db.select({ id: manikins.id, assetId: manikins.assetId }).from(manikins).all().map((row) => [row.id, row.assetId]));
@@ -65,15 +46,16 @@ export function errorAnalysis(db: Db, filters: ResolvedFilters, error: AttemptEr
     error,
     label: errorLabels[error],
     trend: trend.quarters.map((quarter) => {
-      const row = byQuarter.get(quarter) ?? { n: 0, count: 0 };
-      const rate = rateOf(row.count, row.n);
-      return { quarter, count: row.count, attempts: row.n, share: rate.rate, low: rate.low, high: rate.high };
+      const tally = byQuarter.get(quarter);
+      const count = tally?.errors[error] ?? 0;
+      const rate = rateOf(count, tally?.n ?? 0);
+      return { quarter, count, attempts: tally?.n ?? 0, share: rate.rate, low: rate.low, high: rate.high };
     }),
-    byProfile: breakdown(db, attempts.profile, where, error, String),
-    byFeedback: breakdown(db, attempts.feedback, where, error, String),
-    bySite: breakdown(db, attempts.siteId, where, error, named(siteCodes)),
-    byInstructor: breakdown(db, attempts.instructorId, where, error, named(instructorCodes)),
-    byManikin: breakdown(db, attempts.manikinId, where, error, named(assetIds)),
+    byProfile: breakdown(db, scope, "profile", error, String),
+    byFeedback: breakdown(db, scope, "feedback", error, String),
+    bySite: breakdown(db, scope, "siteId", error, named(siteCodes)),
+    byInstructor: breakdown(db, scope, "instructorId", error, named(instructorCodes)),
+    byManikin: breakdown(db, scope, "manikinId", error, named(assetIds)),
   };
   return answer;
 }

@@ -4,14 +4,15 @@ import { eq, sql } from "drizzle-orm";
 import type { InstructorDetailAnswer, InstructorsAnswer } from "../../shared/schemas/insight";
 import { classifyAgainstFunnel } from "../../shared/stats";
 import type { Db } from "../db/client";
-import { attempts, classes, instructors, sites } from "../db/schema";
+import { classes, instructors, sites } from "../db/schema";
+import { mediansBy, talliesBy } from "../metrics/summaries";
 import { notFound } from "../errors";
 import { classRows } from "./classes";
 import type { ResolvedFilters } from "./filters";
 import { funnelLimitCurve } from "./funnel";
 import { trendQuarters } from "./quarters";
 import { rateOf } from "./rates";
-import { attemptConditions, classConditions, groupSummaries, scoreSummariesByInstructor } from "./sql";
+import { classConditions, scopeOf } from "./sql";
 
 /** Instructors with their site, by id (one instructor when `id` is given). */
 function instructorDirectory(db: Db, id?: number) {
@@ -30,7 +31,10 @@ function instructorDirectory(db: Db, id?: number) {
 }
 
 export function instructorTable(db: Db, filters: ResolvedFilters): InstructorsAnswer {
-  const summaries = scoreSummariesByInstructor(db, attemptConditions(filters));
+  const scope = scopeOf(filters);
+  const tallies = talliesBy<number>(db, scope, "instructorId");
+  const medians = mediansBy<number>(db, "score", scope, "instructorId");
+  const summaries = new Map([...tallies].map(([id, { n, passed }]) => [id, { n, passed, median: medians.get(id)! }]));
   // classes come from the class logs (with a matching attempt when an attempt filter is set)
   const classCounts = new Map(
     db
@@ -84,7 +88,9 @@ export function instructorDetail(db: Db, instructorId: number, filters: Resolved
   if (!person) throw notFound("The instructor");
   const own = { ...filters, instructorId };
   const trend = trendQuarters(filters.period);
-  const byQuarter = groupSummaries<string>(db, attempts.score, attempts.quarter, attemptConditions(own, trend));
+  const tallies = talliesBy<string>(db, scopeOf(own, trend), "quarter");
+  const medians = mediansBy<string>(db, "score", scopeOf(own, trend), "quarter");
+  const byQuarter = new Map([...tallies].map(([quarter, { n, passed }]) => [quarter, { n, passed, median: medians.get(quarter)! }]));
   return {
     period: filters.period,
     instructor: person,

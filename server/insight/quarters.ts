@@ -1,29 +1,13 @@
 // Quarters as the insight routes need them: which quarters hold attempts, and the windows around a period.
-import { sql } from "drizzle-orm";
 import { previousQuarter, quartersBetween } from "../../shared/quarter";
 import type { Period } from "../../shared/schemas/insight";
 import type { Db } from "../db/client";
-import { attempts } from "../db/schema";
+import { quartersWithAttempts } from "../metrics/summaries";
 import { cached } from "./cache";
 
-/**
- * Quarters that have attempts, newest first. Walks the quarter index one distinct value at a time (a
- * recursive skip-scan), so it costs a few index seeks however many attempts there are.
- */
+/** Quarters that have attempts, newest first (from the attempt summaries: a few hundred rows at most). */
 export function quartersWithData(db: Db): string[] {
-  return cached(db, "quarters", () =>
-    db
-      .all<{ quarter: string }>(
-        sql`WITH RECURSIVE q(quarter) AS (
-              SELECT max(${attempts.quarter}) FROM ${attempts}
-              UNION ALL
-              SELECT (SELECT max(${attempts.quarter}) FROM ${attempts} WHERE ${attempts.quarter} < q.quarter) FROM q
-              WHERE q.quarter IS NOT NULL
-            )
-            SELECT quarter FROM q WHERE quarter IS NOT NULL`,
-      )
-      .map((row) => row.quarter),
-  );
+  return cached(db, "quarters", () => quartersWithAttempts(db));
 }
 
 function shiftBack(quarter: string, by: number): string {

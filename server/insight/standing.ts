@@ -1,55 +1,45 @@
 // "My standing": an instructor's own medians and pass rate beside the network's, the anonymous spread of all
 // instructors, the funnel with the instructor's own point, the error profile and the classes. Other
 // instructors appear only as anonymous points and network aggregates.
-import { eq, type SQL } from "drizzle-orm";
+import { eq } from "drizzle-orm";
 import { standingMetricKeys, type StandingAnswer } from "../../shared/schemas/insight";
 import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
 import { classifyAgainstFunnel, percentileRank } from "../../shared/stats";
 import type { Db } from "../db/client";
-import { attempts, instructors } from "../db/schema";
+import { instructors } from "../db/schema";
+import { addTally, emptyTally, medianIn, mediansBy, talliesBy, type Tally } from "../metrics/summaries";
 import { forbidden } from "../errors";
 import { cached } from "./cache";
 import { filtersKey, type ResolvedFilters } from "./filters";
 import { funnelLimitCurve } from "./funnel";
 import { classRows } from "./classes";
 import { rateOf } from "./rates";
-import { attemptConditions, classConditions, errorCountColumns, errorCountsOf, groupSummaries, medianOf, scoreSummariesByInstructor, type GroupSummary } from "./sql";
+import { classConditions, scopeOf } from "./sql";
 import { hidesGroup, type Viewer } from "./viewer";
 import { errorLabels } from "../../shared/vocabulary";
-
-const metricColumns = {
-  score: attempts.score,
-  depth_ok_pct: attempts.depthOkPct,
-  rate_ok_pct: attempts.rateOkPct,
-  recoil_ok_pct: attempts.recoilOkPct,
-  hands_on_pct: attempts.handsOnPct,
-} as const;
 
 type MetricKey = (typeof standingMetricKeys)[number];
 
 /** The figures every instructor's standing shares for the same filters: computed once per database state. */
 interface NetworkFigures {
-  /** Per instructor and metric: attempts, passes and median. */
-  byInstructor: Record<MetricKey, Map<number, GroupSummary>>;
+  /** Attempts, passes and errors per instructor. */
+  tallies: Map<number, Tally>;
+  /** Per metric: each instructor's median. */
+  byInstructor: Record<MetricKey, Map<number, number>>;
   medians: Record<MetricKey, number | null>;
   errors: Record<AttemptError, number>;
 }
 
-function errorCounts(db: Db, where: SQL): Record<AttemptError, number> {
-  return errorCountsOf(db.select(errorCountColumns()).from(attempts).where(where).get()!);
-}
-
 function networkFigures(db: Db, network: ResolvedFilters): NetworkFigures {
   return cached(db, `standing-network|${filtersKey(network)}`, () => {
-    const where = attemptConditions(network);
+    const scope = scopeOf(network);
     const byMetric = <T>(compute: (key: MetricKey) => T) => Object.fromEntries(standingMetricKeys.map((key) => [key, compute(key)])) as Record<MetricKey, T>;
+    const tallies = talliesBy<number>(db, scope, "instructorId");
     return {
-      // the score from its index; the other metrics by a window sort each
-      byInstructor: byMetric((key) =>
-        key === "score" ? scoreSummariesByInstructor(db, where) : groupSummaries<number>(db, metricColumns[key], attempts.instructorId, where),
-      ),
-      medians: byMetric((key) => medianOf(db, metricColumns[key], where)),
-      errors: errorCounts(db, where),
+      tallies,
+      byInstructor: byMetric((key) => mediansBy<number>(db, key, scope, "instructorId")),
+      medians: byMetric((key) => medianIn(db, key, scope)),
+      errors: [...tallies.values()].reduce(addTally, emptyTally()).errors,
     };
   });
 }
@@ -62,8 +52,8 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
 
   const mine = { ...filters, instructorId: me };
   const min = viewer.suppressionMinCount;
-  const { byInstructor, medians, errors: networkErrorCounts } = networkFigures(db, { ...filters, instructorId: null });
-  const perInstructor = [...byInstructor.score].map(([instructorId, { n, passed }]) => ({ instructorId, n, passed }));
+  const { tallies, byInstructor, medians, errors: networkErrorCounts } = networkFigures(db, { ...filters, instructorId: null });
+  const perInstructor = [...tallies].map(([instructorId, { n, passed }]) => ({ instructorId, n, passed }));
   const totals = perInstructor.reduce((sum, row) => ({ n: sum.n + row.n, passed: sum.passed + row.passed }), { n: 0, passed: 0 });
   const myTally = perInstructor.find((row) => row.instructorId === me) ?? { instructorId: me, n: 0, passed: 0 };
   // the network minus my own attempts is the others': judge the network figures by that
@@ -73,8 +63,8 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
   const shownIds = new Set(shown.map((row) => row.instructorId));
 
   const metrics = standingMetricKeys.map((key) => {
-    const mineValue = byInstructor[key].get(me)?.median ?? null;
-    const others = [...byInstructor[key]].filter(([id]) => shownIds.has(id)).map(([, summary]) => summary.median);
+    const mineValue = byInstructor[key].get(me) ?? null;
+    const others = [...byInstructor[key]].filter(([id]) => shownIds.has(id)).map(([, median]) => median);
     return {
       key,
       mine: mineValue,
@@ -84,13 +74,13 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
   });
 
   const points = shown
-    .map((row) => ({ medianScore: byInstructor.score.get(row.instructorId)!.median, passRate: row.passed / row.n, isMe: row.instructorId === me }))
+    .map((row) => ({ medianScore: byInstructor.score.get(row.instructorId)!, passRate: row.passed / row.n, isMe: row.instructorId === me }))
     .sort((a, b) => a.medianScore - b.medianScore || a.passRate - b.passRate);
 
   const networkRate = networkHidden || totals.n === 0 ? null : totals.passed / totals.n;
   const nMax = Math.max(0, ...perInstructor.map((row) => row.n));
 
-  const myErrors = errorCounts(db, attemptConditions(mine));
+  const myErrors = tallies.get(me)?.errors ?? emptyTally().errors;
   const networkErrors = networkHidden ? null : networkErrorCounts;
 
   return {

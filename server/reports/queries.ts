@@ -1,13 +1,15 @@
-// The raw numbers behind a funder report, straight from SQLite. Nothing here is shown as is: data.ts applies
+// The raw numbers behind a funder report: class logs and equipment events from their tables, attempt figures
+// from the attempt summaries (metrics/summaries), as every page and the statistics command read them. Nothing here is shown as is: data.ts applies
 // small-cell suppression and formats. No query returns an instructor, learner or manikin id; sites and
 // instructors leave only as counts.
-import { and, count, countDistinct, gte, inArray, lt, sql, sum } from "drizzle-orm";
+import { and, count, countDistinct, gte, inArray, lt, sum } from "drizzle-orm";
 import { courseTypes, feedbackModes, type CourseType, type FeedbackMode } from "../../shared/domain";
 import { patientTypes, type PatientType } from "../../shared/scoring/policy";
 import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
 import type { KappaTable } from "../../shared/stats";
 import type { Db } from "../db/client";
-import { attempts, classes, equipmentEvents } from "../db/schema";
+import { classes, equipmentEvents } from "../db/schema";
+import { addTally, distinctIn, emptyTally, talliesBy, talliesByPair, totalTally, type SummaryScope } from "../metrics/summaries";
 
 export interface PassTally {
   attempts: number;
@@ -44,6 +46,12 @@ export interface ReportNumbers {
 
 const asNumber = (value: unknown) => Number(value ?? 0);
 
+/** The whole network over the span of `quarters` (a report's quarters are always consecutive). */
+function networkScope(quarters: readonly string[]): SummaryScope {
+  const sorted = [...quarters].sort();
+  return { from: sorted[0], to: sorted[sorted.length - 1], siteId: null, profile: null, feedback: null, instructorId: null, manikinId: null };
+}
+
 /** First day of the quarters and first day after them, for tables that carry dates rather than quarters. */
 function dateSpan(quarters: readonly string[]): [string, string] {
   const sorted = [...quarters].sort();
@@ -56,7 +64,6 @@ function dateSpan(quarters: readonly string[]): [string, string] {
 
 export function reportNumbers(db: Db, quarters: readonly string[]): ReportNumbers {
   const inPeriod = inArray(classes.quarter, [...quarters]);
-  const attemptsInPeriod = inArray(attempts.quarter, [...quarters]);
 
   const classTotals = db
     .select({
@@ -88,52 +95,17 @@ export function reportNumbers(db: Db, quarters: readonly string[]): ReportNumber
 
   const byPatientType = Object.fromEntries(patientTypes.map((p) => [p, { attempts: 0, passed: 0 }])) as ReportNumbers["byPatientType"];
   const byFeedback = Object.fromEntries(feedbackModes.map((f) => [f, { attempts: 0, passed: 0 }])) as ReportNumbers["byFeedback"];
-  const total: PassTally = { attempts: 0, passed: 0 };
-  for (const row of db
-    .select({
-      profile: attempts.profile,
-      feedback: attempts.feedback,
-      attempts: count(),
-      passed: sql<number>`sum(${attempts.passed})`,
-    })
-    .from(attempts)
-    .where(attemptsInPeriod)
-    .groupBy(attempts.profile, attempts.feedback)
-    .all()) {
-    const tally = { attempts: row.attempts, passed: asNumber(row.passed) };
-    for (const target of [byPatientType[row.profile], byFeedback[row.feedback], total]) {
-      target.attempts += tally.attempts;
+  const scope = networkScope(quarters);
+  const pairs = talliesByPair(db, scope, "profile", "feedback");
+  for (const [key, tally] of pairs) {
+    const [profile, feedback] = key.split("|") as [PatientType, FeedbackMode];
+    for (const target of [byPatientType[profile], byFeedback[feedback]]) {
+      target.attempts += tally.n;
       target.passed += tally.passed;
     }
   }
-
-  // Few distinct masks exist, so counting bits over the grouped masks is cheap.
-  const errorCounts = attemptErrorNames.map(() => 0);
-  let attemptsWithErrors = 0;
-  for (const row of db
-    .select({ mask: attempts.errorMask, attempts: count() })
-    .from(attempts)
-    .where(attemptsInPeriod)
-    .groupBy(attempts.errorMask)
-    .all()) {
-    if (row.mask !== 0) attemptsWithErrors += row.attempts;
-    attemptErrorNames.forEach((_, bit) => {
-      if (row.mask & (1 << bit)) errorCounts[bit] += row.attempts;
-    });
-  }
-
-  const judged = db
-    .select({
-      bothPass: sql<number>`sum(${attempts.instructorResult} = 'pass' and ${attempts.passed} = 1)`,
-      instructorOnly: sql<number>`sum(${attempts.instructorResult} = 'pass' and ${attempts.passed} = 0)`,
-      measuredOnly: sql<number>`sum(${attempts.instructorResult} = 'fail' and ${attempts.passed} = 1)`,
-      bothFail: sql<number>`sum(${attempts.instructorResult} = 'fail' and ${attempts.passed} = 0)`,
-      manikins: countDistinct(attempts.manikinId),
-      compressions: sum(attempts.compressions),
-    })
-    .from(attempts)
-    .where(attemptsInPeriod)
-    .get()!;
+  const all = [...pairs.values()].reduce(addTally, emptyTally());
+  const total: PassTally = { attempts: all.n, passed: all.passed };
 
   const [from, before] = dateSpan(quarters);
   const eventCounts = db
@@ -154,39 +126,28 @@ export function reportNumbers(db: Db, quarters: readonly string[]): ReportNumber
     attempts: total,
     byPatientType,
     byFeedback,
-    errorCounts,
-    attemptsWithErrors,
+    errorCounts: attemptErrorNames.map((name) => all.errors[name]),
+    attemptsWithErrors: all.withErrors,
     agreement: [
-      [asNumber(judged.bothPass), asNumber(judged.instructorOnly)],
-      [asNumber(judged.measuredOnly), asNumber(judged.bothFail)],
+      [all.pp, all.pf],
+      [all.fp, all.ff],
     ],
-    manikinsUsed: judged.manikins,
-    compressions: asNumber(judged.compressions),
+    manikinsUsed: distinctIn(db, scope, "manikinId").filter((id) => id !== 0).length,
+    compressions: all.compressions,
     lungsReplaced: classTotals.lungsRecorded > 0 ? asNumber(classTotals.lungs) : null,
     mouthpiecesCleaned: classTotals.mouthpiecesRecorded > 0 ? asNumber(classTotals.mouthpieces) : null,
     batteriesReplaced: classTotals.batteriesRecorded > 0 ? asNumber(classTotals.batteries) : null,
     services: eventTotal("serviced"),
     faults: eventTotal("fault"),
-    policyVersions: db
-      .selectDistinct({ version: attempts.policyVersion })
-      .from(attempts)
-      .where(attemptsInPeriod)
-      .orderBy(attempts.policyVersion)
-      .all()
-      .map((row) => row.version),
+    policyVersions: distinctIn(db, scope, "policyVersion").map(Number),
   };
 }
 
 /** Attempts and passes per quarter, for the trend and the comparisons; quarters without attempts give zeros. */
 export function passTallyByQuarter(db: Db, quarters: readonly string[]): Map<string, PassTally> {
   const tallies = new Map<string, PassTally>(quarters.map((q) => [q, { attempts: 0, passed: 0 }]));
-  for (const row of db
-    .select({ quarter: attempts.quarter, attempts: count(), passed: sql<number>`sum(${attempts.passed})` })
-    .from(attempts)
-    .where(inArray(attempts.quarter, [...quarters]))
-    .groupBy(attempts.quarter)
-    .all()) {
-    tallies.set(row.quarter, { attempts: row.attempts, passed: asNumber(row.passed) });
+  for (const [quarter, tally] of talliesBy<string>(db, networkScope(quarters), "quarter")) {
+    if (tallies.has(quarter)) tallies.set(quarter, { attempts: tally.n, passed: tally.passed });
   }
   return tallies;
 }
@@ -195,6 +156,5 @@ export function passTallyByQuarter(db: Db, quarters: readonly string[]): Map<str
 export function periodHasData(db: Db, quarters: readonly string[]): boolean {
   const classRow = db.select({ n: count() }).from(classes).where(inArray(classes.quarter, [...quarters])).get();
   if ((classRow?.n ?? 0) > 0) return true;
-  const attemptRow = db.select({ n: count() }).from(attempts).where(inArray(attempts.quarter, [...quarters])).get();
-  return (attemptRow?.n ?? 0) > 0;
+  return totalTally(db, networkScope(quarters)).n > 0;
 }

@@ -1,17 +1,19 @@
 // One quarter of the network in numbers: activity from the class logs, attempt results, typical quality,
 // errors, the effect of live feedback and how well instructors' judgement agrees with Quarterbeat's.
-// Counts and sums come from SQL over the quarter indexes; medians and intervals from shared/stats.
-import { median } from "../../shared/stats/quantiles";
+// Class-log counts come from SQL over the classes; attempt figures from the attempt summaries
+// (metrics/summaries) as on every page and in the funder report; intervals from shared/stats.
 import { wilsonInterval } from "../../shared/stats/wilson";
 import { cohensKappa } from "../../shared/stats/kappa";
 import { kappaInterval, mcnemarExactP, pabak } from "../../shared/stats/agreement";
 import { changeVerdict, proportionDifference, type ChangeVerdict } from "../../shared/stats/difference";
-import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
+import type { FeedbackMode } from "../../shared/domain";
+import type { AttemptError } from "../../shared/scoring/scoreAttempt";
 import { parseQuarter, previousQuarter } from "../../shared/quarter";
 import { and, eq } from "drizzle-orm";
 import type { Db } from "../db/client";
 import { attempts as attemptsTable } from "../db/schema";
 import { learnerOutcomes } from "../metrics/learnerOutcomes";
+import { addTally, emptyTally, judgedOf, medianIn, talliesBy, totalTally, type SummaryScope } from "../metrics/summaries";
 import { badRequest } from "../errors";
 
 export interface QuarterSummary {
@@ -88,40 +90,33 @@ export function quarterSummary(db: Db, quarter: string, filter: SummaryFilter = 
     )
     .get(...params) as { classes: number; learners: number; passed: number; instructors: number; sites: number };
 
-  const errorSums = attemptErrorNames.map((name, bit) => `sum((error_mask & ${1 << bit}) <> 0) AS ${name}`).join(", ");
-  const totals = sqlite
-    .prepare(
-      `SELECT count(*) AS attempts, coalesce(sum(passed), 0) AS passed,
-         coalesce(sum(feedback = 'live'), 0) AS live, coalesce(sum(feedback = 'live' AND passed), 0) AS live_passed,
-         coalesce(sum(feedback = 'hidden'), 0) AS hidden, coalesce(sum(feedback = 'hidden' AND passed), 0) AS hidden_passed,
-         coalesce(sum(instructor_result = 'pass' AND passed), 0) AS both_pass,
-         coalesce(sum(instructor_result = 'pass' AND NOT passed), 0) AS instructor_only,
-         coalesce(sum(instructor_result = 'fail' AND passed), 0) AS quarterbeat_only,
-         coalesce(sum(instructor_result = 'fail' AND NOT passed), 0) AS both_fail,
-         coalesce(sum(instructor_result IS NULL), 0) AS unjudged,
-         ${errorSums}
-       FROM attempts WHERE ${where}`,
-    )
-    .get(...params) as Record<string, number | null>;
-
-  const n = (key: string) => Number(totals[key] ?? 0);
+  // attempt figures from the attempt summaries, as the pages and the funder report read them
+  const scope: SummaryScope = {
+    from: quarter,
+    to: quarter,
+    siteId: filter.siteId ?? null,
+    profile: null,
+    feedback: null,
+    instructorId: filter.instructorId ?? null,
+    manikinId: null,
+  };
+  const byFeedback = talliesBy<FeedbackMode>(db, scope, "feedback");
+  const total = [...byFeedback.values()].reduce(addTally, emptyTally());
+  const live = byFeedback.get("live") ?? emptyTally();
+  const hidden = byFeedback.get("hidden") ?? emptyTally();
   const rate = (passed: number, of: number) => (of > 0 ? passed / of : null);
-  const attempts = n("attempts");
-  const passed = n("passed");
+  const attempts = total.n;
+  const passed = total.passed;
 
   const medians = {} as QuarterSummary["median"];
-  for (const column of MEDIAN_COLUMNS) {
-    const values = sqlite.prepare(`SELECT ${column} FROM attempts WHERE ${where}`).pluck().all(...params) as number[];
-    medians[column] = median(values);
-  }
+  for (const column of MEDIAN_COLUMNS) medians[column] = medianIn(db, column, scope);
 
-  const errors = {} as Record<AttemptError, number>;
-  for (const name of attemptErrorNames) errors[name] = n(name);
+  const errors = { ...total.errors };
 
   // Rater A = the instructor, rater B = Quarterbeat; rows/columns are (pass, fail).
   const table = [
-    [n("both_pass"), n("instructor_only")],
-    [n("quarterbeat_only"), n("both_fail")],
+    [total.pp, total.pf],
+    [total.fp, total.ff],
   ] as const;
   const agreement = cohensKappa(table);
 
@@ -135,9 +130,8 @@ export function quarterSummary(db: Db, quarter: string, filter: SummaryFilter = 
   );
 
   const before = previousQuarter(quarter);
-  const previous = sqlite
-    .prepare(`SELECT count(*) AS attempts, coalesce(sum(passed), 0) AS passed FROM attempts WHERE ${where}`)
-    .get(before, ...params.slice(1)) as { attempts: number; passed: number };
+  const previousTally = totalTally(db, { ...scope, from: before, to: before });
+  const previous = { attempts: previousTally.n, passed: previousTally.passed };
   const difference = previous.attempts > 0 ? proportionDifference(passed, attempts, previous.passed, previous.attempts) : null;
 
   return {
@@ -159,8 +153,8 @@ export function quarterSummary(db: Db, quarter: string, filter: SummaryFilter = 
     median: medians,
     errors,
     by_feedback: {
-      live: { attempts: n("live"), pass_rate: rate(n("live_passed"), n("live")) },
-      hidden: { attempts: n("hidden"), pass_rate: rate(n("hidden_passed"), n("hidden")) },
+      live: { attempts: live.n, pass_rate: rate(live.passed, live.n) },
+      hidden: { attempts: hidden.n, pass_rate: rate(hidden.passed, hidden.n) },
     },
     agreement: {
       attempts: agreement.n,
@@ -168,7 +162,7 @@ export function quarterSummary(db: Db, quarter: string, filter: SummaryFilter = 
       kappa_ci95: kappaInterval(table),
       pabak: pabak(table),
       mcnemar_p: mcnemarExactP(table),
-      unjudged: n("unjudged"),
+      unjudged: attempts - judgedOf(total),
       table: { both_pass: table[0][0], instructor_pass_measured_fail: table[0][1], instructor_fail_measured_pass: table[1][0], both_fail: table[1][1] },
     },
   };

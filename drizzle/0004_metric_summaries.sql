@@ -1,0 +1,54 @@
+CREATE TABLE `attempt_tallies` (
+	`quarter` text NOT NULL,
+	`site_id` integer NOT NULL,
+	`instructor_id` integer NOT NULL,
+	`manikin_id` integer NOT NULL,
+	`profile` text NOT NULL,
+	`feedback` text NOT NULL,
+	`policy_version` integer NOT NULL,
+	`n` integer NOT NULL,
+	`passed` integer NOT NULL,
+	`judged_pp` integer NOT NULL,
+	`judged_pf` integer NOT NULL,
+	`judged_fp` integer NOT NULL,
+	`judged_ff` integer NOT NULL,
+	`with_errors` integer NOT NULL,
+	`compressions` integer NOT NULL,
+	`err_too_shallow` integer NOT NULL,
+	`err_too_deep` integer NOT NULL,
+	`err_too_slow` integer NOT NULL,
+	`err_too_fast` integer NOT NULL,
+	`err_incomplete_recoil` integer NOT NULL,
+	`err_low_hands_on` integer NOT NULL,
+	`err_long_pause` integer NOT NULL,
+	PRIMARY KEY(`quarter`, `profile`, `feedback`, `site_id`, `instructor_id`, `manikin_id`, `policy_version`)
+) WITHOUT ROWID;
+--> statement-breakpoint
+CREATE INDEX `attempt_tallies_instructor_idx` ON `attempt_tallies` (`instructor_id`,`quarter`);--> statement-breakpoint
+CREATE TABLE `attempt_values` (
+	`metric` text NOT NULL,
+	`quarter` text NOT NULL,
+	`instructor_id` integer NOT NULL,
+	`profile` text NOT NULL,
+	`feedback` text NOT NULL,
+	`site_id` integer NOT NULL,
+	`manikin_id` integer NOT NULL,
+	`value` real NOT NULL,
+	`count` integer NOT NULL,
+	PRIMARY KEY(`metric`, `quarter`, `instructor_id`, `profile`, `feedback`, `site_id`, `manikin_id`, `value`)
+) WITHOUT ROWID;
+--> statement-breakpoint
+CREATE INDEX `attempt_values_instructor_idx` ON `attempt_values` (`metric`,`instructor_id`,`quarter`);--> statement-breakpoint
+CREATE INDEX `attempt_values_site_idx` ON `attempt_values` (`metric`,`site_id`,`quarter`);--> statement-breakpoint
+CREATE TABLE `network_values` (
+	`metric` text NOT NULL,
+	`quarter` text NOT NULL,
+	`profile` text NOT NULL,
+	`feedback` text NOT NULL,
+	`value` real NOT NULL,
+	`count` integer NOT NULL,
+	PRIMARY KEY(`metric`, `quarter`, `profile`, `feedback`, `value`)
+) WITHOUT ROWID;
+--> statement-breakpoint
+DROP INDEX `attempts_instructor_score_idx`;--> statement-breakpoint
+DROP INDEX `attempts_insight_idx`;

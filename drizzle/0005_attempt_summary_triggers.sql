@@ -1,0 +1,177 @@
+-- Keeps attempt_tallies, attempt_values and network_values equal to sums over attempts, in the transaction
+-- of every write to attempts (import, undo, rescore, policy change, edits). A deleted or changed attempt is
+-- taken out of its groups and the changed one put in; groups that fall to zero are removed.
+CREATE TRIGGER attempts_tally_insert AFTER INSERT ON attempts BEGIN
+  INSERT INTO attempt_tallies (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version, n, passed, judged_pp, judged_pf, judged_fp, judged_ff, with_errors, compressions, err_too_shallow, err_too_deep, err_too_slow, err_too_fast, err_incomplete_recoil, err_low_hands_on, err_long_pause)
+  VALUES (new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.policy_version, 1, new.passed, (new.instructor_result IS 'pass' AND new.passed = 1), (new.instructor_result IS 'pass' AND new.passed = 0), (new.instructor_result IS 'fail' AND new.passed = 1), (new.instructor_result IS 'fail' AND new.passed = 0), (new.error_mask != 0), new.compressions, ((new.error_mask >> 0) & 1), ((new.error_mask >> 1) & 1), ((new.error_mask >> 2) & 1), ((new.error_mask >> 3) & 1), ((new.error_mask >> 4) & 1), ((new.error_mask >> 5) & 1), ((new.error_mask >> 6) & 1))
+  ON CONFLICT (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version) DO UPDATE SET n = n + excluded.n, passed = passed + excluded.passed, judged_pp = judged_pp + excluded.judged_pp, judged_pf = judged_pf + excluded.judged_pf, judged_fp = judged_fp + excluded.judged_fp, judged_ff = judged_ff + excluded.judged_ff, with_errors = with_errors + excluded.with_errors, compressions = compressions + excluded.compressions, err_too_shallow = err_too_shallow + excluded.err_too_shallow, err_too_deep = err_too_deep + excluded.err_too_deep, err_too_slow = err_too_slow + excluded.err_too_slow, err_too_fast = err_too_fast + excluded.err_too_fast, err_incomplete_recoil = err_incomplete_recoil + excluded.err_incomplete_recoil, err_low_hands_on = err_low_hands_on + excluded.err_low_hands_on, err_long_pause = err_long_pause + excluded.err_long_pause;
+  INSERT INTO attempt_values (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value, count)
+  VALUES
+    ('score', new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.score, 1),
+    ('depth_ok_pct', new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.depth_ok_pct, 1),
+    ('rate_ok_pct', new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.rate_ok_pct, 1),
+    ('recoil_ok_pct', new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.recoil_ok_pct, 1),
+    ('hands_on_pct', new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.hands_on_pct, 1)
+  ON CONFLICT (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value) DO UPDATE SET count = count + excluded.count;
+  INSERT INTO network_values (metric, quarter, profile, feedback, value, count)
+  VALUES
+    ('score', new.quarter, new.profile, new.feedback, new.score, 1),
+    ('depth_ok_pct', new.quarter, new.profile, new.feedback, new.depth_ok_pct, 1),
+    ('rate_ok_pct', new.quarter, new.profile, new.feedback, new.rate_ok_pct, 1),
+    ('recoil_ok_pct', new.quarter, new.profile, new.feedback, new.recoil_ok_pct, 1),
+    ('hands_on_pct', new.quarter, new.profile, new.feedback, new.hands_on_pct, 1)
+  ON CONFLICT (metric, quarter, profile, feedback, value) DO UPDATE SET count = count + excluded.count;
+END;
+--> statement-breakpoint
+CREATE TRIGGER attempts_tally_delete AFTER DELETE ON attempts BEGIN
+  INSERT INTO attempt_tallies (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version, n, passed, judged_pp, judged_pf, judged_fp, judged_ff, with_errors, compressions, err_too_shallow, err_too_deep, err_too_slow, err_too_fast, err_incomplete_recoil, err_low_hands_on, err_long_pause)
+  VALUES (old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.policy_version, -1, -old.passed, -(old.instructor_result IS 'pass' AND old.passed = 1), -(old.instructor_result IS 'pass' AND old.passed = 0), -(old.instructor_result IS 'fail' AND old.passed = 1), -(old.instructor_result IS 'fail' AND old.passed = 0), -(old.error_mask != 0), -old.compressions, -((old.error_mask >> 0) & 1), -((old.error_mask >> 1) & 1), -((old.error_mask >> 2) & 1), -((old.error_mask >> 3) & 1), -((old.error_mask >> 4) & 1), -((old.error_mask >> 5) & 1), -((old.error_mask >> 6) & 1))
+  ON CONFLICT (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version) DO UPDATE SET n = n + excluded.n, passed = passed + excluded.passed, judged_pp = judged_pp + excluded.judged_pp, judged_pf = judged_pf + excluded.judged_pf, judged_fp = judged_fp + excluded.judged_fp, judged_ff = judged_ff + excluded.judged_ff, with_errors = with_errors + excluded.with_errors, compressions = compressions + excluded.compressions, err_too_shallow = err_too_shallow + excluded.err_too_shallow, err_too_deep = err_too_deep + excluded.err_too_deep, err_too_slow = err_too_slow + excluded.err_too_slow, err_too_fast = err_too_fast + excluded.err_too_fast, err_incomplete_recoil = err_incomplete_recoil + excluded.err_incomplete_recoil, err_low_hands_on = err_low_hands_on + excluded.err_low_hands_on, err_long_pause = err_long_pause + excluded.err_long_pause;
+  DELETE FROM attempt_tallies WHERE quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND site_id = old.site_id
+    AND instructor_id = old.instructor_id AND manikin_id = coalesce(old.manikin_id, 0) AND policy_version = old.policy_version AND n = 0;
+  INSERT INTO attempt_values (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value, count)
+  VALUES
+    ('score', old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.score, -1),
+    ('depth_ok_pct', old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.depth_ok_pct, -1),
+    ('rate_ok_pct', old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.rate_ok_pct, -1),
+    ('recoil_ok_pct', old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.recoil_ok_pct, -1),
+    ('hands_on_pct', old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.hands_on_pct, -1)
+  ON CONFLICT (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value) DO UPDATE SET count = count + excluded.count;
+  DELETE FROM attempt_values WHERE metric = 'score' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND site_id = old.site_id
+    AND instructor_id = old.instructor_id AND manikin_id = coalesce(old.manikin_id, 0) AND value = old.score AND count = 0;
+  DELETE FROM attempt_values WHERE metric = 'depth_ok_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND site_id = old.site_id
+    AND instructor_id = old.instructor_id AND manikin_id = coalesce(old.manikin_id, 0) AND value = old.depth_ok_pct AND count = 0;
+  DELETE FROM attempt_values WHERE metric = 'rate_ok_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND site_id = old.site_id
+    AND instructor_id = old.instructor_id AND manikin_id = coalesce(old.manikin_id, 0) AND value = old.rate_ok_pct AND count = 0;
+  DELETE FROM attempt_values WHERE metric = 'recoil_ok_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND site_id = old.site_id
+    AND instructor_id = old.instructor_id AND manikin_id = coalesce(old.manikin_id, 0) AND value = old.recoil_ok_pct AND count = 0;
+  DELETE FROM attempt_values WHERE metric = 'hands_on_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND site_id = old.site_id
+    AND instructor_id = old.instructor_id AND manikin_id = coalesce(old.manikin_id, 0) AND value = old.hands_on_pct AND count = 0;
+  INSERT INTO network_values (metric, quarter, profile, feedback, value, count)
+  VALUES
+    ('score', old.quarter, old.profile, old.feedback, old.score, -1),
+    ('depth_ok_pct', old.quarter, old.profile, old.feedback, old.depth_ok_pct, -1),
+    ('rate_ok_pct', old.quarter, old.profile, old.feedback, old.rate_ok_pct, -1),
+    ('recoil_ok_pct', old.quarter, old.profile, old.feedback, old.recoil_ok_pct, -1),
+    ('hands_on_pct', old.quarter, old.profile, old.feedback, old.hands_on_pct, -1)
+  ON CONFLICT (metric, quarter, profile, feedback, value) DO UPDATE SET count = count + excluded.count;
+  DELETE FROM network_values WHERE metric = 'score' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND value = old.score AND count = 0;
+  DELETE FROM network_values WHERE metric = 'depth_ok_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND value = old.depth_ok_pct AND count = 0;
+  DELETE FROM network_values WHERE metric = 'rate_ok_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND value = old.rate_ok_pct AND count = 0;
+  DELETE FROM network_values WHERE metric = 'recoil_ok_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND value = old.recoil_ok_pct AND count = 0;
+  DELETE FROM network_values WHERE metric = 'hands_on_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND value = old.hands_on_pct AND count = 0;
+END;
+--> statement-breakpoint
+CREATE TRIGGER attempts_tally_update AFTER UPDATE OF quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version, passed, instructor_result, error_mask, compressions ON attempts
+  WHEN old.quarter IS NOT new.quarter OR old.profile IS NOT new.profile OR old.feedback IS NOT new.feedback OR old.site_id IS NOT new.site_id OR old.instructor_id IS NOT new.instructor_id OR old.manikin_id IS NOT new.manikin_id OR old.policy_version IS NOT new.policy_version OR old.passed IS NOT new.passed OR old.instructor_result IS NOT new.instructor_result OR old.error_mask IS NOT new.error_mask OR old.compressions IS NOT new.compressions
+BEGIN
+  INSERT INTO attempt_tallies (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version, n, passed, judged_pp, judged_pf, judged_fp, judged_ff, with_errors, compressions, err_too_shallow, err_too_deep, err_too_slow, err_too_fast, err_incomplete_recoil, err_low_hands_on, err_long_pause)
+  VALUES (old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.policy_version, -1, -old.passed, -(old.instructor_result IS 'pass' AND old.passed = 1), -(old.instructor_result IS 'pass' AND old.passed = 0), -(old.instructor_result IS 'fail' AND old.passed = 1), -(old.instructor_result IS 'fail' AND old.passed = 0), -(old.error_mask != 0), -old.compressions, -((old.error_mask >> 0) & 1), -((old.error_mask >> 1) & 1), -((old.error_mask >> 2) & 1), -((old.error_mask >> 3) & 1), -((old.error_mask >> 4) & 1), -((old.error_mask >> 5) & 1), -((old.error_mask >> 6) & 1))
+  ON CONFLICT (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version) DO UPDATE SET n = n + excluded.n, passed = passed + excluded.passed, judged_pp = judged_pp + excluded.judged_pp, judged_pf = judged_pf + excluded.judged_pf, judged_fp = judged_fp + excluded.judged_fp, judged_ff = judged_ff + excluded.judged_ff, with_errors = with_errors + excluded.with_errors, compressions = compressions + excluded.compressions, err_too_shallow = err_too_shallow + excluded.err_too_shallow, err_too_deep = err_too_deep + excluded.err_too_deep, err_too_slow = err_too_slow + excluded.err_too_slow, err_too_fast = err_too_fast + excluded.err_too_fast, err_incomplete_recoil = err_incomplete_recoil + excluded.err_incomplete_recoil, err_low_hands_on = err_low_hands_on + excluded.err_low_hands_on, err_long_pause = err_long_pause + excluded.err_long_pause;
+  DELETE FROM attempt_tallies WHERE quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND site_id = old.site_id
+    AND instructor_id = old.instructor_id AND manikin_id = coalesce(old.manikin_id, 0) AND policy_version = old.policy_version AND n = 0;
+  INSERT INTO attempt_tallies (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version, n, passed, judged_pp, judged_pf, judged_fp, judged_ff, with_errors, compressions, err_too_shallow, err_too_deep, err_too_slow, err_too_fast, err_incomplete_recoil, err_low_hands_on, err_long_pause)
+  VALUES (new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.policy_version, 1, new.passed, (new.instructor_result IS 'pass' AND new.passed = 1), (new.instructor_result IS 'pass' AND new.passed = 0), (new.instructor_result IS 'fail' AND new.passed = 1), (new.instructor_result IS 'fail' AND new.passed = 0), (new.error_mask != 0), new.compressions, ((new.error_mask >> 0) & 1), ((new.error_mask >> 1) & 1), ((new.error_mask >> 2) & 1), ((new.error_mask >> 3) & 1), ((new.error_mask >> 4) & 1), ((new.error_mask >> 5) & 1), ((new.error_mask >> 6) & 1))
+  ON CONFLICT (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version) DO UPDATE SET n = n + excluded.n, passed = passed + excluded.passed, judged_pp = judged_pp + excluded.judged_pp, judged_pf = judged_pf + excluded.judged_pf, judged_fp = judged_fp + excluded.judged_fp, judged_ff = judged_ff + excluded.judged_ff, with_errors = with_errors + excluded.with_errors, compressions = compressions + excluded.compressions, err_too_shallow = err_too_shallow + excluded.err_too_shallow, err_too_deep = err_too_deep + excluded.err_too_deep, err_too_slow = err_too_slow + excluded.err_too_slow, err_too_fast = err_too_fast + excluded.err_too_fast, err_incomplete_recoil = err_incomplete_recoil + excluded.err_incomplete_recoil, err_low_hands_on = err_low_hands_on + excluded.err_low_hands_on, err_long_pause = err_long_pause + excluded.err_long_pause;
+END;
+--> statement-breakpoint
+CREATE TRIGGER attempts_values_update AFTER UPDATE OF quarter, profile, feedback, site_id, instructor_id, manikin_id, score, depth_ok_pct, rate_ok_pct, recoil_ok_pct, hands_on_pct ON attempts
+  WHEN old.quarter IS NOT new.quarter OR old.profile IS NOT new.profile OR old.feedback IS NOT new.feedback OR old.site_id IS NOT new.site_id OR old.instructor_id IS NOT new.instructor_id OR old.manikin_id IS NOT new.manikin_id OR old.score IS NOT new.score OR old.depth_ok_pct IS NOT new.depth_ok_pct OR old.rate_ok_pct IS NOT new.rate_ok_pct OR old.recoil_ok_pct IS NOT new.recoil_ok_pct OR old.hands_on_pct IS NOT new.hands_on_pct
+BEGIN
+  INSERT INTO attempt_values (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value, count)
+  VALUES
+    ('score', old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.score, -1),
+    ('depth_ok_pct', old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.depth_ok_pct, -1),
+    ('rate_ok_pct', old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.rate_ok_pct, -1),
+    ('recoil_ok_pct', old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.recoil_ok_pct, -1),
+    ('hands_on_pct', old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.hands_on_pct, -1)
+  ON CONFLICT (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value) DO UPDATE SET count = count + excluded.count;
+  DELETE FROM attempt_values WHERE metric = 'score' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND site_id = old.site_id
+    AND instructor_id = old.instructor_id AND manikin_id = coalesce(old.manikin_id, 0) AND value = old.score AND count = 0;
+  DELETE FROM attempt_values WHERE metric = 'depth_ok_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND site_id = old.site_id
+    AND instructor_id = old.instructor_id AND manikin_id = coalesce(old.manikin_id, 0) AND value = old.depth_ok_pct AND count = 0;
+  DELETE FROM attempt_values WHERE metric = 'rate_ok_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND site_id = old.site_id
+    AND instructor_id = old.instructor_id AND manikin_id = coalesce(old.manikin_id, 0) AND value = old.rate_ok_pct AND count = 0;
+  DELETE FROM attempt_values WHERE metric = 'recoil_ok_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND site_id = old.site_id
+    AND instructor_id = old.instructor_id AND manikin_id = coalesce(old.manikin_id, 0) AND value = old.recoil_ok_pct AND count = 0;
+  DELETE FROM attempt_values WHERE metric = 'hands_on_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND site_id = old.site_id
+    AND instructor_id = old.instructor_id AND manikin_id = coalesce(old.manikin_id, 0) AND value = old.hands_on_pct AND count = 0;
+  INSERT INTO attempt_values (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value, count)
+  VALUES
+    ('score', new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.score, 1),
+    ('depth_ok_pct', new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.depth_ok_pct, 1),
+    ('rate_ok_pct', new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.rate_ok_pct, 1),
+    ('recoil_ok_pct', new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.recoil_ok_pct, 1),
+    ('hands_on_pct', new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.hands_on_pct, 1)
+  ON CONFLICT (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value) DO UPDATE SET count = count + excluded.count;
+  INSERT INTO network_values (metric, quarter, profile, feedback, value, count)
+  VALUES
+    ('score', old.quarter, old.profile, old.feedback, old.score, -1),
+    ('depth_ok_pct', old.quarter, old.profile, old.feedback, old.depth_ok_pct, -1),
+    ('rate_ok_pct', old.quarter, old.profile, old.feedback, old.rate_ok_pct, -1),
+    ('recoil_ok_pct', old.quarter, old.profile, old.feedback, old.recoil_ok_pct, -1),
+    ('hands_on_pct', old.quarter, old.profile, old.feedback, old.hands_on_pct, -1)
+  ON CONFLICT (metric, quarter, profile, feedback, value) DO UPDATE SET count = count + excluded.count;
+  DELETE FROM network_values WHERE metric = 'score' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND value = old.score AND count = 0;
+  DELETE FROM network_values WHERE metric = 'depth_ok_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND value = old.depth_ok_pct AND count = 0;
+  DELETE FROM network_values WHERE metric = 'rate_ok_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND value = old.rate_ok_pct AND count = 0;
+  DELETE FROM network_values WHERE metric = 'recoil_ok_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND value = old.recoil_ok_pct AND count = 0;
+  DELETE FROM network_values WHERE metric = 'hands_on_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND value = old.hands_on_pct AND count = 0;
+  INSERT INTO network_values (metric, quarter, profile, feedback, value, count)
+  VALUES
+    ('score', new.quarter, new.profile, new.feedback, new.score, 1),
+    ('depth_ok_pct', new.quarter, new.profile, new.feedback, new.depth_ok_pct, 1),
+    ('rate_ok_pct', new.quarter, new.profile, new.feedback, new.rate_ok_pct, 1),
+    ('recoil_ok_pct', new.quarter, new.profile, new.feedback, new.recoil_ok_pct, 1),
+    ('hands_on_pct', new.quarter, new.profile, new.feedback, new.hands_on_pct, 1)
+  ON CONFLICT (metric, quarter, profile, feedback, value) DO UPDATE SET count = count + excluded.count;
+END;
+--> statement-breakpoint
+-- attempts already stored
+INSERT INTO attempt_tallies (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version, n, passed, judged_pp, judged_pf, judged_fp, judged_ff, with_errors, compressions, err_too_shallow, err_too_deep, err_too_slow, err_too_fast, err_incomplete_recoil, err_low_hands_on, err_long_pause)
+SELECT quarter, profile, feedback, site_id, instructor_id, coalesce(manikin_id, 0), policy_version, count(*), sum(passed),
+  sum(instructor_result IS 'pass' AND passed = 1), sum(instructor_result IS 'pass' AND passed = 0),
+  sum(instructor_result IS 'fail' AND passed = 1), sum(instructor_result IS 'fail' AND passed = 0),
+  sum(error_mask != 0), sum(compressions),
+  sum((error_mask >> 0) & 1), sum((error_mask >> 1) & 1), sum((error_mask >> 2) & 1), sum((error_mask >> 3) & 1), sum((error_mask >> 4) & 1), sum((error_mask >> 5) & 1), sum((error_mask >> 6) & 1)
+FROM attempts GROUP BY quarter, profile, feedback, site_id, instructor_id, coalesce(manikin_id, 0), policy_version;
+--> statement-breakpoint
+INSERT INTO attempt_values (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value, count)
+SELECT 'score', quarter, profile, feedback, site_id, instructor_id, coalesce(manikin_id, 0), score, count(*)
+FROM attempts GROUP BY quarter, profile, feedback, site_id, instructor_id, coalesce(manikin_id, 0), score;
+--> statement-breakpoint
+INSERT INTO network_values (metric, quarter, profile, feedback, value, count)
+SELECT 'score', quarter, profile, feedback, score, count(*)
+FROM attempts GROUP BY quarter, profile, feedback, score;
+--> statement-breakpoint
+INSERT INTO attempt_values (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value, count)
+SELECT 'depth_ok_pct', quarter, profile, feedback, site_id, instructor_id, coalesce(manikin_id, 0), depth_ok_pct, count(*)
+FROM attempts GROUP BY quarter, profile, feedback, site_id, instructor_id, coalesce(manikin_id, 0), depth_ok_pct;
+--> statement-breakpoint
+INSERT INTO network_values (metric, quarter, profile, feedback, value, count)
+SELECT 'depth_ok_pct', quarter, profile, feedback, depth_ok_pct, count(*)
+FROM attempts GROUP BY quarter, profile, feedback, depth_ok_pct;
+--> statement-breakpoint
+INSERT INTO attempt_values (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value, count)
+SELECT 'rate_ok_pct', quarter, profile, feedback, site_id, instructor_id, coalesce(manikin_id, 0), rate_ok_pct, count(*)
+FROM attempts GROUP BY quarter, profile, feedback, site_id, instructor_id, coalesce(manikin_id, 0), rate_ok_pct;
+--> statement-breakpoint
+INSERT INTO network_values (metric, quarter, profile, feedback, value, count)
+SELECT 'rate_ok_pct', quarter, profile, feedback, rate_ok_pct, count(*)
+FROM attempts GROUP BY quarter, profile, feedback, rate_ok_pct;
+--> statement-breakpoint
+INSERT INTO attempt_values (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value, count)
+SELECT 'recoil_ok_pct', quarter, profile, feedback, site_id, instructor_id, coalesce(manikin_id, 0), recoil_ok_pct, count(*)
+FROM attempts GROUP BY quarter, profile, feedback, site_id, instructor_id, coalesce(manikin_id, 0), recoil_ok_pct;
+--> statement-breakpoint
+INSERT INTO network_values (metric, quarter, profile, feedback, value, count)
+SELECT 'recoil_ok_pct', quarter, profile, feedback, recoil_ok_pct, count(*)
+FROM attempts GROUP BY quarter, profile, feedback, recoil_ok_pct;
+--> statement-breakpoint
+INSERT INTO attempt_values (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value, count)
+SELECT 'hands_on_pct', quarter, profile, feedback, site_id, instructor_id, coalesce(manikin_id, 0), hands_on_pct, count(*)
+FROM attempts GROUP BY quarter, profile, feedback, site_id, instructor_id, coalesce(manikin_id, 0), hands_on_pct;
+--> statement-breakpoint
+INSERT INTO network_values (metric, quarter, profile, feedback, value, count)
+SELECT 'hands_on_pct', quarter, profile, feedback, hands_on_pct, count(*)
+FROM attempts GROUP BY quarter, profile, feedback, hands_on_pct;

@@ -1,0 +1,289 @@
+// Reads the attempt summaries (attempt_tallies, attempt_values; kept by triggers on attempts, see
+// docs/decisions/004-metric-summaries.md). Every attempt figure of the insight pages, the funder report and
+// the statistics command is a sum over tallies or an order statistic over value counts read here, so no
+// answer scans the attempts themselves and every answer counts the same way.
+import { and, between, eq, sql, type SQL } from "drizzle-orm";
+import type { SQLiteColumn } from "drizzle-orm/sqlite-core";
+import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
+import type { Db } from "../db/client";
+import { attemptTallies, attemptValues, networkValues } from "../db/schema";
+
+/** What a figure can be narrowed to: a quarter range and any of the attempt dimensions. */
+export interface SummaryScope {
+  from: string;
+  to: string;
+  siteId: number | null;
+  profile: string | null;
+  feedback: string | null;
+  instructorId: number | null;
+  manikinId: number | null;
+}
+
+export interface Tally {
+  n: number;
+  passed: number;
+  /** instructor's result × measured result: pass/pass, pass/fail, fail/pass, fail/fail */
+  pp: number;
+  pf: number;
+  fp: number;
+  ff: number;
+  withErrors: number;
+  compressions: number;
+  errors: Record<AttemptError, number>;
+}
+
+/** Dimensions a tally or a distribution can be grouped by. */
+export type Dimension = "quarter" | "siteId" | "instructorId" | "manikinId" | "profile" | "feedback" | "policyVersion";
+
+/** Metrics whose distributions are kept (exact, at the values as recorded). */
+export type SummaryMetric = (typeof attemptValues.metric.enumValues)[number];
+
+const errorColumns: Record<AttemptError, SQLiteColumn> = {
+  too_shallow: attemptTallies.errTooShallow,
+  too_deep: attemptTallies.errTooDeep,
+  too_slow: attemptTallies.errTooSlow,
+  too_fast: attemptTallies.errTooFast,
+  incomplete_recoil: attemptTallies.errIncompleteRecoil,
+  low_hands_on: attemptTallies.errLowHandsOn,
+  long_pause: attemptTallies.errLongPause,
+};
+
+export function emptyTally(): Tally {
+  return {
+    n: 0,
+    passed: 0,
+    pp: 0,
+    pf: 0,
+    fp: 0,
+    ff: 0,
+    withErrors: 0,
+    compressions: 0,
+    errors: Object.fromEntries(attemptErrorNames.map((name) => [name, 0])) as Record<AttemptError, number>,
+  };
+}
+
+/** Adds `row` into `into` (in place) and returns `into`. */
+export function addTally(into: Tally, row: Tally): Tally {
+  into.n += row.n;
+  into.passed += row.passed;
+  into.pp += row.pp;
+  into.pf += row.pf;
+  into.fp += row.fp;
+  into.ff += row.ff;
+  into.withErrors += row.withErrors;
+  into.compressions += row.compressions;
+  for (const name of attemptErrorNames) into.errors[name] += row.errors[name];
+  return into;
+}
+
+/** Attempts that carry an instructor's pass or fail. */
+export function judgedOf(tally: Tally): number {
+  return tally.pp + tally.pf + tally.fp + tally.ff;
+}
+
+type ScopedTable = typeof attemptTallies | typeof attemptValues;
+
+function scopeConditions(table: ScopedTable, scope: SummaryScope): SQL {
+  const parts: SQL[] = [between(table.quarter, scope.from, scope.to)];
+  if (scope.siteId !== null) parts.push(eq(table.siteId, scope.siteId));
+  if (scope.profile !== null) parts.push(sql`${table.profile} = ${scope.profile}`);
+  if (scope.feedback !== null) parts.push(sql`${table.feedback} = ${scope.feedback}`);
+  if (scope.instructorId !== null) parts.push(eq(table.instructorId, scope.instructorId));
+  if (scope.manikinId !== null) parts.push(eq(table.manikinId, scope.manikinId));
+  return and(...parts)!;
+}
+
+const tallySums = {
+  n: sql<number>`sum(${attemptTallies.n})`,
+  passed: sql<number>`sum(${attemptTallies.passed})`,
+  pp: sql<number>`sum(${attemptTallies.judgedPp})`,
+  pf: sql<number>`sum(${attemptTallies.judgedPf})`,
+  fp: sql<number>`sum(${attemptTallies.judgedFp})`,
+  ff: sql<number>`sum(${attemptTallies.judgedFf})`,
+  withErrors: sql<number>`sum(${attemptTallies.withErrors})`,
+  compressions: sql<number>`sum(${attemptTallies.compressions})`,
+  ...Object.fromEntries(attemptErrorNames.map((name) => [`err_${name}`, sql<number>`sum(${errorColumns[name]})`])),
+};
+
+function tallyOf(row: Record<string, unknown>): Tally {
+  return {
+    n: Number(row.n ?? 0),
+    passed: Number(row.passed ?? 0),
+    pp: Number(row.pp ?? 0),
+    pf: Number(row.pf ?? 0),
+    fp: Number(row.fp ?? 0),
+    ff: Number(row.ff ?? 0),
+    withErrors: Number(row.withErrors ?? 0),
+    compressions: Number(row.compressions ?? 0),
+    errors: Object.fromEntries(attemptErrorNames.map((name) => [name, Number(row[`err_${name}`] ?? 0)])) as Record<AttemptError, number>,
+  };
+}
+
+/** The tally of every attempt in scope. */
+export function totalTally(db: Db, scope: SummaryScope): Tally {
+  return tallyOf(db.select(tallySums).from(attemptTallies).where(scopeConditions(attemptTallies, scope)).get() ?? {});
+}
+
+/**
+ * Tallies of the attempts in scope, one per value of `dimension` that has attempts. Keys are the stored values;
+ * a manikin key of 0 stands for attempts that name no manikin.
+ */
+export function talliesBy<K extends string | number>(db: Db, scope: SummaryScope, dimension: Dimension): Map<K, Tally> {
+  const column = attemptTallies[dimension];
+  const rows = db
+    .select({ key: column, ...tallySums })
+    .from(attemptTallies)
+    .where(scopeConditions(attemptTallies, scope))
+    .groupBy(column)
+    .all();
+  return new Map(rows.map((row) => [row.key as K, tallyOf(row)]));
+}
+
+/** Tallies by two dimensions at once, keyed `${first}|${second}`. */
+export function talliesByPair(db: Db, scope: SummaryScope, first: Dimension, second: Dimension): Map<string, Tally> {
+  const a = attemptTallies[first];
+  const b = attemptTallies[second];
+  const rows = db
+    .select({ a, b, ...tallySums })
+    .from(attemptTallies)
+    .where(scopeConditions(attemptTallies, scope))
+    .groupBy(a, b)
+    .all();
+  return new Map(rows.map((row) => [`${row.a}|${row.b}`, tallyOf(row)]));
+}
+
+/** Distinct values of a dimension among the attempts in scope, ascending. */
+export function distinctIn(db: Db, scope: SummaryScope, dimension: Dimension): (string | number)[] {
+  const column = attemptTallies[dimension];
+  return db
+    .selectDistinct({ key: column })
+    .from(attemptTallies)
+    .where(scopeConditions(attemptTallies, scope))
+    .orderBy(column)
+    .all()
+    .map((row) => row.key as string | number);
+}
+
+/** A distribution as ascending (value, count) pairs. */
+export type ValueCounts = { value: number; count: number }[];
+
+/** Type-7 quantile of a distribution (Hyndman & Fan 1996; shared/stats `quantile` on the expanded values). */
+export function quantileOfCounts(counts: ValueCounts, p: number): number | null {
+  const n = counts.reduce((sum, entry) => sum + entry.count, 0);
+  if (n === 0) return null;
+  const h = (n - 1) * p;
+  const lowerIndex = Math.floor(h);
+  const upperIndex = Math.ceil(h);
+  let lower: number | null = null;
+  let upper: number | null = null;
+  let seen = 0;
+  for (const { value, count } of counts) {
+    seen += count;
+    if (lower === null && seen > lowerIndex) lower = value;
+    if (seen > upperIndex) {
+      upper = value;
+      break;
+    }
+  }
+  // written as shared/stats interpolates (lower + fraction · (upper − lower)), so both give the same last bit
+  return lower! + (h - lowerIndex) * (upper! - lower!);
+}
+
+export function medianOfCounts(counts: ValueCounts): number | null {
+  return quantileOfCounts(counts, 0.5);
+}
+
+/** Merges ascending distributions into one. */
+export function mergeCounts(...lists: ValueCounts[]): ValueCounts {
+  const merged = new Map<number, number>();
+  for (const list of lists) for (const { value, count } of list) merged.set(value, (merged.get(value) ?? 0) + count);
+  return [...merged].sort((a, b) => a[0] - b[0]).map(([value, count]) => ({ value, count }));
+}
+
+/** Whether only quarter, patient type and feedback display narrow the scope (network_values answers it). */
+function isNetworkWide(scope: SummaryScope): boolean {
+  return scope.siteId === null && scope.instructorId === null && scope.manikinId === null;
+}
+
+function networkConditions(metric: SummaryMetric, scope: SummaryScope): SQL {
+  const parts: SQL[] = [eq(networkValues.metric, metric), between(networkValues.quarter, scope.from, scope.to)];
+  if (scope.profile !== null) parts.push(sql`${networkValues.profile} = ${scope.profile}`);
+  if (scope.feedback !== null) parts.push(sql`${networkValues.feedback} = ${scope.feedback}`);
+  return and(...parts)!;
+}
+
+/** The distribution of a metric over the attempts in scope. */
+export function valueCounts(db: Db, metric: SummaryMetric, scope: SummaryScope): ValueCounts {
+  if (isNetworkWide(scope)) {
+    return db
+      .select({ value: networkValues.value, count: sql<number>`sum(${networkValues.count})` })
+      .from(networkValues)
+      .where(networkConditions(metric, scope))
+      .groupBy(networkValues.value)
+      .orderBy(networkValues.value)
+      .all();
+  }
+  return db
+    .select({ value: attemptValues.value, count: sql<number>`sum(${attemptValues.count})` })
+    .from(attemptValues)
+    .where(and(eq(attemptValues.metric, metric), scopeConditions(attemptValues, scope)))
+    .groupBy(attemptValues.value)
+    .orderBy(attemptValues.value)
+    .all();
+}
+
+function groupRows(rows: { key: unknown; value: number; count: number }[]): Map<string | number, ValueCounts> {
+  const byKey = new Map<string | number, ValueCounts>();
+  for (const { key, value, count } of rows) {
+    const list = byKey.get(key as string | number);
+    if (list) list.push({ value, count });
+    else byKey.set(key as string | number, [{ value, count }]);
+  }
+  return byKey;
+}
+
+/** The distribution of a metric for each value of `dimension`. */
+export function valueCountsBy<K extends string | number>(db: Db, metric: SummaryMetric, scope: SummaryScope, dimension: Exclude<Dimension, "policyVersion">): Map<K, ValueCounts> {
+  if (isNetworkWide(scope) && (dimension === "quarter" || dimension === "profile" || dimension === "feedback")) {
+    const column = networkValues[dimension];
+    return groupRows(
+      db
+        .select({ key: column, value: networkValues.value, count: sql<number>`sum(${networkValues.count})` })
+        .from(networkValues)
+        .where(networkConditions(metric, scope))
+        .groupBy(column, networkValues.value)
+        .orderBy(column, networkValues.value)
+        .all(),
+    ) as Map<K, ValueCounts>;
+  }
+  const column = attemptValues[dimension];
+  return groupRows(
+    db
+      .select({ key: column, value: attemptValues.value, count: sql<number>`sum(${attemptValues.count})` })
+      .from(attemptValues)
+      .where(and(eq(attemptValues.metric, metric), scopeConditions(attemptValues, scope)))
+      .groupBy(column, attemptValues.value)
+      .orderBy(column, attemptValues.value)
+      .all(),
+  ) as Map<K, ValueCounts>;
+}
+
+/** The median of a metric over the attempts in scope; null when there are none. */
+export function medianIn(db: Db, metric: SummaryMetric, scope: SummaryScope): number | null {
+  return medianOfCounts(valueCounts(db, metric, scope));
+}
+
+/** The median of a metric for each value of `dimension`. */
+export function mediansBy<K extends string | number>(db: Db, metric: SummaryMetric, scope: SummaryScope, dimension: Exclude<Dimension, "policyVersion">): Map<K, number> {
+  return new Map([...valueCountsBy<K>(db, metric, scope, dimension)].map(([key, counts]) => [key, medianOfCounts(counts)!]));
+}
+
+/** Quarters that hold attempts, newest first. */
+export function quartersWithAttempts(db: Db): string[] {
+  return db
+    .selectDistinct({ quarter: attemptTallies.quarter })
+    .from(attemptTallies)
+    .orderBy(sql`${attemptTallies.quarter} DESC`)
+    .all()
+    .map((row) => row.quarter);
+}

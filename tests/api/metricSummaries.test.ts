@@ -1,0 +1,201 @@
+// The attempt summaries (tallies and value distributions kept by triggers) against plain JavaScript over the
+// attempts themselves, after inserts, deletes and updates of every kind the product makes (import, undo,
+// rescore, a class moved to another quarter): every tally and every median must equal the recomputation.
+// Medians are R's type 7 (Hyndman & Fan 1996), the definition of shared/stats `median`.
+import { eq, inArray, sql } from "drizzle-orm";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
+import { median, quantile } from "../../shared/stats";
+import type { Db } from "../../server/db/client";
+import { attempts } from "../../server/db/schema";
+import {
+  medianIn,
+  mediansBy,
+  mergeCounts,
+  quantileOfCounts,
+  quartersWithAttempts,
+  talliesBy,
+  totalTally,
+  type Dimension,
+  type SummaryMetric,
+  type SummaryScope,
+} from "../../server/metrics/summaries";
+import { seedInsightNetwork } from "../fixtures/insight/network";
+import { makeTestDb } from "../helpers/testApp";
+
+type AttemptRow = typeof attempts.$inferSelect;
+
+let db: Db;
+const everything: SummaryScope = { from: "0000-Q1", to: "9999-Q4", siteId: null, profile: null, feedback: null, instructorId: null, manikinId: null };
+
+beforeAll(async () => {
+  db = makeTestDb();
+  await seedInsightNetwork(db);
+  // a few thousand more attempts with scattered, tied and repeated values, some without a manikin or a judgement
+  const base = db.select().from(attempts).limit(1).get()!;
+  let seed = 12345;
+  const random = () => (seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31;
+  db.$client.transaction(() => {
+    for (let i = 0; i < 3000; i++) {
+      const score = random() < 0.2 ? 70 : Math.round(random() * 10000) / 100;
+      db.insert(attempts)
+        .values({
+          ...base,
+          id: `EXTRA-${i}`,
+          score,
+          depthOkPct: Math.round(random() * 100),
+          passed: random() < 0.4,
+          errorMask: Math.floor(random() * 128),
+          instructorResult: random() < 0.15 ? null : random() < 0.5 ? "pass" : "fail",
+          manikinId: i % 7 === 0 ? null : base.manikinId,
+          instructorId: 1 + (i % 4),
+          feedback: i % 3 === 0 ? "live" : "hidden",
+          profile: i % 5 === 0 ? "infant" : base.profile,
+          quarter: i % 2 ? "2026-Q2" : "2026-Q1",
+        })
+        .run();
+    }
+  })();
+  db.$client.transaction(() => {
+    // an undo: a block of attempts deleted
+    db.delete(attempts).where(inArray(attempts.id, Array.from({ length: 400 }, (_, i) => `EXTRA-${i}`))).run();
+    // a rescore: new scores and results for some attempts, unchanged values for others
+    db.update(attempts).set({ score: sql`round(${attempts.score} * 0.9, 2)`, passed: sql`NOT ${attempts.passed}`, policyVersion: 1 }).where(sql`${attempts.id} LIKE 'EXTRA-1%'`).run();
+    db.update(attempts).set({ score: sql`${attempts.score}` }).where(sql`${attempts.id} LIKE 'EXTRA-2%'`).run();
+    // a class moved to another quarter, and a judgement corrected
+    db.update(attempts).set({ quarter: "2025-Q4" }).where(sql`${attempts.id} LIKE 'EXTRA-9%'`).run();
+    db.update(attempts).set({ instructorResult: "pass" }).where(sql`${attempts.id} LIKE 'EXTRA-8%'`).run();
+  })();
+});
+afterAll(() => db.$client.close());
+
+function rowsIn(scope: SummaryScope): AttemptRow[] {
+  return db
+    .select()
+    .from(attempts)
+    .all()
+    .filter(
+      (row) =>
+        row.quarter >= scope.from &&
+        row.quarter <= scope.to &&
+        (scope.siteId === null || row.siteId === scope.siteId) &&
+        (scope.profile === null || row.profile === scope.profile) &&
+        (scope.feedback === null || row.feedback === scope.feedback) &&
+        (scope.instructorId === null || row.instructorId === scope.instructorId) &&
+        (scope.manikinId === null || row.manikinId === scope.manikinId),
+    );
+}
+
+/** A tally in plain JavaScript. */
+function tallyOf(rows: AttemptRow[]) {
+  const judged = (result: "pass" | "fail", passed: boolean) => rows.filter((r) => r.instructorResult === result && r.passed === passed).length;
+  return {
+    n: rows.length,
+    passed: rows.filter((r) => r.passed).length,
+    pp: judged("pass", true),
+    pf: judged("pass", false),
+    fp: judged("fail", true),
+    ff: judged("fail", false),
+    withErrors: rows.filter((r) => r.errorMask !== 0).length,
+    compressions: rows.reduce((sum, r) => sum + r.compressions, 0),
+    errors: Object.fromEntries(attemptErrorNames.map((name, bit) => [name, rows.filter((r) => (r.errorMask & (1 << bit)) !== 0).length])),
+  };
+}
+
+const columnOf: Record<Exclude<Dimension, "policyVersion">, keyof AttemptRow> = {
+  quarter: "quarter",
+  siteId: "siteId",
+  instructorId: "instructorId",
+  manikinId: "manikinId",
+  profile: "profile",
+  feedback: "feedback",
+};
+const metricColumn: Record<SummaryMetric, keyof AttemptRow> = {
+  score: "score",
+  depth_ok_pct: "depthOkPct",
+  rate_ok_pct: "rateOkPct",
+  recoil_ok_pct: "recoilOkPct",
+  hands_on_pct: "handsOnPct",
+};
+
+function groupsOf(rows: AttemptRow[], dimension: Exclude<Dimension, "policyVersion">): Map<string | number, AttemptRow[]> {
+  const groups = new Map<string | number, AttemptRow[]>();
+  for (const row of rows) {
+    // attempts without a manikin are kept under 0
+    const key = (row[columnOf[dimension]] ?? 0) as string | number;
+    groups.set(key, [...(groups.get(key) ?? []), row]);
+  }
+  return groups;
+}
+
+const scopes: [string, SummaryScope][] = [
+  ["everything", everything],
+  ["one quarter", { ...everything, from: "2026-Q2", to: "2026-Q2" }],
+  ["a range with live display", { ...everything, from: "2025-Q4", to: "2026-Q2", feedback: "live" }],
+  ["infant attempts", { ...everything, profile: "infant" }],
+  ["one site", { ...everything, siteId: 1 }],
+  ["one instructor", { ...everything, instructorId: 3 }],
+  ["one manikin", { ...everything, manikinId: 1 }],
+];
+
+describe("attempt summaries equal the attempts they summarise", () => {
+  it.each(scopes)("tallies in total and by every dimension (%s)", (_name, scope) => {
+    const rows = rowsIn(scope);
+    expect(rows.length).toBeGreaterThan(0);
+    expect(totalTally(db, scope)).toEqual(tallyOf(rows));
+    for (const dimension of Object.keys(columnOf) as (keyof typeof columnOf)[]) {
+      const expected = new Map([...groupsOf(rows, dimension)].map(([key, members]) => [key, tallyOf(members)]));
+      expect(talliesBy(db, scope, dimension)).toEqual(expected);
+    }
+  });
+
+  it.each(scopes)("medians of every metric, in total, by quarter and by instructor (%s)", (_name, scope) => {
+    const rows = rowsIn(scope);
+    for (const metric of Object.keys(metricColumn) as SummaryMetric[]) {
+      const values = (members: AttemptRow[]) => members.map((row) => row[metricColumn[metric]] as number);
+      expect(medianIn(db, metric, scope)).toBe(median(values(rows)));
+      for (const dimension of ["quarter", "instructorId", "feedback"] as const) {
+        const expected = new Map([...groupsOf(rows, dimension)].map(([key, members]) => [key, median(values(members))]));
+        expect(mediansBy(db, metric, scope, dimension)).toEqual(expected);
+      }
+    }
+  });
+
+  it("lists the quarters that hold attempts, and drops a quarter when its last attempt goes", () => {
+    expect(quartersWithAttempts(db)).toContain("2025-Q4");
+    db.delete(attempts).where(eq(attempts.quarter, "2025-Q4")).run();
+    expect(quartersWithAttempts(db)).not.toContain("2025-Q4");
+    expect(totalTally(db, { ...everything, from: "2025-Q4", to: "2025-Q4" }).n).toBe(0);
+    const left = db.$client.prepare("SELECT count(*) FROM attempt_values WHERE quarter = '2025-Q4'").pluck().get();
+    expect(left).toBe(0);
+  });
+});
+
+describe("quantiles of a distribution kept as value counts", () => {
+  it("matches the worked example of Hyndman & Fan type 7: 1..10 → median 5.5", () => {
+    // R: median(1:10) = 5.5; quantile(1:10, 0.25, type = 7) = 3.25
+    const counts = Array.from({ length: 10 }, (_, i) => ({ value: i + 1, count: 1 }));
+    expect(quantileOfCounts(counts, 0.5)).toBe(5.5);
+    expect(quantileOfCounts(counts, 0.25)).toBe(3.25);
+  });
+
+  it("equals shared/stats quantile on the expanded values, with ties", () => {
+    const counts = [
+      { value: 12.5, count: 3 },
+      { value: 40, count: 1 },
+      { value: 70, count: 6 },
+      { value: 99.9, count: 2 },
+    ];
+    const expanded = counts.flatMap(({ value, count }) => Array<number>(count).fill(value));
+    for (const p of [0, 0.1, 0.25, 0.5, 0.75, 0.9, 1]) expect(quantileOfCounts(counts, p)).toBe(quantile(expanded, p));
+    expect(quantileOfCounts([], 0.5)).toBeNull();
+  });
+
+  it("merges distributions into the distribution of both", () => {
+    expect(mergeCounts([{ value: 1, count: 2 }, { value: 3, count: 1 }], [{ value: 2, count: 1 }, { value: 3, count: 4 }])).toEqual([
+      { value: 1, count: 2 },
+      { value: 2, count: 1 },
+      { value: 3, count: 5 },
+    ]);
+  });
+});
