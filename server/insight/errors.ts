@@ -8,7 +8,7 @@ import type { Db } from "../db/client";
 import { attempts, instructors, manikins, sites } from "../db/schema";
 import type { ResolvedFilters } from "./filters";
 import { errorPareto } from "./pareto";
-import { trendQuarters } from "./quarters";
+import { trendQuarters } from "../../shared/period";
 import { rateOf } from "./rates";
 import { attemptConditions, errorCountColumns, errorCountsOf, hasError } from "./sql";
 import { errorLabels } from "../../shared/vocabulary";

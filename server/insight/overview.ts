@@ -14,7 +14,7 @@ import { attempts, classes } from "../db/schema";
 import type { ResolvedFilters } from "./filters";
 import { learnerOutcomes } from "../metrics/learnerOutcomes";
 import { errorPareto } from "./pareto";
-import { previousPeriod, trendQuarters } from "./quarters";
+import { previousPeriod, trendQuarters } from "../../shared/period";
 import { rateFor, rateOf } from "./rates";
 import { attemptConditions, classConditions, errorCountColumns, errorCountsOf, medianOfSorted, sortedUnion, sortedValues } from "./sql";
 import { hidesGroup, withComplementaryHiding, type Viewer } from "./viewer";

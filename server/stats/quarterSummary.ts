@@ -7,7 +7,7 @@ import { cohensKappa } from "../../shared/stats/kappa";
 import { kappaInterval, mcnemarExactP, pabak } from "../../shared/stats/agreement";
 import { changeVerdict, proportionDifference, type ChangeVerdict } from "../../shared/stats/difference";
 import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
-import { parseQuarter, previousQuarter } from "../../shared/quarter";
+import { parseQuarter, previousQuarter } from "../../shared/period";
 import { and, eq } from "drizzle-orm";
 import type { Db } from "../db/client";
 import { attempts as attemptsTable } from "../db/schema";
