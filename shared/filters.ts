@@ -3,7 +3,7 @@
 // Sites, instructors and manikins are named by their code (asset id for manikins) or by their numeric id.
 import { z } from "zod";
 import { feedbackModes } from "./domain";
-import { isQuarter } from "./quarter";
+import { isQuarter } from "./period";
 import { patientTypes } from "./scoring/policy";
 import { attemptErrorNames } from "./scoring/scoreAttempt";
 

@@ -2,7 +2,7 @@
 // measurement — how often they passed measured failures (lenient) or failed measured passes (strict).
 import type { Command } from "commander";
 import { z } from "zod";
-import { isQuarter } from "../../shared/quarter";
+import { isQuarter } from "../../shared/period";
 import { calibrationByInstructor } from "../../server/metrics/calibration";
 import { context } from "../context";
 import { UsageError } from "../errors";

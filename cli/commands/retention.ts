@@ -2,7 +2,7 @@
 // months since their previous class, beside first-timers (the service a retention page will use).
 import type { Command } from "commander";
 import { z } from "zod";
-import { isQuarter } from "../../shared/quarter";
+import { isQuarter } from "../../shared/period";
 import { retention } from "../../server/metrics/retention";
 import { context } from "../context";
 import { UsageError } from "../errors";

@@ -1,7 +1,7 @@
 // `quarterbeat stats --quarter 2026-Q3`: the quarter's network summary (the service the web statistics use).
 import type { Command } from "commander";
 import { z } from "zod";
-import { isQuarter } from "../../shared/quarter";
+import { isQuarter } from "../../shared/period";
 import { quarterSummary } from "../../server/stats/quarterSummary";
 import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
 import { errorShortNames, feedbackNames, figureNames } from "../../shared/vocabulary";

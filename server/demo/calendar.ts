@@ -26,32 +26,3 @@ export function daysBetween(from: string, to: string): number {
 export function weekday(date: string): number {
   return new Date(parseDay(date)).getUTCDay();
 }
-
-/** A quarter as a running number (year · 4 + quarter − 1), which makes stepping and comparing simple. */
-export function quarterIndexOf(date: string): number {
-  const year = Number(date.slice(0, 4));
-  const month = Number(date.slice(5, 7));
-  return year * 4 + Math.floor((month - 1) / 3);
-}
-
-/** "2026-Q3" */
-export function quarterLabel(index: number): string {
-  return `${Math.floor(index / 4)}-Q${(index % 4) + 1}`;
-}
-
-export function quarterIndexFromLabel(label: string): number {
-  const match = /^(\d{4})-Q([1-4])$/.exec(label);
-  if (!match) throw new RangeError(`Expected a quarter such as 2026-Q1, got "${label}"`);
-  return Number(match[1]) * 4 + Number(match[2]) - 1;
-}
-
-export function quarterStart(index: number): string {
-  const year = Math.floor(index / 4);
-  const month = (index % 4) * 3 + 1;
-  return `${year}-${String(month).padStart(2, "0")}-01`;
-}
-
-/** Last day of the quarter. */
-export function quarterEnd(index: number): string {
-  return addDays(quarterStart(index + 1), -1);
-}

@@ -1,7 +1,7 @@
 // What each class used up: lungs replaced, mouthpieces cleaned, batteries replaced. The class log carries the
 // totals; the equipment log carries the same work per manikin (one row per manikin, event and day), so the
 // two files tell one story and neither adds to the other.
-import { quarterIndexOf } from "./calendar";
+import { quarterIndex, quarterOf } from "../../shared/period";
 import type { Random } from "./random";
 import type { DemoScenario } from "./scenario";
 import type { PlannedClass } from "./schedule";
@@ -36,7 +36,7 @@ export function classConsumables(
 
   const gap = c.cleaningGap;
   const inGap =
-    plannedClass.site === gap.site && quarterIndexOf(plannedClass.date) <= timeline.shiftQuarter(gap.untilQuarter);
+    plannedClass.site === gap.site && quarterIndex(quarterOf(plannedClass.date)) <= timeline.shiftQuarter(gap.untilQuarter);
   const [low, high] = inGap ? gap.perLearner : c.mouthpiecesPerLearner;
   const cleaned = Math.max(1, Math.round(plannedClass.learners * random.uniform(low, high)));
 

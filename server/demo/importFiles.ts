@@ -1,9 +1,9 @@
 // Writes the demo network in Quarterbeat's four import formats (classes, attempts, compressions,
 // equipment). Column names and order are the import formats'; numbers are written with the precision a
 // device or class log would give (whole percentages, tenths of seconds and millimetres).
+import { CSV_LINE_END, csvRecord, IMPORT_FILE_CSV, toCsv } from "../../shared/csv";
 import type { ClassOutcome, AttemptRecord } from "./attempts";
 import { total, type ClassConsumables } from "./consumables";
-import { csvLine, joinLines, toCsv } from "./csv";
 import type { EquipmentEvent } from "./equipment";
 import { Random } from "./random";
 import { simulateStream } from "./simulateStream";
@@ -85,6 +85,7 @@ export function classesCsv(classes: (ClassOutcome & { consumables: ClassConsumab
         logged(total(consumables.batteries)),
       ];
     }),
+    IMPORT_FILE_CSV,
   );
 }
 
@@ -117,6 +118,7 @@ export function attemptsCsv(attempts: AttemptRecord[]): string {
         a.instructorResult,
       ];
     }),
+    IMPORT_FILE_CSV,
   );
 }
 
@@ -125,29 +127,21 @@ export function attemptsCsv(attempts: AttemptRecord[]): string {
  * The attempt's columns are written once per attempt: this file has tens of thousands of rows.
  */
 export function compressionsCsv(attempts: AttemptRecord[]): string {
-  const lines = [csvLine(COMPRESSIONS_COLUMNS)];
+  const lines = [csvRecord(COMPRESSIONS_COLUMNS, IMPORT_FILE_CSV)];
   for (const a of attempts) {
     const stream = simulateStream(a.plan, new Random(a.streamSeed));
-    const identity = csvLine([
-      a.id,
-      a.classId,
-      a.learner,
-      a.manikin,
-      a.profile,
-      a.feedback,
-      a.startedAt,
-      a.instructorResult,
-    ]);
+    const identity = csvRecord([a.id, a.classId, a.learner, a.manikin, a.profile, a.feedback, a.startedAt, a.instructorResult], IMPORT_FILE_CSV);
     for (let i = 0; i < stream.t.length; i++) {
       lines.push(`${identity},${stream.t[i]},${stream.depth[i].toFixed(1)},${stream.release[i].toFixed(1)}`);
     }
   }
-  return joinLines(lines);
+  return lines.join(CSV_LINE_END) + CSV_LINE_END;
 }
 
 export function equipmentCsv(events: EquipmentEvent[]): string {
   return toCsv(
     EQUIPMENT_COLUMNS,
     events.map((e) => [e.date, e.manikin, e.site, e.event, e.quantity, e.patientType, e.note]),
+    IMPORT_FILE_CSV,
   );
 }

@@ -2,7 +2,8 @@
 // out for it. At most one class per site and day, so each manikin serves at most one class a day.
 import { courseTypes, type CourseType } from "../../shared/domain";
 import type { PatientType } from "../../shared/scoring/policy";
-import { addDays, daysBetween, quarterEnd, quarterStart, weekday } from "./calendar";
+import { quarterAtIndex, quarterDates } from "../../shared/period";
+import { addDays, daysBetween, weekday } from "./calendar";
 import { isInUse, type Manikin } from "./fleet";
 import type { Random } from "./random";
 import type { DemoScenario, ScenarioInstructor } from "./scenario";
@@ -40,10 +41,11 @@ export function planClasses(
   const taken = new Set<string>(); // site|date
   const planned: Omit<PlannedClass, "id">[] = [];
   timeline.quarters.forEach((quarter, k) => {
-    const days = teachingDays(quarterStart(quarter), quarterEnd(quarter), timeline.lastClassDay);
+    const { first, last } = quarterDates(quarterAtIndex(quarter));
+    const days = teachingDays(first, last, timeline.lastClassDay);
     if (days.length === 0) return;
     // The current quarter is only partly over: it gets its share of a full quarter's classes.
-    const fullDays = teachingDays(quarterStart(quarter), quarterEnd(quarter), quarterEnd(quarter)).length;
+    const fullDays = teachingDays(first, last, last).length;
     const perFullQuarter = scenario.classes.firstQuarter + scenario.classes.growthPerQuarter * k;
     const count = Math.round((perFullQuarter * days.length) / fullDays);
     for (let i = 0; i < count; i++) {

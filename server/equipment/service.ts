@@ -1,14 +1,13 @@
 // The manikin fleet, consumables per 100 learners and the list of what needs attention, judged against the
 // equipment thresholds of the network policy (project defaults unless the network changed them).
 import { and, between, eq, gte, inArray, isNotNull, lt, sql, type SQL } from "drizzle-orm";
-import { quarterOf } from "../../shared/quarter";
+import { quarterOf, trendQuarters } from "../../shared/period";
 import type { EquipmentAnswer } from "../../shared/schemas/equipment";
 import { DEFAULT_POLICY, type EquipmentPolicy } from "../../shared/scoring/policy";
 import type { Db } from "../db/client";
 import { attempts, classes, equipmentEvents, manikins, sites } from "../db/schema";
 import type { ResolvedFilters } from "../insight/filters";
 import { talliesByPair } from "../metrics/summaries";
-import { trendQuarters } from "../insight/quarters";
 
 const DAY_MS = 86_400_000;
 

@@ -1,6 +1,6 @@
 // Class logs: one row per class an instructor taught.
 import type { RowReader } from "../../shared/import/rows";
-import { quarterOf } from "../../shared/quarter";
+import { quarterOf } from "../../shared/period";
 import type { KindImporter } from "./kind";
 import { RowStore } from "./rowStore";
 import type { ImportRun } from "./run";

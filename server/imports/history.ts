@@ -1,10 +1,10 @@
 // Import history: every batch with who, when, which file and what it changed. Instructors see their own.
 import type Database from "better-sqlite3";
+import { csvLine, SPREADSHEET_CSV } from "../../shared/csv";
 import type { ImportBatch } from "../../shared/import/api";
 import type { ImportKind } from "../../shared/domain";
 import type { Db } from "../db/client";
 import { notFound } from "../errors";
-import { csvLine } from "./run";
 
 interface BatchRow {
   id: number;
@@ -117,9 +117,9 @@ export function* rejectedRowsCsv(db: Db, batchId: number): Generator<string> {
     const raw = row.raw ? (JSON.parse(row.raw) as Record<string, string>) : {};
     if (header === null) {
       header = Object.keys(raw);
-      yield csvLine(["row", "column", "reason", ...header]);
+      yield csvLine(["row", "column", "reason", ...header], SPREADSHEET_CSV);
     }
-    yield csvLine([String(row.row_number ?? ""), row.column ?? "", row.reason, ...header.map((h) => raw[h] ?? "")]);
+    yield csvLine([String(row.row_number ?? ""), row.column ?? "", row.reason, ...header.map((h) => raw[h] ?? "")], SPREADSHEET_CSV);
   }
-  if (header === null) yield csvLine(["row", "column", "reason"]);
+  if (header === null) yield csvLine(["row", "column", "reason"], SPREADSHEET_CSV);
 }

@@ -6,6 +6,7 @@ import type { ImportKind, UserRole } from "../../shared/domain";
 import { reachOf } from "../../shared/permissions";
 import type { RowIssue } from "../../shared/import/rows";
 import type { NetworkPolicy } from "../../shared/scoring/policy";
+import { csvLine, SPREADSHEET_CSV } from "../../shared/csv";
 import { CodeRegistry } from "./codes";
 import { InstructorScope } from "./instructorScope";
 
@@ -87,7 +88,7 @@ export class ImportRun {
 
   setHeader(header: string[]) {
     this.header = header.map((h) => h.trim());
-    if (this.rejectedCsv !== null) fs.writeSync(this.rejectedCsv, csvLine(["row", "column", "reason", ...this.header]));
+    if (this.rejectedCsv !== null) fs.writeSync(this.rejectedCsv, csvLine(["row", "column", "reason", ...this.header], SPREADSHEET_CSV));
   }
 
   /** A header fault: refuses the file before any row is read. */
@@ -106,7 +107,7 @@ export class ImportRun {
     for (const issue of issues) {
       this.addIssue(issue);
       if (this.keepsRejected) this.insertRejected.run(this.batchId, issue.row, issue.column, issue.reason, this.rawJson(fields));
-      if (this.rejectedCsv !== null) fs.writeSync(this.rejectedCsv, csvLine([String(issue.row ?? ""), issue.column ?? "", issue.reason, ...fields]));
+      if (this.rejectedCsv !== null) fs.writeSync(this.rejectedCsv, csvLine([String(issue.row ?? ""), issue.column ?? "", issue.reason, ...fields], SPREADSHEET_CSV));
     }
   }
 
@@ -149,17 +150,4 @@ export class ImportRun {
     if (this.rejectedCsv !== null) fs.closeSync(this.rejectedCsv);
     this.rejectedCsv = null;
   }
-}
-
-/**
- * One CSV field for the refused-rows downloads. A text starting like a spreadsheet formula (=, +, -, @) gets
- * a leading apostrophe so opening the download cannot run it (OWASP "CSV injection"); numbers stay as they are.
- */
-export function csvField(raw: string): string {
-  const value = /^[=+\-@\t\r]/.test(raw) && Number.isNaN(Number(raw)) ? `'${raw}` : raw;
-  return /[",\r\n]/.test(value) || /^\s|\s$/.test(value) ? `"${value.replace(/"/g, '""')}"` : value;
-}
-
-export function csvLine(values: readonly string[]): string {
-  return `${values.map(csvField).join(",")}\n`;
 }

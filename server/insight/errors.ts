@@ -7,7 +7,7 @@ import { instructors, manikins, sites } from "../db/schema";
 import { talliesBy, totalTally, type Dimension, type SummaryScope } from "../metrics/summaries";
 import type { ResolvedFilters } from "./filters";
 import { errorPareto } from "./pareto";
-import { trendQuarters } from "./quarters";
+import { trendQuarters } from "../../shared/period";
 import { rateOf } from "./rates";
 import { scopeOf } from "./sql";
 import { errorLabels } from "../../shared/vocabulary";

@@ -6,7 +6,7 @@ import type { SQLiteColumn } from "drizzle-orm/sqlite-core";
 import type { FeedbackMode } from "../../shared/domain";
 import type { InsightFilters } from "../../shared/filters";
 import { can } from "../../shared/permissions";
-import { parseQuarter, quarterOf, quartersBetween } from "../../shared/quarter";
+import { periodOf, quarterOf, quarterSpan } from "../../shared/period";
 import type { Period } from "../../shared/schemas/insight";
 import type { PatientType } from "../../shared/scoring/policy";
 import type { Db } from "../db/client";
@@ -58,9 +58,8 @@ export function resolvePeriod(db: Db, filters: Pick<InsightFilters, "quarter" | 
   } else {
     from = to = latest;
   }
-  const span = (parseQuarter(to).year - parseQuarter(from).year) * 4 + parseQuarter(to).q - parseQuarter(from).q + 1;
-  if (span > MAX_PERIOD_QUARTERS) throw invalid("from", `A period may span at most ${MAX_PERIOD_QUARTERS} quarters`);
-  return { from, to, quarters: quartersBetween(from, to) };
+  if (quarterSpan(from, to) > MAX_PERIOD_QUARTERS) throw invalid("from", `A period may span at most ${MAX_PERIOD_QUARTERS} quarters`);
+  return periodOf(from, to);
 }
 
 export function resolveFilters(db: Db, filters: InsightFilters, viewer: Viewer): ResolvedFilters {

@@ -10,7 +10,7 @@ import { notFound } from "../errors";
 import { classRows } from "./classes";
 import type { ResolvedFilters } from "./filters";
 import { funnelLimitCurve } from "./funnel";
-import { trendQuarters } from "./quarters";
+import { trendQuarters } from "../../shared/period";
 import { rateOf } from "./rates";
 import { classConditions, scopeOf } from "./sql";
 

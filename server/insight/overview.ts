@@ -14,7 +14,7 @@ import { addTally, emptyTally, judgedOf, medianOfCounts, mergeCounts, talliesBy,
 import type { ResolvedFilters } from "./filters";
 import { learnerOutcomes } from "../metrics/learnerOutcomes";
 import { errorPareto } from "./pareto";
-import { previousPeriod, trendQuarters } from "./quarters";
+import { previousPeriod, trendQuarters } from "../../shared/period";
 import { rateFor, rateOf } from "./rates";
 import { attemptConditions, classConditions, scopeOf } from "./sql";
 import { hidesGroup, withComplementaryHiding, type Viewer } from "./viewer";

@@ -4,7 +4,7 @@
 // returning class (by start time, ties by attempt id) passed. Learners with no earlier class in the data are
 // first-timers. The period selects the returning (or first) class by its date.
 import { sql } from "drizzle-orm";
-import { quarterDates } from "../../shared/quarter";
+import { quarterDates } from "../../shared/period";
 import { wilsonInterval } from "../../shared/stats/wilson";
 import type { Db } from "../db/client";
 import { attempts, classes } from "../db/schema";

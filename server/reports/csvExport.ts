@@ -1,7 +1,7 @@
 // A stored report's figures as CSV: one row per figure, with the value (empty when hidden) and the text the
 // report shows. Only what the report already shows goes in; hidden figures stay hidden.
 import type { CountFigure, PerHundredFigure, RateFigure, ReportData } from "../../shared/schemas/report";
-import { toCsv, type CsvCell } from "../../shared/csv";
+import { SPREADSHEET_CSV, toCsv, type CsvCell } from "../../shared/csv";
 
 type Row = [section: string, item: string, value: CsvCell, low: CsvCell, high: CsvCell, shown: string];
 
@@ -43,5 +43,5 @@ export function reportCsv(data: ReportData): string {
     count("equipment", "services", data.equipment.services),
     count("equipment", "faults", data.equipment.faults),
   ];
-  return toCsv(["section", "item", "value", "interval_low", "interval_high", "as_shown"], rows);
+  return toCsv(["section", "item", "value", "interval_low", "interval_high", "as_shown"], rows, SPREADSHEET_CSV);
 }

@@ -5,17 +5,18 @@
 import { eq, inArray } from "drizzle-orm";
 import { courseTypes, feedbackModes } from "../../shared/domain";
 import type { ErrorRow, GroupResult, RateFigure, ReportComparison, ReportData, TrendPoint } from "../../shared/schemas/report";
+import { comparisonPeriods, parsePeriod, periodMonths, quartersOf, trailingQuarters, type ReportPeriod } from "../../shared/period";
 import { GUIDELINE_SOURCES, SAFETY_NOTE, patientTypes, type NetworkPolicy } from "../../shared/scoring/policy";
 import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
 import { changeFrom, cohensKappa, pareto, pChart } from "../../shared/stats";
 import type { Db } from "../db/client";
 import { attempts, quarterNotes } from "../db/schema";
 import { currentPolicy } from "../policy/service";
+import { badRequest } from "../errors";
 import { getSetting } from "../settings/store";
 import { compareRates, differencePoints } from "./compare";
 import { countFigure, formatPoints, hiddenText, perHundredFigure, rateFigure } from "./figures";
 import { writeNarrative } from "./narrative";
-import { comparisonPeriods, parsePeriod, periodLabel, quartersOf, trailingQuarters } from "./period";
 import { passTallyByQuarter, reportNumbers, type PassTally } from "./queries";
 import { suppressBreakdown } from "../../shared/suppression";
 import { courseTypeNames, errorLabels, feedbackNames, patientTypeNames } from "../../shared/vocabulary";
@@ -69,8 +70,15 @@ export interface BuildOptions {
   now?: Date;
 }
 
+/** A report period named by a request or a command; anything else is answered as a bad request. */
+export function reportPeriod(text: unknown): ReportPeriod {
+  const period = typeof text === "string" ? parsePeriod(text) : null;
+  if (!period) throw badRequest(`"${String(text)}" is not a report period. Use a quarter such as 2026-Q3 or a year such as 2026.`);
+  return period;
+}
+
 export function buildReportData(db: Db, periodText: string, options: BuildOptions = {}): ReportData {
-  const period = parsePeriod(periodText);
+  const period = reportPeriod(periodText);
   const quarters = quartersOf(period);
   const { policy, version } = currentPolicy(db);
   const min = policy.suppressionMinCount;
@@ -172,7 +180,7 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
   const data: ReportData = {
     period: period.id,
     kind: period.kind,
-    periodLabel: periodLabel(period),
+    periodLabel: periodMonths(period),
     quarters,
     networkName: networkName(db),
     generatedAt: (options.now ?? new Date()).toISOString(),

@@ -1,6 +1,7 @@
 // Vector charts for the funder report PDF, drawn with pdfkit paths so they stay sharp when printed.
 // Every chart also states its numbers in text, so a reader without colour vision (or a screen reader on the
 // extracted text) loses nothing.
+import { quarterLabel } from "../../shared/period";
 import type { ErrorRow, RateFigure, TrendPoint } from "../../shared/schemas/report";
 import { formatPercent } from "./figures";
 import { colours, FONT, type Doc, type TextOptions } from "./pdfStyle";
@@ -38,7 +39,7 @@ export function drawTrendChart(doc: Doc, box: Box, points: TrendPoint[], centre:
     label(doc, `${share * 100} %`, box.x, yAt(share) - 3.5, { width: 28, align: "right" });
   }
   points.forEach((point, i) => {
-    label(doc, point.quarter, xAt(i) - step / 2, plot.y + plot.height + 5, { width: step, align: "center" });
+    label(doc, quarterLabel(point.quarter), xAt(i) - step / 2, plot.y + plot.height + 5, { width: step, align: "center" });
     if (point.passRate.value === null) {
       label(doc, point.passRate.text, xAt(i) - step / 2, plot.y + plot.height - 12, { width: step, align: "center", size: 6.5 });
     }

@@ -19,9 +19,8 @@ import { logReportSend } from "../logging/events";
 import type { Logger } from "../logging/logger";
 import type { Mailer } from "../mail/mailer";
 import { reportCsv } from "./csvExport";
-import { buildReportData, readQuarterNotes, saveQuarterNotes } from "./data";
+import { buildReportData, readQuarterNotes, reportPeriod, saveQuarterNotes } from "./data";
 import { contentDisposition } from "./download";
-import { parsePeriod } from "./period";
 import { listSends, retrySend, sendReport } from "./send";
 import { findReport, generateReport, listReports, reportFileName } from "./store";
 
@@ -34,22 +33,22 @@ export function reportRoutes(db: Db, mailer: Mailer, logger: Logger): Router {
   });
 
   router.get("/reports/:period/preview", allow("readReport"), (req, res) => {
-    res.json({ report: buildReportData(db, parsePeriod(req.params.period).id) });
+    res.json({ report: buildReportData(db, reportPeriod(req.params.period).id) });
   });
 
   router.post("/reports/:period", allow("sendReport"), async (req, res) => {
-    const stored = await generateReport(db, parsePeriod(req.params.period).id, { userId: signedInUser(req).id });
+    const stored = await generateReport(db, reportPeriod(req.params.period).id, { userId: signedInUser(req).id });
     const { data: _data, pdf: _pdf, ...version } = stored;
     res.status(201).json({ report: version });
   });
 
   router.get("/reports/:period/notes", allow("readReport"), (req, res) => {
-    const period = parsePeriod(req.params.period).id;
+    const period = reportPeriod(req.params.period).id;
     res.json({ period, actions: readQuarterNotes(db, period) });
   });
 
   router.put("/reports/:period/notes", allow("sendReport"), (req, res) => {
-    const period = parsePeriod(req.params.period).id;
+    const period = reportPeriod(req.params.period).id;
     const { actions } = parseWith(quarterNotesSchema, req.body, "The note");
     saveQuarterNotes(db, period, actions, signedInUser(req).id);
     res.json({ period, actions: readQuarterNotes(db, period) });

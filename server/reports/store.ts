@@ -5,8 +5,7 @@ import type { ReportData, ReportVersion } from "../../shared/schemas/report";
 import type { Db } from "../db/client";
 import { reports, reportSends, users } from "../db/schema";
 import { AppError, notFound } from "../errors";
-import { buildReportData } from "./data";
-import { parsePeriod } from "./period";
+import { buildReportData, reportPeriod } from "./data";
 import { renderReportPdf } from "./pdf";
 
 export interface StoredReport extends ReportVersion {
@@ -45,7 +44,7 @@ function toVersion(row: VersionRow): ReportVersion {
 
 /** Builds the report for a period, renders its PDF and stores both as the period's next version. */
 export async function generateReport(db: Db, periodText: string, options: { userId?: number | null; now?: Date } = {}): Promise<StoredReport> {
-  const period = parsePeriod(periodText);
+  const period = reportPeriod(periodText);
   const createdAt = options.now ?? new Date();
   // Milliseconds are dropped: the PDF's creation date has whole seconds, and the stored time should match it.
   createdAt.setUTCMilliseconds(0);
@@ -73,7 +72,7 @@ export async function generateReport(db: Db, periodText: string, options: { user
 
 export function listReports(db: Db, period?: string): ReportVersion[] {
   const query = db.select(versionColumns).from(reports).leftJoin(users, eq(reports.createdBy, users.id));
-  const rows = period ? query.where(eq(reports.period, parsePeriod(period).id)).orderBy(desc(reports.id)).all() : query.orderBy(desc(reports.id)).all();
+  const rows = period ? query.where(eq(reports.period, reportPeriod(period).id)).orderBy(desc(reports.id)).all() : query.orderBy(desc(reports.id)).all();
   return rows.map(toVersion);
 }
 

@@ -12,7 +12,7 @@ import { attempts, classes, importBatches, instructors, sites, users } from "../
 import { AppError } from "../errors";
 import { importFile } from "../imports/service";
 import { generateReport } from "../reports/store";
-import { previousQuarter, quarterOf } from "../../shared/quarter";
+import { previousQuarter, quarterOf } from "../../shared/period";
 import { setSetting } from "../settings/store";
 import { createInstructor, createSite, listInstructors, listSites } from "../sites/service";
 import { createUser, findUserByEmail } from "../users/service";

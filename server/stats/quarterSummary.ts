@@ -8,7 +8,7 @@ import { kappaInterval, mcnemarExactP, pabak } from "../../shared/stats/agreemen
 import { changeVerdict, proportionDifference, type ChangeVerdict } from "../../shared/stats/difference";
 import type { FeedbackMode } from "../../shared/domain";
 import type { AttemptError } from "../../shared/scoring/scoreAttempt";
-import { parseQuarter, previousQuarter } from "../../shared/quarter";
+import { parseQuarter, previousQuarter } from "../../shared/period";
 import { and, eq } from "drizzle-orm";
 import type { Db } from "../db/client";
 import { attempts as attemptsTable } from "../db/schema";

@@ -1,6 +1,7 @@
 // The funder report as the API answers it: the period it covers, every figure with its display text already
 // made (so the web page and the PDF say exactly the same thing), and the request bodies of the report routes.
 import { z } from "zod";
+import { REPORT_PERIOD_RE } from "../period";
 import { emailSchema } from "./auth";
 import type { ChangeVerdict } from "../stats/difference";
 
@@ -9,7 +10,7 @@ export const periodSchema = z
   .string()
   .trim()
   .toUpperCase()
-  .regex(/^(20\d\d)(-Q[1-4])?$/, "Use a quarter such as 2026-Q3 or a year such as 2026");
+  .regex(REPORT_PERIOD_RE, "Use a quarter such as 2026-Q3 or a year such as 2026");
 export type Period = z.infer<typeof periodSchema>;
 
 export const quarterNotesSchema = z.object({

@@ -1,7 +1,8 @@
 // A table for any list: sortable columns, a filter box, and "Export CSV" of exactly the rows shown.
 import clsx from "clsx";
 import { useId, useMemo, useState, type ReactNode } from "react";
-import { downloadCsv, toCsv, type CsvValue } from "../lib/csv";
+import { SPREADSHEET_CSV, toCsv, type CsvCell } from "../../shared/csv";
+import { downloadCsv } from "../lib/downloadCsv";
 
 export type CellValue = string | number | boolean | null | undefined;
 
@@ -96,7 +97,8 @@ export function tableToCsv<Row>(columns: readonly Column<Row>[], rows: readonly 
   const exported = columns.filter((c) => c.exportable !== false);
   return toCsv(
     exported.map((c) => c.header),
-    rows.map((row) => exported.map((c) => c.value(row) as CsvValue)),
+    rows.map((row) => exported.map((c) => c.value(row) as CsvCell)),
+    SPREADSHEET_CSV,
   );
 }
 

@@ -13,7 +13,8 @@ import { ConsumablesCharts } from "../features/equipment/ConsumablesChart";
 import { FleetTable } from "../features/equipment/FleetTable";
 import { equipmentQueries } from "../features/equipment/queries";
 import { UsageChart } from "../features/equipment/UsageChart";
-import { periodWords, useInsightFilters, type InsightFilterState, type OptionalFilter } from "../features/insight/useInsightFilters";
+import { useInsightFilters, type InsightFilterState, type OptionalFilter } from "../features/insight/useInsightFilters";
+import { rangeLabel } from "../../shared/period";
 
 // an instructor's view is their own site already: no site filter
 const filterKeys: readonly OptionalFilter[] = ["site", "patientType", "manikin"];
@@ -98,7 +99,7 @@ function EquipmentView({ answer, ownSite }: { answer: EquipmentAnswer; ownSite: 
         </h2>
         <Thresholds answer={answer} ownSite={ownSite} />
         <p className="text-small text-muted">
-          Services and faults are as of {dateOnly(answer.asOf)}; mouthpiece cleans cover the classes of {periodWords(answer.period)}.
+          Services and faults are as of {dateOnly(answer.asOf)}; mouthpiece cleans cover the classes of {rangeLabel(answer.period)}.
         </p>
         <AttentionList items={answer.attention} linkClasses />
       </section>
@@ -112,7 +113,7 @@ function EquipmentView({ answer, ownSite }: { answer: EquipmentAnswer; ownSite: 
         ) : (
           <>
             <p className="text-small text-muted">
-              {answer.fleet.length} manikins{retired > 0 ? `, ${retired} of them retired` : ""}. Attempts and compressions are for {periodWords(answer.period)}; compressions since service count every attempt since the last service (or since the manikin came into use).
+              {answer.fleet.length} manikins{retired > 0 ? `, ${retired} of them retired` : ""}. Attempts and compressions are for {rangeLabel(answer.period)}; compressions since service count every attempt since the last service (or since the manikin came into use).
             </p>
             <FleetTable answer={answer} />
             <UsageChart fleet={answer.fleet} />
@@ -125,7 +126,7 @@ function EquipmentView({ answer, ownSite }: { answer: EquipmentAnswer; ownSite: 
           Consumables
         </h2>
         <p className="text-small text-muted">From the class logs, per 100 learners at each site. The equipment log records the same work per manikin, so it is not added again.</p>
-        <ConsumablesCharts rows={answer.consumables} period={periodWords(answer.period)} />
+        <ConsumablesCharts rows={answer.consumables} period={rangeLabel(answer.period)} />
       </section>
     </div>
   );

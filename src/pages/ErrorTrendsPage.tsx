@@ -14,7 +14,8 @@ import { BreakdownPanel, type BreakdownRow } from "../features/errors/BreakdownP
 import { ErrorTrendChart } from "../features/errors/ErrorTrendChart";
 import { ParetoChart } from "../features/errors/ParetoChart";
 import { errorQueries } from "../features/errors/queries";
-import { linkParams, periodWords, useInsightFilters, type InsightFilterState, type OptionalFilter } from "../features/insight/useInsightFilters";
+import { linkParams, useInsightFilters, type InsightFilterState, type OptionalFilter } from "../features/insight/useInsightFilters";
+import { rangeLabel } from "../../shared/period";
 import { feedbackNames, patientTypeNames } from "../../shared/vocabulary";
 
 const filterKeys: readonly OptionalFilter[] = ["site", "patientType", "feedback", "instructor", "manikin"];
@@ -83,7 +84,7 @@ function ErrorTrends({ state }: { state: InsightFilterState }) {
       ) : (
         <div className={analysis.isPlaceholderData ? "opacity-60 transition-opacity" : undefined} aria-busy={analysis.isPlaceholderData || undefined}>
           <p className="mb-3 text-small text-muted">
-            {periodWords(analysis.data.period)} · {analysis.data.pareto.attempts ?? 0} attempts
+            {rangeLabel(analysis.data.period)} · {analysis.data.pareto.attempts ?? 0} attempts
           </p>
           {!analysis.data.pareto.attempts ? (
             <EmptyState title="No attempts match these filters">Choose another period or clear a filter.</EmptyState>

@@ -14,7 +14,8 @@ import { OverviewStats } from "../features/insight/overview/OverviewStats";
 import { RecordedVsMeasured } from "../features/insight/overview/RecordedVsMeasured";
 import { QueryStatus } from "../features/insight/QueryStatus";
 import { NothingToChart } from "../features/insight/charts/NothingToChart";
-import { quarterLabel, suppressedText } from "../features/insight/format";
+import { suppressedText } from "../features/insight/format";
+import { quarterLabel } from "../../shared/period";
 import { insightQueries } from "../features/insight/queries";
 import type { InsightFilterState } from "../features/insight/useInsightFilters";
 

@@ -11,7 +11,7 @@ import { PageHeader } from "../components/PageHeader";
 import { EmptyState, ErrorState, LoadingState } from "../components/States";
 import { useCan } from "../features/auth/useCan";
 import { NotesEditor } from "../features/report/NotesEditor";
-import { defaultPeriod, periodIsRunning, periodName } from "../features/report/period";
+import { defaultPeriod, periodIsRunning, periodLabel } from "../../shared/period";
 import { PeriodPicker } from "../features/report/PeriodPicker";
 import { insightQueries } from "../features/insight/queries";
 import { pdfUrl, reportQueries } from "../features/report/queries";
@@ -77,7 +77,7 @@ export default function ReportPage() {
         <>
           {requested !== null && !parsed?.success && (
             <Notice tone="error">
-              “{requested}” is not a report period. Showing {periodName(period)} instead; use a quarter such as 2026-Q3 or a year such as 2026.
+              “{requested}” is not a report period. Showing {periodLabel(period)} instead; use a quarter such as 2026-Q3 or a year such as 2026.
             </Notice>
           )}
           <PeriodPicker quarters={quarters.data} period={period} onChange={choose} />
@@ -101,7 +101,7 @@ function ReportForPeriod({ period, coordinator }: { period: string; coordinator:
   const stored = useQuery({ ...reportQueries.versionData(latest?.id ?? 0), enabled: showVersion });
   const running = periodIsRunning(period);
 
-  if (versions.isPending) return <LoadingState label={`Loading the report for ${periodName(period)}…`} />;
+  if (versions.isPending) return <LoadingState label={`Loading the report for ${periodLabel(period)}…`} />;
   if (versions.isError) return <ErrorState error={versions.error} title="The report could not be loaded" onRetry={() => versions.refetch()} />;
 
   const data = showVersion ? stored.data?.data : preview.data;
@@ -144,7 +144,7 @@ function ReportForPeriod({ period, coordinator }: { period: string; coordinator:
             </a>
           ) : (
             <p className="text-small text-muted">
-              No PDF yet for {periodName(period)}: {coordinator ? "create a report version below." : "the coordinator has not created a report version for this period."}
+              No PDF yet for {periodLabel(period)}: {coordinator ? "create a report version below." : "the coordinator has not created a report version for this period."}
             </p>
           )}
           <Button variant="secondary" onClick={() => window.print()}>
@@ -175,12 +175,12 @@ function ReportForPeriod({ period, coordinator }: { period: string; coordinator:
           </div>
         )}
         {running && (
-          <Notice tone="info">{periodName(period)} has not ended yet: its figures will change as more classes and attempts are imported.</Notice>
+          <Notice tone="info">{periodLabel(period)} has not ended yet: its figures will change as more classes and attempts are imported.</Notice>
         )}
       </div>
 
       {loading ? (
-        <LoadingState label={`Loading the report for ${periodName(period)}…`} />
+        <LoadingState label={`Loading the report for ${periodLabel(period)}…`} />
       ) : error || !data ? (
         <ErrorState
           error={error}

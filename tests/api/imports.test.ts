@@ -82,7 +82,7 @@ describe("upload → preview → validate → import", () => {
     expect(job.rejectedCsvUrl).toBe(`/api/imports/jobs/${job.id}/rejected.csv`);
     const csv = await coordinator.get(job.rejectedCsvUrl!).expect(200);
     expect(csv.headers["content-type"]).toMatch(/text\/csv/);
-    const lines = csv.text.trim().split("\n");
+    const lines = csv.text.trim().split("\r\n");
     expect(lines[0]).toBe("row,column,reason,class_id,date,site,instructor,course,learners,passed,manikins");
     expect(lines).toHaveLength(1 + 10); // 10 refused rows, one reason each (row 1 is valid)
   });

@@ -15,7 +15,7 @@ import { equipmentQueries } from "../../src/features/equipment/queries";
 import { errorQueries } from "../../src/features/errors/queries";
 import { importQueries } from "../../src/features/imports/queries";
 import { insightQueries } from "../../src/features/insight/queries";
-import { filterState, periodWords, useInsightFilters } from "../../src/features/insight/useInsightFilters";
+import { filterState, useInsightFilters } from "../../src/features/insight/useInsightFilters";
 import { instructorQueries } from "../../src/features/instructors/queries";
 import { outboxQueries } from "../../src/features/outbox/queries";
 import { reportQueries } from "../../src/features/report/queries";
@@ -165,11 +165,6 @@ describe("one filter module for single quarters and ranges", () => {
     expect(narrowed.api).toEqual({ quarter: "2026-Q1", profile: "infant", site: "WRM", feedback: "live", instructor: "IN02" });
     expect(narrowed.narrowed).toBe(true);
     expect(state("quarter=2026-Q1").narrowed).toBe(false);
-  });
-
-  it("names a period in words", () => {
-    expect(periodWords({ from: "2026-Q3", to: "2026-Q3" })).toBe("2026 Q3");
-    expect(periodWords({ from: "2025-Q4", to: "2026-Q3" })).toBe("2025 Q4 to 2026 Q3");
   });
 
   it("writes the period shown into the address, keeping a range", async () => {

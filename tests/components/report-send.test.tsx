@@ -80,7 +80,7 @@ describe("send to funders", () => {
     renderForm();
     fireEvent.change(screen.getByRole("textbox", { name: /Extra addresses/ }), { target: { value: " Board@Example.org;\nboard@example.org " } });
     fireEvent.click(screen.getByRole("button", { name: "Send to funders" }));
-    expect(await screen.findByText("Version 2 of Q3 2026 was sent to funder@example.org, board@example.org.")).toBeTruthy();
+    expect(await screen.findByText("Version 2 of 2026 Q3 was sent to funder@example.org, board@example.org.")).toBeTruthy();
     const post = server.requests.find((r) => r.method === "POST")!;
     expect(post.path).toBe("/api/reports/4/send");
     expect(post.body).toEqual({ extraRecipients: ["board@example.org"] });

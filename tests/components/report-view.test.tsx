@@ -2,7 +2,6 @@ import { cleanup, render, screen, within } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import type { CountFigure, RateFigure, ReportData } from "../../shared/schemas/report";
 import { rateWithInterval } from "../../src/features/report/figures";
-import { defaultPeriod, periodName, yearsOf } from "../../src/features/report/period";
 import { ReportView } from "../../src/features/report/ReportView";
 
 vi.setConfig({ testTimeout: 20_000 });
@@ -160,17 +159,5 @@ describe("funder report page", () => {
     render(<ReportView data={reportData()} actionsSlot={<p>editor here</p>} />);
     expect(screen.getByText("editor here")).toBeTruthy();
     expect(screen.queryByText("Refresher sessions on compression rate at every site.")).toBeNull();
-  });
-});
-
-describe("report periods", () => {
-  it("opens on the newest quarter that has ended, and lists years with data", () => {
-    const quarters = ["2026-Q4", "2026-Q3", "2026-Q2", "2025-Q4"];
-    expect(defaultPeriod(quarters, new Date(2026, 11, 1))).toBe("2026-Q3");
-    expect(defaultPeriod(["2026-Q4"], new Date(2026, 11, 1))).toBe("2026-Q4");
-    expect(defaultPeriod([], new Date(2026, 11, 1))).toBeNull();
-    expect(yearsOf(quarters)).toEqual(["2026", "2025"]);
-    expect(periodName("2026-Q3")).toBe("Q3 2026");
-    expect(periodName("2026")).toBe("2026 (whole year)");
   });
 });

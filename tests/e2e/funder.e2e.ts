@@ -2,7 +2,7 @@
 // (and the API behind them) that would show instructors, errors, classes or single attempts.
 import fs from "node:fs";
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
-import { defaultPeriod } from "../../src/features/report/period";
+import { defaultPeriod } from "../../shared/period";
 import { describeFindings } from "./support/a11y";
 import { demoAccount } from "./support/accounts";
 import { JOURNEY_TIMEOUT, Journey, SETUP_TIMEOUT } from "./support/journey";

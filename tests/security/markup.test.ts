@@ -3,7 +3,7 @@
 // would run as a formula (OWASP "CSV Injection": a leading ' before = + - @).
 import { PDFParse } from "pdf-parse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { toCsv } from "../../shared/csv";
+import { SPREADSHEET_CSV, toCsv } from "../../shared/csv";
 import type { Db } from "../../server/db/client";
 import { makeTestApp, makeTestDb, seedPeople, signIn, type Agent, type TestApp } from "../helpers/testApp";
 
@@ -158,7 +158,7 @@ describe("formulas in CSV downloads", () => {
       ["errors", "@SUM(A1:A2)", 0],
       ["errors", "\t=1+1", 1],
       ["errors", MARKUP, 1],
-    ]);
+    ], SPREADSHEET_CSV);
     const rows = parseCsv(text);
     expectNoFormulaCells(rows.map((r) => r.slice(0, 2)));
     expect(rows[1][1]).toBe(`'${FORMULA}`);

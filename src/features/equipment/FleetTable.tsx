@@ -4,6 +4,7 @@ import type { EquipmentAnswer } from "../../../shared/schemas/equipment";
 import { DataTable, type Column } from "../../components/DataTable";
 import { dateOnly } from "../attempts/labels";
 import { patientTypeNames } from "../../../shared/vocabulary";
+import { quarterLabel } from "../../../shared/period";
 
 export type FleetRow = EquipmentAnswer["fleet"][number];
 
@@ -29,7 +30,7 @@ export function FleetTable({ answer }: { answer: EquipmentAnswer }) {
     periodCompressions: m.usage.filter((u) => inPeriod.has(u.quarter)).reduce((sum, u) => sum + u.compressions, 0),
     due: dueBy.get(m.id) ?? [],
   }));
-  const periodLabel = answer.period.from === answer.period.to ? answer.period.from.replace("-", " ") : "period";
+  const periodLabel = answer.period.from === answer.period.to ? quarterLabel(answer.period.from) : "period";
   const number = (value: number) => value.toLocaleString("en-GB");
   const columns: Column<ShownFleetRow>[] = [
     { key: "assetId", header: "Asset id", value: (m) => m.assetId, primary: true },

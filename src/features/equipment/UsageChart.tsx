@@ -6,6 +6,7 @@ import type { EquipmentAnswer } from "../../../shared/schemas/equipment";
 import { Chart, type ChartSize } from "../../components/Chart";
 import type { Column } from "../../components/DataTable";
 import { chartSeries } from "../../styles/palette";
+import { quarterLabel } from "../../../shared/period";
 
 interface UsageRow {
   key: string;
@@ -30,7 +31,7 @@ function usagePlot(data: readonly UsageRow[], { width }: ChartSize): Plot.PlotOp
     height: 260,
     marginLeft: 60,
     marginBottom: width < 560 ? 50 : 36,
-    x: { domain: quarters, tickFormat: (q: string) => q.replace("-", " "), tickRotate: width < 560 ? -35 : 0, label: null },
+    x: { domain: quarters, tickFormat: quarterLabel, tickRotate: width < 560 ? -35 : 0, label: null },
     y: { label: "Compressions", grid: true, tickFormat: "s" },
     color: { legend: true, label: "Site", range: chartSeries },
     marks: [Plot.barY(data as UsageRow[], Plot.groupX({ y: "sum" }, { x: "quarter", y: "compressions", fill: "site", title: "site" })), Plot.ruleY([0])],
@@ -50,6 +51,6 @@ export function UsageChart({ fleet }: { fleet: EquipmentAnswer["fleet"] }) {
   const description =
     quarters.length === 0
       ? "No use recorded."
-      : `Compressions on these manikins per quarter, stacked by site: ${(byQuarter.get(first) ?? 0).toLocaleString("en-GB")} in ${first.replace("-", " ")}, ${(byQuarter.get(last) ?? 0).toLocaleString("en-GB")} in ${last.replace("-", " ")}. The table lists each manikin per quarter.`;
+      : `Compressions on these manikins per quarter, stacked by site: ${(byQuarter.get(first) ?? 0).toLocaleString("en-GB")} in ${quarterLabel(first)}, ${(byQuarter.get(last) ?? 0).toLocaleString("en-GB")} in ${quarterLabel(last)}. The table lists each manikin per quarter.`;
   return <Chart title="Use per quarter" description={description} data={rows} columns={columns} rowKey={(r) => r.key} plot={usagePlot} exportFileName="manikin-use-per-quarter" />;
 }

@@ -6,6 +6,7 @@ import type { Column } from "../../components/DataTable";
 import { dusk } from "../../styles/palette";
 import { changeVerdict, proportionDifference } from "../../../shared/stats/difference";
 import { percent, percentNumber } from "../attempts/labels";
+import { quarterLabel } from "../../../shared/period";
 
 type TrendRow = NonNullable<ErrorsAnswer["selected"]>["trend"][number];
 
@@ -24,7 +25,7 @@ function trendPlot(data: readonly TrendRow[], { width }: ChartSize): Plot.PlotOp
   return {
     height: 260,
     marginBottom: width < 560 ? 50 : 36,
-    x: { domain: (data as TrendRow[]).map((row) => row.quarter), tickFormat: (q: string) => q.replace("-", " "), tickRotate: width < 560 ? -35 : 0, label: null },
+    x: { domain: (data as TrendRow[]).map((row) => row.quarter), tickFormat: quarterLabel, tickRotate: width < 560 ? -35 : 0, label: null },
     y: { domain: [0, top], tickFormat: (v: number) => `${Math.round(v * 100)} %`, label: "Share of attempts", grid: true },
     marks: [
       Plot.ruleX(rows, { x: "quarter", y1: "low", y2: "high", stroke: dusk[300], strokeWidth: 6, strokeLinecap: "round" }),
@@ -46,8 +47,8 @@ export function ErrorTrendChart({ label, trend }: { label: string; trend: readon
     shown.length === 0
       ? "No attempts in these quarters."
       : first === last
-        ? `${percent(first.share)} of attempts in ${first.quarter.replace("-", " ")}. Bars show the 95 % interval.`
-        : `Share of attempts with “${label.toLowerCase()}” per quarter, from ${percent(first.share)} in ${first.quarter.replace("-", " ")} to ${percent(last.share)} in ${last.quarter.replace("-", " ")}. ` +
+        ? `${percent(first.share)} of attempts in ${quarterLabel(first.quarter)}. Bars show the 95 % interval.`
+        : `Share of attempts with “${label.toLowerCase()}” per quarter, from ${percent(first.share)} in ${quarterLabel(first.quarter)} to ${percent(last.share)} in ${quarterLabel(last.quarter)}. ` +
           `Bars show the 95 % interval; ${clear ? "the change from first to last is clear of chance (the 95 % interval of the difference excludes zero)" : "the change from first to last may be chance (the 95 % interval of the difference includes zero)"}.`;
   return <Chart title="Trend by quarter" description={description} data={trend} columns={columns} rowKey={(row) => row.quarter} plot={trendPlot} exportFileName="error-trend" />;
 }

@@ -4,7 +4,7 @@ import type { ReactNode } from "react";
 import { FilterBar } from "../../components/FilterBar";
 import { Notice } from "../../components/Notice";
 import { EmptyState, ErrorState, LoadingState } from "../../components/States";
-import { quarterLabel } from "./format";
+import { quarterLabel } from "../../../shared/period";
 import { useInsightFilters, type InsightFilterState, type OptionalFilter } from "./useInsightFilters";
 
 export interface InsightFiltersProps {

@@ -2,7 +2,7 @@
 // that has data, or the same quarter without the other filters.
 import { Link, useSearchParams } from "react-router";
 import { EmptyState } from "../../components/States";
-import { quarterLabel } from "./format";
+import { quarterLabel } from "../../../shared/period";
 import type { InsightFilterState } from "./useInsightFilters";
 
 export function NoDataForFilters({ state, what = "attempts" }: { state: InsightFilterState; what?: string }) {

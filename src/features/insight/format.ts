@@ -69,11 +69,6 @@ export function formatCount(value: number | null | undefined): string {
   return value.toLocaleString("en-GB");
 }
 
-/** "2026-Q3" → "2026 Q3" (how people say it). */
-export function quarterLabel(quarter: string): string {
-  return quarter.replace("-", " ");
-}
-
 /** What a hidden group says instead of its value: never a zero that looks like a result. */
 export function suppressedText(minCount: number): string {
   return `fewer than ${minCount} attempts`;

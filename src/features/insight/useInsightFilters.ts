@@ -6,9 +6,9 @@
 import { useQuery } from "@tanstack/react-query";
 import { useEffect, useMemo } from "react";
 import { useSearchParams } from "react-router";
-import type { OptionsAnswer, Period } from "../../../shared/schemas/insight";
+import type { OptionsAnswer } from "../../../shared/schemas/insight";
 import { feedbackFilter, filterParamName, readFilterValues, type FilterDefinition, type FilterValues } from "../../components/FilterBar";
-import { quarterLabel } from "./format";
+import { quarterLabel } from "../../../shared/period";
 import { insightQueries, type ApiFilters } from "./queries";
 import { dimensionNames, patientTypeNames } from "../../../shared/vocabulary";
 
@@ -87,11 +87,6 @@ export function linkParams(values: FilterValues, extra: Record<string, string | 
     else params.delete(filterParamName(key));
   }
   return params.toString();
-}
-
-/** Words for the period an answer covers, e.g. "2026 Q4" or "2026 Q1 to 2026 Q4". */
-export function periodWords(period: Pick<Period, "from" | "to">): string {
-  return period.from === period.to ? quarterLabel(period.from) : `${quarterLabel(period.from)} to ${quarterLabel(period.to)}`;
 }
 
 export interface InsightFilterState {

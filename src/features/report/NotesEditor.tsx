@@ -7,7 +7,7 @@ import { Button } from "../../components/Button";
 import { controlClass } from "../../components/Field";
 import { Notice } from "../../components/Notice";
 import { errorMessage } from "../../components/States";
-import { periodName } from "./period";
+import { periodLabel } from "../../../shared/period";
 import { reportQueries, saveNotes } from "./queries";
 
 const MAX = 4000;
@@ -51,7 +51,7 @@ export function NotesEditor({ period }: { period: string }) {
   return (
     <form onSubmit={submit} noValidate className="flex flex-col gap-2">
       <label htmlFor={id} className="text-small font-semibold">
-        Your text for {periodName(period)}
+        Your text for {periodLabel(period)}
       </label>
       <p id={`${id}-hint`} className="text-caption text-muted">
         Funders read this under the most common errors, on this page and in the PDF. Say what the network is doing about them: refresher sessions, feedback

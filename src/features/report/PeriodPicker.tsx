@@ -1,7 +1,7 @@
 // Choose the report's period: a quarter, or a whole year. Only periods with data are offered.
 import { useId } from "react";
 import { controlClass } from "../../components/Field";
-import { defaultPeriod, periodKindOf, periodName, yearsOf, type PeriodKind } from "./period";
+import { defaultPeriod, periodKindOf, periodLabel, yearsOf, type PeriodKind } from "../../../shared/period";
 
 export interface PeriodPickerProps {
   quarters: readonly string[];
@@ -47,11 +47,11 @@ export function PeriodPicker({ quarters, period, onChange }: PeriodPickerProps) 
         <select id={selectId} value={period} onChange={(event) => onChange(event.target.value)} className={controlClass(false)}>
           {(kind === "quarter" ? sortedQuarters : years).map((value) => (
             <option key={value} value={value}>
-              {kind === "quarter" ? `${periodName(value)} (${value})` : value}
+              {kind === "quarter" ? `${periodLabel(value)} (${value})` : value}
             </option>
           ))}
           {/* A period typed into the address that has no data still shows as chosen. */}
-          {!(kind === "quarter" ? sortedQuarters : years).includes(period) && <option value={period}>{periodName(period)}</option>}
+          {!(kind === "quarter" ? sortedQuarters : years).includes(period) && <option value={period}>{periodLabel(period)}</option>}
         </select>
       </div>
     </fieldset>

@@ -8,7 +8,7 @@ import { Select, controlClass } from "../../components/Field";
 import { Notice } from "../../components/Notice";
 import { errorMessage } from "../../components/States";
 import { parseExtraAddresses } from "./extraAddresses";
-import { periodName } from "./period";
+import { periodLabel } from "../../../shared/period";
 import { reportQueries, sendVersion } from "./queries";
 
 export interface SendFormProps {
@@ -58,7 +58,7 @@ export function SendForm({ period, versions, onSent }: SendFormProps) {
           onSent?.(row);
           if (row.status === "sent") {
             setExtra("");
-            setResult({ tone: "success", text: `Version ${row.version} of ${periodName(row.period)} was sent to ${row.recipients.join(", ")}.` });
+            setResult({ tone: "success", text: `Version ${row.version} of ${periodLabel(row.period)} was sent to ${row.recipients.join(", ")}.` });
           } else {
             setResult({ tone: "error", text: `Sending failed: ${row.error ?? "the mail server did not accept it"}. It is listed below; retry once the mail server is reachable.` });
           }
@@ -75,7 +75,7 @@ export function SendForm({ period, versions, onSent }: SendFormProps) {
   return (
     <form onSubmit={submit} noValidate className="flex flex-col gap-4">
       <Select
-        label={`Version of ${periodName(period)} to send`}
+        label={`Version of ${periodLabel(period)} to send`}
         className="max-w-sm"
         options={versions.map((v, i) => ({ value: String(v.id), label: `Version ${v.version}${i === 0 ? " (latest)" : ""}` }))}
         value={versionId}

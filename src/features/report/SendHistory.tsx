@@ -7,7 +7,7 @@ import { Button } from "../../components/Button";
 import { DataTable, type Column } from "../../components/DataTable";
 import { Notice } from "../../components/Notice";
 import { EmptyState, ErrorState, LoadingState, errorMessage } from "../../components/States";
-import { periodName } from "./period";
+import { periodLabel } from "../../../shared/period";
 import { reportQueries, retrySend } from "./queries";
 import { formatTime } from "./VersionsPanel";
 
@@ -38,7 +38,7 @@ export function SendHistory() {
       onSuccess: (row) =>
         setMessage(
           row.status === "sent"
-            ? { tone: "success", text: `Version ${row.version} of ${periodName(row.period)} is now sent to ${row.recipients.join(", ")}.` }
+            ? { tone: "success", text: `Version ${row.version} of ${periodLabel(row.period)} is now sent to ${row.recipients.join(", ")}.` }
             : { tone: "error", text: `Sending failed again: ${row.error ?? "the mail server did not accept it"}.` },
         ),
       onError: (error) => setMessage({ tone: "error", text: `The retry did not run: ${errorMessage(error)}` }),
@@ -47,7 +47,7 @@ export function SendHistory() {
 
   const columns: Column<ReportSendRow>[] = [
     { key: "when", header: "When", value: (s) => s.createdAt, render: (s) => formatTime(s.createdAt), sortLabels: { asc: "oldest first", desc: "newest first" } },
-    { key: "report", header: "Report", value: (s) => `${s.period} v${s.version}`, render: (s) => `${periodName(s.period)}, version ${s.version}`, primary: true },
+    { key: "report", header: "Report", value: (s) => `${s.period} v${s.version}`, render: (s) => `${periodLabel(s.period)}, version ${s.version}`, primary: true },
     { key: "to", header: "To", value: (s) => s.recipients.join(", "), wrap: true },
     { key: "by", header: "Sent by", value: (s) => s.sentBy ?? "" },
     {
@@ -70,7 +70,7 @@ export function SendHistory() {
       render: (s) =>
         s.status === "failed" ? (
           <Button size="sm" variant="secondary" onClick={() => runRetry(s)} busy={retry.isPending && retry.variables === s.id}>
-            Retry<span className="sr-only"> sending {periodName(s.period)} version {s.version}</span>
+            Retry<span className="sr-only"> sending {periodLabel(s.period)} version {s.version}</span>
           </Button>
         ) : null,
     },

@@ -9,7 +9,7 @@ import type { Column } from "../../components/DataTable";
 import { ChartLegend, lineSwatch, shapeSwatch } from "../insight/ChartLegend";
 import { ink, percentTick, shareAxisTop } from "../insight/chartStyle";
 import { formatShare } from "./figures";
-import { periodName } from "./period";
+import { quarterLabel } from "../../../shared/period";
 
 type Trend = ReportData["trend"];
 
@@ -34,14 +34,14 @@ export function describeTrend(trend: Trend): string {
   const first = shown[0];
   const last = shown[shown.length - 1];
   const parts = [
-    `Share of measured attempts that met the pass rule, from ${first.passRate.text} in ${periodName(first.quarter)} to ${last.passRate.text} in ${periodName(last.quarter)}` +
+    `Share of measured attempts that met the pass rule, from ${first.passRate.text} in ${quarterLabel(first.quarter)} to ${last.passRate.text} in ${quarterLabel(last.quarter)}` +
       (trend.centre !== null ? `, around an average of ${formatShare(trend.centre)}.` : "."),
   ];
   const outside = shown.filter((p) => p.outside);
   if (outside.length === 0) parts.push("Every quarter stays within the range that chance alone would give.");
   else {
-    const above = outside.filter((p) => side(p) === "above").map((p) => periodName(p.quarter));
-    const below = outside.filter((p) => side(p) === "below").map((p) => periodName(p.quarter));
+    const above = outside.filter((p) => side(p) === "above").map((p) => quarterLabel(p.quarter));
+    const below = outside.filter((p) => side(p) === "below").map((p) => quarterLabel(p.quarter));
     const words = [above.length ? `above it in ${above.join(", ")}` : "", below.length ? `below it in ${below.join(", ")}` : ""].filter(Boolean);
     parts.push(`${outside.length} of ${shown.length} quarters lie outside the range chance alone would give (${words.join("; ")}).`);
   }
@@ -51,7 +51,7 @@ export function describeTrend(trend: Trend): string {
 }
 
 const columns: Column<TrendPoint>[] = [
-  { key: "quarter", header: "Quarter", value: (p) => p.quarter, render: (p) => periodName(p.quarter) },
+  { key: "quarter", header: "Quarter", value: (p) => p.quarter, render: (p) => quarterLabel(p.quarter) },
   { key: "attempts", header: "Attempts", value: (p) => p.passRate.n.text, align: "right" },
   { key: "rate", header: "Pass rate", value: (p) => p.passRate.text, align: "right" },
   { key: "interval", header: "95 % interval", value: (p) => p.passRate.intervalText, sortable: false, align: "right" },
@@ -74,7 +74,7 @@ export function TrendChart({ trend }: { trend: Trend }) {
       const outside = shown.filter((p) => p.outside);
       const narrow = width < 500;
       // On a phone eight quarters only fit as two short lines: "Q3" over "2026".
-      const tick = (q: string) => (narrow ? `${q.slice(5)}\n${q.slice(0, 4)}` : periodName(q));
+      const tick = (q: string) => (narrow ? `${q.slice(5)}\n${q.slice(0, 4)}` : quarterLabel(q));
       return {
         height: narrow ? 260 : 320,
         marginLeft: 48,
@@ -94,7 +94,7 @@ export function TrendChart({ trend }: { trend: Trend }) {
           Plot.line(shown, { x: "quarter", y: "rate", stroke: ink.main, strokeWidth: 1.5 }),
           Plot.dot(
             shown.filter((p) => !p.outside),
-            { x: "quarter", y: "rate", r: 4.5, fill: ink.main, stroke: "white", title: (p: PlotPoint) => `${periodName(p.quarter)}: ${formatShare(p.rate)}` },
+            { x: "quarter", y: "rate", r: 4.5, fill: ink.main, stroke: "white", title: (p: PlotPoint) => `${quarterLabel(p.quarter)}: ${formatShare(p.rate)}` },
           ),
           Plot.dot(outside, {
             x: "quarter",
@@ -104,7 +104,7 @@ export function TrendChart({ trend }: { trend: Trend }) {
             fill: ink.accent,
             stroke: ink.text,
             strokeWidth: 1.5,
-            title: (p: PlotPoint) => `${periodName(p.quarter)}: ${formatShare(p.rate)}, outside the range chance would give`,
+            title: (p: PlotPoint) => `${quarterLabel(p.quarter)}: ${formatShare(p.rate)}, outside the range chance would give`,
           }),
         ],
       };

@@ -6,7 +6,7 @@ import type { ReportVersion } from "../../../shared/schemas/report";
 import { Button } from "../../components/Button";
 import { Notice } from "../../components/Notice";
 import { errorMessage } from "../../components/States";
-import { periodName } from "./period";
+import { periodLabel } from "../../../shared/period";
 import { createVersion, csvUrl, pdfUrl, reportQueries } from "./queries";
 import { ReportTable } from "./ReportTable";
 
@@ -34,7 +34,7 @@ export function VersionsPanel({ period, versions, onCreated }: VersionsPanelProp
     setMessage(null);
     create.mutate(undefined, {
       onSuccess: (version) => {
-        setMessage({ tone: "success", text: `Version ${version.version} of ${periodName(period)} is stored (PDF, ${formatKb(version.pdfBytes)}). Funders can download it now.` });
+        setMessage({ tone: "success", text: `Version ${version.version} of ${periodLabel(period)} is stored (PDF, ${formatKb(version.pdfBytes)}). Funders can download it now.` });
         onCreated(version);
       },
       onError: (error) => setMessage({ tone: "error", text: `No version was created: ${errorMessage(error)}` }),
@@ -46,7 +46,7 @@ export function VersionsPanel({ period, versions, onCreated }: VersionsPanelProp
       <div className="flex flex-wrap items-end justify-between gap-3">
         <div className="max-w-2xl">
           <h3 id="versions-heading" className="text-lead font-semibold">
-            Report versions for {periodName(period)}
+            Report versions for {periodLabel(period)}
           </h3>
           <p className="text-small text-muted">
             Creating a version stores today's figures, your text and the PDF. Funders always download the latest version; earlier ones stay here unchanged.
@@ -58,10 +58,10 @@ export function VersionsPanel({ period, versions, onCreated }: VersionsPanelProp
       </div>
       {message && <Notice tone={message.tone}>{message.text}</Notice>}
       {versions.length === 0 ? (
-        <p className="rounded-card border border-dashed border-line-strong bg-surface p-4 text-muted">No version has been created for {periodName(period)} yet.</p>
+        <p className="rounded-card border border-dashed border-line-strong bg-surface p-4 text-muted">No version has been created for {periodLabel(period)} yet.</p>
       ) : (
         <ReportTable
-          caption={`Report versions for ${periodName(period)}`}
+          caption={`Report versions for ${periodLabel(period)}`}
           rows={versions}
           rowKey={(v) => String(v.id)}
           columns={[

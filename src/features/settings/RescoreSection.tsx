@@ -8,6 +8,7 @@ import { Select } from "../../components/Field";
 import { Notice } from "../../components/Notice";
 import { errorMessage } from "../../components/States";
 import { useRescore } from "./mutations";
+import { quarterLabel } from "../../../shared/period";
 
 export function RescoreSection({ version, quarters, canEdit }: { version: number; quarters: readonly string[]; canEdit: boolean }) {
   const [open, setOpen] = useState(false);
@@ -55,7 +56,7 @@ export function RescoreSection({ version, quarters, canEdit }: { version: number
           <p className="text-small text-muted">
             Rescoring applies the pass rule to the figures stored with each attempt (shares on target, hands-on time, longest pause). Those figures were measured against the target bands and the pause threshold in force when the attempt was imported; changed bands apply to attempts imported from now on.
           </p>
-          <Select label="Attempts from" value={fromQuarter} onChange={(event) => setFromQuarter(event.target.value)} placeholder="Every quarter" options={quarters.map((q) => ({ value: q, label: `${q.replace("-", " ")} on` }))} />
+          <Select label="Attempts from" value={fromQuarter} onChange={(event) => setFromQuarter(event.target.value)} placeholder="Every quarter" options={quarters.map((q) => ({ value: q, label: `${quarterLabel(q)} on` }))} />
           {rescore.isError && <Notice tone="error">{errorMessage(rescore.error)}</Notice>}
           <div className="flex flex-wrap justify-end gap-2">
             <Button variant="secondary" onClick={() => setOpen(false)} disabled={rescore.isPending}>

@@ -17,9 +17,10 @@ import { TargetBadge, TargetLegend, targetStatusLabels, type TargetStatus } from
 import { ApiError } from "../../api/http";
 import { targetStatusColorScale, targetStatusRotate, targetStatusSymbolScale } from "../../lib/chartScales";
 import { useLengthUnit } from "../../lib/useLengthUnit";
+import { quarterLabel } from "../../../shared/period";
 
 const filters: FilterDefinition[] = [
-  { key: "quarter", options: ["2025-Q1", "2025-Q2", "2025-Q3"].map((q) => ({ value: q, label: q.replace("-", " ") })), allLabel: null },
+  { key: "quarter", options: ["2025-Q1", "2025-Q2", "2025-Q3"].map((q) => ({ value: q, label: quarterLabel(q) })), allLabel: null },
   { key: "site", options: [{ value: "NORTH-1", label: "Northfield Community Hall" }, { value: "RIVER-2", label: "Riverside Sports Centre" }] },
   { key: "patientType", options: courseTypes.map((t) => ({ value: t, label: t })) },
   feedbackFilter,

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { addDays, parseDay, quarterEnd, quarterIndexOf, quarterLabel } from "../../../server/demo/calendar";
+import { addDays, parseDay } from "../../../server/demo/calendar";
 import { Random } from "../../../server/demo/random";
 import { wholePercentages } from "../../../server/demo/summarize";
 
@@ -85,11 +85,7 @@ describe("whole percentages that add up to 100", () => {
 });
 
 describe("demo calendar", () => {
-  it("knows quarters and leap years", () => {
-    expect(quarterLabel(quarterIndexOf("2026-12-01"))).toBe("2026-Q4");
-    expect(quarterLabel(quarterIndexOf("2025-01-01"))).toBe("2025-Q1");
-    expect(quarterEnd(quarterIndexOf("2024-02-10"))).toBe("2024-03-31");
-    expect(quarterEnd(quarterIndexOf("2026-11-10"))).toBe("2026-12-31");
+  it("knows leap years", () => {
     expect(addDays("2024-02-28", 1)).toBe("2024-02-29"); // 2024 is a leap year
     expect(addDays("2025-02-28", 1)).toBe("2025-03-01");
     expect(() => parseDay("2025-02-29")).toThrow(RangeError);

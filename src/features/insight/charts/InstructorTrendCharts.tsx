@@ -7,7 +7,8 @@ import { Chart, type ChartSize } from "../../../components/Chart";
 import type { Column } from "../../../components/DataTable";
 import { ChartLegend, lineSwatch, shapeSwatch } from "../ChartLegend";
 import { ink, percentTick, shareAxisTop } from "../chartStyle";
-import { formatCount, formatInterval, formatPercent, formatScore, percentValue, quarterLabel, roundTo } from "../format";
+import { formatCount, formatInterval, formatPercent, formatScore, percentValue, roundTo } from "../format";
+import { quarterLabel } from "../../../../shared/period";
 
 export interface TrendRow {
   quarter: string;

@@ -10,7 +10,8 @@ import type { Column } from "../../../components/DataTable";
 import { ChartLegend, lineSwatch, shapeSwatch } from "../ChartLegend";
 import { NothingToChart } from "./NothingToChart";
 import { ink, percentTick, shareAxisTop } from "../chartStyle";
-import { formatCount, formatInterval, formatPercent, percentValue, quarterLabel, suppressedText } from "../format";
+import { formatCount, formatInterval, formatPercent, percentValue, suppressedText } from "../format";
+import { quarterLabel } from "../../../../shared/period";
 
 export type PassRateSeries = z.infer<typeof passRateSeriesSchema>;
 export type SeriesPoint = PassRateSeries["points"][number];

@@ -2,7 +2,8 @@
 // the volume behind them. Hidden groups say "fewer than N attempts" instead of a number.
 import type { OverviewAnswer } from "../../../../shared/schemas/insight";
 import { StatCard, type StatChange } from "../../../components/StatCard";
-import { formatCount, formatFixed, formatInterval, formatPercent, formatPoints, formatScore, kappaWords, quarterLabel } from "../format";
+import { formatCount, formatFixed, formatInterval, formatPercent, formatPoints, formatScore, kappaWords } from "../format";
+import { rangeLabel } from "../../../../shared/period";
 import { Suppressed } from "../Suppressed";
 
 type Rate = OverviewAnswer["passRate"];
@@ -11,10 +12,6 @@ function intervalOf(rate: Rate) {
   if (rate.low === null || rate.high === null) return undefined;
   const [low, high] = formatInterval(rate.low, rate.high).split("–");
   return { low, high, label: "95 % interval" };
-}
-
-function periodLabel(period: OverviewAnswer["period"]): string {
-  return period.from === period.to ? quarterLabel(period.from) : `${quarterLabel(period.from)} to ${quarterLabel(period.to)}`;
 }
 
 export function OverviewStats({ answer }: { answer: OverviewAnswer }) {
@@ -28,14 +25,14 @@ export function OverviewStats({ answer }: { answer: OverviewAnswer }) {
       : {
           value: passRateChange.absolute,
           text: formatPoints(passRateChange.absolute),
-          comparedWith: `since ${periodLabel(answer.previousPeriod)}`,
+          comparedWith: `since ${rangeLabel(answer.previousPeriod)}`,
           better: "up",
           clear: passRateChange.verdict !== "no clear change",
         };
   const noComparison = passRateChange.previous.suppressed
-    ? `${periodLabel(answer.previousPeriod)} had fewer than ${min} attempts, so there is no comparison.`
+    ? `${rangeLabel(answer.previousPeriod)} had fewer than ${min} attempts, so there is no comparison.`
     : passRateChange.previous.rate === null
-      ? `No attempts in ${periodLabel(answer.previousPeriod)} to compare with.`
+      ? `No attempts in ${rangeLabel(answer.previousPeriod)} to compare with.`
       : null;
 
   return (
