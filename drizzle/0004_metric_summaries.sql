@@ -35,11 +35,28 @@ CREATE TABLE `attempt_values` (
 	`manikin_id` integer NOT NULL,
 	`value` real NOT NULL,
 	`count` integer NOT NULL,
-	PRIMARY KEY(`metric`, `quarter`, `instructor_id`, `profile`, `feedback`, `site_id`, `manikin_id`, `value`)
+	PRIMARY KEY(`metric`, `quarter`, `instructor_id`, `value`, `profile`, `feedback`, `site_id`, `manikin_id`)
 ) WITHOUT ROWID;
 --> statement-breakpoint
 CREATE INDEX `attempt_values_instructor_idx` ON `attempt_values` (`metric`,`instructor_id`,`quarter`);--> statement-breakpoint
 CREATE INDEX `attempt_values_site_idx` ON `attempt_values` (`metric`,`site_id`,`quarter`);--> statement-breakpoint
+CREATE TABLE `learner_tallies` (
+	`quarter` text NOT NULL,
+	`learner` text NOT NULL,
+	`profile` text NOT NULL,
+	`feedback` text NOT NULL,
+	`site_id` integer NOT NULL,
+	`instructor_id` integer NOT NULL,
+	`manikin_id` integer NOT NULL,
+	`attempts` integer NOT NULL,
+	`passed` integer NOT NULL,
+	`first_started` text NOT NULL,
+	`first_id` text NOT NULL,
+	`first_passed` integer NOT NULL,
+	PRIMARY KEY(`quarter`, `learner`, `profile`, `feedback`, `site_id`, `instructor_id`, `manikin_id`)
+) WITHOUT ROWID;
+--> statement-breakpoint
+CREATE INDEX `learner_tallies_instructor_idx` ON `learner_tallies` (`instructor_id`,`quarter`);--> statement-breakpoint
 CREATE TABLE `network_values` (
 	`metric` text NOT NULL,
 	`quarter` text NOT NULL,
@@ -51,4 +68,5 @@ CREATE TABLE `network_values` (
 ) WITHOUT ROWID;
 --> statement-breakpoint
 DROP INDEX `attempts_instructor_score_idx`;--> statement-breakpoint
-DROP INDEX `attempts_insight_idx`;
+DROP INDEX `attempts_insight_idx`;--> statement-breakpoint
+CREATE INDEX `attempts_learner_idx` ON `attempts` (`learner`,`quarter`);

@@ -1,6 +1,7 @@
--- Keeps attempt_tallies, attempt_values and network_values equal to sums over attempts, in the transaction
--- of every write to attempts (import, undo, rescore, policy change, edits). A deleted or changed attempt is
--- taken out of its groups and the changed one put in; groups that fall to zero are removed.
+-- Keeps attempt_tallies, attempt_values, network_values and learner_tallies equal to sums over attempts, in
+-- the transaction of every write to attempts (import, undo, rescore, policy change, edits). A deleted or
+-- changed attempt is taken out of its groups and the changed one put in; groups that fall to zero are removed;
+-- a learner's row is recomputed from their attempts when one of them goes or changes.
 CREATE TRIGGER attempts_tally_insert AFTER INSERT ON attempts BEGIN
   INSERT INTO attempt_tallies (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version, n, passed, judged_pp, judged_pf, judged_fp, judged_ff, with_errors, compressions, err_too_shallow, err_too_deep, err_too_slow, err_too_fast, err_incomplete_recoil, err_low_hands_on, err_long_pause)
   VALUES (new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.policy_version, 1, new.passed, (new.instructor_result IS 'pass' AND new.passed = 1), (new.instructor_result IS 'pass' AND new.passed = 0), (new.instructor_result IS 'fail' AND new.passed = 1), (new.instructor_result IS 'fail' AND new.passed = 0), (new.error_mask != 0), new.compressions, ((new.error_mask >> 0) & 1), ((new.error_mask >> 1) & 1), ((new.error_mask >> 2) & 1), ((new.error_mask >> 3) & 1), ((new.error_mask >> 4) & 1), ((new.error_mask >> 5) & 1), ((new.error_mask >> 6) & 1))
@@ -12,7 +13,7 @@ CREATE TRIGGER attempts_tally_insert AFTER INSERT ON attempts BEGIN
     ('rate_ok_pct', new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.rate_ok_pct, 1),
     ('recoil_ok_pct', new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.recoil_ok_pct, 1),
     ('hands_on_pct', new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.hands_on_pct, 1)
-  ON CONFLICT (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value) DO UPDATE SET count = count + excluded.count;
+  ON CONFLICT (metric, quarter, instructor_id, value, profile, feedback, site_id, manikin_id) DO UPDATE SET count = count + excluded.count;
   INSERT INTO network_values (metric, quarter, profile, feedback, value, count)
   VALUES
     ('score', new.quarter, new.profile, new.feedback, new.score, 1),
@@ -21,6 +22,12 @@ CREATE TRIGGER attempts_tally_insert AFTER INSERT ON attempts BEGIN
     ('recoil_ok_pct', new.quarter, new.profile, new.feedback, new.recoil_ok_pct, 1),
     ('hands_on_pct', new.quarter, new.profile, new.feedback, new.hands_on_pct, 1)
   ON CONFLICT (metric, quarter, profile, feedback, value) DO UPDATE SET count = count + excluded.count;
+  INSERT INTO learner_tallies (quarter, learner, profile, feedback, site_id, instructor_id, manikin_id, attempts, passed, first_started, first_id, first_passed)
+  VALUES (new.quarter, new.learner, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), 1, new.passed, new.started_at, new.id, new.passed)
+  ON CONFLICT (quarter, learner, profile, feedback, site_id, instructor_id, manikin_id) DO UPDATE SET attempts = attempts + 1, passed = passed + excluded.passed,
+    first_passed = CASE WHEN (excluded.first_started, excluded.first_id) < (first_started, first_id) THEN excluded.first_passed ELSE first_passed END,
+    first_started = CASE WHEN (excluded.first_started, excluded.first_id) < (first_started, first_id) THEN excluded.first_started ELSE first_started END,
+    first_id = CASE WHEN (excluded.first_started, excluded.first_id) < (first_started, first_id) THEN excluded.first_id ELSE first_id END;
 END;
 --> statement-breakpoint
 CREATE TRIGGER attempts_tally_delete AFTER DELETE ON attempts BEGIN
@@ -36,7 +43,7 @@ CREATE TRIGGER attempts_tally_delete AFTER DELETE ON attempts BEGIN
     ('rate_ok_pct', old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.rate_ok_pct, -1),
     ('recoil_ok_pct', old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.recoil_ok_pct, -1),
     ('hands_on_pct', old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.hands_on_pct, -1)
-  ON CONFLICT (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value) DO UPDATE SET count = count + excluded.count;
+  ON CONFLICT (metric, quarter, instructor_id, value, profile, feedback, site_id, manikin_id) DO UPDATE SET count = count + excluded.count;
   DELETE FROM attempt_values WHERE metric = 'score' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND site_id = old.site_id
     AND instructor_id = old.instructor_id AND manikin_id = coalesce(old.manikin_id, 0) AND value = old.score AND count = 0;
   DELETE FROM attempt_values WHERE metric = 'depth_ok_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND site_id = old.site_id
@@ -60,6 +67,15 @@ CREATE TRIGGER attempts_tally_delete AFTER DELETE ON attempts BEGIN
   DELETE FROM network_values WHERE metric = 'rate_ok_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND value = old.rate_ok_pct AND count = 0;
   DELETE FROM network_values WHERE metric = 'recoil_ok_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND value = old.recoil_ok_pct AND count = 0;
   DELETE FROM network_values WHERE metric = 'hands_on_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND value = old.hands_on_pct AND count = 0;
+  DELETE FROM learner_tallies WHERE quarter = old.quarter AND learner = old.learner AND profile = old.profile AND feedback = old.feedback
+    AND site_id = old.site_id AND instructor_id = old.instructor_id AND manikin_id = coalesce(old.manikin_id, 0);
+  INSERT INTO learner_tallies (quarter, learner, profile, feedback, site_id, instructor_id, manikin_id, attempts, passed, first_started, first_id, first_passed)
+  SELECT a.quarter, a.learner, a.profile, a.feedback, a.site_id, a.instructor_id, coalesce(a.manikin_id, 0),
+    (SELECT count(*) FROM attempts b WHERE b.learner = old.learner AND b.quarter = old.quarter AND b.profile = old.profile AND b.feedback = old.feedback AND b.site_id = old.site_id AND b.instructor_id = old.instructor_id AND b.manikin_id IS old.manikin_id),
+    (SELECT sum(b.passed) FROM attempts b WHERE b.learner = old.learner AND b.quarter = old.quarter AND b.profile = old.profile AND b.feedback = old.feedback AND b.site_id = old.site_id AND b.instructor_id = old.instructor_id AND b.manikin_id IS old.manikin_id),
+    a.started_at, a.id, a.passed
+  FROM attempts a WHERE a.learner = old.learner AND a.quarter = old.quarter AND a.profile = old.profile AND a.feedback = old.feedback AND a.site_id = old.site_id AND a.instructor_id = old.instructor_id AND a.manikin_id IS old.manikin_id
+  ORDER BY a.started_at, a.id LIMIT 1;
 END;
 --> statement-breakpoint
 CREATE TRIGGER attempts_tally_update AFTER UPDATE OF quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version, passed, instructor_result, error_mask, compressions ON attempts
@@ -85,7 +101,7 @@ BEGIN
     ('rate_ok_pct', old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.rate_ok_pct, -1),
     ('recoil_ok_pct', old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.recoil_ok_pct, -1),
     ('hands_on_pct', old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.hands_on_pct, -1)
-  ON CONFLICT (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value) DO UPDATE SET count = count + excluded.count;
+  ON CONFLICT (metric, quarter, instructor_id, value, profile, feedback, site_id, manikin_id) DO UPDATE SET count = count + excluded.count;
   DELETE FROM attempt_values WHERE metric = 'score' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND site_id = old.site_id
     AND instructor_id = old.instructor_id AND manikin_id = coalesce(old.manikin_id, 0) AND value = old.score AND count = 0;
   DELETE FROM attempt_values WHERE metric = 'depth_ok_pct' AND quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND site_id = old.site_id
@@ -103,7 +119,7 @@ BEGIN
     ('rate_ok_pct', new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.rate_ok_pct, 1),
     ('recoil_ok_pct', new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.recoil_ok_pct, 1),
     ('hands_on_pct', new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.hands_on_pct, 1)
-  ON CONFLICT (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value) DO UPDATE SET count = count + excluded.count;
+  ON CONFLICT (metric, quarter, instructor_id, value, profile, feedback, site_id, manikin_id) DO UPDATE SET count = count + excluded.count;
   INSERT INTO network_values (metric, quarter, profile, feedback, value, count)
   VALUES
     ('score', old.quarter, old.profile, old.feedback, old.score, -1),
@@ -127,7 +143,37 @@ BEGIN
   ON CONFLICT (metric, quarter, profile, feedback, value) DO UPDATE SET count = count + excluded.count;
 END;
 --> statement-breakpoint
+CREATE TRIGGER attempts_learner_update AFTER UPDATE OF learner, quarter, profile, feedback, site_id, instructor_id, manikin_id, passed, started_at, id ON attempts
+  WHEN old.learner IS NOT new.learner OR old.quarter IS NOT new.quarter OR old.profile IS NOT new.profile OR old.feedback IS NOT new.feedback OR old.site_id IS NOT new.site_id OR old.instructor_id IS NOT new.instructor_id OR old.manikin_id IS NOT new.manikin_id OR old.passed IS NOT new.passed OR old.started_at IS NOT new.started_at OR old.id IS NOT new.id
+BEGIN
+  DELETE FROM learner_tallies WHERE quarter = old.quarter AND learner = old.learner AND profile = old.profile AND feedback = old.feedback
+    AND site_id = old.site_id AND instructor_id = old.instructor_id AND manikin_id = coalesce(old.manikin_id, 0);
+  INSERT INTO learner_tallies (quarter, learner, profile, feedback, site_id, instructor_id, manikin_id, attempts, passed, first_started, first_id, first_passed)
+  SELECT a.quarter, a.learner, a.profile, a.feedback, a.site_id, a.instructor_id, coalesce(a.manikin_id, 0),
+    (SELECT count(*) FROM attempts b WHERE b.learner = old.learner AND b.quarter = old.quarter AND b.profile = old.profile AND b.feedback = old.feedback AND b.site_id = old.site_id AND b.instructor_id = old.instructor_id AND b.manikin_id IS old.manikin_id),
+    (SELECT sum(b.passed) FROM attempts b WHERE b.learner = old.learner AND b.quarter = old.quarter AND b.profile = old.profile AND b.feedback = old.feedback AND b.site_id = old.site_id AND b.instructor_id = old.instructor_id AND b.manikin_id IS old.manikin_id),
+    a.started_at, a.id, a.passed
+  FROM attempts a WHERE a.learner = old.learner AND a.quarter = old.quarter AND a.profile = old.profile AND a.feedback = old.feedback AND a.site_id = old.site_id AND a.instructor_id = old.instructor_id AND a.manikin_id IS old.manikin_id
+  ORDER BY a.started_at, a.id LIMIT 1;
+  DELETE FROM learner_tallies WHERE quarter = new.quarter AND learner = new.learner AND profile = new.profile AND feedback = new.feedback
+    AND site_id = new.site_id AND instructor_id = new.instructor_id AND manikin_id = coalesce(new.manikin_id, 0);
+  INSERT INTO learner_tallies (quarter, learner, profile, feedback, site_id, instructor_id, manikin_id, attempts, passed, first_started, first_id, first_passed)
+  SELECT a.quarter, a.learner, a.profile, a.feedback, a.site_id, a.instructor_id, coalesce(a.manikin_id, 0),
+    (SELECT count(*) FROM attempts b WHERE b.learner = new.learner AND b.quarter = new.quarter AND b.profile = new.profile AND b.feedback = new.feedback AND b.site_id = new.site_id AND b.instructor_id = new.instructor_id AND b.manikin_id IS new.manikin_id),
+    (SELECT sum(b.passed) FROM attempts b WHERE b.learner = new.learner AND b.quarter = new.quarter AND b.profile = new.profile AND b.feedback = new.feedback AND b.site_id = new.site_id AND b.instructor_id = new.instructor_id AND b.manikin_id IS new.manikin_id),
+    a.started_at, a.id, a.passed
+  FROM attempts a WHERE a.learner = new.learner AND a.quarter = new.quarter AND a.profile = new.profile AND a.feedback = new.feedback AND a.site_id = new.site_id AND a.instructor_id = new.instructor_id AND a.manikin_id IS new.manikin_id
+  ORDER BY a.started_at, a.id LIMIT 1;
+END;
+--> statement-breakpoint
 -- attempts already stored
+INSERT INTO learner_tallies (quarter, learner, profile, feedback, site_id, instructor_id, manikin_id, attempts, passed, first_started, first_id, first_passed)
+SELECT quarter, learner, profile, feedback, site_id, instructor_id, coalesce(manikin_id, 0), count(*), sum(passed), first_started, first_id, first_passed
+FROM (
+  SELECT *, first_value(started_at) OVER w AS first_started, first_value(id) OVER w AS first_id, first_value(passed) OVER w AS first_passed FROM attempts
+  WINDOW w AS (PARTITION BY quarter, learner, profile, feedback, site_id, instructor_id, coalesce(manikin_id, 0) ORDER BY started_at, id)
+) GROUP BY quarter, learner, profile, feedback, site_id, instructor_id, coalesce(manikin_id, 0);
+--> statement-breakpoint
 INSERT INTO attempt_tallies (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version, n, passed, judged_pp, judged_pf, judged_fp, judged_ff, with_errors, compressions, err_too_shallow, err_too_deep, err_too_slow, err_too_fast, err_incomplete_recoil, err_low_hands_on, err_long_pause)
 SELECT quarter, profile, feedback, site_id, instructor_id, coalesce(manikin_id, 0), policy_version, count(*), sum(passed),
   sum(instructor_result IS 'pass' AND passed = 1), sum(instructor_result IS 'pass' AND passed = 0),

@@ -248,6 +248,8 @@ export const attempts = sqliteTable(
     index("attempts_class_idx").on(t.classId),
     index("attempts_manikin_idx").on(t.manikinId, t.quarter),
     index("attempts_batch_idx").on(t.batchId),
+    // a learner's attempts: learner outcomes and returning learners are kept and read through it
+    index("attempts_learner_idx").on(t.learner, t.quarter),
   ],
 );
 
@@ -314,7 +316,8 @@ export const attemptValues = sqliteTable(
     count: integer().notNull(),
   },
   (t) => [
-    primaryKey({ columns: [t.metric, t.quarter, t.instructorId, t.profile, t.feedback, t.siteId, t.manikinId, t.value] }),
+    // each instructor's values of a quarter in order, so per-instructor medians are read without a sort
+    primaryKey({ columns: [t.metric, t.quarter, t.instructorId, t.value, t.profile, t.feedback, t.siteId, t.manikinId] }),
     index("attempt_values_instructor_idx").on(t.metric, t.instructorId, t.quarter),
     index("attempt_values_site_idx").on(t.metric, t.siteId, t.quarter),
   ],
@@ -335,6 +338,33 @@ export const networkValues = sqliteTable(
     count: integer().notNull(),
   },
   (t) => [primaryKey({ columns: [t.metric, t.quarter, t.profile, t.feedback, t.value] })],
+);
+
+/**
+ * Each learner's attempts per group (the dimensions of attempt_tallies): how many, how many passed, and their
+ * earliest attempt (by start time, then id) with its result. Learner outcomes — first attempt passed, passed at
+ * least once — are read from these rows; kept by the same triggers.
+ */
+export const learnerTallies = sqliteTable(
+  "learner_tallies",
+  {
+    quarter: text().notNull(),
+    learner: text().notNull(),
+    profile: text({ enum: patientTypes }).notNull(),
+    feedback: text({ enum: feedbackModes }).notNull(),
+    siteId: integer().notNull(),
+    instructorId: integer().notNull(),
+    manikinId: integer().notNull(),
+    attempts: integer().notNull(),
+    passed: integer().notNull(),
+    firstStarted: text().notNull(),
+    firstId: text().notNull(),
+    firstPassed: integer().notNull(),
+  },
+  (t) => [
+    primaryKey({ columns: [t.quarter, t.learner, t.profile, t.feedback, t.siteId, t.instructorId, t.manikinId] }),
+    index("learner_tallies_instructor_idx").on(t.instructorId, t.quarter),
+  ],
 );
 
 export const compressionStreams = sqliteTable(

@@ -16,7 +16,7 @@ import { learnerOutcomes } from "../metrics/learnerOutcomes";
 import { errorPareto } from "./pareto";
 import { previousPeriod, trendQuarters } from "../../shared/period";
 import { rateFor, rateOf } from "./rates";
-import { attemptConditions, classConditions, scopeOf } from "./sql";
+import { classConditions, scopeOf } from "./sql";
 import { hidesGroup, withComplementaryHiding, type Viewer } from "./viewer";
 
 export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): OverviewAnswer {
@@ -25,7 +25,6 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): Over
   const trend = trendQuarters(period);
   const scan = { from: trend.from < before.from ? trend.from : before.from, to: period.to };
 
-  const where = attemptConditions(filters);
   // the period in full by feedback display, and attempts and passes per quarter for the trend and the previous
   // period, from the attempt summaries
   const byFeedback = talliesBy<FeedbackMode>(db, scopeOf(filters), "feedback");
@@ -62,8 +61,8 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): Over
   const previousRate = rateFor(inPrevious.passed, inPrevious.n, hidesGroup(viewer, inPrevious.n - own(before.quarters).n));
   const change = changeFrom(passRate.rate, previousRate.rate);
   // learners measured in the period (by pseudonymous code), judged like every group by the learners of others
-  const measured = learnerOutcomes(db, where);
-  const ownMeasured = me === null ? 0 : learnerOutcomes(db, attemptConditions({ ...filters, instructorId: me })).learners;
+  const measured = learnerOutcomes(db, scopeOf(filters));
+  const ownMeasured = me === null ? 0 : learnerOutcomes(db, scopeOf({ ...filters, instructorId: me })).learners;
   const measuredHidden = hidden || hidesGroup(viewer, measured.learners - ownMeasured);
 
   // the same test of change as the funder report: called only when its 95 % interval excludes zero

@@ -2,10 +2,12 @@
 // measured, how many passed on their first attempt (their earliest attempt among the chosen ones, by start
 // time, ties by attempt id) and how many passed at least once. Recorded completion in the class logs counts
 // learners, so "passed at least once" is the like-for-like figure to set beside it. One definition, used by
-// the overview and the statistics command.
-import { sql, type SQL } from "drizzle-orm";
+// the overview, the funder report and the statistics command; read from learner_tallies (each learner's
+// attempts, passes and earliest attempt per group, kept by triggers), never from the attempts themselves.
+import { sql } from "drizzle-orm";
 import type { Db } from "../db/client";
-import { attempts } from "../db/schema";
+import { learnerTallies } from "../db/schema";
+import { scopeConditions, type SummaryScope } from "./summaries";
 
 export interface LearnerOutcomes {
   learners: number;
@@ -13,15 +15,14 @@ export interface LearnerOutcomes {
   everPassed: number;
 }
 
-export function learnerOutcomes(db: Db, where: SQL | undefined): LearnerOutcomes {
+export function learnerOutcomes(db: Db, scope: SummaryScope): LearnerOutcomes {
   const row = db.get<{ learners: number; first_passed: number | null; ever_passed: number | null }>(sql`
     WITH ranked AS (
-      SELECT ${attempts.learner} AS learner, ${attempts.passed} AS passed,
-        row_number() OVER (PARTITION BY ${attempts.learner} ORDER BY ${attempts.startedAt}, ${attempts.id}) AS k
-      FROM ${attempts} ${where ? sql`WHERE ${where}` : sql``}
-    ), per_learner AS (
-      SELECT learner, max(CASE WHEN k = 1 THEN passed END) AS first_passed, max(passed) AS ever_passed FROM ranked GROUP BY learner
+      SELECT ${learnerTallies.firstPassed} AS first_passed,
+        row_number() OVER (PARTITION BY ${learnerTallies.learner} ORDER BY ${learnerTallies.firstStarted}, ${learnerTallies.firstId}) AS k,
+        max(${learnerTallies.passed} > 0) OVER (PARTITION BY ${learnerTallies.learner}) AS ever_passed
+      FROM ${learnerTallies} WHERE ${scopeConditions(learnerTallies, scope)}
     )
-    SELECT count(*) AS learners, sum(first_passed) AS first_passed, sum(ever_passed) AS ever_passed FROM per_learner`);
+    SELECT count(*) AS learners, sum(first_passed) AS first_passed, sum(ever_passed) AS ever_passed FROM ranked WHERE k = 1`);
   return { learners: row.learners, firstPassed: row.first_passed ?? 0, everPassed: row.ever_passed ?? 0 };
 }

@@ -6,7 +6,7 @@ import { and, between, eq, sql, type SQL } from "drizzle-orm";
 import type { SQLiteColumn } from "drizzle-orm/sqlite-core";
 import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
 import type { Db } from "../db/client";
-import { attemptTallies, attemptValues, networkValues } from "../db/schema";
+import { attemptTallies, attemptValues, learnerTallies, networkValues } from "../db/schema";
 
 /** What a figure can be narrowed to: a quarter range and any of the attempt dimensions. */
 export interface SummaryScope {
@@ -81,9 +81,15 @@ export function judgedOf(tally: Tally): number {
   return tally.pp + tally.pf + tally.fp + tally.ff;
 }
 
-type ScopedTable = typeof attemptTallies | typeof attemptValues;
+/** The whole network over a range of quarters. */
+export function networkScope(from: string, to: string): SummaryScope {
+  return { from, to, siteId: null, profile: null, feedback: null, instructorId: null, manikinId: null };
+}
 
-function scopeConditions(table: ScopedTable, scope: SummaryScope): SQL {
+type ScopedTable = typeof attemptTallies | typeof attemptValues | typeof learnerTallies;
+
+/** The scope as conditions on any summary table that carries every dimension. */
+export function scopeConditions(table: ScopedTable, scope: SummaryScope): SQL {
   const parts: SQL[] = [between(table.quarter, scope.from, scope.to)];
   if (scope.siteId !== null) parts.push(eq(table.siteId, scope.siteId));
   if (scope.profile !== null) parts.push(sql`${table.profile} = ${scope.profile}`);

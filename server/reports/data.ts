@@ -2,7 +2,7 @@
 // trend, common errors with the coordinator's actions, live vs hidden display, instructor agreement and
 // equipment use. Every figure passes through small-cell suppression here, so nothing downstream (web page,
 // PDF, e-mail, CSV) can show a hidden cell by mistake.
-import { eq, inArray } from "drizzle-orm";
+import { eq } from "drizzle-orm";
 import { courseTypes, feedbackModes } from "../../shared/domain";
 import type { ErrorRow, GroupResult, RateFigure, ReportComparison, ReportData, TrendPoint } from "../../shared/schemas/report";
 import { comparisonPeriods, parsePeriod, periodMonths, quartersOf, trailingQuarters, type ReportPeriod } from "../../shared/period";
@@ -10,14 +10,14 @@ import { GUIDELINE_SOURCES, SAFETY_NOTE, patientTypes, type NetworkPolicy } from
 import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
 import { changeFrom, cohensKappa, pareto, pChart } from "../../shared/stats";
 import type { Db } from "../db/client";
-import { attempts, quarterNotes } from "../db/schema";
+import { quarterNotes } from "../db/schema";
 import { currentPolicy } from "../policy/service";
 import { badRequest } from "../errors";
 import { getSetting } from "../settings/store";
 import { compareRates, differencePoints } from "./compare";
 import { countFigure, formatPoints, hiddenText, perHundredFigure, rateFigure } from "./figures";
 import { writeNarrative } from "./narrative";
-import { passTallyByQuarter, reportNumbers, type PassTally } from "./queries";
+import { passTallyByQuarter, reportNumbers, reportScope, type PassTally } from "./queries";
 import { suppressBreakdown } from "../../shared/suppression";
 import { courseTypeNames, errorLabels, feedbackNames, patientTypeNames } from "../../shared/vocabulary";
 import { learnerOutcomes } from "../metrics/learnerOutcomes";
@@ -83,7 +83,7 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
   const { policy, version } = currentPolicy(db);
   const min = policy.suppressionMinCount;
   const numbers = reportNumbers(db, quarters);
-  const measuredLearners = learnerOutcomes(db, inArray(attempts.quarter, quarters));
+  const measuredLearners = learnerOutcomes(db, reportScope(quarters));
   const hasData = numbers.classes > 0 || numbers.attempts.attempts > 0;
 
   // Reach

@@ -9,7 +9,7 @@ import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
 import type { KappaTable } from "../../shared/stats";
 import type { Db } from "../db/client";
 import { classes, equipmentEvents } from "../db/schema";
-import { addTally, distinctIn, emptyTally, talliesBy, talliesByPair, totalTally, type SummaryScope } from "../metrics/summaries";
+import { addTally, distinctIn, emptyTally, networkScope, talliesBy, talliesByPair, totalTally, type SummaryScope } from "../metrics/summaries";
 
 export interface PassTally {
   attempts: number;
@@ -47,9 +47,9 @@ export interface ReportNumbers {
 const asNumber = (value: unknown) => Number(value ?? 0);
 
 /** The whole network over the span of `quarters` (a report's quarters are always consecutive). */
-function networkScope(quarters: readonly string[]): SummaryScope {
+export function reportScope(quarters: readonly string[]): SummaryScope {
   const sorted = [...quarters].sort();
-  return { from: sorted[0], to: sorted[sorted.length - 1], siteId: null, profile: null, feedback: null, instructorId: null, manikinId: null };
+  return networkScope(sorted[0], sorted[sorted.length - 1]);
 }
 
 /** First day of the quarters and first day after them, for tables that carry dates rather than quarters. */
@@ -95,7 +95,7 @@ export function reportNumbers(db: Db, quarters: readonly string[]): ReportNumber
 
   const byPatientType = Object.fromEntries(patientTypes.map((p) => [p, { attempts: 0, passed: 0 }])) as ReportNumbers["byPatientType"];
   const byFeedback = Object.fromEntries(feedbackModes.map((f) => [f, { attempts: 0, passed: 0 }])) as ReportNumbers["byFeedback"];
-  const scope = networkScope(quarters);
+  const scope = reportScope(quarters);
   const pairs = talliesByPair(db, scope, "profile", "feedback");
   for (const [key, tally] of pairs) {
     const [profile, feedback] = key.split("|") as [PatientType, FeedbackMode];
@@ -146,7 +146,7 @@ export function reportNumbers(db: Db, quarters: readonly string[]): ReportNumber
 /** Attempts and passes per quarter, for the trend and the comparisons; quarters without attempts give zeros. */
 export function passTallyByQuarter(db: Db, quarters: readonly string[]): Map<string, PassTally> {
   const tallies = new Map<string, PassTally>(quarters.map((q) => [q, { attempts: 0, passed: 0 }]));
-  for (const [quarter, tally] of talliesBy<string>(db, networkScope(quarters), "quarter")) {
+  for (const [quarter, tally] of talliesBy<string>(db, reportScope(quarters), "quarter")) {
     if (tallies.has(quarter)) tallies.set(quarter, { attempts: tally.n, passed: tally.passed });
   }
   return tallies;
@@ -156,5 +156,5 @@ export function passTallyByQuarter(db: Db, quarters: readonly string[]): Map<str
 export function periodHasData(db: Db, quarters: readonly string[]): boolean {
   const classRow = db.select({ n: count() }).from(classes).where(inArray(classes.quarter, [...quarters])).get();
   if ((classRow?.n ?? 0) > 0) return true;
-  return totalTally(db, networkScope(quarters)).n > 0;
+  return totalTally(db, reportScope(quarters)).n > 0;
 }

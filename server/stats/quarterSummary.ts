@@ -9,9 +9,7 @@ import { changeVerdict, proportionDifference, type ChangeVerdict } from "../../s
 import type { FeedbackMode } from "../../shared/domain";
 import type { AttemptError } from "../../shared/scoring/scoreAttempt";
 import { parseQuarter, previousQuarter } from "../../shared/period";
-import { and, eq } from "drizzle-orm";
 import type { Db } from "../db/client";
-import { attempts as attemptsTable } from "../db/schema";
 import { learnerOutcomes } from "../metrics/learnerOutcomes";
 import { addTally, emptyTally, judgedOf, medianIn, talliesBy, totalTally, type SummaryScope } from "../metrics/summaries";
 import { badRequest } from "../errors";
@@ -120,14 +118,7 @@ export function quarterSummary(db: Db, quarter: string, filter: SummaryFilter = 
   ] as const;
   const agreement = cohensKappa(table);
 
-  const learners = learnerOutcomes(
-    db,
-    and(
-      eq(attemptsTable.quarter, quarter),
-      filter.instructorId === undefined ? undefined : eq(attemptsTable.instructorId, filter.instructorId),
-      filter.siteId === undefined ? undefined : eq(attemptsTable.siteId, filter.siteId),
-    ),
-  );
+  const learners = learnerOutcomes(db, scope);
 
   const before = previousQuarter(quarter);
   const previousTally = totalTally(db, { ...scope, from: before, to: before });

@@ -8,6 +8,7 @@ import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
 import { median, quantile } from "../../shared/stats";
 import type { Db } from "../../server/db/client";
 import { attempts } from "../../server/db/schema";
+import { learnerOutcomes } from "../../server/metrics/learnerOutcomes";
 import {
   medianIn,
   mediansBy,
@@ -65,6 +66,9 @@ beforeAll(async () => {
     // a class moved to another quarter, and a judgement corrected
     db.update(attempts).set({ quarter: "2025-Q4" }).where(sql`${attempts.id} LIKE 'EXTRA-9%'`).run();
     db.update(attempts).set({ instructorResult: "pass" }).where(sql`${attempts.id} LIKE 'EXTRA-8%'`).run();
+    // learners who return: the same code on attempts of other groups, some started earlier
+    db.update(attempts).set({ learner: sql`'RETURNING-' || (cast(substr(${attempts.id}, 7) AS integer) % 40)` }).where(sql`${attempts.id} LIKE 'EXTRA-5%'`).run();
+    db.update(attempts).set({ startedAt: "2026-01-02T08:00:00Z" }).where(sql`${attempts.id} LIKE 'EXTRA-55%'`).run();
   })();
 });
 afterAll(() => db.$client.close());
@@ -159,6 +163,18 @@ describe("attempt summaries equal the attempts they summarise", () => {
         expect(mediansBy(db, metric, scope, dimension)).toEqual(expected);
       }
     }
+  });
+
+  it.each(scopes)("learner outcomes: learners, first attempt passed, passed at least once (%s)", (_name, scope) => {
+    const byLearner = new Map<string, AttemptRow[]>();
+    for (const row of rowsIn(scope)) byLearner.set(row.learner, [...(byLearner.get(row.learner) ?? []), row]);
+    const earliest = (rows: AttemptRow[]) =>
+      [...rows].sort((a, b) => (a.startedAt < b.startedAt ? -1 : a.startedAt > b.startedAt ? 1 : a.id < b.id ? -1 : 1))[0];
+    expect(learnerOutcomes(db, scope)).toEqual({
+      learners: byLearner.size,
+      firstPassed: [...byLearner.values()].filter((rows) => earliest(rows).passed).length,
+      everPassed: [...byLearner.values()].filter((rows) => rows.some((row) => row.passed)).length,
+    });
   });
 
   it("lists the quarters that hold attempts, and drops a quarter when its last attempt goes", () => {

@@ -5,6 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Db } from "../../../server/db/client";
 import { attempts } from "../../../server/db/schema";
 import { learnerOutcomes } from "../../../server/metrics/learnerOutcomes";
+import { networkScope } from "../../../server/metrics/summaries";
 import { makeTestDb, seedPeople } from "../../helpers/testApp";
 import { insertReportFixture } from "../report/fixture";
 
@@ -15,7 +16,7 @@ beforeAll(async () => {
 });
 afterAll(() => db.$client.close());
 
-const q3 = () => learnerOutcomes(db, eq(attempts.quarter, "2026-Q3"));
+const q3 = () => learnerOutcomes(db, networkScope("2026-Q3", "2026-Q3"));
 
 describe("learnerOutcomes", () => {
   it("counts each learner once: with one attempt each, first attempt and at least once agree", () => {
@@ -31,6 +32,6 @@ describe("learnerOutcomes", () => {
   });
 
   it("answers zeros where nothing matches", () => {
-    expect(learnerOutcomes(db, eq(attempts.quarter, "2019-Q1"))).toEqual({ learners: 0, firstPassed: 0, everPassed: 0 });
+    expect(learnerOutcomes(db, networkScope("2019-Q1", "2019-Q1"))).toEqual({ learners: 0, firstPassed: 0, everPassed: 0 });
   });
 });
