@@ -59,10 +59,10 @@ const pageNumber = (what: string, max: number, fallback: number) =>
 
 export const errorParamSchema = z.enum(attemptErrorNames, { error: `Use one of ${attemptErrorNames.join(", ")}` });
 
-/** Columns the attempt list may be sorted by; each is also the key of a column the list can show. */
+/** Columns the attempt list may be sorted by, in the order the list shows them; each is also a column's key. */
 export const attemptSortKeys = [
-  "startedAt",
   "id",
+  "startedAt",
   "learner",
   "class",
   "site",
@@ -72,8 +72,8 @@ export const attemptSortKeys = [
   "feedback",
   "passed",
   "instructorResult",
-  "score",
   "errors",
+  "score",
   "stream",
   "depth",
   "depthOk",
