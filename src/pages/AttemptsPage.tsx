@@ -142,29 +142,29 @@ function AttemptList({ state }: { state: InsightFilterState }) {
   return (
     <>
       <FilterBar filters={filters} label="Filter the attempts" />
-      <div className="mb-4 flex flex-wrap items-end justify-between gap-3">
+      <div className="mb-4">
         <AttemptSearchFields values={{ learner: list.learner, learnerPrefix: list.learnerPrefix, classId: list.classId }} onSearch={searchFor} />
-        <div className="flex flex-wrap items-end gap-3">
-          <PhoneSortSelect
-            id={sortId}
-            columns={sortChoices}
-            sort={{ key: list.sort, direction: list.dir }}
-            onChange={(next) => update(next ? { sort: next.key, dir: next.direction } : { sort: null, dir: null })}
-          />
-          <ColumnChooser columns={allColumns} shown={list.columns} onChange={(shown) => update({ cols: columnsParam(shown) })} />
-          {total > 0 && (
-            <a
-              href={attemptsCsvPath(search)}
-              download
-              className="inline-flex min-h-11 items-center gap-2 rounded-control border border-line-strong bg-surface px-4 font-medium text-dusk-800 hover:bg-dusk-50"
-            >
-              <svg viewBox="0 0 20 20" className="size-4" aria-hidden="true">
-                <path d="M10 3v9m0 0-3.5-3.5M10 12l3.5-3.5M4 14v2.5h12V14" fill="none" stroke="currentColor" strokeWidth="1.8" strokeLinecap="round" strokeLinejoin="round" />
-              </svg>
-              Export CSV of all {total.toLocaleString("en-GB")} attempts
-            </a>
-          )}
-        </div>
+      </div>
+      <div className="mb-3 flex flex-wrap items-end justify-end gap-3">
+        <PhoneSortSelect
+          id={sortId}
+          columns={sortChoices}
+          sort={{ key: list.sort, direction: list.dir }}
+          onChange={(next) => update(next ? { sort: next.key, dir: next.direction } : { sort: null, dir: null })}
+        />
+        <ColumnChooser columns={allColumns} shown={list.columns} onChange={(shown) => update({ cols: columnsParam(shown) })} />
+        {total > 0 && (
+          <a
+            href={attemptsCsvPath(search)}
+            download
+            className="inline-flex min-h-11 items-center gap-2 rounded-control border border-line-strong bg-surface px-4 font-medium text-dusk-800 hover:bg-dusk-50"
+          >
+            <svg viewBox="0 0 20 20" className="size-4" aria-hidden="true">
+              <path d="M10 3v9m0 0-3.5-3.5M10 12l3.5-3.5M4 14v2.5h12V14" fill="none" stroke="currentColor" strokeWidth="1.8" strokeLinecap="round" strokeLinejoin="round" />
+            </svg>
+            Export CSV of all {total.toLocaleString("en-GB")} attempts
+          </a>
+        )}
       </div>
       {answer.isPending ? (
         <LoadingState label="Loading attempts…" />

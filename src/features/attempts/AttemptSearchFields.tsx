@@ -34,7 +34,7 @@ export function AttemptSearchFields({ values, onSearch }: { values: SearchValues
 
   const anySet = learner !== "" || classId !== "";
   return (
-    <form role="search" aria-label="Search attempts by learner or class" onSubmit={submit} className="flex flex-wrap items-end gap-3">
+    <form role="search" aria-label="Search attempts by learner or class" onSubmit={submit} className="flex w-full flex-wrap items-start gap-3">
       <div className="flex min-w-[min(100%,14rem)] flex-col gap-1">
         <Input
           label="Learner code"
@@ -53,7 +53,8 @@ export function AttemptSearchFields({ values, onSearch }: { values: SearchValues
       <div className="flex min-w-[min(100%,12rem)] flex-col gap-1 self-start">
         <Input label="Class" optional value={draft.classId} error={errors.classId} autoComplete="off" spellCheck={false} onChange={(event) => setDraft({ ...draft, classId: event.target.value })} />
       </div>
-      <div className="flex gap-2 self-start pt-7">
+      {/* the label's height, so the buttons line up with the boxes */}
+      <div className="flex gap-2 sm:pt-7">
         <Button type="submit" variant="secondary">
           Search
         </Button>

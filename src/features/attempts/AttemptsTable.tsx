@@ -112,7 +112,7 @@ function PhoneList({ rows, from, caption }: { rows: readonly AttemptRow[]; from:
             {dateTime(a.startedAt)} · <span className="font-mono">{a.learner}</span> · {patientTypeNames[a.profile]}
           </p>
           <p className="flex flex-wrap justify-between gap-x-3">
-            <ErrorNames errors={a.errors} />
+            <ErrorNames errors={a.errors} none="No errors" />
             <span className="tabular-nums text-muted">
               Depth {Math.round(a.metrics.depthOkPct)} % · Rate {Math.round(a.metrics.rateOkPct)} % on target
             </span>

@@ -26,8 +26,9 @@ export function ResultBadge({ passed }: { passed: boolean }) {
   return <TargetBadge status={passed ? "on_target" : "too_low"} label={passed ? resultNames.passed : resultNames.notPassed} />;
 }
 
-export function ErrorNames({ errors }: { errors: AttemptRow["errors"] }) {
-  if (errors.length === 0) return muted("None");
+/** Short names, full labels on hover; `none` where there is no header to say what "None" is about. */
+export function ErrorNames({ errors, none = "None" }: { errors: AttemptRow["errors"]; none?: string }) {
+  if (errors.length === 0) return muted(none);
   return <span title={errors.map((e) => errorLabels[e]).join("; ")}>{errors.map((e) => errorShortNames[e]).join(", ")}</span>;
 }
 
