@@ -125,8 +125,9 @@ function AttemptList({ state }: { state: InsightFilterState }) {
   const first = (list.page - 1) * PAGE_SIZE + 1;
   const last = Math.min(total, list.page * PAGE_SIZE);
 
-  const pager = (
-    <nav aria-label="Pages of attempts" className="flex flex-wrap items-center gap-2">
+  // two pagers, above and below the list: landmarks need names of their own
+  const pager = (where: string) => (
+    <nav aria-label={`Pages of attempts, ${where}`} className="flex flex-wrap items-center gap-2">
       <Button variant="secondary" size="sm" disabled={list.page <= 1} onClick={() => goTo(list.page - 1)}>
         Previous page
       </Button>
@@ -182,7 +183,7 @@ function AttemptList({ state }: { state: InsightFilterState }) {
             <p className="font-medium" aria-live="polite">
               Attempts {first.toLocaleString("en-GB")}–{last.toLocaleString("en-GB")} of {total.toLocaleString("en-GB")}, sorted by {orderWords(sortColumn, list.dir).toLowerCase()}
             </p>
-            {pages > 1 && pager}
+            {pages > 1 && pager("above the list")}
           </div>
           <AttemptsTable
             rows={answer.data.attempts}
@@ -196,7 +197,7 @@ function AttemptList({ state }: { state: InsightFilterState }) {
           <p className="text-caption text-muted">
             Sorting, the filters and the CSV cover every matching attempt, not only this page. Depth is in {unit} as set on your account page; the CSV gives it in mm.
           </p>
-          {pages > 1 && <div className="flex justify-end">{pager}</div>}
+          {pages > 1 && <div className="flex justify-end">{pager("below the list")}</div>}
         </div>
       )}
     </>
