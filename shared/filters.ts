@@ -59,9 +59,59 @@ const pageNumber = (what: string, max: number, fallback: number) =>
 
 export const errorParamSchema = z.enum(attemptErrorNames, { error: `Use one of ${attemptErrorNames.join(", ")}` });
 
-export const attemptListQuerySchema = filtersWith({
+/** Columns the attempt list may be sorted by, in the order the list shows them; each is also a column's key. */
+export const attemptSortKeys = [
+  "id",
+  "startedAt",
+  "learner",
+  "class",
+  "site",
+  "instructor",
+  "manikin",
+  "profile",
+  "feedback",
+  "passed",
+  "instructorResult",
+  "errors",
+  "score",
+  "stream",
+  "depth",
+  "depthOk",
+  "rate",
+  "rateOk",
+  "recoilOk",
+  "handsOn",
+  "longestPause",
+] as const;
+export type AttemptSortKey = (typeof attemptSortKeys)[number];
+
+export const sortDirections = ["asc", "desc"] as const;
+export type SortDirection = (typeof sortDirections)[number];
+
+/** A pseudonymous learner code as the import accepts it, or the start of one. */
+export const learnerParamSchema = z
+  .string({ error: "Use a learner code of letters, digits, '.', '_' or '-'" })
+  .trim()
+  .regex(/^[A-Za-z0-9._-]{1,64}$/, "Use a learner code of letters, digits, '.', '_' or '-' (at most 64)");
+
+/** The search over attempts shared by the list and its CSV: filters, sort; the list adds paging. */
+const attemptSearchShape = {
   error: errorParamSchema.optional(),
   class: refParamSchema.optional(),
+  /** Whether a compression stream is stored for the attempt. */
+  stream: z.enum(["yes", "no"], { error: "Use yes or no" }).optional(),
+  learner: learnerParamSchema.optional(),
+  /** `exact` (default) matches the whole code, `prefix` codes that start with it; both ignore case. */
+  learnerMatch: z.enum(["exact", "prefix"], { error: "Use exact or prefix" }).default("exact"),
+  sort: z.enum(attemptSortKeys, { error: `Use one of ${attemptSortKeys.join(", ")}` }).optional(),
+  dir: z.enum(sortDirections, { error: "Use asc or desc" }).optional(),
+};
+
+export const attemptExportQuerySchema = filtersWith(attemptSearchShape);
+export type AttemptExportQuery = z.infer<typeof attemptExportQuerySchema>;
+
+export const attemptListQuerySchema = filtersWith({
+  ...attemptSearchShape,
   page: pageNumber("page", 1_000_000, 1),
   pageSize: pageNumber("pageSize", 200, 50),
 });

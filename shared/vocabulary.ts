@@ -48,3 +48,39 @@ export const figureNames = {
   medianScore: "Median score",
   agreement: "Agreement of instructors with the measurement",
 } as const;
+
+/** What an attempt's columns are called in the attempt list, its column chooser and its CSV export. */
+export const attemptFieldNames = {
+  id: "Attempt",
+  startedAt: "Started",
+  quarter: dimensionNames.period,
+  class: "Class",
+  learner: "Learner",
+  site: dimensionNames.site,
+  instructor: dimensionNames.instructor,
+  manikin: dimensionNames.manikin,
+  profile: dimensionNames.patientType,
+  feedback: dimensionNames.feedback,
+  passed: "Result",
+  instructorResult: "Instructor’s result",
+  score: "Score",
+  errors: "Errors",
+  stream: "Compression stream",
+  compressions: "Compressions",
+  duration: "Duration (s)",
+  depth: "Mean depth",
+  depthOk: "Depth on target (%)",
+  tooShallow: "Too shallow (%)",
+  tooDeep: "Too deep (%)",
+  rate: "Rate (/min)",
+  rateOk: "Rate on target (%)",
+  tooSlow: "Too slow (%)",
+  tooFast: "Too fast (%)",
+  recoilOk: "Full recoil (%)",
+  handsOn: "Hands-on (%)",
+  longestPause: "Longest pause (s)",
+  policyVersion: "Policy version",
+} as const;
+
+/** An attempt's result against the pass rule, and the instructor's own result, in words. */
+export const resultNames = { passed: "Passed", notPassed: "Not passed" } as const;

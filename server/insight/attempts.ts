@@ -2,23 +2,19 @@
 import { and, desc, eq, sql, type SQL } from "drizzle-orm";
 import type { AttemptDetailAnswer, AttemptListAnswer, AttemptRow } from "../../shared/schemas/insight";
 import { bandFor } from "../../shared/scoring/policy";
-import { maskToErrors, type AttemptError } from "../../shared/scoring/scoreAttempt";
+import { maskToErrors } from "../../shared/scoring/scoreAttempt";
 import type { Db } from "../db/client";
 import { attempts, compressionStreams, instructors, manikins, scoreHistory, sites } from "../db/schema";
 import { notFound } from "../errors";
 import { policyVersion } from "../policy/service";
 import { decodeStream } from "../streams/codec";
 import type { ResolvedFilters } from "./filters";
-import { attemptConditions, hasError } from "./sql";
+import { attemptOrder, attemptSearchConditions, hasStreamSql, type AttemptSearch } from "./attemptSearch";
 import { errorLabels } from "../../shared/vocabulary";
 
-export interface AttemptListOptions {
-  error?: AttemptError;
-  classId?: string;
+export interface AttemptPage {
   page: number;
   pageSize: number;
-  /** Row scope: only this instructor's attempts (an instructor's own), or every instructor's when null. */
-  onlyInstructorId: number | null;
 }
 
 const rowColumns = {
@@ -26,7 +22,7 @@ const rowColumns = {
   siteCode: sites.code,
   instructorCode: instructors.code,
   manikinAssetId: manikins.assetId,
-  hasStream: sql<number>`EXISTS (SELECT 1 FROM ${compressionStreams} WHERE ${compressionStreams.attemptId} = ${attempts.id})`,
+  hasStream: hasStreamSql,
 };
 
 type JoinedRow = {
@@ -37,7 +33,7 @@ type JoinedRow = {
   hasStream: number;
 };
 
-function selectRows(db: Db, where: SQL) {
+export function selectRows(db: Db, where: SQL) {
   return db
     .select(rowColumns)
     .from(attempts)
@@ -47,7 +43,7 @@ function selectRows(db: Db, where: SQL) {
     .where(where);
 }
 
-function toRow({ attempt: a, siteCode, instructorCode, manikinAssetId, hasStream }: JoinedRow): AttemptRow {
+export function toRow({ attempt: a, siteCode, instructorCode, manikinAssetId, hasStream }: JoinedRow): AttemptRow {
   return {
     id: a.id,
     classId: a.classId,
@@ -86,19 +82,16 @@ function toRow({ attempt: a, siteCode, instructorCode, manikinAssetId, hasStream
   };
 }
 
-export function attemptList(db: Db, filters: ResolvedFilters, options: AttemptListOptions): AttemptListAnswer {
-  const parts: SQL[] = [attemptConditions(filters)];
-  if (options.error) parts.push(hasError(options.error));
-  if (options.classId) parts.push(eq(attempts.classId, options.classId));
-  if (options.onlyInstructorId !== null) parts.push(eq(attempts.instructorId, options.onlyInstructorId));
-  const where = and(...parts)!;
+/** One page of the attempts the filters and search select, in the search's order, with their total. */
+export function attemptList(db: Db, filters: ResolvedFilters, search: AttemptSearch, { page, pageSize }: AttemptPage): AttemptListAnswer {
+  const where = attemptSearchConditions(filters, search);
   const total = db.select({ n: sql<number>`count(*)` }).from(attempts).where(where).get()!.n;
   const rows = selectRows(db, where)
-    .orderBy(desc(attempts.startedAt), attempts.id)
-    .limit(options.pageSize)
-    .offset((options.page - 1) * options.pageSize)
+    .orderBy(...attemptOrder(search))
+    .limit(pageSize)
+    .offset((page - 1) * pageSize)
     .all();
-  return { page: options.page, pageSize: options.pageSize, total, attempts: rows.map(toRow) };
+  return { page, pageSize, total, attempts: rows.map(toRow) };
 }
 
 /** One attempt; `onlyInstructorId` limits it to that instructor's attempts (anything else: 404). */

@@ -1,11 +1,13 @@
 // Network-insight routes: parse the filters, apply the viewer's scope, answer from the per-state cache.
 import { Router, type Request } from "express";
 import { z } from "zod";
-import { attemptListQuerySchema, errorsQuerySchema, insightFiltersSchema } from "../../shared/filters";
+import { attemptExportQuerySchema, attemptListQuerySchema, errorsQuerySchema, insightFiltersSchema, insightFilterShape } from "../../shared/filters";
 import type { Db } from "../db/client";
 import { allow, rowScope, signedInUser } from "../auth/guard";
 import { parseId, parseWith } from "../http/validate";
 import { attemptDetail, attemptList } from "./attempts";
+import { attemptSearchKey, attemptSearchOf } from "./attemptSearch";
+import { attemptsCsvFileName, writeAttemptsCsv } from "./attemptsCsv";
 import { dataVersion, sendCached } from "./cache";
 import { classDetail } from "./classes";
 import { errorAnalysis } from "./errors";
@@ -70,12 +72,32 @@ export function insightRoutes(db: Db): Router {
     res.json(classDetail(db, id, rowScope(signedInUser(req), "readAttempts").instructorId));
   });
 
+  /** The network filters of an attempt search (the query's other fields are the search's own). */
+  function filterPart(query: Record<string, unknown>) {
+    return Object.fromEntries(Object.keys(insightFilterShape).map((key) => [key, query[key]]));
+  }
+
   // Instructors see their own attempts only; others' are answered as missing, never as forbidden.
   router.get("/attempts", allow("readAttempts"), (req, res) => {
-    const { error, class: classId, page, pageSize, ...filterQuery } = parseWith(attemptListQuerySchema, req.query, "The filters");
-    const { filters, key } = context(req, `attempts:${error ?? ""}:${classId ?? ""}:${page}:${pageSize}`, filterQuery);
-    const onlyInstructorId = rowScope(signedInUser(req), "readAttempts").instructorId;
-    sendCached(db, res, key, () => attemptList(db, filters, { error, classId, page, pageSize, onlyInstructorId }));
+    const query = parseWith(attemptListQuerySchema, req.query, "The filters");
+    const search = attemptSearchOf(query, rowScope(signedInUser(req), "readAttempts").instructorId);
+    const page = { page: query.page, pageSize: query.pageSize };
+    const { filters, key } = context(req, `attempts:${attemptSearchKey(search)}:${page.page}:${page.pageSize}`, filterPart(query));
+    sendCached(db, res, key, () => attemptList(db, filters, search, page));
+  });
+
+  // The whole result of the same search as CSV, with the same row scope.
+  router.get("/attempts.csv", allow("readAttempts"), (req, res) => {
+    const query = parseWith(attemptExportQuerySchema, req.query, "The filters");
+    const search = attemptSearchOf(query, rowScope(signedInUser(req), "readAttempts").instructorId);
+    const { filters } = context(req, "attempts.csv", filterPart(query));
+    res
+      .status(200)
+      .type("text/csv; charset=utf-8")
+      .set("Cache-Control", "no-store")
+      .set("Content-Disposition", `attachment; filename="${attemptsCsvFileName(filters)}"`);
+    writeAttemptsCsv(db, filters, search, (text) => res.write(text));
+    res.end();
   });
 
   router.get("/attempts/:id", allow("readAttempts"), (req, res) => {

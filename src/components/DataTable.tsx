@@ -285,7 +285,7 @@ function CardList<Row>({ caption, columns, rows, rowKey, emptyText }: { caption:
 }
 
 /** Phones have no column headers to click, so sorting is a select there. */
-function PhoneSortSelect<Row>({ id, columns, sort, onChange }: { id: string; columns: readonly Column<Row>[]; sort: SortState | null; onChange: (sort: SortState | null) => void }) {
+export function PhoneSortSelect<Row>({ id, columns, sort, onChange }: { id: string; columns: readonly Column<Row>[]; sort: SortState | null; onChange: (sort: SortState | null) => void }) {
   const sortable = columns.filter((c) => c.sortable !== false);
   if (sortable.length === 0) return null;
   return (

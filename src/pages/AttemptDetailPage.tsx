@@ -3,7 +3,7 @@
 // manikin sent a stream.
 import { useQuery } from "@tanstack/react-query";
 import { useMemo } from "react";
-import { Link, useLocation, useParams } from "react-router";
+import { Link, useLocation, useParams, useSearchParams } from "react-router";
 import { DEFAULT_POLICY } from "../../shared/scoring/policy";
 import type { AttemptDetailAnswer } from "../../shared/schemas/insight";
 import { ApiError } from "../api/http";
@@ -19,7 +19,7 @@ import { compressionSeries, type CompressionSeries } from "../features/attempts/
 import { dateTime, errorLabel } from "../features/attempts/labels";
 import { attemptQueries } from "../features/attempts/queries";
 import { useScoringPolicy } from "../features/attempts/useScoringPolicy";
-import { useCan } from "../features/auth/useCan";
+import { backLabel, inAppPath } from "../features/attempts/returnPath";
 import { useLengthUnit } from "../lib/useLengthUnit";
 import { dimensionNames, feedbackNames, patientTypeNames } from "../../shared/vocabulary";
 
@@ -52,15 +52,14 @@ export default function AttemptDetailPage() {
   );
 }
 
+/** Back to the list the attempt was opened from (its address travels in ?from=), else to the attempts list. */
 function BackLink() {
   const location = useLocation();
-  // the attempts list is a page about everyone's attempts; without it there is nowhere to go back to
-  const opensAttemptList = useCan("readAttempts", "any");
-  const from = (location.state as { from?: string } | null)?.from;
-  if (!from && !opensAttemptList) return null;
+  const [params] = useSearchParams();
+  const to = inAppPath(params.get("from")) ?? inAppPath((location.state as { from?: string } | null)?.from) ?? "/attempts";
   return (
-    <Link to={from ?? "/attempts"} className="mb-3 inline-flex min-h-9 items-center gap-1 font-medium text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
-      <span aria-hidden="true">←</span> Back to attempts
+    <Link to={to} className="mb-3 inline-flex min-h-9 items-center gap-1 font-medium text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+      <span aria-hidden="true">←</span> {backLabel(to)}
     </Link>
   );
 }
@@ -89,7 +88,12 @@ function AttemptView({ answer }: { answer: AttemptDetailAnswer }) {
   const facts: [string, React.ReactNode][] = [
     ["Learner", <span className="font-mono">{attempt.learner}</span>],
     ["Started", dateTime(attempt.startedAt)],
-    ["Class", attempt.classId],
+    [
+      "Class",
+      <Link to={`/classes/${encodeURIComponent(attempt.classId)}`} className="text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+        {attempt.classId}
+      </Link>,
+    ],
     ["Site", attempt.site?.code ?? "Not recorded"],
     ["Instructor", attempt.instructor?.code ?? "Not recorded"],
     ["Manikin", attempt.manikin?.assetId ?? "Not recorded"],

@@ -2,13 +2,14 @@
 // linking to the attempt's own page. Instructors may open their own classes only; the server answers
 // anyone else's as missing.
 import { useQuery } from "@tanstack/react-query";
-import { Link, useParams } from "react-router";
+import { Link, useLocation, useParams } from "react-router";
 import type { AttemptRow, ClassDetailAnswer } from "../../shared/schemas/insight";
 import { ApiError } from "../api/http";
 import { DataTable, type Column } from "../components/DataTable";
 import { PageHeader } from "../components/PageHeader";
 import { SafetyNote } from "../components/SafetyNote";
 import { EmptyState } from "../components/States";
+import { attemptHref } from "../features/attempts/returnPath";
 import { useCan } from "../features/auth/useCan";
 import { formatCount, formatDate, formatPercent, formatScore, formatTime, roundTo } from "../features/insight/format";
 import { quarterLabel } from "../../shared/period";
@@ -71,6 +72,8 @@ export function ClassContent({ answer, backTo }: { answer: ClassDetailAnswer; ba
   const measured = useQuery(insightQueries.classAttempts(c.id, c.quarter));
   const metrics = new Map<string, Measured>((measured.data?.attempts ?? []).map((a) => [a.id, a.metrics]));
   const { unit, formatLength, fromMm } = useLengthUnit();
+  const location = useLocation();
+  const here = `${location.pathname}${location.search}`;
   const back =
     backTo === "standing"
       ? { to: `/my-standing?quarter=${c.quarter}`, label: "My standing" }
@@ -83,7 +86,7 @@ export function ClassContent({ answer, backTo }: { answer: ClassDetailAnswer; ba
       value: (a) => a.id,
       render: (a) => (
         <span className="flex flex-col leading-tight">
-          <Link to={`/attempts/${encodeURIComponent(a.id)}`} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+          <Link to={attemptHref(a.id, here)} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
             {a.id}
           </Link>
           <span className="text-caption text-muted">started {formatTime(a.startedAt)}</span>
@@ -172,6 +175,14 @@ export function ClassContent({ answer, backTo }: { answer: ClassDetailAnswer; ba
           Attempts ({formatCount(answer.attempts.length)})
         </h2>
         {measured.isError && <p className="text-small text-muted">Depth and rate could not be loaded; the other columns are complete.</p>}
+        {answer.attempts.length > 0 && (
+          <p className="text-small">
+            <Link to={`/attempts?${new URLSearchParams({ quarter: c.quarter, class: c.id }).toString()}`} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+              Open this class’s attempts in the attempts list
+            </Link>{" "}
+            <span className="text-muted">to choose columns, sort them or export every figure.</span>
+          </p>
+        )}
         <DataTable
           caption="Attempts"
           columns={columns}

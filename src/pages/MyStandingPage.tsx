@@ -2,6 +2,7 @@
 // (others anonymous), my point on the funnel, my errors against the network's and my classes.
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import type { StandingAnswer } from "../../shared/schemas/insight";
+import type { AttemptError } from "../../shared/scoring/scoreAttempt";
 import { PageHeader } from "../components/PageHeader";
 import { SafetyNote } from "../components/SafetyNote";
 import { ClassTable } from "../features/insight/ClassTable";
@@ -14,10 +15,11 @@ import { InsightFilters } from "../features/insight/InsightFilters";
 import { NoDataForFilters } from "../features/insight/NoDataForFilters";
 import { QueryStatus } from "../features/insight/QueryStatus";
 import { RateText } from "../features/insight/RateText";
+import { ErrorAttemptLinks } from "../features/insight/standing/ErrorAttemptLinks";
 import { StandingMetrics } from "../features/insight/standing/StandingMetrics";
 import { Suppressed } from "../features/insight/Suppressed";
 import { insightQueries } from "../features/insight/queries";
-import type { InsightFilterState } from "../features/insight/useInsightFilters";
+import { linkParams, type InsightFilterState } from "../features/insight/useInsightFilters";
 
 export default function MyStandingPage() {
   return (
@@ -35,14 +37,16 @@ export default function MyStandingPage() {
 
 function StandingBody({ state }: { state: InsightFilterState }) {
   const query = useQuery({ ...insightQueries.standing(state.api), placeholderData: keepPreviousData });
+  // the attempt list keeps an instructor to their own attempts, so the error and the filters are enough
+  const attemptsHref = (error: AttemptError) => `/attempts?${linkParams(state.values, { error })}`;
   return (
     <QueryStatus query={query} loadingLabel={`Loading your standing for ${quarterLabel(state.quarter)}…`} errorTitle="Your standing could not be loaded">
-      {(answer) => (answer.attempts === 0 ? <NoDataForFilters state={state} what="attempts in your classes" /> : <StandingContent answer={answer} />)}
+      {(answer) => (answer.attempts === 0 ? <NoDataForFilters state={state} what="attempts in your classes" /> : <StandingContent answer={answer} attemptsHref={attemptsHref} />)}
     </QueryStatus>
   );
 }
 
-export function StandingContent({ answer }: { answer: StandingAnswer }) {
+export function StandingContent({ answer, attemptsHref }: { answer: StandingAnswer; attemptsHref: (error: AttemptError) => string }) {
   const min = answer.suppressionMinCount;
   const me = answer.funnel.me;
   const units: FunnelUnit[] =
@@ -98,7 +102,8 @@ export function StandingContent({ answer }: { answer: StandingAnswer }) {
         <h2 id="errors-heading" className="text-title">
           Your errors
         </h2>
-        <ErrorProfileChart rows={answer.errorProfile.rows} networkSuppressed={networkHidden} minCount={min} />
+        <ErrorProfileChart rows={answer.errorProfile.rows} networkSuppressed={networkHidden} minCount={min} attemptsHref={attemptsHref} />
+        <ErrorAttemptLinks rows={answer.errorProfile.rows} attemptsHref={attemptsHref} />
       </section>
 
       <section aria-labelledby="classes-heading" className="flex flex-col gap-3">

@@ -39,6 +39,7 @@ const matrix: Row[] = [
   { method: "get", path: "/api/classes/A1-2604", expect: network },
   { method: "get", path: "/api/attempts", expect: network },
   { method: "get", path: "/api/attempts/A1-2604-001", expect: network },
+  { method: "get", path: "/api/attempts.csv", expect: network },
   { method: "get", path: "/api/equipment", expect: network },
   { method: "get", path: "/api/settings/policy", expect: directory },
   { method: "get", path: "/api/settings/policy/versions", expect: directory },

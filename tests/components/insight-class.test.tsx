@@ -64,7 +64,9 @@ describe("class page", () => {
     expect(within(log).getByText("Batteries replaced").nextSibling?.textContent).toBe("not recorded");
 
     const table = screen.getByRole("table", { name: "Attempts" });
-    expect(within(table).getByRole("link", { name: "AT-1" }).getAttribute("href")).toBe("/attempts/AT-1");
+    // the attempt's back link returns to this class
+    expect(within(table).getByRole("link", { name: "AT-1" }).getAttribute("href")).toBe("/attempts/AT-1?from=%2Fclasses%2FCL-0276");
+    expect(screen.getByRole("link", { name: "Open this class’s attempts in the attempts list" }).getAttribute("href")).toBe("/attempts?quarter=2026-Q4&class=CL-0276");
     const second = within(table).getByRole("link", { name: "AT-2" }).closest("tr")!;
     expect(second.textContent).toContain("Not passed");
     expect(second.textContent).toContain("not recorded");

@@ -147,6 +147,27 @@ describe("my standing", () => {
     expect(rows[2][3]).toBe("−10.5 points");
   });
 
+  it("links each error I made to my own attempts with that error, most common first, keeping the filters", async () => {
+    fakeServer({
+      "GET /api/me": sessionFor("instructor"),
+      "GET /api/insight/options": { status: 200, body: options },
+      "GET /api/insight/standing?quarter=2026-Q4&feedback=hidden": { status: 200, body: standing },
+    });
+    renderApp("/my-standing?quarter=2026-Q4&feedback=hidden");
+    const nav = await screen.findByRole("navigation", { name: "Open your attempts with an error" });
+    const links = within(nav).getAllByRole("link");
+    expect(links.map((l) => l.textContent)).toEqual(["Too shallow", "Too fast", "Long interruption"]);
+    expect(links[0].getAttribute("href")).toBe("/attempts?quarter=2026-Q4&feedback=hidden&error=too_shallow");
+    // an error I never made is named without a link to an empty list
+    expect(within(nav).queryByRole("link", { name: "Too deep" })).toBeNull();
+    expect(within(nav).getByText("Too deep")).toBeTruthy();
+    const frame = screen.getByRole("heading", { name: "Your errors against the network's", level: 3 }).closest("figure")!;
+    fireEvent.click(within(frame).getByRole("button", { name: "Show as table" }));
+    expect(within(frame).getByRole("link", { name: "Compression rate mostly above the target" }).getAttribute("href")).toBe(
+      "/attempts?quarter=2026-Q4&feedback=hidden&error=too_fast",
+    );
+  });
+
   it("lists my classes, each linking to its page", async () => {
     serve(standing);
     renderApp("/my-standing?quarter=2026-Q4");

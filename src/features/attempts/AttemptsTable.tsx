@@ -1,89 +1,124 @@
-// A page of attempts: the numbers that decide the result, the result with its errors in words, and a mark
-// where a compression stream can be looked at.
-import { Link, useLocation } from "react-router";
+// One page of attempts, already filtered and sorted by the server. Wide screens get a table whose first
+// column (the attempt) stays in view while the rest scrolls; its headers sort the whole result. Phones get a
+// dense list with the figures that decide a result, a few lines per attempt.
+import clsx from "clsx";
+import { Link } from "react-router";
+import type { AttemptSortKey, SortDirection } from "../../../shared/filters";
 import type { AttemptRow } from "../../../shared/schemas/insight";
-import { formatLength, type LengthUnit } from "../../../shared/units";
-import { DataTable, type Column } from "../../components/DataTable";
-import { TargetBadge } from "../../components/TargetBadge";
-import { dateTime, errorLabel } from "./labels";
-import { dimensionNames, feedbackNames, patientTypeNames } from "../../../shared/vocabulary";
+import { attemptFieldNames, patientTypeNames } from "../../../shared/vocabulary";
+import { ErrorNames, ResultBadge, type AttemptColumn } from "./attemptColumns";
+import { dateTime } from "./labels";
+import { attemptHref } from "./returnPath";
 
-export function attemptColumns(unit: LengthUnit, from: string): Column<AttemptRow>[] {
-  const pct = (value: number) => Math.round(value);
-  return [
-    {
-      key: "id",
-      header: "Attempt",
-      value: (a) => a.id,
-      primary: true,
-      render: (a) => (
-        <Link to={`/attempts/${encodeURIComponent(a.id)}`} state={{ from }} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
-          {a.id}
-        </Link>
-      ),
-    },
-    { key: "startedAt", header: "Started", value: (a) => a.startedAt, render: (a) => dateTime(a.startedAt), sortLabels: { asc: "oldest first", desc: "newest first" } },
-    {
-      key: "passed",
-      header: "Result",
-      value: (a) => (a.passed ? "Passed" : "Not passed"),
-      render: (a) => <TargetBadge status={a.passed ? "on_target" : "too_low"} label={a.passed ? "Passed" : "Not passed"} />,
-    },
-    { key: "score", header: "Score", value: (a) => Math.round(a.score), align: "right" },
-    { key: "errors", header: "Errors", value: (a) => (a.errors.length ? a.errors.map(errorLabel).join("; ") : ""), wrap: true, render: (a) => (a.errors.length ? <ErrorList errors={a.errors} /> : <span className="text-muted">None</span>) },
-    {
-      key: "stream",
-      header: "Stream",
-      value: (a) => (a.hasStream ? "Yes" : "No"),
-      render: (a) =>
-        a.hasStream ? (
-          <span className="inline-flex items-center gap-1 rounded-full border border-dusk-300 bg-dusk-50 px-2 py-0.5 text-caption font-semibold text-dusk-800">
-            <svg viewBox="0 0 16 10" className="h-2.5 w-4" aria-hidden="true">
-              <path d="M1 5h2l1.5-4 2 8 2-8 2 8 1.5-4h3" fill="none" stroke="currentColor" strokeWidth="1.4" strokeLinejoin="round" />
-            </svg>
-            Stream
-          </span>
-        ) : (
-          <span className="text-muted">Summary</span>
-        ),
-    },
-    { key: "depth", header: `Mean depth (${unit})`, value: (a) => Number(formatLength(a.metrics.depthMm, unit).split(" ")[0]), align: "right" },
-    { key: "depthOk", header: "Depth on target (%)", value: (a) => pct(a.metrics.depthOkPct), align: "right" },
-    { key: "rate", header: "Rate (/min)", value: (a) => Math.round(a.metrics.rateCpm), align: "right" },
-    { key: "rateOk", header: "Rate on target (%)", value: (a) => pct(a.metrics.rateOkPct), align: "right" },
-    { key: "recoilOk", header: "Full recoil (%)", value: (a) => pct(a.metrics.recoilOkPct), align: "right" },
-    { key: "handsOn", header: "Hands-on (%)", value: (a) => pct(a.metrics.handsOnPct), align: "right" },
-    { key: "longestPause", header: "Longest pause (s)", value: (a) => Number(a.metrics.longestPauseS.toFixed(1)), align: "right" },
-    { key: "learner", header: "Learner", value: (a) => a.learner },
-    { key: "site", header: "Site", value: (a) => a.site?.code ?? null },
-    { key: "instructor", header: "Instructor", value: (a) => a.instructor?.code ?? null },
-    { key: "manikin", header: "Manikin", value: (a) => a.manikin?.assetId ?? null },
-    { key: "profile", header: dimensionNames.patientType, value: (a) => patientTypeNames[a.profile] },
-    { key: "feedback", header: dimensionNames.feedback, value: (a) => feedbackNames[a.feedback] },
-  ];
+export interface AttemptsTableProps {
+  rows: readonly AttemptRow[];
+  columns: readonly AttemptColumn[];
+  sort: AttemptSortKey;
+  dir: SortDirection;
+  onSort: (key: AttemptSortKey) => void;
+  /** The list's own address, which each attempt's back link returns to. */
+  from: string;
+  caption: string;
 }
 
-function ErrorList({ errors }: { errors: AttemptRow["errors"] }) {
+const linkClass = "font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900";
+
+export function AttemptsTable(props: AttemptsTableProps) {
   return (
-    <ul className="flex flex-col gap-0.5 sm:min-w-56">
-      {errors.map((e) => (
-        <li key={e}>{errorLabel(e)}</li>
-      ))}
-    </ul>
+    <>
+      <WideTable {...props} />
+      <PhoneList rows={props.rows} from={props.from} caption={props.caption} />
+    </>
   );
 }
 
-export function AttemptsTable({ rows, unit, caption, toolbar }: { rows: readonly AttemptRow[]; unit: LengthUnit; caption: string; toolbar?: React.ReactNode }) {
-  const location = useLocation();
+function ariaSort(active: boolean, dir: SortDirection): "ascending" | "descending" | "none" {
+  return active ? (dir === "asc" ? "ascending" : "descending") : "none";
+}
+
+function WideTable({ rows, columns, sort, dir, onSort, from, caption }: AttemptsTableProps) {
+  const idActive = sort === "id";
+  const stickyCell = "sticky left-0 z-10 bg-surface pl-4 pr-3 shadow-[1px_0_0_rgba(0,0,0,0.1)]";
   return (
-    <DataTable
-      caption={caption}
-      columns={attemptColumns(unit, `${location.pathname}${location.search}`)}
-      rows={rows}
-      rowKey={(a) => a.id}
-      exportFileName="attempts"
-      emptyMessage="No attempts match these filters."
-      toolbar={toolbar}
-    />
+    <div className="relative hidden overflow-x-auto rounded-card border border-line bg-surface shadow-card sm:block" role="region" aria-label={caption} tabIndex={0}>
+      <table className="w-full border-collapse text-left text-small">
+        <caption className="sr-only">{caption}</caption>
+        <thead>
+          <tr className="border-b border-line-strong align-bottom">
+            <th scope="col" aria-sort={ariaSort(idActive, dir)} className={clsx(stickyCell, "py-2 font-semibold text-muted")}>
+              <SortButton label={attemptFieldNames.id} active={idActive} dir={dir} onClick={() => onSort("id")} />
+            </th>
+            {columns.map((column) => {
+              const active = sort === column.key;
+              return (
+                <th key={column.key} scope="col" aria-sort={ariaSort(active, dir)} className={clsx("px-3 py-2 font-semibold text-muted last:pr-4", column.numeric && "text-right")}>
+                  <SortButton label={column.header} active={active} dir={dir} numeric={column.numeric} onClick={() => onSort(column.key)} />
+                </th>
+              );
+            })}
+          </tr>
+        </thead>
+        <tbody>
+          {rows.map((a) => (
+            <tr key={a.id} className="group border-b border-line last:border-b-0">
+              <th scope="row" className={clsx(stickyCell, "py-2 font-normal whitespace-nowrap group-hover:bg-paper")}>
+                <Link to={attemptHref(a.id, from)} className={linkClass}>
+                  {a.id}
+                </Link>
+              </th>
+              {columns.map((column) => (
+                <td key={column.key} className={clsx("px-3 py-2 align-middle last:pr-4 group-hover:bg-paper", column.numeric ? "text-right tabular-nums whitespace-nowrap" : column.key === "errors" ? "min-w-32" : "whitespace-nowrap")}>
+                  {column.cell(a)}
+                </td>
+              ))}
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
+
+function SortButton({ label, active, dir, numeric, onClick }: { label: string; active: boolean; dir: SortDirection; numeric?: boolean; onClick: () => void }) {
+  return (
+    <button type="button" onClick={onClick} className={clsx("inline-flex items-end gap-1 rounded-sm text-balance hover:text-ink", active && "text-ink", numeric && "flex-row-reverse text-right")}>
+      {label}
+      <svg viewBox="0 0 10 14" className="mb-0.5 h-3.5 w-2.5 shrink-0" aria-hidden="true">
+        <path d="M5 1 9 5.5H1z" fill="currentColor" opacity={active && dir === "asc" ? 1 : 0.3} />
+        <path d="M5 13 1 8.5h8z" fill="currentColor" opacity={active && dir === "desc" ? 1 : 0.3} />
+      </svg>
+    </button>
+  );
+}
+
+/** Phones: the attempt, its result and score on one line; when, who and what went wrong below. */
+function PhoneList({ rows, from, caption }: { rows: readonly AttemptRow[]; from: string; caption: string }) {
+  return (
+    <ul aria-label={caption} className="divide-y divide-line rounded-card border border-line bg-surface shadow-card sm:hidden">
+      {rows.map((a) => (
+        <li key={a.id} className="flex flex-col gap-0.5 px-3 py-2 text-small">
+          <div className="flex items-center justify-between gap-2">
+            <Link to={attemptHref(a.id, from)} className={clsx(linkClass, "min-w-0 truncate")}>
+              {a.id}
+            </Link>
+            <span className="flex shrink-0 items-center gap-2">
+              <ResultBadge passed={a.passed} />
+              <span className="tabular-nums font-semibold" aria-label={`${attemptFieldNames.score} ${Math.round(a.score)}`}>
+                {Math.round(a.score)}
+              </span>
+            </span>
+          </div>
+          <p className="text-muted">
+            {dateTime(a.startedAt)} · <span className="font-mono">{a.learner}</span> · {patientTypeNames[a.profile]}
+          </p>
+          <p className="flex flex-wrap justify-between gap-x-3">
+            <ErrorNames errors={a.errors} none="No errors" />
+            <span className="tabular-nums text-muted">
+              Depth {Math.round(a.metrics.depthOkPct)} % · Rate {Math.round(a.metrics.rateOkPct)} % on target
+            </span>
+          </p>
+        </li>
+      ))}
+    </ul>
   );
 }

@@ -1,7 +1,9 @@
 // My error profile against the network's: for each kind of error, the share of my attempts that showed it
 // beside the share of all attempts in the network, as paired bars.
 import * as Plot from "@observablehq/plot";
+import { Link } from "react-router";
 import type { StandingAnswer } from "../../../../shared/schemas/insight";
+import type { AttemptError } from "../../../../shared/scoring/scoreAttempt";
 import { Chart, type ChartSize } from "../../../components/Chart";
 import type { Column } from "../../../components/DataTable";
 import { ChartLegend, shapeSwatch } from "../ChartLegend";
@@ -25,9 +27,23 @@ export function describeErrorProfile(rows: readonly ErrorProfileRow[], networkSu
   return text;
 }
 
-export function errorProfileColumns(networkSuppressed: boolean, minCount: number): Column<ErrorProfileRow>[] {
+/** `attemptsHref`, when given, makes each error a link to my attempts with it. */
+export function errorProfileColumns(networkSuppressed: boolean, minCount: number, attemptsHref?: (error: AttemptError) => string): Column<ErrorProfileRow>[] {
   return [
-    { key: "label", header: "Error", value: (r) => r.label, wrap: true },
+    {
+      key: "label",
+      header: "Error",
+      value: (r) => r.label,
+      wrap: true,
+      render: (r) =>
+        attemptsHref && r.mine ? (
+          <Link to={attemptsHref(r.error)} className="text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+            {r.label}
+          </Link>
+        ) : (
+          r.label
+        ),
+    },
     { key: "mine", header: "Your attempts (%)", value: (r) => percentValue(r.mine), render: (r) => formatPercent(r.mine), align: "right" },
     {
       key: "network",
@@ -77,13 +93,23 @@ const plot = (rows: readonly ErrorProfileRow[], { width }: ChartSize): Plot.Plot
   };
 };
 
-export function ErrorProfileChart({ rows, networkSuppressed, minCount }: { rows: readonly ErrorProfileRow[]; networkSuppressed: boolean; minCount: number }) {
+export function ErrorProfileChart({
+  rows,
+  networkSuppressed,
+  minCount,
+  attemptsHref,
+}: {
+  rows: readonly ErrorProfileRow[];
+  networkSuppressed: boolean;
+  minCount: number;
+  attemptsHref?: (error: AttemptError) => string;
+}) {
   return (
     <Chart
       title="Your errors against the network's"
       description={describeErrorProfile(rows, networkSuppressed, minCount)}
       data={rows}
-      columns={errorProfileColumns(networkSuppressed, minCount)}
+      columns={errorProfileColumns(networkSuppressed, minCount, attemptsHref)}
       rowKey={(r) => r.error}
       plot={plot}
       exportFileName="error-profile"
