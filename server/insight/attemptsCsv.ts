@@ -1,7 +1,7 @@
 // Every attempt a search selects as CSV, in the search's order: the whole result, not one page. The rows are
 // read in chunks inside one read transaction, so a file never mixes rows from before and after an import.
 // Lengths are in millimetres (the unit the figures are stored in); cells are written by shared/csv.
-import { csvCell, type CsvCell } from "../../shared/csv";
+import { csvLine, SPREADSHEET_CSV, type CsvCell } from "../../shared/csv";
 import type { AttemptRow } from "../../shared/schemas/insight";
 import { attemptFieldNames, errorLabels, feedbackNames, patientTypeNames, resultNames } from "../../shared/vocabulary";
 import type { Db } from "../db/client";
@@ -45,8 +45,9 @@ const columns: readonly [string, (a: AttemptRow) => CsvCell][] = [
   [words.policyVersion, (a) => a.policyVersion],
 ];
 
+/** A spreadsheet file: text that a spreadsheet would run as a formula is neutralised. */
 function line(cells: readonly CsvCell[]): string {
-  return cells.map(csvCell).join(",") + "\r\n";
+  return csvLine(cells, SPREADSHEET_CSV);
 }
 
 /** Hands `write` the header, then the rows a chunk at a time; answers the number of rows written. */
