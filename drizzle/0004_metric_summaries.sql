@@ -40,6 +40,17 @@ CREATE TABLE `attempt_values` (
 --> statement-breakpoint
 CREATE INDEX `attempt_values_instructor_idx` ON `attempt_values` (`metric`,`instructor_id`,`quarter`);--> statement-breakpoint
 CREATE INDEX `attempt_values_site_idx` ON `attempt_values` (`metric`,`site_id`,`quarter`);--> statement-breakpoint
+CREATE TABLE `learner_quarters` (
+	`quarter` text NOT NULL,
+	`learner` text NOT NULL,
+	`attempts` integer NOT NULL,
+	`passed` integer NOT NULL,
+	`first_started` text NOT NULL,
+	`first_id` text NOT NULL,
+	`first_passed` integer NOT NULL,
+	PRIMARY KEY(`quarter`, `learner`)
+) WITHOUT ROWID;
+--> statement-breakpoint
 CREATE TABLE `learner_tallies` (
 	`quarter` text NOT NULL,
 	`learner` text NOT NULL,

@@ -1,7 +1,7 @@
--- Keeps attempt_tallies, attempt_values, network_values and learner_tallies equal to sums over attempts, in
--- the transaction of every write to attempts (import, undo, rescore, policy change, edits). A deleted or
--- changed attempt is taken out of its groups and the changed one put in; groups that fall to zero are removed;
--- a learner's row is recomputed from their attempts when one of them goes or changes.
+-- Keeps attempt_tallies, attempt_values, network_values, learner_tallies and learner_quarters equal to sums
+-- over attempts, in the transaction of every write to attempts (import, undo, rescore, policy change, edits).
+-- A deleted or changed attempt is taken out of its groups and the changed one put in; groups that fall to zero
+-- are removed; a learner's rows are recomputed from their attempts when one of them goes or changes.
 CREATE TRIGGER attempts_tally_insert AFTER INSERT ON attempts BEGIN
   INSERT INTO attempt_tallies (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version, n, passed, judged_pp, judged_pf, judged_fp, judged_ff, with_errors, compressions, err_too_shallow, err_too_deep, err_too_slow, err_too_fast, err_incomplete_recoil, err_low_hands_on, err_long_pause)
   VALUES (new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.policy_version, 1, new.passed, (new.instructor_result IS 'pass' AND new.passed = 1), (new.instructor_result IS 'pass' AND new.passed = 0), (new.instructor_result IS 'fail' AND new.passed = 1), (new.instructor_result IS 'fail' AND new.passed = 0), (new.error_mask != 0), new.compressions, ((new.error_mask >> 0) & 1), ((new.error_mask >> 1) & 1), ((new.error_mask >> 2) & 1), ((new.error_mask >> 3) & 1), ((new.error_mask >> 4) & 1), ((new.error_mask >> 5) & 1), ((new.error_mask >> 6) & 1))
@@ -25,6 +25,12 @@ CREATE TRIGGER attempts_tally_insert AFTER INSERT ON attempts BEGIN
   INSERT INTO learner_tallies (quarter, learner, profile, feedback, site_id, instructor_id, manikin_id, attempts, passed, first_started, first_id, first_passed)
   VALUES (new.quarter, new.learner, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), 1, new.passed, new.started_at, new.id, new.passed)
   ON CONFLICT (quarter, learner, profile, feedback, site_id, instructor_id, manikin_id) DO UPDATE SET attempts = attempts + 1, passed = passed + excluded.passed,
+    first_passed = CASE WHEN (excluded.first_started, excluded.first_id) < (first_started, first_id) THEN excluded.first_passed ELSE first_passed END,
+    first_started = CASE WHEN (excluded.first_started, excluded.first_id) < (first_started, first_id) THEN excluded.first_started ELSE first_started END,
+    first_id = CASE WHEN (excluded.first_started, excluded.first_id) < (first_started, first_id) THEN excluded.first_id ELSE first_id END;
+  INSERT INTO learner_quarters (quarter, learner, attempts, passed, first_started, first_id, first_passed)
+  VALUES (new.quarter, new.learner, 1, new.passed, new.started_at, new.id, new.passed)
+  ON CONFLICT (quarter, learner) DO UPDATE SET attempts = attempts + 1, passed = passed + excluded.passed,
     first_passed = CASE WHEN (excluded.first_started, excluded.first_id) < (first_started, first_id) THEN excluded.first_passed ELSE first_passed END,
     first_started = CASE WHEN (excluded.first_started, excluded.first_id) < (first_started, first_id) THEN excluded.first_started ELSE first_started END,
     first_id = CASE WHEN (excluded.first_started, excluded.first_id) < (first_started, first_id) THEN excluded.first_id ELSE first_id END;
@@ -75,6 +81,12 @@ CREATE TRIGGER attempts_tally_delete AFTER DELETE ON attempts BEGIN
     (SELECT sum(b.passed) FROM attempts b WHERE b.learner = old.learner AND b.quarter = old.quarter AND b.profile = old.profile AND b.feedback = old.feedback AND b.site_id = old.site_id AND b.instructor_id = old.instructor_id AND b.manikin_id IS old.manikin_id),
     a.started_at, a.id, a.passed
   FROM attempts a WHERE a.learner = old.learner AND a.quarter = old.quarter AND a.profile = old.profile AND a.feedback = old.feedback AND a.site_id = old.site_id AND a.instructor_id = old.instructor_id AND a.manikin_id IS old.manikin_id
+  ORDER BY a.started_at, a.id LIMIT 1;
+  DELETE FROM learner_quarters WHERE quarter = old.quarter AND learner = old.learner;
+  INSERT INTO learner_quarters (quarter, learner, attempts, passed, first_started, first_id, first_passed)
+  SELECT a.quarter, a.learner, (SELECT count(*) FROM attempts b WHERE b.learner = old.learner AND b.quarter = old.quarter), (SELECT sum(b.passed) FROM attempts b WHERE b.learner = old.learner AND b.quarter = old.quarter),
+    a.started_at, a.id, a.passed
+  FROM attempts a WHERE a.learner = old.learner AND a.quarter = old.quarter
   ORDER BY a.started_at, a.id LIMIT 1;
 END;
 --> statement-breakpoint
@@ -164,9 +176,28 @@ BEGIN
     a.started_at, a.id, a.passed
   FROM attempts a WHERE a.learner = new.learner AND a.quarter = new.quarter AND a.profile = new.profile AND a.feedback = new.feedback AND a.site_id = new.site_id AND a.instructor_id = new.instructor_id AND a.manikin_id IS new.manikin_id
   ORDER BY a.started_at, a.id LIMIT 1;
+  DELETE FROM learner_quarters WHERE quarter = old.quarter AND learner = old.learner;
+  INSERT INTO learner_quarters (quarter, learner, attempts, passed, first_started, first_id, first_passed)
+  SELECT a.quarter, a.learner, (SELECT count(*) FROM attempts b WHERE b.learner = old.learner AND b.quarter = old.quarter), (SELECT sum(b.passed) FROM attempts b WHERE b.learner = old.learner AND b.quarter = old.quarter),
+    a.started_at, a.id, a.passed
+  FROM attempts a WHERE a.learner = old.learner AND a.quarter = old.quarter
+  ORDER BY a.started_at, a.id LIMIT 1;
+  DELETE FROM learner_quarters WHERE quarter = new.quarter AND learner = new.learner;
+  INSERT INTO learner_quarters (quarter, learner, attempts, passed, first_started, first_id, first_passed)
+  SELECT a.quarter, a.learner, (SELECT count(*) FROM attempts b WHERE b.learner = new.learner AND b.quarter = new.quarter), (SELECT sum(b.passed) FROM attempts b WHERE b.learner = new.learner AND b.quarter = new.quarter),
+    a.started_at, a.id, a.passed
+  FROM attempts a WHERE a.learner = new.learner AND a.quarter = new.quarter
+  ORDER BY a.started_at, a.id LIMIT 1;
 END;
 --> statement-breakpoint
 -- attempts already stored
+INSERT INTO learner_quarters (quarter, learner, attempts, passed, first_started, first_id, first_passed)
+SELECT quarter, learner, count(*), sum(passed), first_started, first_id, first_passed
+FROM (
+  SELECT *, first_value(started_at) OVER w AS first_started, first_value(id) OVER w AS first_id, first_value(passed) OVER w AS first_passed FROM attempts
+  WINDOW w AS (PARTITION BY quarter, learner ORDER BY started_at, id)
+) GROUP BY quarter, learner;
+--> statement-breakpoint
 INSERT INTO learner_tallies (quarter, learner, profile, feedback, site_id, instructor_id, manikin_id, attempts, passed, first_started, first_id, first_passed)
 SELECT quarter, learner, profile, feedback, site_id, instructor_id, coalesce(manikin_id, 0), count(*), sum(passed), first_started, first_id, first_passed
 FROM (

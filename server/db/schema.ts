@@ -367,6 +367,24 @@ export const learnerTallies = sqliteTable(
   ],
 );
 
+/**
+ * The same per learner and quarter over the whole network: the learner outcomes of a network quarter are a
+ * plain sum over these rows. Kept by the same triggers.
+ */
+export const learnerQuarters = sqliteTable(
+  "learner_quarters",
+  {
+    quarter: text().notNull(),
+    learner: text().notNull(),
+    attempts: integer().notNull(),
+    passed: integer().notNull(),
+    firstStarted: text().notNull(),
+    firstId: text().notNull(),
+    firstPassed: integer().notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.quarter, t.learner] })],
+);
+
 export const compressionStreams = sqliteTable(
   "compression_streams",
   {
