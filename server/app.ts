@@ -1,7 +1,6 @@
 // Builds the Express app: security headers, sessions, sign-in, CSRF, the feature routers and the client.
 import fs from "node:fs";
 import path from "node:path";
-import { fileURLToPath } from "node:url";
 import cookieParser from "cookie-parser";
 import express, { Router, type Request, type Response } from "express";
 import session from "express-session";
@@ -24,6 +23,7 @@ import { healthRoutes } from "./ops/healthRoutes";
 import { reportRoutes } from "./reports/routes";
 import { equipmentRoutes } from "./equipment/routes";
 import { insightRoutes } from "./insight/routes";
+import { projectRoot } from "./projectRoot";
 import { policyRoutes } from "./settings/policyRoutes";
 import { sessionSecret } from "./settings/store";
 import { siteRoutes } from "./sites/routes";
@@ -40,7 +40,7 @@ export interface AppOptions {
   logger?: Logger;
 }
 
-const defaultClientDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../dist/client");
+const defaultClientDir = path.join(projectRoot, "dist/client");
 
 /** Feature routers mounted under /api. Each one guards its own routes with `allow(...)`. */
 function featureRouters(db: Db, config: Config, endSessions: EndSessionsAfterPasswordChange, logger: Logger): Router[] {

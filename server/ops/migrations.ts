@@ -1,11 +1,11 @@
 // Which drizzle migration a database has reached, by tag, next to the latest one this program ships.
 import fs from "node:fs";
 import path from "node:path";
-import { fileURLToPath } from "node:url";
 import type Database from "better-sqlite3";
+import { projectRoot } from "../projectRoot";
 
 export const MIGRATIONS_TABLE = "__drizzle_migrations";
-const journalFile = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../../drizzle/meta/_journal.json");
+const journalFile = path.join(projectRoot, "drizzle/meta/_journal.json");
 
 interface JournalEntry {
   tag: string;
