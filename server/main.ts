@@ -10,6 +10,7 @@ import { startLocalMailService } from "./mail/localService";
 import { createLogger } from "./logging/logger";
 import { createMailer } from "./mail/mailer";
 import { alertCoordinators, type BackupProblem } from "./ops/backupAlert";
+import { recordBackup } from "./ops/backupLog";
 import { startBackupSchedule } from "./ops/backupSchedule";
 import { holdServerLock } from "./ops/serverLock";
 import { AppError } from "./errors";
@@ -45,11 +46,11 @@ async function main() {
   // Without SMTP_URL, mail goes to a local SMTP server whose messages land in the outbox, never out.
   const localMail = config.smtpUrl ? null : await startLocalMailService(db);
   const logger = createLogger(config);
-  const app = createApp(db, localMail ? { ...config, smtpUrl: localMail.url } : config, { clientDir, logger });
+  const app = createApp(db, localMail ? { ...config, smtpUrl: localMail.url } : config, { clientDir, logger, localMail: localMail !== null });
   const { dir: backupDir, hourUtc, keep } = config.backups;
   const alertMailer = createMailer(localMail?.url ?? config.smtpUrl);
   const onProblem = (problem: BackupProblem) => alertCoordinators(db, alertMailer, logger, problem);
-  const backups = backupDir ? startBackupSchedule({ dbFile: config.dbFile, dir: backupDir, hourUtc, keep, logger, onProblem }) : null;
+  const backups = backupDir ? startBackupSchedule({ dbFile: config.dbFile, dir: backupDir, hourUtc, keep, logger, onProblem, record: (entry) => recordBackup(db, entry) }) : null;
   const server = app.listen(config.port, () => {
     const address = server.address();
     const port = typeof address === "object" && address ? address.port : config.port;
