@@ -11,6 +11,7 @@ import { registerReport } from "./commands/report";
 import { registerRetention } from "./commands/retention";
 import { registerAgreement } from "./commands/agreement";
 import { registerRestore } from "./commands/restore";
+import { registerSystem } from "./commands/system";
 import { closeContext } from "./context";
 import { handleError } from "./errors";
 
@@ -23,6 +24,7 @@ export function buildProgram(): Command {
   registerDb(program);
   registerBackup(program);
   registerRestore(program);
+  registerSystem(program);
   registerDemo(program);
   registerUsers(program);
   registerImport(program);

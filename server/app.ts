@@ -1,7 +1,6 @@
 // Builds the Express app: security headers, sessions, sign-in, CSRF, the feature routers and the client.
 import fs from "node:fs";
 import path from "node:path";
-import { fileURLToPath } from "node:url";
 import cookieParser from "cookie-parser";
 import express, { Router, type Request, type Response } from "express";
 import session from "express-session";
@@ -21,9 +20,11 @@ import { importRoutes } from "./imports/routes";
 import { createMailer } from "./mail/mailer";
 import { outboxRoutes } from "./mail/routes";
 import { healthRoutes } from "./ops/healthRoutes";
+import { systemRoutes } from "./ops/systemRoutes";
 import { reportRoutes } from "./reports/routes";
 import { equipmentRoutes } from "./equipment/routes";
 import { insightRoutes } from "./insight/routes";
+import { projectRoot } from "./projectRoot";
 import { policyRoutes } from "./settings/policyRoutes";
 import { sessionSecret } from "./settings/store";
 import { siteRoutes } from "./sites/routes";
@@ -38,12 +39,14 @@ export interface AppOptions {
   clientDir?: string | null;
   /** Where request and event lines go; by default a logger at the configured level on standard output. */
   logger?: Logger;
+  /** The local mail service stands in for SMTP_URL (config.smtpUrl then points at it). */
+  localMail?: boolean;
 }
 
-const defaultClientDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../dist/client");
+const defaultClientDir = path.join(projectRoot, "dist/client");
 
 /** Feature routers mounted under /api. Each one guards its own routes with `allow(...)`. */
-function featureRouters(db: Db, config: Config, endSessions: EndSessionsAfterPasswordChange, logger: Logger): Router[] {
+function featureRouters(db: Db, config: Config, endSessions: EndSessionsAfterPasswordChange, logger: Logger, localMail: boolean): Router[] {
   const mailer = createMailer(config.smtpUrl);
   return [
     userRoutes(db, mailer, endSessions),
@@ -54,6 +57,7 @@ function featureRouters(db: Db, config: Config, endSessions: EndSessionsAfterPas
     reportRoutes(db, mailer, logger),
     outboxRoutes(db),
     importRoutes(db, { logger }),
+    systemRoutes(db, { backupDir: config.backups.dir, mail: { smtpUrl: config.smtpUrl, localMail } }),
   ];
 }
 
@@ -109,7 +113,7 @@ export function createApp(db: Db, config: Config, options: AppOptions = {}) {
       signInLimit: options.signInLimit ?? { windowMs: 15 * 60 * 1000, limit: 10 },
     }),
   );
-  for (const router of featureRouters(db, config, endSessions, logger)) api.use(router);
+  for (const router of featureRouters(db, config, endSessions, logger, options.localMail ?? false)) api.use(router);
   api.use(rememberRoute);
   api.use(notFoundHandler);
   app.use("/api", api);

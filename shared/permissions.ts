@@ -40,6 +40,8 @@ export const permissionTable = {
   sendReport: { coordinator: "any" },
   readSettings: { coordinator: "any", quality_lead: "any" },
   editSettings: { coordinator: "any" },
+  /** The installation: database size and growth, backups, imports, mail, version and schema level. */
+  readSystem: { coordinator: "any" },
 } as const satisfies Record<string, Grants>;
 
 export type Permission = keyof typeof permissionTable;

@@ -1,15 +1,15 @@
 // Opens the SQLite file, sets the pragmas every connection needs and applies pending migrations.
 import fs from "node:fs";
 import path from "node:path";
-import { fileURLToPath } from "node:url";
 import Database from "better-sqlite3";
 import { drizzle, type BetterSQLite3Database } from "drizzle-orm/better-sqlite3";
 import { migrate } from "drizzle-orm/better-sqlite3/migrator";
+import { projectRoot } from "../projectRoot";
 import * as schema from "./schema";
 
 export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Database };
 
-const migrationsFolder = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../../drizzle");
+const migrationsFolder = path.join(projectRoot, "drizzle");
 
 export function openDatabase(file: string, options: { migrate?: boolean } = {}): Db {
   if (file !== ":memory:") fs.mkdirSync(path.dirname(path.resolve(file)), { recursive: true });

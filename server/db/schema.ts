@@ -485,3 +485,19 @@ export const mailbox = sqliteTable("mailbox", {
   attachments: text({ mode: "json" }).$type<{ filename: string; contentType: string; size: number }[]>().notNull(),
   raw: blob({ mode: "buffer" }).notNull(),
 });
+
+/** Every backup taken, scheduled or by `quarterbeat backup`, with the result of its verification. */
+export const backupLog = sqliteTable(
+  "backup_log",
+  {
+    id: integer().primaryKey({ autoIncrement: true }),
+    takenAt: text().notNull(),
+    file: text().notNull(),
+    sizeBytes: integer().notNull(),
+    source: text({ enum: ["scheduled", "cli"] }).notNull(),
+    verified: integer({ mode: "boolean" }).notNull(),
+    /** Why verification failed, or what was checked when it passed. */
+    message: text().notNull(),
+  },
+  (t) => [index("backup_log_taken_idx").on(t.takenAt)],
+);

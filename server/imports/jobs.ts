@@ -21,7 +21,9 @@ interface JobState extends ImportJob {
   rejectedPath: string;
 }
 
-const workerUrl = new URL("./worker.mjs", import.meta.url);
+// From source the worker is TypeScript loaded through tsx (worker.mjs); compiled, it is the bundle
+// importWorker.js beside this one in dist/server (scripts/build-server.mjs).
+const workerUrl = new URL(import.meta.url.endsWith(".ts") ? "./worker.mjs" : "./importWorker.js", import.meta.url);
 const KEEP_JOBS = 200;
 
 export class ImportJobs {

@@ -2,8 +2,10 @@
 // backup is more than a day old (the server was down at the hour, or has never taken one). The clock is
 // injected so that tests can run weeks of schedule in a moment.
 import path from "node:path";
+import type { BackupLogEntry } from "../../shared/schemas/system";
 import type { Logger } from "../logging/logger";
 import type { BackupProblem } from "./backupAlert";
+import { verifiedMessage } from "./backupLog";
 import type { KeepCounts } from "./rotation";
 import { listBackups, takeScheduledBackup, type BackupRecord } from "./scheduledBackup";
 
@@ -31,6 +33,8 @@ export interface BackupScheduleOptions {
   clock?: Clock;
   /** Told of a failed backup, and of a missed day (not of the very first backup). */
   onProblem?: (problem: BackupProblem) => Promise<void>;
+  /** Keeps each run's outcome (ops/backupLog.ts in the server). */
+  record?: (entry: BackupLogEntry) => void;
 }
 
 const DAY_MS = 24 * 60 * 60 * 1000;
@@ -68,18 +72,29 @@ export function startBackupSchedule(options: BackupScheduleOptions): BackupSched
     else options.logger.error({ ...fields, problem: record.problem }, "backup failed");
   };
 
+  const record = (entry: Omit<BackupLogEntry, "source">) => {
+    try {
+      options.record?.({ ...entry, source: "scheduled" });
+    } catch (err) {
+      // the backup itself stands; only its record is missing, which the log line says
+      options.logger.error({ event: "backup", err }, "backup not recorded");
+    }
+  };
+
   const run = () => {
     running = running.then(async () => {
       if (stopped) return;
       const started = Date.now();
       const at = clock.now();
       try {
-        const record = await takeScheduledBackup(options.dbFile, options.dir, options.keep, at);
-        logResult(record, Date.now() - started);
-        if (!record.ok) await options.onProblem?.({ kind: "failed", file: record.file, at: record.takenAt, problem: record.problem ?? "unknown" });
+        const result = await takeScheduledBackup(options.dbFile, options.dir, options.keep, at);
+        logResult(result, Date.now() - started);
+        record({ takenAt: result.takenAt, file: result.file, sizeBytes: result.sizeBytes, verified: result.ok, message: result.problem ?? verifiedMessage(result.tables) });
+        if (!result.ok) await options.onProblem?.({ kind: "failed", file: result.file, at: result.takenAt, problem: result.problem ?? "unknown" });
       } catch (err) {
         // e.g. the backup folder cannot be written: the schedule goes on, and the next run tries again
         options.logger.error({ event: "backup", ok: false, err }, "backup failed");
+        record({ takenAt: at.toISOString(), file: options.dir, sizeBytes: 0, verified: false, message: (err as Error).message });
         await options.onProblem?.({ kind: "failed", file: options.dir, at: at.toISOString(), problem: (err as Error).message });
       }
     });

@@ -1,11 +1,11 @@
 // Which drizzle migration a database has reached, by tag, next to the latest one this program ships.
 import fs from "node:fs";
 import path from "node:path";
-import { fileURLToPath } from "node:url";
 import type Database from "better-sqlite3";
+import { projectRoot } from "../projectRoot";
 
 export const MIGRATIONS_TABLE = "__drizzle_migrations";
-const journalFile = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../../drizzle/meta/_journal.json");
+const journalFile = path.join(projectRoot, "drizzle/meta/_journal.json");
 
 interface JournalEntry {
   tag: string;
@@ -13,7 +13,7 @@ interface JournalEntry {
 }
 
 export interface MigrationLevel {
-  /** Tag of the latest applied migration, e.g. "0003_insight_instructor_score_index"; null before the first. */
+  /** Tag of the latest applied migration, e.g. "0006_backup_log"; null before the first. */
   applied: string | null;
   appliedCount: number;
   /** Tag of the latest migration this program knows. */

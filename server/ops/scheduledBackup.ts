@@ -51,23 +51,33 @@ async function copySnapshot(dbFile: string, target: string): Promise<Record<stri
   }
 }
 
+export interface VerifiedCopy {
+  /** False when the copy could not be made or read at all (nothing usable was written). */
+  copied: boolean;
+  /** Why verification failed; null when it passed. */
+  problem: string | null;
+  tables: Record<string, number>;
+}
+
+/** Copies the database to `target` from one snapshot and verifies the copy against that snapshot's row counts. */
+export async function copyAndVerify(dbFile: string, target: string): Promise<VerifiedCopy> {
+  try {
+    const expected = await copySnapshot(dbFile, target);
+    const tables = (await checkQuarterbeatDatabase(target)).tables;
+    return { copied: true, problem: describeMismatch(expected, tables), tables };
+  } catch (err) {
+    return { copied: false, problem: err instanceof Error ? err.message : String(err), tables: {} };
+  }
+}
+
 export async function takeScheduledBackup(dbFile: string, dir: string, keep: KeepCounts, now: Date): Promise<BackupRecord> {
   fs.mkdirSync(dir, { recursive: true });
   const file = path.join(dir, backupFileName(now));
   const staging = `${file}.partial`;
   fs.rmSync(staging, { force: true });
-  let expected: Record<string, number> = {};
-  let problem: string | null = null;
-  let tables: Record<string, number> = {};
-  try {
-    expected = await copySnapshot(dbFile, staging);
-    tables = (await checkQuarterbeatDatabase(staging)).tables;
-    fs.renameSync(staging, file);
-  } catch (err) {
-    problem = err instanceof Error ? err.message : String(err);
-    fs.rmSync(staging, { force: true });
-  }
-  problem ??= describeMismatch(expected, tables);
+  const { copied, problem, tables } = await copyAndVerify(dbFile, staging);
+  if (copied) fs.renameSync(staging, file);
+  else fs.rmSync(staging, { force: true });
   const record: BackupRecord = {
     file,
     takenAt: now.toISOString(),

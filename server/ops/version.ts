@@ -1,8 +1,8 @@
 // The program's version, from package.json so that a release changes it in one place.
 import fs from "node:fs";
 import path from "node:path";
-import { fileURLToPath } from "node:url";
+import { projectRoot } from "../projectRoot";
 
-const packageFile = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../../package.json");
+const packageFile = path.join(projectRoot, "package.json");
 
 export const APP_VERSION: string = (JSON.parse(fs.readFileSync(packageFile, "utf8")) as { version: string }).version;

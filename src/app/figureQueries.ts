@@ -11,6 +11,7 @@ import { importQueries } from "../features/imports/queries";
 import { insightQueries } from "../features/insight/queries";
 import { instructorQueries } from "../features/instructors/queries";
 import { reportQueries } from "../features/report/queries";
+import { systemQueries } from "../features/system/queries";
 
 /** Answers computed from attempts, classes, equipment logs and the scoring policy. */
 export const figureQueryFamilies: readonly QueryKey[] = [
@@ -22,6 +23,8 @@ export const figureQueryFamilies: readonly QueryKey[] = [
   importQueries.all(),
   // A class log can name an instructor the directory has not seen yet.
   instructorQueries.all(),
+  // The System page counts classes, attempts and streams per quarter and lists the last imports.
+  systemQueries.all(),
 ];
 
 /**

@@ -55,6 +55,7 @@ const matrix: Row[] = [
   { method: "put", path: "/api/reports/2026-Q2/notes", body: { actions: "Depth drill first" }, expect: coordinatorOnly },
   { method: "get", path: "/api/report-sends", expect: coordinatorOnly },
   { method: "get", path: "/api/outbox", expect: coordinatorOnly },
+  { method: "get", path: "/api/system", expect: coordinatorOnly },
 ];
 
 /** Row scope: an instructor asking for another instructor's row is told it does not exist. */

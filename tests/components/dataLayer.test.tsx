@@ -20,6 +20,7 @@ import { instructorQueries } from "../../src/features/instructors/queries";
 import { outboxQueries } from "../../src/features/outbox/queries";
 import { reportQueries } from "../../src/features/report/queries";
 import { settingsQueries } from "../../src/features/settings/queries";
+import { systemQueries } from "../../src/features/system/queries";
 import { siteQueries } from "../../src/features/sites/queries";
 import { userQueries } from "../../src/features/users/queries";
 import { fakeServer } from "./testServer";
@@ -104,6 +105,7 @@ describe("query keys", () => {
     { family: settingsQueries.all(), keys: [settingsQueries.policy().queryKey, settingsQueries.versions().queryKey] },
     { family: siteQueries.all(), keys: [siteQueries.list().queryKey] },
     { family: userQueries.all(), keys: [userQueries.list().queryKey] },
+    { family: systemQueries.all(), keys: [systemQueries.report().queryKey] },
   ];
 
   it.each(built)("builds every key of $family under its family", ({ family, keys }) => {
@@ -116,7 +118,7 @@ describe("query keys", () => {
   });
 
   it("invalidates the families whose answers a write of figures changes", () => {
-    expect(figureQueryFamilies.map((key) => key[0])).toEqual(["insight", "errors", "attempts", "equipment", "report", "imports", "instructors"]);
+    expect(figureQueryFamilies.map((key) => key[0])).toEqual(["insight", "errors", "attempts", "equipment", "report", "imports", "instructors", "system"]);
   });
 });
 

@@ -30,6 +30,7 @@ const QUERY_KEYS: Record<string, string[]> = {
   "/api/sites": [],
   "/api/instructors": [],
   "/api/outbox": [],
+  "/api/system": [],
   "/api/outbox/:id/attachment/:index": [],
   "/api/settings/policy": [],
   "/api/settings/policy/versions": [],

@@ -9,17 +9,12 @@ import { Dialog } from "../../components/Dialog";
 import { Notice } from "../../components/Notice";
 import { EmptyState, ErrorState, LoadingState, errorMessage } from "../../components/States";
 import { useCan } from "../auth/useCan";
-import { formatCount, formatDateTime, kindLabels, plural } from "./labels";
+import { formatCount, formatDateTime, importedBy, kindLabels, plural } from "./labels";
 import { importQueries, undoBatch, type RejectedRow } from "./queries";
 
 type Message = { tone: "success" | "error"; text: string } | null;
 
 const sourceLabels: Record<ImportBatch["source"], string> = { web: "web", cli: "command line", seed: "demo data" };
-
-function who(batch: ImportBatch): string {
-  if (batch.userEmail) return batch.userEmail;
-  return batch.source === "seed" ? "Demo data" : "Command line";
-}
 
 export function ImportHistory({ highlightBatch }: { highlightBatch?: number | null }) {
   const mayUndo = useCan("undoImport");
@@ -41,7 +36,7 @@ export function ImportHistory({ highlightBatch }: { highlightBatch?: number | nu
         render: (b) => formatDateTime(b.createdAt),
         sortLabels: { asc: "oldest first", desc: "newest first" },
       },
-      { key: "who", header: "Who", value: (b) => who(b), render: (b) => <Who batch={b} />, wrap: true },
+      { key: "who", header: "Who", value: (b) => importedBy(b), render: (b) => <Who batch={b} />, wrap: true },
       {
         key: "file",
         header: "File",
@@ -169,7 +164,7 @@ export function ImportHistory({ highlightBatch }: { highlightBatch?: number | nu
 /** The importer's address, allowed to break before the "@" so the table stays narrow. */
 function Who({ batch }: { batch: ImportBatch }) {
   const email = batch.userEmail;
-  if (!email || !email.includes("@")) return <span title={`via ${sourceLabels[batch.source]}`}>{who(batch)}</span>;
+  if (!email || !email.includes("@")) return <span title={`via ${sourceLabels[batch.source]}`}>{importedBy(batch)}</span>;
   const at = email.indexOf("@");
   return (
     <span title={`${email}, via ${sourceLabels[batch.source]}`}>
@@ -282,7 +277,7 @@ function UndoDialog({ batch, onClose, onDone }: { batch: ImportBatch | null; onC
       {batch && (
         <div className="flex flex-col gap-3">
           <p>
-            <strong>{batch.fileName}</strong> ({kindLabels[batch.kind].toLowerCase()}), imported {formatDateTime(batch.createdAt)} by {who(batch)}.
+            <strong>{batch.fileName}</strong> ({kindLabels[batch.kind].toLowerCase()}), imported {formatDateTime(batch.createdAt)} by {importedBy(batch)}.
           </p>
           <p>Undo takes this import back out of Quarterbeat:</p>
           <ul className="list-disc pl-5 text-small">

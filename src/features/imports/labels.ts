@@ -1,5 +1,6 @@
 // Words and number formats shared by the import pages.
 import type { ImportKind } from "../../../shared/domain";
+import type { ImportBatch } from "../../../shared/import/api";
 
 export const kindLabels: Record<ImportKind, string> = {
   classes: "Class logs",
@@ -14,6 +15,12 @@ export const kindHints: Record<ImportKind, string> = {
   compressions: "One row per compression: time, depth and release, grouped into attempts by attempt id.",
   equipment: "One row per event in a manikin's life: commissioned, parts replaced, serviced, faults, retired.",
 };
+
+/** Who made a batch: the signed-in user's address, or where it came from without one. */
+export function importedBy(batch: ImportBatch): string {
+  if (batch.userEmail) return batch.userEmail;
+  return batch.source === "seed" ? "Demo data" : "Command line";
+}
 
 export const unitLabels = {
   depth: { mm: "millimetres (mm)", cm: "centimetres (cm)", in: "inches (in)" },

@@ -12,6 +12,7 @@ import { startBackupSchedule, nextRunAfter, type Clock } from "../../../server/o
 import { backupsToKeep } from "../../../server/ops/rotation";
 import { backupFileName, listBackups, type BackupRecord } from "../../../server/ops/scheduledBackup";
 import { createSite } from "../../../server/sites/service";
+import type { BackupLogEntry } from "../../../shared/schemas/system";
 import { tempDbFile } from "../../helpers/testApp";
 
 const KEEP = { daily: 7, weekly: 4, monthly: 12 };
@@ -90,7 +91,8 @@ describe("the backup schedule", () => {
     const time = fakeClock("2026-01-01T12:00:00Z");
     const { lines, logger } = captureLogger();
     const problems: BackupProblem[] = [];
-    const schedule = startBackupSchedule({ dbFile, dir, hourUtc: 3, keep: KEEP, logger, clock: time.clock, onProblem: async (p) => void problems.push(p) });
+    const records: BackupLogEntry[] = [];
+    const schedule = startBackupSchedule({ dbFile, dir, hourUtc: 3, keep: KEEP, logger, clock: time.clock, onProblem: async (p) => void problems.push(p), record: (entry) => void records.push(entry) });
     await time.settle();
     expect(lines[0]).toMatchObject({ level: 40, event: "backup", lastBackupAt: null });
     expect(listBackups(dir).map((b) => path.basename(b.file))).toEqual([backupFileName(new Date("2026-01-01T12:00:00Z"))]);
@@ -113,6 +115,16 @@ describe("the backup schedule", () => {
     expect(verified).toHaveLength(60); // the catch-up copy and 59 scheduled days
     expect(verified.every((line) => line.ok === true && typeof line.durationMs === "number")).toBe(true);
     expect(problems).toEqual([]); // the first backup ever is not a missed one
+    // every run is recorded for the System page, kept copies and rotated ones alike
+    expect(records).toHaveLength(60);
+    expect(records.at(-1)).toEqual({
+      takenAt: "2026-03-01T03:00:00.000Z",
+      file: path.join(dir, kept[kept.length - 1]),
+      sizeBytes: fs.statSync(path.join(dir, kept[kept.length - 1])).size,
+      source: "scheduled",
+      verified: true,
+      message: expect.stringMatching(/^Integrity check passed; \d+ rows in \d+ tables/),
+    });
   });
 
   it("logs a failed backup and deletes nothing when a copy cannot be made", { timeout: 60_000 }, async () => {
@@ -124,7 +136,9 @@ describe("the backup schedule", () => {
     const { lines, logger } = captureLogger();
     const problems: BackupProblem[] = [];
     const onProblem = async (p: BackupProblem) => void problems.push(p);
-    const schedule = startBackupSchedule({ dbFile: path.join(dir, "no-such-database.sqlite"), dir, hourUtc: 3, keep: { daily: 1, weekly: 0, monthly: 0 }, logger, clock: time.clock, onProblem });
+    const records: BackupLogEntry[] = [];
+    const record = (entry: BackupLogEntry) => void records.push(entry);
+    const schedule = startBackupSchedule({ dbFile: path.join(dir, "no-such-database.sqlite"), dir, hourUtc: 3, keep: { daily: 1, weekly: 0, monthly: 0 }, logger, clock: time.clock, onProblem, record });
     await time.settle();
     schedule.stop();
     // the newest copy is from 2026-01-02: a missed day, then the catch-up copy fails
@@ -134,6 +148,7 @@ describe("the backup schedule", () => {
     ]);
     expect(lines.find((line) => line.msg === "backup failed")).toMatchObject({ level: 50, ok: false, problem: expect.stringMatching(/no-such-database|unable to open|directory does not exist/) });
     expect(listBackups(dir).map((b) => b.file).sort()).toEqual(old);
+    expect(records).toEqual([expect.objectContaining({ takenAt: "2026-02-01T12:00:00.000Z", source: "scheduled", verified: false, sizeBytes: 0, message: problems[1].kind === "failed" ? problems[1].problem : "" })]);
   });
 
   it("waits for the hour when the newest backup is less than a day old", async () => {
