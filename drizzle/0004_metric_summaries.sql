@@ -48,9 +48,12 @@ CREATE TABLE `learner_quarters` (
 	`first_started` text NOT NULL,
 	`first_id` text NOT NULL,
 	`first_passed` integer NOT NULL,
+	`prev_quarter` text,
+	`prev_pass_quarter` text,
 	PRIMARY KEY(`quarter`, `learner`)
 ) WITHOUT ROWID;
 --> statement-breakpoint
+CREATE INDEX `learner_quarters_learner_idx` ON `learner_quarters` (`learner`,`quarter`);--> statement-breakpoint
 CREATE TABLE `learner_tallies` (
 	`quarter` text NOT NULL,
 	`learner` text NOT NULL,
@@ -68,6 +71,29 @@ CREATE TABLE `learner_tallies` (
 ) WITHOUT ROWID;
 --> statement-breakpoint
 CREATE INDEX `learner_tallies_instructor_idx` ON `learner_tallies` (`instructor_id`,`quarter`);--> statement-breakpoint
+CREATE TABLE `network_tallies` (
+	`quarter` text NOT NULL,
+	`profile` text NOT NULL,
+	`feedback` text NOT NULL,
+	`policy_version` integer NOT NULL,
+	`n` integer NOT NULL,
+	`passed` integer NOT NULL,
+	`judged_pp` integer NOT NULL,
+	`judged_pf` integer NOT NULL,
+	`judged_fp` integer NOT NULL,
+	`judged_ff` integer NOT NULL,
+	`with_errors` integer NOT NULL,
+	`compressions` integer NOT NULL,
+	`err_too_shallow` integer NOT NULL,
+	`err_too_deep` integer NOT NULL,
+	`err_too_slow` integer NOT NULL,
+	`err_too_fast` integer NOT NULL,
+	`err_incomplete_recoil` integer NOT NULL,
+	`err_low_hands_on` integer NOT NULL,
+	`err_long_pause` integer NOT NULL,
+	PRIMARY KEY(`quarter`, `profile`, `feedback`, `policy_version`)
+) WITHOUT ROWID;
+--> statement-breakpoint
 CREATE TABLE `network_values` (
 	`metric` text NOT NULL,
 	`quarter` text NOT NULL,

@@ -1,11 +1,15 @@
--- Keeps attempt_tallies, attempt_values, network_values, learner_tallies and learner_quarters equal to sums
--- over attempts, in the transaction of every write to attempts (import, undo, rescore, policy change, edits).
--- A deleted or changed attempt is taken out of its groups and the changed one put in; groups that fall to zero
--- are removed; a learner's rows are recomputed from their attempts when one of them goes or changes.
+-- Keeps the attempt summaries (attempt_tallies, network_tallies, attempt_values, network_values,
+-- learner_tallies, learner_quarters) equal to sums over attempts, in the transaction of every write to attempts
+-- (import, undo, rescore, policy change, edits). A deleted or changed attempt is taken out of its groups and the
+-- changed one put in; groups that fall to zero are removed; a learner's rows are recomputed from their attempts
+-- when one of them goes or changes.
 CREATE TRIGGER attempts_tally_insert AFTER INSERT ON attempts BEGIN
   INSERT INTO attempt_tallies (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version, n, passed, judged_pp, judged_pf, judged_fp, judged_ff, with_errors, compressions, err_too_shallow, err_too_deep, err_too_slow, err_too_fast, err_incomplete_recoil, err_low_hands_on, err_long_pause)
   VALUES (new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.policy_version, 1, new.passed, (new.instructor_result IS 'pass' AND new.passed = 1), (new.instructor_result IS 'pass' AND new.passed = 0), (new.instructor_result IS 'fail' AND new.passed = 1), (new.instructor_result IS 'fail' AND new.passed = 0), (new.error_mask != 0), new.compressions, ((new.error_mask >> 0) & 1), ((new.error_mask >> 1) & 1), ((new.error_mask >> 2) & 1), ((new.error_mask >> 3) & 1), ((new.error_mask >> 4) & 1), ((new.error_mask >> 5) & 1), ((new.error_mask >> 6) & 1))
   ON CONFLICT (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version) DO UPDATE SET n = n + excluded.n, passed = passed + excluded.passed, judged_pp = judged_pp + excluded.judged_pp, judged_pf = judged_pf + excluded.judged_pf, judged_fp = judged_fp + excluded.judged_fp, judged_ff = judged_ff + excluded.judged_ff, with_errors = with_errors + excluded.with_errors, compressions = compressions + excluded.compressions, err_too_shallow = err_too_shallow + excluded.err_too_shallow, err_too_deep = err_too_deep + excluded.err_too_deep, err_too_slow = err_too_slow + excluded.err_too_slow, err_too_fast = err_too_fast + excluded.err_too_fast, err_incomplete_recoil = err_incomplete_recoil + excluded.err_incomplete_recoil, err_low_hands_on = err_low_hands_on + excluded.err_low_hands_on, err_long_pause = err_long_pause + excluded.err_long_pause;
+  INSERT INTO network_tallies (quarter, profile, feedback, policy_version, n, passed, judged_pp, judged_pf, judged_fp, judged_ff, with_errors, compressions, err_too_shallow, err_too_deep, err_too_slow, err_too_fast, err_incomplete_recoil, err_low_hands_on, err_long_pause)
+  VALUES (new.quarter, new.profile, new.feedback, new.policy_version, 1, new.passed, (new.instructor_result IS 'pass' AND new.passed = 1), (new.instructor_result IS 'pass' AND new.passed = 0), (new.instructor_result IS 'fail' AND new.passed = 1), (new.instructor_result IS 'fail' AND new.passed = 0), (new.error_mask != 0), new.compressions, ((new.error_mask >> 0) & 1), ((new.error_mask >> 1) & 1), ((new.error_mask >> 2) & 1), ((new.error_mask >> 3) & 1), ((new.error_mask >> 4) & 1), ((new.error_mask >> 5) & 1), ((new.error_mask >> 6) & 1))
+  ON CONFLICT (quarter, profile, feedback, policy_version) DO UPDATE SET n = n + excluded.n, passed = passed + excluded.passed, judged_pp = judged_pp + excluded.judged_pp, judged_pf = judged_pf + excluded.judged_pf, judged_fp = judged_fp + excluded.judged_fp, judged_ff = judged_ff + excluded.judged_ff, with_errors = with_errors + excluded.with_errors, compressions = compressions + excluded.compressions, err_too_shallow = err_too_shallow + excluded.err_too_shallow, err_too_deep = err_too_deep + excluded.err_too_deep, err_too_slow = err_too_slow + excluded.err_too_slow, err_too_fast = err_too_fast + excluded.err_too_fast, err_incomplete_recoil = err_incomplete_recoil + excluded.err_incomplete_recoil, err_low_hands_on = err_low_hands_on + excluded.err_low_hands_on, err_long_pause = err_long_pause + excluded.err_long_pause;
   INSERT INTO attempt_values (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value, count)
   VALUES
     ('score', new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.score, 1),
@@ -42,6 +46,10 @@ CREATE TRIGGER attempts_tally_delete AFTER DELETE ON attempts BEGIN
   ON CONFLICT (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version) DO UPDATE SET n = n + excluded.n, passed = passed + excluded.passed, judged_pp = judged_pp + excluded.judged_pp, judged_pf = judged_pf + excluded.judged_pf, judged_fp = judged_fp + excluded.judged_fp, judged_ff = judged_ff + excluded.judged_ff, with_errors = with_errors + excluded.with_errors, compressions = compressions + excluded.compressions, err_too_shallow = err_too_shallow + excluded.err_too_shallow, err_too_deep = err_too_deep + excluded.err_too_deep, err_too_slow = err_too_slow + excluded.err_too_slow, err_too_fast = err_too_fast + excluded.err_too_fast, err_incomplete_recoil = err_incomplete_recoil + excluded.err_incomplete_recoil, err_low_hands_on = err_low_hands_on + excluded.err_low_hands_on, err_long_pause = err_long_pause + excluded.err_long_pause;
   DELETE FROM attempt_tallies WHERE quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND site_id = old.site_id
     AND instructor_id = old.instructor_id AND manikin_id = coalesce(old.manikin_id, 0) AND policy_version = old.policy_version AND n = 0;
+  INSERT INTO network_tallies (quarter, profile, feedback, policy_version, n, passed, judged_pp, judged_pf, judged_fp, judged_ff, with_errors, compressions, err_too_shallow, err_too_deep, err_too_slow, err_too_fast, err_incomplete_recoil, err_low_hands_on, err_long_pause)
+  VALUES (old.quarter, old.profile, old.feedback, old.policy_version, -1, -old.passed, -(old.instructor_result IS 'pass' AND old.passed = 1), -(old.instructor_result IS 'pass' AND old.passed = 0), -(old.instructor_result IS 'fail' AND old.passed = 1), -(old.instructor_result IS 'fail' AND old.passed = 0), -(old.error_mask != 0), -old.compressions, -((old.error_mask >> 0) & 1), -((old.error_mask >> 1) & 1), -((old.error_mask >> 2) & 1), -((old.error_mask >> 3) & 1), -((old.error_mask >> 4) & 1), -((old.error_mask >> 5) & 1), -((old.error_mask >> 6) & 1))
+  ON CONFLICT (quarter, profile, feedback, policy_version) DO UPDATE SET n = n + excluded.n, passed = passed + excluded.passed, judged_pp = judged_pp + excluded.judged_pp, judged_pf = judged_pf + excluded.judged_pf, judged_fp = judged_fp + excluded.judged_fp, judged_ff = judged_ff + excluded.judged_ff, with_errors = with_errors + excluded.with_errors, compressions = compressions + excluded.compressions, err_too_shallow = err_too_shallow + excluded.err_too_shallow, err_too_deep = err_too_deep + excluded.err_too_deep, err_too_slow = err_too_slow + excluded.err_too_slow, err_too_fast = err_too_fast + excluded.err_too_fast, err_incomplete_recoil = err_incomplete_recoil + excluded.err_incomplete_recoil, err_low_hands_on = err_low_hands_on + excluded.err_low_hands_on, err_long_pause = err_long_pause + excluded.err_long_pause;
+  DELETE FROM network_tallies WHERE quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND policy_version = old.policy_version AND n = 0;
   INSERT INTO attempt_values (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value, count)
   VALUES
     ('score', old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.score, -1),
@@ -101,6 +109,13 @@ BEGIN
   INSERT INTO attempt_tallies (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version, n, passed, judged_pp, judged_pf, judged_fp, judged_ff, with_errors, compressions, err_too_shallow, err_too_deep, err_too_slow, err_too_fast, err_incomplete_recoil, err_low_hands_on, err_long_pause)
   VALUES (new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.policy_version, 1, new.passed, (new.instructor_result IS 'pass' AND new.passed = 1), (new.instructor_result IS 'pass' AND new.passed = 0), (new.instructor_result IS 'fail' AND new.passed = 1), (new.instructor_result IS 'fail' AND new.passed = 0), (new.error_mask != 0), new.compressions, ((new.error_mask >> 0) & 1), ((new.error_mask >> 1) & 1), ((new.error_mask >> 2) & 1), ((new.error_mask >> 3) & 1), ((new.error_mask >> 4) & 1), ((new.error_mask >> 5) & 1), ((new.error_mask >> 6) & 1))
   ON CONFLICT (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version) DO UPDATE SET n = n + excluded.n, passed = passed + excluded.passed, judged_pp = judged_pp + excluded.judged_pp, judged_pf = judged_pf + excluded.judged_pf, judged_fp = judged_fp + excluded.judged_fp, judged_ff = judged_ff + excluded.judged_ff, with_errors = with_errors + excluded.with_errors, compressions = compressions + excluded.compressions, err_too_shallow = err_too_shallow + excluded.err_too_shallow, err_too_deep = err_too_deep + excluded.err_too_deep, err_too_slow = err_too_slow + excluded.err_too_slow, err_too_fast = err_too_fast + excluded.err_too_fast, err_incomplete_recoil = err_incomplete_recoil + excluded.err_incomplete_recoil, err_low_hands_on = err_low_hands_on + excluded.err_low_hands_on, err_long_pause = err_long_pause + excluded.err_long_pause;
+  INSERT INTO network_tallies (quarter, profile, feedback, policy_version, n, passed, judged_pp, judged_pf, judged_fp, judged_ff, with_errors, compressions, err_too_shallow, err_too_deep, err_too_slow, err_too_fast, err_incomplete_recoil, err_low_hands_on, err_long_pause)
+  VALUES (old.quarter, old.profile, old.feedback, old.policy_version, -1, -old.passed, -(old.instructor_result IS 'pass' AND old.passed = 1), -(old.instructor_result IS 'pass' AND old.passed = 0), -(old.instructor_result IS 'fail' AND old.passed = 1), -(old.instructor_result IS 'fail' AND old.passed = 0), -(old.error_mask != 0), -old.compressions, -((old.error_mask >> 0) & 1), -((old.error_mask >> 1) & 1), -((old.error_mask >> 2) & 1), -((old.error_mask >> 3) & 1), -((old.error_mask >> 4) & 1), -((old.error_mask >> 5) & 1), -((old.error_mask >> 6) & 1))
+  ON CONFLICT (quarter, profile, feedback, policy_version) DO UPDATE SET n = n + excluded.n, passed = passed + excluded.passed, judged_pp = judged_pp + excluded.judged_pp, judged_pf = judged_pf + excluded.judged_pf, judged_fp = judged_fp + excluded.judged_fp, judged_ff = judged_ff + excluded.judged_ff, with_errors = with_errors + excluded.with_errors, compressions = compressions + excluded.compressions, err_too_shallow = err_too_shallow + excluded.err_too_shallow, err_too_deep = err_too_deep + excluded.err_too_deep, err_too_slow = err_too_slow + excluded.err_too_slow, err_too_fast = err_too_fast + excluded.err_too_fast, err_incomplete_recoil = err_incomplete_recoil + excluded.err_incomplete_recoil, err_low_hands_on = err_low_hands_on + excluded.err_low_hands_on, err_long_pause = err_long_pause + excluded.err_long_pause;
+  DELETE FROM network_tallies WHERE quarter = old.quarter AND profile = old.profile AND feedback = old.feedback AND policy_version = old.policy_version AND n = 0;
+  INSERT INTO network_tallies (quarter, profile, feedback, policy_version, n, passed, judged_pp, judged_pf, judged_fp, judged_ff, with_errors, compressions, err_too_shallow, err_too_deep, err_too_slow, err_too_fast, err_incomplete_recoil, err_low_hands_on, err_long_pause)
+  VALUES (new.quarter, new.profile, new.feedback, new.policy_version, 1, new.passed, (new.instructor_result IS 'pass' AND new.passed = 1), (new.instructor_result IS 'pass' AND new.passed = 0), (new.instructor_result IS 'fail' AND new.passed = 1), (new.instructor_result IS 'fail' AND new.passed = 0), (new.error_mask != 0), new.compressions, ((new.error_mask >> 0) & 1), ((new.error_mask >> 1) & 1), ((new.error_mask >> 2) & 1), ((new.error_mask >> 3) & 1), ((new.error_mask >> 4) & 1), ((new.error_mask >> 5) & 1), ((new.error_mask >> 6) & 1))
+  ON CONFLICT (quarter, profile, feedback, policy_version) DO UPDATE SET n = n + excluded.n, passed = passed + excluded.passed, judged_pp = judged_pp + excluded.judged_pp, judged_pf = judged_pf + excluded.judged_pf, judged_fp = judged_fp + excluded.judged_fp, judged_ff = judged_ff + excluded.judged_ff, with_errors = with_errors + excluded.with_errors, compressions = compressions + excluded.compressions, err_too_shallow = err_too_shallow + excluded.err_too_shallow, err_too_deep = err_too_deep + excluded.err_too_deep, err_too_slow = err_too_slow + excluded.err_too_slow, err_too_fast = err_too_fast + excluded.err_too_fast, err_incomplete_recoil = err_incomplete_recoil + excluded.err_incomplete_recoil, err_low_hands_on = err_low_hands_on + excluded.err_low_hands_on, err_long_pause = err_long_pause + excluded.err_long_pause;
 END;
 --> statement-breakpoint
 CREATE TRIGGER attempts_values_update AFTER UPDATE OF quarter, profile, feedback, site_id, instructor_id, manikin_id, score, depth_ok_pct, rate_ok_pct, recoil_ok_pct, hands_on_pct ON attempts
@@ -190,6 +205,30 @@ BEGIN
   ORDER BY a.started_at, a.id LIMIT 1;
 END;
 --> statement-breakpoint
+-- a learner's previous quarters (with attempts, with a pass), so that a range counts each learner once
+CREATE TRIGGER learner_quarters_insert AFTER INSERT ON learner_quarters BEGIN
+  UPDATE learner_quarters SET
+    prev_quarter = (SELECT max(p.quarter) FROM learner_quarters p WHERE p.learner = learner_quarters.learner AND p.quarter < learner_quarters.quarter),
+    prev_pass_quarter = (SELECT max(p.quarter) FROM learner_quarters p WHERE p.learner = learner_quarters.learner AND p.quarter < learner_quarters.quarter AND p.passed > 0)
+  WHERE learner = new.learner AND quarter >= new.quarter;
+END;
+--> statement-breakpoint
+CREATE TRIGGER learner_quarters_delete AFTER DELETE ON learner_quarters BEGIN
+  UPDATE learner_quarters SET
+    prev_quarter = (SELECT max(p.quarter) FROM learner_quarters p WHERE p.learner = learner_quarters.learner AND p.quarter < learner_quarters.quarter),
+    prev_pass_quarter = (SELECT max(p.quarter) FROM learner_quarters p WHERE p.learner = learner_quarters.learner AND p.quarter < learner_quarters.quarter AND p.passed > 0)
+  WHERE learner = old.learner AND quarter > old.quarter;
+END;
+--> statement-breakpoint
+CREATE TRIGGER learner_quarters_pass AFTER UPDATE OF passed ON learner_quarters
+  WHEN (old.passed > 0) <> (new.passed > 0)
+BEGIN
+  UPDATE learner_quarters SET
+    prev_quarter = (SELECT max(p.quarter) FROM learner_quarters p WHERE p.learner = learner_quarters.learner AND p.quarter < learner_quarters.quarter),
+    prev_pass_quarter = (SELECT max(p.quarter) FROM learner_quarters p WHERE p.learner = learner_quarters.learner AND p.quarter < learner_quarters.quarter AND p.passed > 0)
+  WHERE learner = new.learner AND quarter > new.quarter;
+END;
+--> statement-breakpoint
 -- attempts already stored
 INSERT INTO learner_quarters (quarter, learner, attempts, passed, first_started, first_id, first_passed)
 SELECT quarter, learner, count(*), sum(passed), first_started, first_id, first_passed
@@ -212,6 +251,14 @@ SELECT quarter, profile, feedback, site_id, instructor_id, coalesce(manikin_id, 
   sum(error_mask != 0), sum(compressions),
   sum((error_mask >> 0) & 1), sum((error_mask >> 1) & 1), sum((error_mask >> 2) & 1), sum((error_mask >> 3) & 1), sum((error_mask >> 4) & 1), sum((error_mask >> 5) & 1), sum((error_mask >> 6) & 1)
 FROM attempts GROUP BY quarter, profile, feedback, site_id, instructor_id, coalesce(manikin_id, 0), policy_version;
+--> statement-breakpoint
+INSERT INTO network_tallies (quarter, profile, feedback, policy_version, n, passed, judged_pp, judged_pf, judged_fp, judged_ff, with_errors, compressions, err_too_shallow, err_too_deep, err_too_slow, err_too_fast, err_incomplete_recoil, err_low_hands_on, err_long_pause)
+SELECT quarter, profile, feedback, policy_version, sum(n), sum(passed), sum(judged_pp), sum(judged_pf), sum(judged_fp), sum(judged_ff), sum(with_errors), sum(compressions), sum(err_too_shallow), sum(err_too_deep), sum(err_too_slow), sum(err_too_fast), sum(err_incomplete_recoil), sum(err_low_hands_on), sum(err_long_pause)
+FROM attempt_tallies GROUP BY quarter, profile, feedback, policy_version;
+--> statement-breakpoint
+UPDATE learner_quarters SET
+  prev_quarter = (SELECT max(p.quarter) FROM learner_quarters p WHERE p.learner = learner_quarters.learner AND p.quarter < learner_quarters.quarter),
+  prev_pass_quarter = (SELECT max(p.quarter) FROM learner_quarters p WHERE p.learner = learner_quarters.learner AND p.quarter < learner_quarters.quarter AND p.passed > 0);
 --> statement-breakpoint
 INSERT INTO attempt_values (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value, count)
 SELECT 'score', quarter, profile, feedback, site_id, instructor_id, coalesce(manikin_id, 0), score, count(*)

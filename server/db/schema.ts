@@ -295,6 +295,33 @@ export const attemptTallies = sqliteTable(
   ],
 );
 
+/** attempt_tallies summed over sites, instructors and manikins: network figures read a few rows per quarter. */
+export const networkTallies = sqliteTable(
+  "network_tallies",
+  {
+    quarter: text().notNull(),
+    profile: text({ enum: patientTypes }).notNull(),
+    feedback: text({ enum: feedbackModes }).notNull(),
+    policyVersion: integer().notNull(),
+    n: integer().notNull(),
+    passed: integer().notNull(),
+    judgedPp: integer().notNull(),
+    judgedPf: integer().notNull(),
+    judgedFp: integer().notNull(),
+    judgedFf: integer().notNull(),
+    withErrors: integer().notNull(),
+    compressions: integer().notNull(),
+    errTooShallow: integer().notNull(),
+    errTooDeep: integer().notNull(),
+    errTooSlow: integer().notNull(),
+    errTooFast: integer().notNull(),
+    errIncompleteRecoil: integer().notNull(),
+    errLowHandsOn: integer().notNull(),
+    errLongPause: integer().notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.quarter, t.profile, t.feedback, t.policyVersion] })],
+);
+
 const summaryMetrics = ["score", "depth_ok_pct", "rate_ok_pct", "recoil_ok_pct", "hands_on_pct"] as const;
 
 /**
@@ -368,8 +395,8 @@ export const learnerTallies = sqliteTable(
 );
 
 /**
- * The same per learner and quarter over the whole network: the learner outcomes of a network quarter are a
- * plain sum over these rows. Kept by the same triggers.
+ * The same per learner and quarter over the whole network, with the learner's previous quarters: the learner
+ * outcomes of a network quarter or range are a plain sum over these rows. Kept by the same triggers.
  */
 export const learnerQuarters = sqliteTable(
   "learner_quarters",
@@ -381,8 +408,11 @@ export const learnerQuarters = sqliteTable(
     firstStarted: text().notNull(),
     firstId: text().notNull(),
     firstPassed: integer().notNull(),
+    /** The learner's latest earlier quarter with attempts, and with a pass: a range counts each learner once. */
+    prevQuarter: text(),
+    prevPassQuarter: text(),
   },
-  (t) => [primaryKey({ columns: [t.quarter, t.learner] })],
+  (t) => [primaryKey({ columns: [t.quarter, t.learner] }), index("learner_quarters_learner_idx").on(t.learner, t.quarter)],
 );
 
 export const compressionStreams = sqliteTable(
@@ -487,6 +517,7 @@ export const mailbox = sqliteTable("mailbox", {
 });
 
 /** Every backup taken, scheduled or by `quarterbeat backup`, with the result of its verification. */
+
 export const backupLog = sqliteTable(
   "backup_log",
   {

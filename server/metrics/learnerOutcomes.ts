@@ -1,6 +1,6 @@
 // Outcomes per learner rather than per attempt, from the pseudonymous learner codes: how many learners were
-// measured, how many passed on their first attempt (their earliest attempt among the chosen ones, by start
-// time, ties by attempt id) and how many passed at least once. Recorded completion in the class logs counts
+// measured, how many passed on their first attempt (their earliest attempt among the chosen ones: in their
+// earliest quarter of the period, by start time, ties by attempt id) and how many passed at least once. Recorded completion in the class logs counts
 // learners, so "passed at least once" is the like-for-like figure to set beside it. One definition, used by
 // the overview, the funder report and the statistics command; read from learner_tallies (each learner's
 // attempts, passes and earliest attempt per group) or, for the whole network, learner_quarters (the same per
@@ -24,25 +24,29 @@ function outcomesOf(row: OutcomeRow): LearnerOutcomes {
 
 export function learnerOutcomes(db: Db, scope: SummaryScope): LearnerOutcomes {
   const networkWide = scope.siteId === null && scope.profile === null && scope.feedback === null && scope.instructorId === null && scope.manikinId === null;
-  if (networkWide && scope.from === scope.to) {
-    // one network quarter: each learner is one row
+  if (networkWide) {
+    // each learner counts once, at their earliest quarter in the period (the row whose previous quarter lies
+    // before it), and as passed at least once at their earliest quarter with a pass in the period
+    const firstInPeriod = sql`(${learnerQuarters.prevQuarter} IS NULL OR ${learnerQuarters.prevQuarter} < ${scope.from})`;
+    const firstPassInPeriod = sql`(${learnerQuarters.prevPassQuarter} IS NULL OR ${learnerQuarters.prevPassQuarter} < ${scope.from})`;
     return outcomesOf(
       db.get<OutcomeRow>(sql`
-        SELECT count(*) AS learners, sum(${learnerQuarters.firstPassed}) AS first_passed, sum(${learnerQuarters.passed} > 0) AS ever_passed
-        FROM ${learnerQuarters} WHERE ${learnerQuarters.quarter} = ${scope.from}`),
+        SELECT coalesce(sum(${firstInPeriod}), 0) AS learners,
+          sum(CASE WHEN ${firstInPeriod} THEN ${learnerQuarters.firstPassed} ELSE 0 END) AS first_passed,
+          sum(${learnerQuarters.passed} > 0 AND ${firstPassInPeriod}) AS ever_passed
+        FROM ${learnerQuarters} WHERE ${learnerQuarters.quarter} BETWEEN ${scope.from} AND ${scope.to}`),
     );
   }
-  // several rows per learner (several quarters or groups): the earliest decides the first attempt
-  const [table, where] = networkWide
-    ? [learnerQuarters, sql`${learnerQuarters.quarter} BETWEEN ${scope.from} AND ${scope.to}`]
-    : [learnerTallies, scopeConditions(learnerTallies, scope)];
+  // narrowed to a site, instructor, manikin, patient type or feedback display: several rows per learner, of
+  // which the earliest (quarter, then start time, then id) decides the first attempt
   return outcomesOf(
     db.get<OutcomeRow>(sql`
       WITH ranked AS (
-        SELECT ${table.firstPassed} AS first_passed,
-          row_number() OVER (PARTITION BY ${table.learner} ORDER BY ${table.firstStarted}, ${table.firstId}) AS k,
-          max(${table.passed} > 0) OVER (PARTITION BY ${table.learner}) AS ever_passed
-        FROM ${table} WHERE ${where}
+        SELECT ${learnerTallies.firstPassed} AS first_passed,
+          row_number() OVER (PARTITION BY ${learnerTallies.learner}
+            ORDER BY ${learnerTallies.quarter}, ${learnerTallies.firstStarted}, ${learnerTallies.firstId}) AS k,
+          max(${learnerTallies.passed} > 0) OVER (PARTITION BY ${learnerTallies.learner}) AS ever_passed
+        FROM ${learnerTallies} WHERE ${scopeConditions(learnerTallies, scope)}
       )
       SELECT count(*) AS learners, sum(first_passed) AS first_passed, sum(ever_passed) AS ever_passed FROM ranked WHERE k = 1`),
   );

@@ -6,7 +6,7 @@ import { and, between, eq, sql, type SQL } from "drizzle-orm";
 import type { SQLiteColumn } from "drizzle-orm/sqlite-core";
 import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
 import type { Db } from "../db/client";
-import { attemptTallies, attemptValues, learnerTallies, networkValues } from "../db/schema";
+import { attemptTallies, attemptValues, learnerTallies, networkTallies, networkValues } from "../db/schema";
 
 /** What a figure can be narrowed to: a quarter range and any of the attempt dimensions. */
 export interface SummaryScope {
@@ -38,15 +38,19 @@ export type Dimension = "quarter" | "siteId" | "instructorId" | "manikinId" | "p
 /** Metrics whose distributions are kept (exact, at the values as recorded). */
 export type SummaryMetric = (typeof attemptValues.metric.enumValues)[number];
 
-const errorColumns: Record<AttemptError, SQLiteColumn> = {
-  too_shallow: attemptTallies.errTooShallow,
-  too_deep: attemptTallies.errTooDeep,
-  too_slow: attemptTallies.errTooSlow,
-  too_fast: attemptTallies.errTooFast,
-  incomplete_recoil: attemptTallies.errIncompleteRecoil,
-  low_hands_on: attemptTallies.errLowHandsOn,
-  long_pause: attemptTallies.errLongPause,
-};
+type TallyTable = typeof attemptTallies | typeof networkTallies;
+
+function errorColumnsOf(table: TallyTable): Record<AttemptError, SQLiteColumn> {
+  return {
+    too_shallow: table.errTooShallow,
+    too_deep: table.errTooDeep,
+    too_slow: table.errTooSlow,
+    too_fast: table.errTooFast,
+    incomplete_recoil: table.errIncompleteRecoil,
+    low_hands_on: table.errLowHandsOn,
+    long_pause: table.errLongPause,
+  };
+}
 
 export function emptyTally(): Tally {
   return {
@@ -99,17 +103,41 @@ export function scopeConditions(table: ScopedTable, scope: SummaryScope): SQL {
   return and(...parts)!;
 }
 
-const tallySums = {
-  n: sql<number>`sum(${attemptTallies.n})`,
-  passed: sql<number>`sum(${attemptTallies.passed})`,
-  pp: sql<number>`sum(${attemptTallies.judgedPp})`,
-  pf: sql<number>`sum(${attemptTallies.judgedPf})`,
-  fp: sql<number>`sum(${attemptTallies.judgedFp})`,
-  ff: sql<number>`sum(${attemptTallies.judgedFf})`,
-  withErrors: sql<number>`sum(${attemptTallies.withErrors})`,
-  compressions: sql<number>`sum(${attemptTallies.compressions})`,
-  ...Object.fromEntries(attemptErrorNames.map((name) => [`err_${name}`, sql<number>`sum(${errorColumns[name]})`])),
-};
+function tallySums(table: TallyTable) {
+  const errors = errorColumnsOf(table);
+  return {
+    n: sql<number>`sum(${table.n})`,
+    passed: sql<number>`sum(${table.passed})`,
+    pp: sql<number>`sum(${table.judgedPp})`,
+    pf: sql<number>`sum(${table.judgedPf})`,
+    fp: sql<number>`sum(${table.judgedFp})`,
+    ff: sql<number>`sum(${table.judgedFf})`,
+    withErrors: sql<number>`sum(${table.withErrors})`,
+    compressions: sql<number>`sum(${table.compressions})`,
+    ...Object.fromEntries(attemptErrorNames.map((name) => [`err_${name}`, sql<number>`sum(${errors[name]})`])),
+  };
+}
+
+/** Dimensions network_tallies keeps. */
+const networkDimensions = new Set<Dimension>(["quarter", "profile", "feedback", "policyVersion"]);
+
+/**
+ * The tally table that answers a scope grouped by `dimensions`: network_tallies (a few rows per quarter) when
+ * neither the scope nor the grouping names a site, instructor or manikin, else attempt_tallies.
+ */
+function tallySource(scope: SummaryScope, dimensions: Dimension[]): { table: TallyTable; where: SQL } {
+  if (isNetworkWide(scope) && dimensions.every((d) => networkDimensions.has(d))) {
+    const parts: SQL[] = [between(networkTallies.quarter, scope.from, scope.to)];
+    if (scope.profile !== null) parts.push(sql`${networkTallies.profile} = ${scope.profile}`);
+    if (scope.feedback !== null) parts.push(sql`${networkTallies.feedback} = ${scope.feedback}`);
+    return { table: networkTallies, where: and(...parts)! };
+  }
+  return { table: attemptTallies, where: scopeConditions(attemptTallies, scope) };
+}
+
+function dimensionColumn(table: TallyTable, dimension: Dimension): SQLiteColumn {
+  return (table as typeof attemptTallies)[dimension];
+}
 
 function tallyOf(row: Record<string, unknown>): Tally {
   return {
@@ -127,7 +155,8 @@ function tallyOf(row: Record<string, unknown>): Tally {
 
 /** The tally of every attempt in scope. */
 export function totalTally(db: Db, scope: SummaryScope): Tally {
-  return tallyOf(db.select(tallySums).from(attemptTallies).where(scopeConditions(attemptTallies, scope)).get() ?? {});
+  const { table, where } = tallySource(scope, []);
+  return tallyOf(db.select(tallySums(table)).from(table).where(where).get() ?? {});
 }
 
 /**
@@ -135,11 +164,12 @@ export function totalTally(db: Db, scope: SummaryScope): Tally {
  * a manikin key of 0 stands for attempts that name no manikin.
  */
 export function talliesBy<K extends string | number>(db: Db, scope: SummaryScope, dimension: Dimension): Map<K, Tally> {
-  const column = attemptTallies[dimension];
+  const { table, where } = tallySource(scope, [dimension]);
+  const column = dimensionColumn(table, dimension);
   const rows = db
-    .select({ key: column, ...tallySums })
-    .from(attemptTallies)
-    .where(scopeConditions(attemptTallies, scope))
+    .select({ key: column, ...tallySums(table) })
+    .from(table)
+    .where(where)
     .groupBy(column)
     .all();
   return new Map(rows.map((row) => [row.key as K, tallyOf(row)]));
@@ -147,12 +177,13 @@ export function talliesBy<K extends string | number>(db: Db, scope: SummaryScope
 
 /** Tallies by two dimensions at once, keyed `${first}|${second}`. */
 export function talliesByPair(db: Db, scope: SummaryScope, first: Dimension, second: Dimension): Map<string, Tally> {
-  const a = attemptTallies[first];
-  const b = attemptTallies[second];
+  const { table, where } = tallySource(scope, [first, second]);
+  const a = dimensionColumn(table, first);
+  const b = dimensionColumn(table, second);
   const rows = db
-    .select({ a, b, ...tallySums })
-    .from(attemptTallies)
-    .where(scopeConditions(attemptTallies, scope))
+    .select({ a, b, ...tallySums(table) })
+    .from(table)
+    .where(where)
     .groupBy(a, b)
     .all();
   return new Map(rows.map((row) => [`${row.a}|${row.b}`, tallyOf(row)]));
@@ -160,11 +191,12 @@ export function talliesByPair(db: Db, scope: SummaryScope, first: Dimension, sec
 
 /** Distinct values of a dimension among the attempts in scope, ascending. */
 export function distinctIn(db: Db, scope: SummaryScope, dimension: Dimension): (string | number)[] {
-  const column = attemptTallies[dimension];
+  const { table, where } = tallySource(scope, [dimension]);
+  const column = dimensionColumn(table, dimension);
   return db
     .selectDistinct({ key: column })
-    .from(attemptTallies)
-    .where(scopeConditions(attemptTallies, scope))
+    .from(table)
+    .where(where)
     .orderBy(column)
     .all()
     .map((row) => row.key as string | number);
@@ -238,12 +270,22 @@ export function valueCounts(db: Db, metric: SummaryMetric, scope: SummaryScope):
     .all();
 }
 
-function groupRows(rows: { key: unknown; value: number; count: number }[]): Map<string | number, ValueCounts> {
+/**
+ * Rows (key, value, count) in key then value order, gathered into one distribution per key. Read as plain
+ * arrays (better-sqlite3's raw mode): per-instructor distributions run to tens of thousands of rows.
+ */
+function groupRows(db: Db, query: { toSQL(): { sql: string; params: unknown[] } }): Map<string | number, ValueCounts> {
+  const { sql: text, params } = query.toSQL();
   const byKey = new Map<string | number, ValueCounts>();
-  for (const { key, value, count } of rows) {
-    const list = byKey.get(key as string | number);
-    if (list) list.push({ value, count });
-    else byKey.set(key as string | number, [{ value, count }]);
+  let currentKey: string | number | undefined;
+  let current: ValueCounts = [];
+  for (const [key, value, count] of db.$client.prepare(text).raw(true).iterate(...params) as Iterable<[string | number, number, number]>) {
+    if (key !== currentKey) {
+      current = [];
+      byKey.set(key, current);
+      currentKey = key;
+    }
+    current.push({ value, count });
   }
   return byKey;
 }
@@ -253,24 +295,24 @@ export function valueCountsBy<K extends string | number>(db: Db, metric: Summary
   if (isNetworkWide(scope) && (dimension === "quarter" || dimension === "profile" || dimension === "feedback")) {
     const column = networkValues[dimension];
     return groupRows(
+      db,
       db
         .select({ key: column, value: networkValues.value, count: sql<number>`sum(${networkValues.count})` })
         .from(networkValues)
         .where(networkConditions(metric, scope))
         .groupBy(column, networkValues.value)
-        .orderBy(column, networkValues.value)
-        .all(),
+        .orderBy(column, networkValues.value),
     ) as Map<K, ValueCounts>;
   }
   const column = attemptValues[dimension];
   return groupRows(
+    db,
     db
       .select({ key: column, value: attemptValues.value, count: sql<number>`sum(${attemptValues.count})` })
       .from(attemptValues)
       .where(and(eq(attemptValues.metric, metric), scopeConditions(attemptValues, scope)))
       .groupBy(column, attemptValues.value)
-      .orderBy(column, attemptValues.value)
-      .all(),
+      .orderBy(column, attemptValues.value),
   ) as Map<K, ValueCounts>;
 }
 
@@ -287,9 +329,9 @@ export function mediansBy<K extends string | number>(db: Db, metric: SummaryMetr
 /** Quarters that hold attempts, newest first. */
 export function quartersWithAttempts(db: Db): string[] {
   return db
-    .selectDistinct({ quarter: attemptTallies.quarter })
-    .from(attemptTallies)
-    .orderBy(sql`${attemptTallies.quarter} DESC`)
+    .selectDistinct({ quarter: networkTallies.quarter })
+    .from(networkTallies)
+    .orderBy(sql`${networkTallies.quarter} DESC`)
     .all()
     .map((row) => row.quarter);
 }

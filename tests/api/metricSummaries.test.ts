@@ -68,7 +68,7 @@ beforeAll(async () => {
     db.update(attempts).set({ instructorResult: "pass" }).where(sql`${attempts.id} LIKE 'EXTRA-8%'`).run();
     // learners who return: the same code on attempts of other groups, some started earlier
     db.update(attempts).set({ learner: sql`'RETURNING-' || (cast(substr(${attempts.id}, 7) AS integer) % 40)` }).where(sql`${attempts.id} LIKE 'EXTRA-5%'`).run();
-    db.update(attempts).set({ startedAt: "2026-01-02T08:00:00Z" }).where(sql`${attempts.id} LIKE 'EXTRA-55%'`).run();
+    db.update(attempts).set({ startedAt: sql`substr(${attempts.startedAt}, 1, 10) || 'T06:00:00Z'` }).where(sql`${attempts.id} LIKE 'EXTRA-55%'`).run();
   })();
 });
 afterAll(() => db.$client.close());
@@ -135,6 +135,7 @@ function groupsOf(rows: AttemptRow[], dimension: Exclude<Dimension, "policyVersi
 const scopes: [string, SummaryScope][] = [
   ["everything", everything],
   ["one quarter", { ...everything, from: "2026-Q2", to: "2026-Q2" }],
+  ["a network range after an earlier quarter", { ...everything, from: "2026-Q1", to: "2026-Q2" }],
   ["a range with live display", { ...everything, from: "2025-Q4", to: "2026-Q2", feedback: "live" }],
   ["infant attempts", { ...everything, profile: "infant" }],
   ["one site", { ...everything, siteId: 1 }],
@@ -168,8 +169,9 @@ describe("attempt summaries equal the attempts they summarise", () => {
   it.each(scopes)("learner outcomes: learners, first attempt passed, passed at least once (%s)", (_name, scope) => {
     const byLearner = new Map<string, AttemptRow[]>();
     for (const row of rowsIn(scope)) byLearner.set(row.learner, [...(byLearner.get(row.learner) ?? []), row]);
-    const earliest = (rows: AttemptRow[]) =>
-      [...rows].sort((a, b) => (a.startedAt < b.startedAt ? -1 : a.startedAt > b.startedAt ? 1 : a.id < b.id ? -1 : 1))[0];
+    // earliest quarter, then start time, then id
+    const order = (row: AttemptRow) => [row.quarter, row.startedAt, row.id].join("\u0001");
+    const earliest = (rows: AttemptRow[]) => [...rows].sort((a, b) => (order(a) < order(b) ? -1 : 1))[0];
     expect(learnerOutcomes(db, scope)).toEqual({
       learners: byLearner.size,
       firstPassed: [...byLearner.values()].filter((rows) => earliest(rows).passed).length,
