@@ -104,6 +104,14 @@ CREATE TABLE `network_values` (
 	PRIMARY KEY(`metric`, `quarter`, `profile`, `feedback`, `value`)
 ) WITHOUT ROWID;
 --> statement-breakpoint
+CREATE TABLE `summary_deferral` (
+	`id` integer PRIMARY KEY NOT NULL
+);
+--> statement-breakpoint
+CREATE TABLE `summary_pending` (
+	`id` text PRIMARY KEY NOT NULL
+) WITHOUT ROWID;
+--> statement-breakpoint
 DROP INDEX `attempts_instructor_score_idx`;--> statement-breakpoint
 DROP INDEX `attempts_insight_idx`;--> statement-breakpoint
 CREATE INDEX `attempts_learner_idx` ON `attempts` (`learner`,`quarter`);

@@ -3,7 +3,7 @@
 -- (import, undo, rescore, policy change, edits). A deleted or changed attempt is taken out of its groups and the
 -- changed one put in; groups that fall to zero are removed; a learner's rows are recomputed from their attempts
 -- when one of them goes or changes.
-CREATE TRIGGER attempts_tally_insert AFTER INSERT ON attempts BEGIN
+CREATE TRIGGER attempts_tally_insert AFTER INSERT ON attempts WHEN NOT EXISTS (SELECT 1 FROM summary_deferral) BEGIN
   INSERT INTO attempt_tallies (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version, n, passed, judged_pp, judged_pf, judged_fp, judged_ff, with_errors, compressions, err_too_shallow, err_too_deep, err_too_slow, err_too_fast, err_incomplete_recoil, err_low_hands_on, err_long_pause)
   VALUES (new.quarter, new.profile, new.feedback, new.site_id, new.instructor_id, coalesce(new.manikin_id, 0), new.policy_version, 1, new.passed, (new.instructor_result IS 'pass' AND new.passed = 1), (new.instructor_result IS 'pass' AND new.passed = 0), (new.instructor_result IS 'fail' AND new.passed = 1), (new.instructor_result IS 'fail' AND new.passed = 0), (new.error_mask != 0), new.compressions, ((new.error_mask >> 0) & 1), ((new.error_mask >> 1) & 1), ((new.error_mask >> 2) & 1), ((new.error_mask >> 3) & 1), ((new.error_mask >> 4) & 1), ((new.error_mask >> 5) & 1), ((new.error_mask >> 6) & 1))
   ON CONFLICT (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version) DO UPDATE SET n = n + excluded.n, passed = passed + excluded.passed, judged_pp = judged_pp + excluded.judged_pp, judged_pf = judged_pf + excluded.judged_pf, judged_fp = judged_fp + excluded.judged_fp, judged_ff = judged_ff + excluded.judged_ff, with_errors = with_errors + excluded.with_errors, compressions = compressions + excluded.compressions, err_too_shallow = err_too_shallow + excluded.err_too_shallow, err_too_deep = err_too_deep + excluded.err_too_deep, err_too_slow = err_too_slow + excluded.err_too_slow, err_too_fast = err_too_fast + excluded.err_too_fast, err_incomplete_recoil = err_incomplete_recoil + excluded.err_incomplete_recoil, err_low_hands_on = err_low_hands_on + excluded.err_low_hands_on, err_long_pause = err_long_pause + excluded.err_long_pause;
@@ -40,7 +40,13 @@ CREATE TRIGGER attempts_tally_insert AFTER INSERT ON attempts BEGIN
     first_id = CASE WHEN (excluded.first_started, excluded.first_id) < (first_started, first_id) THEN excluded.first_id ELSE first_id END;
 END;
 --> statement-breakpoint
-CREATE TRIGGER attempts_tally_delete AFTER DELETE ON attempts BEGIN
+-- inside a bulk import: only note the attempt; the import adds its attempts to the summaries set-wise
+CREATE TRIGGER attempts_summary_pending AFTER INSERT ON attempts WHEN EXISTS (SELECT 1 FROM summary_deferral) BEGIN
+  INSERT INTO summary_pending (id) VALUES (new.id);
+END;
+--> statement-breakpoint
+-- an attempt still pending is not in the summaries yet: changing or deleting it touches nothing there
+CREATE TRIGGER attempts_tally_delete AFTER DELETE ON attempts WHEN old.id NOT IN (SELECT id FROM summary_pending) BEGIN
   INSERT INTO attempt_tallies (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version, n, passed, judged_pp, judged_pf, judged_fp, judged_ff, with_errors, compressions, err_too_shallow, err_too_deep, err_too_slow, err_too_fast, err_incomplete_recoil, err_low_hands_on, err_long_pause)
   VALUES (old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.policy_version, -1, -old.passed, -(old.instructor_result IS 'pass' AND old.passed = 1), -(old.instructor_result IS 'pass' AND old.passed = 0), -(old.instructor_result IS 'fail' AND old.passed = 1), -(old.instructor_result IS 'fail' AND old.passed = 0), -(old.error_mask != 0), -old.compressions, -((old.error_mask >> 0) & 1), -((old.error_mask >> 1) & 1), -((old.error_mask >> 2) & 1), -((old.error_mask >> 3) & 1), -((old.error_mask >> 4) & 1), -((old.error_mask >> 5) & 1), -((old.error_mask >> 6) & 1))
   ON CONFLICT (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version) DO UPDATE SET n = n + excluded.n, passed = passed + excluded.passed, judged_pp = judged_pp + excluded.judged_pp, judged_pf = judged_pf + excluded.judged_pf, judged_fp = judged_fp + excluded.judged_fp, judged_ff = judged_ff + excluded.judged_ff, with_errors = with_errors + excluded.with_errors, compressions = compressions + excluded.compressions, err_too_shallow = err_too_shallow + excluded.err_too_shallow, err_too_deep = err_too_deep + excluded.err_too_deep, err_too_slow = err_too_slow + excluded.err_too_slow, err_too_fast = err_too_fast + excluded.err_too_fast, err_incomplete_recoil = err_incomplete_recoil + excluded.err_incomplete_recoil, err_low_hands_on = err_low_hands_on + excluded.err_low_hands_on, err_long_pause = err_long_pause + excluded.err_long_pause;
@@ -99,7 +105,7 @@ CREATE TRIGGER attempts_tally_delete AFTER DELETE ON attempts BEGIN
 END;
 --> statement-breakpoint
 CREATE TRIGGER attempts_tally_update AFTER UPDATE OF quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version, passed, instructor_result, error_mask, compressions ON attempts
-  WHEN old.quarter IS NOT new.quarter OR old.profile IS NOT new.profile OR old.feedback IS NOT new.feedback OR old.site_id IS NOT new.site_id OR old.instructor_id IS NOT new.instructor_id OR old.manikin_id IS NOT new.manikin_id OR old.policy_version IS NOT new.policy_version OR old.passed IS NOT new.passed OR old.instructor_result IS NOT new.instructor_result OR old.error_mask IS NOT new.error_mask OR old.compressions IS NOT new.compressions
+  WHEN (old.quarter IS NOT new.quarter OR old.profile IS NOT new.profile OR old.feedback IS NOT new.feedback OR old.site_id IS NOT new.site_id OR old.instructor_id IS NOT new.instructor_id OR old.manikin_id IS NOT new.manikin_id OR old.policy_version IS NOT new.policy_version OR old.passed IS NOT new.passed OR old.instructor_result IS NOT new.instructor_result OR old.error_mask IS NOT new.error_mask OR old.compressions IS NOT new.compressions) AND old.id NOT IN (SELECT id FROM summary_pending)
 BEGIN
   INSERT INTO attempt_tallies (quarter, profile, feedback, site_id, instructor_id, manikin_id, policy_version, n, passed, judged_pp, judged_pf, judged_fp, judged_ff, with_errors, compressions, err_too_shallow, err_too_deep, err_too_slow, err_too_fast, err_incomplete_recoil, err_low_hands_on, err_long_pause)
   VALUES (old.quarter, old.profile, old.feedback, old.site_id, old.instructor_id, coalesce(old.manikin_id, 0), old.policy_version, -1, -old.passed, -(old.instructor_result IS 'pass' AND old.passed = 1), -(old.instructor_result IS 'pass' AND old.passed = 0), -(old.instructor_result IS 'fail' AND old.passed = 1), -(old.instructor_result IS 'fail' AND old.passed = 0), -(old.error_mask != 0), -old.compressions, -((old.error_mask >> 0) & 1), -((old.error_mask >> 1) & 1), -((old.error_mask >> 2) & 1), -((old.error_mask >> 3) & 1), -((old.error_mask >> 4) & 1), -((old.error_mask >> 5) & 1), -((old.error_mask >> 6) & 1))
@@ -119,7 +125,7 @@ BEGIN
 END;
 --> statement-breakpoint
 CREATE TRIGGER attempts_values_update AFTER UPDATE OF quarter, profile, feedback, site_id, instructor_id, manikin_id, score, depth_ok_pct, rate_ok_pct, recoil_ok_pct, hands_on_pct ON attempts
-  WHEN old.quarter IS NOT new.quarter OR old.profile IS NOT new.profile OR old.feedback IS NOT new.feedback OR old.site_id IS NOT new.site_id OR old.instructor_id IS NOT new.instructor_id OR old.manikin_id IS NOT new.manikin_id OR old.score IS NOT new.score OR old.depth_ok_pct IS NOT new.depth_ok_pct OR old.rate_ok_pct IS NOT new.rate_ok_pct OR old.recoil_ok_pct IS NOT new.recoil_ok_pct OR old.hands_on_pct IS NOT new.hands_on_pct
+  WHEN (old.quarter IS NOT new.quarter OR old.profile IS NOT new.profile OR old.feedback IS NOT new.feedback OR old.site_id IS NOT new.site_id OR old.instructor_id IS NOT new.instructor_id OR old.manikin_id IS NOT new.manikin_id OR old.score IS NOT new.score OR old.depth_ok_pct IS NOT new.depth_ok_pct OR old.rate_ok_pct IS NOT new.rate_ok_pct OR old.recoil_ok_pct IS NOT new.recoil_ok_pct OR old.hands_on_pct IS NOT new.hands_on_pct) AND old.id NOT IN (SELECT id FROM summary_pending)
 BEGIN
   INSERT INTO attempt_values (metric, quarter, profile, feedback, site_id, instructor_id, manikin_id, value, count)
   VALUES
@@ -171,7 +177,7 @@ BEGIN
 END;
 --> statement-breakpoint
 CREATE TRIGGER attempts_learner_update AFTER UPDATE OF learner, quarter, profile, feedback, site_id, instructor_id, manikin_id, passed, started_at, id ON attempts
-  WHEN old.learner IS NOT new.learner OR old.quarter IS NOT new.quarter OR old.profile IS NOT new.profile OR old.feedback IS NOT new.feedback OR old.site_id IS NOT new.site_id OR old.instructor_id IS NOT new.instructor_id OR old.manikin_id IS NOT new.manikin_id OR old.passed IS NOT new.passed OR old.started_at IS NOT new.started_at OR old.id IS NOT new.id
+  WHEN (old.learner IS NOT new.learner OR old.quarter IS NOT new.quarter OR old.profile IS NOT new.profile OR old.feedback IS NOT new.feedback OR old.site_id IS NOT new.site_id OR old.instructor_id IS NOT new.instructor_id OR old.manikin_id IS NOT new.manikin_id OR old.passed IS NOT new.passed OR old.started_at IS NOT new.started_at OR old.id IS NOT new.id) AND old.id NOT IN (SELECT id FROM summary_pending)
 BEGIN
   DELETE FROM learner_tallies WHERE quarter = old.quarter AND learner = old.learner AND profile = old.profile AND feedback = old.feedback
     AND site_id = old.site_id AND instructor_id = old.instructor_id AND manikin_id = coalesce(old.manikin_id, 0);

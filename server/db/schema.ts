@@ -415,6 +415,19 @@ export const learnerQuarters = sqliteTable(
   (t) => [primaryKey({ columns: [t.quarter, t.learner] }), index("learner_quarters_learner_idx").on(t.learner, t.quarter)],
 );
 
+/**
+ * Bulk imports switch the per-row summary triggers off inside their own transaction (a row here), note the
+ * attempts they insert in summary_pending, and add them to the summaries set-wise before they commit
+ * (server/metrics/deferredSummaries.ts). Both tables are empty outside an import's transaction.
+ */
+export const summaryDeferral = sqliteTable("summary_deferral", {
+  id: integer().primaryKey(),
+});
+
+export const summaryPending = sqliteTable("summary_pending", {
+  id: text().primaryKey(),
+});
+
 export const compressionStreams = sqliteTable(
   "compression_streams",
   {

@@ -12,6 +12,7 @@ import { identityMapping, unknownMappingColumns, type ImportMapping } from "../.
 import { RowReader } from "../../shared/import/rows";
 import type { Db } from "../db/client";
 import { forbidden } from "../errors";
+import { addPendingAttempts, deferSummaries } from "../metrics/deferredSummaries";
 import { currentPolicy } from "../policy/service";
 import { attemptsImporter } from "./attempts";
 import { classesImporter } from "./classes";
@@ -105,6 +106,8 @@ export async function importFile(db: Db, options: ImportFileOptions): Promise<Im
           .prepare("INSERT INTO import_batches (kind, file_name, sha256, user_id, source) VALUES (?, ?, '', ?, ?) RETURNING id")
           .pluck()
           .get(kind, fileName, actor.userId, options.source) as number);
+    // attempts go into the summaries set-wise just before the commit, not row by row
+    deferSummaries(sqlite);
     run = new ImportRun(sqlite, kind, batchId, !dryRun, skipInvalid, actor, policy, options.pendingClasses ?? new Map(), options.rejectedCsvPath);
     const current = run;
     let importer: KindImporter | undefined;
@@ -200,6 +203,7 @@ export async function importFile(db: Db, options: ImportFileOptions): Promise<Im
         "UPDATE import_batches SET sha256 = ?, rows_read = ?, inserted = ?, updated = ?, unchanged = ?, rejected = ?, new_codes = ?, warnings = ? WHERE id = ?",
       )
       .run(summary.sha256, summary.rowsRead, summary.inserted, summary.updated, summary.unchanged, summary.rejected, JSON.stringify(summary.newCodes), JSON.stringify(summary.warnings), batchId);
+    addPendingAttempts(sqlite);
     sqlite.exec("COMMIT");
     return summary;
   } catch (err) {

@@ -8,6 +8,7 @@ import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
 import { median, quantile } from "../../shared/stats";
 import type { Db } from "../../server/db/client";
 import { attempts } from "../../server/db/schema";
+import { addPendingAttempts, deferSummaries } from "../../server/metrics/deferredSummaries";
 import { learnerOutcomes } from "../../server/metrics/learnerOutcomes";
 import {
   medianIn,
@@ -69,6 +70,33 @@ beforeAll(async () => {
     // learners who return: the same code on attempts of other groups, some started earlier
     db.update(attempts).set({ learner: sql`'RETURNING-' || (cast(substr(${attempts.id}, 7) AS integer) % 40)` }).where(sql`${attempts.id} LIKE 'EXTRA-5%'`).run();
     db.update(attempts).set({ startedAt: sql`substr(${attempts.startedAt}, 1, 10) || 'T06:00:00Z'` }).where(sql`${attempts.id} LIKE 'EXTRA-55%'`).run();
+  })();
+  // a bulk import: triggers deferred, rows added set-wise before the commit — including rows changed or deleted
+  // while still pending, and a change to an attempt summarised earlier in the same transaction
+  db.$client.transaction(() => {
+    deferSummaries(db.$client);
+    for (let i = 0; i < 600; i++) {
+      db.insert(attempts)
+        .values({
+          ...base,
+          id: `BULK-${i}`,
+          learner: i % 3 === 0 ? `RETURNING-${i % 40}` : `BULK-L${i}`,
+          score: Math.round(random() * 1000) / 10,
+          passed: random() < 0.5,
+          errorMask: Math.floor(random() * 128),
+          instructorResult: random() < 0.2 ? null : "fail",
+          manikinId: i % 5 === 0 ? null : base.manikinId,
+          instructorId: 1 + (i % 3),
+          feedback: i % 2 === 0 ? "live" : "hidden",
+          quarter: i % 4 === 0 ? "2026-Q1" : "2026-Q2",
+          startedAt: `2026-0${1 + (i % 6)}-1${i % 10}T09:00:00Z`,
+        })
+        .run();
+    }
+    db.update(attempts).set({ score: 12.5, passed: true }).where(sql`${attempts.id} LIKE 'BULK-1%'`).run();
+    db.delete(attempts).where(sql`${attempts.id} LIKE 'BULK-2%'`).run();
+    db.update(attempts).set({ passed: sql`NOT ${attempts.passed}` }).where(sql`${attempts.id} LIKE 'EXTRA-7%'`).run();
+    addPendingAttempts(db.$client);
   })();
 });
 afterAll(() => db.$client.close());
@@ -186,6 +214,27 @@ describe("attempt summaries equal the attempts they summarise", () => {
     expect(totalTally(db, { ...everything, from: "2025-Q4", to: "2025-Q4" }).n).toBe(0);
     const left = db.$client.prepare("SELECT count(*) FROM attempt_values WHERE quarter = '2025-Q4'").pluck().get();
     expect(left).toBe(0);
+  });
+});
+
+describe("deferred summaries in a bulk import", () => {
+  it("leave no trace when the import rolls back, and switch the per-row triggers back on", () => {
+    const before = totalTally(db, everything);
+    expect(() =>
+      db.$client.transaction(() => {
+        deferSummaries(db.$client);
+        db.insert(attempts).values({ ...db.select().from(attempts).limit(1).get()!, id: "ROLLED-BACK" }).run();
+        throw new Error("refused file");
+      })(),
+    ).toThrow("refused file");
+    expect(db.$client.prepare("SELECT count(*) FROM summary_pending").pluck().get()).toBe(0);
+    expect(db.$client.prepare("SELECT count(*) FROM summary_deferral").pluck().get()).toBe(0);
+    expect(totalTally(db, everything)).toEqual(before);
+    // outside an import, a new attempt is summarised at once
+    db.insert(attempts).values({ ...db.select().from(attempts).limit(1).get()!, id: "ONE-MORE" }).run();
+    expect(totalTally(db, everything).n).toBe(before.n + 1);
+    db.delete(attempts).where(eq(attempts.id, "ONE-MORE")).run();
+    expect(totalTally(db, everything)).toEqual(before);
   });
 });
 
