@@ -28,8 +28,9 @@ const classWords: Record<Lane, Record<BandClass, string>> = {
   recoil: { low: "", on: "fully released", high: "still pressed" },
 };
 
+/** A share of time or of compressions; one decimal, as these shares sit near the pass rule's whole-number marks. */
 function share(part: number, whole: number): string {
-  return whole === 0 ? "–" : `${((100 * part) / whole).toFixed(0)} %`;
+  return whole === 0 ? "–" : `${((100 * part) / whole).toFixed(1)} %`;
 }
 
 /** A segment's height in its lane: full when in the band, the lower half when low, the upper half when high. */
@@ -95,7 +96,7 @@ export function CompressionOverview({ series, band, unit, pauseThresholdS, longP
       const sharesByLane = new Map(shares.map((s) => [s.lane, s]));
       return {
         height: 170,
-        marginLeft: width < 500 ? 84 : 150,
+        marginLeft: width < 500 ? 92 : 160,
         x: { domain: [0, Math.ceil(end / 5) * 5], label: "Time since the attempt started (s)", ticks: width < 500 ? 5 : 10 },
         y: {
           domain: [0, 2 + laneHeight],
@@ -103,7 +104,7 @@ export function CompressionOverview({ series, band, unit, pauseThresholdS, longP
           tickFormat: (y: number) => {
             const lane = (["depth", "rate", "recoil"] as const).find((l) => laneRow[l] + laneHeight / 2 === y)!;
             const s = sharesByLane.get(lane)!;
-            return width < 500 ? `${laneNames[lane]} ${share(s.on, s.seconds)}` : `${laneNames[lane]}: ${share(s.on, s.seconds)} in band`;
+            return width < 500 ? `${laneNames[lane]} ${share(s.on, s.seconds)}` : `${laneNames[lane]}: ${share(s.on, s.seconds)} of the time`;
           },
           tickSize: 0,
           label: null,
