@@ -8,7 +8,9 @@ import { attempts, compressionStreams, instructors, manikins, scoreHistory, site
 import { notFound } from "../errors";
 import { policyVersion } from "../policy/service";
 import { decodeStream } from "../streams/codec";
+import { attemptPlacement } from "./attemptPlacement";
 import type { ResolvedFilters } from "./filters";
+import type { Viewer } from "./viewer";
 import { attemptOrder, attemptSearchConditions, hasStreamSql, type AttemptSearch } from "./attemptSearch";
 import { errorLabels } from "../../shared/vocabulary";
 
@@ -94,8 +96,11 @@ export function attemptList(db: Db, filters: ResolvedFilters, search: AttemptSea
   return { page, pageSize, total, attempts: rows.map(toRow) };
 }
 
-/** One attempt; `onlyInstructorId` limits it to that instructor's attempts (anything else: 404). */
-export function attemptDetail(db: Db, id: string, onlyInstructorId: number | null): AttemptDetailAnswer {
+/**
+ * One attempt, with the rules that scored it and its place in the network for this viewer;
+ * `onlyInstructorId` limits it to that instructor's attempts (anything else: 404).
+ */
+export function attemptDetail(db: Db, id: string, onlyInstructorId: number | null, viewer: Viewer): AttemptDetailAnswer {
   const conditions = [eq(attempts.id, id)];
   if (onlyInstructorId !== null) conditions.push(eq(attempts.instructorId, onlyInstructorId));
   const row = selectRows(db, and(...conditions)!).get();
@@ -110,21 +115,27 @@ export function attemptDetail(db: Db, id: string, onlyInstructorId: number | nul
     .all()
     .map((h) => ({ policyVersion: h.policyVersion, score: h.score, passed: h.passed, errors: maskToErrors(h.errorMask), replacedAt: h.replacedAt }));
 
+  const policy = policyVersion(db, attempt.policyVersion)?.policy;
+  const scoring: AttemptDetailAnswer["scoring"] = policy
+    ? { passRule: policy.passRule, band: bandFor(policy, attempt.profile), pauseThresholdS: policy.pauseThresholdS, longPauseLimitS: policy.longPauseLimitS }
+    : null;
+
   const blob = db.select({ data: compressionStreams.data }).from(compressionStreams).where(eq(compressionStreams.attemptId, id)).get();
   let stream: AttemptDetailAnswer["stream"] = null;
   if (blob) {
     const decoded = decodeStream(blob.data);
-    const policy = policyVersion(db, attempt.policyVersion);
     stream = {
       compressions: decoded.tMs.length,
       t_ms: Array.from(decoded.tMs),
       depth_mm: Array.from(decoded.depthTenths, (tenths) => tenths / 10),
       release_mm: Array.from(decoded.releaseTenths, (tenths) => tenths / 10),
-      band: bandFor(policy!.policy, attempt.profile),
+      band: bandFor(policy!, attempt.profile),
     };
   }
   return {
     attempt,
+    scoring,
+    placement: attemptPlacement(db, viewer, attempt),
     errorLabels: attempt.errors.map((error) => ({ error, label: errorLabels[error] })),
     scoreHistory: history,
     stream,

@@ -102,7 +102,8 @@ export function insightRoutes(db: Db): Router {
 
   router.get("/attempts/:id", allow("readAttempts"), (req, res) => {
     const id = parseWith(rowIdSchema, req.params.id, "The attempt id");
-    res.json(attemptDetail(db, id, rowScope(signedInUser(req), "readAttempts").instructorId));
+    const user = signedInUser(req);
+    res.json(attemptDetail(db, id, rowScope(user, "readAttempts").instructorId, viewerOf(db, user)));
   });
 
   return router;

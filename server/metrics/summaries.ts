@@ -227,6 +227,22 @@ export function quantileOfCounts(counts: ValueCounts, p: number): number | null 
   return lower! + (h - lowerIndex) * (upper! - lower!);
 }
 
+/**
+ * Mid-rank percentile of `x` in a distribution: the share (0–100) of values below it, values equal to it
+ * counted half — the definition of shared/stats `percentileRank` on the expanded values (common practice).
+ */
+export function percentileRankOfCounts(counts: ValueCounts, x: number): number | null {
+  let n = 0;
+  let below = 0;
+  let equal = 0;
+  for (const { value, count } of counts) {
+    n += count;
+    if (value < x) below += count;
+    else if (value === x) equal += count;
+  }
+  return n === 0 ? null : (100 * (below + equal / 2)) / n;
+}
+
 export function medianOfCounts(counts: ValueCounts): number | null {
   return quantileOfCounts(counts, 0.5);
 }

@@ -2,6 +2,7 @@
 // The same data and creation time give the same bytes (pdfkit's creation date is set from the report).
 import PDFDocument from "pdfkit";
 import type { CountFigure, ReportData } from "../../shared/schemas/report";
+import { markGeometry } from "../../shared/markGeometry";
 import { drawErrorBars, drawRateBars, drawTrendChart } from "./pdfCharts";
 import { colours, FONT, registerFonts, textRuns, type Doc } from "./pdfStyle";
 import { dimensionNames, figureNames } from "../../shared/vocabulary";
@@ -94,28 +95,15 @@ class PageFlow {
   }
 }
 
+/** The mark of shared/markGeometry.ts, scaled from its 32-unit grid into a `size` square at (x, y). */
 function drawLogoMark(doc: Doc, x: number, y: number, size: number) {
-  const r = size / 2 - 2;
-  const cx = x + size / 2;
-  const cy = y + size / 2;
-  doc.circle(cx, cy, r).lineWidth(1.6).strokeColor("#C6C2EA").stroke();
-  // pdfkit has no arc helper: a quarter disc from two lines and a Bézier curve (0.5523 = circle constant)
-  const k = 0.5523 * r;
-  doc.moveTo(cx, cy).lineTo(cx, cy - r).bezierCurveTo(cx + k, cy - r, cx + r, cy - k, cx + r, cy).closePath().fill(colours.accent);
-  const s = size / 32;
-  doc
-    .moveTo(x + 1.5 * s, y + 18 * s)
-    .lineTo(x + 10 * s, y + 18 * s)
-    .lineTo(x + 12 * s, y + 12.5 * s)
-    .lineTo(x + 15.2 * s, y + 23.5 * s)
-    .lineTo(x + 18.5 * s, y + 8.5 * s)
-    .lineTo(x + 21 * s, y + 18 * s)
-    .lineTo(x + 30.5 * s, y + 18 * s)
-    .lineWidth(2 * s)
-    .lineJoin("round")
-    .lineCap("round")
-    .strokeColor("#FFFFFF")
-    .stroke();
+  const g = markGeometry;
+  doc.save();
+  doc.translate(x, y).scale(size / g.size);
+  doc.path(g.quarter).fill(colours.accent);
+  for (const arc of g.arcs) doc.path(arc).lineWidth(g.arcWidth).lineCap("round").strokeColor("#E2E0F4").stroke();
+  for (const [cx, cy] of g.nodes) doc.circle(cx, cy, g.nodeRadius).fill("#E2E0F4");
+  doc.restore();
 }
 
 function writeRuns(doc: Doc, text: string, x: number, y: number, options: { width: number; size: number; colour: string; lineGap?: number }) {

@@ -4,7 +4,7 @@
 // `suppressed: true`.
 import { z } from "zod";
 import { courseTypes, feedbackModes } from "../domain";
-import { bandSchema, patientTypes } from "../scoring/policy";
+import { bandSchema, passRuleSchema, patientTypes } from "../scoring/policy";
 import { attemptErrorNames } from "../scoring/scoreAttempt";
 
 const count = z.number().int().min(0);
@@ -328,8 +328,43 @@ export const attemptListAnswerSchema = z.object({
 });
 export type AttemptListAnswer = z.infer<typeof attemptListAnswerSchema>;
 
+/** The metrics whose network distribution an attempt is placed in (those the summaries keep). */
+export const placedMetrics = ["score", "depthOkPct", "rateOkPct", "recoilOkPct", "handsOnPct"] as const;
+export type PlacedMetric = (typeof placedMetrics)[number];
+
+/**
+ * Where an attempt sits among the network's attempts of the same patient type and quarter: for each metric,
+ * the share of those attempts below it, ties counted half (a mid-rank percentile, 0–100). Null when the
+ * group is hidden from the viewer (too few of other people's attempts).
+ */
+export const attemptPlacementSchema = z.object({
+  quarter: z.string(),
+  profile: z.enum(patientTypes),
+  /** Attempts in the group, this one included; null when hidden. */
+  attempts: count.nullable(),
+  hidden: z.boolean(),
+  percentiles: z.object({
+    score: z.number().nullable(),
+    depthOkPct: z.number().nullable(),
+    rateOkPct: z.number().nullable(),
+    recoilOkPct: z.number().nullable(),
+    handsOnPct: z.number().nullable(),
+  }),
+});
+export type AttemptPlacement = z.infer<typeof attemptPlacementSchema>;
+
 export const attemptDetailAnswerSchema = z.object({
   attempt: attemptRowSchema,
+  /** The rules of the policy version that scored the attempt, for its patient type; null if that version is gone. */
+  scoring: z
+    .object({
+      passRule: passRuleSchema,
+      band: bandSchema,
+      pauseThresholdS: z.number(),
+      longPauseLimitS: z.number(),
+    })
+    .nullable(),
+  placement: attemptPlacementSchema,
   errorLabels: z.array(z.object({ error: errorNameSchema, label: z.string() })),
   scoreHistory: z.array(
     z.object({ policyVersion: z.number().int(), score: z.number(), passed: z.boolean(), errors: z.array(errorNameSchema), replacedAt: z.string() }),

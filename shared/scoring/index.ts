@@ -3,3 +3,4 @@ export * from "./policy";
 export * from "./streamErrors";
 export * from "./analyzeStream";
 export * from "./scoreAttempt";
+export * from "./passRuleCriteria";

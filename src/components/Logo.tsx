@@ -1,23 +1,19 @@
-// Quarterbeat's mark: a year split into four quarters, one quarter lit, with a single beat running
-// through it — steady work, reviewed a quarter at a time.
+// Quarterbeat's mark (shared/markGeometry.ts): a network of four nodes on a ring, one quarter filled. Drawn from
+// filled and stroked shapes only, so it reads in one colour and at 16 px.
 import clsx from "clsx";
+import { markGeometry } from "../../shared/markGeometry";
 
 export function LogoMark({ className, tone = "onDark" }: { className?: string; tone?: "onDark" | "onLight" }) {
-  const ring = tone === "onDark" ? "#C6C2EA" : "#3F3A8C";
-  const pulse = tone === "onDark" ? "#FFFFFF" : "#1C1B2E";
+  const line = tone === "onDark" ? "#E2E0F4" : "#3F3A8C";
   return (
     <svg viewBox="0 0 32 32" className={clsx("size-8 shrink-0", className)} aria-hidden="true" focusable="false">
-      <circle cx="16" cy="16" r="13" fill="none" stroke={ring} strokeWidth="2" />
-      <path d="M16 16V3a13 13 0 0 1 13 13z" fill="#E8A33D" />
-      <path d="M16 3v26M3 16h26" stroke={ring} strokeWidth="1.2" opacity="0.7" />
-      <path
-        d="M1.5 18h8.5l2-5.5 3.2 11 3.3-15 2.5 9.5H30.5"
-        fill="none"
-        stroke={pulse}
-        strokeWidth="2.4"
-        strokeLinecap="round"
-        strokeLinejoin="round"
-      />
+      <path d={markGeometry.quarter} fill="#E8A33D" />
+      {markGeometry.arcs.map((d) => (
+        <path key={d} d={d} fill="none" stroke={line} strokeWidth={markGeometry.arcWidth} strokeLinecap="round" />
+      ))}
+      {markGeometry.nodes.map(([cx, cy]) => (
+        <circle key={`${cx},${cy}`} cx={cx} cy={cy} r={markGeometry.nodeRadius} fill={line} />
+      ))}
     </svg>
   );
 }

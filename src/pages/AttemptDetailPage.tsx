@@ -1,10 +1,13 @@
-// One attempt: its numbers against the targets of its patient type, the score and result with each error in
-// words, the policy version that scored it and any earlier scores, and the compressions themselves where the
-// manikin sent a stream.
+// One attempt, led by the network's pass rule as a checklist (each criterion's value, pass mark and margin) and
+// where the attempt sits among the network's attempts of its patient type and quarter; then the attempt's
+// facts, its compressions where the manikin sent a stream, and any earlier scores.
 import { useQuery } from "@tanstack/react-query";
 import { useMemo } from "react";
 import { Link, useLocation, useParams, useSearchParams } from "react-router";
+import { quarterLabel } from "../../shared/period";
 import { DEFAULT_POLICY } from "../../shared/scoring/policy";
+import { MIN_COMPRESSIONS_TO_PASS } from "../../shared/scoring/scoreAttempt";
+import { formatLength } from "../../shared/units";
 import type { AttemptDetailAnswer } from "../../shared/schemas/insight";
 import { ApiError } from "../api/http";
 import { DataTable, type Column } from "../components/DataTable";
@@ -12,13 +15,12 @@ import { PageHeader } from "../components/PageHeader";
 import { SafetyNote } from "../components/SafetyNote";
 import { Notice } from "../components/Notice";
 import { EmptyState, ErrorState, LoadingState } from "../components/States";
-import { TargetBadge } from "../components/TargetBadge";
-import { AttemptSummary } from "../features/attempts/AttemptSummary";
-import { CompressionCharts } from "../features/attempts/CompressionCharts";
+import { CompressionOverview } from "../features/attempts/CompressionOverview";
+import { NetworkPlacement } from "../features/attempts/NetworkPlacement";
+import { criteriaOf, PassRuleChecklist } from "../features/attempts/PassRuleChecklist";
 import { compressionSeries, type CompressionSeries } from "../features/attempts/compressionSeries";
 import { dateTime, errorLabel } from "../features/attempts/labels";
 import { attemptQueries } from "../features/attempts/queries";
-import { useScoringPolicy } from "../features/attempts/useScoringPolicy";
 import { backLabel, inAppPath } from "../features/attempts/returnPath";
 import { useLengthUnit } from "../lib/useLengthUnit";
 import { dimensionNames, feedbackNames, patientTypeNames } from "../../shared/vocabulary";
@@ -66,16 +68,21 @@ function BackLink() {
 
 type History = AttemptDetailAnswer["scoreHistory"][number];
 
+const cardClass = "flex flex-col gap-3 rounded-card border border-line bg-surface p-4 shadow-card";
+
 function AttemptView({ answer }: { answer: AttemptDetailAnswer }) {
-  const { attempt, stream } = answer;
+  const { attempt, stream, scoring, placement } = answer;
   const { unit } = useLengthUnit();
-  const scoring = useScoringPolicy(attempt.policyVersion);
-  const band = stream?.band ?? scoring.policy?.bands[attempt.profile] ?? null;
-  const pausePolicy = scoring.policy ?? DEFAULT_POLICY;
+  const m = attempt.metrics;
+  const band = stream?.band ?? scoring?.band ?? null;
+  const pauseLimits = scoring ?? DEFAULT_POLICY;
   const series = useMemo(
-    () => (stream ? compressionSeries(stream, stream.band, pausePolicy.pauseThresholdS, pausePolicy.longPauseLimitS) : null),
-    [stream, pausePolicy.pauseThresholdS, pausePolicy.longPauseLimitS],
+    () => (stream ? compressionSeries(stream, stream.band, pauseLimits.pauseThresholdS, pauseLimits.longPauseLimitS) : null),
+    [stream, pauseLimits.pauseThresholdS, pauseLimits.longPauseLimitS],
   );
+  const judged = m.compressions >= MIN_COMPRESSIONS_TO_PASS;
+  const criteria = scoring ? criteriaOf(attempt, scoring.passRule) : null;
+  const missed = criteria ? criteria.filter((c) => !c.met).length : attempt.errors.length;
 
   const historyColumns: Column<History>[] = [
     { key: "version", header: "Policy version", value: (h) => h.policyVersion, align: "right" },
@@ -100,107 +107,107 @@ function AttemptView({ answer }: { answer: AttemptDetailAnswer }) {
     [dimensionNames.patientType, patientTypeNames[attempt.profile]],
     [dimensionNames.feedback, feedbackNames[attempt.feedback]],
     ["Data", attempt.source === "stream" ? "Compression stream" : "Device summary"],
+    [
+      "Instructor’s result",
+      <>
+        {attempt.instructorResult === null ? "Not recorded" : attempt.instructorResult === "pass" ? "Pass" : "Fail"}
+        {attempt.instructorResult !== null && (attempt.instructorResult === "pass") !== attempt.passed && <span className="font-normal text-muted"> (differs from the measurement)</span>}
+      </>,
+    ],
+  ];
+  const noRate = m.compressions < 2 || (m.rateCpm === 0 && m.rateOkPct === 0);
+  const measurements: [string, string][] = [
+    ["Compressions", `${m.compressions} over ${m.durationS.toFixed(1)} s`],
+    ["Mean depth", `${formatLength(m.depthMm, unit)}${band ? ` (band ${formatLength(band.depthMinMm, unit)} to ${formatLength(band.depthMaxMm, unit)})` : ""}`],
+    ["Mean rate", noRate ? "–" : `${Math.round(m.rateCpm)} per minute${band ? ` (band ${band.rateMin}–${band.rateMax})` : ""}`],
+    ["Pauses", m.pauses === null ? "Not recorded" : `${m.pauses}${m.pausesOver10s ? `, ${m.pausesOver10s} over 10 s` : ""}`],
   ];
 
   return (
     <>
       <PageHeader
         title={`Attempt ${attempt.id}`}
-        description={`${patientTypeNames[attempt.profile]} manikin, ${dateTime(attempt.startedAt)}. Scored under policy version ${attempt.policyVersion}.`}
+        description={`${patientTypeNames[attempt.profile]} manikin, ${dateTime(attempt.startedAt)}, learner ${attempt.learner}. Judged by the network’s pass rule of policy version ${attempt.policyVersion}.`}
       />
       <div className="flex flex-col gap-6">
-        <section aria-labelledby="result-heading" className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_minmax(0,1.4fr)]">
-          <div className="flex flex-col gap-3 rounded-card border border-line bg-surface p-4 shadow-card">
-            <h2 id="result-heading" className="text-title">
-              Result
+        <section aria-labelledby="rule-heading" className={cardClass}>
+          <div className="flex flex-wrap items-baseline justify-between gap-x-4 gap-y-1">
+            <h2 id="rule-heading" className="text-title">
+              Pass rule
             </h2>
-            <div className="flex flex-wrap items-center gap-3">
-              <p className="text-display tabular-nums">{Math.round(attempt.score)}</p>
-              <div className="flex flex-col gap-1">
-                <span className="text-small text-muted">Score out of 100 (mean of depth, rate and recoil on target)</span>
-                <TargetBadge status={attempt.passed ? "on_target" : "too_low"} label={attempt.passed ? "Passed" : "Not passed"} className="self-start" />
-              </div>
-            </div>
-            {attempt.errors.length > 0 ? (
-              <div>
-                <h3 className="text-small font-semibold">Why it did not pass</h3>
-                <ul className="mt-1 list-disc pl-5">
-                  {answer.errorLabels.map((e) => (
-                    <li key={e.error}>{e.label}</li>
-                  ))}
-                </ul>
-              </div>
-            ) : !attempt.passed ? (
-              <p>Too few compressions were recorded to judge this attempt.</p>
-            ) : (
-              <p>Every criterion of the pass rule was met.</p>
-            )}
-            <p className="text-small">
-              Instructor’s own result:{" "}
-              <strong>{attempt.instructorResult === null ? "not recorded" : attempt.instructorResult === "pass" ? "pass" : "fail"}</strong>
-              {attempt.instructorResult !== null && (attempt.instructorResult === "pass") !== attempt.passed && " — differs from Quarterbeat’s"}
-            </p>
-            <p className="text-small text-muted">
-              Scored under policy version {attempt.policyVersion}
-              {scoring.known === "defaults" && " (the project defaults)"}. The pass rule is network policy, not a guideline.
+            <p id="rule-verdict" className="text-lead font-semibold">
+              {attempt.passed
+                ? "Passed: every criterion met"
+                : !judged
+                  ? "Not passed: too few compressions to judge"
+                  : `Not passed: ${missed} of ${criteria?.length ?? 5} criteria missed`}
             </p>
           </div>
-          <dl className="grid grid-cols-[auto_1fr] content-start gap-x-4 gap-y-1 rounded-card border border-line bg-surface p-4 text-small shadow-card sm:grid-cols-[auto_1fr_auto_1fr]">
-            {facts.map(([label, value]) => (
-              <div key={label} className="contents">
-                <dt className="text-muted">{label}</dt>
-                <dd className="min-w-0 break-words font-medium">{value}</dd>
-              </div>
-            ))}
-          </dl>
-        </section>
-
-        <section aria-labelledby="metrics-heading" className="flex flex-col gap-3">
-          <h2 id="metrics-heading" className="text-title">
-            Against the targets
-          </h2>
           <SafetyNote compact />
-          {scoring.pending ? (
-            <LoadingState label="Loading the targets…" />
+          {!judged && (
+            <p>
+              {m.compressions === 0 ? "No compressions were recorded" : "Only one compression was recorded; at least two are needed to judge the rate"}, so the attempt cannot pass whatever its shares.
+            </p>
+          )}
+          {scoring ? (
+            <PassRuleChecklist attempt={attempt} rule={scoring.passRule} band={band} placement={placement} unit={unit} />
           ) : (
             <>
-              {!scoring.policy && (
-                <p className="text-small text-muted">
-                  The pass marks of policy version {attempt.policyVersion} are not open to your role{band ? "; the target band shown is the one that version sets" : ""}.
-                </p>
-              )}
-              <AttemptSummary attempt={attempt} band={band} policy={scoring.policy} unit={unit} />
+              <Notice tone="info">Policy version {attempt.policyVersion}, which scored this attempt, is no longer stored, so its pass marks cannot be shown. The errors it found:</Notice>
+              <ul className="list-disc pl-5">
+                {answer.errorLabels.length === 0 ? <li>None</li> : answer.errorLabels.map((e) => <li key={e.error}>{e.label}</li>)}
+              </ul>
             </>
           )}
+          <p className="text-caption text-muted">
+            The pass marks are the network’s policy (version {attempt.policyVersion}), not a guideline. “In the network” places each share among the network’s{" "}
+            {patientTypeNames[attempt.profile].toLowerCase()} attempts of {quarterLabel(attempt.quarter)}.
+          </p>
         </section>
+
+        <div className="grid gap-6 lg:grid-cols-2">
+          <section aria-labelledby="network-heading" className={cardClass}>
+            <h2 id="network-heading" className="text-title">
+              Among the network
+            </h2>
+            <NetworkPlacement placement={placement} score={attempt.score} />
+          </section>
+          <section aria-labelledby="facts-heading" className={cardClass}>
+            <h2 id="facts-heading" className="text-title">
+              The attempt
+            </h2>
+            <dl className="grid grid-cols-[auto_1fr] content-start gap-x-4 gap-y-1 text-small sm:grid-cols-[auto_1fr_auto_1fr]">
+              {[...facts, ...measurements].map(([label, value]) => (
+                <div key={label} className="contents">
+                  <dt className="text-muted">{label}</dt>
+                  <dd className="min-w-0 break-words font-medium">{value}</dd>
+                </div>
+              ))}
+            </dl>
+          </section>
+        </div>
 
         <section aria-labelledby="stream-heading" className="flex flex-col gap-3">
           <h2 id="stream-heading" className="text-title">
-            Compression by compression
+            Compressions
           </h2>
           {stream && series && !agreesWithStored(series, attempt.metrics) && (
             <Notice tone="info">
-              The figures above were measured when the attempt was imported; this chart classes each compression against the band of policy version {attempt.policyVersion}, which scored it later. Where the two bands differ, the counts here differ from the figures above.
+              The pass rule above reads the figures measured when the attempt was imported; these charts class each compression against the band of policy version {attempt.policyVersion}, which scored it later. Where the two bands differ, the counts here differ from the figures above.
             </Notice>
           )}
           {stream && series ? (
-            <CompressionCharts
+            <CompressionOverview
               series={series}
               band={stream.band}
               unit={unit}
-              pauseThresholdS={pausePolicy.pauseThresholdS}
-              longPauseLimitS={pausePolicy.longPauseLimitS}
-              pauseNote={
-                scoring.known === "version"
-                  ? `Both limits are those of policy version ${attempt.policyVersion}.`
-                  : scoring.known === "defaults"
-                    ? "Both limits are the project defaults of version 1."
-                    : `The limits of policy version ${attempt.policyVersion} are not open to your role; the project defaults are used here.`
-              }
+              pauseThresholdS={pauseLimits.pauseThresholdS}
+              longPauseLimitS={pauseLimits.longPauseLimitS}
+              pauseNote={scoring ? `Both limits are those of policy version ${attempt.policyVersion}.` : "Policy version " + attempt.policyVersion + " is no longer stored; the project defaults are used here."}
             />
           ) : (
             <EmptyState title="No compression stream for this attempt">
-              The manikin sent a summary only, so there is nothing to show compression by compression; the figures above come from that summary.
+              The manikin sent a summary only, so there is nothing to show compression by compression; the pass rule above reads that summary.
             </EmptyState>
           )}
         </section>

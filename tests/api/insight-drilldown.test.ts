@@ -169,6 +169,37 @@ describe("GET /api/attempts/:id", () => {
     });
   });
 
+  it("gives the pass rule that scored the attempt, for every role that may open it", async () => {
+    const body = attemptDetailAnswerSchema.parse((await t.instructor.get("/api/attempts/A1-2604-001").expect(200)).body);
+    // the default policy's pass rule and adult band (shared/scoring/policy.ts)
+    expect(body.scoring).toEqual({
+      passRule: { minDepthOkPct: 70, minRateOkPct: 70, minRecoilOkPct: 70, minHandsOnPct: 60, maxLongestPauseS: 10 },
+      band: { depthMinMm: 50, depthMaxMm: 60, rateMin: 100, rateMax: 120, recoilMaxMm: 5 },
+      pauseThresholdS: 2,
+      longPauseLimitS: 10,
+    });
+  });
+
+  it("places the attempt among the network's attempts of its patient type and quarter", async () => {
+    const body = attemptDetailAnswerSchema.parse((await t.quality.get("/api/attempts/A1-2604-001").expect(200)).body);
+    // 2026-Q2 adult attempts (A1, B1, D1): 40. Score 95: 34 below (A1 9, B1 10, D1 80–94 15) and 2 equal (itself,
+    // D1's 95), so (34 + 2/2) / 40 = 87.5 % (mid-rank percentile, worked by hand).
+    expect(body.placement).toMatchObject({ quarter: "2026-Q2", profile: "adult", attempts: 40, hidden: false });
+    expect(body.placement.percentiles.score).toBe(87.5);
+    // hands-on time is 80 % in every fixture attempt: all 40 tie, so the attempt sits at the middle
+    expect(body.placement.percentiles.handsOnPct).toBe(50);
+    // the infant class is alone in its group of four: the lowest of 74, 76, 78, 80 (score) is at 1/2 of 1/4
+    const infant = attemptDetailAnswerSchema.parse((await t.quality.get("/api/attempts/C1-2605-002").expect(200)).body);
+    expect(infant.placement).toMatchObject({ profile: "infant", attempts: 4 });
+    expect(infant.placement.percentiles.score).toBe(12.5);
+  });
+
+  it("gives an instructor the placement when the group holds enough of other people's attempts", async () => {
+    const body = attemptDetailAnswerSchema.parse((await t.instructor.get("/api/attempts/A1-2604-001").expect(200)).body);
+    expect(body.placement).toMatchObject({ attempts: 40, hidden: false });
+    expect(body.placement.percentiles.score).toBe(87.5);
+  });
+
   it("names the errors of a failed attempt and has no stream when none was stored", async () => {
     const body = attemptDetailAnswerSchema.parse((await t.coordinator.get("/api/attempts/B1-2605-010").expect(200)).body);
     expect(body.attempt.errors).toEqual(["long_pause"]);

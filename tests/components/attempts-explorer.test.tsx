@@ -174,7 +174,14 @@ describe("instructors", () => {
   });
 });
 
-const detail = attemptDetailAnswerSchema.parse({ attempt: row("AT-2", "L-5WVLM", 70.6, ["too_shallow"]), errorLabels: [], scoreHistory: [], stream: null });
+const detail = attemptDetailAnswerSchema.parse({
+  attempt: row("AT-2", "L-5WVLM", 70.6, ["too_shallow"]),
+  scoring: null,
+  placement: { quarter: "2026-Q4", profile: "adult", attempts: null, hidden: true, percentiles: { score: null, depthOkPct: null, rateOkPct: null, recoilOkPct: null, handsOnPct: null } },
+  errorLabels: [],
+  scoreHistory: [],
+  stream: null,
+});
 
 describe("attempt page back link", () => {
   const open = (path: string, role: "quality_lead" | "instructor" = "quality_lead") => {
