@@ -6,15 +6,17 @@ import reactHooks from "eslint-plugin-react-hooks";
 import globals from "globals";
 import tseslint from "typescript-eslint";
 
-/** Forbids imports of the named top-level folders from the files the block applies to. */
+/** A relative import that climbs out of its folder and into the named top-level folder. */
+const intoFolder = (name) => `^(\\.\\./)+${name}(/|$)`;
+
+/** Forbids imports of the named top-level folders, static or dynamic, from the files the block applies to. */
 function importsNothingFrom(folders, why) {
+  const message = (name) => `${why} (no imports from ${name}/).`;
   return {
-    "no-restricted-imports": [
+    "no-restricted-imports": ["error", { patterns: folders.map((name) => ({ regex: intoFolder(name), message: message(name) })) }],
+    "no-restricted-syntax": [
       "error",
-      {
-        // A relative import that climbs out of its folder and into the named top-level folder.
-        patterns: folders.map((name) => ({ regex: `^(\\.\\./)+${name}(/|$)`, message: `${why} (no imports from ${name}/).` })),
-      },
+      ...folders.map((name) => ({ selector: `ImportExpression[source.value=/${intoFolder(name).replaceAll("/", "\\/")}/]`, message: message(name) })),
     ],
   };
 }

@@ -22,6 +22,8 @@ describe("lint boundaries", () => {
     expect(await rulesBroken("src/features/example.ts", `import { a } from "../../server/errors";\nexport const b = a;\n`)).toContain("no-restricted-imports");
     expect(await rulesBroken("src/features/example.ts", `import { a } from "../../cli/errors";\nexport const b = a;\n`)).toContain("no-restricted-imports");
     expect(await rulesBroken("src/features/example.ts", `import { a } from "../../shared/units";\nexport const b = a;\n`)).toEqual([]);
+    expect(await rulesBroken("src/features/example.ts", `export const load = () => import("../../server/errors");\n`)).toContain("no-restricted-syntax");
+    expect(await rulesBroken("src/features/example.ts", `export const load = () => import("../../shared/units");\n`)).toEqual([]);
   });
 
   it("lets the CLI call server services but not client code", async () => {
