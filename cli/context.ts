@@ -13,7 +13,7 @@ let open: CliContext | undefined;
 export function context(command: Command): CliContext {
   if (open) return open;
   const globals = command.optsWithGlobals<{ db?: string }>();
-  const config = loadConfig(process.env, globals.db ? { dbFile: globals.db } : {});
+  const config = loadConfig(undefined, globals.db ? { dbFile: globals.db } : {});
   open = { config, db: openDatabase(config.dbFile) };
   return open;
 }

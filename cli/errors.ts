@@ -3,6 +3,7 @@
 import { CommanderError } from "commander";
 import { ZodError } from "zod";
 import { AppError } from "../server/errors";
+import { debugOutputWanted } from "../server/config";
 
 export const EXIT_OK = 0;
 export const EXIT_REFUSED = 1;
@@ -40,7 +41,7 @@ export function handleError(err: unknown): number {
   }
   const message = err instanceof Error ? err.message : String(err);
   printProblem(message, "If this keeps happening, run again with QUARTERBEAT_DEBUG=1 and report the output.");
-  if (process.env.QUARTERBEAT_DEBUG && err instanceof Error) console.error(err.stack);
+  if (debugOutputWanted() && err instanceof Error) console.error(err.stack);
   return EXIT_REFUSED;
 }
 

@@ -12,12 +12,14 @@ import { registerRetention } from "./commands/retention";
 import { registerAgreement } from "./commands/agreement";
 import { registerRestore } from "./commands/restore";
 import { registerSystem } from "./commands/system";
+import { APP_VERSION } from "../server/ops/version";
 import { closeContext } from "./context";
 import { handleError } from "./errors";
 
 export function buildProgram(): Command {
   const program = new Command("quarterbeat")
     .description("Quarterbeat: CPR training quality for a network of instructors")
+    .version(APP_VERSION, "-V, --version", "print the program's version")
     .option("--db <file>", "SQLite database file (default: $QUARTERBEAT_DB, then data/quarterbeat.sqlite)")
     .exitOverride()
     .showHelpAfterError("(run with --help for usage)");

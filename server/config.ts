@@ -54,3 +54,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     ...overrides,
   };
 }
+
+/** Whether commands print stack traces of unexpected errors (QUARTERBEAT_DEBUG set to anything). */
+export function debugOutputWanted(env: NodeJS.ProcessEnv = process.env): boolean {
+  return Boolean(env.QUARTERBEAT_DEBUG);
+}

@@ -10,7 +10,7 @@ export function registerRestore(program: Command) {
     .action(async (file: string, options: { force?: boolean }, command: Command) => {
       // Not the shared context: that would open (and so create and migrate) the very file being replaced.
       const globals = command.optsWithGlobals<{ db?: string }>();
-      const config = loadConfig(process.env, globals.db ? { dbFile: globals.db } : {});
+      const config = loadConfig(undefined, globals.db ? { dbFile: globals.db } : {});
       const result = await restoreDatabase({ backupFile: file, targetFile: config.dbFile, force: options.force });
       const rows = Object.values(result.tables).reduce((sum, n) => sum + n, 0);
       console.log(`${result.replaced ? "Replaced" : "Created"} ${config.dbFile} from ${file}: ${Object.keys(result.tables).length} tables, ${rows} rows, ${result.tables.attempts ?? 0} attempts.`);

@@ -6,7 +6,8 @@ import { can, reachOf, type Permission } from "../../shared/permissions";
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace
   namespace Express {
-    // passport puts the signed-in user here
+    // passport puts the signed-in user here; only an interface merges with Express's own declaration
+    // eslint-disable-next-line @typescript-eslint/no-empty-object-type
     interface User extends CurrentUser {}
   }
 }

@@ -10,6 +10,8 @@ const TOUCH_EVERY_MS = 5 * 60 * 1000;
 const WRITE_WAIT_MS = 5 * 60 * 1000;
 /** How long an ended session id is remembered, so a request still in flight cannot write it back. */
 const ENDED_MEMORY_MS = 10 * 60 * 1000;
+/** How often expired sessions are deleted; a read never returns one, so this only keeps the table small. */
+export const PRUNE_EVERY_MS = 15 * 60 * 1000;
 
 export class SqliteSessionStore extends session.Store {
   private readonly statements;
@@ -18,11 +20,14 @@ export class SqliteSessionStore extends session.Store {
   private readonly ended = new Map<string, number>();
 
   private readonly sqlite;
+  private readonly pruneTimer: NodeJS.Timeout;
 
   constructor(db: Db) {
     super();
     const sqlite = db.$client;
     this.sqlite = sqlite;
+    // unref: the timer never keeps a process alive; it ends by itself once the connection is closed
+    this.pruneTimer = setInterval(() => this.pruneOnSchedule(), PRUNE_EVERY_MS).unref();
     this.statements = {
       get: sqlite.prepare<[string, number], { sess: string }>("SELECT sess FROM sessions WHERE sid = ? AND expires_at > ?"),
       set: sqlite.prepare(
@@ -138,5 +143,15 @@ export class SqliteSessionStore extends session.Store {
 
   prune(): void {
     this.housekeeping(this.statements.prune.run(Date.now()));
+  }
+
+  private pruneOnSchedule(): void {
+    if (!this.sqlite.open) return clearInterval(this.pruneTimer);
+    try {
+      this.withoutWaiting(() => this.prune());
+    } catch {
+      // an import holding the write lock (or any other failure) only delays the pruning to the next round;
+      // housekeeping must never bring the server down
+    }
   }
 }

@@ -13,7 +13,7 @@ import { AppError } from "../errors";
 import { logImport } from "../logging/events";
 import type { Logger } from "../logging/logger";
 import type { ImportActor } from "./run";
-import type { StoredUpload } from "./uploads";
+import { rejectedRowsPath, type StoredUpload } from "./uploads";
 import type { WorkerInput, WorkerMessage } from "./importWorker";
 
 interface JobState extends ImportJob {
@@ -50,7 +50,7 @@ export class ImportJobs {
       rejectedCsvUrl: null,
       createdAt: new Date().toISOString(),
       userId: actor.userId,
-      rejectedPath: `${upload.path}.${id}.rejected.csv`,
+      rejectedPath: rejectedRowsPath(upload.path, id),
     };
     this.jobs.set(id, job);
     this.forgetOld();

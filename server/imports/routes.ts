@@ -128,8 +128,7 @@ export function importRoutes(db: Db, options: ImportRouteOptions = {}): Router {
 
   router.get("/imports/jobs/:id/rejected.csv", (req, res) => {
     const file = jobs.rejectedCsv(String(req.params.id), signedInUser(req));
-    res.setHeader("content-type", "text/csv; charset=utf-8");
-    res.setHeader("content-disposition", 'attachment; filename="refused-rows.csv"');
+    res.attachment("refused-rows.csv").type("text/csv; charset=utf-8");
     fs.createReadStream(file).pipe(res);
   });
 
@@ -149,8 +148,7 @@ export function importRoutes(db: Db, options: ImportRouteOptions = {}): Router {
   router.get("/imports/batches/:id/rejected.csv", (req, res) => {
     const user = signedInUser(req);
     const batch = getBatch(db, parseId(req.params.id), ownBatchesOnly(user));
-    res.setHeader("content-type", "text/csv; charset=utf-8");
-    res.setHeader("content-disposition", `attachment; filename="batch-${batch.id}-refused-rows.csv"`);
+    res.attachment(`batch-${batch.id}-refused-rows.csv`).type("text/csv; charset=utf-8");
     for (const line of rejectedRowsCsv(db, batch.id)) res.write(line);
     res.end();
   });

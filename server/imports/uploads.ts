@@ -18,6 +18,12 @@ export interface StoredUpload extends Upload {
 }
 
 const KEEP_MS = 6 * 60 * 60 * 1000;
+const REJECTED_SUFFIX = ".rejected.csv";
+
+/** Where a job writes the refused rows of an upload: beside it, so the upload's sweep removes them too. */
+export function rejectedRowsPath(uploadPath: string, jobId: string): string {
+  return `${uploadPath}.${jobId}${REJECTED_SUFFIX}`;
+}
 
 export class UploadStore {
   readonly dir: string;
@@ -63,12 +69,15 @@ export class UploadStore {
 
   private sweep() {
     const cutoff = Date.now() - KEEP_MS;
-    for (const [id, upload] of this.uploads) {
-      if (Date.parse(upload.uploadedAt) < cutoff) {
-        fs.rmSync(upload.path, { force: true });
-        fs.rmSync(`${upload.path}.rejected.csv`, { force: true });
-        this.uploads.delete(id);
-      }
+    const expired = [...this.uploads.values()].filter((upload) => Date.parse(upload.uploadedAt) < cutoff);
+    if (expired.length === 0) return;
+    const files = fs.readdirSync(this.dir);
+    for (const upload of expired) {
+      fs.rmSync(upload.path, { force: true });
+      // every job's refused rows of this upload (rejectedRowsPath)
+      const start = `${path.basename(upload.path)}.`;
+      for (const name of files) if (name.startsWith(start) && name.endsWith(REJECTED_SUFFIX)) fs.rmSync(path.join(this.dir, name), { force: true });
+      this.uploads.delete(upload.id);
     }
   }
 }

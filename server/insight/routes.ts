@@ -93,9 +93,9 @@ export function insightRoutes(db: Db): Router {
     const { filters } = context(req, "attempts.csv", filterPart(query));
     res
       .status(200)
+      .attachment(attemptsCsvFileName(filters))
       .type("text/csv; charset=utf-8")
-      .set("Cache-Control", "no-store")
-      .set("Content-Disposition", `attachment; filename="${attemptsCsvFileName(filters)}"`);
+      .set("Cache-Control", "no-store");
     writeAttemptsCsv(db, filters, search, (text) => res.write(text));
     res.end();
   });

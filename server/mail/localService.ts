@@ -18,7 +18,7 @@ export interface LocalMailService {
 }
 
 export function storeReceivedMail(db: Db, raw: Buffer, envelope: { from: string; to: string[] }): number {
-  let subject = "";
+  let subject: string;
   let text = "";
   let attachments: { filename: string; contentType: string; size: number }[] = [];
   try {

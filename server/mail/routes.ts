@@ -3,7 +3,6 @@ import { Router } from "express";
 import type { Db } from "../db/client";
 import { allow } from "../auth/guard";
 import { parseId } from "../http/validate";
-import { contentDisposition } from "../reports/download";
 import { listOutbox, outboxAttachment } from "./outbox";
 
 export function outboxRoutes(db: Db): Router {
@@ -19,9 +18,10 @@ export function outboxRoutes(db: Db): Router {
     const attachment = outboxAttachment(db, parseId(req.params.id), Number.isInteger(index) && index >= 0 ? index : -1);
     // only types the report itself sends keep their type; anything else downloads as plain bytes
     const safeType = ["application/pdf", "text/csv"].includes(attachment.contentType) ? attachment.contentType : "application/octet-stream";
+    // attachment() also sets a type from the name's extension; the safe type set after it wins
     res
+      .attachment(attachment.filename)
       .type(safeType)
-      .set("Content-Disposition", contentDisposition(attachment.filename))
       .set("X-Content-Type-Options", "nosniff")
       .send(attachment.content);
   });

@@ -251,34 +251,39 @@ function drawFeedback(page: PageFlow, data: ReportData) {
   page.paragraph(`Bars show the pass rate, whiskers its 95 % interval. ${reading}`, { size: 7.5, colour: colours.muted, gapAfter: 14 });
 }
 
+const TABLE_ROW_HEIGHT = 15;
+
 interface Column {
   title: string;
   width: number;
   align?: "left" | "right";
 }
 
+/**
+ * A table drawn by pdfkit's own table support: a muted header over a rule, rows shaded in turn, and cells
+ * that wrap long text onto more lines (the row grows) instead of running into the next column.
+ */
 function drawTable(page: PageFlow, columns: Column[], rows: string[][]) {
   const { doc } = page;
-  const rowHeight = 15;
-  page.ensure(rowHeight * (rows.length + 1));
-  let x = MARGIN.left;
-  for (const column of columns) {
-    doc.font(FONT).fontSize(7.5).fillColor(colours.muted).text(column.title, x + 4, page.y + 3, { width: column.width - 8, align: column.align ?? "left", lineBreak: false });
-    x += column.width;
-  }
-  page.y += rowHeight;
-  doc.moveTo(MARGIN.left, page.y).lineTo(MARGIN.left + CONTENT_WIDTH, page.y).lineWidth(0.6).strokeColor(colours.line).stroke();
-  rows.forEach((row, i) => {
-    if (i % 2 === 1) doc.rect(MARGIN.left, page.y, CONTENT_WIDTH, rowHeight).fill(colours.paper);
-    x = MARGIN.left;
-    row.forEach((cell, c) => {
-      const column = columns[c];
-      doc.font(FONT).fontSize(8.5).fillColor(colours.ink).text(cell, x + 4, page.y + 4, { width: column.width - 8, align: column.align ?? "left", lineBreak: false });
-      x += column.width;
-    });
-    page.y += rowHeight;
+  // Short tables stay on one page; a longer one continues on the next page by itself.
+  page.ensure(TABLE_ROW_HEIGHT * (rows.length + 1));
+  // An empty last column takes up any width left, so the rule and the shading run the full content width.
+  const rest = CONTENT_WIDTH - columns.reduce((sum, column) => sum + column.width, 0);
+  const filled = rest > 0.5 ? [...columns, { title: "", width: rest }] : columns;
+  const cells = rest > 0.5 ? rows.map((row) => [...row, ""]) : rows;
+  doc.font(FONT).fontSize(8.5);
+  doc.table({
+    position: { x: MARGIN.left, y: page.y },
+    maxWidth: CONTENT_WIDTH,
+    defaultStyle: { border: 0, padding: [4, 4, 1, 4], textColor: colours.ink },
+    columnStyles: filled.map((column) => ({ width: column.width, align: { x: column.align ?? "left", y: "top" } })),
+    rowStyles: (i: number) =>
+      i === 0
+        ? { minHeight: TABLE_ROW_HEIGHT, font: { size: 7.5 }, textColor: colours.muted, padding: [3, 4, 2.5, 4], border: [0, 0, 0.6, 0], borderColor: colours.line }
+        : { minHeight: TABLE_ROW_HEIGHT, backgroundColor: i % 2 === 0 ? colours.paper : undefined },
+    data: [filled.map((column) => column.title), ...cells],
   });
-  page.y += 14;
+  page.y = doc.y + 14;
 }
 
 function drawPatientTypes(page: PageFlow, data: ReportData) {

@@ -20,7 +20,6 @@ import type { Logger } from "../logging/logger";
 import type { Mailer } from "../mail/mailer";
 import { reportCsv } from "./csvExport";
 import { buildReportData, readQuarterNotes, reportPeriod, saveQuarterNotes } from "./data";
-import { contentDisposition } from "./download";
 import { listSends, retrySend, sendReport } from "./send";
 import { findReport, generateReport, listReports, reportFileName } from "./store";
 
@@ -62,8 +61,8 @@ export function reportRoutes(db: Db, mailer: Mailer, logger: Logger): Router {
   router.get("/reports/:id/pdf", allow("readReport"), (req, res) => {
     const report = findReport(db, parseId(req.params.id));
     res
+      .attachment(reportFileName(report.period, report.version))
       .type("application/pdf")
-      .set("Content-Disposition", contentDisposition(reportFileName(report.period, report.version)))
       .set("Cache-Control", "private, no-store")
       .send(report.pdf);
   });
@@ -71,8 +70,8 @@ export function reportRoutes(db: Db, mailer: Mailer, logger: Logger): Router {
   router.get("/reports/:id/csv", allow("readReport"), (req, res) => {
     const report = findReport(db, parseId(req.params.id));
     res
+      .attachment(reportFileName(report.period, report.version).replace(/\.pdf$/, ".csv"))
       .type("text/csv; charset=utf-8")
-      .set("Content-Disposition", contentDisposition(reportFileName(report.period, report.version).replace(/\.pdf$/, ".csv")))
       .send(reportCsv(report.data));
   });
 

@@ -35,16 +35,17 @@ export function SkipLink() {
 function SignedInLayout() {
   const user = useCurrentUser();
   const location = useLocation();
-  const [menuOpen, setMenuOpen] = useState(false);
+  // The path the phone menu was opened on: moving to another page closes it without an extra render.
+  const [menuOpenOn, setMenuOpenOn] = useState<string | null>(null);
+  const menuOpen = menuOpenOn === location.pathname;
   const navId = useId();
   const mainRef = useRef<HTMLElement>(null);
   const firstRender = useRef(true);
   useFollowDataChanges();
 
-  // After moving to another page: close the phone menu and put focus at the start of the new page, so
-  // keyboard and screen-reader users continue from there rather than from the old link.
+  // After moving to another page: put focus at the start of the new page, so keyboard and screen-reader
+  // users continue from there rather than from the old link.
   useEffect(() => {
-    setMenuOpen(false);
     if (firstRender.current) {
       firstRender.current = false;
       return;
@@ -62,7 +63,7 @@ function SignedInLayout() {
             className="inline-flex min-h-11 items-center gap-2 rounded-control border border-dusk-400 px-3 font-medium lg:hidden"
             aria-expanded={menuOpen}
             aria-controls={navId}
-            onClick={() => setMenuOpen((open) => !open)}
+            onClick={() => setMenuOpenOn(menuOpen ? null : location.pathname)}
           >
             <svg viewBox="0 0 20 20" className="size-5" aria-hidden="true">
               {menuOpen ? (

@@ -1,7 +1,7 @@
 // Labelled form controls. Each control is tied to its label, its hint and its error message, so screen
 // readers announce all three and the error sits right beside the field it is about.
 import clsx from "clsx";
-import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from "react";
+import { useId, type InputHTMLAttributes, type ReactNode, type Ref, type SelectHTMLAttributes } from "react";
 
 export interface FieldIds {
   id: string;
@@ -67,6 +67,7 @@ type InputOwnProps = Omit<FieldProps, "children">;
 
 export interface InputProps extends InputOwnProps, Omit<InputHTMLAttributes<HTMLInputElement>, "className"> {
   inputClassName?: string;
+  ref?: Ref<HTMLInputElement>;
 }
 
 export function Input({ label, hint, error, optional, className, inputClassName, ...input }: InputProps) {
@@ -95,6 +96,7 @@ export interface SelectProps extends InputOwnProps, Omit<SelectHTMLAttributes<HT
   options: readonly SelectOption[];
   /** A first, empty choice such as "Choose a role…". */
   placeholder?: string;
+  ref?: Ref<HTMLSelectElement>;
 }
 
 export function Select({ label, hint, error, optional, className, options, placeholder, ...select }: SelectProps) {

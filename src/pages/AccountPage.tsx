@@ -1,17 +1,18 @@
 // My account: who I am, my password, and the unit lengths are shown in.
 import { useState } from "react";
 import { lengthUnits, roleLabels } from "../../shared/domain";
-import { changePasswordSchema } from "../../shared/schemas/auth";
+import { changePasswordSchema, type ChangePassword } from "../../shared/schemas/auth";
 import { formatLength, type LengthUnit } from "../../shared/units";
 import { Button } from "../components/Button";
-import { Input } from "../components/Field";
+import { FormField } from "../components/FormField";
+import { FormShell } from "../components/FormShell";
 import { Notice } from "../components/Notice";
 import { PageHeader } from "../components/PageHeader";
 import { errorMessage } from "../components/States";
 import { useChangePassword, useUpdateLengthUnit } from "../features/auth/mutations";
 import { useCurrentUser } from "../features/auth/useSession";
 import { lengthUnitNames } from "../lib/useLengthUnit";
-import { useZodForm } from "../lib/useZodForm";
+import { showServerError, useSchemaForm } from "../lib/useSchemaForm";
 
 export default function AccountPage() {
   const user = useCurrentUser();
@@ -97,19 +98,19 @@ const emptyPasswords = { currentPassword: "", newPassword: "", confirmPassword: 
 
 function ChangePasswordSection({ email }: { email: string }) {
   const change = useChangePassword();
-  const form = useZodForm(changePasswordSchema, emptyPasswords);
+  const form = useSchemaForm(changePasswordSchema, emptyPasswords);
   const [saved, setSaved] = useState(false);
 
-  const submit = form.handleSubmit((values) => {
+  function submit(values: ChangePassword) {
     setSaved(false);
     change.mutate(values, {
       onSuccess: () => {
         form.reset(emptyPasswords);
         setSaved(true);
       },
-      onError: form.showServerError,
+      onError: (error) => showServerError(form, error),
     });
-  });
+  }
 
   return (
     <section aria-labelledby="account-password" className="rounded-card border border-line bg-surface p-5 shadow-card">
@@ -121,46 +122,22 @@ function ChangePasswordSection({ email }: { email: string }) {
           Password changed. Use the new one next time you sign in.
         </Notice>
       )}
-      {form.formError && (
-        <Notice tone="error" className="mb-3">
-          {form.formError}
-        </Notice>
-      )}
-      <form noValidate onSubmit={submit} className="flex flex-col gap-4">
+      <FormShell form={form} onValid={submit}>
         {/* Lets password managers file the new password under the right account. */}
         <input type="email" name="username" autoComplete="username" value={email} readOnly hidden />
-        <Input
-          label="Current password"
-          name="currentPassword"
-          type="password"
-          autoComplete="current-password"
-          value={form.values.currentPassword}
-          onChange={(event) => form.setValue("currentPassword", event.target.value)}
-          error={form.errors.currentPassword}
-        />
-        <Input
+        <FormField label="Current password" name="currentPassword" type="password" autoComplete="current-password" />
+        <FormField
           label="New password"
           name="newPassword"
           type="password"
           autoComplete="new-password"
           hint="At least 10 characters. A few unrelated words make a strong password that is easy to type."
-          value={form.values.newPassword}
-          onChange={(event) => form.setValue("newPassword", event.target.value)}
-          error={form.errors.newPassword}
         />
-        <Input
-          label="New password again"
-          name="confirmPassword"
-          type="password"
-          autoComplete="new-password"
-          value={form.values.confirmPassword}
-          onChange={(event) => form.setValue("confirmPassword", event.target.value)}
-          error={form.errors.confirmPassword}
-        />
+        <FormField label="New password again" name="confirmPassword" type="password" autoComplete="new-password" />
         <Button type="submit" busy={change.isPending} className="self-start">
           Change password
         </Button>
-      </form>
+      </FormShell>
     </section>
   );
 }

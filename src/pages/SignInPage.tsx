@@ -1,19 +1,19 @@
-import { useState } from "react";
 import { Navigate, useNavigate, useSearchParams } from "react-router";
-import { signInSchema } from "../../shared/schemas/auth";
+import { signInSchema, type SignIn } from "../../shared/schemas/auth";
 import { ApiError } from "../api/http";
 import { SkipLink } from "../app/AppLayout";
 import { useDocumentTitle } from "../app/RouteGuard";
 import { useRouteTable } from "../app/RouteTable";
 import { Button } from "../components/Button";
-import { Input } from "../components/Field";
+import { FormField } from "../components/FormField";
+import { FormShell } from "../components/FormShell";
 import { Logo } from "../components/Logo";
 import { Notice } from "../components/Notice";
 import { LoadingState } from "../components/States";
 import { useSignIn } from "../features/auth/mutations";
 import { useSession } from "../features/auth/useSession";
 import { safeNextPath } from "../lib/safeNext";
-import { useZodForm } from "../lib/useZodForm";
+import { FORM_ERROR, showServerError, useSchemaForm } from "../lib/useSchemaForm";
 
 /** One message for every wrong e-mail/password combination, so the form does not reveal which accounts exist. */
 export const wrongCredentialsMessage = "That e-mail address and password do not match an active account. Check both and try again.";
@@ -31,8 +31,8 @@ export default function SignInPage() {
   const [params] = useSearchParams();
   const navigate = useNavigate();
   const signIn = useSignIn();
-  const form = useZodForm(signInSchema, { email: "", password: "" });
-  const [problem, setProblem] = useState<{ tone: "error"; text: string } | null>(null);
+  const form = useSchemaForm(signInSchema, { email: "", password: "" });
+  const problem = form.formState.errors.root?.server?.message;
   const next = safeNextPath(params.get("next"));
   const { homePathFor } = useRouteTable();
 
@@ -41,19 +41,19 @@ export default function SignInPage() {
     return <Navigate to={next ?? homePathFor(session.data.user.role)} replace />;
   }
 
-  const submit = form.handleSubmit((credentials) => {
-    setProblem(null);
+  function submit(credentials: SignIn) {
+    const say = (message: string) => form.setError(FORM_ERROR, { type: "server", message });
     signIn.mutate(credentials, {
       onSuccess: (answer) => navigate(next ?? homePathFor(answer.user.role), { replace: true }),
       onError: (error) => {
-        if (error instanceof ApiError && error.status === 401) setProblem({ tone: "error", text: wrongCredentialsMessage });
-        else if (error instanceof ApiError && error.status === 429) setProblem({ tone: "error", text: rateLimitMessage(error) });
-        else if (error instanceof ApiError && error.status === 422) form.showServerError(error);
-        else if (error instanceof ApiError) setProblem({ tone: "error", text: error.message });
-        else setProblem({ tone: "error", text: "Quarterbeat could not be reached. Check the connection and try again." });
+        if (error instanceof ApiError && error.status === 401) say(wrongCredentialsMessage);
+        else if (error instanceof ApiError && error.status === 429) say(rateLimitMessage(error));
+        else if (error instanceof ApiError && error.status === 422) showServerError(form, error);
+        else if (error instanceof ApiError) say(error.message);
+        else say("Quarterbeat could not be reached. Check the connection and try again.");
       },
     });
-  });
+  }
 
   return (
     <div className="flex min-h-screen flex-col items-center bg-paper px-4 py-10 sm:py-16">
@@ -70,36 +70,13 @@ export default function SignInPage() {
               Sign in to continue to the page you asked for.
             </Notice>
           )}
-          {(problem || form.formError) && (
-            <Notice tone="error" className="mb-4">
-              {problem?.text ?? form.formError}
-            </Notice>
-          )}
-          <form noValidate onSubmit={submit} className="flex flex-col gap-4">
-            <Input
-              label="E-mail address"
-              name="email"
-              type="email"
-              autoComplete="username"
-              inputMode="email"
-              spellCheck={false}
-              value={form.values.email}
-              onChange={(event) => form.setValue("email", event.target.value)}
-              error={form.errors.email}
-            />
-            <Input
-              label="Password"
-              name="password"
-              type="password"
-              autoComplete="current-password"
-              value={form.values.password}
-              onChange={(event) => form.setValue("password", event.target.value)}
-              error={form.errors.password}
-            />
+          <FormShell form={form} onValid={submit}>
+            <FormField label="E-mail address" name="email" type="email" autoComplete="username" inputMode="email" spellCheck={false} />
+            <FormField label="Password" name="password" type="password" autoComplete="current-password" />
             <Button type="submit" busy={signIn.isPending} className="mt-2 w-full">
               {signIn.isPending ? "Signing in…" : "Sign in"}
             </Button>
-          </form>
+          </FormShell>
           <p className="mt-6 text-small text-muted">
             Forgotten your password? Ask your regional coordinator to set a temporary one.
           </p>

@@ -1,6 +1,6 @@
 // Users (coordinator): every account, adding one, editing, deactivating and setting temporary passwords.
 import { useQuery } from "@tanstack/react-query";
-import { useMemo, useState } from "react";
+import { useCallback, useMemo, useState } from "react";
 import { roleLabels } from "../../shared/domain";
 import type { UserRow } from "../../shared/schemas/users";
 import { ActiveBadge } from "../components/ActiveBadge";
@@ -27,9 +27,10 @@ export default function UsersAdminPage() {
   const [dialog, setDialog] = useState<OpenDialog>(null);
   const [message, setMessage] = useState<Message>(null);
 
-  function setActive(user: UserRow, active: boolean) {
+  const { mutate: saveUser } = update;
+  const setActive = useCallback((user: UserRow, active: boolean) => {
     setMessage(null);
-    update.mutate(
+    saveUser(
       { id: user.id, changes: { active } },
       {
         onSuccess: () =>
@@ -40,7 +41,7 @@ export default function UsersAdminPage() {
         onError: (error) => setMessage({ tone: "error", text: `${user.displayName} was not changed: ${errorMessage(error)}` }),
       },
     );
-  }
+  }, [saveUser]);
 
   const columns = useMemo<Column<UserRow>[]>(
     () => [
@@ -93,7 +94,7 @@ export default function UsersAdminPage() {
         ),
       },
     ],
-    [me.id, update.isPending, update.variables],
+    [me.id, update.isPending, update.variables, setActive],
   );
 
   const close = () => setDialog(null);

@@ -157,7 +157,7 @@ describe("GET /api/attempts.csv", () => {
   it("holds the whole filtered result in the list's order, not one page", async () => {
     const res = await t.coordinator.get(`/api/attempts.csv?${ALL_QUARTERS}&error=too_shallow&sort=score&dir=desc`).expect(200);
     expect(res.headers["content-type"]).toMatch(/^text\/csv/);
-    expect(res.headers["content-disposition"]).toBe('attachment; filename="attempts-2025-Q3-to-2026-Q2.csv"');
+    expect(res.headers["content-disposition"]).toBe("attachment; filename=attempts-2025-Q3-to-2026-Q2.csv");
     const lines = parseLines(res.text);
     expect(lines[0].split(",").slice(0, 5)).toEqual(["Attempt", "Started", "Period", "Class", "Learner"]);
     const { rows } = await allPages(t.coordinator, `${ALL_QUARTERS}&error=too_shallow&sort=score&dir=desc`, 200);

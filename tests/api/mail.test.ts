@@ -7,7 +7,7 @@ import { createApp } from "../../server/app";
 import { loadConfig } from "../../server/config";
 import type { Db } from "../../server/db/client";
 import { mailbox } from "../../server/db/schema";
-import { startLocalMailService, type LocalMailService } from "../../server/mail/localService";
+import { startLocalMailService, storeReceivedMail, type LocalMailService } from "../../server/mail/localService";
 import { createMailer } from "../../server/mail/mailer";
 import { findReport } from "../../server/reports/store";
 import { insertReportFixture } from "../unit/report/fixture";
@@ -93,6 +93,37 @@ describe("sending a report", () => {
     expect(file.headers["content-type"]).toBe("application/pdf");
     expect(Buffer.compare(file.body as Buffer, findReport(db, reportId).pdf)).toBe(0);
     await coordinator.get(`/api/outbox/${message.id}/attachment/5`).expect(404);
+  });
+
+  it("downloads an attachment whatever its name holds, with a safe header and type", async () => {
+    const raw = Buffer.from(
+      [
+        "From: someone@example.org",
+        "To: coord@test.example",
+        "Subject: names",
+        "MIME-Version: 1.0",
+        'Content-Type: multipart/mixed; boundary="b1"',
+        "",
+        "--b1",
+        "Content-Type: text/plain; charset=utf-8",
+        "",
+        "See the file.",
+        "--b1",
+        "Content-Type: text/html",
+        "Content-Transfer-Encoding: base64",
+        // RFC 2231: the name is Bericht "März".html, with quotes and a non-ASCII letter
+        "Content-Disposition: attachment; filename*=UTF-8''Bericht%20%22M%C3%A4rz%22.html",
+        "",
+        Buffer.from("<script>alert(1)</script>").toString("base64"),
+        "--b1--",
+        "",
+      ].join("\r\n"),
+    );
+    const id = storeReceivedMail(db, raw, { from: "someone@example.org", to: ["coord@test.example"] });
+    const file = await coordinator.get(`/api/outbox/${id}/attachment/0`).buffer(true).parse(binary).expect(200);
+    expect(file.headers["content-type"]).toBe("application/octet-stream");
+    expect(file.headers["content-disposition"]).toBe(`attachment; filename="Bericht \\"M?rz\\".html"; filename*=UTF-8''Bericht%20%22M%C3%A4rz%22.html`);
+    expect((file.body as Buffer).toString()).toBe("<script>alert(1)</script>");
   });
 
   it("refuses an extra address that is not an e-mail address", async () => {

@@ -98,9 +98,7 @@ describe("stored versions", () => {
     const res = await funder.get(`/api/reports/${firstId}/pdf`).buffer(true).parse(binary).expect(200);
     const stored = db.select({ pdf: reports.pdf }).from(reports).where(eq(reports.id, firstId)).get()!;
     expect(res.headers["content-type"]).toBe("application/pdf");
-    expect(res.headers["content-disposition"]).toBe(
-      `attachment; filename="quarterbeat-funder-report-2026-Q3-v1.pdf"; filename*=UTF-8''quarterbeat-funder-report-2026-Q3-v1.pdf`,
-    );
+    expect(res.headers["content-disposition"]).toBe("attachment; filename=quarterbeat-funder-report-2026-Q3-v1.pdf");
     expect(Buffer.compare(res.body as Buffer, Buffer.from(stored.pdf))).toBe(0);
     const parser = new PDFParse({ data: new Uint8Array(res.body as Buffer) });
     const { text } = await parser.getText();

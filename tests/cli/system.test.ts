@@ -34,6 +34,14 @@ describe("quarterbeat system", () => {
     expect(system.mail).toMatchObject({ delivery: "outbox", server: null, reportSends: { sent: 0, failed: 0 } });
   });
 
+  it("prints the program's version from package.json", () => {
+    const version = (JSON.parse(fs.readFileSync(path.resolve("package.json"), "utf8")) as { version: string }).version;
+    const res = cli(["--version"]);
+    expect(res.stderr).toBe("");
+    expect(res.code).toBe(0);
+    expect(res.stdout.trim()).toBe(version);
+  });
+
   it("prints the same state as text without --json", () => {
     const res = cli(["--db", db, "system"]);
     expect(res.code).toBe(0);

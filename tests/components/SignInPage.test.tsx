@@ -1,4 +1,4 @@
-import { cleanup, fireEvent, screen } from "@testing-library/react";
+import { cleanup, fireEvent, screen, waitFor } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { wrongCredentialsMessage } from "../../src/pages/SignInPage";
 import { renderApp } from "./renderApp";
@@ -27,8 +27,8 @@ describe("sign-in form", () => {
 
     const email = screen.getByLabelText("E-mail address");
     const password = screen.getByLabelText("Password");
-    // Messages from shared/schemas/auth.ts, tied to their fields for screen readers.
-    expect(email.getAttribute("aria-invalid")).toBe("true");
+    // Messages from shared/schemas/auth.ts, tied to their fields for screen readers (validation settles a tick later).
+    await waitFor(() => expect(email.getAttribute("aria-invalid")).toBe("true"));
     expect(document.getElementById(email.getAttribute("aria-describedby")!)?.textContent).toBe("Enter an e-mail address such as name@example.org");
     expect(document.getElementById(password.getAttribute("aria-describedby")!)?.textContent).toBe("Enter your password");
     expect(document.activeElement).toBe(email);
@@ -40,9 +40,9 @@ describe("sign-in form", () => {
     renderApp("/sign-in");
     await screen.findByRole("heading", { name: "Sign in" });
     fill("not-an-address", "");
-    expect(screen.getByText("Enter an e-mail address such as name@example.org")).toBeTruthy();
+    expect(await screen.findByText("Enter an e-mail address such as name@example.org")).toBeTruthy();
     fireEvent.change(screen.getByLabelText("E-mail address"), { target: { value: "robin@example.org" } });
-    expect(screen.queryByText("Enter an e-mail address such as name@example.org")).toBeNull();
+    await waitFor(() => expect(screen.queryByText("Enter an e-mail address such as name@example.org")).toBeNull());
     expect(screen.getByText("Enter your password")).toBeTruthy();
   });
 

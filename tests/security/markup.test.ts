@@ -1,6 +1,7 @@
 // Markup and spreadsheet formulas in free text: stored and answered as text. The API answers JSON (never
 // HTML), the report PDF prints the text as it was typed, and CSV downloads neutralise cells a spreadsheet
 // would run as a formula (OWASP "CSV Injection": a leading ' before = + - @).
+import { parse } from "csv-parse/sync";
 import { PDFParse } from "pdf-parse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { SPREADSHEET_CSV, toCsv } from "../../shared/csv";
@@ -43,25 +44,8 @@ async function runJob(uploadId: string, mode: "validate" | "import", body: objec
 
 /** Parses CSV text (RFC 4180 quoting) into rows of cells. */
 function parseCsv(text: string): string[][] {
-  const rows: string[][] = [];
-  let row: string[] = [];
-  let cell = "";
-  let quoted = false;
-  for (let i = 0; i < text.length; i++) {
-    const c = text[i];
-    if (quoted) {
-      if (c === '"' && text[i + 1] === '"') (cell += '"'), i++;
-      else if (c === '"') quoted = false;
-      else cell += c;
-    } else if (c === '"') quoted = true;
-    else if (c === ",") row.push(cell), (cell = "");
-    else if (c === "\n" || c === "\r") {
-      if (c === "\r" && text[i + 1] === "\n") i++;
-      row.push(cell), rows.push(row), (row = []), (cell = "");
-    } else cell += c;
-  }
-  if (cell !== "" || row.length > 0) row.push(cell), rows.push(row);
-  return rows;
+  // relax_column_count: the report CSV holds sections of different widths
+  return parse(text, { relax_column_count: true });
 }
 
 /** No cell a spreadsheet would run as a formula. */

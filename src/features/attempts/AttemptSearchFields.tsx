@@ -1,6 +1,6 @@
 // The typed searches of the attempt list: a learner code (whole, or its start) and a class id. They are
 // checked with the server's own schemas before they go into the URL, so a mistyped code is named here.
-import { useEffect, useState, type FormEvent } from "react";
+import { useState, type FormEvent } from "react";
 import { learnerParamSchema, refParamSchema } from "../../../shared/filters";
 import { Button } from "../../components/Button";
 import { Input } from "../../components/Field";
@@ -20,9 +20,13 @@ function problem(schema: typeof learnerParamSchema, value: string): string | und
 export function AttemptSearchFields({ values, onSearch }: { values: SearchValues; onSearch: (values: SearchValues) => void }) {
   const [draft, setDraft] = useState(values);
   const [errors, setErrors] = useState<{ learner?: string; classId?: string }>({});
-  // follow the URL when it changes from outside (back button, a link, "Clear")
+  // follow the URL when it changes from outside (back button, a link, "Clear"), in the same render
   const { learner, learnerPrefix, classId } = values;
-  useEffect(() => setDraft({ learner, learnerPrefix, classId }), [learner, learnerPrefix, classId]);
+  const [followed, setFollowed] = useState(values);
+  if (followed.learner !== learner || followed.learnerPrefix !== learnerPrefix || followed.classId !== classId) {
+    setFollowed(values);
+    setDraft({ learner, learnerPrefix, classId });
+  }
 
   function submit(event: FormEvent) {
     event.preventDefault();

@@ -6,7 +6,7 @@ const ORIGIN = "https://quarterbeat.invalid";
 
 /** The path itself when it is an in-app path ("/attempts?…", "/classes/C-1"); otherwise null. */
 export function inAppPath(value: string | null | undefined): string | null {
-  if (!value || value.length > 2000 || !value.startsWith("/") || value.startsWith("//") || /[\\\u0000-\u001f]/.test(value)) return null;
+  if (!value || value.length > 2000 || !value.startsWith("/") || value.startsWith("//") || hasBackslashOrControl(value)) return null;
   let url: URL;
   try {
     url = new URL(value, ORIGIN);
@@ -37,4 +37,13 @@ function safeDecode(text: string): string {
   } catch {
     return text;
   }
+}
+
+/** A backslash or a control character (U+0000–U+001F): browsers read either in ways a plain path never needs. */
+function hasBackslashOrControl(value: string): boolean {
+  for (let i = 0; i < value.length; i++) {
+    const code = value.charCodeAt(i);
+    if (code < 0x20 || code === 0x5c) return true;
+  }
+  return false;
 }

@@ -10,7 +10,7 @@ import { Button } from "../../components/Button";
 import { Input, Select } from "../../components/Field";
 import { Notice } from "../../components/Notice";
 import { errorMessage } from "../../components/States";
-import { fieldErrorsFromDetails } from "../../lib/fieldErrors";
+import { fieldProblems } from "../../api/fieldProblems";
 import { useCan } from "../auth/useCan";
 import { useCurrentUser } from "../auth/useSession";
 import { kindLabels } from "./labels";
@@ -68,7 +68,7 @@ export function PresetControls({ kind, header, mapping, onApply }: PresetControl
         setMessage({ tone: "success", text: `Saved as “${preset.name}”. It is offered for every ${kindLabels[kind].toLowerCase()} file from now on.` });
       },
       onError: (error) => {
-        const fields = error instanceof ApiError ? fieldErrorsFromDetails(error.details) : {};
+        const fields = error instanceof ApiError ? fieldProblems(error.details) : {};
         if (fields.name) setNameError(error instanceof ApiError && error.status === 409 ? `${error.message} Choose another name.` : fields.name);
         else setMessage({ tone: "error", text: `The mapping was not saved: ${errorMessage(error)}` });
       },

@@ -1,7 +1,7 @@
 // The coordinator's text on what the network is doing about the most common errors, for one period. It
 // shows on this page at once and goes into every report version created afterwards.
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
-import { useEffect, useId, useState, type FormEvent } from "react";
+import { useId, useState, type FormEvent } from "react";
 import { quarterNotesSchema } from "../../../shared/schemas/report";
 import { Button } from "../../components/Button";
 import { controlClass } from "../../components/Field";
@@ -19,9 +19,12 @@ export function NotesEditor({ period }: { period: string }) {
   const [message, setMessage] = useState<{ tone: "success" | "error"; text: string } | null>(null);
   const id = useId();
 
-  useEffect(() => {
-    if (notes.data !== undefined) setText(notes.data);
-  }, [notes.data]);
+  // The saved text replaces the draft whenever it changes (loaded, saved, or changed by someone else).
+  const [shownSaved, setShownSaved] = useState<string | undefined>(undefined);
+  if (notes.data !== undefined && notes.data !== shownSaved) {
+    setShownSaved(notes.data);
+    setText(notes.data);
+  }
 
   const save = useMutation({
     mutationFn: (actions: string) => saveNotes(period, actions),

@@ -1,7 +1,7 @@
 // "Send to funders": a stored version goes to every active funder account, plus any extra addresses. The
 // addresses are checked in the browser with the server's own rule before anything is sent.
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
-import { useEffect, useId, useState, type FormEvent } from "react";
+import { useId, useState, type FormEvent } from "react";
 import type { ReportSendRow, ReportVersion } from "../../../shared/schemas/report";
 import { Button } from "../../components/Button";
 import { Select, controlClass } from "../../components/Field";
@@ -22,14 +22,19 @@ export function SendForm({ period, versions, onSent }: SendFormProps) {
   const queryClient = useQueryClient();
   const funders = useQuery(reportQueries.funders());
   const latest = versions[0];
-  const [versionId, setVersionId] = useState(latest ? String(latest.id) : "");
+  const latestId = latest ? String(latest.id) : "";
+  const [versionId, setVersionId] = useState(latestId);
   const [extra, setExtra] = useState("");
   const [extraError, setExtraError] = useState<string | null>(null);
   const [result, setResult] = useState<{ tone: "success" | "error"; text: string } | null>(null);
   const extraId = useId();
 
   // A new version becomes the one to send.
-  useEffect(() => setVersionId(latest ? String(latest.id) : ""), [latest]);
+  const [offeredLatestId, setOfferedLatestId] = useState(latestId);
+  if (offeredLatestId !== latestId) {
+    setOfferedLatestId(latestId);
+    setVersionId(latestId);
+  }
 
   const send = useMutation({
     mutationFn: ({ id, addresses }: { id: number; addresses: string[] }) => sendVersion(id, addresses),

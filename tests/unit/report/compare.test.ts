@@ -1,6 +1,5 @@
 import { describe, expect, it } from "vitest";
 import { compareRates, differencePoints } from "../../../server/reports/compare";
-import { contentDisposition } from "../../../server/reports/download";
 import { countFigure, formatCount, perHundredFigure, rateFigure } from "../../../server/reports/figures";
 import { kappaWords } from "../../../server/reports/narrative";
 
@@ -57,12 +56,5 @@ describe("kappaWords", () => {
       "substantial",
       "almost perfect",
     ]);
-  });
-});
-
-describe("contentDisposition", () => {
-  it("keeps the header safe whatever the name holds", () => {
-    expect(contentDisposition('a"b\r\n.pdf')).toBe(`attachment; filename="a_b__.pdf"; filename*=UTF-8''a%22b%0D%0A.pdf`);
-    expect(contentDisposition("Bericht-März.pdf")).toBe(`attachment; filename="Bericht-M_rz.pdf"; filename*=UTF-8''Bericht-M%C3%A4rz.pdf`);
   });
 });
