@@ -1,6 +1,7 @@
 // The released grid for viewers who do not see everyone (instructors, funders): which answers they may be
 // shown, decided once per database state over one grid of cells (shared/suppression, releaseGrid), so that no
 // two shown answers can be subtracted to reveal a small group (docs/decisions/006-disclosure-control.md).
+import { can } from "../../shared/permissions";
 import { releaseGrid, releaseShows, type GridCell, type Release } from "../../shared/suppression";
 import type { Db } from "../db/client";
 import { countsByGrid, type Dimension, type SummaryScope } from "../metrics/summaries";
@@ -24,20 +25,37 @@ const LEVELS: readonly (readonly number[])[] = [[0, 1, 2, 3], [0, 2, 3], [0, 3],
 /** What a figure counts: attempts, or the attempts that carry an instructor's result (the agreement table). */
 export type ReleaseMeasure = "attempts" | "judged";
 
+/** Grid dimensions a viewer's filters cannot name; a funder has no site or manikin filter. */
+const SITE = 1;
+const MANIKIN = 4;
+const WHOLE = "*";
+
+/**
+ * Whether the viewer may narrow by site and manikin. Without those filters their grid is coarser (every
+ * site and manikin of a cell as one), so fewer cells are small and fewer figures hide.
+ */
+function narrowsBySite(viewer: Viewer): boolean {
+  return can(viewer.user, "readNetwork");
+}
+
 function releaseFor(db: Db, viewer: Viewer, measure: ReleaseMeasure): Release {
   const own = viewer.ownInstructorId;
   const rule = { minCount: viewer.suppressionMinCount, minInstructors: viewer.suppressionMinInstructors };
-  return cached(db, `release|${measure}|${own ?? ""}|${rule.minCount}|${rule.minInstructors}`, () => {
+  const bySite = narrowsBySite(viewer);
+  return cached(db, `release|${measure}|${own ?? ""}|${bySite}|${rule.minCount}|${rule.minInstructors}`, () => {
     const cells = new Map<string, { coords: (string | number)[]; others: Map<number, number> }>();
-    for (const row of countsByGrid(db, [...GRID, "instructorId"])) {
+    // one read of the summaries per database state, shared by every viewer's release
+    const rows = cached(db, "release-grid", () => countsByGrid(db, [...GRID, "instructorId"]));
+    for (const row of rows) {
       const coords = row.key.slice(0, GRID.length);
+      if (!bySite) coords[SITE] = coords[MANIKIN] = WHOLE;
       const instructorId = Number(row.key[GRID.length]);
       const key = coords.join("|");
       let cell = cells.get(key);
       if (!cell) cells.set(key, (cell = { coords, others: new Map() }));
       const count = measure === "attempts" ? row.n : row.judged;
       // the viewer's own attempts protect nobody: they know them
-      if (instructorId !== own && count > 0) cell.others.set(instructorId, count);
+      if (instructorId !== own && count > 0) cell.others.set(instructorId, (cell.others.get(instructorId) ?? 0) + count);
     }
     return releaseGrid([...cells.values()] as GridCell[], LEVELS, rule);
   });
@@ -61,5 +79,7 @@ function selects(scope: SummaryScope) {
 export function mayShow(db: Db, viewer: Viewer, scope: SummaryScope, measure: ReleaseMeasure = "attempts"): boolean {
   if (viewer.seesEveryone) return true;
   if (scope.instructorId !== null) return scope.instructorId === viewer.ownInstructorId;
+  // a filter the viewer's grid does not hold is never theirs (the filters refuse it before this)
+  if (!narrowsBySite(viewer) && (scope.siteId !== null || scope.manikinId !== null)) return false;
   return releaseShows(releaseFor(db, viewer, measure), selects(scope));
 }
