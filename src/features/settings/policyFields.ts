@@ -38,7 +38,7 @@ export const fieldGroups = {
   ] as PolicyField[],
   privacy: [
     { path: "suppressionMinCount", label: "Smallest group shown to funders and to instructors looking at others", kind: "count", whole: true },
-    { path: "suppressionMinInstructors", label: "Fewest other instructors in a group shown to them", kind: "count", whole: true },
+    { path: "suppressionMinInstructors", label: "Fewest other instructors in a group shown to funders and to instructors", kind: "count", whole: true },
   ] as PolicyField[],
   equipment: [
     { path: "equipment.serviceEveryCompressions", label: "Service after this many compressions", kind: "count", whole: true },
