@@ -91,20 +91,111 @@ export function hidesOthers(othersN: number, minCount: number): boolean {
   return othersN > 0 && othersN < minCount;
 }
 
+// ---------------------------------------------------------------------------------------------------------
+// The pages' released grid (docs/decisions/006-disclosure-control.md). For viewers who do not see everyone,
+// every figure is a sum over the cells of one fixed grid (quarter × site × patient type × feedback display ×
+// manikin). The grid is judged once, for all answers together: cells are gathered into release units, each
+// safe on its own, and an answer is shown only when it takes every unit it touches whole. Any shown answer is
+// then a sum of whole units, so any combination of shown answers (their differences included) is a sum of
+// whole safe units too, and no unsafe cell or unsafe union of cells can be worked out from them.
+
+export interface ReleaseRule {
+  /** Fewest attempts of others in a group shown (policy.suppressionMinCount). */
+  minCount: number;
+  /** Fewest other instructors whose attempts a group shown holds (policy.suppressionMinInstructors). */
+  minInstructors: number;
+}
+
+/** One cell of the grid: its coordinates, one per dimension, and others' attempts in it by instructor. */
+export interface GridCell {
+  coords: readonly (string | number)[];
+  /** Attempts per instructor other than the viewer; zero counts are left out. */
+  others: ReadonlyMap<number, number>;
+}
+
+/** A group is safe when it holds none of others' attempts, or at least minCount from at least minInstructors of them. */
+export function isSafeGroup(attempts: number, instructors: number, rule: ReleaseRule): boolean {
+  return attempts === 0 || ((attempts >= rule.minCount || rule.minCount <= 1) && instructors >= rule.minInstructors);
+}
+
+interface Unit {
+  cells: string[];
+  coords: readonly (string | number)[];
+  attempts: number;
+  instructors: Set<number>;
+  safe: boolean;
+}
+
+export interface Release {
+  /** Units an answer must take whole (pools of several cells) or leave alone (cells never released). */
+  guarded: { coords: readonly (readonly (string | number)[])[]; released: boolean }[];
+}
+
+export const cellKey = (coords: readonly (string | number)[]) => coords.join("|");
+
+function unitOf(cells: Unit[], rule: ReleaseRule): Unit {
+  const instructors = new Set<number>();
+  for (const cell of cells) for (const id of cell.instructors) instructors.add(id);
+  const attempts = cells.reduce((sum, cell) => sum + cell.attempts, 0);
+  return { cells: cells.flatMap((cell) => cell.cells), coords: cells[0].coords, attempts, instructors, safe: isSafeGroup(attempts, instructors.size, rule) };
+}
+
 /**
- * The pages' complementary rule, for groups that add up to a total shown beside them (the quarters of a
- * range, the feedback modes of a period): if the hidden groups together hold fewer than the threshold of
- * others' attempts, the total minus the shown groups would reveal them, so the smallest shown groups are
- * hidden too until the hidden ones hold enough. Returns the new hidden flags.
+ * Gathers the grid's cells into release units. `levels` run from the finest group to the whole grid, each the
+ * dimensions a group shares (each level's dimensions a subset of the one before): within a group, the unsafe
+ * units are pooled; a pool still unsafe takes the group's smallest safe units until it is safe; a group that
+ * is unsafe even as a whole goes up to the next level as one unit. What is unsafe after the last level is
+ * never released.
  */
-export function withComplementaryHiding(othersN: readonly number[], hidden: readonly boolean[], minCount: number): boolean[] {
-  const result = [...hidden];
-  const hiddenSum = () => othersN.reduce((sum, n, i) => sum + (result[i] ? n : 0), 0);
-  while (hidesOthers(hiddenSum(), minCount)) {
-    const candidates = othersN.map((n, i) => ({ n, i })).filter(({ n, i }) => !result[i] && n > 0);
-    if (candidates.length === 0) break;
-    candidates.sort((a, b) => a.n - b.n);
-    result[candidates[0].i] = true;
+export function releaseGrid(cells: readonly GridCell[], levels: readonly (readonly number[])[], rule: ReleaseRule): Release {
+  let units: Unit[] = cells.map((cell) => {
+    const attempts = [...cell.others.values()].reduce((sum, n) => sum + n, 0);
+    const instructors = new Set(cell.others.keys());
+    return { cells: [cellKey(cell.coords)], coords: cell.coords, attempts, instructors, safe: isSafeGroup(attempts, instructors.size, rule) };
+  });
+  for (const dims of levels) {
+    const groups = new Map<string, Unit[]>();
+    for (const unit of units) {
+      const key = dims.map((d) => unit.coords[d]).join("|");
+      const group = groups.get(key);
+      if (group) group.push(unit);
+      else groups.set(key, [unit]);
+    }
+    const next: Unit[] = [];
+    for (const key of [...groups.keys()].sort()) {
+      const group = groups.get(key)!;
+      const unsafe = group.filter((unit) => !unit.safe);
+      if (unsafe.length === 0) {
+        next.push(...group);
+        continue;
+      }
+      // smallest first; among equal ones the first in cell order, so the same data always pools the same way
+      const complements = group
+        .filter((unit) => unit.safe && unit.attempts > 0)
+        .sort((a, b) => a.attempts - b.attempts || (a.cells[0] < b.cells[0] ? -1 : 1));
+      const members = [...unsafe];
+      let pool = unitOf(members, rule);
+      while (!pool.safe && complements.length > 0) {
+        members.push(complements.shift()!);
+        pool = unitOf(members, rule);
+      }
+      next.push(pool, ...group.filter((unit) => !members.includes(unit)));
+    }
+    // a pool stays a unit: a coarser level may take it whole as a complement
+    units = next;
   }
-  return result;
+  const coordsOf = new Map(cells.map((cell) => [cellKey(cell.coords), cell.coords]));
+  return {
+    guarded: units
+      .filter((unit) => !unit.safe || unit.cells.length > 1)
+      .map((unit) => ({ coords: unit.cells.map((key) => coordsOf.get(key)!), released: unit.safe })),
+  };
+}
+
+/** Whether an answer over the cells `selects` picks may be shown: it takes each pool whole and no withheld cell. */
+export function releaseShows(release: Release, selects: (coords: readonly (string | number)[]) => boolean): boolean {
+  return release.guarded.every(({ coords, released }) => {
+    const taken = coords.filter(selects).length;
+    return taken === 0 || (released && taken === coords.length);
+  });
 }

@@ -8,6 +8,7 @@ import { forbidden } from "../errors";
 import { parseWith } from "../http/validate";
 import { filtersKey, resolveFilters } from "../insight/filters";
 import { sendCached } from "../insight/cache";
+import { mayShow } from "../insight/release";
 import { viewerKey, viewerOf } from "../insight/viewer";
 import { currentPolicy } from "../policy/service";
 import { equipmentReport } from "./service";
@@ -26,8 +27,11 @@ export function equipmentRoutes(db: Db): Router {
     }
     const asOf = new Date().toISOString().slice(0, 10);
     const onlyInstructorId = rowScope(user, "readEquipment").instructorId;
+    // a manikin's use in a quarter is a figure over others' attempts: shown as the insight pages' grid allows
+    const usageShown = (manikinId: number, quarter: string) =>
+      mayShow(db, viewer, { from: quarter, to: quarter, siteId: null, profile: null, feedback: null, instructorId: null, manikinId });
     sendCached(db, res, `equipment|${asOf}|${viewerKey(viewer)}|${filtersKey(filters)}`, () =>
-      equipmentReport(db, currentPolicy(db).policy.equipment, { filters, onlyInstructorId, asOf }),
+      equipmentReport(db, currentPolicy(db).policy.equipment, { filters, onlyInstructorId, asOf, usageShown }),
     );
   });
 

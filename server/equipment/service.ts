@@ -17,6 +17,11 @@ export interface EquipmentScope {
   onlyInstructorId: number | null;
   /** "YYYY-MM-DD": the day service intervals are measured to. */
   asOf: string;
+  /**
+   * Whether the viewer may see a manikin's attempts and compressions in a quarter (the released grid of the
+   * insight pages, for viewers who do not see everyone); every one when left out.
+   */
+  usageShown?: (manikinId: number, quarter: string) => boolean;
 }
 
 /** The quarter of an ISO date in SQL, e.g. 2026-08-14 → 2026-Q3. */
@@ -121,6 +126,7 @@ export function equipmentReport(db: Db, policy: EquipmentPolicy, scope: Equipmen
     retiredOn: m.retiredOn,
     usage: trend.quarters.map((quarter) => {
       const row = usageOf.get(`${m.id}|${quarter}`);
+      if (row && scope.usageShown && !scope.usageShown(m.id, quarter)) return { quarter, attempts: null, compressions: null };
       return { quarter, attempts: row?.n ?? 0, compressions: row?.compressions ?? 0 };
     }),
     compressionsSinceService: sinceService.get(m.id) ?? 0,

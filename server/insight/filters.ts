@@ -1,6 +1,7 @@
 // Turns the filters of a request into ids and a period, applying what the viewer may filter on:
 // funders see network figures only (no site, instructor or manikin filter); an instructor may name only
-// themselves as the instructor. Codes that name nothing are refused with the field named.
+// themselves as the instructor and only the manikins the options offer them (their own site's), since the
+// released grid judges no others for them. Codes that name nothing are refused with the field named.
 import { eq } from "drizzle-orm";
 import type { SQLiteColumn } from "drizzle-orm/sqlite-core";
 import type { FeedbackMode } from "../../shared/domain";
@@ -12,6 +13,7 @@ import type { PatientType } from "../../shared/scoring/policy";
 import type { Db } from "../db/client";
 import { instructors, manikins, sites } from "../db/schema";
 import { AppError, forbidden } from "../errors";
+import { manikinsOffered } from "./options";
 import { quartersWithData } from "./quarters";
 import type { Viewer } from "./viewer";
 
@@ -86,8 +88,17 @@ export function resolveFilters(db: Db, filters: InsightFilters, viewer: Viewer):
     profile: filters.profile ?? null,
     feedback: filters.feedback ?? null,
     instructorId,
-    manikinId: filters.manikin ? resolveRef(db, manikins, manikins.assetId, filters.manikin, "manikin") : null,
+    manikinId: filters.manikin ? resolveManikin(db, filters.manikin, viewer) : null,
   };
+}
+
+/** A manikin by asset id or id; a viewer who does not see everyone may name only one the options offer them. */
+function resolveManikin(db: Db, ref: string, viewer: Viewer): number {
+  if (viewer.seesEveryone) return resolveRef(db, manikins, manikins.assetId, ref, "manikin");
+  // refused alike whether it exists elsewhere or not at all
+  const offered = manikinsOffered(db, viewer).find((m) => m.assetId === ref || String(m.id) === ref);
+  if (!offered) throw forbidden("You can filter on the manikins of your own site only.");
+  return offered.id;
 }
 
 /** Stable text for cache keys. */

@@ -19,7 +19,6 @@ export function filterOptions(db: Db, viewer: Viewer): OptionsAnswer {
     return { quarters, sites: [], patientTypes: [], feedbackModes: [], errors: [], instructors: [], manikins: [] };
   }
   const instructorColumns = { id: instructors.id, code: instructors.code, name: instructors.name, siteId: instructors.siteId };
-  const manikinColumns = { id: manikins.id, assetId: manikins.assetId, patientType: manikins.patientType, siteId: manikins.siteId };
   const own = viewer.ownInstructorId;
   return {
     quarters,
@@ -32,10 +31,14 @@ export function filterOptions(db: Db, viewer: Viewer): OptionsAnswer {
       : own === null
         ? []
         : db.select(instructorColumns).from(instructors).where(eq(instructors.id, own)).all(),
-    manikins: viewer.seesEveryone
-      ? db.select(manikinColumns).from(manikins).orderBy(manikins.assetId).all()
-      : viewer.user.siteId === null
-        ? []
-        : db.select(manikinColumns).from(manikins).where(eq(manikins.siteId, viewer.user.siteId)).orderBy(manikins.assetId).all(),
+    manikins: manikinsOffered(db, viewer),
   };
+}
+
+/** The manikins the filter bar offers this viewer; the filters accept no other (./filters). */
+export function manikinsOffered(db: Db, viewer: Viewer): OptionsAnswer["manikins"] {
+  const manikinColumns = { id: manikins.id, assetId: manikins.assetId, patientType: manikins.patientType, siteId: manikins.siteId };
+  if (viewer.seesEveryone) return db.select(manikinColumns).from(manikins).orderBy(manikins.assetId).all();
+  if (!can(viewer.user, "readNetwork") || viewer.user.siteId === null) return [];
+  return db.select(manikinColumns).from(manikins).where(eq(manikins.siteId, viewer.user.siteId)).orderBy(manikins.assetId).all();
 }

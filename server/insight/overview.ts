@@ -2,22 +2,24 @@
 // and live-display against hidden-display results, read from the attempt summaries (metrics/summaries): the
 // period by feedback display, and attempts and passes per quarter for the trend and the previous period.
 //
-// Shown to an instructor, each group is judged by the attempts of others in it (they know their own), and
-// groups that add up to a shown total are hidden together when one alone would be revealed by subtraction.
+// Shown to an instructor (or any viewer who does not see everyone), each figure is shown only when the
+// released grid allows its scope (./release): the period, the previous period, each quarter of the trend and
+// each feedback display are judged alike, so no two shown figures subtract to a small group.
 import { sql } from "drizzle-orm";
 import { feedbackModes, type FeedbackMode } from "../../shared/domain";
 import type { OverviewAnswer } from "../../shared/schemas/insight";
 import { changeFrom, changeVerdict, cohensKappa, pChart, proportionDifference, runChartSignals } from "../../shared/stats";
 import type { Db } from "../db/client";
 import { classes } from "../db/schema";
-import { addTally, emptyTally, judgedOf, medianOfCounts, mergeCounts, talliesBy, talliesByPair, valueCountsBy, type Tally, type ValueCounts } from "../metrics/summaries";
+import { addTally, emptyTally, judgedOf, medianOfCounts, mergeCounts, talliesBy, valueCountsBy, type ValueCounts } from "../metrics/summaries";
 import type { ResolvedFilters } from "./filters";
 import { learnerOutcomes } from "../metrics/learnerOutcomes";
 import { errorPareto } from "./pareto";
 import { previousPeriod, trendQuarters } from "../../shared/period";
 import { rateFor, rateOf } from "./rates";
 import { classConditions, scopeOf } from "./sql";
-import { hidesGroup, withComplementaryHiding, type Viewer } from "./viewer";
+import { mayShow } from "./release";
+import { hidesGroup, type Viewer } from "./viewer";
 
 export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): OverviewAnswer {
   const period = filters.period;
@@ -30,22 +32,7 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): Over
   const byFeedback = talliesBy<FeedbackMode>(db, scopeOf(filters), "feedback");
   const inPeriod = [...byFeedback.values()].reduce(addTally, emptyTally());
   const byQuarterTally = talliesBy<string>(db, scopeOf(filters, scan), "quarter");
-  // an instructor's own attempts in the same groups, to judge each group by the attempts of others
   const me = viewer.seesEveryone ? null : viewer.ownInstructorId;
-  const ownRows = me === null ? new Map<string, Tally>() : talliesByPair(db, scopeOf({ ...filters, instructorId: me }, scan), "quarter", "feedback");
-  const own = (quarters: readonly string[], feedback?: FeedbackMode) => {
-    let n = 0;
-    let pairs = 0;
-    for (const [key, tally] of ownRows) {
-      const [quarter, mode] = key.split("|");
-      if (quarters.includes(quarter) && (feedback === undefined || mode === feedback)) {
-        n += tally.n;
-        pairs += judgedOf(tally);
-      }
-    }
-    return { n, pairs };
-  };
-
   const tallyOfMode = (mode: FeedbackMode) => byFeedback.get(mode) ?? emptyTally();
   const byQuarter = new Map(trend.quarters.map((q) => [q, { n: byQuarterTally.get(q)?.n ?? 0, passed: byQuarterTally.get(q)?.passed ?? 0 }]));
   const inPrevious = { n: 0, passed: 0 };
@@ -56,9 +43,9 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): Over
     }
   }
 
-  const hidden = hidesGroup(viewer, inPeriod.n - own(period.quarters).n);
+  const hidden = !mayShow(db, viewer, scopeOf(filters));
   const passRate = rateFor(inPeriod.passed, inPeriod.n, hidden);
-  const previousRate = rateFor(inPrevious.passed, inPrevious.n, hidesGroup(viewer, inPrevious.n - own(before.quarters).n));
+  const previousRate = rateFor(inPrevious.passed, inPrevious.n, !mayShow(db, viewer, scopeOf(filters, before)));
   const change = changeFrom(passRate.rate, previousRate.rate);
   // learners measured in the period (by pseudonymous code), judged like every group by the learners of others
   const measured = learnerOutcomes(db, scopeOf(filters));
@@ -69,12 +56,10 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): Over
   const difference =
     passRate.suppressed || previousRate.suppressed ? null : proportionDifference(inPeriod.passed, inPeriod.n, inPrevious.passed, inPrevious.n);
 
-  // feedback modes add up to the period; the quarters of a range do too
-  const feedbackOthers = feedbackModes.map((mode) => tallyOfMode(mode).n - own(period.quarters, mode).n);
-  const feedbackHidden = withComplementaryHiding(viewer, feedbackOthers, feedbackOthers.map((n) => hidesGroup(viewer, n)));
-  const quarterOthers = trend.quarters.map((q) => byQuarter.get(q)!.n - own([q]).n);
-  const quarterHidden = quarterOthers.map((n) => hidesGroup(viewer, n));
-  const seriesHidden = period.quarters.length > 1 ? withComplementaryHiding(viewer, quarterOthers, quarterHidden) : quarterHidden;
+  // each feedback display and each quarter of the trend is a figure of its own, judged by the same grid
+  // (a display the filters leave out holds nothing, and nothing is shown as nothing)
+  const feedbackHidden = feedbackModes.map((mode) => (filters.feedback ?? mode) === mode && !mayShow(db, viewer, { ...scopeOf(filters), feedback: mode }));
+  const seriesHidden = trend.quarters.map((quarter) => !mayShow(db, viewer, scopeOf(filters, { from: quarter, to: quarter })));
 
   const logs = db
     .select({ classes: sql<number>`count(*)`, learners: sql<number>`coalesce(sum(${classes.learners}), 0)`, passed: sql<number>`coalesce(sum(${classes.passed}), 0)` })
@@ -85,7 +70,7 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): Over
     me === null ? 0 : db.select({ learners: sql<number>`coalesce(sum(${classes.learners}), 0)` }).from(classes).where(classConditions({ ...filters, instructorId: me })).get()!.learners;
 
   const pairs = judgedOf(inPeriod);
-  const pairsHidden = hidden || hidesGroup(viewer, pairs - own(period.quarters).pairs);
+  const pairsHidden = hidden || !mayShow(db, viewer, scopeOf(filters), "judged");
   const kappa = cohensKappa([
     [inPeriod.pp, inPeriod.pf],
     [inPeriod.fp, inPeriod.ff],

@@ -1,6 +1,9 @@
 // "My standing": an instructor's own medians and pass rate beside the network's, the anonymous spread of all
 // instructors, the funnel with the instructor's own point, the error profile and the classes. Other
-// instructors appear only as anonymous points and network aggregates.
+// instructors appear only as anonymous points and network aggregates, and only as far as the released grid
+// allows (./release): the network figures when it shows the scope, each other instructor as a point when
+// they hold at least the smallest group's attempts, and the points of others only when there are at least
+// as many of them as a group needs instructors.
 import { eq } from "drizzle-orm";
 import { standingMetricKeys, type StandingAnswer } from "../../shared/schemas/insight";
 import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
@@ -15,7 +18,8 @@ import { funnelLimitCurve } from "./funnel";
 import { classRows } from "./classes";
 import { rateOf } from "./rates";
 import { classConditions, scopeOf } from "./sql";
-import { hidesGroup, type Viewer } from "./viewer";
+import { mayShow } from "./release";
+import type { Viewer } from "./viewer";
 import { errorLabels } from "../../shared/vocabulary";
 
 type MetricKey = (typeof standingMetricKeys)[number];
@@ -52,24 +56,27 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
 
   const mine = { ...filters, instructorId: me };
   const min = viewer.suppressionMinCount;
-  const { tallies, byInstructor, medians, errors: networkErrorCounts } = networkFigures(db, { ...filters, instructorId: null });
+  const network = { ...filters, instructorId: null };
+  const { tallies, byInstructor, medians, errors: networkErrorCounts } = networkFigures(db, network);
   const perInstructor = [...tallies].map(([instructorId, { n, passed }]) => ({ instructorId, n, passed }));
   const totals = perInstructor.reduce((sum, row) => ({ n: sum.n + row.n, passed: sum.passed + row.passed }), { n: 0, passed: 0 });
   const myTally = perInstructor.find((row) => row.instructorId === me) ?? { instructorId: me, n: 0, passed: 0 };
-  // the network minus my own attempts is the others': judge the network figures by that
-  const networkHidden = hidesGroup(viewer, totals.n - myTally.n);
-  // instructors shown as points and ranked against: enough attempts to be shown, and always me
-  const shown = perInstructor.filter((row) => row.n >= min || row.instructorId === me);
+  const networkHidden = !mayShow(db, viewer, scopeOf(network));
+  // others shown as points and ranked against: each one person with enough attempts to be shown, and only
+  // when the network is shown and enough of them are there that no point stands for a known colleague
+  const others = perInstructor.filter((row) => row.instructorId !== me && row.n >= min);
+  const othersShown = !networkHidden && others.length >= viewer.suppressionMinInstructors ? others : [];
+  const shown = [...othersShown, ...perInstructor.filter((row) => row.instructorId === me)];
   const shownIds = new Set(shown.map((row) => row.instructorId));
 
   const metrics = standingMetricKeys.map((key) => {
     const mineValue = byInstructor[key].get(me) ?? null;
-    const others = [...byInstructor[key]].filter(([id]) => shownIds.has(id)).map(([, median]) => median);
+    const ranked = [...byInstructor[key]].filter(([id]) => shownIds.has(id)).map(([, median]) => median);
     return {
       key,
       mine: mineValue,
       network: networkHidden ? null : medians[key],
-      percentileRank: mineValue === null || networkHidden ? null : percentileRank(others, mineValue),
+      percentileRank: mineValue === null || networkHidden || othersShown.length === 0 ? null : percentileRank(ranked, mineValue),
     };
   });
 
@@ -78,7 +85,8 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
     .sort((a, b) => a.medianScore - b.medianScore || a.passRate - b.passRate);
 
   const networkRate = networkHidden || totals.n === 0 ? null : totals.passed / totals.n;
-  const nMax = Math.max(0, ...perInstructor.map((row) => row.n));
+  // the funnel's extent from the points shown only: the largest hidden group's size is not given away
+  const nMax = Math.max(0, ...shown.map((row) => row.n));
 
   const myErrors = tallies.get(me)?.errors ?? emptyTally().errors;
   const networkErrors = networkHidden ? null : networkErrorCounts;
@@ -89,7 +97,7 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
     suppressionMinCount: min,
     attempts: myTally.n,
     metrics,
-    spread: { minAttempts: min, points: networkHidden ? points.filter((p) => p.isMe) : points, instructorsLeftOut: perInstructor.length - shown.length },
+    spread: { minAttempts: min, points, instructorsLeftOut: perInstructor.length - shown.length },
     funnel: {
       networkRate,
       method: "exact",

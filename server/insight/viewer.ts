@@ -1,9 +1,10 @@
 // Who is looking, and therefore which groups they may see in full. Coordinators and quality leads see every
-// group. An instructor sees their own rows in full and everyone else's only as aggregates of at least
-// policy.suppressionMinCount attempts; a funder sees aggregates of at least that size and nothing else.
+// group. An instructor sees their own rows in full and everyone else's only as the released grid allows
+// (./release: groups of at least policy.suppressionMinCount attempts from at least
+// policy.suppressionMinInstructors other instructors, judged over every answer at once); a funder likewise.
 import { can, reachOf } from "../../shared/permissions";
 import type { CurrentUser } from "../../shared/schemas/auth";
-import { hidesOthers, withComplementaryHiding as hideComplements } from "../../shared/suppression";
+import { hidesOthers } from "../../shared/suppression";
 import type { Db } from "../db/client";
 import { currentPolicy } from "../policy/service";
 import { cached } from "./cache";
@@ -15,6 +16,7 @@ export interface Viewer {
   /** The instructor whose rows are this user's own (an instructor account's); null for every other account. */
   ownInstructorId: number | null;
   suppressionMinCount: number;
+  suppressionMinInstructors: number;
 }
 
 export function viewerOf(db: Db, user: CurrentUser): Viewer {
@@ -22,26 +24,22 @@ export function viewerOf(db: Db, user: CurrentUser): Viewer {
     user,
     seesEveryone: can(user, "readAttempts", "any"),
     ownInstructorId: reachOf(user.role, "readAttempts") === "own" ? user.instructorId : null,
-    suppressionMinCount: cached(db, "suppressionMinCount", () => currentPolicy(db).policy.suppressionMinCount),
+    ...cached(db, "suppressionRule", () => {
+      const { suppressionMinCount, suppressionMinInstructors } = currentPolicy(db).policy;
+      return { suppressionMinCount, suppressionMinInstructors };
+    }),
   };
 }
 
 /** Part of cache keys: answers differ only by role and, for an instructor, by who they are. */
 export function viewerKey(viewer: Viewer): string {
-  return `${viewer.user.role}:${viewer.ownInstructorId ?? ""}:${viewer.suppressionMinCount}`;
+  return `${viewer.user.role}:${viewer.ownInstructorId ?? ""}:${viewer.suppressionMinCount}:${viewer.suppressionMinInstructors}`;
 }
 
 /**
- * Whether a group must be hidden from this viewer. `othersN` counts the group's attempts that are not the
- * viewer's own: an instructor knows their own rows, so only the rest protects anyone (a shown total minus
- * their own rows would otherwise reveal a small group of others).
+ * The primary rule alone, for counts that are not attempts of the grid (learners, class logs): hidden when
+ * `othersN`, the group's count not the viewer's own, holds some but fewer than the threshold.
  */
 export function hidesGroup(viewer: Viewer, othersN: number): boolean {
   return !viewer.seesEveryone && hidesOthers(othersN, viewer.suppressionMinCount);
-}
-
-/** Complementary hiding (shared/suppression) for this viewer; nothing is hidden from those who see everyone. */
-export function withComplementaryHiding(viewer: Viewer, othersN: readonly number[], hidden: readonly boolean[]): boolean[] {
-  if (viewer.seesEveryone) return [...hidden];
-  return hideComplements(othersN, hidden, viewer.suppressionMinCount);
 }

@@ -351,3 +351,19 @@ export function quartersWithAttempts(db: Db): string[] {
     .all()
     .map((row) => row.quarter);
 }
+
+/** Attempts and judged attempts (those with an instructor's result) for each combination of `dimensions`, over every quarter. */
+export function countsByGrid(db: Db, dimensions: readonly Dimension[]): { key: (string | number)[]; n: number; judged: number }[] {
+  const columns = dimensions.map((dimension) => attemptTallies[dimension]);
+  const keyFields = Object.fromEntries(columns.map((column, i) => [`k${i}`, column]));
+  const rows = db
+    .select({
+      ...keyFields,
+      n: sql<number>`sum(${attemptTallies.n})`,
+      judged: sql<number>`sum(${attemptTallies.judgedPp} + ${attemptTallies.judgedPf} + ${attemptTallies.judgedFp} + ${attemptTallies.judgedFf})`,
+    })
+    .from(attemptTallies)
+    .groupBy(...columns)
+    .all() as Record<string, unknown>[];
+  return rows.map((row) => ({ key: columns.map((_, i) => row[`k${i}`] as string | number), n: Number(row.n), judged: Number(row.judged) }));
+}

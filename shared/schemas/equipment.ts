@@ -13,8 +13,11 @@ export const fleetRowSchema = z.object({
   site: siteRef.nullable(),
   inServiceSince: z.string().nullable(),
   retiredOn: z.string().nullable(),
-  /** Attempts and compressions on this manikin per quarter of the trend window, oldest first. */
-  usage: z.array(z.object({ quarter: z.string(), attempts: count, compressions: count })),
+  /**
+   * Attempts and compressions on this manikin per quarter of the trend window, oldest first; both null when
+   * the quarter's use holds too few attempts or instructors other than the viewer to be shown to them.
+   */
+  usage: z.array(z.object({ quarter: z.string(), attempts: count.nullable(), compressions: count.nullable() })),
   /** Compressions recorded since the last service (since it came into use when never serviced). */
   compressionsSinceService: count,
   lastServiceDate: z.string().nullable(),

@@ -67,6 +67,8 @@ export const networkPolicySchema = z
     longPauseLimitS: positive("Long-pause limit (s)"),
     passRule: passRuleSchema,
     suppressionMinCount: wholePositive("Smallest group shown"),
+    // policies saved before this setting existed read as the default
+    suppressionMinInstructors: wholePositive("Fewest other instructors in a group shown").default(3),
     equipment: equipmentPolicySchema,
   })
   .refine((p) => p.longPauseLimitS >= p.pauseThresholdS, {
@@ -108,6 +110,10 @@ export const DEFAULT_POLICY: NetworkPolicy = {
   },
   // Project default: groups smaller than this are hidden from funders and instructors to protect learners.
   suppressionMinCount: 5,
+  // Project default: a group shown to instructors and funders holds the attempts of at least this many other
+  // instructors, so no figure describes one or two colleagues (common practice in small-cell rules: a
+  // minimum number of contributors beside a minimum count).
+  suppressionMinInstructors: 3,
   // Project defaults (network policy, not a guideline).
   equipment: { serviceEveryCompressions: 250_000, serviceEveryDays: 365, minMouthpieceCleansPerLearner: 1 },
 };

@@ -308,11 +308,11 @@ describe("suppression of small groups", () => {
     const a1 = await get("/api/insight/overview?site=NORTH", t.instructor);
     expect(a1).toMatchObject({ suppressed: true, attempts: null });
     expect(a1.series.points.at(-1)).toMatchObject({ suppressed: true, attempts: null });
-    // to B1, who has no attempts at NORTH, the 14 are a group of others large enough to show; within it the
-    // hidden-display attempts (A1 5 + C1 4 = 9) and live (A1 5) are both large enough too
+    // to B1, who has no attempts at NORTH, the 14 are enough attempts but those of two colleagues only
+    // (fewer than the three other instructors a group needs): hidden as well
     const b1 = await get("/api/insight/overview?site=NORTH", t.otherInstructor);
-    expect(b1.passRate).toMatchObject({ n: 14, successes: 6 });
-    expect(b1.feedback.map((f) => [f.mode, f.attempts])).toEqual([["live", 5], ["hidden", 9]]);
+    expect(b1).toMatchObject({ suppressed: true, attempts: null });
+    expect(b1.feedback.every((f) => f.suppressed && f.attempts === null)).toBe(true);
   });
 
   it("lets an instructor filter on themselves only", async () => {
@@ -324,16 +324,21 @@ describe("suppression of small groups", () => {
     expect(own.passRate).toMatchObject({ successes: 6, n: 10 });
   });
 
-  it("follows the network policy's smallest group", async () => {
-    // B1's and D1's hidden-display attempts, 5 + 10 = 15, are shown at the default of 5 …
-    const shown = await get("/api/insight/overview?site=SOUTH&feedback=hidden", t.instructor);
-    expect(shown).toMatchObject({ suppressed: false, attempts: 15 });
+  it("follows the network policy's smallest group and fewest instructors", async () => {
+    // 2026-Q2 to A1: 44 attempts, of which 34 are others' (B1, C1 and D1): three other instructors
+    const url = "/api/insight/overview?quarter=2026-Q2";
+    expect(await get(url, t.instructor)).toMatchObject({ suppressed: false, attempts: 44 });
     const { policy } = (await t.coordinator.get("/api/settings/policy").expect(200)).body.current;
-    await t.coordinator.put("/api/settings/policy", { policy: { ...policy, suppressionMinCount: 20 }, note: "Larger groups only" }).expect(200);
-    // … and hidden once the policy asks for 20
-    const hidden = await get("/api/insight/overview?site=SOUTH&feedback=hidden", t.instructor);
-    expect(hidden).toMatchObject({ suppressed: true, suppressionMinCount: 20 });
+    expect(policy).toMatchObject({ suppressionMinCount: 5, suppressionMinInstructors: 3 });
+    // … hidden once a group needs four other instructors
+    await t.coordinator.put("/api/settings/policy", { policy: { ...policy, suppressionMinInstructors: 4 }, note: "Four colleagues" }).expect(200);
+    expect(await get(url, t.instructor)).toMatchObject({ suppressed: true, attempts: null });
+    // … and once it needs 40 attempts of others (34 are)
+    await t.coordinator.put("/api/settings/policy", { policy: { ...policy, suppressionMinCount: 40 }, note: "Larger groups only" }).expect(200);
+    expect(await get(url, t.instructor)).toMatchObject({ suppressed: true, suppressionMinCount: 40 });
+    // the quality lead sees it throughout
+    expect(await get(url, t.quality)).toMatchObject({ suppressed: false, attempts: 44 });
     await t.coordinator.put("/api/settings/policy", { policy, note: "Back to the default" }).expect(200);
-    expect((await get("/api/insight/overview?site=SOUTH&feedback=hidden", t.instructor)).suppressed).toBe(false);
+    expect((await get(url, t.instructor)).suppressed).toBe(false);
   });
 });

@@ -1,5 +1,7 @@
 // GET /api/insight/standing: instructor A1's view of themselves beside the network (fixture:
-// tests/fixtures/insight/network.ts), and what it must never show about other instructors.
+// tests/fixtures/insight/network.ts), and what it must never show about other instructors. The fixture has
+// four instructors, so A1 has three colleagues: the figures below are worked out with a policy that lets two
+// other instructors make a group; the default of three is tested at the end.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { standingAnswerSchema, type StandingAnswer } from "../../shared/schemas/insight";
 import { startInsightApp, type InsightTestContext } from "../fixtures/insight/setup";
@@ -9,6 +11,8 @@ let s: StandingAnswer;
 let raw: string;
 beforeAll(async () => {
   t = await startInsightApp();
+  const { policy } = (await t.coordinator.get("/api/settings/policy").expect(200)).body.current;
+  await t.coordinator.put("/api/settings/policy", { policy: { ...policy, suppressionMinInstructors: 2 }, note: "Two colleagues make a group" }).expect(200);
   const res = await t.instructor.get("/api/insight/standing").expect(200);
   raw = res.text;
   s = standingAnswerSchema.parse(res.body);
@@ -142,5 +146,21 @@ describe("standing with filters and small groups", () => {
   it("is for instructors only", async () => {
     await t.coordinator.get("/api/insight/standing").expect(403);
     await t.funder.get("/api/insight/standing").expect(403);
+  });
+});
+
+describe("standing under the default fewest instructors (three)", () => {
+  it("shows no colleague's point and no rank when fewer than three others have enough attempts", async () => {
+    const { policy } = (await t.coordinator.get("/api/settings/policy").expect(200)).body.current;
+    await t.coordinator.put("/api/settings/policy", { policy: { ...policy, suppressionMinInstructors: 3 }, note: "Default" }).expect(200);
+    const answer = standingAnswerSchema.parse((await t.instructor.get("/api/insight/standing").expect(200)).body);
+    // B1 and D1 have at least 5 attempts, C1 has 4: two points of others would each be nearly a known colleague
+    expect(answer.spread.points).toEqual([{ medianScore: 75, passRate: 0.6, isMe: true }]);
+    expect(answer.spread.instructorsLeftOut).toBe(3);
+    expect(answer.metrics.find((m) => m.key === "score")).toMatchObject({ mine: 75, percentileRank: null });
+    // the network of three colleagues is still a group: its figures are shown
+    expect(answer.metrics.find((m) => m.key === "score")!.network).toBe(83.5);
+    // the funnel runs to my own size only: the largest colleague's count is not given away
+    expect(answer.funnel.curve.at(-1)!.n).toBe(10);
   });
 });

@@ -221,7 +221,7 @@ describe("network overview", () => {
     expect(tableOf("Measured pass rate by quarter")[2][7]).toBe("Yes, above");
   });
 
-  it("writes 'fewer than N attempts' (N from the answer) for hidden groups, never a zero", async () => {
+  it("writes 'too few to show' for hidden groups, never a zero", async () => {
     const hidden: OverviewAnswer = {
       ...overview,
       suppressionMinCount: 10,
@@ -254,15 +254,15 @@ describe("network overview", () => {
     renderApp("/overview?quarter=2026-Q3");
     await screen.findByRole("heading", { name: "2026 Q3 at a glance" });
     for (const label of ["Measured pass rate", "Instructor-recorded completion", "Learners trained", "Classes", "Attempts measured", "Median score"]) {
-      expect(within(card(label)).getByText("fewer than 10 attempts")).toBeTruthy();
+      expect(within(card(label)).getByText("too few to show")).toBeTruthy();
       expect(within(card(label)).queryByText(/^0(\.0)?( %)?$/)).toBeNull();
     }
     expect(screen.getByText(/Fewer than 10 attempts match these filters/)).toBeTruthy();
     const rows = tableOf("Measured pass rate by quarter");
-    expect(rows[1].slice(0, 4)).toEqual(["2026 Q2", "fewer than 10 attempts", "fewer than 10 attempts", "fewer than 10 attempts"]);
+    expect(rows[1].slice(0, 4)).toEqual(["2026 Q2", "too few to show", "too few to show", "too few to show"]);
     // nothing to draw: the chart's place says why instead of showing empty axes
     const feedback = screen.getByRole("heading", { name: "Live display against hidden display", level: 3 }).closest("section")!;
-    expect(feedback.textContent).toContain("With the display live, the figures are hidden (fewer than 10 attempts)");
+    expect(feedback.textContent).toContain("With the display live, the figures are hidden (too few to show)");
   });
 
   it("says a quarter has no attempts and offers other quarters", async () => {

@@ -125,7 +125,7 @@ describe("my standing", () => {
     expect(tableOf("Where you sit among instructors")).toEqual(
       standing.spread.points.map((p) => [p.isMe ? "You" : "Another instructor", (Math.round(p.medianScore * 10) / 10).toFixed(1), pct(p.passRate)]),
     );
-    expect(screen.getByText(/1 instructor has fewer than 5 attempts and is left out/)).toBeTruthy();
+    expect(screen.getByText(/1 instructor is left out \(fewer than 5 attempts, or too few instructors to show\)/)).toBeTruthy();
   });
 
   it("the funnel's table holds my attempts, my rate and the limits at my number of attempts", async () => {
@@ -177,7 +177,7 @@ describe("my standing", () => {
     expect(within(table).getByText("5 (83.3 %)")).toBeTruthy();
   });
 
-  it("writes 'fewer than N attempts' where the network is hidden, never a zero", async () => {
+  it("writes 'too few to show' where the network is hidden, never a zero", async () => {
     const hidden: StandingAnswer = {
       ...standing,
       suppressionMinCount: 8,
@@ -191,12 +191,12 @@ describe("my standing", () => {
     await screen.findByRole("heading", { name: "IN03 · Ilse Pendrake, 2026 Q4" });
     for (const label of ["Score", "Depth", "Rate", "Release (recoil)", "Hands-on time"]) {
       const card = metricCard(label);
-      expect(within(card).getByText("fewer than 8 attempts")).toBeTruthy();
+      expect(within(card).getByText("too few to show")).toBeTruthy();
       expect(card.textContent).not.toMatch(/Network: 0/);
     }
     expect(screen.getByText(/The network's figures are hidden for these filters/)).toBeTruthy();
     const rows = tableOf("Your errors against the network's");
-    expect(rows.map((r) => r[2])).toEqual(standing.errorProfile.rows.map(() => "fewer than 8 attempts"));
+    expect(rows.map((r) => r[2])).toEqual(standing.errorProfile.rows.map(() => "too few to show"));
   });
 
   it("says so when I have no attempts in the quarter", async () => {

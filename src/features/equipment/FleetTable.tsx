@@ -9,9 +9,14 @@ import { quarterLabel } from "../../../shared/period";
 export type FleetRow = EquipmentAnswer["fleet"][number];
 
 interface ShownFleetRow extends FleetRow {
-  periodAttempts: number;
-  periodCompressions: number;
+  /** null when a quarter of the period is hidden from this viewer (too few others' attempts or instructors) */
+  periodAttempts: number | null;
+  periodCompressions: number | null;
   due: string[];
+}
+
+function sumOrHidden(values: readonly (number | null)[]): number | null {
+  return values.some((value) => value === null) ? null : values.reduce<number>((sum, value) => sum + value!, 0);
 }
 
 export function FleetTable({ answer }: { answer: EquipmentAnswer }) {
@@ -26,20 +31,28 @@ export function FleetTable({ answer }: { answer: EquipmentAnswer }) {
   }
   const rows: ShownFleetRow[] = answer.fleet.map((m) => ({
     ...m,
-    periodAttempts: m.usage.filter((u) => inPeriod.has(u.quarter)).reduce((sum, u) => sum + u.attempts, 0),
-    periodCompressions: m.usage.filter((u) => inPeriod.has(u.quarter)).reduce((sum, u) => sum + u.compressions, 0),
+    periodAttempts: sumOrHidden(m.usage.filter((u) => inPeriod.has(u.quarter)).map((u) => u.attempts)),
+    periodCompressions: sumOrHidden(m.usage.filter((u) => inPeriod.has(u.quarter)).map((u) => u.compressions)),
     due: dueBy.get(m.id) ?? [],
   }));
   const periodLabel = answer.period.from === answer.period.to ? quarterLabel(answer.period.from) : "period";
   const number = (value: number) => value.toLocaleString("en-GB");
+  const hiddenOr = (value: number | null) =>
+    value === null ? (
+      <span className="text-small text-muted italic" title="Hidden to protect colleagues: too few attempts or instructors other than you">
+        Hidden
+      </span>
+    ) : (
+      number(value)
+    );
   const columns: Column<ShownFleetRow>[] = [
     { key: "assetId", header: "Asset id", value: (m) => m.assetId, primary: true },
     { key: "patientType", header: "Patient type", value: (m) => (m.patientType ? patientTypeNames[m.patientType] : null) },
     { key: "site", header: "Site", value: (m) => m.site?.code ?? null },
     { key: "inServiceSince", header: "In service since", value: (m) => m.inServiceSince, render: (m) => dateOnly(m.inServiceSince) },
     { key: "retiredOn", header: "Retired", value: (m) => m.retiredOn, render: (m) => (m.retiredOn ? dateOnly(m.retiredOn) : <span className="text-muted">In service</span>) },
-    { key: "periodAttempts", header: `Attempts, ${periodLabel}`, value: (m) => m.periodAttempts, render: (m) => number(m.periodAttempts), align: "right" },
-    { key: "periodCompressions", header: `Compressions, ${periodLabel}`, value: (m) => m.periodCompressions, render: (m) => number(m.periodCompressions), align: "right" },
+    { key: "periodAttempts", header: `Attempts, ${periodLabel}`, value: (m) => m.periodAttempts, render: (m) => hiddenOr(m.periodAttempts), align: "right" },
+    { key: "periodCompressions", header: `Compressions, ${periodLabel}`, value: (m) => m.periodCompressions, render: (m) => hiddenOr(m.periodCompressions), align: "right" },
     { key: "sinceService", header: "Compressions since service", value: (m) => m.compressionsSinceService, render: (m) => number(m.compressionsSinceService), align: "right" },
     { key: "lastService", header: "Last service", value: (m) => m.lastServiceDate, render: (m) => (m.lastServiceDate ? dateOnly(m.lastServiceDate) : <span className="text-muted">None recorded</span>) },
     { key: "openFaults", header: "Open faults", value: (m) => m.openFaults, align: "right" },

@@ -1,5 +1,5 @@
 // Compressions per quarter on the fleet, stacked by site; the table lists every manikin's attempts and
-// compressions per quarter.
+// compressions per quarter. Quarters hidden from the viewer (too few others' attempts) are left out.
 import * as Plot from "@observablehq/plot";
 import { useMemo } from "react";
 import type { EquipmentAnswer } from "../../../shared/schemas/equipment";
@@ -40,7 +40,14 @@ function usagePlot(data: readonly UsageRow[], { width }: ChartSize): Plot.PlotOp
 
 export function UsageChart({ fleet }: { fleet: EquipmentAnswer["fleet"] }) {
   const rows = useMemo<UsageRow[]>(
-    () => fleet.flatMap((m) => m.usage.map((u) => ({ key: `${m.id}|${u.quarter}`, assetId: m.assetId, site: m.site?.code ?? "No site", quarter: u.quarter, attempts: u.attempts, compressions: u.compressions }))),
+    () =>
+      fleet.flatMap((m) =>
+        m.usage.flatMap((u) =>
+          u.attempts === null || u.compressions === null
+            ? []
+            : [{ key: `${m.id}|${u.quarter}`, assetId: m.assetId, site: m.site?.code ?? "No site", quarter: u.quarter, attempts: u.attempts, compressions: u.compressions }],
+        ),
+      ),
     [fleet],
   );
   const byQuarter = new Map<string, number>();

@@ -69,9 +69,18 @@ export function formatCount(value: number | null | undefined): string {
   return value.toLocaleString("en-GB");
 }
 
-/** What a hidden group says instead of its value: never a zero that looks like a result. */
-export function suppressedText(minCount: number): string {
-  return `fewer than ${minCount} attempts`;
+/**
+ * What a hidden group says instead of its value: never a zero that looks like a result. A group may be
+ * hidden for its own size, for the few instructors in it, or because it would give a smaller one away, so
+ * the words name no count; `suppressionTitle` explains the rule.
+ */
+export function suppressedText(_minCount: number): string {
+  return "too few to show";
+}
+
+/** The rule behind a hidden value, for a tooltip. */
+export function suppressionTitle(minCount: number): string {
+  return `Hidden to protect learners and colleagues: a group is shown only with at least ${minCount} attempts of others from enough other instructors, and never when another figure would give a smaller group away.`;
 }
 
 /** A rate as one line: "29.5 % (95 % interval 27.1–31.9 %)", or why it has no value. */

@@ -147,7 +147,7 @@ export function PolicyForm({ current, defaults, fieldSources, unit, canEdit, sav
           <strong className="text-ink">The pass rule is network policy, not a guideline.</strong> No resuscitation guideline publishes a pass mark in percent of compressions; the targets it counts against come from the guidelines.
         </p>,
       )}
-      {fieldset("Privacy", fieldGroups.privacy, "Groups with fewer attempts are hidden from funders and from instructors looking at others, to protect learners.")}
+      {fieldset("Privacy", fieldGroups.privacy, "Groups with fewer attempts, or with the attempts of fewer other instructors, are hidden from funders and from instructors looking at others, to protect learners and colleagues.")}
       {fieldset("Equipment", fieldGroups.equipment, "When a manikin is due for service and how many mouthpiece cleans a class should log. Network policy, not a manufacturer’s figure.")}
       {canEdit && (
         <div className="flex flex-col gap-3 rounded-card border border-line bg-surface p-4 shadow-card">

@@ -36,7 +36,10 @@ export const fieldGroups = {
     { path: "passRule.minHandsOnPct", label: "Hands-on time, at least", kind: "percent" },
     { path: "passRule.maxLongestPauseS", label: "Longest pause, at most", kind: "seconds" },
   ] as PolicyField[],
-  privacy: [{ path: "suppressionMinCount", label: "Smallest group shown to funders and to instructors looking at others", kind: "count", whole: true }] as PolicyField[],
+  privacy: [
+    { path: "suppressionMinCount", label: "Smallest group shown to funders and to instructors looking at others", kind: "count", whole: true },
+    { path: "suppressionMinInstructors", label: "Fewest other instructors in a group shown to funders and to instructors", kind: "count", whole: true },
+  ] as PolicyField[],
   equipment: [
     { path: "equipment.serviceEveryCompressions", label: "Service after this many compressions", kind: "count", whole: true },
     { path: "equipment.serviceEveryDays", label: "Or after this many days", kind: "count", whole: true },

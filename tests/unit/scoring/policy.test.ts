@@ -90,6 +90,14 @@ describe("policy schema rejects bad input with readable messages", () => {
     ]);
   });
 
+  it("a fewest-instructors setting that is not a whole number of at least 1; a policy saved without it reads 3", () => {
+    const p = clone() as unknown as Record<string, unknown>;
+    p.suppressionMinInstructors = 0;
+    expect(messages(p)).toEqual(["suppressionMinInstructors: Fewest other instructors in a group shown must be greater than 0"]);
+    delete p.suppressionMinInstructors;
+    expect(networkPolicySchema.parse(p).suppressionMinInstructors).toBe(3);
+  });
+
   it("a long-pause limit shorter than the pause threshold", () => {
     const p = clone();
     p.longPauseLimitS = 1;

@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import type { HiddenReason } from "../../../shared/schemas/report";
-import { anyHiddenCellPinned, hidesOthers, suppressBreakdown, withComplementaryHiding } from "../../../shared/suppression";
+import { anyHiddenCellPinned, hidesOthers, isSafeGroup, releaseGrid, releaseShows, suppressBreakdown, type GridCell } from "../../../shared/suppression";
 
 const MIN = 5;
 
@@ -129,12 +129,58 @@ describe("the pages' rules", () => {
     expect([0, 1, 4, 5, 12].map((n) => hidesOthers(n, MIN))).toEqual([false, true, true, false, false]);
   });
 
-  it("hide the smallest shown group beside a hidden one until the hidden groups hold at least the threshold", () => {
-    // feedback modes 3 and 40 under a shown total of 43: 43 − 40 would give the 3 away, so 40 goes too
-    expect(withComplementaryHiding([3, 40], [true, false], MIN)).toEqual([true, true]);
-    // quarters 3, 4, 30: hiding 3 and 4 together holds 7 ≥ 5, so the 30 stays
-    expect(withComplementaryHiding([3, 4, 30], [true, true, false], MIN)).toEqual([true, true, false]);
-    // nothing hidden, nothing added
-    expect(withComplementaryHiding([8, 9], [false, false], MIN)).toEqual([false, false]);
+});
+
+describe("the released grid", () => {
+  const rule = { minCount: MIN, minInstructors: 3 };
+  /** cells over (quarter, site, feedback): attempts by instructor */
+  const cell = (quarter: string, site: string, feedback: string, byInstructor: Record<number, number>): GridCell => ({
+    coords: [quarter, site, feedback],
+    others: new Map(Object.entries(byInstructor).map(([id, n]) => [Number(id), n])),
+  });
+  const levels = [[0, 1], [0]];
+  const where = (quarter: string, site?: string, feedback?: string) => (coords: readonly (string | number)[]) =>
+    coords[0] === quarter && (site === undefined || coords[1] === site) && (feedback === undefined || coords[2] === feedback);
+
+  it("calls a group safe with at least the threshold of attempts from at least the fewest instructors, or none at all", () => {
+    expect(isSafeGroup(0, 0, rule)).toBe(true);
+    expect(isSafeGroup(5, 3, rule)).toBe(true);
+    expect(isSafeGroup(4, 3, rule)).toBe(false);
+    // eleven attempts, all one colleague's: a "group" of one person
+    expect(isSafeGroup(11, 1, rule)).toBe(false);
+  });
+
+  it("hides an answer that would cut a pool, so a hidden cell is never a difference of two shown answers", () => {
+    // site L: live 13 attempts from three instructors; hidden 3 attempts of one colleague
+    const release = releaseGrid(
+      [cell("Q4", "L", "live", { 1: 5, 2: 4, 3: 4 }), cell("Q4", "L", "hidden", { 2: 3 }), cell("Q4", "M", "live", { 4: 6, 5: 6, 6: 6 })],
+      levels,
+      rule,
+    );
+    expect(releaseShows(release, where("Q4", "L"))).toBe(true);
+    expect(releaseShows(release, where("Q4"))).toBe(true);
+    // live at L alone would give the hidden 3 away as (site L) − (site L, live)
+    expect(releaseShows(release, where("Q4", "L", "live"))).toBe(false);
+    expect(releaseShows(release, where("Q4", "L", "hidden"))).toBe(false);
+    expect(releaseShows(release, where("Q4", "M", "live"))).toBe(true);
+  });
+
+  it("pools across sites when a site cannot protect a small cell on its own, and withholds what nothing can protect", () => {
+    const release = releaseGrid([cell("Q1", "L", "live", { 1: 2 }), cell("Q1", "M", "live", { 2: 2 }), cell("Q1", "N", "live", { 3: 2 }), cell("Q2", "L", "live", { 1: 2 })], levels, rule);
+    // Q1: three colleagues' 2 + 2 + 2 pooled over the quarter: the quarter is shown, no site is
+    expect(releaseShows(release, where("Q1"))).toBe(true);
+    expect(releaseShows(release, where("Q1", "L"))).toBe(false);
+    // Q2 holds 2 attempts of one colleague and nothing to pool with: withheld from every answer that takes it
+    expect(releaseShows(release, where("Q2"))).toBe(false);
+    expect(releaseShows(release, (coords) => coords[0] === "Q1" || coords[0] === "Q2")).toBe(false);
+  });
+
+  it("takes a safe pool whole as the complement of a small cell at a coarser level", () => {
+    // L live (three colleagues) is safe on its own; L hidden (one colleague, 4) needs a complement, and the
+    // only one is the live cell: the site is shown, neither display alone
+    const release = releaseGrid([cell("Q1", "L", "live", { 1: 2, 2: 2, 3: 2 }), cell("Q1", "L", "hidden", { 1: 4 })], levels, rule);
+    expect(releaseShows(release, where("Q1", "L"))).toBe(true);
+    expect(releaseShows(release, where("Q1", "L", "live"))).toBe(false);
+    expect(releaseShows(release, where("Q1", "L", "hidden"))).toBe(false);
   });
 });

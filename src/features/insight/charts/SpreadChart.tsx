@@ -61,7 +61,10 @@ export function SpreadChart({ points, minAttempts, instructorsLeftOut }: { point
       ],
     };
   }, []);
-  const leftOut = instructorsLeftOut > 0 ? ` ${instructorsLeftOut} instructor${instructorsLeftOut === 1 ? " has" : "s have"} fewer than ${minAttempts} attempts and ${instructorsLeftOut === 1 ? "is" : "are"} left out.` : "";
+  const leftOut =
+    instructorsLeftOut > 0
+      ? ` ${instructorsLeftOut} instructor${instructorsLeftOut === 1 ? " is" : "s are"} left out (fewer than ${minAttempts} attempts, or too few instructors to show).`
+      : "";
   return (
     <Chart
       title="Where you sit among instructors"

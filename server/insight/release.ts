@@ -1,0 +1,85 @@
+// The released grid for viewers who do not see everyone (instructors, funders): which answers they may be
+// shown, decided once per database state over one grid of cells (shared/suppression, releaseGrid), so that no
+// two shown answers can be subtracted to reveal a small group (docs/decisions/006-disclosure-control.md).
+import { can } from "../../shared/permissions";
+import { releaseGrid, releaseShows, type GridCell, type Release } from "../../shared/suppression";
+import type { Db } from "../db/client";
+import { countsByGrid, type Dimension, type SummaryScope } from "../metrics/summaries";
+import { cached } from "./cache";
+import type { Viewer } from "./viewer";
+
+/**
+ * The grid: every dimension the pages let these viewers narrow a network figure by. A page that offers them
+ * a new dimension adds it here (and to `selects`), or its answers would split cells the grid never judged.
+ */
+const GRID: readonly Dimension[] = ["quarter", "siteId", "profile", "feedback", "manikinId"];
+
+/**
+ * Where unsafe cells are pooled, finest first (indices into GRID): the manikins of one cell, then the sites
+ * of one quarter, patient type and display (so network-wide breakdowns stay whole), then the patient types
+ * of one quarter and display, then the quarter. Pools never span quarters: what a quarter cannot protect is
+ * withheld, so every other quarter stays shown on its own and only ranges that take the withheld cells hide.
+ */
+const LEVELS: readonly (readonly number[])[] = [[0, 1, 2, 3], [0, 2, 3], [0, 3], [0]];
+
+/** What a figure counts: attempts, or the attempts that carry an instructor's result (the agreement table). */
+export type ReleaseMeasure = "attempts" | "judged";
+
+/** Grid dimensions a viewer's filters cannot name; a funder has no site or manikin filter. */
+const SITE = 1;
+const MANIKIN = 4;
+const WHOLE = "*";
+
+/**
+ * Whether the viewer may narrow by site and manikin. Without those filters their grid is coarser (every
+ * site and manikin of a cell as one), so fewer cells are small and fewer figures hide.
+ */
+function narrowsBySite(viewer: Viewer): boolean {
+  return can(viewer.user, "readNetwork");
+}
+
+function releaseFor(db: Db, viewer: Viewer, measure: ReleaseMeasure): Release {
+  const own = viewer.ownInstructorId;
+  const rule = { minCount: viewer.suppressionMinCount, minInstructors: viewer.suppressionMinInstructors };
+  const bySite = narrowsBySite(viewer);
+  return cached(db, `release|${measure}|${own ?? ""}|${bySite}|${rule.minCount}|${rule.minInstructors}`, () => {
+    const cells = new Map<string, { coords: (string | number)[]; others: Map<number, number> }>();
+    // one read of the summaries per database state, shared by every viewer's release
+    const rows = cached(db, "release-grid", () => countsByGrid(db, [...GRID, "instructorId"]));
+    for (const row of rows) {
+      const coords = row.key.slice(0, GRID.length);
+      if (!bySite) coords[SITE] = coords[MANIKIN] = WHOLE;
+      const instructorId = Number(row.key[GRID.length]);
+      const key = coords.join("|");
+      let cell = cells.get(key);
+      if (!cell) cells.set(key, (cell = { coords, others: new Map() }));
+      const count = measure === "attempts" ? row.n : row.judged;
+      // the viewer's own attempts protect nobody: they know them
+      if (instructorId !== own && count > 0) cell.others.set(instructorId, (cell.others.get(instructorId) ?? 0) + count);
+    }
+    return releaseGrid([...cells.values()] as GridCell[], LEVELS, rule);
+  });
+}
+
+/** The grid cells a scope takes (coordinates in GRID order). */
+function selects(scope: SummaryScope) {
+  return ([quarter, siteId, profile, feedback, manikinId]: readonly (string | number)[]) =>
+    quarter >= scope.from &&
+    quarter <= scope.to &&
+    (scope.siteId === null || siteId === scope.siteId) &&
+    (scope.profile === null || profile === scope.profile) &&
+    (scope.feedback === null || feedback === scope.feedback) &&
+    (scope.manikinId === null || manikinId === scope.manikinId);
+}
+
+/**
+ * Whether the viewer may see a figure over `scope`. Those who see everyone always may; an instructor always
+ * sees their own attempts alone; anyone else only an answer that takes every pool of the grid whole.
+ */
+export function mayShow(db: Db, viewer: Viewer, scope: SummaryScope, measure: ReleaseMeasure = "attempts"): boolean {
+  if (viewer.seesEveryone) return true;
+  if (scope.instructorId !== null) return scope.instructorId === viewer.ownInstructorId;
+  // a filter the viewer's grid does not hold is never theirs (the filters refuse it before this)
+  if (!narrowsBySite(viewer) && (scope.siteId !== null || scope.manikinId !== null)) return false;
+  return releaseShows(releaseFor(db, viewer, measure), selects(scope));
+}
