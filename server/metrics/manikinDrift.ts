@@ -8,6 +8,7 @@
 // manikins are flagged one at a time: the largest |offset| that meets the rule is flagged, its attempts leave
 // every other comparison, and the rest are compared again until none meets the rule.
 import { and, between, eq, inArray } from "drizzle-orm";
+import type { DriftFlag } from "../../shared/schemas/equipment";
 import type { PatientType } from "../../shared/scoring/policy";
 import { meanWithInterval } from "../../shared/stats/meanInterval";
 import type { Db } from "../db/client";
@@ -38,7 +39,6 @@ export interface PairedDifference {
   peer_attempts: number;
 }
 
-export type DriftFlag = "check" | "ok" | "too few classes";
 
 export interface ManikinDrift {
   manikin: string;

@@ -8,14 +8,13 @@
 import { sql } from "drizzle-orm";
 import type { PatientType } from "../../shared/scoring/policy";
 import { quarterDates } from "../../shared/period";
-import { retentionBins } from "../../shared/schemas/learners";
+import { retentionBins, type RetentionBin } from "../../shared/schemas/learners";
 import { wilsonInterval } from "../../shared/stats/wilson";
 import type { Db } from "../db/client";
 import { attempts, classes } from "../db/schema";
 
 export const DAYS_PER_MONTH = 30.4375;
-export { retentionBins };
-export type RetentionBin = (typeof retentionBins)[number];
+export { retentionBins, type RetentionBin };
 
 export interface RetentionGroup {
   /** Learner–class pairs. */

@@ -72,6 +72,9 @@ export const equipmentAnswerSchema = z.object({
 });
 export type EquipmentAnswer = z.infer<typeof equipmentAnswerSchema>;
 
+export const driftFlags = ["check", "ok", "too few classes"] as const;
+export type DriftFlag = (typeof driftFlags)[number];
+
 /** Answer of GET /api/equipment/drift: each manikin's depth readings against its peers in the same classes. */
 export const manikinDriftSchema = z.object({
   manikin: z.string(),
@@ -83,7 +86,7 @@ export const manikinDriftSchema = z.object({
   offset_mm: z.number().nullable(),
   se_mm: z.number().nullable(),
   ci95: z.tuple([z.number(), z.number()]).nullable(),
-  flag: z.enum(["check", "ok", "too few classes"]),
+  flag: z.enum(driftFlags),
   flagged_in_round: z.number().int().min(1).nullable(),
   /** The paired differences, oldest class first; the class id only for those who see every site's classes. */
   differences: z.array(

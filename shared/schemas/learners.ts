@@ -9,6 +9,7 @@ const share = z.number().min(0).max(1);
 const interval = z.tuple([z.number(), z.number()]).nullable();
 
 export const retentionBins = ["0-6", "6-12", "12-18", "18-24", "24+"] as const;
+export type RetentionBin = (typeof retentionBins)[number];
 
 export const retentionGroupSchema = z.object({
   /** Learner–class pairs. */
