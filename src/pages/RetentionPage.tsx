@@ -2,7 +2,6 @@
 // attempt, by months since their previous class — the network's own evidence for when refreshers are due.
 import { useQuery } from "@tanstack/react-query";
 import { PageHeader } from "../components/PageHeader";
-import { SafetyNote } from "../components/SafetyNote";
 import { InsightFilters } from "../features/insight/InsightFilters";
 import { QueryStatus } from "../features/insight/QueryStatus";
 import type { InsightFilterState } from "../features/insight/useInsightFilters";
@@ -34,7 +33,6 @@ function Retention({ state }: { state: InsightFilterState }) {
       <QueryStatus query={query} loadingLabel="Loading returning learners…" errorTitle="Skill retention could not be loaded">
         {(answer) => <RetentionView answer={answer} />}
       </QueryStatus>
-      <SafetyNote compact />
     </div>
   );
 }
