@@ -2,7 +2,7 @@
 import { cleanup, render, screen, within } from "@testing-library/react";
 import { afterEach, describe, expect, it } from "vitest";
 import type { CalibrationAnswer, CalibrationRow, RetentionAnswer } from "../../shared/schemas/learners";
-import { AllCalibration, OwnCalibration } from "../../src/features/learners/CalibrationViews";
+import { AllCalibration, InstructorCalibration, OwnCalibration } from "../../src/features/learners/CalibrationViews";
 import { RetentionView, retentionRows } from "../../src/features/learners/RetentionView";
 
 afterEach(cleanup);
@@ -108,5 +108,21 @@ describe("AllCalibration", { timeout: 30_000 }, () => {
     // the 2×2 cells of the lenient instructor: 40 both pass, 45 passed measured failures, 1, 5
     const cells = within(within(table).getAllByRole("row")[1]).getAllByRole("cell").map((c) => c.textContent);
     expect(cells.slice(1, 6)).toEqual(["91", "40", "45", "1", "5"]);
+  });
+});
+
+describe("InstructorCalibration", { timeout: 30_000 }, () => {
+  it("speaks of the instructor by code on their page", () => {
+    const all: CalibrationAnswer = { period, ranked: 2, rows: [row("IN01", [40, 5, 2, 45], 2), row("IN11", [40, 45, 1, 5], 1)], others: [], othersHidden: 0 };
+    render(<InstructorCalibration answer={all} instructorId={11} />);
+    expect(screen.getByText(/IN11's judgement against the measurement \(91 attempts they marked\)/)).toBeTruthy();
+    expect(screen.getByText(/Of 50 attempts the manikin measured as failing, IN11 passed 45/)).toBeTruthy();
+    expect(screen.getByText(/Among 2 instructors IN11 passes the largest share of measured failures/)).toBeTruthy();
+    expect(within(screen.getByRole("table")).getAllByRole("row")[1].textContent).toBe("IN11 passed4045");
+  });
+
+  it("says so when the instructor marked nothing", () => {
+    render(<InstructorCalibration answer={{ period, ranked: 0, rows: [], others: [], othersHidden: 0 }} instructorId={11} />);
+    expect(screen.getByText(/This instructor marked no attempts pass or fail in 2025 Q1 to 2026 Q4/)).toBeTruthy();
   });
 });

@@ -18,13 +18,23 @@ function ordinal(n: number): string {
   return `${n}${["th", "st", "nd", "rd"][n % 10] ?? "th"}`;
 }
 
+/** Whom the sentences speak of: the signed-in instructor ("you") or, for the quality lead, an instructor by code. */
+export interface Subject {
+  you: boolean;
+  code: string;
+}
+const YOU: Subject = { you: true, code: "" };
+
 /** The 2×2 table of one instructor's judgement against the measurement. */
-export function CalibrationTable({ row }: { row: CalibrationRow }) {
+export function CalibrationTable({ row, subject = YOU }: { row: CalibrationRow; subject?: Subject }) {
+  const who = subject.you ? "You" : subject.code;
   const cell = "border border-line px-3 py-2 text-right tabular-nums";
   const head = "border border-line bg-surface px-3 py-2 text-left font-semibold";
   return (
     <table className="border-collapse text-small">
-      <caption className="mb-1 text-left font-semibold">Your judgement against the measurement ({formatCount(row.judged)} attempts you marked)</caption>
+      <caption className="mb-1 text-left font-semibold">
+        {subject.you ? "Your" : `${subject.code}'s`} judgement against the measurement ({formatCount(row.judged)} attempts {subject.you ? "you" : "they"} marked)
+      </caption>
       <thead>
         <tr>
           <td className="border border-line px-3 py-2" />
@@ -39,14 +49,14 @@ export function CalibrationTable({ row }: { row: CalibrationRow }) {
       <tbody>
         <tr>
           <th scope="row" className={head}>
-            You passed
+            {who} passed
           </th>
           <td className={cell}>{formatCount(row.both_pass)}</td>
           <td className={cell}>{formatCount(row.instructor_pass_measured_fail)}</td>
         </tr>
         <tr>
           <th scope="row" className={head}>
-            You failed
+            {who} failed
           </th>
           <td className={cell}>{formatCount(row.instructor_fail_measured_pass)}</td>
           <td className={cell}>{formatCount(row.both_fail)}</td>
@@ -57,17 +67,18 @@ export function CalibrationTable({ row }: { row: CalibrationRow }) {
 }
 
 /** One instructor's calibration in sentences, with where they sit among the ranked instructors. */
-export function CalibrationWords({ row, ranked }: { row: CalibrationRow; ranked: number }) {
+export function CalibrationWords({ row, ranked, subject = YOU }: { row: CalibrationRow; ranked: number; subject?: Subject }) {
+  const who = subject.you ? "you" : subject.code;
   const measuredFail = row.instructor_pass_measured_fail + row.both_fail;
   const measuredPass = row.both_pass + row.instructor_fail_measured_pass;
   return (
     <ul className="flex list-disc flex-col gap-1 pl-5">
       <li>
-        Of {formatCount(measuredFail)} attempts the manikin measured as failing, you passed {formatCount(row.instructor_pass_measured_fail)}:{" "}
+        Of {formatCount(measuredFail)} attempts the manikin measured as failing, {who} passed {formatCount(row.instructor_pass_measured_fail)}:{" "}
         <strong>{formatPercent(row.lenient_share)}</strong> (95 % interval {formatInterval(row.lenient_ci95?.[0], row.lenient_ci95?.[1])}).
       </li>
       <li>
-        Of {formatCount(measuredPass)} attempts measured as passing, you failed {formatCount(row.instructor_fail_measured_pass)}:{" "}
+        Of {formatCount(measuredPass)} attempts measured as passing, {who} failed {formatCount(row.instructor_fail_measured_pass)}:{" "}
         <strong>{formatPercent(row.strict_share)}</strong> (95 % interval {formatInterval(row.strict_ci95?.[0], row.strict_ci95?.[1])}).
       </li>
       <li>
@@ -75,7 +86,7 @@ export function CalibrationWords({ row, ranked }: { row: CalibrationRow; ranked:
       </li>
       {row.lenient_rank !== null && (
         <li>
-          Among {ranked} instructors you pass the {row.lenient_rank === 1 ? "largest" : `${ordinal(row.lenient_rank)} largest`} share of measured failures.
+          Among {ranked} instructors {who} {subject.you ? "pass" : "passes"} the {row.lenient_rank === 1 ? "largest" : `${ordinal(row.lenient_rank)} largest`} share of measured failures.
         </li>
       )}
     </ul>
@@ -138,6 +149,19 @@ export function AllCalibration({ answer }: { answer: CalibrationAnswer }) {
         initialSort={{ key: "lenient", direction: "desc" }}
         emptyMessage="No instructor marked an attempt in this period."
       />
+    </div>
+  );
+}
+
+/** One instructor's calibration on their page, for those who see every instructor. */
+export function InstructorCalibration({ answer, instructorId }: { answer: CalibrationAnswer; instructorId: number }) {
+  const row = answer.rows.find((r) => r.instructor.id === instructorId);
+  if (!row || row.judged === 0) return <p>This instructor marked no attempts pass or fail in {rangeLabel(answer.period)}.</p>;
+  const subject = { you: false, code: row.instructor.code };
+  return (
+    <div className="flex flex-col gap-3">
+      <CalibrationTable row={row} subject={subject} />
+      <CalibrationWords row={row} ranked={answer.ranked} subject={subject} />
     </div>
   );
 }
