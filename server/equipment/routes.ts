@@ -1,8 +1,10 @@
 // GET /api/equipment: coordinators and quality leads see the whole fleet; an instructor sees their own site.
+import { eq } from "drizzle-orm";
 import { Router, type Request } from "express";
 import { insightFiltersSchema } from "../../shared/filters";
 import { can } from "../../shared/permissions";
 import type { Db } from "../db/client";
+import { manikins } from "../db/schema";
 import { allow, rowScope, signedInUser } from "../auth/guard";
 import { forbidden } from "../errors";
 import { parseWith } from "../http/validate";
@@ -43,11 +45,14 @@ export function equipmentRoutes(db: Db): Router {
     const { user, viewer, filters } = equipmentContext(req);
     const rule = DRIFT_DEFAULTS;
     const showClasses = can(user, "readEquipment", "any");
+    // a manikin filter narrows the rows shown; the manikin is still compared with all of its peers
+    const onlyManikin = filters.manikinId === null ? null : (db.select({ assetId: manikins.assetId }).from(manikins).where(eq(manikins.id, filters.manikinId)).get()?.assetId ?? null);
     sendCached(db, res, `equipment-drift|${viewerKey(viewer)}|${filtersKey(filters)}`, () => ({
       period: filters.period,
       rule,
       manikins: manikinDriftReport(db, { from: filters.period.from, to: filters.period.to, siteId: filters.siteId, options: rule })
         .filter((m) => filters.profile === null || m.profile === filters.profile)
+        .filter((m) => onlyManikin === null || m.manikin === onlyManikin)
         .map((m) => (showClasses ? m : { ...m, differences: m.differences.map((d) => ({ ...d, classId: null })) })),
     }));
   });

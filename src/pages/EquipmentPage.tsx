@@ -31,8 +31,8 @@ export default function EquipmentPage() {
         title="Equipment"
         description={
           ownSite
-            ? "The manikins of your site: how much they are used, when they were last serviced, what is due, and the consumables your site used per 100 learners."
-            : "The manikin fleet: how much each manikin is used, when it was last serviced, what is due, and consumables per 100 learners at each site."
+            ? "The manikins of your site: how much they are used, when they were last serviced, what is due, the consumables your site used per 100 learners, and whether a manikin's depth readings differ from its peers'."
+            : "The manikin fleet: how much each manikin is used, when it was last serviced, what is due, consumables per 100 learners at each site, and whether a manikin's depth readings differ from its peers'."
         }
       />
       {options.isPending ? (

@@ -95,6 +95,16 @@ describe("GET /api/equipment/drift", () => {
     expect(flagged[0].differences.every((d) => d.classId !== null)).toBe(true);
   });
 
+  it("narrows the rows to one manikin or patient type, keeping the manikin's comparison with all its peers", async () => {
+    const all = driftAnswerSchema.parse((await agents.coordinator.get("/api/equipment/drift?from=2026-Q1&to=2026-Q4")).body);
+    const drifting = DEMO_SCENARIO.driftingSensor.manikin;
+    const one = driftAnswerSchema.parse((await agents.coordinator.get(`/api/equipment/drift?from=2026-Q1&to=2026-Q4&manikin=${drifting}`)).body);
+    expect(one.manikins).toEqual(all.manikins.filter((m) => m.manikin === drifting));
+    const infants = driftAnswerSchema.parse((await agents.coordinator.get("/api/equipment/drift?from=2026-Q1&to=2026-Q4&profile=infant")).body);
+    expect(infants.manikins.length).toBeGreaterThan(0);
+    expect(infants.manikins.every((m) => m.profile === "infant")).toBe(true);
+  });
+
   it("gives an instructor their own site's manikins without other classes' ids, and refuses another site", async () => {
     const res = await agents.instructor.get("/api/equipment/drift?from=2026-Q1&to=2026-Q4");
     expect(res.status).toBe(200);
