@@ -10,6 +10,7 @@ import { registerStats } from "./commands/stats";
 import { registerReport } from "./commands/report";
 import { registerRetention } from "./commands/retention";
 import { registerAgreement } from "./commands/agreement";
+import { registerManikins } from "./commands/manikins";
 import { registerRestore } from "./commands/restore";
 import { registerSystem } from "./commands/system";
 import { APP_VERSION } from "../server/ops/version";
@@ -35,6 +36,7 @@ export function buildProgram(): Command {
   registerReport(program);
   registerRetention(program);
   registerAgreement(program);
+  registerManikins(program);
   return program;
 }
 

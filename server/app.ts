@@ -24,6 +24,7 @@ import { systemRoutes } from "./ops/systemRoutes";
 import { reportRoutes } from "./reports/routes";
 import { equipmentRoutes } from "./equipment/routes";
 import { insightRoutes } from "./insight/routes";
+import { learnerRoutes } from "./learners/routes";
 import { projectRoot } from "./projectRoot";
 import { policyRoutes } from "./settings/policyRoutes";
 import { sessionSecret } from "./settings/store";
@@ -53,6 +54,7 @@ function featureRouters(db: Db, config: Config, endSessions: EndSessionsAfterPas
     siteRoutes(db),
     insightRoutes(db),
     equipmentRoutes(db),
+    learnerRoutes(db),
     policyRoutes(db),
     reportRoutes(db, mailer, logger),
     outboxRoutes(db),

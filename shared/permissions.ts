@@ -34,6 +34,8 @@ export const permissionTable = {
   /** Per-instructor tables and error breakdowns. */
   drillDown: { coordinator: "any", quality_lead: "any" },
   readOwnStanding: { instructor: "own" },
+  /** Instructors' pass/fail against the measurement: an instructor sees only their own, in private. */
+  readCalibration: { coordinator: "any", quality_lead: "any", instructor: "own" },
   /** The fleet and consumables; an instructor sees their own site's manikins and their own classes. */
   readEquipment: { coordinator: "any", quality_lead: "any", instructor: "own" },
   readReport: { coordinator: "any", funder: "any" },

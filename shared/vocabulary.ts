@@ -3,6 +3,8 @@
 import type { CourseType, FeedbackMode } from "./domain";
 import type { PatientType } from "./scoring/policy";
 import type { AttemptError } from "./scoring/scoreAttempt";
+import type { DriftFlag } from "./schemas/equipment";
+import type { RetentionBin } from "./schemas/learners";
 
 /** The ways figures can be narrowed or grouped. */
 export const dimensionNames = {
@@ -84,3 +86,29 @@ export const attemptFieldNames = {
 
 /** An attempt's result against the pass rule, and the instructor's own result, in words. */
 export const resultNames = { passed: "Passed", notPassed: "Not passed" } as const;
+
+/** Skill retention across recertifications: the groups of the retention page, the report and the CLI. */
+export const retentionGroupNames: Record<RetentionBin | "first_time", string> = {
+  first_time: "First course in the data",
+  "0-6": "Back within 6 months",
+  "6-12": "Back after 6–12 months",
+  "12-18": "Back after 12–18 months",
+  "18-24": "Back after 18–24 months",
+  "24+": "Back after 24 months or more",
+};
+export const retentionFigureName = "First-attempt pass rate";
+
+/** Manikin drift: a manikin's depth readings against the other manikins of its patient type in the same classes. */
+export const driftFlagNames: Record<DriftFlag, string> = {
+  check: "Check the depth sensor",
+  ok: "In line with its peers",
+  "too few classes": "Too few shared classes to judge",
+};
+export const driftOffsetName = "Depth offset against peers";
+
+/** An instructor's pass/fail against the measurement. */
+export const calibrationNames = {
+  lenient: "Measured failures passed",
+  strict: "Measured passes failed",
+  kappa: "Agreement (κ)",
+} as const;

@@ -2,10 +2,9 @@
 // months since their previous class, beside first-timers (the service a retention page will use).
 import type { Command } from "commander";
 import { z } from "zod";
-import { isQuarter } from "../../shared/period";
 import { retention } from "../../server/metrics/retention";
 import { context } from "../context";
-import { UsageError } from "../errors";
+import { checkQuarterRange } from "../quarterRange";
 
 const optionsSchema = z.object({ from: z.string(), to: z.string(), json: z.boolean().optional() });
 
@@ -18,10 +17,7 @@ export function registerRetention(program: Command) {
     .option("--json", "print JSON")
     .action((raw: unknown, command: Command) => {
       const options = optionsSchema.parse(raw);
-      for (const quarter of [options.from, options.to]) {
-        if (!isQuarter(quarter)) throw new UsageError(`"${quarter}" is not a quarter.`, "Use the form 2026-Q3.");
-      }
-      if (options.from > options.to) throw new UsageError(`--from ${options.from} comes after --to ${options.to}.`, "Give the earlier quarter first.");
+      checkQuarterRange(options.from, options.to);
       const answer = retention(context(command).db, options.from, options.to);
       if (options.json) return console.log(JSON.stringify(answer, null, 2));
       const pct = (x: number | null) => (x === null ? "–" : `${(x * 100).toFixed(1)} %`);

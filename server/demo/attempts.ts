@@ -72,6 +72,9 @@ function runClass(
   const hasAttemptData = !random.chance(scenario.classes.withoutAttemptData);
   const profiles = profilesOfCourse[plannedClass.course];
   const classSkill = plannedClass.instructor.skill + refresherSkill(plannedClass.quarter, scenario, timeline);
+  const lenient = plannedClass.instructor.code === scenario.lenientInstructor.code;
+  const drift = scenario.driftingSensor;
+  const driftFrom = timeline.shiftDate(drift.from);
 
   const learners = Array.from({ length: plannedClass.learners }, (_, index) => {
     const practised = profiles.filter((p) => p !== "child" || profiles.length === 1 || random.chance(0.5));
@@ -104,9 +107,11 @@ function runClass(
           (live ? perf.liveFeedbackBoost : 0) +
           perf.practiceBoost * round;
         const plan = planStrokes(profile, skill, live, scenario, random);
+        // a drifting sensor reads every compression deeper than the learner pressed; the learner is the same
+        if (manikin.assetId === drift.manikin && plannedClass.date >= driftFrom) plan.depthMeanMm += drift.depthMm;
         const streamSeed = random.nextUint32();
         const summary = summarizeStream(simulateStream(plan, new Random(streamSeed)), profile);
-        const judgement = judgeAttempt(summary, profile, live, scenario, random);
+        const judgement = judgeAttempt(summary, profile, live, scenario, random, lenient);
         learner.lastJudgement.set(profile, judgement.passed);
         if (!hasAttemptData) continue; // judged in the room, but the data never arrived
 

@@ -9,6 +9,7 @@ import { buildFleet } from "./fleet";
 import { attemptsCsv, classesCsv, compressionsCsv, equipmentCsv } from "./importFiles";
 import { Random } from "./random";
 import { DEMO_SCENARIO } from "./scenario";
+import { plantReturningLearners } from "./returningLearners";
 import { planClasses } from "./schedule";
 import { splitStreamAttempts } from "./streamChoice";
 import { buildTimeline } from "./timeline";
@@ -38,6 +39,7 @@ export function generateDemoNetwork(options: DemoNetworkOptions = {}): DemoNetwo
   const fleet = buildFleet(scenario, timeline, Random.forPart(seed, "fleet"));
   const planned = planClasses(scenario, timeline, fleet, Random.forPart(seed, "schedule"));
   const outcomes = runClasses(planned, scenario, timeline, Random.forPart(seed, "attempts"));
+  plantReturningLearners(outcomes, scenario, Random.forPart(seed, "returns"));
   const consumablesRandom = Random.forPart(seed, "consumables");
   const classes = outcomes.map((outcome) => ({
     ...outcome,

@@ -23,8 +23,9 @@ export function judgeAttempt(
   live: boolean,
   scenario: DemoScenario,
   random: Random,
+  lenient = false,
 ): Judgement {
-  const odds = scenario.judgement;
+  const odds = lenient ? { ...scenario.judgement, ...scenario.lenientInstructor } : scenario.judgement;
   const measured = scoreAttempt(summary, profile, DEFAULT_POLICY);
   const chanceOfPass = measured.passed
     ? odds.passWhenMeasuredPass

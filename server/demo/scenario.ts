@@ -15,6 +15,10 @@
 // - Equipment: lungs, mouthpieces and batteries replaced after classes, a yearly service per site, a few
 //   faults (two still open), one infant manikin retired and replaced, one manikin overdue for its service,
 //   and a site that cleaned too few mouthpieces until the autumn of 2025.
+// - Learners come back for recertification 6 to 30 months after their previous class; the longer the gap,
+//   the less often their first attempt passes.
+// - One adult manikin's depth sensor reads 4 mm deep from the autumn of 2025 on.
+// - One instructor passes most learners whatever the measurement says.
 import type { CourseType, UserRole } from "../../shared/domain";
 import type { PatientType } from "../../shared/scoring/policy";
 
@@ -132,6 +136,22 @@ export interface DemoScenario {
     emptyWhenLive: number;
     emptyWhenHidden: number;
   };
+  /**
+   * Learners who return for recertification. A learner of a class takes on the code of an earlier learner
+   * whose last class was `months` ago; whether they do depends on the gap and on their first attempt in the
+   * new class (the keep chances, interpolated linearly in months), so longer gaps go with more first-attempt
+   * failures — the fade the retention figures should find.
+   */
+  returns: {
+    share: number;
+    months: [number, number];
+    keepWhenPassed: [number, number];
+    keepWhenFailed: [number, number];
+  };
+  /** A manikin whose depth readings are this many mm too deep from a day on (YYYY-MM-DD, reference calendar). */
+  driftingSensor: { manikin: string; from: string; depthMm: number };
+  /** An instructor who passes most attempts whatever the measurement (chances replace `judgement`'s). */
+  lenientInstructor: { code: string; passWhenOnlyUnseenFaults: number; passWhenVisibleFaults: number };
   consumables: {
     lungChance: number;
     secondLungChance: number;
@@ -304,6 +324,12 @@ export const DEMO_SCENARIO: DemoScenario = {
     emptyWhenLive: 0.18,
     emptyWhenHidden: 0.04,
   },
+
+  returns: { share: 0.35, months: [6, 30], keepWhenPassed: [1, 0], keepWhenFailed: [0.3, 1] },
+
+  driftingSensor: { manikin: "LTQ-A03", from: "2025-10-06", depthMm: 4 },
+
+  lenientInstructor: { code: "IN11", passWhenOnlyUnseenFaults: 0.97, passWhenVisibleFaults: 0.9 },
 
   consumables: {
     lungChance: 0.25,

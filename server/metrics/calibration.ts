@@ -1,8 +1,10 @@
 // How each instructor's pass/fail compares with the measurement: their own 2×2 table, how lenient they are
 // (measured failures they passed) and how strict (measured passes they failed), and their kappa. Attempts
 // without the instructor's judgement are left out.
-import { and, eq, isNotNull, sql } from "drizzle-orm";
+import { and, between, eq, isNotNull, sql } from "drizzle-orm";
+import { kappaInterval } from "../../shared/stats/agreement";
 import { cohensKappa } from "../../shared/stats/kappa";
+import { wilsonInterval } from "../../shared/stats/wilson";
 import type { Db } from "../db/client";
 import { attempts, instructors } from "../db/schema";
 
@@ -20,9 +22,16 @@ export interface InstructorCalibration {
   kappa: number | null;
 }
 
-export function calibrationByInstructor(db: Db, quarter: string): InstructorCalibration[] {
+/** The quarter's (or, with `to`, the quarters from `quarter` to `to`) table per instructor, by code. */
+export function calibrationByInstructor(db: Db, quarter: string, to: string = quarter): InstructorCalibration[] {
+  return calibrationCells(db, quarter, to).map(({ instructorId: _id, name: _name, ...row }) => row);
+}
+
+function calibrationCells(db: Db, from: string, to: string): (InstructorCalibration & { instructorId: number; name: string })[] {
   const rows = db
     .select({
+      instructorId: instructors.id,
+      name: instructors.name,
       instructor: instructors.code,
       pp: sql<number>`sum(${attempts.instructorResult} = 'pass' AND ${attempts.passed} = 1)`,
       pf: sql<number>`sum(${attempts.instructorResult} = 'pass' AND ${attempts.passed} = 0)`,
@@ -31,11 +40,13 @@ export function calibrationByInstructor(db: Db, quarter: string): InstructorCali
     })
     .from(attempts)
     .innerJoin(instructors, eq(instructors.id, attempts.instructorId))
-    .where(and(eq(attempts.quarter, quarter), isNotNull(attempts.instructorResult)))
-    .groupBy(instructors.code)
+    .where(and(between(attempts.quarter, from, to), isNotNull(attempts.instructorResult)))
+    .groupBy(instructors.id)
     .orderBy(instructors.code)
     .all();
-  return rows.map(({ instructor, pp, pf, fp, ff }) => ({
+  return rows.map(({ instructorId, name, instructor, pp, pf, fp, ff }) => ({
+    instructorId,
+    name,
     instructor,
     judged: pp + pf + fp + ff,
     both_pass: pp,
@@ -49,4 +60,30 @@ export function calibrationByInstructor(db: Db, quarter: string): InstructorCali
       [fp, ff],
     ]).kappa,
   }));
+}
+
+export interface InstructorCalibrationDetail extends InstructorCalibration {
+  instructorId: number;
+  name: string;
+  /** Wilson 95 % intervals of the two shares; κ's large-sample 95 % interval (shared/stats/agreement.ts). */
+  lenient_ci95: [number, number] | null;
+  strict_ci95: [number, number] | null;
+  kappa_ci95: [number, number] | null;
+}
+
+/** Each instructor's table over a period of quarters, with the intervals the calibration page shows. */
+export function calibrationDetail(db: Db, from: string, to: string): InstructorCalibrationDetail[] {
+  return calibrationCells(db, from, to).map((row) => {
+    const measuredFail = row.instructor_pass_measured_fail + row.both_fail;
+    const measuredPass = row.both_pass + row.instructor_fail_measured_pass;
+    return {
+      ...row,
+      lenient_ci95: wilsonInterval(row.instructor_pass_measured_fail, measuredFail),
+      strict_ci95: wilsonInterval(row.instructor_fail_measured_pass, measuredPass),
+      kappa_ci95: kappaInterval([
+        [row.both_pass, row.instructor_pass_measured_fail],
+        [row.instructor_fail_measured_pass, row.both_fail],
+      ]),
+    };
+  });
 }

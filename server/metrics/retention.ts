@@ -2,16 +2,19 @@
 // a class dated later than an earlier class of theirs; the time since that earlier class (days ÷ 30.4375,
 // the mean month) places the return in a bin, and the outcome is whether their first attempt in the
 // returning class (by start time, ties by attempt id) passed. Learners with no earlier class in the data are
-// first-timers. The period selects the returning (or first) class by its date.
+// first-timers. The period selects the returning (or first) class by its date. By patient type, the outcome
+// is the learner's first attempt on that patient type in the class; the gap still runs from their previous
+// class of any kind, since a recertification follows the learner's last course whatever it practised.
 import { sql } from "drizzle-orm";
+import type { PatientType } from "../../shared/scoring/policy";
 import { quarterDates } from "../../shared/period";
+import { retentionBins, type RetentionBin } from "../../shared/schemas/learners";
 import { wilsonInterval } from "../../shared/stats/wilson";
 import type { Db } from "../db/client";
 import { attempts, classes } from "../db/schema";
 
 export const DAYS_PER_MONTH = 30.4375;
-export const retentionBins = ["0-6", "6-12", "12-18", "18-24", "24+"] as const;
-export type RetentionBin = (typeof retentionBins)[number];
+export { retentionBins, type RetentionBin };
 
 export interface RetentionGroup {
   /** Learner–class pairs. */
@@ -45,17 +48,23 @@ function group(learners: number, passed: number): RetentionGroup {
   return { learners, passed, rate: learners === 0 ? null : passed / learners, ci95: wilsonInterval(passed, learners) };
 }
 
-export function retention(db: Db, from: string, to: string): Retention {
+export function retention(db: Db, from: string, to: string, profile: PatientType | null = null): Retention {
   const first = quarterDates(from).first;
   const last = quarterDates(to).last;
+  const ofProfile = profile === null ? sql`1` : sql`${attempts.profile} = ${profile}`;
   const pairs = db.all<{ date: string; passed: number; previous_date: string | null }>(sql`
     WITH firsts AS (
       SELECT ${attempts.learner} AS learner, ${attempts.classId} AS class_id, ${classes.date} AS date, ${attempts.passed} AS passed,
         row_number() OVER (PARTITION BY ${attempts.learner}, ${attempts.classId} ORDER BY ${attempts.startedAt}, ${attempts.id}) AS k
       FROM ${attempts} JOIN ${classes} ON ${classes.id} = ${attempts.classId}
-    ), pairs AS (SELECT learner, class_id, date, passed FROM firsts WHERE k = 1)
+      WHERE ${ofProfile}
+    ), pairs AS (SELECT learner, class_id, date, passed FROM firsts WHERE k = 1),
+    learner_classes AS (
+      SELECT DISTINCT ${attempts.learner} AS learner, ${classes.date} AS date
+      FROM ${attempts} JOIN ${classes} ON ${classes.id} = ${attempts.classId}
+    )
     SELECT p.date, p.passed,
-      (SELECT max(q.date) FROM pairs q WHERE q.learner = p.learner AND q.date < p.date) AS previous_date
+      (SELECT max(q.date) FROM learner_classes q WHERE q.learner = p.learner AND q.date < p.date) AS previous_date
     FROM pairs p WHERE p.date BETWEEN ${first} AND ${last}`);
 
   const firstTime = { learners: 0, passed: 0 };

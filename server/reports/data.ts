@@ -19,8 +19,9 @@ import { countFigure, formatPoints, hiddenText, perHundredFigure, rateFigure } f
 import { writeNarrative } from "./narrative";
 import { passTallyByQuarter, reportNumbers, reportScope, type PassTally } from "./queries";
 import { suppressBreakdown } from "../../shared/suppression";
-import { courseTypeNames, errorLabels, feedbackNames, patientTypeNames } from "../../shared/vocabulary";
+import { courseTypeNames, errorLabels, feedbackNames, patientTypeNames, retentionGroupNames } from "../../shared/vocabulary";
 import { learnerOutcomes } from "../metrics/learnerOutcomes";
+import { retention } from "../metrics/retention";
 
 export const TREND_QUARTERS = 8;
 export const DEFAULT_NETWORK_NAME = "Quarterbeat training network";
@@ -63,6 +64,20 @@ function groupResults(
     attempts: countFigure(group.tally.attempts, min, decision.cells[i]),
     passRate: rateFigure(group.tally.passed, group.tally.attempts, min, decision.cells[i]),
   }));
+}
+
+/**
+ * Retention as a network figure. The groups together make up the period's learner–class pairs, so they are
+ * suppressed as a breakdown whose total could be known (shared/suppression.ts).
+ */
+function retentionResults(db: Db, quarters: string[], min: number): NonNullable<ReportData["retention"]> {
+  const answer = retention(db, quarters[0], quarters[quarters.length - 1]);
+  const groups = [
+    { key: "first_time", label: retentionGroupNames.first_time, tally: { attempts: answer.first_time.learners, passed: answer.first_time.passed } },
+    ...answer.returning.map((bin) => ({ key: bin.months, label: retentionGroupNames[bin.months], tally: { attempts: bin.learners, passed: bin.passed } })),
+  ];
+  const [firstTime, ...returning] = groupResults(groups, min, true).map((g) => ({ key: g.key, label: g.label, learners: g.attempts, firstAttemptPassRate: g.passRate }));
+  return { firstTime, returning };
 }
 
 export interface BuildOptions {
@@ -231,6 +246,7 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
     },
     methods: methodsText(policy, version, numbers.policyVersions),
     narrative: [],
+    retention: retentionResults(db, quarters, min),
   };
   data.narrative = writeNarrative(data);
   return data;

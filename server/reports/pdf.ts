@@ -5,7 +5,7 @@ import type { CountFigure, ReportData } from "../../shared/schemas/report";
 import { markGeometry } from "../../shared/markGeometry";
 import { drawErrorBars, drawRateBars, drawTrendChart } from "./pdfCharts";
 import { colours, FONT, registerFonts, textRuns, type Doc } from "./pdfStyle";
-import { dimensionNames, figureNames } from "../../shared/vocabulary";
+import { dimensionNames, figureNames, retentionFigureName } from "../../shared/vocabulary";
 
 export interface PdfMeta {
   version: number;
@@ -56,6 +56,7 @@ export function renderReportPdf(data: ReportData, meta: PdfMeta): Promise<Buffer
   drawPatientTypes(page, data);
   drawCourses(page, data);
   drawAgreement(page, data);
+  drawRetention(page, data);
   drawEquipment(page, data);
   drawMethods(page, data);
   drawFooters(doc, data, meta);
@@ -331,6 +332,26 @@ function drawAgreement(page: PageFlow, data: ReportData) {
         `${(a.observedAgreement * 100).toFixed(1)} %; Cohen's kappa, which discounts agreement expected by chance, is ${a.kappaText}.`
       : `Attempts with both an instructor's judgement and a measurement: ${a.pairs.text}, too few to compute agreement.`;
   page.paragraph(kappa, { size: 9, gapAfter: 14 });
+}
+
+function drawRetention(page: PageFlow, data: ReportData) {
+  if (!data.retention) return;
+  const groups = [data.retention.firstTime, ...data.retention.returning];
+  page.heading("Learners returning for recertification", 15 * (groups.length + 2) + 30);
+  page.paragraph(
+    "Learners come back under the same pseudonymous code. How often their first attempt in the new class met the pass rule, by months since their previous class, beside learners on their first course in the data. A learner back twice counts twice.",
+    { size: 9, gapAfter: 8 },
+  );
+  drawTable(
+    page,
+    [
+      { title: "Learners", width: 200 },
+      { title: "Learner–class pairs", width: 110, align: "right" },
+      { title: retentionFigureName, width: 100, align: "right" },
+      { title: "95 % interval", width: CONTENT_WIDTH - 410, align: "right" },
+    ],
+    groups.map((g) => [g.label, g.learners.text, g.firstAttemptPassRate.text, g.firstAttemptPassRate.intervalText || "–"]),
+  );
 }
 
 function drawEquipment(page: PageFlow, data: ReportData) {

@@ -74,3 +74,33 @@ export const equipmentAnswerSchema = z.object({
   attention: z.array(attentionItemSchema),
 });
 export type EquipmentAnswer = z.infer<typeof equipmentAnswerSchema>;
+
+export const driftFlags = ["check", "ok", "too few classes"] as const;
+export type DriftFlag = (typeof driftFlags)[number];
+
+/** Answer of GET /api/equipment/drift: each manikin's depth readings against its peers in the same classes. */
+export const manikinDriftSchema = z.object({
+  manikin: z.string(),
+  site: z.string().nullable(),
+  profile: z.enum(patientTypes),
+  /** Paired classes (k). */
+  classes: count,
+  /** Mean of the paired differences (mm) with its standard error and 95 % interval. */
+  offset_mm: z.number().nullable(),
+  se_mm: z.number().nullable(),
+  ci95: z.tuple([z.number(), z.number()]).nullable(),
+  flag: z.enum(driftFlags),
+  flagged_in_round: z.number().int().min(1).nullable(),
+  /** The paired differences, oldest class first; the class id only for those who see every site's classes. */
+  differences: z.array(
+    z.object({ classId: z.string().nullable(), date: z.string(), difference_mm: z.number(), attempts: count, peer_attempts: count }),
+  ),
+});
+export type ManikinDriftRow = z.infer<typeof manikinDriftSchema>;
+
+export const driftAnswerSchema = z.object({
+  period: periodSchema,
+  rule: z.object({ minClasses: count, minOffsetMm: z.number() }),
+  manikins: z.array(manikinDriftSchema),
+});
+export type DriftAnswer = z.infer<typeof driftAnswerSchema>;

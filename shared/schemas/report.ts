@@ -98,6 +98,15 @@ export interface GroupResult {
   passRate: RateFigure;
 }
 
+/** First-attempt pass rate of one group of learners: first-timers, or those back after so many months. */
+export interface RetentionGroupResult {
+  key: string;
+  label: string;
+  /** Learner–class pairs: a learner back twice counts twice. */
+  learners: CountFigure;
+  firstAttemptPassRate: RateFigure;
+}
+
 export interface ReportData {
   period: string;
   kind: "quarter" | "year";
@@ -163,6 +172,11 @@ export interface ReportData {
     suppressionNote: string;
   };
   narrative: string[];
+  /**
+   * Skill retention across recertifications in the period, network-wide, suppressed like every other cell.
+   * Absent from reports stored before the figure existed.
+   */
+  retention?: { firstTime: RetentionGroupResult; returning: RetentionGroupResult[] };
 }
 
 /** A stored report version, without its data and PDF bytes. */

@@ -10,3 +10,4 @@ export * from "./change";
 export * from "./difference";
 export * from "./agreement";
 export * from "./runChart";
+export * from "./meanInterval";

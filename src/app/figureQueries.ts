@@ -10,6 +10,7 @@ import { errorQueries } from "../features/errors/queries";
 import { importQueries } from "../features/imports/queries";
 import { insightQueries } from "../features/insight/queries";
 import { instructorQueries } from "../features/instructors/queries";
+import { learnerQueries } from "../features/learners/queries";
 import { reportQueries } from "../features/report/queries";
 import { systemQueries } from "../features/system/queries";
 
@@ -20,6 +21,7 @@ export const figureQueryFamilies: readonly QueryKey[] = [
   attemptQueries.all(),
   equipmentQueries.all(),
   reportQueries.all(),
+  learnerQueries.all(),
   importQueries.all(),
   // A class log can name an instructor the directory has not seen yet.
   instructorQueries.all(),

@@ -10,10 +10,11 @@ import { dateOnly } from "../features/attempts/labels";
 import { useCan } from "../features/auth/useCan";
 import { AttentionList } from "../features/equipment/AttentionList";
 import { ConsumablesCharts } from "../features/equipment/ConsumablesChart";
+import { DriftSection } from "../features/equipment/DriftSection";
 import { FleetTable } from "../features/equipment/FleetTable";
 import { equipmentQueries } from "../features/equipment/queries";
 import { UsageChart } from "../features/equipment/UsageChart";
-import { useInsightFilters, type InsightFilterState, type OptionalFilter } from "../features/insight/useInsightFilters";
+import { linkParams, useInsightFilters, type InsightFilterState, type OptionalFilter } from "../features/insight/useInsightFilters";
 import { rangeLabel } from "../../shared/period";
 
 // an instructor's view is their own site already: no site filter
@@ -30,8 +31,8 @@ export default function EquipmentPage() {
         title="Equipment"
         description={
           ownSite
-            ? "The manikins of your site: how much they are used, when they were last serviced, what is due, and the consumables your site used per 100 learners."
-            : "The manikin fleet: how much each manikin is used, when it was last serviced, what is due, and consumables per 100 learners at each site."
+            ? "The manikins of your site: how much they are used, when they were last serviced, what is due, the consumables your site used per 100 learners, and whether a manikin's depth readings differ from its peers'."
+            : "The manikin fleet: how much each manikin is used, when it was last serviced, what is due, consumables per 100 learners at each site, and whether a manikin's depth readings differ from its peers'."
         }
       />
       {options.isPending ? (
@@ -57,6 +58,14 @@ function Equipment({ state, ownSite }: { state: InsightFilterState | null; ownSi
         <ErrorState error={report.error} onRetry={() => report.refetch()} />
       ) : (
         <EquipmentView answer={report.data} ownSite={ownSite} />
+      )}
+      {state && (
+        <section aria-labelledby="drift-heading" className="mt-8 flex flex-col gap-3">
+          <h2 id="drift-heading" className="text-title">
+            Depth readings against peers
+          </h2>
+          <DriftSection api={state.api} attemptsHref={(assetId) => `/attempts?${linkParams(state.values, { manikin: assetId })}`} />
+        </section>
       )}
     </>
   );

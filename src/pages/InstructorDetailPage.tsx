@@ -15,6 +15,8 @@ import { formatCount, formatPercent, formatScore } from "../features/insight/for
 import { quarterLabel } from "../../shared/period";
 import { RateText } from "../features/insight/RateText";
 import { InsightFilters } from "../features/insight/InsightFilters";
+import { InstructorCalibration } from "../features/learners/CalibrationViews";
+import { learnerQueries } from "../features/learners/queries";
 import { QueryStatus } from "../features/insight/QueryStatus";
 import { insightQueries } from "../features/insight/queries";
 import type { InsightFilterState } from "../features/insight/useInsightFilters";
@@ -71,8 +73,29 @@ function InstructorBody({ id, state }: { id: string; state: InsightFilterState }
         ) : null
       }
     >
-      {(answer) => <InstructorContent answer={answer} network={network.data ?? null} />}
+      {(answer) => (
+        <>
+          <InstructorContent answer={answer} network={network.data ?? null} />
+          <CalibrationSection instructorId={answer.instructor.id} state={state} />
+        </>
+      )}
     </QueryStatus>
+  );
+}
+
+/** The instructor's judgement against the measurement; calibration is by period only, whatever the other filters. */
+function CalibrationSection({ instructorId, state }: { instructorId: number; state: InsightFilterState }) {
+  const { quarter, from, to } = state.api;
+  const query = useQuery(learnerQueries.calibration({ quarter, from, to }));
+  return (
+    <section aria-labelledby="calibration-heading" className="mt-8 flex flex-col gap-3">
+      <h2 id="calibration-heading" className="text-title">
+        Judgement against the measurement
+      </h2>
+      <QueryStatus query={query} loadingLabel="Loading calibration…" errorTitle="Calibration could not be loaded">
+        {(answer) => <InstructorCalibration answer={answer} instructorId={instructorId} />}
+      </QueryStatus>
+    </section>
   );
 }
 

@@ -41,6 +41,9 @@ const matrix: Row[] = [
   { method: "get", path: "/api/attempts/A1-2604-001", expect: network },
   { method: "get", path: "/api/attempts.csv", expect: network },
   { method: "get", path: "/api/equipment", expect: network },
+  { method: "get", path: "/api/equipment/drift", expect: network },
+  { method: "get", path: "/api/learners/retention", expect: drillDown },
+  { method: "get", path: "/api/learners/calibration", expect: network },
   { method: "get", path: "/api/settings/policy", expect: directory },
   { method: "get", path: "/api/settings/policy/versions", expect: directory },
   { method: "put", path: "/api/settings/policy", body: { policy: DEFAULT_POLICY, note: "Same as before" }, expect: coordinatorOnly },
@@ -66,6 +69,8 @@ const rowScoped: { path: string; as: "instructor" | "otherInstructor"; status: n
   { path: "/api/attempts/A1-2604-001", as: "otherInstructor", status: 404 },
   { path: "/api/insight/overview?instructor=B1", as: "instructor", status: 403 },
   { path: "/api/equipment?site=SOUTH", as: "instructor", status: 403 },
+  { path: "/api/equipment/drift?site=SOUTH", as: "instructor", status: 403 },
+  { path: "/api/learners/calibration?instructor=B1", as: "instructor", status: 403 },
 ];
 
 let t: InsightTestContext;

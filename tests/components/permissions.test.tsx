@@ -63,6 +63,8 @@ describe("the route table", () => {
     expect(rolesOf("attempts")).toEqual(["coordinator", "quality_lead", "instructor"]);
     expect(rolesOf("attempts/:id")).toEqual(["coordinator", "quality_lead", "instructor"]);
     expect(rolesOf("my-standing")).toEqual(["instructor"]);
+    expect(rolesOf("retention")).toEqual(["coordinator", "quality_lead"]);
+    expect(rolesOf("calibration")).toEqual(["coordinator", "quality_lead", "instructor"]);
     expect(rolesOf("report")).toEqual(["coordinator", "funder"]);
     expect(rolesOf("account")).toEqual([...userRoles]);
   });

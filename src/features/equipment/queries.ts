@@ -1,5 +1,5 @@
 import { keepPreviousData, queryOptions } from "@tanstack/react-query";
-import { equipmentAnswerSchema } from "../../../shared/schemas/equipment";
+import { driftAnswerSchema, equipmentAnswerSchema } from "../../../shared/schemas/equipment";
 import { getParsed } from "../../api/getParsed";
 import { withQuery } from "../../api/withQuery";
 import type { ApiFilters } from "../insight/queries";
@@ -10,6 +10,12 @@ export const equipmentQueries = {
     queryOptions({
       queryKey: [...equipmentQueries.all(), query] as const,
       queryFn: ({ signal }) => getParsed(equipmentAnswerSchema, withQuery("/api/equipment", query), signal),
+      placeholderData: keepPreviousData,
+    }),
+  drift: (query: ApiFilters) =>
+    queryOptions({
+      queryKey: [...equipmentQueries.all(), "drift", query] as const,
+      queryFn: ({ signal }) => getParsed(driftAnswerSchema, withQuery("/api/equipment/drift", query), signal),
       placeholderData: keepPreviousData,
     }),
 };

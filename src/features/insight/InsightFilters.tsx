@@ -11,13 +11,15 @@ export interface InsightFiltersProps {
   optional: readonly OptionalFilter[];
   /** Names the filter group for screen readers, e.g. "Filter the overview". */
   label: string;
+  /** Offer the ranges "last 4 quarters" and "all quarters" besides single quarters. */
+  ranges?: boolean;
   /** Drawn above the filter bar once the options are known (e.g. a heading named from them). */
   before?: (state: InsightFilterState) => ReactNode;
   children: (state: InsightFilterState) => ReactNode;
 }
 
-export function InsightFilters({ optional, label, before, children }: InsightFiltersProps) {
-  const { optionsQuery, state } = useInsightFilters(optional);
+export function InsightFilters({ optional, label, ranges = false, before, children }: InsightFiltersProps) {
+  const { optionsQuery, state } = useInsightFilters(optional, { ranges });
   if (optionsQuery.isPending) return <LoadingState label="Loading the filters…" />;
   if (optionsQuery.isError) return <ErrorState error={optionsQuery.error} title="The filters could not be loaded" onRetry={() => optionsQuery.refetch()} />;
   if (!state) {

@@ -46,4 +46,18 @@ describe("retention", () => {
     expect(answer.first_time.learners).toBe(30);
     expect(answer.returning.every((bin) => bin.learners === 0)).toBe(true);
   });
+
+  it("by patient type, judges the first attempt on that patient type and keeps the gap since any class", () => {
+    // 2026-Q3 adult: 32 pairs with 22 first attempts passed, the two returns among them (RF-A1 passed, RF-A30 failed)
+    const adult = retention(db, "2026-Q3", "2026-Q3", "adult");
+    expect(adult.first_time).toMatchObject({ learners: 30, passed: 21 });
+    expect(adult.returning.filter((bin) => bin.learners > 0).map((bin) => [bin.months, bin.learners, bin.passed])).toEqual([
+      ["0-6", 1, 0],
+      ["6-12", 1, 1],
+    ]);
+    // child: class Q3-3's 6 learners, 3 passed, nobody returning
+    const child = retention(db, "2026-Q3", "2026-Q3", "child");
+    expect(child.first_time).toMatchObject({ learners: 6, passed: 3 });
+    expect(child.returning.every((bin) => bin.learners === 0)).toBe(true);
+  });
 });

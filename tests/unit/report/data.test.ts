@@ -135,6 +135,21 @@ describe("report data for 2026-Q3", () => {
     expect(q3.methods.scoredUnderVersions).toEqual([1]);
   });
 
+  it("suppresses retention like every other breakdown: the empty bins are small, so the first-timers protect them", () => {
+    // Every attempt of the fixture has its own learner, so all 40 learner–class pairs are first courses. The
+    // bins of returns (0 each) are below 5; with the total knowable, showing 40 first-timers would give the
+    // hidden bins away, so it is hidden too (shared/suppression.ts).
+    expect(q3.retention!.firstTime.learners).toEqual({ value: null, hidden: "protects-other", text: "not shown" });
+    expect(q3.retention!.firstTime.firstAttemptPassRate.value).toBeNull();
+    expect(q3.retention!.returning.map((g) => [g.key, g.learners.hidden, g.firstAttemptPassRate.text])).toEqual([
+      ["0-6", "small", "fewer than 5"],
+      ["6-12", "small", "fewer than 5"],
+      ["12-18", "small", "fewer than 5"],
+      ["18-24", "small", "fewer than 5"],
+      ["24+", "small", "fewer than 5"],
+    ]);
+  });
+
   it("holds no instructor, learner, site or manikin identifiers", () => {
     const text = JSON.stringify(q3);
     for (const identifier of ["A1", "B1", "Instructor A1", "Northfield", "Southmoor", "NORTH", "SOUTH", "RF-M", "RF-A", "L0001", "Q3-1"]) {

@@ -48,6 +48,13 @@ describe("report PDF", () => {
     expect(text).toContain("95 % interval 49.5–77.9 %");
   });
 
+  it("prints the retention table under its own heading", () => {
+    expect(text).toContain("Learners returning for recertification");
+    // in this fixture nobody returns, so every group is hidden (tests/unit/report/data.test.ts)
+    expect(text).toMatch(/First course in the data\s+not shown\s+not shown/);
+    expect(text).toMatch(/Back after 6–12 months\s+fewer than 5\s+fewer than 5/);
+  });
+
   it("holds the period, the version, page numbers, the coordinator's note and the methods with the safety caution", () => {
     expect(text).toContain("2026-Q3");
     expect(text).toContain("Training quality, July–September 2026");

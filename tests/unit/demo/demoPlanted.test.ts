@@ -1,0 +1,65 @@
+// The demo network plants three stories for the retention, manikin and calibration figures: learners who
+// come back for recertification and pass their first attempt less often after longer gaps, one adult manikin
+// whose depth sensor reads 4 mm deep from the autumn of 2025, and one lenient instructor. The services that
+// answer the pages and the CLI must find each of them in the seeded database.
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Db } from "../../../server/db/client";
+import { DEMO_SCENARIO } from "../../../server/demo/scenario";
+import { calibrationByInstructor } from "../../../server/metrics/calibration";
+import { manikinDriftReport } from "../../../server/metrics/manikinDrift";
+import { retention } from "../../../server/metrics/retention";
+import { seedDemo } from "../../../server/seed/seedDemo";
+import { makeTestDb } from "../../helpers/testApp";
+
+let db: Db;
+beforeAll(async () => {
+  db = makeTestDb();
+  await seedDemo(db, { today: "2026-12-01" });
+}, 180_000);
+afterAll(() => db.$client.close());
+
+describe("demo story: returning learners", () => {
+  it("has returns after 6 to 24 months, with fewer first-attempt passes after longer gaps", () => {
+    const answer = retention(db, "2025-Q1", "2026-Q4");
+    const bin = (months: string) => answer.returning.find((r) => r.months === months)!;
+    expect(bin("0-6").learners).toBe(0);
+    expect(bin("6-12").learners).toBeGreaterThan(150);
+    expect(bin("12-18").learners).toBeGreaterThan(40);
+    expect(bin("6-12").rate!).toBeGreaterThan(bin("12-18").rate!);
+    expect(bin("12-18").rate!).toBeGreaterThan(bin("18-24").rate!);
+    expect(answer.first_time.learners).toBeGreaterThan(1500);
+  });
+});
+
+describe("demo story: the drifting manikin", () => {
+  it("flags only the drifting manikin in 2026, about 4 mm deep", () => {
+    const rows = manikinDriftReport(db, { from: "2026-Q1", to: "2026-Q4", siteId: null });
+    const flagged = rows.filter((r) => r.flag === "check");
+    expect(flagged.map((r) => r.manikin)).toEqual([DEMO_SCENARIO.driftingSensor.manikin]);
+    expect(flagged[0].offset_mm!).toBeGreaterThan(3);
+    expect(flagged[0].offset_mm!).toBeLessThan(5);
+    expect(flagged[0].ci95![0]).toBeGreaterThan(0);
+  });
+
+  it("shows the step in the paired differences: near 0 before the drift, about +4 mm after", () => {
+    const [row] = manikinDriftReport(db, { from: "2025-Q1", to: "2026-Q4", siteId: null }).filter((r) => r.manikin === DEMO_SCENARIO.driftingSensor.manikin);
+    const meanOf = (list: number[]) => list.reduce((s, v) => s + v, 0) / list.length;
+    const before = row.differences.filter((d) => d.date < DEMO_SCENARIO.driftingSensor.from).map((d) => d.difference_mm);
+    const after = row.differences.filter((d) => d.date >= DEMO_SCENARIO.driftingSensor.from).map((d) => d.difference_mm);
+    expect(before.length).toBeGreaterThan(5);
+    expect(Math.abs(meanOf(before))).toBeLessThan(1.5);
+    expect(meanOf(after)).toBeGreaterThan(3);
+  });
+});
+
+describe("demo story: the lenient instructor", () => {
+  it("passes far more measured failures than any other instructor, every quarter of 2026", () => {
+    for (const quarter of ["2026-Q1", "2026-Q2", "2026-Q3", "2026-Q4"]) {
+      const rows = calibrationByInstructor(db, quarter);
+      const lenient = rows.find((r) => r.instructor === DEMO_SCENARIO.lenientInstructor.code)!;
+      const others = rows.filter((r) => r.instructor !== lenient.instructor);
+      expect(lenient.lenient_share!, quarter).toBeGreaterThan(0.8);
+      for (const other of others) expect(other.lenient_share ?? 0, `${other.instructor} in ${quarter}`).toBeLessThan(lenient.lenient_share!);
+    }
+  });
+});
