@@ -1,17 +1,22 @@
 // "My standing": an instructor's own medians and pass rate beside the network's, the anonymous spread of all
 // instructors, the funnel with the instructor's own point, the error profile and the classes. Other
-// instructors appear only as anonymous points and network aggregates.
+// instructors appear only as anonymous points and network aggregates. Comparisons between instructors (the
+// funnel and the percentile ranks) are adjusted for case mix unless the viewer asks for the crude view.
 import { eq } from "drizzle-orm";
 import { standingMetricKeys, type StandingAnswer } from "../../shared/schemas/insight";
 import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
-import { classifyAgainstFunnel, percentileRank } from "../../shared/stats";
+import { feedbackModes } from "../../shared/domain";
+import type { AdjustMode } from "../../shared/filters";
+import { patientTypes } from "../../shared/scoring/policy";
+import { percentileRank } from "../../shared/stats";
 import type { Db } from "../db/client";
 import { instructors } from "../db/schema";
-import { addTally, emptyTally, medianIn, mediansBy, talliesBy, type Tally } from "../metrics/summaries";
+import { instructorFunnel, type InstructorFunnel } from "../metrics/instructorFunnel";
+import { addTally, emptyTally, medianIn, mediansBy, talliesBy, talliesByPair, type Tally } from "../metrics/summaries";
 import { forbidden } from "../errors";
 import { cached } from "./cache";
 import { filtersKey, type ResolvedFilters } from "./filters";
-import { funnelLimitCurve } from "./funnel";
+import { funnelBlock, funnelComparison } from "./funnel";
 import { classRows } from "./classes";
 import { rateOf } from "./rates";
 import { classConditions, scopeOf } from "./sql";
@@ -28,23 +33,62 @@ interface NetworkFigures {
   byInstructor: Record<MetricKey, Map<number, number>>;
   medians: Record<MetricKey, number | null>;
   errors: Record<AttemptError, number>;
+  funnel: InstructorFunnel;
+  /** Case-mix strata (patient type × feedback display) with attempts: each instructor's attempts and medians there. */
+  strata: { attempts: Map<number, number>; byInstructor: Record<MetricKey, Map<number, number>> }[];
 }
 
-function networkFigures(db: Db, network: ResolvedFilters): NetworkFigures {
-  return cached(db, `standing-network|${filtersKey(network)}`, () => {
+function networkFigures(db: Db, network: ResolvedFilters, adjust: AdjustMode): NetworkFigures {
+  return cached(db, `standing-network|${adjust}|${filtersKey(network)}`, () => {
     const scope = scopeOf(network);
     const byMetric = <T>(compute: (key: MetricKey) => T) => Object.fromEntries(standingMetricKeys.map((key) => [key, compute(key)])) as Record<MetricKey, T>;
     const tallies = talliesBy<number>(db, scope, "instructorId");
+    const strata: NetworkFigures["strata"] = [];
+    if (adjust === "case-mix") {
+      for (const feedback of network.feedback === null ? feedbackModes : [network.feedback]) {
+        const pairs = talliesByPair(db, { ...scope, feedback }, "profile", "instructorId");
+        for (const profile of network.profile === null ? patientTypes : [network.profile]) {
+          const attempts = new Map<number, number>();
+          for (const [key, tally] of pairs) {
+            const [p, instructor] = key.split("|");
+            if (p === profile) attempts.set(Number(instructor), tally.n);
+          }
+          if (attempts.size === 0) continue;
+          const stratum = { ...scope, profile, feedback };
+          strata.push({ attempts, byInstructor: byMetric((key) => mediansBy<number>(db, key, stratum, "instructorId")) });
+        }
+      }
+    }
     return {
       tallies,
       byInstructor: byMetric((key) => mediansBy<number>(db, key, scope, "instructorId")),
       medians: byMetric((key) => medianIn(db, key, scope)),
       errors: [...tallies.values()].reduce(addTally, emptyTally()).errors,
+      funnel: instructorFunnel(db, scope, adjust),
+      strata,
     };
   });
 }
 
-export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): StandingAnswer {
+/**
+ * My percentile rank within each case-mix stratum among the shown instructors with attempts there, averaged by
+ * my attempts in each stratum: an instructor who teaches only infants is ranked against infant attempts.
+ */
+function adjustedRank(strata: NetworkFigures["strata"], key: MetricKey, me: number, shownIds: ReadonlySet<number>): number | null {
+  let weight = 0;
+  let sum = 0;
+  for (const stratum of strata) {
+    const mine = stratum.byInstructor[key].get(me);
+    const n = stratum.attempts.get(me) ?? 0;
+    if (mine === undefined || n === 0) continue;
+    const others = [...stratum.byInstructor[key]].filter(([id]) => shownIds.has(id)).map(([, median]) => median);
+    sum += n * percentileRank(others, mine)!;
+    weight += n;
+  }
+  return weight === 0 ? null : sum / weight;
+}
+
+export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters, adjust: AdjustMode = "case-mix"): StandingAnswer {
   const me = viewer.ownInstructorId;
   if (me === null) throw forbidden("Your account is not linked to an instructor.");
   const self = db.select({ code: instructors.code, name: instructors.name }).from(instructors).where(eq(instructors.id, me)).get();
@@ -52,7 +96,7 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
 
   const mine = { ...filters, instructorId: me };
   const min = viewer.suppressionMinCount;
-  const { tallies, byInstructor, medians, errors: networkErrorCounts } = networkFigures(db, { ...filters, instructorId: null });
+  const { tallies, byInstructor, medians, errors: networkErrorCounts, funnel, strata } = networkFigures(db, { ...filters, instructorId: null }, adjust);
   const perInstructor = [...tallies].map(([instructorId, { n, passed }]) => ({ instructorId, n, passed }));
   const totals = perInstructor.reduce((sum, row) => ({ n: sum.n + row.n, passed: sum.passed + row.passed }), { n: 0, passed: 0 });
   const myTally = perInstructor.find((row) => row.instructorId === me) ?? { instructorId: me, n: 0, passed: 0 };
@@ -69,7 +113,8 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
       key,
       mine: mineValue,
       network: networkHidden ? null : medians[key],
-      percentileRank: mineValue === null || networkHidden ? null : percentileRank(others, mineValue),
+      percentileRank:
+        mineValue === null || networkHidden ? null : adjust === "case-mix" ? adjustedRank(strata, key, me, shownIds) : percentileRank(others, mineValue),
     };
   });
 
@@ -77,8 +122,6 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
     .map((row) => ({ medianScore: byInstructor.score.get(row.instructorId)!, passRate: row.passed / row.n, isMe: row.instructorId === me }))
     .sort((a, b) => a.medianScore - b.medianScore || a.passRate - b.passRate);
 
-  const networkRate = networkHidden || totals.n === 0 ? null : totals.passed / totals.n;
-  const nMax = Math.max(0, ...perInstructor.map((row) => row.n));
 
   const myErrors = tallies.get(me)?.errors ?? emptyTally().errors;
   const networkErrors = networkHidden ? null : networkErrorCounts;
@@ -91,13 +134,8 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
     metrics,
     spread: { minAttempts: min, points: networkHidden ? points.filter((p) => p.isMe) : points, instructorsLeftOut: perInstructor.length - shown.length },
     funnel: {
-      networkRate,
-      method: "exact",
-      curve: funnelLimitCurve(networkRate, nMax),
-      me: {
-        ...rateOf(myTally.passed, myTally.n),
-        position: networkRate === null || myTally.n === 0 ? null : classifyAgainstFunnel(myTally.passed, myTally.n, networkRate),
-      },
+      ...funnelBlock(funnel, networkHidden),
+      me: { ...rateOf(myTally.passed, myTally.n), ...funnelComparison(funnel.units.get(me), networkHidden) },
     },
     errorProfile: {
       networkSuppressed: networkHidden,

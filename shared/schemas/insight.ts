@@ -4,6 +4,7 @@
 // `suppressed: true`.
 import { z } from "zod";
 import { courseTypes, feedbackModes } from "../domain";
+import { adjustParamSchema } from "../filters";
 import { bandSchema, patientTypes } from "../scoring/policy";
 import { attemptErrorNames } from "../scoring/scoreAttempt";
 
@@ -32,7 +33,7 @@ export type Rate = z.infer<typeof rateSchema>;
 export const funnelPositions = ["inside", "above95", "below95", "above998", "below998"] as const;
 export const funnelPositionSchema = z.enum(funnelPositions);
 
-/** Funnel limits around the network rate at n attempts (Spiegelhalter 2005, exact binomial). */
+/** Funnel limits around the network rate at n attempts (normal approximation, widened by `scale`). */
 export const funnelCurvePointSchema = z.object({
   n: count,
   low95: share,
@@ -44,8 +45,30 @@ export const funnelCurvePointSchema = z.object({
 export const funnelSchema = z.object({
   /** The network pass rate the limits are drawn around (null without attempts or when hidden). */
   networkRate: share.nullable(),
-  method: z.literal("exact"),
+  /** Limits at ±1.959964 and ±3.090232 standard errors (times `scale`) around the network rate. */
+  method: z.literal("normal"),
+  /** `case-mix`: instructors placed at their adjusted rate and effective number of attempts; `none`: as measured. */
+  adjust: adjustParamSchema,
+  /** Winsorised mean squared z-score (Spiegelhalter 2005); null with fewer than two instructors or when hidden. */
+  phi: z.number().min(0).nullable(),
+  /** I·φ above the 95th percentile of χ² with I − 1 degrees of freedom: limits widened by √φ. */
+  overdispersed: z.boolean(),
+  /** What the limits were multiplied by: √φ when overdispersed, else 1. */
+  scale: z.number().min(0),
   curve: z.array(funnelCurvePointSchema),
+});
+
+/** An instructor's comparison with the network: passes expected from their case mix, and the z-score. */
+export const funnelComparisonSchema = z.object({
+  /** Σ attempts × network rate of the stratum (one stratum when not adjusted); null when hidden. */
+  expected: z.number().min(0).nullable(),
+  /** (observed − expected) / √variance; null without variation or when hidden. */
+  z: z.number().nullable(),
+  /** Network rate + (observed − expected) / attempts: where the point is drawn. */
+  adjustedRate: share.nullable(),
+  /** Attempts at which plain limits give this z: the point's position along the funnel. */
+  effectiveAttempts: z.number().min(0).nullable(),
+  position: funnelPositionSchema.nullable(),
 });
 
 export const errorNameSchema = z.enum(attemptErrorNames);
@@ -174,7 +197,10 @@ export const standingMetricSchema = z.object({
   key: z.enum(standingMetricKeys),
   mine: z.number().nullable(),
   network: z.number().nullable(),
-  /** Percentile rank (0–100) of my median among the instructors' medians. */
+  /**
+   * Percentile rank (0–100) of my median among the instructors' medians. Adjusted for case mix: ranked within
+   * each patient type × feedback display among the instructors' medians there, averaged by my attempts in each.
+   */
   percentileRank: z.number().nullable(),
 });
 
@@ -210,7 +236,7 @@ export const standingAnswerSchema = z.object({
     instructorsLeftOut: count,
   }),
   funnel: funnelSchema.extend({
-    me: rateSchema.extend({ position: funnelPositionSchema.nullable() }),
+    me: rateSchema.merge(funnelComparisonSchema),
   }),
   errorProfile: z.object({
     networkSuppressed: z.boolean(),
@@ -231,8 +257,7 @@ export const instructorRowSchema = z.object({
   attempts: count,
   passRate: rateSchema,
   medianScore: z.number().nullable(),
-  position: funnelPositionSchema.nullable(),
-});
+}).merge(funnelComparisonSchema);
 
 export const instructorsAnswerSchema = z.object({
   period: periodSchema,

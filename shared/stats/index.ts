@@ -10,3 +10,6 @@ export * from "./change";
 export * from "./difference";
 export * from "./agreement";
 export * from "./runChart";
+export * from "./caseMix";
+export * from "./chiSquared";
+export * from "./overdispersion";
