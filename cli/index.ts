@@ -10,6 +10,7 @@ import { registerStats } from "./commands/stats";
 import { registerReport } from "./commands/report";
 import { registerRetention } from "./commands/retention";
 import { registerAgreement } from "./commands/agreement";
+import { registerFunnel } from "./commands/funnel";
 import { registerRestore } from "./commands/restore";
 import { registerSystem } from "./commands/system";
 import { closeContext } from "./context";
@@ -33,6 +34,7 @@ export function buildProgram(): Command {
   registerReport(program);
   registerRetention(program);
   registerAgreement(program);
+  registerFunnel(program);
   return program;
 }
 
