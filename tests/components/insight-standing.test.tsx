@@ -4,7 +4,7 @@
 import { cleanup, configure, fireEvent, screen, within } from "@testing-library/react";
 import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
 import { optionsAnswerSchema, standingAnswerSchema, type StandingAnswer } from "../../shared/schemas/insight";
-import { funnelLimits } from "../../shared/stats";
+import { scaledFunnelLimits } from "../../shared/stats";
 import { renderApp } from "./renderApp";
 import { fakeServer, sessionFor } from "./testServer";
 
@@ -54,13 +54,17 @@ const standing: StandingAnswer = standingAnswerSchema.parse({
   },
   funnel: {
     networkRate: 0.4211,
-    method: "exact",
+    method: "normal",
+    adjust: "case-mix",
+    phi: 0.9,
+    overdispersed: false,
+    scale: 1,
     curve: [
       { n: 1, low95: 0, high95: 0.94, low998: 0, high998: 0.998 },
       { n: 40, low95: 0.275, high95: 0.575, low998: 0.2, high998: 0.65 },
       { n: 117, low95: 0.33, high95: 0.51, low998: 0.28, high998: 0.56 },
     ],
-    me: { successes: 20, n: 37, rate: 20 / 37, low: 0.3838, high: 0.6896, suppressed: false, position: "inside" },
+    me: { successes: 20, n: 37, rate: 20 / 37, low: 0.3838, high: 0.6896, suppressed: false, expected: 16.1, z: 1.32, adjustedRate: 0.5265, effectiveAttempts: 38.4, position: "inside" },
   },
   errorProfile: {
     networkSuppressed: false,
@@ -81,7 +85,7 @@ function serve(answer: StandingAnswer) {
   return fakeServer({
     "GET /api/me": sessionFor("instructor"),
     "GET /api/insight/options": { status: 200, body: options },
-    "GET /api/insight/standing?quarter=2026-Q4": { status: 200, body: answer },
+    "GET /api/insight/standing?quarter=2026-Q4&adjust=case-mix": { status: 200, body: answer },
   });
 }
 
@@ -108,14 +112,16 @@ describe("my standing", () => {
     const score = metricCard("Score");
     expect(within(score).getByText("86.3")).toBeTruthy();
     expect(score.textContent).toContain("Network: 83.3");
-    expect(score.textContent).toContain("88th percentile of 4 instructors: among the highest.");
+    expect(score.textContent).toContain("88th percentile of 4 instructors, on the same patient types and displays: among the highest.");
     const depth = metricCard("Depth");
     expect(within(depth).getByText("80.0 %")).toBeTruthy();
     expect(depth.textContent).toContain("Network: 82.0 %");
     // 80 % against 82 %: two points from the network's median reads as about the same, whatever the rank
-    expect(depth.textContent).toContain("38th percentile of 4 instructors, but within 3 points of the network's median: about the same as the network.");
+    expect(depth.textContent).toContain(
+      "38th percentile of 4 instructors, on the same patient types and displays, but within 3 points of the network's median: about the same as the network.",
+    );
     const rate = metricCard("Rate");
-    expect(rate.textContent).toContain("88th percentile of 4 instructors: among the highest.");
+    expect(rate.textContent).toContain("88th percentile of 4 instructors, on the same patient types and displays: among the highest.");
   });
 
   it("the spread's table lists every instructor's point, me as 'You' and others without names", async () => {
@@ -128,14 +134,16 @@ describe("my standing", () => {
     expect(screen.getByText(/1 instructor has fewer than 5 attempts and is left out/)).toBeTruthy();
   });
 
-  it("the funnel's table holds my attempts, my rate and the limits at my number of attempts", async () => {
+  it("the funnel's table holds my attempts, my adjusted rate and the limits at my effective number of attempts", async () => {
     serve(standing);
     renderApp("/my-standing?quarter=2026-Q4");
     await screen.findByRole("heading", { name: "Your pass rate on the network funnel" });
-    const inner = funnelLimits(0.4211, 37, { level: 0.95, method: "exact" });
-    const outer = funnelLimits(0.4211, 37, { level: 0.998, method: "exact" });
-    const range = (l: { low: number; high: number }) => `${(Math.round(l.low * 1000) / 10).toFixed(1)}–${(Math.round(l.high * 1000) / 10).toFixed(1)} %`;
-    expect(tableOf("Your pass rate on the network funnel")).toEqual([["You", "37", pct(20 / 37), range(inner), range(outer), "Expected range"]]);
+    const limits = scaledFunnelLimits(0.4211, 38.4, 1);
+    const range = (low: number, high: number) => `${(Math.round(low * 1000) / 10).toFixed(1)}–${(Math.round(high * 1000) / 10).toFixed(1)} %`;
+    expect(tableOf("Your pass rate on the network funnel")).toEqual([
+      ["You", "37", "38.4", pct(0.5265), "1.32", range(limits.low95, limits.high95), range(limits.low998, limits.high998), "Expected range"],
+    ]);
+    expect(screen.getByText(/dispersion φ = 0\.90\), so the limits are those of chance alone, not widened/)).toBeTruthy();
   });
 
   it("the error profile's table holds my share and the network's for each error", async () => {
@@ -151,7 +159,7 @@ describe("my standing", () => {
     fakeServer({
       "GET /api/me": sessionFor("instructor"),
       "GET /api/insight/options": { status: 200, body: options },
-      "GET /api/insight/standing?quarter=2026-Q4&feedback=hidden": { status: 200, body: standing },
+      "GET /api/insight/standing?quarter=2026-Q4&feedback=hidden&adjust=case-mix": { status: 200, body: standing },
     });
     renderApp("/my-standing?quarter=2026-Q4&feedback=hidden");
     const nav = await screen.findByRole("navigation", { name: "Open your attempts with an error" });

@@ -24,6 +24,8 @@ export interface ApiFilters {
   feedback?: string;
   instructor?: string;
   manikin?: string;
+  /** How instructors are compared (instructors and standing only): `case-mix` or `none`. */
+  adjust?: string;
 }
 
 export const insightQueries = {

@@ -31,14 +31,15 @@ export function ordinal(n: number): string {
 export const CLOSE_TO_NETWORK_POINTS = 3;
 
 /** Words for my standing that follow the size of my difference from the network first and my rank second. */
-export function percentileSentence(rank: number | null, instructors: number, difference: number | null): string {
+export function percentileSentence(rank: number | null, instructors: number, difference: number | null, adjusted = false): string {
   if (rank === null || instructors < 2) return "No rank: no other instructor has enough attempts to compare with.";
   const rounded = Math.round(rank);
+  const among = adjusted ? `${instructors} instructors, on the same patient types and displays` : `${instructors} instructors`;
   if (difference !== null && Math.abs(difference) < CLOSE_TO_NETWORK_POINTS) {
-    return `${ordinal(rounded)} percentile of ${instructors} instructors, but within ${CLOSE_TO_NETWORK_POINTS} points of the network's median: about the same as the network.`;
+    return `${ordinal(rounded)} percentile of ${among}, but within ${CLOSE_TO_NETWORK_POINTS} points of the network's median: about the same as the network.`;
   }
   const where = rounded >= 75 ? "among the highest" : rounded > 55 ? "above the middle" : rounded >= 45 ? "near the middle" : rounded > 25 ? "below the middle" : "among the lowest";
-  return `${ordinal(rounded)} percentile of ${instructors} instructors: ${where}.`;
+  return `${ordinal(rounded)} percentile of ${among}: ${where}.`;
 }
 
 export function StandingMetrics({ answer }: { answer: StandingAnswer }) {
@@ -68,7 +69,7 @@ export function StandingMetrics({ answer }: { answer: StandingAnswer }) {
                 </span>
               )}
             </p>
-            <p className="mt-auto pt-1 text-caption text-ink">{networkHidden ? "No rank while the network is hidden." : percentileSentence(metric.percentileRank, instructors, diff)}</p>
+            <p className="mt-auto pt-1 text-caption text-ink">{networkHidden ? "No rank while the network is hidden." : percentileSentence(metric.percentileRank, instructors, diff, answer.funnel.adjust === "case-mix")}</p>
           </li>
         );
       })}
