@@ -26,6 +26,7 @@ import { equipmentRoutes } from "./equipment/routes";
 import { insightRoutes } from "./insight/routes";
 import { projectRoot } from "./projectRoot";
 import { policyRoutes } from "./settings/policyRoutes";
+import { chartSettingsRoutes } from "./settings/chartRoutes";
 import { sessionSecret } from "./settings/store";
 import { siteRoutes } from "./sites/routes";
 import { userRoutes } from "./users/routes";
@@ -54,6 +55,7 @@ function featureRouters(db: Db, config: Config, endSessions: EndSessionsAfterPas
     insightRoutes(db),
     equipmentRoutes(db),
     policyRoutes(db),
+    chartSettingsRoutes(db),
     reportRoutes(db, mailer, logger),
     outboxRoutes(db),
     importRoutes(db, { logger }),

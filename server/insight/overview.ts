@@ -7,11 +7,13 @@
 import { sql } from "drizzle-orm";
 import { feedbackModes, type FeedbackMode } from "../../shared/domain";
 import type { OverviewAnswer } from "../../shared/schemas/insight";
+import type { chartLimitModes } from "../../shared/schemas/chartSettings";
 import { changeFrom, changeVerdict, cohensKappa, pChart, proportionDifference, runChartSignals } from "../../shared/stats";
 import type { Db } from "../db/client";
 import { classes } from "../db/schema";
 import { addTally, emptyTally, judgedOf, medianOfCounts, mergeCounts, talliesBy, talliesByPair, valueCountsBy, type Tally, type ValueCounts } from "../metrics/summaries";
 import type { ResolvedFilters } from "./filters";
+import { chartBaseline } from "./chartBaseline";
 import { learnerOutcomes } from "../metrics/learnerOutcomes";
 import { errorPareto } from "./pareto";
 import { previousPeriod, trendQuarters } from "../../shared/period";
@@ -19,7 +21,7 @@ import { rateFor, rateOf } from "./rates";
 import { classConditions, scopeOf } from "./sql";
 import { hidesGroup, withComplementaryHiding, type Viewer } from "./viewer";
 
-export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): OverviewAnswer {
+export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters, limits: (typeof chartLimitModes)[number] = "binomial"): OverviewAnswer {
   const period = filters.period;
   const before = previousPeriod(period);
   const trend = trendQuarters(period);
@@ -91,8 +93,28 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): Over
     [inPeriod.fp, inPeriod.ff],
   ]);
 
-  // hidden quarters stay out of the centre line too, so it cannot be used to work them out
-  const chart = pChart(trend.quarters.map((q, i) => (seriesHidden[i] ? { n: 0, count: 0 } : { n: byQuarter.get(q)!.n, count: byQuarter.get(q)!.passed })));
+  // the centre and limits come from the stated baseline quarters, never from the quarters being judged; a
+  // baseline quarter hidden from this viewer stays out of the centre line, so it cannot be used to work it out
+  const baseline = chartBaseline(db);
+  const baselineSamples: { n: number; count: number }[] = [];
+  let baselineOthers = 0;
+  if (baseline.from !== null && baseline.to !== null) {
+    const range = { from: baseline.from, to: baseline.to };
+    const byBaselineQuarter = talliesBy<string>(db, scopeOf(filters, range), "quarter");
+    const ownBaseline = me === null ? new Map<string, Tally>() : talliesBy<string>(db, scopeOf({ ...filters, instructorId: me }, range), "quarter");
+    for (const quarter of [...byBaselineQuarter.keys()].sort()) {
+      const tally = byBaselineQuarter.get(quarter)!;
+      const others = tally.n - (ownBaseline.get(quarter)?.n ?? 0);
+      if (hidesGroup(viewer, others)) continue;
+      baselineSamples.push({ n: tally.n, count: tally.passed });
+      baselineOthers += others;
+    }
+  }
+  const baselineHidden = hidesGroup(viewer, baselineOthers);
+  const chart = pChart(
+    trend.quarters.map((q, i) => (seriesHidden[i] ? { n: 0, count: 0 } : { n: byQuarter.get(q)!.n, count: byQuarter.get(q)!.passed })),
+    { baseline: baselineHidden ? [] : baselineSamples, laney: limits === "laney" },
+  );
   // scores per feedback display; the period's median is that of both distributions together
   const scores = hidden ? new Map<FeedbackMode, ValueCounts>() : valueCountsBy<FeedbackMode>(db, "score", scopeOf(filters), "feedback");
   const scoresOf = (mode: FeedbackMode) => scores.get(mode) ?? [];
@@ -136,6 +158,9 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters): Over
     medianScore: hidden ? null : medianOfCounts(mergeCounts(...feedbackModes.map(scoresOf))),
     series: {
       centre: chart.centre,
+      baseline: { ...baseline, attempts: baselineHidden ? null : baselineSamples.reduce((sum, sample) => sum + sample.n, 0) },
+      limits,
+      sigmaZ: chart.sigmaZ,
       runChart: runChartSignals(chart.points.flatMap((point, i) => (seriesHidden[i] || point.p === null ? [] : [point.p]))),
       points: trend.quarters.map((quarter, i) => {
         if (seriesHidden[i]) {

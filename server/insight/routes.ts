@@ -2,6 +2,7 @@
 import { Router, type Request } from "express";
 import { z } from "zod";
 import { adjustQuerySchema, attemptExportQuerySchema, attemptListQuerySchema, errorsQuerySchema, insightFiltersSchema, insightFilterShape } from "../../shared/filters";
+import { chartLimitsQuerySchema } from "../../shared/schemas/chartSettings";
 import type { Db } from "../db/client";
 import { allow, rowScope, signedInUser } from "../auth/guard";
 import { parseId, parseWith } from "../http/validate";
@@ -40,9 +41,11 @@ export function insightRoutes(db: Db): Router {
     sendCached(db, res, `options|${viewerKey(viewer)}`, () => filterOptions(db, viewer));
   });
 
+  // the p-chart's limits: plain binomial, or widened by Laney's σ_z with `limits=laney`
   router.get("/insight/overview", allow("readNetwork"), (req, res) => {
-    const { viewer, filters, key } = context(req, "overview");
-    sendCached(db, res, key, () => overview(db, viewer, filters));
+    const { limits } = parseWith(chartLimitsQuerySchema, req.query, "The filters");
+    const { viewer, filters, key } = context(req, `overview:${limits}`);
+    sendCached(db, res, key, () => overview(db, viewer, filters, limits));
   });
 
   // comparisons between instructors: adjusted for case mix unless `adjust=none` asks for the crude view

@@ -5,6 +5,7 @@
 import { z } from "zod";
 import { courseTypes, feedbackModes } from "../domain";
 import { adjustParamSchema } from "../filters";
+import { chartLimitModes } from "./chartSettings";
 import { bandSchema, patientTypes } from "../scoring/policy";
 import { attemptErrorNames } from "../scoring/scoreAttempt";
 
@@ -116,7 +117,7 @@ export const seriesPointSchema = z.object({
   rate: share.nullable(),
   low: share.nullable(),
   high: share.nullable(),
-  /** p-chart 3-sigma limits around the series centre for this quarter's number of attempts. */
+  /** p-chart 3-sigma limits around the baseline's centre for this quarter's number of attempts (× σ_z with Laney's p′). */
   lcl: share.nullable(),
   ucl: share.nullable(),
   outside: z.boolean(),
@@ -124,8 +125,13 @@ export const seriesPointSchema = z.object({
 });
 
 export const passRateSeriesSchema = z.object({
-  /** p̄ = Σpassed / Σattempts over the series (Montgomery p-chart). */
+  /** p̄ = Σpassed / Σattempts over the baseline quarters (Montgomery p-chart); null without attempts there or when hidden. */
   centre: share.nullable(),
+  /** The quarters the centre and limits come from: a coordinator's setting or the first four with attempts. */
+  baseline: z.object({ from: z.string().nullable(), to: z.string().nullable(), source: z.enum(["setting", "default"]), attempts: count.nullable() }),
+  /** `laney`: limits widened by Laney's σ_z (Laney 2002), estimated from the baseline's quarters. */
+  limits: z.enum(chartLimitModes),
+  sigmaZ: z.number().nullable(),
   points: z.array(seriesPointSchema),
   /**
    * Run-chart rules over the shown quarters' rates around their median (Anhøj & Olesen 2014): the longest

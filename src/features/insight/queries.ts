@@ -26,6 +26,8 @@ export interface ApiFilters {
   manikin?: string;
   /** How instructors are compared (instructors and standing only): `case-mix` or `none`. */
   adjust?: string;
+  /** The overview p-chart's limits: `laney` for Laney's p′ (plain binomial when absent). */
+  limits?: string;
 }
 
 export const insightQueries = {
