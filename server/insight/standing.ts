@@ -12,7 +12,8 @@ import { percentileRank } from "../../shared/stats";
 import type { Db } from "../db/client";
 import { instructors } from "../db/schema";
 import { instructorFunnel, type InstructorFunnel } from "../metrics/instructorFunnel";
-import { addTally, emptyTally, medianIn, mediansBy, talliesBy, talliesByPair, type Tally } from "../metrics/summaries";
+import { ceilingFigures, medianAtCeiling } from "../metrics/ceiling";
+import { addTally, emptyTally, medianOfCounts, talliesBy, talliesByPair, valueCounts, valueCountsBy, type Tally, type ValueCounts } from "../metrics/summaries";
 import { forbidden } from "../errors";
 import { cached } from "./cache";
 import { filtersKey, type ResolvedFilters } from "./filters";
@@ -25,17 +26,21 @@ import { errorLabels } from "../../shared/vocabulary";
 
 type MetricKey = (typeof standingMetricKeys)[number];
 
+/** Each instructor's distribution of one metric, from which medians and ceiling figures are read. */
+type Distributions = Map<number, ValueCounts>;
+
 /** The figures every instructor's standing shares for the same filters: computed once per database state. */
 interface NetworkFigures {
   /** Attempts, passes and errors per instructor. */
   tallies: Map<number, Tally>;
-  /** Per metric: each instructor's median. */
-  byInstructor: Record<MetricKey, Map<number, number>>;
-  medians: Record<MetricKey, number | null>;
+  /** Per metric: each instructor's distribution. */
+  byInstructor: Record<MetricKey, Distributions>;
+  /** Per metric: the network's distribution. */
+  network: Record<MetricKey, ValueCounts>;
   errors: Record<AttemptError, number>;
   funnel: InstructorFunnel;
-  /** Case-mix strata (patient type × feedback display) with attempts: each instructor's attempts and medians there. */
-  strata: { attempts: Map<number, number>; byInstructor: Record<MetricKey, Map<number, number>> }[];
+  /** Case-mix strata (patient type × feedback display) with attempts: each instructor's attempts and distributions there. */
+  strata: { attempts: Map<number, number>; byInstructor: Record<MetricKey, Distributions> }[];
 }
 
 function networkFigures(db: Db, network: ResolvedFilters, adjust: AdjustMode): NetworkFigures {
@@ -55,14 +60,14 @@ function networkFigures(db: Db, network: ResolvedFilters, adjust: AdjustMode): N
           }
           if (attempts.size === 0) continue;
           const stratum = { ...scope, profile, feedback };
-          strata.push({ attempts, byInstructor: byMetric((key) => mediansBy<number>(db, key, stratum, "instructorId")) });
+          strata.push({ attempts, byInstructor: byMetric((key) => valueCountsBy<number>(db, key, stratum, "instructorId")) });
         }
       }
     }
     return {
       tallies,
-      byInstructor: byMetric((key) => mediansBy<number>(db, key, scope, "instructorId")),
-      medians: byMetric((key) => medianIn(db, key, scope)),
+      byInstructor: byMetric((key) => valueCountsBy<number>(db, key, scope, "instructorId")),
+      network: byMetric((key) => valueCounts(db, key, scope)),
       errors: [...tallies.values()].reduce(addTally, emptyTally()).errors,
       funnel: instructorFunnel(db, scope, adjust),
       strata,
@@ -71,18 +76,37 @@ function networkFigures(db: Db, network: ResolvedFilters, adjust: AdjustMode): N
 }
 
 /**
+ * What instructors are ranked by: the median, or where the network's median sits at 100 % the share of
+ * attempts at 100 % (ranks on tied medians would mean nothing).
+ */
+type RankedFigure = (counts: ValueCounts) => number | null;
+const byMedian: RankedFigure = medianOfCounts;
+const byShareAtCeiling: RankedFigure = (counts) => ceilingFigures(counts).shareAtCeiling;
+
+/** My percentile rank among the shown instructors' figures (each instructor's distribution read by `figure`). */
+function rankAmong(distributions: Distributions, figure: RankedFigure, me: number, shownIds: ReadonlySet<number>): number | null {
+  const mine = distributions.get(me);
+  const myValue = mine ? figure(mine) : null;
+  if (myValue === null) return null;
+  const others = [...distributions].filter(([id]) => shownIds.has(id)).flatMap(([, counts]) => {
+    const value = figure(counts);
+    return value === null ? [] : [value];
+  });
+  return percentileRank(others, myValue);
+}
+
+/**
  * My percentile rank within each case-mix stratum among the shown instructors with attempts there, averaged by
  * my attempts in each stratum: an instructor who teaches only infants is ranked against infant attempts.
  */
-function adjustedRank(strata: NetworkFigures["strata"], key: MetricKey, me: number, shownIds: ReadonlySet<number>): number | null {
+function adjustedRank(strata: NetworkFigures["strata"], key: MetricKey, figure: RankedFigure, me: number, shownIds: ReadonlySet<number>): number | null {
   let weight = 0;
   let sum = 0;
   for (const stratum of strata) {
-    const mine = stratum.byInstructor[key].get(me);
     const n = stratum.attempts.get(me) ?? 0;
-    if (mine === undefined || n === 0) continue;
-    const others = [...stratum.byInstructor[key]].filter(([id]) => shownIds.has(id)).map(([, median]) => median);
-    sum += n * percentileRank(others, mine)!;
+    const rank = n === 0 ? null : rankAmong(stratum.byInstructor[key], figure, me, shownIds);
+    if (rank === null) continue;
+    sum += n * rank;
     weight += n;
   }
   return weight === 0 ? null : sum / weight;
@@ -96,7 +120,7 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters, adjus
 
   const mine = { ...filters, instructorId: me };
   const min = viewer.suppressionMinCount;
-  const { tallies, byInstructor, medians, errors: networkErrorCounts, funnel, strata } = networkFigures(db, { ...filters, instructorId: null }, adjust);
+  const { tallies, byInstructor, network, errors: networkErrorCounts, funnel, strata } = networkFigures(db, { ...filters, instructorId: null }, adjust);
   const perInstructor = [...tallies].map(([instructorId, { n, passed }]) => ({ instructorId, n, passed }));
   const totals = perInstructor.reduce((sum, row) => ({ n: sum.n + row.n, passed: sum.passed + row.passed }), { n: 0, passed: 0 });
   const myTally = perInstructor.find((row) => row.instructorId === me) ?? { instructorId: me, n: 0, passed: 0 };
@@ -107,19 +131,25 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters, adjus
   const shownIds = new Set(shown.map((row) => row.instructorId));
 
   const metrics = standingMetricKeys.map((key) => {
-    const mineValue = byInstructor[key].get(me) ?? null;
-    const others = [...byInstructor[key]].filter(([id]) => shownIds.has(id)).map(([, median]) => median);
+    const myCounts = byInstructor[key].get(me) ?? [];
+    // where the network's median sits at 100 % the median says nothing: show and rank the share at 100 % instead
+    const atCeiling = medianAtCeiling(network[key]);
+    const figure = atCeiling ? byShareAtCeiling : byMedian;
     return {
       key,
-      mine: mineValue,
-      network: networkHidden ? null : medians[key],
-      percentileRank:
-        mineValue === null || networkHidden ? null : adjust === "case-mix" ? adjustedRank(strata, key, me, shownIds) : percentileRank(others, mineValue),
+      mine: medianOfCounts(myCounts),
+      network: networkHidden ? null : medianOfCounts(network[key]),
+      percentileRank: networkHidden
+        ? null
+        : adjust === "case-mix"
+          ? adjustedRank(strata, key, figure, me, shownIds)
+          : rankAmong(byInstructor[key], figure, me, shownIds),
+      ceiling: atCeiling ? { mine: ceilingFigures(myCounts), network: networkHidden ? null : ceilingFigures(network[key]) } : null,
     };
   });
 
   const points = shown
-    .map((row) => ({ medianScore: byInstructor.score.get(row.instructorId)!, passRate: row.passed / row.n, isMe: row.instructorId === me }))
+    .map((row) => ({ medianScore: medianOfCounts(byInstructor.score.get(row.instructorId)!)!, passRate: row.passed / row.n, isMe: row.instructorId === me }))
     .sort((a, b) => a.medianScore - b.medianScore || a.passRate - b.passRate);
 
 

@@ -206,8 +206,19 @@ export const standingMetricSchema = z.object({
   /**
    * Percentile rank (0–100) of my median among the instructors' medians. Adjusted for case mix: ranked within
    * each patient type × feedback display among the instructors' medians there, averaged by my attempts in each.
+   * Where the network's median is 100 %, ranked by the share of attempts at 100 % instead (see `ceiling`).
    */
   percentileRank: z.number().nullable(),
+  /**
+   * Set where the network's median sits at 100 % (a ceiling: most attempts are there): the share of attempts at
+   * 100 % and the 10th percentile, mine and the network's (null when hidden), to show instead of the medians.
+   */
+  ceiling: z
+    .object({
+      mine: z.object({ shareAtCeiling: share.nullable(), p10: z.number().nullable() }),
+      network: z.object({ shareAtCeiling: share.nullable(), p10: z.number().nullable() }).nullable(),
+    })
+    .nullable(),
 });
 
 export const spreadPointSchema = z.object({

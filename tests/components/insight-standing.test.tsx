@@ -36,11 +36,17 @@ const standing: StandingAnswer = standingAnswerSchema.parse({
   suppressionMinCount: 5,
   attempts: 37,
   metrics: [
-    { key: "score", mine: 86.3333, network: 83.3333, percentileRank: 87.5 },
-    { key: "depth_ok_pct", mine: 80, network: 82, percentileRank: 37.5 },
-    { key: "rate_ok_pct", mine: 91, network: 85.2814, percentileRank: 87.5 },
-    { key: "recoil_ok_pct", mine: 100, network: 100, percentileRank: 62.5 },
-    { key: "hands_on_pct", mine: 100, network: 100, percentileRank: 54.1667 },
+    { key: "score", mine: 86.3333, network: 83.3333, percentileRank: 87.5, ceiling: null },
+    { key: "depth_ok_pct", mine: 80, network: 82, percentileRank: 37.5, ceiling: null },
+    { key: "rate_ok_pct", mine: 91, network: 85.2814, percentileRank: 87.5, ceiling: null },
+    {
+      key: "recoil_ok_pct", mine: 100, network: 100, percentileRank: 62.5,
+      ceiling: { mine: { shareAtCeiling: 0.7297, p10: 88 }, network: { shareAtCeiling: 0.6812, p10: 84.5 } },
+    },
+    {
+      key: "hands_on_pct", mine: 100, network: 100, percentileRank: 54.1667,
+      ceiling: { mine: { shareAtCeiling: 0.6486, p10: 90 }, network: { shareAtCeiling: 0.6705, p10: 91 } },
+    },
   ],
   spread: {
     minAttempts: 5,
@@ -122,6 +128,14 @@ describe("my standing", () => {
     );
     const rate = metricCard("Rate");
     expect(rate.textContent).toContain("88th percentile of 4 instructors, on the same patient types and displays: among the highest.");
+    // recoil sits at 100 % for most attempts: the share at 100 % and the 10th percentile replace the medians
+    const recoil = metricCard("Release (recoil)");
+    expect(within(recoil).getByText("73.0 %")).toBeTruthy();
+    expect(recoil.textContent).toContain("of your attempts at 100 %");
+    expect(recoil.textContent).toContain("Network: 68.1 %");
+    expect(recoil.textContent).toContain("Weakest tenth below: you 88.0 %, network 84.5 %");
+    expect(recoil.textContent).toContain("(ranked by the share at 100 %)");
+    expect(recoil.textContent).not.toContain("Network: 100");
   });
 
   it("the spread's table lists every instructor's point, me as 'You' and others without names", async () => {
@@ -189,7 +203,7 @@ describe("my standing", () => {
     const hidden: StandingAnswer = {
       ...standing,
       suppressionMinCount: 8,
-      metrics: standing.metrics.map((m) => ({ ...m, network: null, percentileRank: null })),
+      metrics: standing.metrics.map((m) => ({ ...m, network: null, percentileRank: null, ceiling: m.ceiling && { ...m.ceiling, network: null } })),
       spread: { ...standing.spread, points: standing.spread.points.filter((p) => p.isMe) },
       funnel: { ...standing.funnel, networkRate: null, curve: [], me: { ...standing.funnel.me, position: null } },
       errorProfile: { networkSuppressed: true, rows: standing.errorProfile.rows.map((r) => ({ ...r, network: null })) },
@@ -199,7 +213,8 @@ describe("my standing", () => {
     await screen.findByRole("heading", { name: "IN03 · Ilse Pendrake, 2026 Q4" });
     for (const label of ["Score", "Depth", "Rate", "Release (recoil)", "Hands-on time"]) {
       const card = metricCard(label);
-      expect(within(card).getByText("fewer than 8 attempts")).toBeTruthy();
+      // the ceiling cards name it twice: for the share at 100 % and for the 10th percentile
+      expect(within(card).getAllByText("fewer than 8 attempts").length).toBeGreaterThan(0);
       expect(card.textContent).not.toMatch(/Network: 0/);
     }
     expect(screen.getByText(/The network's figures are hidden for these filters/)).toBeTruthy();

@@ -42,6 +42,27 @@ export function percentileSentence(rank: number | null, instructors: number, dif
   return `${ordinal(rounded)} percentile of ${among}: ${where}.`;
 }
 
+/** Where most attempts reach 100 %: the share at 100 % and the 10th percentile say more than a median of 100. */
+function CeilingFigures({ metric, answer }: { metric: Metric; answer: StandingAnswer }) {
+  const ceiling = metric.ceiling!;
+  const hidden = <Suppressed minCount={answer.suppressionMinCount} />;
+  return (
+    <>
+      <p className="mt-1 flex items-baseline gap-2">
+        <span className="text-headline tabular-nums">{formatPct(ceiling.mine.shareAtCeiling === null ? null : ceiling.mine.shareAtCeiling * 100)}</span>
+        <span className="text-small text-muted">of your attempts at 100 %</span>
+      </p>
+      <p className="text-small tabular-nums">
+        Network: {ceiling.network === null ? hidden : <strong>{formatPct(ceiling.network.shareAtCeiling === null ? null : ceiling.network.shareAtCeiling * 100)}</strong>}
+      </p>
+      <p className="text-small tabular-nums">
+        Weakest tenth below: you {formatPct(ceiling.mine.p10)}, network {ceiling.network === null ? hidden : formatPct(ceiling.network.p10)}
+      </p>
+      <p className="text-caption text-muted">Most attempts reach 100 % here, so the median (100 %) would tell instructors apart by nothing.</p>
+    </>
+  );
+}
+
 export function StandingMetrics({ answer }: { answer: StandingAnswer }) {
   const instructors = answer.spread.points.length;
   const networkHidden = answer.errorProfile.networkSuppressed;
@@ -55,6 +76,10 @@ export function StandingMetrics({ answer }: { answer: StandingAnswer }) {
           <li key={metric.key} className="flex flex-col gap-1 rounded-card border border-line bg-surface p-4 shadow-card">
             <h3 className="text-small font-semibold text-muted">{words.label}</h3>
             <p className="text-caption text-muted">{words.hint}</p>
+            {metric.ceiling ? (
+              <CeilingFigures metric={metric} answer={answer} />
+            ) : (
+              <>
             <p className="mt-1 flex items-baseline gap-2">
               <span className="text-headline tabular-nums">{formatMetric(metric.key, mine)}</span>
               <span className="text-small text-muted">you</span>
@@ -69,7 +94,14 @@ export function StandingMetrics({ answer }: { answer: StandingAnswer }) {
                 </span>
               )}
             </p>
-            <p className="mt-auto pt-1 text-caption text-ink">{networkHidden ? "No rank while the network is hidden." : percentileSentence(metric.percentileRank, instructors, diff, answer.funnel.adjust === "case-mix")}</p>
+              </>
+            )}
+            <p className="mt-auto pt-1 text-caption text-ink">
+              {networkHidden
+                ? "No rank while the network is hidden."
+                : percentileSentence(metric.percentileRank, instructors, metric.ceiling ? null : diff, answer.funnel.adjust === "case-mix")}
+              {metric.ceiling && !networkHidden && metric.percentileRank !== null ? " (ranked by the share at 100 %)" : ""}
+            </p>
           </li>
         );
       })}
