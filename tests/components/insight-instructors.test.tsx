@@ -189,7 +189,7 @@ describe("one instructor", () => {
     learnerOutcomes: { measured: 600, firstAttempt: rate(240, 600), everPassed: rate(250, 600) },
     recordedCompletion: rate(158, 262),
     agreement: { pairs: 0, table: [[0, 0], [0, 0]], observed: null, expected: null, kappa: null, suppressed: false },
-    medianScore: 83, series: { centre: 0.3, runChart: null, points: [point("2026-Q2", 325, 859), point("2026-Q3", 326, 855), point("2026-Q4", 259, 615)] },
+    medianScore: 83, series: { centre: 0.3, baseline: { from: "2025-Q4", to: "2026-Q3", source: "default", attempts: 3200 }, limits: "binomial", sigmaZ: null, runChart: null, points: [point("2026-Q2", 325, 859), point("2026-Q3", 326, 855), point("2026-Q4", 259, 615)] },
     errors: { attempts: 615, rows: [], suppressed: false }, feedback: [],
   });
 
@@ -199,9 +199,13 @@ describe("one instructor", () => {
       "GET /api/insight/options": { status: 200, body: options },
       "GET /api/insight/instructors/6?quarter=2026-Q4": { status: 200, body: detail },
       "GET /api/insight/overview?quarter=2026-Q4": { status: 200, body: network },
+      "GET /api/insight/instructors?quarter=2026-Q4&adjust=case-mix": { status: 200, body: instructors },
     });
     renderApp("/instructors/6?quarter=2026-Q4");
     expect(await screen.findByRole("heading", { name: "IN06 · Desmond Quarrie", level: 1 })).toBeTruthy();
+    // the funnel position is the instructors page's, with the comparison it was made by
+    expect(await screen.findByText("(network 42.0 %; adjusted for case mix).")).toBeTruthy();
+    expect(screen.getByText("Well below the network (outside 99.8 % limit)")).toBeTruthy();
     await screen.findByRole("heading", { name: "Pass rate by quarter" });
     const rows = tableOf("Pass rate by quarter");
     expect(rows).toEqual([
