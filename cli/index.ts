@@ -10,6 +10,7 @@ import { registerStats } from "./commands/stats";
 import { registerReport } from "./commands/report";
 import { registerRetention } from "./commands/retention";
 import { registerAgreement } from "./commands/agreement";
+import { registerFunnel } from "./commands/funnel";
 import { registerManikins } from "./commands/manikins";
 import { registerRestore } from "./commands/restore";
 import { registerSystem } from "./commands/system";
@@ -37,6 +38,7 @@ export function buildProgram(): Command {
   registerRetention(program);
   registerAgreement(program);
   registerManikins(program);
+  registerFunnel(program);
   return program;
 }
 

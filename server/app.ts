@@ -27,6 +27,7 @@ import { insightRoutes } from "./insight/routes";
 import { learnerRoutes } from "./learners/routes";
 import { projectRoot } from "./projectRoot";
 import { policyRoutes } from "./settings/policyRoutes";
+import { chartSettingsRoutes } from "./settings/chartRoutes";
 import { sessionSecret } from "./settings/store";
 import { siteRoutes } from "./sites/routes";
 import { userRoutes } from "./users/routes";
@@ -56,6 +57,7 @@ function featureRouters(db: Db, config: Config, endSessions: EndSessionsAfterPas
     equipmentRoutes(db),
     learnerRoutes(db),
     policyRoutes(db),
+    chartSettingsRoutes(db),
     reportRoutes(db, mailer, logger),
     outboxRoutes(db),
     importRoutes(db, { logger }),

@@ -42,6 +42,16 @@ function checkPeriod(value: FilterFields, ctx: z.RefinementCtx) {
 }
 
 export const insightFiltersSchema = z.object(insightFilterShape).superRefine(checkPeriod);
+
+/**
+ * How instructors are compared: `none` against the network rate as it is (crude), `case-mix` against the
+ * rate expected from their own mix of patient types and feedback displays (indirect standardisation).
+ * Comparisons between instructors default to `case-mix`.
+ */
+export const adjustModes = ["case-mix", "none"] as const;
+export type AdjustMode = (typeof adjustModes)[number];
+export const adjustParamSchema = z.enum(adjustModes, { error: `Use one of ${adjustModes.join(", ")}` });
+export const adjustQuerySchema = z.object({ adjust: adjustParamSchema.default("case-mix") });
 export type InsightFilters = z.infer<typeof insightFiltersSchema>;
 
 /** Filters plus extra query fields of one route, with the same period rules. */

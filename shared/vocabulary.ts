@@ -22,6 +22,12 @@ export const patientTypeNames: Record<PatientType, string> = { infant: "Infant",
 export const courseTypeNames: Record<CourseType, string> = { ...patientTypeNames, "all-ages": "All ages" };
 
 /** Whether the learner saw depth and rate while compressing. */
+/** The two ways instructors are compared (shared/filters.ts `adjustModes`). */
+export const adjustNames = {
+  "case-mix": "Adjusted for case mix",
+  none: "Not adjusted (crude)",
+} as const;
+
 export const feedbackNames: Record<FeedbackMode, string> = { live: "Live display", hidden: "Hidden display" };
 
 /** Each error an attempt can fail on: a short name (axes, badges, filters) and what it means (tables, text). */

@@ -38,6 +38,9 @@ export function registerStats(program: Command) {
       console.log(
         `  medians: score ${num(s.median.score)} · depth ok ${num(s.median.depth_ok_pct)} % · rate ok ${num(s.median.rate_ok_pct)} % · recoil ok ${num(s.median.recoil_ok_pct)} % · hands-on ${num(s.median.hands_on_pct)} %`,
       );
+      for (const [column, figures] of Object.entries(s.at_ceiling)) {
+        console.log(`  ${column.replace(/_/g, " ")}: median at 100 %, so: ${pct(figures.share_at_100)} of attempts at 100 %, 10th percentile ${num(figures.p10)} %`);
+      }
       console.log(`  errors: ${attemptErrorNames.map((name) => `${errorShortNames[name].toLowerCase()} ${s.errors[name]}`).join(" · ")}`);
       console.log(
         `  ${feedbackNames.live.toLowerCase()}: ${s.by_feedback.live.attempts} attempts, pass rate ${pct(s.by_feedback.live.pass_rate)} · ${feedbackNames.hidden.toLowerCase()}: ${s.by_feedback.hidden.attempts} attempts, pass rate ${pct(s.by_feedback.hidden.pass_rate)}`,

@@ -1,15 +1,16 @@
 // Drill-down on instructors: one row per instructor with pass rate, median score and funnel position against
-// the network rate; and one instructor's quarterly trend with their classes.
+// the network (adjusted for case mix unless asked otherwise); and one instructor's quarterly trend with their classes.
 import { eq, sql } from "drizzle-orm";
 import type { InstructorDetailAnswer, InstructorsAnswer } from "../../shared/schemas/insight";
-import { classifyAgainstFunnel } from "../../shared/stats";
+import type { AdjustMode } from "../../shared/filters";
 import type { Db } from "../db/client";
 import { classes, instructors, sites } from "../db/schema";
+import { instructorFunnel } from "../metrics/instructorFunnel";
 import { mediansBy, talliesBy } from "../metrics/summaries";
 import { notFound } from "../errors";
 import { classRows } from "./classes";
 import type { ResolvedFilters } from "./filters";
-import { funnelLimitCurve } from "./funnel";
+import { funnelBlock, funnelComparison } from "./funnel";
 import { trendQuarters } from "../../shared/period";
 import { rateOf } from "./rates";
 import { classConditions, scopeOf } from "./sql";
@@ -30,7 +31,7 @@ function instructorDirectory(db: Db, id?: number) {
   );
 }
 
-export function instructorTable(db: Db, filters: ResolvedFilters): InstructorsAnswer {
+export function instructorTable(db: Db, filters: ResolvedFilters, adjust: AdjustMode = "case-mix"): InstructorsAnswer {
   const scope = scopeOf(filters);
   const tallies = talliesBy<number>(db, scope, "instructorId");
   const medians = mediansBy<number>(db, "score", scope, "instructorId");
@@ -46,24 +47,11 @@ export function instructorTable(db: Db, filters: ResolvedFilters): InstructorsAn
       .map((row) => [row.instructorId, row.n]),
   );
   const directory = instructorDirectory(db);
-  let total = 0;
-  let passed = 0;
-  for (const summary of summaries.values()) {
-    total += summary.n;
-    passed += summary.passed;
-  }
-  const networkRate = total === 0 ? null : passed / total;
-  // many instructors share a size and a pass count; classify each pair once
-  const positions = new Map<string, ReturnType<typeof classifyAgainstFunnel>>();
-  const positionOf = (successes: number, n: number) => {
-    const key = `${successes}/${n}`;
-    if (!positions.has(key)) positions.set(key, networkRate === null ? null : classifyAgainstFunnel(successes, n, networkRate));
-    return positions.get(key)!;
-  };
+  const funnel = instructorFunnel(db, scope, adjust);
 
   return {
     period: filters.period,
-    funnel: { networkRate, method: "exact", curve: funnelLimitCurve(networkRate, Math.max(0, ...[...summaries.values()].map((s) => s.n))) },
+    funnel: funnelBlock(funnel),
     instructors: [...summaries]
       .map(([id, summary]) => {
         const person = directory.get(id);
@@ -76,7 +64,7 @@ export function instructorTable(db: Db, filters: ResolvedFilters): InstructorsAn
           attempts: summary.n,
           passRate: rateOf(summary.passed, summary.n),
           medianScore: summary.median,
-          position: positionOf(summary.passed, summary.n),
+          ...funnelComparison(funnel.units.get(id)),
         };
       })
       .sort((a, b) => (a.code < b.code ? -1 : a.code > b.code ? 1 : 0)),

@@ -1,7 +1,8 @@
 // Network-insight routes: parse the filters, apply the viewer's scope, answer from the per-state cache.
 import { Router, type Request } from "express";
 import { z } from "zod";
-import { attemptExportQuerySchema, attemptListQuerySchema, errorsQuerySchema, insightFiltersSchema, insightFilterShape } from "../../shared/filters";
+import { adjustQuerySchema, attemptExportQuerySchema, attemptListQuerySchema, errorsQuerySchema, insightFiltersSchema, insightFilterShape } from "../../shared/filters";
+import { chartLimitsQuerySchema } from "../../shared/schemas/chartSettings";
 import type { Db } from "../db/client";
 import { allow, rowScope, signedInUser } from "../auth/guard";
 import { parseId, parseWith } from "../http/validate";
@@ -40,19 +41,24 @@ export function insightRoutes(db: Db): Router {
     sendCached(db, res, `options|${viewerKey(viewer)}`, () => filterOptions(db, viewer));
   });
 
+  // the p-chart's limits: plain binomial, or widened by Laney's σ_z with `limits=laney`
   router.get("/insight/overview", allow("readNetwork"), (req, res) => {
-    const { viewer, filters, key } = context(req, "overview");
-    sendCached(db, res, key, () => overview(db, viewer, filters));
+    const { limits } = parseWith(chartLimitsQuerySchema, req.query, "The filters");
+    const { viewer, filters, key } = context(req, `overview:${limits}`);
+    sendCached(db, res, key, () => overview(db, viewer, filters, limits));
   });
 
+  // comparisons between instructors: adjusted for case mix unless `adjust=none` asks for the crude view
   router.get("/insight/standing", allow("readOwnStanding"), (req, res) => {
-    const { viewer, filters, key } = context(req, "standing");
-    sendCached(db, res, key, () => standing(db, viewer, filters));
+    const { adjust } = parseWith(adjustQuerySchema, req.query, "The filters");
+    const { viewer, filters, key } = context(req, `standing:${adjust}`);
+    sendCached(db, res, key, () => standing(db, viewer, filters, adjust));
   });
 
   router.get("/insight/instructors", allow("drillDown"), (req, res) => {
-    const { filters, key } = context(req, "instructors");
-    sendCached(db, res, key, () => instructorTable(db, filters));
+    const { adjust } = parseWith(adjustQuerySchema, req.query, "The filters");
+    const { filters, key } = context(req, `instructors:${adjust}`);
+    sendCached(db, res, key, () => instructorTable(db, filters, adjust));
   });
 
   router.get("/insight/instructors/:id", allow("drillDown"), (req, res) => {

@@ -3,18 +3,24 @@
 // instructors appear only as anonymous points and network aggregates, and only as far as the released grid
 // allows (./release): the network figures when it shows the scope, each other instructor as a point when
 // they hold at least the smallest group's attempts, and the points of others only when there are at least
-// as many of them as a group needs instructors.
+// as many of them as a group needs instructors. Comparisons between instructors (the funnel and the
+// percentile ranks) are adjusted for case mix unless the viewer asks for the crude view.
 import { eq } from "drizzle-orm";
 import { standingMetricKeys, type StandingAnswer } from "../../shared/schemas/insight";
 import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
-import { classifyAgainstFunnel, percentileRank } from "../../shared/stats";
+import { feedbackModes } from "../../shared/domain";
+import type { AdjustMode } from "../../shared/filters";
+import { patientTypes } from "../../shared/scoring/policy";
+import { percentileRank } from "../../shared/stats";
 import type { Db } from "../db/client";
 import { instructors } from "../db/schema";
-import { addTally, emptyTally, medianIn, mediansBy, talliesBy, type Tally } from "../metrics/summaries";
+import { instructorFunnel, type InstructorFunnel } from "../metrics/instructorFunnel";
+import { ceilingFigures, medianAtCeiling } from "../metrics/ceiling";
+import { addTally, emptyTally, medianOfCounts, talliesBy, talliesByPair, valueCounts, valueCountsBy, type Tally, type ValueCounts } from "../metrics/summaries";
 import { forbidden } from "../errors";
 import { cached } from "./cache";
 import { filtersKey, type ResolvedFilters } from "./filters";
-import { funnelLimitCurve } from "./funnel";
+import { funnelBlock, funnelComparison } from "./funnel";
 import { classRows } from "./classes";
 import { rateOf } from "./rates";
 import { classConditions, scopeOf } from "./sql";
@@ -24,31 +30,93 @@ import { errorLabels } from "../../shared/vocabulary";
 
 type MetricKey = (typeof standingMetricKeys)[number];
 
+/** Each instructor's distribution of one metric, from which medians and ceiling figures are read. */
+type Distributions = Map<number, ValueCounts>;
+
 /** The figures every instructor's standing shares for the same filters: computed once per database state. */
 interface NetworkFigures {
   /** Attempts, passes and errors per instructor. */
   tallies: Map<number, Tally>;
-  /** Per metric: each instructor's median. */
-  byInstructor: Record<MetricKey, Map<number, number>>;
-  medians: Record<MetricKey, number | null>;
+  /** Per metric: each instructor's distribution. */
+  byInstructor: Record<MetricKey, Distributions>;
+  /** Per metric: the network's distribution. */
+  network: Record<MetricKey, ValueCounts>;
   errors: Record<AttemptError, number>;
+  funnel: InstructorFunnel;
+  /** Case-mix strata (patient type × feedback display) with attempts: each instructor's attempts and distributions there. */
+  strata: { attempts: Map<number, number>; byInstructor: Record<MetricKey, Distributions> }[];
 }
 
-function networkFigures(db: Db, network: ResolvedFilters): NetworkFigures {
-  return cached(db, `standing-network|${filtersKey(network)}`, () => {
+function networkFigures(db: Db, network: ResolvedFilters, adjust: AdjustMode): NetworkFigures {
+  return cached(db, `standing-network|${adjust}|${filtersKey(network)}`, () => {
     const scope = scopeOf(network);
     const byMetric = <T>(compute: (key: MetricKey) => T) => Object.fromEntries(standingMetricKeys.map((key) => [key, compute(key)])) as Record<MetricKey, T>;
     const tallies = talliesBy<number>(db, scope, "instructorId");
+    const strata: NetworkFigures["strata"] = [];
+    if (adjust === "case-mix") {
+      for (const feedback of network.feedback === null ? feedbackModes : [network.feedback]) {
+        const pairs = talliesByPair(db, { ...scope, feedback }, "profile", "instructorId");
+        for (const profile of network.profile === null ? patientTypes : [network.profile]) {
+          const attempts = new Map<number, number>();
+          for (const [key, tally] of pairs) {
+            const [p, instructor] = key.split("|");
+            if (p === profile) attempts.set(Number(instructor), tally.n);
+          }
+          if (attempts.size === 0) continue;
+          const stratum = { ...scope, profile, feedback };
+          strata.push({ attempts, byInstructor: byMetric((key) => valueCountsBy<number>(db, key, stratum, "instructorId")) });
+        }
+      }
+    }
     return {
       tallies,
-      byInstructor: byMetric((key) => mediansBy<number>(db, key, scope, "instructorId")),
-      medians: byMetric((key) => medianIn(db, key, scope)),
+      byInstructor: byMetric((key) => valueCountsBy<number>(db, key, scope, "instructorId")),
+      network: byMetric((key) => valueCounts(db, key, scope)),
       errors: [...tallies.values()].reduce(addTally, emptyTally()).errors,
+      funnel: instructorFunnel(db, scope, adjust),
+      strata,
     };
   });
 }
 
-export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): StandingAnswer {
+/**
+ * What instructors are ranked by: the median, or where the network's median sits at 100 % the share of
+ * attempts at 100 % (ranks on tied medians would mean nothing).
+ */
+type RankedFigure = (counts: ValueCounts) => number | null;
+const byMedian: RankedFigure = medianOfCounts;
+const byShareAtCeiling: RankedFigure = (counts) => ceilingFigures(counts).shareAtCeiling;
+
+/** My percentile rank among the shown instructors' figures (each instructor's distribution read by `figure`). */
+function rankAmong(distributions: Distributions, figure: RankedFigure, me: number, shownIds: ReadonlySet<number>): number | null {
+  const mine = distributions.get(me);
+  const myValue = mine ? figure(mine) : null;
+  if (myValue === null) return null;
+  const others = [...distributions].filter(([id]) => shownIds.has(id)).flatMap(([, counts]) => {
+    const value = figure(counts);
+    return value === null ? [] : [value];
+  });
+  return percentileRank(others, myValue);
+}
+
+/**
+ * My percentile rank within each case-mix stratum among the shown instructors with attempts there, averaged by
+ * my attempts in each stratum: an instructor who teaches only infants is ranked against infant attempts.
+ */
+function adjustedRank(strata: NetworkFigures["strata"], key: MetricKey, figure: RankedFigure, me: number, shownIds: ReadonlySet<number>): number | null {
+  let weight = 0;
+  let sum = 0;
+  for (const stratum of strata) {
+    const n = stratum.attempts.get(me) ?? 0;
+    const rank = n === 0 ? null : rankAmong(stratum.byInstructor[key], figure, me, shownIds);
+    if (rank === null) continue;
+    sum += n * rank;
+    weight += n;
+  }
+  return weight === 0 ? null : sum / weight;
+}
+
+export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters, adjust: AdjustMode = "case-mix"): StandingAnswer {
   const me = viewer.ownInstructorId;
   if (me === null) throw forbidden("Your account is not linked to an instructor.");
   const self = db.select({ code: instructors.code, name: instructors.name }).from(instructors).where(eq(instructors.id, me)).get();
@@ -56,12 +124,12 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
 
   const mine = { ...filters, instructorId: me };
   const min = viewer.suppressionMinCount;
-  const network = { ...filters, instructorId: null };
-  const { tallies, byInstructor, medians, errors: networkErrorCounts } = networkFigures(db, network);
+  const networkFilters = { ...filters, instructorId: null };
+  const { tallies, byInstructor, network, errors: networkErrorCounts, funnel, strata } = networkFigures(db, networkFilters, adjust);
   const perInstructor = [...tallies].map(([instructorId, { n, passed }]) => ({ instructorId, n, passed }));
   const totals = perInstructor.reduce((sum, row) => ({ n: sum.n + row.n, passed: sum.passed + row.passed }), { n: 0, passed: 0 });
   const myTally = perInstructor.find((row) => row.instructorId === me) ?? { instructorId: me, n: 0, passed: 0 };
-  const networkHidden = !mayShow(db, viewer, scopeOf(network));
+  const networkHidden = !mayShow(db, viewer, scopeOf(networkFilters));
   // others shown as points and ranked against: each one person with enough attempts to be shown, and only
   // when the network is shown and enough of them are there that no point stands for a known colleague
   const others = perInstructor.filter((row) => row.instructorId !== me && row.n >= min);
@@ -70,23 +138,28 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
   const shownIds = new Set(shown.map((row) => row.instructorId));
 
   const metrics = standingMetricKeys.map((key) => {
-    const mineValue = byInstructor[key].get(me) ?? null;
-    const ranked = [...byInstructor[key]].filter(([id]) => shownIds.has(id)).map(([, median]) => median);
+    const myCounts = byInstructor[key].get(me) ?? [];
+    // where the network's median sits at 100 % the median says nothing: show and rank the share at 100 % instead
+    const atCeiling = medianAtCeiling(network[key]);
+    const figure = atCeiling ? byShareAtCeiling : byMedian;
     return {
       key,
-      mine: mineValue,
-      network: networkHidden ? null : medians[key],
-      percentileRank: mineValue === null || networkHidden || othersShown.length === 0 ? null : percentileRank(ranked, mineValue),
+      mine: medianOfCounts(myCounts),
+      network: networkHidden ? null : medianOfCounts(network[key]),
+      percentileRank:
+        networkHidden || othersShown.length === 0
+          ? null
+          : adjust === "case-mix"
+            ? adjustedRank(strata, key, figure, me, shownIds)
+            : rankAmong(byInstructor[key], figure, me, shownIds),
+      ceiling: atCeiling ? { mine: ceilingFigures(myCounts), network: networkHidden ? null : ceilingFigures(network[key]) } : null,
     };
   });
 
   const points = shown
-    .map((row) => ({ medianScore: byInstructor.score.get(row.instructorId)!, passRate: row.passed / row.n, isMe: row.instructorId === me }))
+    .map((row) => ({ medianScore: medianOfCounts(byInstructor.score.get(row.instructorId)!)!, passRate: row.passed / row.n, isMe: row.instructorId === me }))
     .sort((a, b) => a.medianScore - b.medianScore || a.passRate - b.passRate);
 
-  const networkRate = networkHidden || totals.n === 0 ? null : totals.passed / totals.n;
-  // the funnel's extent from the points shown only: the largest hidden group's size is not given away
-  const nMax = Math.max(0, ...shown.map((row) => row.n));
 
   const myErrors = tallies.get(me)?.errors ?? emptyTally().errors;
   const networkErrors = networkHidden ? null : networkErrorCounts;
@@ -99,13 +172,9 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters): Stan
     metrics,
     spread: { minAttempts: min, points, instructorsLeftOut: perInstructor.length - shown.length },
     funnel: {
-      networkRate,
-      method: "exact",
-      curve: funnelLimitCurve(networkRate, nMax),
-      me: {
-        ...rateOf(myTally.passed, myTally.n),
-        position: networkRate === null || myTally.n === 0 ? null : classifyAgainstFunnel(myTally.passed, myTally.n, networkRate),
-      },
+      // the curve's extent from the points shown only: the largest hidden group's size is not given away
+      ...funnelBlock(funnel, networkHidden, shownIds),
+      me: { ...rateOf(myTally.passed, myTally.n), ...funnelComparison(funnel.units.get(me), networkHidden) },
     },
     errorProfile: {
       networkSuppressed: networkHidden,

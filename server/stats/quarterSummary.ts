@@ -11,7 +11,8 @@ import type { AttemptError } from "../../shared/scoring/scoreAttempt";
 import { parseQuarter, previousQuarter } from "../../shared/period";
 import type { Db } from "../db/client";
 import { learnerOutcomes } from "../metrics/learnerOutcomes";
-import { addTally, emptyTally, judgedOf, medianIn, talliesBy, totalTally, type SummaryScope } from "../metrics/summaries";
+import { ceilingFigures, medianAtCeiling } from "../metrics/ceiling";
+import { addTally, emptyTally, judgedOf, medianOfCounts, talliesBy, totalTally, valueCounts, type SummaryScope } from "../metrics/summaries";
 import { badRequest } from "../errors";
 
 export interface QuarterSummary {
@@ -38,6 +39,8 @@ export interface QuarterSummary {
   /** Pass rate against the previous quarter; absent when that quarter has no attempts. */
   change?: { from: string; difference: number; ci95: [number, number]; verdict: ChangeVerdict };
   median: { score: number | null; depth_ok_pct: number | null; rate_ok_pct: number | null; recoil_ok_pct: number | null; hands_on_pct: number | null };
+  /** For each metric whose median is 100 %: the share of attempts at 100 % and the 10th percentile, which say more. */
+  at_ceiling: Partial<Record<(typeof MEDIAN_COLUMNS)[number], { share_at_100: number; p10: number }>>;
   /** Attempts with each error. */
   errors: Record<AttemptError, number>;
   by_feedback: { live: { attempts: number; pass_rate: number | null }; hidden: { attempts: number; pass_rate: number | null } };
@@ -107,7 +110,15 @@ export function quarterSummary(db: Db, quarter: string, filter: SummaryFilter = 
   const passed = total.passed;
 
   const medians = {} as QuarterSummary["median"];
-  for (const column of MEDIAN_COLUMNS) medians[column] = medianIn(db, column, scope);
+  const atCeiling: QuarterSummary["at_ceiling"] = {};
+  for (const column of MEDIAN_COLUMNS) {
+    const counts = valueCounts(db, column, scope);
+    medians[column] = medianOfCounts(counts);
+    if (medianAtCeiling(counts)) {
+      const figures = ceilingFigures(counts);
+      atCeiling[column] = { share_at_100: figures.shareAtCeiling!, p10: figures.p10! };
+    }
+  }
 
   const errors = { ...total.errors };
 
@@ -142,6 +153,7 @@ export function quarterSummary(db: Db, quarter: string, filter: SummaryFilter = 
     attempts_per_learner: rate(attempts, learners.learners),
     ...(difference ? { change: { from: before, difference: difference.difference, ci95: [difference.low, difference.high] as [number, number], verdict: changeVerdict(difference) } } : {}),
     median: medians,
+    at_ceiling: atCeiling,
     errors,
     by_feedback: {
       live: { attempts: live.n, pass_rate: rate(live.passed, live.n) },

@@ -4,6 +4,8 @@
 // `suppressed: true`.
 import { z } from "zod";
 import { courseTypes, feedbackModes } from "../domain";
+import { adjustParamSchema } from "../filters";
+import { chartLimitModes } from "./chartSettings";
 import { bandSchema, passRuleSchema, patientTypes } from "../scoring/policy";
 import { attemptErrorNames } from "../scoring/scoreAttempt";
 
@@ -32,7 +34,7 @@ export type Rate = z.infer<typeof rateSchema>;
 export const funnelPositions = ["inside", "above95", "below95", "above998", "below998"] as const;
 export const funnelPositionSchema = z.enum(funnelPositions);
 
-/** Funnel limits around the network rate at n attempts (Spiegelhalter 2005, exact binomial). */
+/** Funnel limits around the network rate at n attempts (normal approximation, widened by `scale`). */
 export const funnelCurvePointSchema = z.object({
   n: count,
   low95: share,
@@ -44,8 +46,30 @@ export const funnelCurvePointSchema = z.object({
 export const funnelSchema = z.object({
   /** The network pass rate the limits are drawn around (null without attempts or when hidden). */
   networkRate: share.nullable(),
-  method: z.literal("exact"),
+  /** Limits at ±1.959964 and ±3.090232 standard errors (times `scale`) around the network rate. */
+  method: z.literal("normal"),
+  /** `case-mix`: instructors placed at their adjusted rate and effective number of attempts; `none`: as measured. */
+  adjust: adjustParamSchema,
+  /** Winsorised mean squared z-score (Spiegelhalter 2005); null with fewer than two instructors or when hidden. */
+  phi: z.number().min(0).nullable(),
+  /** I·φ above the 95th percentile of χ² with I − 1 degrees of freedom: limits widened by √φ. */
+  overdispersed: z.boolean(),
+  /** What the limits were multiplied by: √φ when overdispersed, else 1. */
+  scale: z.number().min(0),
   curve: z.array(funnelCurvePointSchema),
+});
+
+/** An instructor's comparison with the network: passes expected from their case mix, and the z-score. */
+export const funnelComparisonSchema = z.object({
+  /** Σ attempts × network rate of the stratum (one stratum when not adjusted); null when hidden. */
+  expected: z.number().min(0).nullable(),
+  /** (observed − expected) / √variance; null without variation or when hidden. */
+  z: z.number().nullable(),
+  /** Network rate + (observed − expected) / attempts: where the point is drawn. */
+  adjustedRate: share.nullable(),
+  /** Attempts at which plain limits give this z: the point's position along the funnel. */
+  effectiveAttempts: z.number().min(0).nullable(),
+  position: funnelPositionSchema.nullable(),
 });
 
 export const errorNameSchema = z.enum(attemptErrorNames);
@@ -93,7 +117,7 @@ export const seriesPointSchema = z.object({
   rate: share.nullable(),
   low: share.nullable(),
   high: share.nullable(),
-  /** p-chart 3-sigma limits around the series centre for this quarter's number of attempts. */
+  /** p-chart 3-sigma limits around the baseline's centre for this quarter's number of attempts (× σ_z with Laney's p′). */
   lcl: share.nullable(),
   ucl: share.nullable(),
   outside: z.boolean(),
@@ -101,8 +125,13 @@ export const seriesPointSchema = z.object({
 });
 
 export const passRateSeriesSchema = z.object({
-  /** p̄ = Σpassed / Σattempts over the series (Montgomery p-chart). */
+  /** p̄ = Σpassed / Σattempts over the baseline quarters (Montgomery p-chart); null without attempts there or when hidden. */
   centre: share.nullable(),
+  /** The quarters the centre and limits come from: a coordinator's setting or the first four with attempts. */
+  baseline: z.object({ from: z.string().nullable(), to: z.string().nullable(), source: z.enum(["setting", "default"]), attempts: count.nullable() }),
+  /** `laney`: limits widened by Laney's σ_z (Laney 2002), estimated from the baseline's quarters. */
+  limits: z.enum(chartLimitModes),
+  sigmaZ: z.number().nullable(),
   points: z.array(seriesPointSchema),
   /**
    * Run-chart rules over the shown quarters' rates around their median (Anhøj & Olesen 2014): the longest
@@ -174,8 +203,22 @@ export const standingMetricSchema = z.object({
   key: z.enum(standingMetricKeys),
   mine: z.number().nullable(),
   network: z.number().nullable(),
-  /** Percentile rank (0–100) of my median among the instructors' medians. */
+  /**
+   * Percentile rank (0–100) of my median among the instructors' medians. Adjusted for case mix: ranked within
+   * each patient type × feedback display among the instructors' medians there, averaged by my attempts in each.
+   * Where the network's median is 100 %, ranked by the share of attempts at 100 % instead (see `ceiling`).
+   */
   percentileRank: z.number().nullable(),
+  /**
+   * Set where the network's median sits at 100 % (a ceiling: most attempts are there): the share of attempts at
+   * 100 % and the 10th percentile, mine and the network's (null when hidden), to show instead of the medians.
+   */
+  ceiling: z
+    .object({
+      mine: z.object({ shareAtCeiling: share.nullable(), p10: z.number().nullable() }),
+      network: z.object({ shareAtCeiling: share.nullable(), p10: z.number().nullable() }).nullable(),
+    })
+    .nullable(),
 });
 
 export const spreadPointSchema = z.object({
@@ -210,7 +253,7 @@ export const standingAnswerSchema = z.object({
     instructorsLeftOut: count,
   }),
   funnel: funnelSchema.extend({
-    me: rateSchema.extend({ position: funnelPositionSchema.nullable() }),
+    me: rateSchema.merge(funnelComparisonSchema),
   }),
   errorProfile: z.object({
     networkSuppressed: z.boolean(),
@@ -231,8 +274,7 @@ export const instructorRowSchema = z.object({
   attempts: count,
   passRate: rateSchema,
   medianScore: z.number().nullable(),
-  position: funnelPositionSchema.nullable(),
-});
+}).merge(funnelComparisonSchema);
 
 export const instructorsAnswerSchema = z.object({
   period: periodSchema,

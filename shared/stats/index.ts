@@ -11,3 +11,6 @@ export * from "./difference";
 export * from "./agreement";
 export * from "./runChart";
 export * from "./meanInterval";
+export * from "./caseMix";
+export * from "./chiSquared";
+export * from "./overdispersion";

@@ -2,14 +2,15 @@
 // median score, and the classes of the chosen quarter.
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import { Link, useParams, useSearchParams } from "react-router";
-import type { InstructorDetailAnswer, OverviewAnswer } from "../../shared/schemas/insight";
+import type { InstructorDetailAnswer, InstructorsAnswer, OverviewAnswer } from "../../shared/schemas/insight";
 import { ApiError } from "../api/http";
 import { PageHeader } from "../components/PageHeader";
 import { SafetyNote } from "../components/SafetyNote";
 import { EmptyState } from "../components/States";
 import { ClassTable } from "../features/insight/ClassTable";
 import { MedianScoreTrendChart, PassRateTrendChart, type TrendRow } from "../features/insight/charts/InstructorTrendCharts";
-import { classifyAgainstFunnel } from "../../shared/stats";
+import { useAdjustMode } from "../features/insight/AdjustChoice";
+import { adjustNames } from "../../shared/vocabulary";
 import { PositionText } from "../features/insight/charts/FunnelChart";
 import { formatCount, formatPercent, formatScore } from "../features/insight/format";
 import { quarterLabel } from "../../shared/period";
@@ -60,6 +61,9 @@ function InstructorBody({ id, state }: { id: string; state: InsightFilterState }
   const query = useQuery({ ...insightQueries.instructor(id, state.api), placeholderData: keepPreviousData });
   // the network's series with the same filters, for the comparison line
   const network = useQuery({ ...insightQueries.overview(state.api), placeholderData: keepPreviousData });
+  // the position on the instructors' funnel, as the instructors page gives it (same filters and comparison)
+  const adjust = useAdjustMode();
+  const funnel = useQuery({ ...insightQueries.instructors({ ...state.api, adjust }), placeholderData: keepPreviousData });
   return (
     <QueryStatus
       query={query}
@@ -75,7 +79,7 @@ function InstructorBody({ id, state }: { id: string; state: InsightFilterState }
     >
       {(answer) => (
         <>
-          <InstructorContent answer={answer} network={network.data ?? null} />
+          <InstructorContent answer={answer} network={network.data ?? null} funnel={funnel.data ?? null} />
           <CalibrationSection instructorId={answer.instructor.id} state={state} />
         </>
       )}
@@ -104,17 +108,14 @@ export function trendRows(answer: InstructorDetailAnswer, network: OverviewAnswe
   return answer.trend.map((t) => ({ quarter: t.quarter, passRate: t.passRate, medianScore: t.medianScore, network: byQuarter.get(t.quarter) ?? null }));
 }
 
-export function InstructorContent({ answer, network }: { answer: InstructorDetailAnswer; network: OverviewAnswer | null }) {
+export function InstructorContent({ answer, network, funnel }: { answer: InstructorDetailAnswer; network: OverviewAnswer | null; funnel: InstructorsAnswer | null }) {
   const { instructor } = answer;
   const rows = trendRows(answer, network);
   const quarter = quarterLabel(answer.period.from);
   const current = answer.trend.find((t) => t.quarter === answer.period.to);
-  // where this quarter sits on the network's funnel (same filters), as on the instructors page
-  const networkRate = network?.passRate.rate ?? null;
-  const position =
-    current && networkRate !== null && current.passRate.n && current.passRate.successes !== null
-      ? classifyAgainstFunnel(current.passRate.successes, current.passRate.n, networkRate)
-      : null;
+  // where the period sits on the instructors' funnel (same filters and comparison), from the instructors page's answer
+  const networkRate = funnel?.funnel.networkRate ?? null;
+  const position = funnel?.instructors.find((row) => row.id === instructor.id)?.position ?? null;
   return (
     <div className="flex flex-col gap-6">
       {current && (
@@ -129,7 +130,10 @@ export function InstructorContent({ answer, network }: { answer: InstructorDetai
               {position && (
                 <>
                   {" "}
-                  <PositionText position={position} /> <span className="text-muted">(network {formatPercent(networkRate)}).</span>
+                  <PositionText position={position} />{" "}
+                  <span className="text-muted">
+                    (network {formatPercent(networkRate)}; {adjustNames[funnel!.funnel.adjust].toLowerCase()}).
+                  </span>
                 </>
               )}
             </>

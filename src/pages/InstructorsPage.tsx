@@ -6,8 +6,9 @@ import type { InstructorsAnswer } from "../../shared/schemas/insight";
 import { DataTable, type Column } from "../components/DataTable";
 import { PageHeader } from "../components/PageHeader";
 import { FunnelChart, PositionText, type FunnelUnit } from "../features/insight/charts/FunnelChart";
-import { formatCount, formatInterval, formatPercent, formatScore, funnelPositionText, percentValue, roundTo } from "../features/insight/format";
+import { formatCount, formatFixed, formatInterval, formatPercent, formatScore, funnelPositionText, percentValue, roundTo } from "../features/insight/format";
 import { quarterLabel } from "../../shared/period";
+import { AdjustChoice, dispersionSentence, useAdjustMode } from "../features/insight/AdjustChoice";
 import { InsightFilters } from "../features/insight/InsightFilters";
 import { NoDataForFilters } from "../features/insight/NoDataForFilters";
 import { QueryStatus } from "../features/insight/QueryStatus";
@@ -21,7 +22,7 @@ export default function InstructorsPage() {
     <div>
       <PageHeader
         title="Instructors"
-        description="Each instructor's measured pass rate, judged against what chance allows for their number of attempts."
+        description="Each instructor's measured pass rate, judged against what chance allows for their number of attempts and, by default, for the mix of patient types and feedback displays they teach."
       />
       <InsightFilters optional={["site", "patientType", "feedback"]} label="Filter the instructors">
         {(state) => <InstructorsBody state={state} />}
@@ -31,7 +32,8 @@ export default function InstructorsPage() {
 }
 
 function InstructorsBody({ state }: { state: InsightFilterState }) {
-  const query = useQuery({ ...insightQueries.instructors(state.api), placeholderData: keepPreviousData });
+  const adjust = useAdjustMode();
+  const query = useQuery({ ...insightQueries.instructors({ ...state.api, adjust }), placeholderData: keepPreviousData });
   return (
     <QueryStatus query={query} loadingLabel={`Loading the instructors for ${quarterLabel(state.quarter)}…`} errorTitle="The instructors could not be loaded">
       {(answer) => (answer.instructors.length === 0 ? <NoDataForFilters state={state} /> : <InstructorsContent answer={answer} />)}
@@ -59,6 +61,8 @@ function instructorColumns(search: string): Column<InstructorRow>[] {
     { key: "rate", header: "Pass rate (%)", value: (r) => percentValue(r.passRate.rate), render: (r) => formatPercent(r.passRate.rate), align: "right" },
     { key: "interval", header: "95 % interval", value: (r) => (r.passRate.low === null ? null : formatInterval(r.passRate.low, r.passRate.high)), sortable: false, align: "right" },
     { key: "median", header: "Median score", value: (r) => roundTo(r.medianScore, 1), render: (r) => formatScore(r.medianScore), align: "right" },
+    { key: "expected", header: "Passes expected", value: (r) => roundTo(r.expected, 1), render: (r) => (r.expected === null ? "–" : formatFixed(r.expected, 1)), align: "right" },
+    { key: "z", header: "z-score", value: (r) => roundTo(r.z, 2), render: (r) => (r.z === null ? "–" : formatFixed(r.z, 2)), align: "right" },
     { key: "position", header: "Funnel position", value: (r) => funnelPositionText(r.position), render: (r) => <PositionText position={r.position} short />, wrap: true },
   ];
 }
@@ -66,12 +70,15 @@ function instructorColumns(search: string): Column<InstructorRow>[] {
 export function InstructorsContent({ answer }: { answer: InstructorsAnswer }) {
   const [params] = useSearchParams();
   const search = params.toString() ? `?${params.toString()}` : "";
+  const adjusted = answer.funnel.adjust === "case-mix";
+  // a point needs a place along the funnel: instructors whose strata never vary (z null) have none
   const units: FunnelUnit[] = answer.instructors
-    .filter((r) => r.passRate.rate !== null && r.passRate.successes !== null)
-    .map((r) => ({ key: r.id, label: r.code, n: r.attempts, successes: r.passRate.successes!, rate: r.passRate.rate!, position: r.position }));
+    .filter((r) => r.adjustedRate !== null && r.effectiveAttempts !== null && r.passRate.successes !== null)
+    .map((r) => ({ key: r.id, label: r.code, n: r.effectiveAttempts!, attempts: r.attempts, successes: r.passRate.successes!, rate: r.adjustedRate!, z: r.z, position: r.position }));
   const outside = answer.instructors.filter((r) => r.position && r.position !== "inside");
   return (
     <div className="flex flex-col gap-6">
+      <AdjustChoice />
       <div className="rounded-card border-l-4 border-marigold-500 bg-surface p-4 shadow-card">
         <p className="text-lead font-semibold">
           {answer.instructors.length} instructors in {quarterLabel(answer.period.from)}; network pass rate {formatPercent(answer.funnel.networkRate)}.
@@ -98,14 +105,22 @@ export function InstructorsContent({ answer }: { answer: InstructorsAnswer }) {
         )}
         <p className="mt-1 text-small text-muted">
           The funnel narrows as attempts add up: a small group far from the network rate can be chance, a large one rarely is. Outside the 95 %
-          limits is worth a look; outside 99.8 % is very unlikely to be chance.
+          limits is worth a look; outside 99.8 % is very unlikely to be chance. {dispersionSentence(answer.funnel)}
         </p>
+        {adjusted && (
+          <p className="mt-1 text-small text-muted">
+            Adjusted for case mix, each point sits at the network rate plus the instructor's passes beyond those expected, per attempt, and at the
+            number of attempts whose limits match its z-score. The table lists the measured rates.
+          </p>
+        )}
       </div>
       <FunnelChart
-        title="Pass rate against number of attempts"
+        title={adjusted ? "Pass rate adjusted for case mix against effective attempts" : "Pass rate against number of attempts"}
         units={units}
         curve={answer.funnel.curve}
         networkRate={answer.funnel.networkRate}
+        scale={answer.funnel.scale}
+        adjusted={adjusted}
         subject="each instructor"
         unitHeader="Instructor"
         exportFileName={`instructor-funnel-${answer.period.from}`}

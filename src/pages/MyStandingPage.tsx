@@ -11,6 +11,7 @@ import { FunnelChart, type FunnelUnit } from "../features/insight/charts/FunnelC
 import { SpreadChart } from "../features/insight/charts/SpreadChart";
 import { formatCount, funnelPositionText } from "../features/insight/format";
 import { quarterLabel } from "../../shared/period";
+import { AdjustChoice, dispersionSentence, useAdjustMode } from "../features/insight/AdjustChoice";
 import { InsightFilters } from "../features/insight/InsightFilters";
 import { NoDataForFilters } from "../features/insight/NoDataForFilters";
 import { QueryStatus } from "../features/insight/QueryStatus";
@@ -36,7 +37,8 @@ export default function MyStandingPage() {
 }
 
 function StandingBody({ state }: { state: InsightFilterState }) {
-  const query = useQuery({ ...insightQueries.standing(state.api), placeholderData: keepPreviousData });
+  const adjust = useAdjustMode();
+  const query = useQuery({ ...insightQueries.standing({ ...state.api, adjust }), placeholderData: keepPreviousData });
   // the attempt list keeps an instructor to their own attempts, so the error and the filters are enough
   const attemptsHref = (error: AttemptError) => `/attempts?${linkParams(state.values, { error })}`;
   return (
@@ -49,9 +51,10 @@ function StandingBody({ state }: { state: InsightFilterState }) {
 export function StandingContent({ answer, attemptsHref }: { answer: StandingAnswer; attemptsHref: (error: AttemptError) => string }) {
   const min = answer.suppressionMinCount;
   const me = answer.funnel.me;
+  const adjusted = answer.funnel.adjust === "case-mix";
   const units: FunnelUnit[] =
-    me.n && me.rate !== null && me.successes !== null
-      ? [{ key: "me", label: "You", n: me.n, successes: me.successes, rate: me.rate, position: me.position, isMe: true }]
+    me.n && me.successes !== null && me.adjustedRate !== null && me.effectiveAttempts !== null
+      ? [{ key: "me", label: "You", n: me.effectiveAttempts, attempts: me.n, successes: me.successes, rate: me.adjustedRate, z: me.z, position: me.position, isMe: true }]
       : [];
   const networkHidden = answer.errorProfile.networkSuppressed;
   return (
@@ -64,6 +67,7 @@ export function StandingContent({ answer, attemptsHref }: { answer: StandingAnsw
           {formatCount(answer.attempts)} attempts in your classes. Your measured pass rate: <RateText rate={me} minCount={min} stacked={false} />.{" "}
           {me.position && <span className="font-semibold">{funnelPositionText(me.position)} for a group of this size.</span>}
         </p>
+        <AdjustChoice />
         <StandingMetrics answer={answer} />
         <SafetyNote compact />
       </section>
@@ -85,13 +89,15 @@ export function StandingContent({ answer, attemptsHref }: { answer: StandingAnsw
                 units={units}
                 curve={answer.funnel.curve}
                 networkRate={answer.funnel.networkRate}
+                scale={answer.funnel.scale}
+                adjusted={adjusted}
                 subject="your attempts"
                 unitHeader="Who"
                 exportFileName="my-funnel-position"
               />
               <p className="text-small text-muted">
                 The funnel narrows as attempts add up: with few attempts a rate far from the network's can be chance. A point outside the 95 %
-                limits is worth a look; outside the 99.8 % limits it is very unlikely to be chance.
+                limits is worth a look; outside the 99.8 % limits it is very unlikely to be chance. {dispersionSentence(answer.funnel)}
               </p>
             </div>
           </div>

@@ -1,10 +1,12 @@
 // Network overview: the quarter's measured pass rate against what instructors recorded, the quarterly
 // p-chart, the error Pareto and live against hidden display. Landing page for coordinators and quality leads.
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
+import { useSearchParams } from "react-router";
 import type { OverviewAnswer } from "../../shared/schemas/insight";
 import { PageHeader } from "../components/PageHeader";
 import { SafetyNote } from "../components/SafetyNote";
 import { PassRateControlChart } from "../features/insight/charts/PassRateControlChart";
+import { ChartBaselineCaption } from "../features/insight/charts/ChartBaselineCaption";
 import { ErrorParetoChart } from "../features/insight/charts/ErrorParetoChart";
 import { FeedbackComparisonChart } from "../features/insight/charts/FeedbackComparisonChart";
 import { InsightFilters } from "../features/insight/InsightFilters";
@@ -34,7 +36,9 @@ export default function OverviewPage() {
 }
 
 function OverviewBody({ state }: { state: InsightFilterState }) {
-  const query = useQuery({ ...insightQueries.overview(state.api), placeholderData: keepPreviousData });
+  const [params] = useSearchParams();
+  const limits = params.get("limits") === "laney" ? "laney" : undefined;
+  const query = useQuery({ ...insightQueries.overview({ ...state.api, limits }), placeholderData: keepPreviousData });
   return (
     <QueryStatus query={query} loadingLabel={`Loading ${quarterLabel(state.quarter)}…`} errorTitle="The overview could not be loaded">
       {(answer) => (answer.attempts === 0 ? <NoDataForFilters state={state} /> : <OverviewContent answer={answer} />)}
@@ -74,6 +78,7 @@ export function OverviewContent({ answer }: { answer: OverviewAnswer }) {
           is a real change worth looking into, for better or worse.
         </p>
         <PassRateControlChart series={answer.series} minCount={min} />
+        <ChartBaselineCaption series={answer.series} />
       </section>
 
       <section aria-labelledby="errors-heading" className="flex flex-col gap-3">

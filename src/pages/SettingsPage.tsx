@@ -17,6 +17,7 @@ import { PolicyForm, shortSourceName } from "../features/settings/PolicyForm";
 import { errorsByPath } from "../features/settings/policyFields";
 import { settingsQueries } from "../features/settings/queries";
 import { RescoreSection } from "../features/settings/RescoreSection";
+import { ChartBaselineSection } from "../features/settings/ChartBaselineSection";
 import { VersionList } from "../features/settings/VersionList";
 import { useLengthUnit } from "../lib/useLengthUnit";
 
@@ -84,6 +85,8 @@ function Settings({ answer }: { answer: PolicySettingsAnswer }) {
       />
 
       <RescoreSection version={current.version} quarters={options.data ? [...options.data.quarters].reverse() : []} canEdit={canEdit} />
+
+      <ChartBaselineSection quarters={options.data ? [...options.data.quarters].reverse() : []} canEdit={canEdit} />
 
       <section aria-labelledby="versions-heading" className="flex flex-col gap-3">
         <h2 id="versions-heading" className="text-title">

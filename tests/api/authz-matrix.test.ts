@@ -48,6 +48,8 @@ const matrix: Row[] = [
   { method: "get", path: "/api/settings/policy/versions", expect: directory },
   { method: "put", path: "/api/settings/policy", body: { policy: DEFAULT_POLICY, note: "Same as before" }, expect: coordinatorOnly },
   { method: "post", path: "/api/settings/rescore", body: {}, expect: coordinatorOnly },
+  { method: "get", path: "/api/settings/chart-baseline", expect: directory },
+  { method: "put", path: "/api/settings/chart-baseline", body: { baseline: null }, expect: coordinatorOnly },
   { method: "patch", path: "/api/me", body: { lengthUnit: "mm" }, expect: everyone },
   { method: "get", path: "/api/imports/formats", expect: { coordinator: 200, quality_lead: 403, instructor: 200, funder: 403 } },
   { method: "get", path: "/api/imports/batches", expect: { coordinator: 200, quality_lead: 403, instructor: 200, funder: 403 } },

@@ -29,23 +29,71 @@ describe("GET /api/insight/instructors", () => {
     const [low, high] = wilsonInterval(6, 10)!;
     expect(row("A1").passRate.low).toBe(low);
     expect(row("A1").passRate.high).toBe(high);
-    // Positions against θ = 7/11 with exact binomial limits (Spiegelhalter 2005), worked by hand:
-    // A1 6/10 between 0.2720 and 0.8773 → inside.
-    expect(row("A1").position).toBe("inside");
-    // B1 2/10 below the 95 % limit 0.2720, above the 99.8 % limit 0.1046 → below95.
-    expect(row("B1").position).toBe("below95");
-    // C1 0/4: P(R = 0) = (4/11)^4 = 0.017486 < 0.025, P(R ≤ 1) = 0.13989 → lower 95 % limit
-    // (1 − (0.13989 − 0.025) / 0.12240) / 4 = 0.0153 > 0; lower 99.8 % limit (0 − 0.9428) / 4 < 0 → 0 → below95.
-    expect(row("C1")).toMatchObject({ attempts: 4, medianScore: 77, position: "below95" });
-    // D1 20/20: P(R = 20) = (7/11)^20 = 0.000118 < 0.001, so the 99.8 % upper limit is below 19/20 → above998.
-    expect(row("D1")).toMatchObject({ attempts: 20, medianScore: 89.5, position: "above998" });
-    // the curve spans n = 1 … 20 at both levels, the 99.8 % band outside the 95 % band
+    // The crude view (adjust=none) is tested below; by default instructors are compared by case mix.
+    expect(body.funnel).toMatchObject({ adjust: "case-mix", method: "normal" });
+  });
+
+  it("compares instructors against the network as measured on request (adjust=none), limits widened for overdispersion", async () => {
+    const body = instructorsAnswerSchema.parse((await t.quality.get("/api/insight/instructors?adjust=none").expect(200)).body);
+    const row = (code: string) => body.instructors.find((r) => r.code === code)!;
+    // One stratum, θ = 28/44 = 7/11, θ(1 − θ) = 28/121, worked by hand: z = (O − nθ) / √(nθ(1 − θ))
+    // A1 (6 − 6.3636) / 1.52120 = −0.23905; B1 (2 − 6.3636) / 1.52120 = −2.86855;
+    // C1 (0 − 2.54545) / 0.96209 = −2.64575; D1 (20 − 12.7273) / 2.15130 = 3.38064.
+    expect(row("A1").expected).toBeCloseTo(70 / 11, 10);
+    expect(row("A1").z).toBeCloseTo(-0.23905, 4);
+    expect(row("B1").z).toBeCloseTo(-2.86855, 4);
+    expect(row("C1").z).toBeCloseTo(-2.64575, 4);
+    expect(row("D1").z).toBeCloseTo(3.38064, 4);
+    // one stratum: drawn as measured, at its own number of attempts
+    expect(row("D1").adjustedRate).toBeCloseTo(1, 12);
+    expect(row("D1").effectiveAttempts).toBeCloseTo(20, 10);
+    // Spiegelhalter 2005 (Qual Saf Health Care 14:347): winsorised at the type-7 10th percentile
+    // −2.86855 + 0.3 × 0.22280 = −2.80171 and 90th −0.23905 + 0.7 × 3.61969 = 2.29473; squares
+    // 7.84958 + 7.0 + 0.05715 + 5.26578 = 20.1725, φ = 5.0431; 4φ = 20.17 > qchisq(0.95, 3) = 7.8147.
+    expect(body.funnel.phi).toBeCloseTo(5.0431, 3);
+    expect(body.funnel.overdispersed).toBe(true);
+    expect(body.funnel.scale).toBeCloseTo(Math.sqrt(5.0431), 3);
+    // limits 1.96 × 2.2457 = 4.40 and 3.09 × 2.2457 = 6.94 standard errors: every instructor is inside;
+    // unscaled, B1 and C1 would be below the 95 % limit and D1 above the 99.8 % one
+    expect(body.instructors.map((r) => r.position)).toEqual(["inside", "inside", "inside", "inside"]);
+    // the curve spans n = 1 … 20, the 99.8 % band outside the 95 % band, widened by √φ
     expect(body.funnel.curve[0].n).toBe(1);
     expect(body.funnel.curve.at(-1)!.n).toBe(20);
+    const at20 = body.funnel.curve.at(-1)!;
+    expect(at20.high95).toBeCloseTo(Math.min(1, 7 / 11 + 1.959964 * body.funnel.scale * Math.sqrt(28 / 121 / 20)), 10);
     for (const p of body.funnel.curve) {
       expect(p.low998).toBeLessThanOrEqual(p.low95);
       expect(p.high998).toBeGreaterThanOrEqual(p.high95);
     }
+  });
+
+  it("adjusts for patient type × feedback display by default (indirect standardisation)", async () => {
+    const body = instructorsAnswerSchema.parse((await t.quality.get("/api/insight/instructors").expect(200)).body);
+    const row = (code: string) => body.instructors.find((r) => r.code === code)!;
+    // Network rates per stratum, worked by hand: adult·live 17/20 = 0.85, adult·hidden 11/20 = 0.55,
+    // infant·hidden 0/4 = 0. A1 and B1 have 5 attempts in each adult stratum: E = 4.25 + 2.75 = 7,
+    // V = 5·0.85·0.15 + 5·0.55·0.45 = 1.875; D1 has 10 in each: E = 14, V = 3.75.
+    expect(row("A1").expected).toBeCloseTo(7, 10);
+    expect(row("A1").z).toBeCloseTo(-1 / Math.sqrt(1.875), 10);
+    expect(row("B1").z).toBeCloseTo(-5 / Math.sqrt(1.875), 10);
+    expect(row("D1").z).toBeCloseTo(6 / Math.sqrt(3.75), 10);
+    // A1 drawn at 7/11 + (6 − 7)/10 and at 10² · (28/121) / 1.875 effective attempts
+    expect(row("A1").adjustedRate).toBeCloseTo(7 / 11 - 0.1, 10);
+    expect(row("A1").effectiveAttempts).toBeCloseTo((100 * 28) / 121 / 1.875, 10);
+    // C1's infants all failed, as every infant attempt in the network did: nothing to compare, no z
+    expect(row("C1")).toMatchObject({ expected: 0, z: null, position: "inside" });
+    // z −0.7303, −3.6515, 3.0984 winsorised at −3.0672 and 2.3327: φ = (9.4080 + 0.5333 + 5.4413) / 3 = 5.1275,
+    // 3φ = 15.38 > qchisq(0.95, 2) = 5.9915, so B1's −3.65 is inside ±1.96·√φ = ±4.44
+    expect(body.funnel.phi).toBeCloseTo(5.1275, 3);
+    expect(body.funnel.overdispersed).toBe(true);
+    expect(row("B1").position).toBe("inside");
+    // the curve reaches D1's effective attempts, 400 · (28/121) / 3.75 = 24.7
+    expect(body.funnel.curve.at(-1)!.n).toBe(25);
+  });
+
+  it("refuses an unknown adjustment with 422", async () => {
+    const res = await t.quality.get("/api/insight/instructors?adjust=age").expect(422);
+    expect(res.body.error.details[0]).toMatchObject({ path: "adjust" });
   });
 
   it("follows the filters", async () => {

@@ -264,6 +264,56 @@ describe("SQL written into the filters", () => {
   });
 });
 
+describe("the control chart's baseline and limits", () => {
+  it("takes the centre from the first four quarters with attempts by default, and says so", async () => {
+    const o = await get("/api/insight/overview");
+    // the fixture has four quarters with attempts, 2025-Q3 … 2026-Q2: 356 attempts in all
+    expect(o.series.baseline).toEqual({ from: "2025-Q3", to: "2026-Q2", source: "default", attempts: 356 });
+    expect(o.series).toMatchObject({ limits: "binomial", sigmaZ: null });
+  });
+
+  it("widens the limits by Laney's σ_z on request (Laney 2002)", async () => {
+    const o = await get("/api/insight/overview?limits=laney");
+    // worked by hand: p̄ = 110/356, z = (p_i − p̄)/√(p̄(1 − p̄)/n_i) = −3.19917, −2.99050, −0.03524, 4.69957 in
+    // quarter order; moving ranges 0.20867, 2.95526, 4.73480, MR̄ = 2.63291, σ_z = MR̄ / 1.128 = 2.33414
+    expect(o.series.limits).toBe("laney");
+    expect(o.series.sigmaZ).toBeCloseTo(2.33414, 4);
+    const point = (q: string) => o.series.points.find((p) => p.quarter === q)!;
+    // 2026-Q1 (263): 110/356 ± 3 · 0.028493 · 2.33414 → 0.109470 to 0.508508
+    expect(point("2026-Q1").lcl).toBeCloseTo(0.10947, 5);
+    expect(point("2026-Q1").ucl).toBeCloseTo(0.508508, 5);
+    // 2026-Q2: 0.6364 is inside the widened UCL 0.796782; 2025-Q3's 0.0345 is above the clamped LCL 0
+    expect(point("2026-Q2").ucl).toBeCloseTo(0.796782, 5);
+    expect(o.series.points.filter((p) => p.outside)).toEqual([]);
+    await t.coordinator.get("/api/insight/overview?limits=wide").expect(422);
+  });
+
+  it("follows a coordinator's baseline, and the quarters after it never move its centre", async () => {
+    const put = await t.coordinator.put("/api/settings/chart-baseline", { baseline: { from: "2025-Q3", to: "2025-Q4" } });
+    expect(put.status, JSON.stringify(put.body)).toBe(200);
+    expect(put.body).toEqual({ from: "2025-Q3", to: "2025-Q4", source: "setting" });
+    try {
+      const o = await get("/api/insight/overview");
+      // 2025-Q3 1/29 and 2025-Q4 0/20: centre 1/49; UCL for 2026-Q1 (263) 1/49 + 3·√(1/49 · 48/49 / 263) = 0.046564
+      expect(o.series.baseline).toEqual({ from: "2025-Q3", to: "2025-Q4", source: "setting", attempts: 49 });
+      expect(o.series.centre).toBeCloseTo(1 / 49, 12);
+      const point = (q: string) => o.series.points.find((p) => p.quarter === q)!;
+      expect(point("2026-Q1").ucl).toBeCloseTo(0.046564, 5);
+      expect(point("2026-Q1").outside).toBe(true);
+      // the same centre when the period ends earlier: later quarters do not move it
+      const earlier = await get("/api/insight/overview?quarter=2026-Q1");
+      expect(earlier.series.centre).toBe(o.series.centre);
+      // only a coordinator sets it; a range that runs backwards is refused
+      await t.quality.put("/api/settings/chart-baseline", { baseline: null }).expect(403);
+      const backwards = await t.coordinator.put("/api/settings/chart-baseline", { baseline: { from: "2026-Q1", to: "2025-Q4" } }).expect(422);
+      expect(backwards.body.error.details[0]).toMatchObject({ path: "baseline.to" });
+    } finally {
+      const reset = await t.coordinator.put("/api/settings/chart-baseline", { baseline: null });
+      expect(reset.body).toEqual({ from: "2025-Q3", to: "2026-Q2", source: "default" });
+    }
+  });
+});
+
 describe("suppression of small groups", () => {
   it("shows a group of 4 attempts to the quality lead", async () => {
     const o = await get("/api/insight/overview?profile=infant", t.quality);

@@ -35,9 +35,21 @@ describe("my standing (instructor A1, 2026-Q2)", () => {
     expect(score.percentileRank).toBe(50);
     // hands-on time is 80 % in every attempt: mine = network = 80, rank (0 + ½ × 3) / 3 = 50 %
     expect(s.metrics.find((m) => m.key === "hands_on_pct")).toMatchObject({ mine: 80, network: 80, percentileRank: 50 });
+    // by default ranked within each case-mix stratum: adult·live medians A1 85, B1 72, D1 89 → 50;
+    // adult·hidden A1 70, B1 66, D1 90 → 50; weighted by my 5 + 5 attempts → 50
+    expect(score.percentileRank).toBe(50);
     // depth on target, mine: shallow attempts 30 and 15, the rest 95 90 85 80 75 70 90 90
     // sorted 15 30 70 75 80 | 85 90 90 90 95 → (80 + 85) / 2 = 82.5
     expect(s.metrics.find((m) => m.key === "depth_ok_pct")!.mine).toBe(82.5);
+    // depth ranked within strata, by hand: adult·live medians A1 85, B1 84 (6 12 84 88 90), D1 89 → rank 50;
+    // adult·hidden A1 70 (15 30 70 90 90), B1 90, D1 90 → rank (½ × 1) / 3 = 16.67; my 5 + 5 attempts → 33.33
+    expect(s.metrics.find((m) => m.key === "depth_ok_pct")!.percentileRank).toBeCloseTo(100 / 3, 10);
+  });
+
+  it("ranks my medians among all instructors' on request (adjust=none)", async () => {
+    const crude = standingAnswerSchema.parse((await t.instructor.get("/api/insight/standing?adjust=none").expect(200)).body);
+    // depth medians over the quarter: A1 82.5, B1 86, D1 89.5 → (½ × 1) / 3 = 16.67
+    expect(crude.metrics.find((m) => m.key === "depth_ok_pct")!.percentileRank).toBeCloseTo(100 / 6, 10);
   });
 
   it("shows the spread of instructors as anonymous points with mine flagged", () => {
@@ -51,19 +63,33 @@ describe("my standing (instructor A1, 2026-Q2)", () => {
     expect(s.spread.minAttempts).toBe(5);
   });
 
-  it("places my pass rate on the network funnel", () => {
-    // network rate 28/44 = 7/11
+  it("places my pass rate on the network funnel, adjusted for case mix", () => {
+    // network rate 28/44 = 7/11; my 5 live and 5 hidden adult attempts expect 5·0.85 + 5·0.55 = 7 passes
+    // (stratum rates by hand: adult·live 17/20, adult·hidden 11/20), V = 1.875, z = (6 − 7)/√1.875
     expect(s.funnel.networkRate).toBeCloseTo(7 / 11, 12);
-    // exact binomial limits at n = 10 around θ = 7/11 (Spiegelhalter 2005, appendix A.1.1), by hand:
-    // P(R ≤ 2) = 0.006309, P(R = 3) = 0.025959, P(R ≤ 3) = 0.032268 → lower 95 % limit
-    // (3 − (0.032268 − 0.025) / 0.025959) / 10 = 0.2720; P(R = 10) = 0.01089, P(R = 9) = 0.06222 → upper
-    // 95 % limit (9 − (0.98911 − 0.975) / 0.06222) / 10 = 0.8773. My 6/10 = 0.6 lies between: inside.
-    const at10 = s.funnel.curve.find((p) => p.n === 10)!;
-    expect(at10.low95).toBeCloseTo(0.272, 3);
-    expect(at10.high95).toBeCloseTo(0.8773, 3);
+    expect(s.funnel.adjust).toBe("case-mix");
     expect(s.funnel.me).toMatchObject({ successes: 6, n: 10, position: "inside" });
+    expect(s.funnel.me.expected).toBeCloseTo(7, 10);
+    expect(s.funnel.me.z).toBeCloseTo(-0.730297, 5);
+    // instructors are overdispersed (φ = 5.1275, see the instructors' funnel test): the limits are widened
+    expect(s.funnel.overdispersed).toBe(true);
+    expect(s.funnel.phi).toBeCloseTo(5.1275, 3);
+  });
+
+  it("places my pass rate against the network as measured on request", async () => {
+    const crude = standingAnswerSchema.parse((await t.instructor.get("/api/insight/standing?adjust=none").expect(200)).body);
+    // normal limits at n = 10 around θ = 7/11, widened by √φ = √5.0431 (Spiegelhalter 2005):
+    // 7/11 ± 1.959964 · 2.24569 · √(0.231405 / 10) = 7/11 ± 0.66956
+    const at10 = crude.funnel.curve.find((p) => p.n === 10)!;
+    expect(at10.low95).toBe(0);
+    expect(at10.high95).toBe(1);
+    expect(crude.funnel.scale).toBeCloseTo(2.24569, 4);
+    expect(crude.funnel.me).toMatchObject({ successes: 6, n: 10, position: "inside" });
+    expect(crude.funnel.me.adjustedRate).toBeCloseTo(0.6, 12);
+    expect(crude.funnel.me.effectiveAttempts).toBeCloseTo(10, 10);
+    expect(crude.funnel.me.z).toBeCloseTo(-0.23905, 4);
     // the curve runs to the largest instructor (D1, 20 attempts)
-    expect(s.funnel.curve.at(-1)!.n).toBe(20);
+    expect(crude.funnel.curve.at(-1)!.n).toBe(20);
   });
 
   it("compares my error profile with the network's", () => {
@@ -100,9 +126,9 @@ describe("my standing (instructor A1, 2026-Q2)", () => {
     const other = standingAnswerSchema.parse((await t.otherInstructor.get("/api/insight/standing").expect(200)).body);
     expect(other.me.code).toBe("B1");
     expect(other.spread.points.find((p) => p.isMe)).toEqual({ medianScore: 67, passRate: 0.2, isMe: true });
-    // B1 2/10 against θ = 7/11: lower 95 % limit 0.2720 (above), lower 99.8 % limit
-    // (2 − (0.006309 − 0.001) / 0.005562) / 10 = 0.1046 (below) → beyond the 95 % limit only
-    expect(other.funnel.me.position).toBe("below95");
+    // B1 z = (2 − 7)/√1.875 = −3.65, inside the limits widened by √φ (±1.96 · 2.264 = ±4.44)
+    expect(other.funnel.me.z).toBeCloseTo(-3.651484, 5);
+    expect(other.funnel.me.position).toBe("inside");
     expect(JSON.stringify(other)).not.toContain("A1");
   });
 });

@@ -9,7 +9,7 @@ import {
   overviewAnswerSchema,
   type InstructorsAnswer,
 } from "../../shared/schemas/insight";
-import { funnelLimits, wilsonInterval } from "../../shared/stats";
+import { scaledFunnelLimits, wilsonInterval } from "../../shared/stats";
 import { renderApp } from "./renderApp";
 import { fakeServer, sessionFor } from "./testServer";
 
@@ -48,7 +48,11 @@ const instructors: InstructorsAnswer = instructorsAnswerSchema.parse({
   period: { from: "2026-Q4", to: "2026-Q4", quarters: ["2026-Q4"] },
   funnel: {
     networkRate: 0.42,
-    method: "exact",
+    method: "normal",
+    adjust: "case-mix",
+    phi: 1.44,
+    overdispersed: true,
+    scale: 1.2,
     curve: [
       { n: 1, low95: 0, high95: 0.94, low998: 0, high998: 0.998 },
       { n: 60, low95: 0.3, high95: 0.55, low998: 0.23, high998: 0.62 },
@@ -56,11 +60,18 @@ const instructors: InstructorsAnswer = instructorsAnswerSchema.parse({
     ],
   },
   instructors: [
-    { id: 4, code: "IN04", name: "Callum Ferrowin", site: { id: 2, code: "CLB" }, classes: 2, attempts: 30, passRate: rate(12, 30), medianScore: 83.5, position: "inside" },
-    { id: 6, code: "IN06", name: "Desmond Quarrie", site: { id: 2, code: "CLB" }, classes: 2, attempts: 68, passRate: rate(7, 68), medianScore: 62.8333, position: "below998" },
-    { id: 8, code: "IN08", name: "Jonah Thistlecombe", site: null, classes: 3, attempts: 117, passRate: rate(63, 117), medianScore: 90, position: "above95" },
+    { id: 4, code: "IN04", name: "Callum Ferrowin", site: { id: 2, code: "CLB" }, classes: 2, attempts: 30, passRate: rate(12, 30), medianScore: 83.5, expected: 12.9, z: -0.33, adjustedRate: 0.39, effectiveAttempts: 31.2, position: "inside" },
+    { id: 6, code: "IN06", name: "Desmond Quarrie", site: { id: 2, code: "CLB" }, classes: 2, attempts: 68, passRate: rate(7, 68), medianScore: 62.8333, expected: 30.1, z: -5.6, adjustedRate: 0.08, effectiveAttempts: 70.4, position: "below998" },
+    { id: 8, code: "IN08", name: "Jonah Thistlecombe", site: null, classes: 3, attempts: 117, passRate: rate(63, 117), medianScore: 90, expected: 48.2, z: 2.81, adjustedRate: 0.55, effectiveAttempts: 112.5, position: "above95" },
   ],
 });
+
+// the crude view: points at their measured rates and attempts, limits not widened
+const crude: InstructorsAnswer = {
+  ...instructors,
+  funnel: { ...instructors.funnel, adjust: "none", phi: 0.8, overdispersed: false, scale: 1 },
+  instructors: instructors.instructors.map((r) => ({ ...r, adjustedRate: r.passRate.rate, effectiveAttempts: r.attempts })),
+};
 
 const pct = (share: number) => `${(Math.round(share * 1000) / 10).toFixed(1)} %`;
 const range = (low: number, high: number) => `${(Math.round(low * 1000) / 10).toFixed(1)}–${(Math.round(high * 1000) / 10).toFixed(1)} %`;
@@ -79,22 +90,50 @@ describe("instructors", () => {
     return fakeServer({
       "GET /api/me": sessionFor("quality_lead"),
       "GET /api/insight/options": { status: 200, body: options },
-      "GET /api/insight/instructors?quarter=2026-Q4": { status: 200, body: instructors },
+      "GET /api/insight/instructors?quarter=2026-Q4&adjust=case-mix": { status: 200, body: instructors },
+      "GET /api/insight/instructors?quarter=2026-Q4&adjust=none": { status: 200, body: crude },
     });
   }
 
-  it("the funnel's table holds each instructor's attempts and rate, with the limits at that size and the position in words", async () => {
+  const funnelTitle = "Pass rate adjusted for case mix against effective attempts";
+
+  it("the funnel's table holds each instructor's attempts, adjusted rate and z, with the widened limits at that size and the position in words", async () => {
     serve();
     renderApp("/instructors?quarter=2026-Q4");
-    await screen.findByRole("heading", { name: "Pass rate against number of attempts" });
+    await screen.findByRole("heading", { name: funnelTitle });
     const words = { inside: "Expected range", below998: "Well below (99.8 % limit)", above95: "Above (95 % limit)" } as const;
-    expect(tableOf("Pass rate against number of attempts")).toEqual(
+    expect(tableOf(funnelTitle)).toEqual(
       instructors.instructors.map((r) => {
-        const inner = funnelLimits(0.42, r.attempts, { level: 0.95, method: "exact" });
-        const outer = funnelLimits(0.42, r.attempts, { level: 0.998, method: "exact" });
-        return [r.code, String(r.attempts), pct(r.passRate.rate!), range(inner.low, inner.high), range(outer.low, outer.high), words[r.position as keyof typeof words]];
+        const limits = scaledFunnelLimits(0.42, r.effectiveAttempts!, 1.2);
+        return [
+          r.code,
+          String(r.attempts),
+          r.effectiveAttempts!.toFixed(1),
+          pct(r.adjustedRate!),
+          r.z!.toFixed(2),
+          range(limits.low95, limits.high95),
+          range(limits.low998, limits.high998),
+          words[r.position as keyof typeof words],
+        ];
       }),
     );
+    // the choice is on the page, adjusted by default, and the widening is said in words
+    expect((screen.getByRole("radio", { name: /Adjusted for case mix/ }) as HTMLInputElement).checked).toBe(true);
+    expect(screen.getByText(/the same mix of patient types and feedback displays/)).toBeTruthy();
+    expect(screen.getByText(/dispersion φ = 1\.44\), so the limits are widened by √φ = 1\.20/)).toBeTruthy();
+  });
+
+  it("shows the crude comparison when asked, at measured rates and plain limits", async () => {
+    serve();
+    renderApp("/instructors?quarter=2026-Q4");
+    await screen.findByRole("heading", { name: funnelTitle });
+    fireEvent.click(screen.getByRole("radio", { name: /Not adjusted \(crude\)/ }));
+    await screen.findByRole("heading", { name: "Pass rate against number of attempts" });
+    const rows = tableOf("Pass rate against number of attempts");
+    const limits = scaledFunnelLimits(0.42, 30, 1);
+    expect(rows[0]).toEqual(["IN04", "30", pct(12 / 30), "-0.33", range(limits.low95, limits.high95), range(limits.low998, limits.high998), "Expected range"]);
+    expect(screen.getByText(/compared with the network's overall rate/)).toBeTruthy();
+    expect(screen.getByText(/dispersion φ = 0\.80\), so the limits are those of chance alone, not widened/)).toBeTruthy();
   });
 
   it("names the instructors outside the limits in words, linking to each, not by colour alone", async () => {
@@ -107,7 +146,7 @@ describe("instructors", () => {
     expect(screen.getByRole("link", { name: "IN08 · Jonah Thistlecombe" }).closest("li")!.textContent).toContain("Higher than expected (outside 95 % limit)");
     expect(screen.queryByRole("link", { name: "IN04 · Callum Ferrowin" })).toBeNull();
     // in the plot itself, points outside the limits carry their code as a label; points inside do not
-    const plot = screen.getByRole("img", { name: "Pass rate against number of attempts" });
+    const plot = screen.getByRole("img", { name: funnelTitle });
     const labels = [...plot.querySelectorAll("text")].map((t) => t.textContent);
     expect(labels).toContain("IN06");
     expect(labels).toContain("IN08");
@@ -119,7 +158,7 @@ describe("instructors", () => {
     renderApp("/instructors?quarter=2026-Q4");
     const table = await screen.findByRole("table", { name: "Instructors" });
     const rows = within(table).getAllByRole("row").slice(1).map((row) => within(row).getAllByRole("cell").map((c) => c.textContent));
-    expect(rows[1]).toEqual(["IN06", "Desmond Quarrie", "CLB", "2", "68", "10.3 %", range(rate(7, 68).low!, rate(7, 68).high!), "62.8", "Well below (99.8 % limit)"]);
+    expect(rows[1]).toEqual(["IN06", "Desmond Quarrie", "CLB", "2", "68", "10.3 %", range(rate(7, 68).low!, rate(7, 68).high!), "62.8", "30.1", "-5.60", "Well below (99.8 % limit)"]);
     expect(within(table).getByRole("link", { name: "IN04" }).getAttribute("href")).toBe("/instructors/4?quarter=2026-Q4");
     // sortable: attempts, largest first after two clicks
     fireEvent.click(within(table).getByRole("button", { name: "Attempts" }));
@@ -150,7 +189,7 @@ describe("one instructor", () => {
     learnerOutcomes: { measured: 600, firstAttempt: rate(240, 600), everPassed: rate(250, 600) },
     recordedCompletion: rate(158, 262),
     agreement: { pairs: 0, table: [[0, 0], [0, 0]], observed: null, expected: null, kappa: null, suppressed: false },
-    medianScore: 83, series: { centre: 0.3, runChart: null, points: [point("2026-Q2", 325, 859), point("2026-Q3", 326, 855), point("2026-Q4", 259, 615)] },
+    medianScore: 83, series: { centre: 0.3, baseline: { from: "2025-Q4", to: "2026-Q3", source: "default", attempts: 3200 }, limits: "binomial", sigmaZ: null, runChart: null, points: [point("2026-Q2", 325, 859), point("2026-Q3", 326, 855), point("2026-Q4", 259, 615)] },
     errors: { attempts: 615, rows: [], suppressed: false }, feedback: [],
   });
 
@@ -160,9 +199,13 @@ describe("one instructor", () => {
       "GET /api/insight/options": { status: 200, body: options },
       "GET /api/insight/instructors/6?quarter=2026-Q4": { status: 200, body: detail },
       "GET /api/insight/overview?quarter=2026-Q4": { status: 200, body: network },
+      "GET /api/insight/instructors?quarter=2026-Q4&adjust=case-mix": { status: 200, body: instructors },
     });
     renderApp("/instructors/6?quarter=2026-Q4");
     expect(await screen.findByRole("heading", { name: "IN06 · Desmond Quarrie", level: 1 })).toBeTruthy();
+    // the funnel position is the instructors page's, with the comparison it was made by
+    expect(await screen.findByText("(network 42.0 %; adjusted for case mix).")).toBeTruthy();
+    expect(screen.getByText("Well below the network (outside 99.8 % limit)")).toBeTruthy();
     await screen.findByRole("heading", { name: "Pass rate by quarter" });
     const rows = tableOf("Pass rate by quarter");
     expect(rows).toEqual([

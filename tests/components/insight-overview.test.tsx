@@ -52,6 +52,9 @@ const overview: OverviewAnswer = overviewAnswerSchema.parse({
   medianScore: 83.3333,
   series: {
     centre: 0.2719,
+    baseline: { from: "2025-Q4", to: "2026-Q3", source: "default", attempts: 3640 },
+    limits: "binomial",
+    sigmaZ: null,
     // 25.7 %, 25.5 %, 29.5 %: around the median 25.7 % one point below, one above (Anhøj limits for 2 points: run 4, crossings 0)
     runChart: { median: 0.2568, useful: 2, run: 1, longestRun: 4, crossings: 1, fewestCrossings: 0, shift: false },
     points: [
@@ -211,6 +214,28 @@ describe("network overview", () => {
     ]);
   });
 
+  it("states the chart's baseline and offers Laney's limits for quarters with many attempts", async () => {
+    const laney = structuredClone(overview);
+    laney.series = { ...laney.series, limits: "laney", sigmaZ: 1.84, baseline: { from: "2025-Q4", to: "2026-Q1", source: "setting", attempts: 1205 } };
+    fakeServer({
+      "GET /api/me": sessionFor("coordinator"),
+      "GET /api/insight/options": { status: 200, body: options },
+      "GET /api/insight/overview?quarter=2026-Q3": { status: 200, body: overview },
+      "GET /api/insight/overview?quarter=2026-Q3&limits=laney": { status: 200, body: laney },
+    });
+    renderApp("/overview?quarter=2026-Q3");
+    await screen.findByRole("heading", { name: "Measured pass rate by quarter" });
+    expect(
+      screen.getByText(
+        "Centre line from 2025 Q4 to 2026 Q3 (the first four quarters with attempts (a coordinator can choose others in Settings), 3,640 attempts): later quarters are judged against it and never move it. Limits are 3 standard errors of each quarter's number of attempts.",
+      ),
+    ).toBeTruthy();
+    // quarters of 666–1,392 attempts: Laney's p′ is offered
+    fireEvent.click(screen.getByRole("checkbox", { name: "Widen the limits for large quarters (Laney's p′ chart)" }));
+    expect(await screen.findByText(/Centre line from 2025 Q4 to 2026 Q1 \(the baseline a coordinator chose in Settings, 1,205 attempts\)/)).toBeTruthy();
+    expect(screen.getByText(/widened by Laney's factor σ_z = 1\.84/)).toBeTruthy();
+  });
+
   it("marks a quarter outside the control limits in the description and the table", async () => {
     const outside = structuredClone(overview);
     outside.series.points[2] = { ...outside.series.points[2], rate: 0.34, outside: true };
@@ -236,6 +261,7 @@ describe("network overview", () => {
       agreement: { pairs: null, table: null, observed: null, expected: null, kappa: null, suppressed: true },
       medianScore: null,
       series: {
+        ...overview.series,
         centre: 0.2719,
         runChart: null,
         points: [

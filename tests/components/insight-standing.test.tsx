@@ -4,7 +4,7 @@
 import { cleanup, configure, fireEvent, screen, within } from "@testing-library/react";
 import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
 import { optionsAnswerSchema, standingAnswerSchema, type StandingAnswer } from "../../shared/schemas/insight";
-import { funnelLimits } from "../../shared/stats";
+import { scaledFunnelLimits } from "../../shared/stats";
 import { renderApp } from "./renderApp";
 import { fakeServer, sessionFor } from "./testServer";
 
@@ -36,11 +36,17 @@ const standing: StandingAnswer = standingAnswerSchema.parse({
   suppressionMinCount: 5,
   attempts: 37,
   metrics: [
-    { key: "score", mine: 86.3333, network: 83.3333, percentileRank: 87.5 },
-    { key: "depth_ok_pct", mine: 80, network: 82, percentileRank: 37.5 },
-    { key: "rate_ok_pct", mine: 91, network: 85.2814, percentileRank: 87.5 },
-    { key: "recoil_ok_pct", mine: 100, network: 100, percentileRank: 62.5 },
-    { key: "hands_on_pct", mine: 100, network: 100, percentileRank: 54.1667 },
+    { key: "score", mine: 86.3333, network: 83.3333, percentileRank: 87.5, ceiling: null },
+    { key: "depth_ok_pct", mine: 80, network: 82, percentileRank: 37.5, ceiling: null },
+    { key: "rate_ok_pct", mine: 91, network: 85.2814, percentileRank: 87.5, ceiling: null },
+    {
+      key: "recoil_ok_pct", mine: 100, network: 100, percentileRank: 62.5,
+      ceiling: { mine: { shareAtCeiling: 0.7297, p10: 88 }, network: { shareAtCeiling: 0.6812, p10: 84.5 } },
+    },
+    {
+      key: "hands_on_pct", mine: 100, network: 100, percentileRank: 54.1667,
+      ceiling: { mine: { shareAtCeiling: 0.6486, p10: 90 }, network: { shareAtCeiling: 0.6705, p10: 91 } },
+    },
   ],
   spread: {
     minAttempts: 5,
@@ -54,13 +60,17 @@ const standing: StandingAnswer = standingAnswerSchema.parse({
   },
   funnel: {
     networkRate: 0.4211,
-    method: "exact",
+    method: "normal",
+    adjust: "case-mix",
+    phi: 0.9,
+    overdispersed: false,
+    scale: 1,
     curve: [
       { n: 1, low95: 0, high95: 0.94, low998: 0, high998: 0.998 },
       { n: 40, low95: 0.275, high95: 0.575, low998: 0.2, high998: 0.65 },
       { n: 117, low95: 0.33, high95: 0.51, low998: 0.28, high998: 0.56 },
     ],
-    me: { successes: 20, n: 37, rate: 20 / 37, low: 0.3838, high: 0.6896, suppressed: false, position: "inside" },
+    me: { successes: 20, n: 37, rate: 20 / 37, low: 0.3838, high: 0.6896, suppressed: false, expected: 16.1, z: 1.32, adjustedRate: 0.5265, effectiveAttempts: 38.4, position: "inside" },
   },
   errorProfile: {
     networkSuppressed: false,
@@ -81,7 +91,7 @@ function serve(answer: StandingAnswer) {
   return fakeServer({
     "GET /api/me": sessionFor("instructor"),
     "GET /api/insight/options": { status: 200, body: options },
-    "GET /api/insight/standing?quarter=2026-Q4": { status: 200, body: answer },
+    "GET /api/insight/standing?quarter=2026-Q4&adjust=case-mix": { status: 200, body: answer },
   });
 }
 
@@ -108,14 +118,24 @@ describe("my standing", () => {
     const score = metricCard("Score");
     expect(within(score).getByText("86.3")).toBeTruthy();
     expect(score.textContent).toContain("Network: 83.3");
-    expect(score.textContent).toContain("88th percentile of 4 instructors: among the highest.");
+    expect(score.textContent).toContain("88th percentile of 4 instructors, on the same patient types and displays: among the highest.");
     const depth = metricCard("Depth");
     expect(within(depth).getByText("80.0 %")).toBeTruthy();
     expect(depth.textContent).toContain("Network: 82.0 %");
     // 80 % against 82 %: two points from the network's median reads as about the same, whatever the rank
-    expect(depth.textContent).toContain("38th percentile of 4 instructors, but within 3 points of the network's median: about the same as the network.");
+    expect(depth.textContent).toContain(
+      "38th percentile of 4 instructors, on the same patient types and displays, but within 3 points of the network's median: about the same as the network.",
+    );
     const rate = metricCard("Rate");
-    expect(rate.textContent).toContain("88th percentile of 4 instructors: among the highest.");
+    expect(rate.textContent).toContain("88th percentile of 4 instructors, on the same patient types and displays: among the highest.");
+    // recoil sits at 100 % for most attempts: the share at 100 % and the 10th percentile replace the medians
+    const recoil = metricCard("Release (recoil)");
+    expect(within(recoil).getByText("73.0 %")).toBeTruthy();
+    expect(recoil.textContent).toContain("of your attempts at 100 %");
+    expect(recoil.textContent).toContain("Network: 68.1 %");
+    expect(recoil.textContent).toContain("Weakest tenth below: you 88.0 %, network 84.5 %");
+    expect(recoil.textContent).toContain("(ranked by the share at 100 %)");
+    expect(recoil.textContent).not.toContain("Network: 100");
   });
 
   it("the spread's table lists every instructor's point, me as 'You' and others without names", async () => {
@@ -128,14 +148,16 @@ describe("my standing", () => {
     expect(screen.getByText(/1 instructor is left out \(fewer than 5 attempts, or too few instructors to show\)/)).toBeTruthy();
   });
 
-  it("the funnel's table holds my attempts, my rate and the limits at my number of attempts", async () => {
+  it("the funnel's table holds my attempts, my adjusted rate and the limits at my effective number of attempts", async () => {
     serve(standing);
     renderApp("/my-standing?quarter=2026-Q4");
     await screen.findByRole("heading", { name: "Your pass rate on the network funnel" });
-    const inner = funnelLimits(0.4211, 37, { level: 0.95, method: "exact" });
-    const outer = funnelLimits(0.4211, 37, { level: 0.998, method: "exact" });
-    const range = (l: { low: number; high: number }) => `${(Math.round(l.low * 1000) / 10).toFixed(1)}–${(Math.round(l.high * 1000) / 10).toFixed(1)} %`;
-    expect(tableOf("Your pass rate on the network funnel")).toEqual([["You", "37", pct(20 / 37), range(inner), range(outer), "Expected range"]]);
+    const limits = scaledFunnelLimits(0.4211, 38.4, 1);
+    const range = (low: number, high: number) => `${(Math.round(low * 1000) / 10).toFixed(1)}–${(Math.round(high * 1000) / 10).toFixed(1)} %`;
+    expect(tableOf("Your pass rate on the network funnel")).toEqual([
+      ["You", "37", "38.4", pct(0.5265), "1.32", range(limits.low95, limits.high95), range(limits.low998, limits.high998), "Expected range"],
+    ]);
+    expect(screen.getByText(/dispersion φ = 0\.90\), so the limits are those of chance alone, not widened/)).toBeTruthy();
   });
 
   it("the error profile's table holds my share and the network's for each error", async () => {
@@ -151,7 +173,7 @@ describe("my standing", () => {
     fakeServer({
       "GET /api/me": sessionFor("instructor"),
       "GET /api/insight/options": { status: 200, body: options },
-      "GET /api/insight/standing?quarter=2026-Q4&feedback=hidden": { status: 200, body: standing },
+      "GET /api/insight/standing?quarter=2026-Q4&feedback=hidden&adjust=case-mix": { status: 200, body: standing },
     });
     renderApp("/my-standing?quarter=2026-Q4&feedback=hidden");
     const nav = await screen.findByRole("navigation", { name: "Open your attempts with an error" });
@@ -181,7 +203,7 @@ describe("my standing", () => {
     const hidden: StandingAnswer = {
       ...standing,
       suppressionMinCount: 8,
-      metrics: standing.metrics.map((m) => ({ ...m, network: null, percentileRank: null })),
+      metrics: standing.metrics.map((m) => ({ ...m, network: null, percentileRank: null, ceiling: m.ceiling && { ...m.ceiling, network: null } })),
       spread: { ...standing.spread, points: standing.spread.points.filter((p) => p.isMe) },
       funnel: { ...standing.funnel, networkRate: null, curve: [], me: { ...standing.funnel.me, position: null } },
       errorProfile: { networkSuppressed: true, rows: standing.errorProfile.rows.map((r) => ({ ...r, network: null })) },
@@ -191,7 +213,8 @@ describe("my standing", () => {
     await screen.findByRole("heading", { name: "IN03 · Ilse Pendrake, 2026 Q4" });
     for (const label of ["Score", "Depth", "Rate", "Release (recoil)", "Hands-on time"]) {
       const card = metricCard(label);
-      expect(within(card).getByText("too few to show")).toBeTruthy();
+      // the ceiling cards name it twice: for the share at 100 % and for the 10th percentile
+      expect(within(card).getAllByText("too few to show").length).toBeGreaterThan(0);
       expect(card.textContent).not.toMatch(/Network: 0/);
     }
     expect(screen.getByText(/The network's figures are hidden for these filters/)).toBeTruthy();

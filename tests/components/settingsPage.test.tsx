@@ -19,15 +19,20 @@ const coordinatorInInches: FakeAnswer = {
 };
 const version1 = { version: 1, policy: DEFAULT_POLICY, note: "Project defaults", createdAt: "2026-01-05T09:00:00.000Z" };
 
+/** The policy and its versions, as every test of the page needs them. */
+const policyPages = {
+  "GET /api/me": coordinatorInInches,
+  "GET /api/settings/policy": {
+    status: 200,
+    body: { current: version1, defaults: DEFAULT_POLICY, fieldSources: POLICY_FIELD_SOURCES, sources: GUIDELINE_SOURCES, safetyNote: SAFETY_NOTE },
+  },
+  "GET /api/settings/policy/versions": { status: 200, body: { versions: [version1] } },
+};
+
 describe("settings page", { timeout: 30_000 }, () => {
   it("saves depths typed in inches as millimetres, as a new version", async () => {
     const server = fakeServer({
-      "GET /api/me": coordinatorInInches,
-      "GET /api/settings/policy": {
-        status: 200,
-        body: { current: version1, defaults: DEFAULT_POLICY, fieldSources: POLICY_FIELD_SOURCES, sources: GUIDELINE_SOURCES, safetyNote: SAFETY_NOTE },
-      },
-      "GET /api/settings/policy/versions": { status: 200, body: { versions: [version1] } },
+      ...policyPages,
       "GET /api/insight/options": { status: 200, body: { quarters: [], sites: [], patientTypes: [], feedbackModes: [], errors: [], instructors: [], manikins: [] } },
       "PUT /api/settings/policy": (init) => ({ status: 200, body: { ...version1, version: 2, ...JSON.parse(String(init?.body)) } }),
     });
@@ -48,5 +53,27 @@ describe("settings page", { timeout: 30_000 }, () => {
     expect(body.policy.bands.child).toEqual(DEFAULT_POLICY.bands.child);
     expect(body.note).toBe("Wider adult band for the trial");
     expect(await screen.findByText(/Saved as version 2/)).toBeTruthy();
+  });
+
+  it("shows the control chart's baseline and lets the coordinator choose other quarters", async () => {
+    const server = fakeServer({
+      ...policyPages,
+      "GET /api/settings/chart-baseline": { status: 200, body: { from: "2025-Q1", to: "2025-Q4", source: "default" } },
+      "GET /api/insight/options": {
+        status: 200,
+        body: { quarters: ["2026-Q2", "2026-Q1", "2025-Q4", "2025-Q3", "2025-Q2", "2025-Q1"], sites: [], patientTypes: [], feedbackModes: [], errors: [], instructors: [], manikins: [] },
+      },
+      "PUT /api/settings/chart-baseline": (init) => ({ status: 200, body: { ...JSON.parse(String(init?.body)).baseline, source: "setting" } }),
+    });
+    renderApp("/settings");
+    expect(await screen.findByText("In use: 2025 Q1 to 2025 Q4, the first four quarters with attempts (the default).", {}, { timeout: 10_000 })).toBeTruthy();
+    const section = screen.getByRole("heading", { name: "Control chart baseline" }).closest("section")!;
+    fireEvent.change(within(section).getByLabelText("Last baseline quarter"), { target: { value: "2025-Q2" } });
+    fireEvent.change(within(section).getByLabelText("First baseline quarter"), { target: { value: "2025-Q3" } });
+    expect(within(section).getByText("The last quarter must not come before the first")).toBeTruthy();
+    fireEvent.change(within(section).getByLabelText("First baseline quarter"), { target: { value: "2025-Q1" } });
+    fireEvent.click(within(section).getByRole("button", { name: "Use these quarters" }));
+    await waitFor(() => expect(server.requests.some((r) => r.method === "PUT" && r.path === "/api/settings/chart-baseline")).toBe(true));
+    expect(server.requests.find((r) => r.method === "PUT")!.body).toEqual({ baseline: { from: "2025-Q1", to: "2025-Q2" } });
   });
 });

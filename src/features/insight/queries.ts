@@ -24,6 +24,10 @@ export interface ApiFilters {
   feedback?: string;
   instructor?: string;
   manikin?: string;
+  /** How instructors are compared (instructors and standing only): `case-mix` or `none`. */
+  adjust?: string;
+  /** The overview p-chart's limits: `laney` for Laney's p′ (plain binomial when absent). */
+  limits?: string;
 }
 
 export const insightQueries = {

@@ -1,6 +1,7 @@
 import { queryOptions } from "@tanstack/react-query";
 import type { z } from "zod";
 import { policySettingsAnswerSchema, policyVersionSchema, policyVersionsAnswerSchema } from "../../../shared/schemas/policySettings";
+import { chartBaselineSchema } from "../../../shared/schemas/chartSettings";
 import { getParsed } from "../../api/getParsed";
 
 export type PolicyVersionRow = z.infer<typeof policyVersionSchema>;
@@ -16,5 +17,10 @@ export const settingsQueries = {
     queryOptions({
       queryKey: [...settingsQueries.all(), "versions"] as const,
       queryFn: async ({ signal }) => (await getParsed(policyVersionsAnswerSchema, "/api/settings/policy/versions", signal)).versions,
+    }),
+  chartBaseline: () =>
+    queryOptions({
+      queryKey: [...settingsQueries.all(), "chart-baseline"] as const,
+      queryFn: ({ signal }) => getParsed(chartBaselineSchema, "/api/settings/chart-baseline", signal),
     }),
 };

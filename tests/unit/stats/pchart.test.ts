@@ -47,7 +47,7 @@ describe("pChart", () => {
   });
 
   it("handles empty samples and an empty chart without NaN", () => {
-    expect(pChart([])).toEqual({ centre: null, points: [] });
+    expect(pChart([])).toEqual({ centre: null, sigmaZ: null, points: [] });
     const chart = pChart([
       { n: 0, count: 0 },
       { n: 10, count: 3 },
@@ -59,5 +59,40 @@ describe("pChart", () => {
 
   it("rejects counts above n with the sample number", () => {
     expect(() => pChart([{ n: 10, count: 2 }, { n: 5, count: 6 }])).toThrow(/sample 2/);
+  });
+  it("takes centre and limits from a stated baseline, so later samples never move their own centre line", () => {
+    // Montgomery's revised limits (samples 15 and 23 removed) as the baseline: centre 0.215, LCL 0.04070284,
+    // UCL 0.3892972 at n = 50. New samples judged against it, worked by hand: 21/50 = 0.42 is above the UCL.
+    const baseline = canSamples.filter((_, index) => index !== 14 && index !== 22);
+    const judged = [{ n: 50, count: 9 }, { n: 50, count: 21 }];
+    const chart = pChart(judged, { baseline });
+    expect(chart.centre).toBeCloseTo(0.215, 10);
+    expect(chart.points[0].lcl).toBeCloseTo(0.04070284, 8);
+    expect(chart.points[0].ucl).toBeCloseTo(0.3892972, 7);
+    expect(chart.points.map((point) => point.outside)).toEqual([false, true]);
+    // another quarter arriving changes nothing for the ones before
+    const later = pChart([...judged, { n: 50, count: 2 }], { baseline });
+    expect(later.centre).toBe(chart.centre);
+    expect(later.points.slice(0, 2)).toEqual(chart.points);
+  });
+
+  it("widens the limits by Laney's σ_z from the baseline's moving ranges (Laney 2002)", () => {
+    // worked by hand: counts 10, 20, 10, 20 of 100 → p̄ = 0.15, σ_p = √(0.15·0.85/100) = 0.0357071;
+    // z = ∓1.40028, every moving range 2.80056, σ_z = 2.80056 / 1.128 = 2.48277; limits 0.15 ± 3·0.0357071·2.48277
+    // = 0.15 ± 0.265957 → 0 (clamped) and 0.415957, against 0.042879 and 0.257121 without Laney's factor
+    const samples = [10, 20, 10, 20].map((count) => ({ n: 100, count }));
+    const laney = pChart(samples, { laney: true });
+    expect(laney.sigmaZ).toBeCloseTo(2.48277, 5);
+    expect(laney.points[0].lcl).toBe(0);
+    expect(laney.points[0].ucl).toBeCloseTo(0.415957, 5);
+    const plain = pChart(samples);
+    expect(plain.sigmaZ).toBeNull();
+    expect(plain.points[0].lcl).toBeCloseTo(0.042879, 5);
+    expect(plain.points[0].ucl).toBeCloseTo(0.257121, 5);
+  });
+
+  it("keeps plain limits when the baseline has too few samples to estimate σ_z", () => {
+    expect(pChart([{ n: 100, count: 10 }], { laney: true }).sigmaZ).toBeNull();
+    expect(() => pChart([{ n: 10, count: 2 }], { baseline: [{ n: 5, count: 6 }] })).toThrow(/baseline sample 1/);
   });
 });

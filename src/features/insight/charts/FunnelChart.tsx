@@ -1,17 +1,18 @@
 // Funnel plot: each pass rate against its number of attempts, inside limits that narrow as the number grows
-// (exact binomial 95 % and 99.8 % limits around the network rate). A small group far from the network rate
-// can be chance; a large one cannot. Points outside the limits get a triangle (up or down) and their label,
-// so the reading never depends on colour.
+// (95 % and 99.8 % limits around the network rate, widened by √φ when instructors are overdispersed). A small
+// group far from the network rate can be chance; a large one cannot. Adjusted for case mix, each point sits at
+// its adjusted rate and effective number of attempts, where the limits give its own z-score. Points outside
+// the limits get a triangle (up or down) and their label, so the reading never depends on colour.
 import * as Plot from "@observablehq/plot";
 import { useCallback } from "react";
 import type { z } from "zod";
 import type { funnelCurvePointSchema } from "../../../../shared/schemas/insight";
-import { funnelLimits } from "../../../../shared/stats";
+import { scaledFunnelLimits } from "../../../../shared/stats";
 import { Chart, type ChartSize } from "../../../components/Chart";
 import type { Column } from "../../../components/DataTable";
 import { ChartLegend, lineSwatch, shapeSwatch } from "../ChartLegend";
 import { ink, percentTick } from "../chartStyle";
-import { formatCount, formatInterval, formatPercent, funnelPositionShort, funnelPositionText, percentValue, type FunnelPosition } from "../format";
+import { formatCount, formatFixed, formatInterval, formatPercent, funnelPositionShort, funnelPositionText, percentValue, roundTo, type FunnelPosition } from "../format";
 
 export type FunnelCurvePoint = z.infer<typeof funnelCurvePointSchema>;
 
@@ -19,9 +20,15 @@ export interface FunnelUnit {
   key: string | number;
   /** Shown beside points outside the limits and in the table (an instructor code, or "You"). */
   label: string;
+  /** Where the point sits along the funnel: its attempts, or its effective attempts when adjusted. */
   n: number;
+  /** Attempts measured (shown in the table when n is an effective number). */
+  attempts: number;
   successes: number;
+  /** The rate drawn: as measured, or adjusted for case mix. */
   rate: number;
+  /** (observed − expected) / √variance; null when nothing could vary. */
+  z: number | null;
   position: FunnelPosition | null;
   /** The viewer's own point: drawn as a star and always labelled. */
   isMe?: boolean;
@@ -32,19 +39,21 @@ const above = (u: FunnelUnit) => u.position === "above95" || u.position === "abo
 const outer = (u: FunnelUnit) => u.position === "above998" || u.position === "below998";
 
 /** The limits at this unit's own number of attempts (the table states them; the curve is sampled). */
-export function limitsAt(networkRate: number, n: number) {
-  return {
-    inner: funnelLimits(networkRate, n, { level: 0.95, method: "exact" }),
-    outer: funnelLimits(networkRate, n, { level: 0.998, method: "exact" }),
-  };
+export function limitsAt(networkRate: number, n: number, scale = 1) {
+  const limits = scaledFunnelLimits(networkRate, n, scale);
+  return { inner: { low: limits.low95, high: limits.high95 }, outer: { low: limits.low998, high: limits.high998 } };
 }
 
-export function describeFunnel(units: readonly FunnelUnit[], networkRate: number | null, subject: string): string {
+export function describeFunnel(units: readonly FunnelUnit[], networkRate: number | null, subject: string, adjusted = false): string {
   if (networkRate === null) return "The network rate is not available, so no limits can be drawn.";
   const out = units.filter(outside);
   const me = units.find((u) => u.isMe);
-  const parts = [`Pass rate against number of attempts for ${subject}, with limits around the network rate of ${formatPercent(networkRate)}.`];
-  if (me) parts.push(`Your pass rate is ${formatPercent(me.rate)} over ${formatCount(me.n)} attempts: ${funnelPositionText(me.position).toLowerCase()}.`);
+  const parts = [
+    adjusted
+      ? `Pass rate adjusted for case mix against effective number of attempts for ${subject}, with limits around the network rate of ${formatPercent(networkRate)}.`
+      : `Pass rate against number of attempts for ${subject}, with limits around the network rate of ${formatPercent(networkRate)}.`,
+  ];
+  if (me) parts.push(`Your pass rate is ${formatPercent(me.rate)} over ${formatCount(me.attempts)} attempts: ${funnelPositionText(me.position).toLowerCase()}.`);
   if (!me || units.length > 1) {
     if (out.length === 0) parts.push("Every point is inside the 95 % limits: differences are within what chance gives.");
     else parts.push(`Outside the limits: ${out.map((u) => `${u.label}, ${funnelPositionShort[u.position!].toLowerCase()}`).join("; ")}.`);
@@ -52,12 +61,16 @@ export function describeFunnel(units: readonly FunnelUnit[], networkRate: number
   return parts.join(" ");
 }
 
-export function funnelColumns(networkRate: number | null, unitHeader: string): Column<FunnelUnit>[] {
-  const limits = (u: FunnelUnit) => (networkRate === null ? null : limitsAt(networkRate, u.n));
+export function funnelColumns(networkRate: number | null, unitHeader: string, scale = 1, adjusted = false): Column<FunnelUnit>[] {
+  const limits = (u: FunnelUnit) => (networkRate === null ? null : limitsAt(networkRate, u.n, scale));
   return [
     { key: "label", header: unitHeader, value: (u) => u.label },
-    { key: "n", header: "Attempts", value: (u) => u.n, render: (u) => formatCount(u.n), align: "right" },
-    { key: "rate", header: "Pass rate (%)", value: (u) => percentValue(u.rate), render: (u) => formatPercent(u.rate), align: "right" },
+    { key: "attempts", header: "Attempts", value: (u) => u.attempts, render: (u) => formatCount(u.attempts), align: "right" },
+    ...(adjusted
+      ? [{ key: "n", header: "Effective attempts", value: (u: FunnelUnit) => roundTo(u.n, 1), render: (u: FunnelUnit) => formatFixed(u.n, 1), align: "right" as const }]
+      : []),
+    { key: "rate", header: adjusted ? "Adjusted pass rate (%)" : "Pass rate (%)", value: (u) => percentValue(u.rate), render: (u) => formatPercent(u.rate), align: "right" },
+    { key: "z", header: "z-score", value: (u) => (u.z === null ? null : roundTo(u.z, 2)), render: (u) => (u.z === null ? "–" : formatFixed(u.z, 2)), align: "right" },
     { key: "inner", header: "95 % limits here", value: (u) => { const l = limits(u); return l ? formatInterval(l.inner.low, l.inner.high) : null; }, sortable: false, align: "right" },
     { key: "outer", header: "99.8 % limits here", value: (u) => { const l = limits(u); return l ? formatInterval(l.outer.low, l.outer.high) : null; }, sortable: false, align: "right" },
     {
@@ -89,13 +102,17 @@ export interface FunnelChartProps {
   units: readonly FunnelUnit[];
   curve: readonly FunnelCurvePoint[];
   networkRate: number | null;
+  /** What the limits were multiplied by (√φ when overdispersed, else 1). */
+  scale: number;
+  /** Points at adjusted rates and effective attempts (case mix) rather than as measured. */
+  adjusted: boolean;
   /** "instructors", "your attempts": used in the description. */
   subject: string;
   unitHeader: string;
   exportFileName: string;
 }
 
-export function FunnelChart({ title, units, curve, networkRate, subject, unitHeader, exportFileName }: FunnelChartProps) {
+export function FunnelChart({ title, units, curve, networkRate, scale, adjusted, subject, unitHeader, exportFileName }: FunnelChartProps) {
   const plot = useCallback(
     (rows: readonly FunnelUnit[], { width }: ChartSize): Plot.PlotOptions => {
       const nMax = Math.max(10, ...rows.map((u) => u.n), ...curve.map((c) => c.n));
@@ -110,8 +127,8 @@ export function FunnelChart({ title, units, curve, networkRate, subject, unitHea
         marginRight: 44,
         marginTop: 20,
         marginBottom: 44,
-        x: { domain: [0, Math.ceil(nMax * 1.08)], label: "Number of attempts", labelAnchor: "center", labelOffset: 38, grid: true, ticks: width < 420 ? 4 : 8 },
-        y: { domain: [0, 1], tickFormat: percentTick, label: "Measured pass rate", grid: true },
+        x: { domain: [0, Math.ceil(nMax * 1.08)], label: adjusted ? "Effective number of attempts" : "Number of attempts", labelAnchor: "center", labelOffset: 38, grid: true, ticks: width < 420 ? 4 : 8 },
+        y: { domain: [0, 1], tickFormat: percentTick, label: adjusted ? "Pass rate adjusted for case mix" : "Measured pass rate", grid: true },
         marks: [
           Plot.line(curve, { x: "n", y: "high998", stroke: ink.limit, strokeWidth: 1.5 }),
           Plot.line(curve, { x: "n", y: "low998", stroke: ink.limit, strokeWidth: 1.5 }),
@@ -127,7 +144,7 @@ export function FunnelChart({ title, units, curve, networkRate, subject, unitHea
             fill: (u: FunnelUnit) => (outer(u) ? colourOf(u) : "white"),
             stroke: colourOf,
             strokeWidth: 2,
-            title: (u: FunnelUnit) => `${u.label}: ${formatPercent(u.rate)} of ${u.n} attempts — ${funnelPositionText(u.position)}`,
+            title: (u: FunnelUnit) => `${u.label}: ${formatPercent(u.rate)}${adjusted ? " adjusted" : ""}, ${u.attempts} attempts — ${funnelPositionText(u.position)}`,
           }),
           Plot.text(labelled, { x: "n", y: "rate", text: "label", dx: 10, textAnchor: "start", fill: ink.text, fontWeight: 600, stroke: "white", strokeWidth: 3, paintOrder: "stroke" } as Plot.TextOptions),
           Plot.dot(me, { x: "n", y: "rate", symbol: "star", r: 9, fill: ink.accent, stroke: ink.text, strokeWidth: 1.5 }),
@@ -135,7 +152,7 @@ export function FunnelChart({ title, units, curve, networkRate, subject, unitHea
         ],
       };
     },
-    [curve, networkRate],
+    [curve, networkRate, adjusted],
   );
 
   const hasMe = units.some((u) => u.isMe);
@@ -143,9 +160,9 @@ export function FunnelChart({ title, units, curve, networkRate, subject, unitHea
   return (
     <Chart
       title={title}
-      description={describeFunnel(units, networkRate, subject)}
+      description={describeFunnel(units, networkRate, subject, adjusted)}
       data={units}
-      columns={funnelColumns(networkRate, unitHeader)}
+      columns={funnelColumns(networkRate, unitHeader, scale, adjusted)}
       rowKey={(u) => u.key}
       plot={plot}
       exportFileName={exportFileName}
@@ -153,8 +170,8 @@ export function FunnelChart({ title, units, curve, networkRate, subject, unitHea
         <ChartLegend
           items={[
             { label: "Network rate", swatch: lineSwatch(ink.main) },
-            { label: "95 % limits", swatch: lineSwatch(ink.limit, "5 4", 1.5) },
-            { label: "99.8 % limits", swatch: lineSwatch(ink.limit, undefined, 1.5) },
+            { label: scale > 1 ? "95 % limits, widened" : "95 % limits", swatch: lineSwatch(ink.limit, "5 4", 1.5) },
+            { label: scale > 1 ? "99.8 % limits, widened" : "99.8 % limits", swatch: lineSwatch(ink.limit, undefined, 1.5) },
             ...(hasMe ? [{ label: "You", swatch: shapeSwatch("star", ink.accent, ink.text) }] : []),
             ...(hasOthers
               ? [

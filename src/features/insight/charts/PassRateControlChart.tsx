@@ -1,5 +1,6 @@
 // The measured pass rate per quarter as a p-chart: the centre line (all passes over all attempts of the
-// series) and 3-sigma control limits for each quarter's number of attempts. A quarter outside the limits is
+// baseline quarters) and 3-sigma control limits for each quarter's number of attempts (widened by Laney's σ_z
+// when asked). A quarter outside the limits is
 // drawn as a diamond and labelled, so it stands out without colour.
 import * as Plot from "@observablehq/plot";
 import { useCallback } from "react";
@@ -28,7 +29,7 @@ export function describeSeries(series: PassRateSeries): string {
   const last = series.points[series.points.length - 1];
   const outside = shown.filter((p) => p.outside);
   const parts = [
-    `Measured pass rate each quarter from ${quarterLabel(first)} to ${quarterLabel(last.quarter)}, around a centre line of ${formatPercent(series.centre)}.`,
+    `Measured pass rate each quarter from ${quarterLabel(first)} to ${quarterLabel(last.quarter)}, around a centre line of ${formatPercent(series.centre)} from the baseline quarters.`,
   ];
   if (last.rate !== null) parts.push(`The latest quarter is at ${formatPercent(last.rate)}.`);
   if (outside.length === 0) {

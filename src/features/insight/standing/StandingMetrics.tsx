@@ -31,14 +31,36 @@ export function ordinal(n: number): string {
 export const CLOSE_TO_NETWORK_POINTS = 3;
 
 /** Words for my standing that follow the size of my difference from the network first and my rank second. */
-export function percentileSentence(rank: number | null, instructors: number, difference: number | null): string {
+export function percentileSentence(rank: number | null, instructors: number, difference: number | null, adjusted = false): string {
   if (rank === null || instructors < 2) return "No rank: no other instructor has enough attempts to compare with.";
   const rounded = Math.round(rank);
+  const among = adjusted ? `${instructors} instructors, on the same patient types and displays` : `${instructors} instructors`;
   if (difference !== null && Math.abs(difference) < CLOSE_TO_NETWORK_POINTS) {
-    return `${ordinal(rounded)} percentile of ${instructors} instructors, but within ${CLOSE_TO_NETWORK_POINTS} points of the network's median: about the same as the network.`;
+    return `${ordinal(rounded)} percentile of ${among}, but within ${CLOSE_TO_NETWORK_POINTS} points of the network's median: about the same as the network.`;
   }
   const where = rounded >= 75 ? "among the highest" : rounded > 55 ? "above the middle" : rounded >= 45 ? "near the middle" : rounded > 25 ? "below the middle" : "among the lowest";
-  return `${ordinal(rounded)} percentile of ${instructors} instructors: ${where}.`;
+  return `${ordinal(rounded)} percentile of ${among}: ${where}.`;
+}
+
+/** Where most attempts reach 100 %: the share at 100 % and the 10th percentile say more than a median of 100. */
+function CeilingFigures({ metric, answer }: { metric: Metric; answer: StandingAnswer }) {
+  const ceiling = metric.ceiling!;
+  const hidden = <Suppressed minCount={answer.suppressionMinCount} />;
+  return (
+    <>
+      <p className="mt-1 flex items-baseline gap-2">
+        <span className="text-headline tabular-nums">{formatPct(ceiling.mine.shareAtCeiling === null ? null : ceiling.mine.shareAtCeiling * 100)}</span>
+        <span className="text-small text-muted">of your attempts at 100 %</span>
+      </p>
+      <p className="text-small tabular-nums">
+        Network: {ceiling.network === null ? hidden : <strong>{formatPct(ceiling.network.shareAtCeiling === null ? null : ceiling.network.shareAtCeiling * 100)}</strong>}
+      </p>
+      <p className="text-small tabular-nums">
+        Weakest tenth below: you {formatPct(ceiling.mine.p10)}, network {ceiling.network === null ? hidden : formatPct(ceiling.network.p10)}
+      </p>
+      <p className="text-caption text-muted">Most attempts reach 100 % here, so the median (100 %) would tell instructors apart by nothing.</p>
+    </>
+  );
 }
 
 export function StandingMetrics({ answer }: { answer: StandingAnswer }) {
@@ -54,6 +76,10 @@ export function StandingMetrics({ answer }: { answer: StandingAnswer }) {
           <li key={metric.key} className="flex flex-col gap-1 rounded-card border border-line bg-surface p-4 shadow-card">
             <h3 className="text-small font-semibold text-muted">{words.label}</h3>
             <p className="text-caption text-muted">{words.hint}</p>
+            {metric.ceiling ? (
+              <CeilingFigures metric={metric} answer={answer} />
+            ) : (
+              <>
             <p className="mt-1 flex items-baseline gap-2">
               <span className="text-headline tabular-nums">{formatMetric(metric.key, mine)}</span>
               <span className="text-small text-muted">you</span>
@@ -68,7 +94,14 @@ export function StandingMetrics({ answer }: { answer: StandingAnswer }) {
                 </span>
               )}
             </p>
-            <p className="mt-auto pt-1 text-caption text-ink">{networkHidden ? "No rank while the network is hidden." : percentileSentence(metric.percentileRank, instructors, diff)}</p>
+              </>
+            )}
+            <p className="mt-auto pt-1 text-caption text-ink">
+              {networkHidden
+                ? "No rank while the network is hidden."
+                : percentileSentence(metric.percentileRank, instructors, metric.ceiling ? null : diff, answer.funnel.adjust === "case-mix")}
+              {metric.ceiling && !networkHidden && metric.percentileRank !== null ? " (ranked by the share at 100 %)" : ""}
+            </p>
           </li>
         );
       })}
