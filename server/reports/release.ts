@@ -1,20 +1,12 @@
 // Releasing a stored version to the funders: from then on their report page and the API show it, and each
 // active funder gets a short notice by e-mail (one message each, so no one sees the others' addresses).
 import { periodLabel } from "../../shared/period";
-import type { ReportVersion } from "../../shared/schemas/report";
+import type { ReleaseOutcome } from "../../shared/schemas/report";
 import type { Db } from "../db/client";
 import type { Mailer, OutgoingMail } from "../mail/mailer";
 import { describeMailFailure } from "./mailFailure";
 import { funderAddresses } from "./send";
 import { findReport, markReleased, type StoredReport } from "./store";
-
-export interface ReleaseOutcome {
-  report: ReportVersion;
-  /** False when the version was already released: nothing changed and no notice went out again. */
-  released: boolean;
-  notified: string[];
-  failed: { address: string; error: string }[];
-}
 
 export function releaseNotice(report: StoredReport, to: string, reportUrl: string): OutgoingMail {
   const { data } = report;

@@ -186,6 +186,15 @@ export interface ReportVersion {
   releasedAt: string | null;
 }
 
+/** The answer to a release: the version, and which funders' notices the mail server took. */
+export interface ReleaseOutcome {
+  report: ReportVersion;
+  /** False when the version was already released: nothing changed and no notice went out again. */
+  released: boolean;
+  notified: string[];
+  failed: { address: string; error: string }[];
+}
+
 export interface ReportSendRow {
   id: number;
   reportId: number;
