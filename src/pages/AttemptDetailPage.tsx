@@ -16,7 +16,8 @@ import { TargetBadge } from "../components/TargetBadge";
 import { AttemptSummary } from "../features/attempts/AttemptSummary";
 import { CompressionCharts } from "../features/attempts/CompressionCharts";
 import { compressionSeries, type CompressionSeries } from "../features/attempts/compressionSeries";
-import { dateTime, errorLabel } from "../features/attempts/labels";
+import { errorLabel } from "../features/attempts/labels";
+import { formatDateTime, formatRecordedDateTime } from "../lib/formatting";
 import { attemptQueries } from "../features/attempts/queries";
 import { useScoringPolicy } from "../features/attempts/useScoringPolicy";
 import { backLabel, inAppPath } from "../features/attempts/returnPath";
@@ -82,12 +83,12 @@ function AttemptView({ answer }: { answer: AttemptDetailAnswer }) {
     { key: "score", header: "Score", value: (h) => Math.round(h.score), align: "right" },
     { key: "passed", header: "Result", value: (h) => (h.passed ? "Passed" : "Not passed") },
     { key: "errors", header: "Errors", value: (h) => (h.errors.length ? h.errors.map(errorLabel).join("; ") : "None"), wrap: true },
-    { key: "replacedAt", header: "Replaced on", value: (h) => h.replacedAt, render: (h) => dateTime(h.replacedAt) },
+    { key: "replacedAt", header: "Replaced on", value: (h) => h.replacedAt, render: (h) => formatDateTime(h.replacedAt) },
   ];
 
   const facts: [string, React.ReactNode][] = [
     ["Learner", <span className="font-mono">{attempt.learner}</span>],
-    ["Started", dateTime(attempt.startedAt)],
+    ["Started", formatRecordedDateTime(attempt.startedAt)],
     [
       "Class",
       <Link to={`/classes/${encodeURIComponent(attempt.classId)}`} className="text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
@@ -106,7 +107,7 @@ function AttemptView({ answer }: { answer: AttemptDetailAnswer }) {
     <>
       <PageHeader
         title={`Attempt ${attempt.id}`}
-        description={`${patientTypeNames[attempt.profile]} manikin, ${dateTime(attempt.startedAt)}. Scored under policy version ${attempt.policyVersion}.`}
+        description={`${patientTypeNames[attempt.profile]} manikin, ${formatRecordedDateTime(attempt.startedAt)}. Scored under policy version ${attempt.policyVersion}.`}
       />
       <div className="flex flex-col gap-6">
         <section aria-labelledby="result-heading" className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_minmax(0,1.4fr)]">

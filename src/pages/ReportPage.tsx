@@ -19,7 +19,8 @@ import { pdfUrl, reportQueries } from "../features/report/queries";
 import { ReportView } from "../features/report/ReportView";
 import { SendForm } from "../features/report/SendForm";
 import { SendHistory } from "../features/report/SendHistory";
-import { formatKb, formatTime, VersionsPanel } from "../features/report/VersionsPanel";
+import { formatKb, VersionsPanel } from "../features/report/VersionsPanel";
+import { formatDateTime } from "../lib/formatting";
 import "../styles/print.css";
 
 export default function ReportPage() {
@@ -127,12 +128,12 @@ function ReportForPeriod({ period, coordinator }: { period: string; coordinator:
 
   const sourceNote = showVersion ? (
     <p>
-      You are reading <strong>version {latest.version}</strong>, created {formatTime(latest.createdAt)}
+      You are reading <strong>version {latest.version}</strong>, created {formatDateTime(latest.createdAt)}
       {latest.createdBy ? ` by ${latest.createdBy}` : ""}: the same figures as its PDF.
     </p>
   ) : latest ? (
     <p>
-      You are reading <strong>today's figures</strong>. The latest stored version is {latest.version}, created {formatTime(latest.createdAt)}; imports since then may
+      You are reading <strong>today's figures</strong>. The latest stored version is {latest.version}, created {formatDateTime(latest.createdAt)}; imports since then may
       have changed some figures.
     </p>
   ) : (

@@ -4,17 +4,13 @@ import { useMutation } from "@tanstack/react-query";
 import { useState } from "react";
 import type { ReportVersion } from "../../../shared/schemas/report";
 import { Button } from "../../components/Button";
+import { formatDateTime } from "../../lib/formatting";
 import { Notice } from "../../components/Notice";
 import { errorMessage } from "../../components/States";
 import { periodLabel } from "../../../shared/period";
 import { createVersion, csvUrl, pdfUrl, releaseVersion, reportQueries } from "./queries";
 import { ReportTable } from "./ReportTable";
 
-const timeFormat = new Intl.DateTimeFormat("en-GB", { dateStyle: "medium", timeStyle: "short" });
-export const formatTime = (iso: string) => {
-  const date = new Date(iso);
-  return Number.isNaN(date.getTime()) ? iso : timeFormat.format(date);
-};
 export const formatKb = (bytes: number) => `${Math.max(1, Math.round(bytes / 1024))} kB`;
 
 export interface VersionsPanelProps {
@@ -85,20 +81,20 @@ export function VersionsPanel({ period, versions, onCreated }: VersionsPanelProp
           rowKey={(v) => String(v.id)}
           columns={[
             { header: "Version", cell: (v) => `Version ${v.version}` },
-            { header: "Created", cell: (v) => formatTime(v.createdAt) },
+            { header: "Created", cell: (v) => formatDateTime(v.createdAt) },
             { header: "By", cell: (v) => v.createdBy ?? "command line" },
             {
               header: "Funders",
               cell: (v) =>
                 v.releasedAt ? (
-                  `Released ${formatTime(v.releasedAt)}`
+                  `Released ${formatDateTime(v.releasedAt)}`
                 ) : (
                   <Button size="sm" variant="secondary" onClick={() => runRelease(v)} busy={release.isPending && release.variables === v.id}>
                     Release to funders<span className="sr-only"> version {v.version}</span>
                   </Button>
                 ),
             },
-            { header: "Last sent", cell: (v) => (v.lastSend ? `${v.lastSend.status === "sent" ? "Sent" : "Failed"} ${formatTime(v.lastSend.createdAt)}` : "Not sent") },
+            { header: "Last sent", cell: (v) => (v.lastSend ? `${v.lastSend.status === "sent" ? "Sent" : "Failed"} ${formatDateTime(v.lastSend.createdAt)}` : "Not sent") },
             {
               header: "Downloads",
               cell: (v) => (
