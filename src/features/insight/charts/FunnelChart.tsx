@@ -2,6 +2,7 @@
 // (exact binomial 95 % and 99.8 % limits around the network rate). A small group far from the network rate
 // can be chance; a large one cannot. Points outside the limits get a triangle (up or down) and their label,
 // so the reading never depends on colour.
+import { Y_TITLE_MARGIN_TOP } from "./axisSpace";
 import * as Plot from "@observablehq/plot";
 import { useCallback } from "react";
 import type { z } from "zod";
@@ -108,7 +109,7 @@ export function FunnelChart({ title, units, curve, networkRate, subject, unitHea
         height: width < 500 ? 280 : 360,
         marginLeft: 48,
         marginRight: 44,
-        marginTop: 20,
+        marginTop: Y_TITLE_MARGIN_TOP,
         marginBottom: 44,
         x: { domain: [0, Math.ceil(nMax * 1.08)], label: "Number of attempts", labelAnchor: "center", labelOffset: 38, grid: true, ticks: width < 420 ? 4 : 8 },
         y: { domain: [0, 1], tickFormat: percentTick, label: "Measured pass rate", grid: true },
