@@ -4,7 +4,7 @@
 //   GET  /reports/:period/preview     the report as it would be generated now (data + narrative; coordinators)
 //   POST /reports/:period             generate and store the next version
 //   GET  /reports/:id/data            a stored version's data
-//   GET  /reports/:id/pdf             a stored version's PDF, byte for byte
+//   GET  /reports/:id/pdf             a stored version's PDF, byte for byte (?inline=1: shown in the page)
 //   GET  /reports/:id/csv             a stored version's figures as CSV
 //   GET  /reports/:period/notes       the coordinator's text on what the network is doing about the errors
 //   PUT  /reports/:period/notes
@@ -69,9 +69,11 @@ export function reportRoutes(db: Db, mailer: Mailer, logger: Logger): Router {
 
   router.get("/reports/:id/pdf", allow("readReport"), (req, res) => {
     const report = findReport(db, parseId(req.params.id), reachOf(req));
+    // ?inline=1 shows the same bytes inside the page (the preview before sending); otherwise a download
+    const inline = req.query.inline === "1";
     res
       .type("application/pdf")
-      .set("Content-Disposition", contentDisposition(reportFileName(report.period, report.version)))
+      .set("Content-Disposition", contentDisposition(reportFileName(report.period, report.version), inline ? "inline" : "attachment"))
       .set("Cache-Control", "private, no-store")
       .send(report.pdf);
   });

@@ -112,7 +112,7 @@ describe("send to funders", () => {
     expect(screen.getByText(/each in a message of their own/)).toBeTruthy();
     expect(screen.getByText((_, el) => el?.tagName === "BLOCKQUOTE" && el.textContent === coverNote)).toBeTruthy();
     const frame = screen.getByTitle("PDF of 2026 Q3, version 2, as it will be attached");
-    expect(frame.getAttribute("src")).toBe("/api/reports/4/pdf");
+    expect(frame.getAttribute("src")).toBe("/api/reports/4/pdf?inline=1");
     expect(screen.getByRole("link", { name: "Download the PDF of version 2" }).getAttribute("href")).toBe("/api/reports/4/pdf");
     expect(server.requests.filter((r) => r.method === "POST")).toHaveLength(0);
 

@@ -6,7 +6,7 @@ import type { ReportVersion } from "../../../shared/schemas/report";
 import { periodLabel } from "../../../shared/period";
 import { Button } from "../../components/Button";
 import { formatKb } from "./VersionsPanel";
-import { pdfUrl } from "./queries";
+import { pdfPreviewUrl, pdfUrl } from "./queries";
 
 export interface SendConfirmationProps {
   version: ReportVersion;
@@ -51,7 +51,7 @@ export function SendConfirmation({ version, coverNote, recipients, busy, onConfi
           </span>
         </p>
         <iframe
-          src={pdfUrl(version.id)}
+          src={pdfPreviewUrl(version.id)}
           title={`PDF of ${period}, version ${version.version}, as it will be attached`}
           className="h-[28rem] w-full max-w-4xl rounded-control border border-line-strong bg-paper sm:h-[36rem]"
         />

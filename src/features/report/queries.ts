@@ -52,6 +52,8 @@ export const reportQueries = {
 };
 
 export const pdfUrl = (id: number) => `/api/reports/${id}/pdf`;
+/** The same PDF, answered to be shown inside the page rather than downloaded. */
+export const pdfPreviewUrl = (id: number) => `/api/reports/${id}/pdf?inline=1`;
 export const csvUrl = (id: number) => `/api/reports/${id}/csv`;
 
 export function saveNotes(period: string, actions: string) {
