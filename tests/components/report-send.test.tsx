@@ -123,6 +123,16 @@ describe("send to funders", () => {
     expect(post.body).toEqual({ coverNote, extraRecipients: ["board@example.org"] });
   });
 
+  it("warns when the version to send was stored without the text on what the network is doing", async () => {
+    const data = { hasData: true, errors: { rows: [], attemptsWithErrors: { value: 0, hidden: null, text: "0" }, actions: "  " } };
+    fakeServer({ "GET /api/users": users, "GET /api/reports/4/data": { status: 200, body: { report: version, data } } });
+    renderForm();
+    expect(await screen.findByText("funder@example.org")).toBeTruthy();
+    fireEvent.change(screen.getByRole("textbox", { name: /Cover note/ }), { target: { value: coverNote } });
+    fireEvent.click(screen.getByRole("button", { name: "Review before sending" }));
+    expect(await screen.findByText(/This version was stored before you wrote what the network is doing about the errors/)).toBeTruthy();
+  });
+
   it("goes back to the form with everything kept, and sends nothing", async () => {
     const server = fakeServer({ "GET /api/users": users });
     renderForm();

@@ -1,12 +1,14 @@
 // The last step before a report goes out: the exact stored PDF that will be attached (shown in the page and
 // downloadable), the cover note, the period and version, and every recipient by address. Nothing is sent
 // until the coordinator confirms here.
+import { useQuery } from "@tanstack/react-query";
 import { useEffect, useRef } from "react";
 import type { ReportVersion } from "../../../shared/schemas/report";
 import { periodLabel } from "../../../shared/period";
 import { Button } from "../../components/Button";
+import { Notice } from "../../components/Notice";
 import { formatKb } from "./VersionsPanel";
-import { pdfPreviewUrl, pdfUrl } from "./queries";
+import { pdfPreviewUrl, pdfUrl, reportQueries } from "./queries";
 
 export interface SendConfirmationProps {
   version: ReportVersion;
@@ -19,6 +21,9 @@ export interface SendConfirmationProps {
 
 export function SendConfirmation({ version, coverNote, recipients, busy, onConfirm, onBack }: SendConfirmationProps) {
   const heading = useRef<HTMLHeadingElement>(null);
+  // a version stored before the coordinator wrote about the errors prints a stand-in sentence instead
+  const stored = useQuery(reportQueries.versionData(version.id));
+  const noActionsText = stored.data !== undefined && stored.data.data.hasData && stored.data.data.errors.actions.trim() === "";
   // the step replaces the form: move focus to it so keyboard and screen-reader users land on what to check
   useEffect(() => heading.current?.focus(), []);
   const period = periodLabel(version.period);
@@ -39,6 +44,12 @@ export function SendConfirmation({ version, coverNote, recipients, busy, onConfi
           ))}
         </ul>
       </div>
+      {noActionsText && (
+        <Notice tone="info">
+          This version was stored before you wrote what the network is doing about the errors, so its PDF says that you have not written it yet. To
+          send your text, write it above the report, create a new version and send that one.
+        </Notice>
+      )}
       <div className="flex flex-col gap-1">
         <p className="font-semibold">Cover note</p>
         <blockquote className="max-w-3xl border-l-4 border-marigold-500 pl-3 whitespace-pre-wrap">{coverNote}</blockquote>
