@@ -11,6 +11,7 @@ import { AppError } from "../../server/errors";
 import { importFiles, type ImportProgress } from "../../server/imports/service";
 import { CLI_ACTOR } from "../../server/imports/run";
 import { findUserByEmail } from "../../server/users/service";
+import { delimiterLabels } from "../../shared/import/delimiter";
 import { context } from "../context";
 import { UsageError } from "../errors";
 
@@ -139,6 +140,7 @@ function printSummary(s: ImportSummary) {
   };
   const verdict = verdicts[s.status];
   console.log(`\n${s.file} (${s.kind}): ${verdict}`);
+  if (s.delimiter) console.log(`  columns separated by ${delimiterLabels[s.delimiter]}`);
   const unit = s.unit === "attempts" ? " attempts" : "";
   const attempts = s.attemptsRead !== null ? ` · attempts ${s.attemptsRead}` : "";
   console.log(`  rows read ${s.rowsRead}${attempts} · inserted ${s.inserted}${unit} · updated ${s.updated} · unchanged ${s.unchanged} · rejected rows ${s.rejected}`);

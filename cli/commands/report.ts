@@ -1,6 +1,6 @@
-// `quarterbeat report --quarter 2026-Q3 --out report.pdf [--send] [--to a@example.org]` (or --year 2026):
-// generates and stores the next version of the funder report, writes its PDF and, with --send, e-mails it to
-// every active funder. Without SMTP_URL the message goes to the local mail service (the web app's Outbox).
+// `quarterbeat report --quarter 2026-Q3 --out report.pdf [--send --note "…"] [--to a@example.org]` (or --year
+// 2026): generates and stores the next version of the funder report, writes its PDF and, with --send, e-mails
+// it with the cover note to every active funder, one message each (which releases the version to them). Without SMTP_URL the message goes to the local mail service (the web app's Outbox).
 import fs from "node:fs";
 import path from "node:path";
 import type { Command } from "commander";
@@ -19,6 +19,7 @@ const optionsSchema = z.object({
   year: z.string().optional(),
   out: z.string().optional(),
   send: z.boolean().optional(),
+  note: z.string().optional(),
   to: z.array(z.string()).default([]),
 });
 
@@ -32,6 +33,7 @@ export function registerReport(program: Command) {
     .option("--year <year>", "a whole year, e.g. 2026")
     .option("--out <file>", "where to write the PDF (default: quarterbeat-funder-report-<period>-v<version>.pdf)")
     .option("--send", "also e-mail the report to every active funder")
+    .option("--note <text>", "the cover note above the report in each message (required with --send)")
     .option("--to <addresses>", "extra recipients for --send (repeat or separate with commas)", collect)
     .action(async (raw: unknown, command: Command) => {
       const options = optionsSchema.parse(raw);
@@ -39,6 +41,11 @@ export function registerReport(program: Command) {
         throw new UsageError("Give either --quarter or --year.", "For example: quarterbeat report --quarter 2026-Q3 --out report.pdf");
       }
       if (options.to.length > 0 && !options.send) throw new UsageError("--to only makes sense with --send.");
+      if (options.note !== undefined && !options.send) throw new UsageError("--note only makes sense with --send.");
+      const coverNote = options.note?.trim() ?? "";
+      if (options.send && !coverNote) {
+        throw new UsageError("--send needs a cover note for the funders.", 'For example: --note "Dear funders, here is our report for the third quarter."');
+      }
       const extraRecipients = options.to.map((address) => {
         const parsed = emailSchema.safeParse(address);
         if (!parsed.success) throw new UsageError(`"${address}" is not an e-mail address.`, "Use --to name@example.org.");
@@ -67,7 +74,7 @@ export function registerReport(program: Command) {
       // Without SMTP_URL the local mail service runs for the length of this command; its mailbox is the database.
       const local = config.smtpUrl ? null : await startLocalMailService(db);
       try {
-        const send = await sendReport(db, createMailer(config.smtpUrl ?? local!.url), report.id, { extraRecipients });
+        const send = await sendReport(db, createMailer(config.smtpUrl ?? local!.url), report.id, { extraRecipients, coverNote });
         if (send.status === "failed") {
           throw new AppError(
             "send_failed",

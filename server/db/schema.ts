@@ -500,6 +500,9 @@ export const reports = sqliteTable(
     pdf: blob({ mode: "buffer" }).notNull(),
     createdBy: integer().references(() => users.id),
     createdAt: createdAt(),
+    // funders see a version only once the coordinator releases it (or sends it to them)
+    releasedAt: text(),
+    releasedBy: integer().references(() => users.id),
   },
   (t) => [uniqueIndex("reports_period_version_idx").on(t.period, t.version)],
 );
@@ -511,6 +514,9 @@ export const reportSends = sqliteTable("report_sends", {
     .references(() => reports.id),
   sentBy: integer().references(() => users.id),
   recipients: text({ mode: "json" }).$type<string[]>().notNull(),
+  /** Each recipient gets a message of their own; a retry sends only to those not yet reached. */
+  delivered: text({ mode: "json" }).$type<string[]>().notNull().default(sql`'[]'`),
+  coverNote: text().notNull().default(""),
   status: text({ enum: ["sent", "failed"] }).notNull(),
   error: text(),
   messageId: text(),

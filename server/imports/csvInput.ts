@@ -1,10 +1,12 @@
 // Reads a CSV file or stream record by record with csv-parse's stream API, in bounded memory: one chunk of
 // bytes and that chunk's records at a time. Hashes the bytes (sha-256, for the batch record) and counts them
-// (for progress by bytes read) on the way.
+// (for progress by bytes read) on the way. The separator (comma, semicolon or tab) is read off the header
+// line before the parser starts.
 import { createHash } from "node:crypto";
 import fs from "node:fs";
 import type { Readable } from "node:stream";
-import { CsvError, parse } from "csv-parse";
+import { CsvError, parse, type Parser } from "csv-parse";
+import { delimiterChars, detectDelimiter, headerLine, type Delimiter } from "../../shared/import/delimiter";
 
 /** A file on disk, or a stream with the name to record (the demo seeder and the tests pass text). */
 export type ImportInput = { path: string; fileName?: string } | { stream: Readable; fileName: string; size?: number };
@@ -30,6 +32,8 @@ export interface CsvReadResult {
   rows: number;
   /** False when `header` asked to stop. */
   complete: boolean;
+  /** The separator the header line shows; null when the file held no line at all. */
+  delimiter: Delimiter | null;
 }
 
 /** The file is not readable CSV at this point (an unclosed quote, a record over the size limit, …). */
@@ -63,20 +67,48 @@ export async function readCsv(input: ImportInput, handlers: CsvHandlers): Promis
   const totalBytes = inputSize(input);
   const source = openInput(input);
   const hash = createHash("sha256");
-  const parser = parse({
-    bom: true,
-    relax_column_count: true, // a short or long row is reported by the importer, row by row
-    skip_empty_lines: true,
-    max_record_size: MAX_RECORD_CHARS,
-  });
+  let parser: Parser | null = null;
+  let delimiter: Delimiter | null = null;
+  // bytes held until the header line is complete, so its separator is known before parsing starts
+  let head: Buffer[] = [];
+  let headBytes = 0;
   let bytesRead = 0;
   let rows = 0;
   let headerSeen = false;
   let stopped = false;
+  let failure: unknown;
+
+  const start = (bytes: Buffer): Parser => {
+    const line = headerLine(bytes.toString("utf8"));
+    delimiter = line ? detectDelimiter(line.line) : null;
+    const started = parse({
+      bom: true,
+      delimiter: delimiterChars[delimiter ?? "comma"],
+      relax_column_count: true, // a short or long row is reported by the importer, row by row
+      skip_empty_lines: true,
+      max_record_size: MAX_RECORD_CHARS,
+    });
+    started.on("error", (err) => (failure = err));
+    started.write(bytes);
+    return started;
+  };
+  /** Writes a chunk, or holds it while the header line is still incomplete; null while held. */
+  const write = (bytes: Buffer, atEnd: boolean): Parser | null => {
+    if (parser) {
+      if (bytes.length > 0) parser.write(bytes);
+      return parser;
+    }
+    head.push(bytes);
+    headBytes += bytes.length;
+    const held = Buffer.concat(head);
+    if (!atEnd && headBytes < MAX_RECORD_CHARS && !headerLine(held.toString("utf8"))?.complete) return null;
+    head = [];
+    return (parser = start(held));
+  };
 
   const drain = () => {
     let record: string[] | null;
-    while ((record = parser.read() as string[] | null) !== null) {
+    while (parser && (record = parser.read() as string[] | null) !== null) {
       if (stopped) continue;
       if (!headerSeen) {
         // a line of spaces (or a stray \r) before the header is blank too; skip_empty_lines skips only empty ones
@@ -95,15 +127,13 @@ export async function readCsv(input: ImportInput, handlers: CsvHandlers): Promis
     }
     throw err;
   };
-  let failure: unknown;
-  parser.on("error", (err) => (failure = err));
 
   try {
     for await (const chunk of source) {
       const bytes = typeof chunk === "string" ? Buffer.from(chunk) : (chunk as Buffer);
       hash.update(bytes);
       bytesRead += bytes.length;
-      parser.write(bytes);
+      if (!write(bytes, false)) continue;
       if (failure) syntaxError(failure);
       drain();
       if (failure) syntaxError(failure);
@@ -111,12 +141,15 @@ export async function readCsv(input: ImportInput, handlers: CsvHandlers): Promis
       await handlers.chunk?.({ bytesRead, totalBytes, rows });
     }
     if (!stopped) {
-      parser.end();
+      const last = write(Buffer.alloc(0), true)!;
+      if (failure) syntaxError(failure);
+      drain();
+      last.end();
       await new Promise<void>((resolve) => {
-        if (parser.readableEnded) return resolve();
-        parser.once("end", resolve);
-        parser.once("error", () => resolve());
-        parser.on("readable", drain);
+        if (last.readableEnded) return resolve();
+        last.once("end", resolve);
+        last.once("error", () => resolve());
+        last.on("readable", drain);
         drain();
       });
       if (failure) syntaxError(failure);
@@ -125,5 +158,5 @@ export async function readCsv(input: ImportInput, handlers: CsvHandlers): Promis
     source.destroy();
   }
   if (!headerSeen && !stopped) handlers.header([]);
-  return { sha256: hash.digest("hex"), bytesRead, rows, complete: !stopped };
+  return { sha256: hash.digest("hex"), bytesRead, rows, complete: !stopped, delimiter };
 }

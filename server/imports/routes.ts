@@ -209,6 +209,7 @@ async function preview(stored: StoredUpload, mapping: ImportMapping | undefined)
   const used = mapping ?? suggestion.mapping;
   const resolved = resolveHeader(head.header, stored.kind, used);
   return {
+    delimiter: head.delimiter,
     header: head.header,
     rows: head.rows,
     columns: importColumns[stored.kind].map((c) => ({

@@ -178,6 +178,7 @@ export async function importFile(db: Db, options: ImportFileOptions): Promise<Im
       batchId: refused || dryRun || changedNothing ? null : batchId,
       sha256: csv?.sha256 ?? null,
       unit: importer?.unit ?? (kind === "compressions" ? "attempts" : "rows"),
+      delimiter: csv?.delimiter ?? null,
       rowsRead: csv?.rows ?? 0,
       inserted: current.inserted,
       updated: current.updated,

@@ -6,6 +6,7 @@ import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { parse } from "csv-parse";
+import { delimiterChars, detectDelimiter, headerLine, type Delimiter } from "../../shared/import/delimiter";
 import type { ImportKind, UserRole } from "../../shared/domain";
 import { can } from "../../shared/permissions";
 import type { Upload } from "../../shared/import/api";
@@ -82,10 +83,19 @@ export class UploadStore {
   }
 }
 
-/** The header and the first rows of a CSV file, read without loading the rest. */
-export async function readHead(file: string, rows = 20): Promise<{ header: string[]; rows: string[][] }> {
+/** The header and the first rows of a CSV file, read without loading the rest, with the separator they use. */
+export async function readHead(file: string, rows = 20): Promise<{ header: string[]; rows: string[][]; delimiter: Delimiter | null }> {
+  const line = headerLine(await readStart(file));
+  const delimiter = line ? detectDelimiter(line.line) : null;
   const parser = fs.createReadStream(file, { highWaterMark: 64 * 1024 }).pipe(
-    parse({ bom: true, relax_column_count: true, skip_empty_lines: true, to_line: rows + 1 + 50, relax_quotes: true }),
+    parse({
+      bom: true,
+      delimiter: delimiterChars[delimiter ?? "comma"],
+      relax_column_count: true,
+      skip_empty_lines: true,
+      to_line: rows + 1 + 50,
+      relax_quotes: true,
+    }),
   );
   const records: string[][] = [];
   try {
@@ -96,5 +106,17 @@ export async function readHead(file: string, rows = 20): Promise<{ header: strin
   } catch {
     // A file that is not CSV shows what could be read; validation reports the problem with its row.
   }
-  return { header: records[0] ?? [], rows: records.slice(1, rows + 1) };
+  return { header: records[0] ?? [], rows: records.slice(1, rows + 1), delimiter };
+}
+
+/** The file's first 64 KiB as text: enough for any header line. */
+async function readStart(file: string): Promise<string> {
+  const handle = await fs.promises.open(file, "r");
+  try {
+    const buffer = Buffer.alloc(64 * 1024);
+    const { bytesRead } = await handle.read(buffer, 0, buffer.length, 0);
+    return buffer.subarray(0, bytesRead).toString("utf8");
+  } finally {
+    await handle.close();
+  }
 }

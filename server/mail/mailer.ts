@@ -21,7 +21,7 @@ export interface MailReceipt {
 
 export class MailNotConfiguredError extends Error {
   constructor() {
-    super("No mail server is configured. Set SMTP_URL, or start Quarterbeat with `npm start`, which runs the local mail service.");
+    super("No mail server is configured, so nothing was sent. Whoever runs Quarterbeat can set one up, or run it with its local mail service.");
     this.name = "MailNotConfiguredError";
   }
 }

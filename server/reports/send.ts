@@ -1,5 +1,6 @@
 // E-mailing a stored report version to the funders. Every send is recorded, sent or failed, with the exact
-// recipients and the version; a failed one can be retried later without generating a new version.
+// recipients, the version and the cover note; a failed one can be retried later without generating a new
+// version. Each recipient gets a message of their own, and a version that reached anyone counts as released.
 import { desc, eq } from "drizzle-orm";
 import type { ReportSendRow } from "../../shared/schemas/report";
 import type { Db } from "../db/client";
@@ -7,15 +8,19 @@ import { reports, reportSends, users } from "../db/schema";
 import { AppError, conflict, notFound } from "../errors";
 import type { Mailer, OutgoingMail } from "../mail/mailer";
 import { activeAddresses } from "../users/service";
-import { findReport, reportFileName, type StoredReport } from "./store";
+import { describeMailFailure } from "./mailFailure";
+import { findReport, markReleased, reportFileName, type StoredReport } from "./store";
 
 /** E-mail addresses of every active funder account. */
 export const funderAddresses = (db: Db): string[] => activeAddresses(db, "funder");
 
-export function reportMessage(report: StoredReport, to: string[]): OutgoingMail {
+/** One recipient's message: the coordinator's cover note, then what the attachment is. */
+export function reportMessage(report: StoredReport, to: string, coverNote: string): OutgoingMail {
   const { data } = report;
   const lines = [
-    `Dear funder,`,
+    coverNote.trim(),
+    "",
+    "—",
     "",
     `Attached is the training quality report of ${data.networkName} for ${data.periodLabel} (${data.period}, version ${report.version}).`,
     "",
@@ -29,29 +34,46 @@ export function reportMessage(report: StoredReport, to: string[]): OutgoingMail 
     "Sent by Quarterbeat on behalf of the network's coordinator.",
   ];
   return {
-    to,
+    to: [to],
     subject: `${data.networkName}: training quality report for ${data.periodLabel} (${data.period})`,
     text: lines.join("\n"),
     attachments: [{ filename: reportFileName(report.period, report.version), content: report.pdf, contentType: "application/pdf" }],
   };
 }
 
-function describeFailure(err: unknown): string {
-  const error = err as { message?: string; code?: string; response?: string };
-  const detail = error?.response ?? error?.message ?? String(err);
-  return `${error?.code ? `${error.code}: ` : ""}${detail}`.slice(0, 500);
+interface Delivery {
+  status: "sent" | "failed";
+  delivered: string[];
+  error: string | null;
+  messageId: string | null;
 }
 
-async function deliver(mailer: Mailer, report: StoredReport, recipients: string[]) {
-  try {
-    const receipt = await mailer.send(reportMessage(report, recipients));
-    if (receipt.rejected.length > 0) {
-      return { status: "failed" as const, error: `The mail server refused: ${receipt.rejected.join(", ")}`, messageId: receipt.messageId || null };
+/** One message per recipient, so nobody sees the other addresses; those already reached are skipped. */
+async function deliver(mailer: Mailer, report: StoredReport, recipients: string[], coverNote: string, alreadyDelivered: string[] = []): Promise<Delivery> {
+  const delivered = [...alreadyDelivered];
+  const failures: string[] = [];
+  const messageIds: string[] = [];
+  for (const address of recipients.filter((r) => !alreadyDelivered.includes(r))) {
+    try {
+      const receipt = await mailer.send(reportMessage(report, address, coverNote));
+      if (receipt.rejected.length > 0) failures.push(`The mail server refused ${address}`);
+      else delivered.push(address);
+      if (receipt.messageId) messageIds.push(receipt.messageId);
+    } catch (err) {
+      failures.push(`${address}: ${describeMailFailure(err)}`);
     }
-    return { status: "sent" as const, error: null, messageId: receipt.messageId || null };
-  } catch (err) {
-    return { status: "failed" as const, error: describeFailure(err), messageId: null };
   }
+  return {
+    status: failures.length === 0 ? "sent" : "failed",
+    delivered,
+    error: failures.length === 0 ? null : failures.join("; ").slice(0, 1000),
+    messageId: messageIds.length > 0 ? messageIds.join(" ").slice(0, 1000) : null,
+  };
+}
+
+/** Funders who received the PDF hold it: a version that reached anyone counts as released. */
+function releaseIfDelivered(db: Db, reportId: number, outcome: Delivery, userId: number | null) {
+  if (outcome.delivered.length > 0) markReleased(db, reportId, userId);
 }
 
 /** Sends a stored version to every active funder plus any extra addresses, and records the outcome. */
@@ -59,9 +81,11 @@ export async function sendReport(
   db: Db,
   mailer: Mailer,
   reportId: number,
-  options: { userId?: number | null; extraRecipients?: string[] } = {},
+  options: { userId?: number | null; extraRecipients?: string[]; coverNote: string },
 ): Promise<ReportSendRow> {
   const report = findReport(db, reportId);
+  const coverNote = options.coverNote.trim();
+  if (!coverNote) throw new AppError("invalid", 422, "Write a cover note for the funders.", [{ path: "coverNote", message: "Write a cover note for the funders" }]);
   const recipients = [...new Set([...funderAddresses(db), ...(options.extraRecipients ?? []).map((a) => a.trim().toLowerCase())])];
   if (recipients.length === 0) {
     throw new AppError(
@@ -72,25 +96,27 @@ export async function sendReport(
       "Add a funder under Users, or give extra recipients.",
     );
   }
-  const outcome = await deliver(mailer, report, recipients);
+  const outcome = await deliver(mailer, report, recipients, coverNote);
   const { id } = db
     .insert(reportSends)
-    .values({ reportId, sentBy: options.userId ?? null, recipients, ...outcome, createdAt: new Date().toISOString() })
+    .values({ reportId, sentBy: options.userId ?? null, recipients, coverNote, ...outcome, createdAt: new Date().toISOString() })
     .returning({ id: reportSends.id })
     .get();
+  releaseIfDelivered(db, reportId, outcome, options.userId ?? null);
   return withoutUserId(findSend(db, id));
 }
 
-/** Tries a failed send again, to the same recipients with the same stored PDF; the record becomes sent on success. */
+/** Tries a failed send again with the same stored PDF and cover note, to the recipients not yet reached. */
 export async function retrySend(db: Db, mailer: Mailer, sendId: number, userId: number | null): Promise<ReportSendRow> {
   const send = findSend(db, sendId);
   if (send.status === "sent") throw conflict("This report was already sent; it is not sent twice.");
   const report = findReport(db, send.reportId);
-  const outcome = await deliver(mailer, report, send.recipients);
+  const outcome = await deliver(mailer, report, send.recipients, send.coverNote, send.delivered);
   db.update(reportSends)
     .set({ ...outcome, sentBy: userId ?? send.sentById, createdAt: new Date().toISOString() })
     .where(eq(reportSends.id, sendId))
     .run();
+  releaseIfDelivered(db, send.reportId, outcome, userId ?? send.sentById);
   return withoutUserId(findSend(db, sendId));
 }
 
@@ -102,6 +128,8 @@ const sendColumns = {
   sentBy: users.displayName,
   sentById: reportSends.sentBy,
   recipients: reportSends.recipients,
+  delivered: reportSends.delivered,
+  coverNote: reportSends.coverNote,
   status: reportSends.status,
   error: reportSends.error,
   messageId: reportSends.messageId,

@@ -1,6 +1,6 @@
 // Stored report versions: each generation keeps its data and its PDF bytes, so what was sent can be
 // downloaded again exactly as it was.
-import { desc, eq, max, sql } from "drizzle-orm";
+import { and, desc, eq, isNotNull, isNull, max, sql } from "drizzle-orm";
 import type { ReportData, ReportVersion } from "../../shared/schemas/report";
 import type { Db } from "../db/client";
 import { reports, reportSends, users } from "../db/schema";
@@ -34,7 +34,13 @@ const versionColumns = {
   createdBy: users.displayName,
   pdfBytes: sql<number>`length(${reports.pdf})`,
   lastSend,
+  releasedAt: reports.releasedAt,
 };
+
+/** Funders read released versions only; whoever prepares the report also sees the ones not yet released. */
+export interface VersionReach {
+  releasedOnly: boolean;
+}
 
 type VersionRow = Omit<ReportVersion, "lastSend"> & { lastSend: string | null };
 
@@ -70,22 +76,39 @@ export async function generateReport(db: Db, periodText: string, options: { user
   }
 }
 
-export function listReports(db: Db, period?: string): ReportVersion[] {
-  const query = db.select(versionColumns).from(reports).leftJoin(users, eq(reports.createdBy, users.id));
-  const rows = period ? query.where(eq(reports.period, reportPeriod(period).id)).orderBy(desc(reports.id)).all() : query.orderBy(desc(reports.id)).all();
+export function listReports(db: Db, period?: string, reach: VersionReach = { releasedOnly: false }): ReportVersion[] {
+  const rows = db
+    .select(versionColumns)
+    .from(reports)
+    .leftJoin(users, eq(reports.createdBy, users.id))
+    .where(and(period ? eq(reports.period, reportPeriod(period).id) : undefined, reach.releasedOnly ? isNotNull(reports.releasedAt) : undefined))
+    .orderBy(desc(reports.id))
+    .all();
   return rows.map(toVersion);
 }
 
-export function findReport(db: Db, id: number): StoredReport {
+/** A stored version; one not yet released is answered as missing to a reader who may see released ones only. */
+export function findReport(db: Db, id: number, reach: VersionReach = { releasedOnly: false }): StoredReport {
   const row = db
     .select({ ...versionColumns, data: reports.data, pdf: reports.pdf })
     .from(reports)
     .leftJoin(users, eq(reports.createdBy, users.id))
     .where(eq(reports.id, id))
     .get();
-  if (!row) throw notFound("The report");
+  if (!row || (reach.releasedOnly && row.releasedAt === null)) throw notFound("The report");
   const { data, pdf, ...version } = row;
   return { ...toVersion(version), data: data as ReportData, pdf: Buffer.from(pdf) };
+}
+
+/** Marks a version released unless it already is; true when this call released it. */
+export function markReleased(db: Db, reportId: number, userId: number | null, at = new Date()): boolean {
+  const changed = db
+    .update(reports)
+    .set({ releasedAt: at.toISOString(), releasedBy: userId })
+    .where(and(eq(reports.id, reportId), isNull(reports.releasedAt)))
+    .returning({ releasedAt: reports.releasedAt })
+    .all();
+  return changed.length > 0;
 }
 
 /** A file name that is safe in a Content-Disposition header and on every file system. */

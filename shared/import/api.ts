@@ -2,6 +2,7 @@
 // The server builds these objects; the Imports page parses them with the same schemas.
 import { z } from "zod";
 import { importKinds } from "../domain";
+import { delimiterSchema } from "./delimiter";
 import { importMappingSchema } from "./mapping";
 
 export const importKindSchema = z.enum(importKinds);
@@ -32,6 +33,8 @@ export const importSummarySchema = z.object({
   sha256: z.string().nullable(),
   /** What inserted/updated/unchanged count: file rows, or attempts (compressions files). */
   unit: z.enum(["rows", "attempts"]),
+  /** The column separator read off the header line; null when the file held no line at all. */
+  delimiter: delimiterSchema.nullable(),
   rowsRead: z.number().int(),
   inserted: z.number().int(),
   updated: z.number().int(),
@@ -63,6 +66,8 @@ export const columnMatchSchema = z.object({
 });
 
 export const previewSchema = z.object({
+  /** The column separator read off the header line; null when the file held no line at all. */
+  delimiter: delimiterSchema.nullable(),
   /** The file's header row. */
   header: z.array(z.string()),
   /** The first data rows, as text. */

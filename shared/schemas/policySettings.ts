@@ -55,7 +55,7 @@ export const POLICY_FIELD_SOURCES: readonly PolicyFieldSource[] = [
   { path: "passRule.minDepthOkPct", kind: "project_default", sources: [], note: "No guideline sets a pass mark in percent of compressions." },
   { path: "passRule.minRateOkPct", kind: "project_default", sources: [], note: "No guideline sets a pass mark in percent of compressions." },
   { path: "passRule.minRecoilOkPct", kind: "project_default", sources: [], note: "No guideline sets a pass mark in percent of compressions." },
-  { path: "passRule.minHandsOnPct", kind: "guideline", sources: ["aha-2020-adult"], note: "Chest compression fraction of at least 60 % (AHA 2015 update, kept in the 2020 guidelines)." },
+  { path: "passRule.minHandsOnPct", kind: "guideline", sources: ["aha-2020-adult"], note: "Chest compression fraction of at least 60 %." },
   { path: "passRule.maxLongestPauseS", kind: "guideline", sources: ["aha-2020-adult"], note: "Pauses under 10 seconds." },
   { path: "suppressionMinCount", kind: "project_default", sources: [], note: "Smaller groups are hidden from funders and from instructors looking at others." },
   { path: "suppressionMinInstructors", kind: "project_default", sources: [], note: "Groups with the attempts of fewer other instructors are hidden from funders and from instructors looking at others." },

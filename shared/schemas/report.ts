@@ -18,7 +18,15 @@ export const quarterNotesSchema = z.object({
 });
 export type QuarterNotes = z.infer<typeof quarterNotesSchema>;
 
+/** The coordinator's own words above the report in every message: why it is sent and what is new. */
+export const coverNoteSchema = z
+  .string({ error: "Write a cover note for the funders" })
+  .trim()
+  .min(1, "Write a cover note for the funders")
+  .max(2000, "Use at most 2000 characters");
+
 export const sendReportSchema = z.object({
+  coverNote: coverNoteSchema,
   extraRecipients: z.array(emailSchema).max(20, "Send to at most 20 extra addresses at once").default([]),
 });
 export type SendReportRequest = z.infer<typeof sendReportSchema>;
@@ -188,6 +196,17 @@ export interface ReportVersion {
   createdBy: string | null;
   pdfBytes: number;
   lastSend: { status: "sent" | "failed"; createdAt: string } | null;
+  /** When funders could first see this version; null while only the coordinator sees it. */
+  releasedAt: string | null;
+}
+
+/** The answer to a release: the version, and which funders' notices the mail server took. */
+export interface ReleaseOutcome {
+  report: ReportVersion;
+  /** False when the version was already released: nothing changed and no notice went out again. */
+  released: boolean;
+  notified: string[];
+  failed: { address: string; error: string }[];
 }
 
 export interface ReportSendRow {
@@ -197,6 +216,9 @@ export interface ReportSendRow {
   version: number;
   sentBy: string | null;
   recipients: string[];
+  /** The recipients whose message the mail server accepted (each gets a message of their own). */
+  delivered: string[];
+  coverNote: string;
   status: "sent" | "failed";
   error: string | null;
   messageId: string | null;

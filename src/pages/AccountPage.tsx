@@ -1,5 +1,6 @@
 // My account: who I am, my password, and the unit lengths are shown in.
 import { useState } from "react";
+import { Link } from "react-router";
 import { lengthUnits, roleLabels } from "../../shared/domain";
 import { changePasswordSchema, type ChangePassword } from "../../shared/schemas/auth";
 import { formatLength, type LengthUnit } from "../../shared/units";
@@ -10,6 +11,7 @@ import { Notice } from "../components/Notice";
 import { PageHeader } from "../components/PageHeader";
 import { errorMessage } from "../components/States";
 import { useChangePassword, useUpdateLengthUnit } from "../features/auth/mutations";
+import { useCan } from "../features/auth/useCan";
 import { useCurrentUser } from "../features/auth/useSession";
 import { lengthUnitNames } from "../lib/useLengthUnit";
 import { showServerError, useSchemaForm } from "../lib/useSchemaForm";
@@ -33,13 +35,29 @@ export default function AccountPage() {
               <dt className="text-muted">Role</dt>
               <dd className="font-medium">{roleLabels[user.role]}</dd>
             </dl>
-            <p className="mt-4 text-small text-muted">To change your name, e-mail or role, ask your regional coordinator.</p>
+            <DetailsChangeNote />
           </section>
           <ChangePasswordSection email={user.email} />
         </div>
         <LengthUnitSection unit={user.lengthUnit} />
       </div>
     </div>
+  );
+}
+
+/** Who changes these details: someone who manages the accounts does it on the Users page, everyone else asks them. */
+function DetailsChangeNote() {
+  const managesUsers = useCan("manageUsers");
+  return managesUsers ? (
+    <p className="mt-4 text-small text-muted">
+      You manage the network's accounts: change your name or e-mail on the{" "}
+      <Link to="/admin/users" className="font-medium text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+        Users
+      </Link>{" "}
+      page. Your own coordinator role stays, so the network always has someone who can manage accounts.
+    </p>
+  ) : (
+    <p className="mt-4 text-small text-muted">To change your name, e-mail or role, ask your regional coordinator.</p>
   );
 }
 

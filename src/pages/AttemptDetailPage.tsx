@@ -19,7 +19,8 @@ import { CompressionOverview } from "../features/attempts/CompressionOverview";
 import { NetworkPlacement } from "../features/attempts/NetworkPlacement";
 import { criteriaOf, PassRuleChecklist } from "../features/attempts/PassRuleChecklist";
 import { compressionSeries, type CompressionSeries } from "../features/attempts/compressionSeries";
-import { dateTime, errorLabel } from "../features/attempts/labels";
+import { errorLabel } from "../features/attempts/labels";
+import { formatDateTime, formatRecordedDateTime } from "../lib/formatting";
 import { attemptQueries } from "../features/attempts/queries";
 import { backLabel, inAppPath } from "../features/attempts/returnPath";
 import { useLengthUnit } from "../lib/useLengthUnit";
@@ -89,12 +90,12 @@ function AttemptView({ answer }: { answer: AttemptDetailAnswer }) {
     { key: "score", header: "Score", value: (h) => Math.round(h.score), align: "right" },
     { key: "passed", header: "Result", value: (h) => (h.passed ? "Passed" : "Not passed") },
     { key: "errors", header: "Errors", value: (h) => (h.errors.length ? h.errors.map(errorLabel).join("; ") : "None"), wrap: true },
-    { key: "replacedAt", header: "Replaced on", value: (h) => h.replacedAt, render: (h) => dateTime(h.replacedAt) },
+    { key: "replacedAt", header: "Replaced on", value: (h) => h.replacedAt, render: (h) => formatDateTime(h.replacedAt) },
   ];
 
   const facts: [string, React.ReactNode][] = [
     ["Learner", <span className="font-mono">{attempt.learner}</span>],
-    ["Started", dateTime(attempt.startedAt)],
+    ["Started", formatRecordedDateTime(attempt.startedAt)],
     [
       "Class",
       <Link to={`/classes/${encodeURIComponent(attempt.classId)}`} className="text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
@@ -127,7 +128,7 @@ function AttemptView({ answer }: { answer: AttemptDetailAnswer }) {
     <>
       <PageHeader
         title={`Attempt ${attempt.id}`}
-        description={`${patientTypeNames[attempt.profile]} manikin, ${dateTime(attempt.startedAt)}, learner ${attempt.learner}. Judged by the network’s pass rule of policy version ${attempt.policyVersion}.`}
+        description={`${patientTypeNames[attempt.profile]} manikin, ${formatRecordedDateTime(attempt.startedAt)}, learner ${attempt.learner}. Judged by the network’s pass rule of policy version ${attempt.policyVersion}.`}
       />
       <div className="flex flex-col gap-6">
         <section aria-labelledby="rule-heading" className={cardClass}>

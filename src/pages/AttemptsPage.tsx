@@ -2,6 +2,7 @@
 // the whole result, with the columns the user chose. Quality leads and coordinators see the network's
 // attempts, instructors their own (the server keeps them to those). Reached from the error trends and from
 // My standing with the error already chosen; each attempt's page leads back here with the same filters.
+import { formatCount } from "../lib/formatting";
 import { useQuery } from "@tanstack/react-query";
 import { useEffect, useId, useMemo, useRef } from "react";
 import { useLocation, useSearchParams } from "react-router";
@@ -163,7 +164,7 @@ function AttemptList({ state }: { state: InsightFilterState }) {
             <svg viewBox="0 0 20 20" className="size-4" aria-hidden="true">
               <path d="M10 3v9m0 0-3.5-3.5M10 12l3.5-3.5M4 14v2.5h12V14" fill="none" stroke="currentColor" strokeWidth="1.8" strokeLinecap="round" strokeLinejoin="round" />
             </svg>
-            Export CSV of all {total.toLocaleString("en-GB")} attempts
+            Export CSV of all {formatCount(total)} attempts
           </a>
         )}
       </div>
@@ -181,7 +182,7 @@ function AttemptList({ state }: { state: InsightFilterState }) {
         <div className={answer.isPlaceholderData ? "flex flex-col gap-3 opacity-60" : "flex flex-col gap-3"} aria-busy={answer.isPlaceholderData || undefined}>
           <div className="flex flex-wrap items-center justify-between gap-3">
             <p className="font-medium" aria-live="polite">
-              Attempts {first.toLocaleString("en-GB")}–{last.toLocaleString("en-GB")} of {total.toLocaleString("en-GB")}, sorted by {orderWords(sortColumn, list.dir).toLowerCase()}
+              Attempts {formatCount(first)}–{formatCount(last)} of {formatCount(total)}, sorted by {orderWords(sortColumn, list.dir).toLowerCase()}
             </p>
             {pages > 1 && pager("above the list")}
           </div>

@@ -11,7 +11,8 @@ import { SafetyNote } from "../components/SafetyNote";
 import { EmptyState } from "../components/States";
 import { attemptHref } from "../features/attempts/returnPath";
 import { useCan } from "../features/auth/useCan";
-import { formatCount, formatDate, formatPercent, formatScore, formatTime, roundTo } from "../features/insight/format";
+import { formatCount, formatPercent, formatScore, roundTo } from "../features/insight/format";
+import { formatDay, formatRecordedClock } from "../lib/formatting";
 import { quarterLabel } from "../../shared/period";
 import { QueryStatus } from "../features/insight/QueryStatus";
 import { RateText } from "../features/insight/RateText";
@@ -89,7 +90,7 @@ export function ClassContent({ answer, backTo }: { answer: ClassDetailAnswer; ba
           <Link to={attemptHref(a.id, here)} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
             {a.id}
           </Link>
-          <span className="text-caption text-muted">started {formatTime(a.startedAt)}</span>
+          <span className="text-caption text-muted">started {formatRecordedClock(a.startedAt)}</span>
         </span>
       ),
       primary: true,
@@ -143,14 +144,14 @@ export function ClassContent({ answer, backTo }: { answer: ClassDetailAnswer; ba
       </Link>
       <PageHeader
         title={`Class ${c.id}`}
-        description={`${courseTypeNames[c.course] ?? c.course} course on ${formatDate(c.date)} at ${c.site.code}, taught by ${c.instructor.code} · ${c.instructor.name}.`}
+        description={`${courseTypeNames[c.course] ?? c.course} course on ${formatDay(c.date)} at ${c.site.code}, taught by ${c.instructor.code} · ${c.instructor.name}.`}
       />
       <section aria-labelledby="log-heading" className="rounded-card border border-line bg-surface p-4 shadow-card">
         <h2 id="log-heading" className="mb-3 text-title">
           Class log
         </h2>
         <dl className="grid grid-cols-2 gap-x-6 gap-y-3 sm:grid-cols-3 lg:grid-cols-5">
-          <Fact label="Date">{formatDate(c.date)} ({quarterLabel(c.quarter)})</Fact>
+          <Fact label="Date">{formatDay(c.date)} ({quarterLabel(c.quarter)})</Fact>
           <Fact label="Site">{c.site.code}</Fact>
           <Fact label="Course">{courseTypeNames[c.course] ?? c.course}</Fact>
           <Fact label="Learners">{formatCount(c.learners)}</Fact>

@@ -6,7 +6,7 @@ import type { EquipmentAnswer } from "../../shared/schemas/equipment";
 import { FilterBar } from "../components/FilterBar";
 import { PageHeader } from "../components/PageHeader";
 import { EmptyState, ErrorState, LoadingState } from "../components/States";
-import { dateOnly } from "../features/attempts/labels";
+import { formatCount, formatDay } from "../lib/formatting";
 import { useCan } from "../features/auth/useCan";
 import { AttentionList } from "../features/equipment/AttentionList";
 import { ConsumablesCharts } from "../features/equipment/ConsumablesChart";
@@ -74,11 +74,11 @@ function Equipment({ state, ownSite }: { state: InsightFilterState | null; ownSi
 function Thresholds({ answer, ownSite }: { answer: EquipmentAnswer; ownSite: boolean }) {
   const t = answer.thresholds;
   const changed = [t.serviceEveryCompressions, t.serviceEveryDays, t.minMouthpieceCleansPerLearner].some((x) => !x.projectDefault);
-  const was = (x: { projectDefault: boolean; defaultValue: number }) => (x.projectDefault ? "" : ` (project default ${x.defaultValue.toLocaleString("en-GB")})`);
+  const was = (x: { projectDefault: boolean; defaultValue: number }) => (x.projectDefault ? "" : ` (project default ${formatCount(x.defaultValue)})`);
   return (
     <div className="rounded-card border border-dusk-200 bg-dusk-50 p-4 text-small text-ink">
       <p>
-        <strong>Thresholds:</strong> service every {t.serviceEveryCompressions.value.toLocaleString("en-GB")} compressions{was(t.serviceEveryCompressions)} or every{" "}
+        <strong>Thresholds:</strong> service every {formatCount(t.serviceEveryCompressions.value)} compressions{was(t.serviceEveryCompressions)} or every{" "}
         {t.serviceEveryDays.value} days{was(t.serviceEveryDays)}; at least {t.minMouthpieceCleansPerLearner.value} mouthpiece clean
         {t.minMouthpieceCleansPerLearner.value === 1 ? "" : "s"} per learner{was(t.minMouthpieceCleansPerLearner)}.
       </p>
@@ -92,7 +92,7 @@ function Thresholds({ answer, ownSite }: { answer: EquipmentAnswer; ownSite: boo
             Settings
           </Link>
         )}
-        . Days are counted to {dateOnly(answer.asOf)}.
+        . Days are counted to {formatDay(answer.asOf)}.
       </p>
     </div>
   );
@@ -108,7 +108,7 @@ function EquipmentView({ answer, ownSite }: { answer: EquipmentAnswer; ownSite: 
         </h2>
         <Thresholds answer={answer} ownSite={ownSite} />
         <p className="text-small text-muted">
-          Services and faults are as of {dateOnly(answer.asOf)}; mouthpiece cleans cover the classes of {rangeLabel(answer.period)}.
+          Services and faults are as of {formatDay(answer.asOf)}; mouthpiece cleans cover the classes of {rangeLabel(answer.period)}.
         </p>
         <AttentionList items={answer.attention} linkClasses />
       </section>

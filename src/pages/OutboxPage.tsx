@@ -9,7 +9,7 @@ import { Button } from "../components/Button";
 import { DataTable, type Column } from "../components/DataTable";
 import { PageHeader } from "../components/PageHeader";
 import { EmptyState, ErrorState, LoadingState } from "../components/States";
-import { formatMessageTime } from "../features/outbox/format";
+import { formatDateTime } from "../lib/formatting";
 import { MessageView } from "../features/outbox/MessageView";
 import { outboxQueries } from "../features/outbox/queries";
 
@@ -46,7 +46,7 @@ export default function OutboxPage() {
       key: "received",
       header: "Received",
       value: (m) => m.receivedAt,
-      render: (m) => formatMessageTime(m.receivedAt),
+      render: (m) => formatDateTime(m.receivedAt),
       sortLabels: { asc: "oldest first", desc: "newest first" },
     },
     { key: "from", header: "From", value: (m) => m.from },

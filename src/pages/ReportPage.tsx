@@ -1,6 +1,7 @@
 // Funder report (funders and the coordinator): the period's report as a readable page, its stored PDF, a
-// clean printout; for the coordinator also the text on what the network is doing, report versions and
-// sending to funders. The period is in the address (?period=2026-Q3 or ?period=2026).
+// clean printout; for the coordinator also today's figures, the text on what the network is doing, report
+// versions, releasing and sending to funders. Funders read released versions only, and choose among the
+// periods that have one. The period is in the address (?period=2026-Q3 or ?period=2026).
 import { useQuery } from "@tanstack/react-query";
 import { useState } from "react";
 import { Link, useSearchParams } from "react-router";
@@ -11,25 +12,32 @@ import { PageHeader } from "../components/PageHeader";
 import { EmptyState, ErrorState, LoadingState } from "../components/States";
 import { useCan } from "../features/auth/useCan";
 import { NotesEditor } from "../features/report/NotesEditor";
-import { defaultPeriod, periodIsRunning, periodLabel } from "../../shared/period";
+import { defaultPeriod, periodIsRunning, periodKindOf, periodLabel } from "../../shared/period";
 import { PeriodPicker } from "../features/report/PeriodPicker";
 import { insightQueries } from "../features/insight/queries";
 import { pdfUrl, reportQueries } from "../features/report/queries";
 import { ReportView } from "../features/report/ReportView";
 import { SendForm } from "../features/report/SendForm";
 import { SendHistory } from "../features/report/SendHistory";
-import { formatKb, formatTime, VersionsPanel } from "../features/report/VersionsPanel";
+import { formatKb, VersionsPanel } from "../features/report/VersionsPanel";
+import { formatDateTime } from "../lib/formatting";
 import "../styles/print.css";
 
 export default function ReportPage() {
   // who prepares and sends the report: the text for funders, versions and sending
   const coordinator = useCan("sendReport");
-  // the quarters with data: the one filter options query holds them for every role that may read reports
-  const quarters = useQuery({ ...insightQueries.options(), select: (options) => options.quarters });
+  // the coordinator chooses among the quarters with data (the one filter options query holds them); a funder
+  // among the periods with a released version
+  const quarters = useQuery({ ...insightQueries.options(), select: (options) => options.quarters, enabled: coordinator });
+  const released = useQuery({ ...reportQueries.allVersions(), enabled: !coordinator });
+  const choices = coordinator ? quarters : released;
+  const releasedPeriods = [...new Set((released.data ?? []).map((v) => v.period))];
+  const pickerQuarters = coordinator ? (quarters.data ?? []) : releasedPeriods.filter((p) => periodKindOf(p) === "quarter");
+  const pickerYears = coordinator ? undefined : releasedPeriods.filter((p) => periodKindOf(p) === "year");
   const [params, setParams] = useSearchParams();
   const requested = params.get("period");
   const parsed = requested === null ? null : periodSchema.safeParse(requested);
-  const fallback = quarters.data ? defaultPeriod(quarters.data) : null;
+  const fallback = coordinator ? (quarters.data ? defaultPeriod(quarters.data) : null) : (released.data?.[0]?.period ?? null);
   const period = parsed?.success ? parsed.data : fallback;
 
   function choose(next: string) {
@@ -56,13 +64,13 @@ export default function ReportPage() {
         />
       </div>
 
-      {quarters.isPending ? (
-        <LoadingState label="Loading the periods with data…" />
-      ) : quarters.isError ? (
-        <ErrorState error={quarters.error} title="The report periods could not be loaded" onRetry={() => quarters.refetch()} />
+      {choices.isPending ? (
+        <LoadingState label="Loading the report periods…" />
+      ) : choices.isError ? (
+        <ErrorState error={choices.error} title="The report periods could not be loaded" onRetry={() => choices.refetch()} />
       ) : period === null ? (
         <EmptyState
-          title="There is nothing to report yet"
+          title={coordinator ? "There is nothing to report yet" : "No report has been released yet"}
           action={
             coordinator ? (
               <Link to="/imports" className="font-semibold text-dusk-700 underline underline-offset-2">
@@ -71,7 +79,9 @@ export default function ReportPage() {
             ) : undefined
           }
         >
-          No classes or measured attempts have been imported into Quarterbeat.
+          {coordinator
+            ? "No classes or measured attempts have been imported into Quarterbeat."
+            : "The coordinator has not released a report to funders yet. You will get an e-mail when one is released."}
         </EmptyState>
       ) : (
         <>
@@ -80,7 +90,7 @@ export default function ReportPage() {
               “{requested}” is not a report period. Showing {periodLabel(period)} instead; use a quarter such as 2026-Q3 or a year such as 2026.
             </Notice>
           )}
-          <PeriodPicker quarters={quarters.data} period={period} onChange={choose} />
+          <PeriodPicker quarters={pickerQuarters} years={pickerYears} period={period} onChange={choose} />
           <ReportForPeriod key={period} period={period} coordinator={coordinator} />
         </>
       )}
@@ -93,16 +103,24 @@ type Source = "version" | "current";
 function ReportForPeriod({ period, coordinator }: { period: string; coordinator: boolean }) {
   const versions = useQuery(reportQueries.versions(period));
   const latest: ReportVersion | undefined = versions.data?.[0];
-  // Funders read what they were sent (the latest version); the coordinator prepares from today's figures.
+  // Funders read the latest released version (the server lists no other to them); the coordinator prepares
+  // from today's figures and may switch to the latest stored version.
   const [chosen, setChosen] = useState<Source | null>(null);
-  const source: Source = chosen ?? (coordinator || !latest ? "current" : "version");
+  const source: Source = coordinator ? (chosen ?? "current") : "version";
   const showVersion = source === "version" && latest !== undefined;
-  const preview = useQuery({ ...reportQueries.preview(period), enabled: versions.isSuccess && !showVersion });
+  const preview = useQuery({ ...reportQueries.preview(period), enabled: coordinator && versions.isSuccess && !showVersion });
   const stored = useQuery({ ...reportQueries.versionData(latest?.id ?? 0), enabled: showVersion });
   const running = periodIsRunning(period);
 
   if (versions.isPending) return <LoadingState label={`Loading the report for ${periodLabel(period)}…`} />;
   if (versions.isError) return <ErrorState error={versions.error} title="The report could not be loaded" onRetry={() => versions.refetch()} />;
+  if (!coordinator && !latest) {
+    return (
+      <EmptyState title={`No report has been released for ${periodLabel(period)}`}>
+        Choose another period above. You will get an e-mail when the coordinator releases a report.
+      </EmptyState>
+    );
+  }
 
   const data = showVersion ? stored.data?.data : preview.data;
   const loading = showVersion ? stored.isPending : preview.isPending;
@@ -110,12 +128,12 @@ function ReportForPeriod({ period, coordinator }: { period: string; coordinator:
 
   const sourceNote = showVersion ? (
     <p>
-      You are reading <strong>version {latest.version}</strong>, created {formatTime(latest.createdAt)}
+      You are reading <strong>version {latest.version}</strong>, created {formatDateTime(latest.createdAt)}
       {latest.createdBy ? ` by ${latest.createdBy}` : ""}: the same figures as its PDF.
     </p>
   ) : latest ? (
     <p>
-      You are reading <strong>today's figures</strong>. The latest stored version is {latest.version}, created {formatTime(latest.createdAt)}; imports since then may
+      You are reading <strong>today's figures</strong>. The latest stored version is {latest.version}, created {formatDateTime(latest.createdAt)}; imports since then may
       have changed some figures.
     </p>
   ) : (
@@ -156,7 +174,7 @@ function ReportForPeriod({ period, coordinator }: { period: string; coordinator:
             </a>
           )}
         </div>
-        {latest && (
+        {coordinator && latest && (
           <div role="radiogroup" aria-label="Figures to show" className="flex flex-wrap items-center gap-x-4 gap-y-1 text-small">
             <span className="font-semibold" aria-hidden="true">
               Show:
@@ -197,7 +215,9 @@ function ReportForPeriod({ period, coordinator }: { period: string; coordinator:
             <h2 id="prepare-heading" tabIndex={-1} className="scroll-mt-24 text-headline outline-none">
               Prepare and send
             </h2>
-            <p className="text-muted">Only coordinators see this part. Funders see the report above and download the latest version's PDF.</p>
+            <p className="text-muted">
+              Only coordinators see this part. Funders read the latest version you released or sent, and download its PDF.
+            </p>
           </div>
           <VersionsPanel period={period} versions={versions.data} onCreated={() => undefined} />
           <section aria-labelledby="send-heading" className="flex flex-col gap-3">

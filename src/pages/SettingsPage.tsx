@@ -9,7 +9,7 @@ import { Notice } from "../components/Notice";
 import { PageHeader } from "../components/PageHeader";
 import { SafetyNote } from "../components/SafetyNote";
 import { ErrorState, LoadingState } from "../components/States";
-import { dateTime } from "../features/attempts/labels";
+import { formatDateTime } from "../lib/formatting";
 import { useInsightOptions } from "../features/insight/useInsightFilters";
 import { useCan } from "../features/auth/useCan";
 import { useSavePolicy } from "../features/settings/mutations";
@@ -55,7 +55,7 @@ function Settings({ answer }: { answer: PolicySettingsAnswer }) {
       <SafetyNote />
       <div className="flex flex-col gap-1 rounded-card border border-dusk-200 bg-dusk-50 p-4 text-small">
         <p>
-          <strong>In force: version {current.version}</strong>, saved {dateTime(current.createdAt)}
+          <strong>In force: version {current.version}</strong>, saved {formatDateTime(current.createdAt)}
           {current.note ? ` — “${current.note}”` : ""}.
         </p>
         <p className="text-muted">

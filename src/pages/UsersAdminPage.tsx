@@ -1,4 +1,5 @@
 // Users (coordinator): every account, adding one, editing, deactivating and setting temporary passwords.
+import { formatDay } from "../lib/formatting";
 import { useQuery } from "@tanstack/react-query";
 import { useCallback, useMemo, useState } from "react";
 import { roleLabels } from "../../shared/domain";
@@ -18,7 +19,6 @@ import { AddUserForm, EditUserForm, ResetPasswordForm } from "../features/users/
 type OpenDialog = { kind: "add" } | { kind: "edit"; user: UserRow } | { kind: "password"; user: UserRow } | null;
 type Message = { tone: "success" | "error"; text: string } | null;
 
-const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: "medium" });
 
 export default function UsersAdminPage() {
   const me = useCurrentUser();
@@ -64,7 +64,7 @@ export default function UsersAdminPage() {
         key: "created",
         header: "Added",
         value: (u) => u.createdAt.slice(0, 10),
-        render: (u) => formatDate(u.createdAt),
+        render: (u) => formatDay(u.createdAt),
         sortLabels: { asc: "oldest first", desc: "newest first" },
       },
       {
@@ -164,11 +164,6 @@ export default function UsersAdminPage() {
       </Dialog>
     </div>
   );
-}
-
-function formatDate(iso: string): string {
-  const date = new Date(iso);
-  return Number.isNaN(date.getTime()) ? iso : dateFormat.format(date);
 }
 
 /** Long addresses may break after the "@" and nowhere else, so the table keeps its actions in view. */

@@ -55,7 +55,7 @@ const matrix: Row[] = [
   { method: "get", path: "/api/imports/batches", expect: { coordinator: 200, quality_lead: 403, instructor: 200, funder: 403 } },
   { method: "get", path: "/api/imports/presets", expect: { coordinator: 200, quality_lead: 403, instructor: 200, funder: 403 } },
   { method: "get", path: "/api/reports", expect: { coordinator: 200, quality_lead: 403, instructor: 403, funder: 200 } },
-  { method: "get", path: "/api/reports/2026-Q2/preview", expect: { coordinator: 200, quality_lead: 403, instructor: 403, funder: 200 } },
+  { method: "get", path: "/api/reports/2026-Q2/preview", expect: coordinatorOnly },
   { method: "get", path: "/api/reports/2026-Q2/notes", expect: { coordinator: 200, quality_lead: 403, instructor: 403, funder: 200 } },
   { method: "put", path: "/api/reports/2026-Q2/notes", body: { actions: "Depth drill first" }, expect: coordinatorOnly },
   { method: "get", path: "/api/report-sends", expect: coordinatorOnly },

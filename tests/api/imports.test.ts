@@ -54,6 +54,25 @@ describe("upload → preview → validate → import", () => {
     expect(preview.extra).toEqual(["room"]);
     expect(preview.columns.find((c) => c.column === "instructor")?.source).toBe("instructor");
     expect(res.body.upload.fileName).toBe("classes-valid.csv");
+    expect(preview.delimiter).toBe("comma");
+  });
+
+  it("previews and validates semicolon- and tab-separated uploads column by column, naming the separator", async () => {
+    for (const [file, delimiter] of [
+      ["classes-semicolon.csv", "semicolon"],
+      ["classes-tab.csv", "tab"],
+    ] as const) {
+      const res = await upload(coordinator, "classes", fixture(file)).expect(201);
+      const preview = previewSchema.parse(res.body.preview);
+      expect(preview.delimiter, file).toBe(delimiter);
+      expect(preview.header, file).toHaveLength(12);
+      expect(preview.rows[0][7], file).toBe("MK-1;MK-2");
+      expect(preview.problems, file).toEqual([]);
+      const validate = await coordinator.post(`/api/imports/uploads/${res.body.upload.id}/validate`, {}).expect(202);
+      const summary = importSummarySchema.parse((await finished(coordinator, validate.body.job.id)).summary);
+      expect(summary, file).toMatchObject({ status: "validated", delimiter, inserted: 3, rejected: 0 });
+    }
+    expect(count("classes")).toBe(0);
   });
 
   it("validates as a dry-run job that writes nothing, then imports as a second job", async () => {

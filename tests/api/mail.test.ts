@@ -60,8 +60,9 @@ describe("sending a report", () => {
     coordinator = await signIn(appWithSmtp(mail.url), "coord@test.example");
   });
 
-  it("delivers the stored PDF to every active funder and the extra addresses", async () => {
-    const res = await coordinator.post(`/api/reports/${reportId}/send`, { extraRecipients: ["Board@Foundation.example"] }).expect(201);
+  it("delivers the stored PDF with the cover note to every active funder and the extra addresses, one message each", async () => {
+    const coverNote = "Dear funders,\nhere is our third-quarter report; depth has improved since spring.";
+    const res = await coordinator.post(`/api/reports/${reportId}/send`, { coverNote, extraRecipients: ["Board@Foundation.example"] }).expect(201);
     expect(res.body.send).toMatchObject({
       reportId,
       period: "2026-Q3",
@@ -69,26 +70,45 @@ describe("sending a report", () => {
       status: "sent",
       error: null,
       sentBy: "coord",
+      coverNote,
       recipients: ["funder@test.example", "board@foundation.example"],
+      delivered: ["funder@test.example", "board@foundation.example"],
     });
 
-    const [received] = db.select().from(mailbox).all();
-    expect(received.recipients).toEqual(["funder@test.example", "board@foundation.example"]);
-    expect(received.subject).toBe("Quarterbeat training network: training quality report for July–September 2026 (2026-Q3)");
-    expect(received.text).toContain("65.0 % of measured attempts met the network's pass rule (95 % interval 49.5–77.9 %).");
-    expect(received.text).toContain("not a medical device");
-    const pdf = findReport(db, reportId).pdf;
-    expect(received.attachments).toEqual([{ filename: "quarterbeat-funder-report-2026-Q3-v1.pdf", contentType: "application/pdf", size: pdf.length }]);
+    const received = db.select().from(mailbox).all();
+    // one message per recipient: nobody's message carries another recipient's address
+    expect(received.map((m) => m.recipients)).toEqual([["funder@test.example"], ["board@foundation.example"]]);
+    expect(received[0].raw.toString("latin1")).not.toContain("board@foundation.example");
+    expect(received[1].raw.toString("latin1")).not.toContain("funder@test.example");
+    for (const message of received) {
+      expect(message.subject).toBe("Quarterbeat training network: training quality report for July–September 2026 (2026-Q3)");
+      expect(message.text.replace(/\r\n/g, "\n").startsWith(coverNote)).toBe(true);
+      expect(message.text).toContain("65.0 % of measured attempts met the network's pass rule (95 % interval 49.5–77.9 %).");
+      expect(message.text).toContain("not a medical device");
+      const pdf = findReport(db, reportId).pdf;
+      expect(message.attachments).toEqual([{ filename: "quarterbeat-funder-report-2026-Q3-v1.pdf", contentType: "application/pdf", size: pdf.length }]);
+    }
+    // the funders hold the PDF now: the version counts as released to them
+    expect(findReport(db, reportId).releasedAt).not.toBeNull();
+  });
+
+  it("refuses a send without a cover note, or with a blank one, and sends nothing", async () => {
+    const before = db.select().from(mailbox).all().length;
+    const missing = await coordinator.post(`/api/reports/${reportId}/send`, {}).expect(422);
+    expect(missing.body.error.details).toEqual([{ path: "coverNote", message: "Write a cover note for the funders" }]);
+    const blank = await coordinator.post(`/api/reports/${reportId}/send`, { coverNote: "  \n " }).expect(422);
+    expect(blank.body.error.details[0]).toEqual({ path: "coverNote", message: "Write a cover note for the funders" });
+    expect(db.select().from(mailbox).all()).toHaveLength(before);
   });
 
   it("lists the message in the outbox and downloads its attachment as the same bytes", async () => {
     const outbox = await coordinator.get("/api/outbox").expect(200);
     const [message] = outbox.body.messages;
     expect(message).toMatchObject({
-      recipients: ["funder@test.example", "board@foundation.example"],
+      recipients: ["board@foundation.example"],
       attachments: [{ index: 0, filename: "quarterbeat-funder-report-2026-Q3-v1.pdf", contentType: "application/pdf" }],
     });
-    expect(message.text).toContain("Dear funder");
+    expect(message.text).toContain("Dear funders,");
     const file = await coordinator.get(`/api/outbox/${message.id}/attachment/0`).buffer(true).parse(binary).expect(200);
     expect(file.headers["content-type"]).toBe("application/pdf");
     expect(Buffer.compare(file.body as Buffer, findReport(db, reportId).pdf)).toBe(0);
@@ -127,7 +147,7 @@ describe("sending a report", () => {
   });
 
   it("refuses an extra address that is not an e-mail address", async () => {
-    const res = await coordinator.post(`/api/reports/${reportId}/send`, { extraRecipients: ["not an address"] }).expect(422);
+    const res = await coordinator.post(`/api/reports/${reportId}/send`, { coverNote: "Hello", extraRecipients: ["not an address"] }).expect(422);
     expect(res.body.error.details[0].path).toBe("extraRecipients.0");
   });
 });
@@ -136,7 +156,7 @@ describe("a send that fails", () => {
   it("is recorded as failed against a closed port and becomes sent when retried against a working server", async () => {
     const before = db.select().from(mailbox).all().length;
     const broken = await signIn(appWithSmtp(closedPortUrl), "coord@test.example");
-    const failed = await broken.post(`/api/reports/${reportId}/send`, {}).expect(201);
+    const failed = await broken.post(`/api/reports/${reportId}/send`, { coverNote: "Our report." }).expect(201);
     expect(failed.body.send.status).toBe("failed");
     expect(failed.body.send.error).toMatch(/ECONNREFUSED|connect/i);
 
@@ -160,9 +180,38 @@ describe("a send that fails", () => {
 
   it("is recorded as failed with a clear message when no mail server is configured", async () => {
     const unconfigured = await signIn(appWithSmtp(undefined), "coord@test.example");
-    const res = await unconfigured.post(`/api/reports/${reportId}/send`, {}).expect(201);
+    const res = await unconfigured.post(`/api/reports/${reportId}/send`, { coverNote: "Our report." }).expect(201);
     expect(res.body.send.status).toBe("failed");
     expect(res.body.send.error).toMatch(/No mail server is configured/);
+  });
+});
+
+describe("releasing a version", () => {
+  it("lets funders see it and sends each active funder a notice of their own, once", async () => {
+    const coordinator = await signIn(appWithSmtp(mail.url), "coord@test.example");
+    const funder = await signIn(appWithSmtp(mail.url), "funder@test.example");
+    const created = (await coordinator.post("/api/reports/2026-Q3").expect(201)).body.report;
+    expect((await funder.get("/api/reports?period=2026-Q3").expect(200)).body.reports.map((r: { id: number }) => r.id)).not.toContain(created.id);
+    await funder.get(`/api/reports/${created.id}/pdf`).expect(404);
+
+    const before = db.select().from(mailbox).all().length;
+    const res = await coordinator.post(`/api/reports/${created.id}/release`).expect(200);
+    expect(res.body).toMatchObject({ released: true, notified: ["funder@test.example"], failed: [] });
+    const notices = db.select().from(mailbox).all().slice(before);
+    expect(notices).toHaveLength(1);
+    expect(notices[0]).toMatchObject({
+      recipients: ["funder@test.example"],
+      subject: "Quarterbeat training network: training quality report for July–September 2026 released",
+      attachments: [],
+    });
+    expect(notices[0].text).toContain(`Version ${created.version} of the training quality report`);
+    expect(notices[0].text).toMatch(/\/report\?period=2026-Q3/);
+
+    expect((await funder.get("/api/reports?period=2026-Q3").expect(200)).body.reports[0].id).toBe(created.id);
+    await funder.get(`/api/reports/${created.id}/pdf`).expect(200);
+    // releasing again changes nothing and sends no second notice
+    await coordinator.post(`/api/reports/${created.id}/release`).expect(200);
+    expect(db.select().from(mailbox).all()).toHaveLength(before + 1);
   });
 });
 

@@ -1,5 +1,5 @@
-// Funder report routes on the real app: who may read, generate and write notes; stored versions download
-// byte for byte; funders see the report but none of the drill-down.
+// Funder report routes on the real app: who may read, generate, write notes and release; stored versions
+// download byte for byte; funders see released versions only and none of the drill-down.
 import { eq } from "drizzle-orm";
 import { PDFParse } from "pdf-parse";
 import type { Test } from "supertest";
@@ -35,8 +35,8 @@ beforeAll(async () => {
 afterAll(() => db.$client.close());
 
 describe("report preview", () => {
-  it("gives coordinators and funders the data and narrative, computed from the fixture", async () => {
-    for (const agent of [coordinator, funder]) {
+  it("gives the coordinator the data and narrative, computed from the fixture", async () => {
+    for (const agent of [coordinator]) {
       const res = await agent.get("/api/reports/2026-Q3/preview").expect(200);
       const report = res.body.report;
       // 26 of 40 attempts passed; Wilson 95 % interval 0.49506–0.77865 (Newcombe 1998 method 3, computed by hand)
@@ -53,7 +53,8 @@ describe("report preview", () => {
     expect(bad.body.error.message).toMatch(/2026-Q3 or a year such as 2026/);
   });
 
-  it("is closed to instructors and to people who are not signed in", async () => {
+  it("is closed to funders (they read released versions), instructors and people who are not signed in", async () => {
+    await funder.get("/api/reports/2026-Q3/preview").expect(403);
     await instructor.get("/api/reports/2026-Q3/preview").expect(403);
     const { default: request } = await import("supertest");
     await request(app).get("/api/reports/2026-Q3/preview").expect(401);
@@ -67,7 +68,7 @@ describe("coordinator's note on the errors", () => {
     expect(put.body).toEqual({ period: "2026-Q3", actions: text });
     const read = await funder.get("/api/reports/2026-Q3/notes").expect(200);
     expect(read.body.actions).toBe(text);
-    const preview = await funder.get("/api/reports/2026-Q3/preview").expect(200);
+    const preview = await coordinator.get("/api/reports/2026-Q3/preview").expect(200);
     expect(preview.body.report.errors.actions).toBe(text);
   });
 
@@ -84,14 +85,32 @@ describe("stored versions", () => {
   it("generates numbered versions and lists them newest first", async () => {
     const first = await coordinator.post("/api/reports/2026-Q3").expect(201);
     const second = await coordinator.post("/api/reports/2026-Q3").expect(201);
-    expect(first.body.report).toMatchObject({ period: "2026-Q3", version: 1, createdBy: "coord", lastSend: null });
+    expect(first.body.report).toMatchObject({ period: "2026-Q3", version: 1, createdBy: "coord", lastSend: null, releasedAt: null });
     expect(second.body.report.version).toBe(2);
     expect(first.body.report.pdfBytes).toBeGreaterThan(5000);
     firstId = first.body.report.id;
-    const list = await funder.get("/api/reports").expect(200);
+    const list = await coordinator.get("/api/reports").expect(200);
     expect(list.body.reports.map((r: { version: number }) => r.version)).toEqual([2, 1]);
-    const filtered = await funder.get("/api/reports?period=2025-Q1").expect(200);
+    const filtered = await coordinator.get("/api/reports?period=2025-Q1").expect(200);
     expect(filtered.body.reports).toEqual([]);
+  });
+
+  it("shows funders no version until the coordinator releases one, and then only that one", async () => {
+    expect((await funder.get("/api/reports").expect(200)).body.reports).toEqual([]);
+    for (const part of ["pdf", "csv", "data"]) await funder.get(`/api/reports/${firstId}/${part}`).expect(404);
+
+    await funder.post(`/api/reports/${firstId}/release`).expect(403);
+    const released = await coordinator.post(`/api/reports/${firstId}/release`).expect(200);
+    expect(released.body).toMatchObject({ released: true, report: { id: firstId, version: 1 } });
+    expect(Date.parse(released.body.report.releasedAt)).not.toBeNaN();
+    // no mail server in this app: the release stands, the notice is recorded as not delivered
+    expect(released.body.failed).toEqual([{ address: "funder@test.example", error: expect.stringMatching(/No mail server is configured/) }]);
+
+    const seen = await funder.get("/api/reports?period=2026-Q3").expect(200);
+    expect(seen.body.reports.map((r: { version: number }) => r.version)).toEqual([1]);
+    await funder.get(`/api/reports/${firstId}/data`).expect(200);
+    const again = await coordinator.post(`/api/reports/${firstId}/release`).expect(200);
+    expect(again.body).toMatchObject({ released: false, notified: [], failed: [] });
   });
 
   it("lets a funder download a stored PDF byte for byte, as an attachment with a safe name", async () => {
@@ -100,6 +119,10 @@ describe("stored versions", () => {
     expect(res.headers["content-type"]).toBe("application/pdf");
     expect(res.headers["content-disposition"]).toBe("attachment; filename=quarterbeat-funder-report-2026-Q3-v1.pdf");
     expect(Buffer.compare(res.body as Buffer, Buffer.from(stored.pdf))).toBe(0);
+    // the preview before sending shows the very same bytes inside the page
+    const inline = await coordinator.get(`/api/reports/${firstId}/pdf?inline=1`).buffer(true).parse(binary).expect(200);
+    expect(inline.headers["content-disposition"]).toMatch(/^inline; filename="quarterbeat-funder-report-2026-Q3-v1\.pdf"/);
+    expect(Buffer.compare(inline.body as Buffer, Buffer.from(stored.pdf))).toBe(0);
     const parser = new PDFParse({ data: new Uint8Array(res.body as Buffer) });
     const { text } = await parser.getText();
     await parser.destroy();
@@ -137,7 +160,7 @@ describe("stored versions", () => {
 describe("what a funder may not do", () => {
   it("cannot generate or send a report, nor see sends or the outbox", async () => {
     await funder.post("/api/reports/2026-Q3").expect(403);
-    await funder.post("/api/reports/1/send", {}).expect(403);
+    await funder.post("/api/reports/1/send", { coverNote: "Hello" }).expect(403);
     await funder.get("/api/report-sends").expect(403);
     await funder.post("/api/report-sends/1/retry").expect(403);
     await funder.get("/api/outbox").expect(403);

@@ -61,14 +61,23 @@ describe("quarterbeat report", () => {
     expect(text).toContain("95 % interval 49.5–77.9 %");
   });
 
+  it("refuses --send without a cover note, before storing anything", () => {
+    const res = cli(["report", "--year", "2026", "--send"]);
+    expect(res.code).toBe(2);
+    expect(res.stderr).toContain("--send needs a cover note for the funders.");
+    expect(readDb((db) => db.select().from(mailbox).all())).toHaveLength(0);
+  });
+
   it("with --send and no SMTP_URL, delivers to the local mail service so the message shows in the Outbox", () => {
-    const res = cli(["report", "--year", "2026", "--send", "--to", "board@foundation.example"]);
+    const res = cli(["report", "--year", "2026", "--send", "--note", "Our year in figures.", "--to", "board@foundation.example"]);
     expect(res.stderr).toBe("");
     expect(res.code).toBe(0);
     expect(res.stdout).toContain("Sent to funder@test.example, board@foundation.example.");
     expect(fs.existsSync(path.join(outDir, "quarterbeat-funder-report-2026-v1.pdf"))).toBe(true);
     const messages = readDb((db) => db.select().from(mailbox).all());
-    expect(messages).toHaveLength(1);
+    // one message per recipient, each opening with the cover note
+    expect(messages.map((m) => m.recipients)).toEqual([["funder@test.example"], ["board@foundation.example"]]);
+    expect(messages[0].text).toMatch(/^Our year in figures\./);
     expect(messages[0].attachments[0].filename).toBe("quarterbeat-funder-report-2026-v1.pdf");
   });
 

@@ -35,6 +35,16 @@ describe("quarterbeat import", () => {
     expect(JSON.parse(res.stdout).files[0]).toMatchObject({ inserted: 0, updated: 0, unchanged: 4 });
   });
 
+  it("reads a semicolon-separated file and says which separator it used", SLOW, () => {
+    const res = cli(["--db", db, "import", "classes", fixture("classes-semicolon.csv"), "--dry-run"]);
+    expect(res.stderr).toBe("");
+    expect(res.code).toBe(0);
+    expect(res.stdout).toContain("classes-semicolon.csv (classes): valid (dry run, nothing written)");
+    expect(res.stdout).toContain("columns separated by semicolons");
+    const tab = cli(["--db", db, "import", "classes", fixture("classes-tab.csv"), "--dry-run", "--json"]);
+    expect(JSON.parse(tab.stdout).files[0]).toMatchObject({ delimiter: "tab", status: "validated", rejected: 0 });
+  });
+
   it("exits 1 for a refused file, naming file, row, column and reason, and writes nothing", SLOW, () => {
     const res = cli(["--db", db, "import", "attempts", fixture("attempts-bad.csv")]);
     expect(res.code).toBe(1);

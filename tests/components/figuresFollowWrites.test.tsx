@@ -17,6 +17,7 @@ import { reportQueries } from "../../src/features/report/queries";
 import { VersionsPanel } from "../../src/features/report/VersionsPanel";
 import { useRescore, useSavePolicy } from "../../src/features/settings/mutations";
 import { settingsQueries } from "../../src/features/settings/queries";
+import { appliedBatch } from "./importBatch";
 import { renderApp } from "./renderApp";
 import { fakeServer, sessionFor } from "./testServer";
 
@@ -101,25 +102,7 @@ describe("writes made on this page", () => {
   });
 });
 
-const batch: ImportBatch = {
-  id: 3,
-  kind: "attempts",
-  fileName: "wrenmoor-q3.csv",
-  sha256: "0".repeat(64),
-  source: "web",
-  status: "applied",
-  userId: 7,
-  userEmail: "robin@example.org",
-  rowsRead: 12,
-  inserted: 12,
-  updated: 0,
-  unchanged: 0,
-  rejected: 0,
-  newCodes: null,
-  warnings: null,
-  createdAt: "2026-10-01T09:00:00.000Z",
-  undoneAt: null,
-};
+const batch = appliedBatch;
 
 const historyPath = "GET /api/imports/batches?limit=25&offset=0";
 
@@ -149,7 +132,7 @@ describe("the imports page", () => {
     // Uploads go through XMLHttpRequest (for progress); this stand-in answers with the scripted upload.
     const header = importColumns.classes.map((column) => column.name);
     const upload: Upload = { id: "u1", fileName: "classes.csv", kind: "classes", size: 256, uploadedAt: "2026-10-01T09:00:00.000Z" };
-    const preview: Preview = { header, rows: [], columns: [], extra: [], problems: [], suggestedMapping: { columns: {}, units: { depth: "mm", time: "ms", shares: "percent" }, values: {} } };
+    const preview: Preview = { delimiter: "comma", header, rows: [], columns: [], extra: [], problems: [], suggestedMapping: { columns: {}, units: { depth: "mm", time: "ms", shares: "percent" }, values: {} } };
     class UploadXhr {
       status = 201;
       responseText = JSON.stringify({ upload, preview });
@@ -166,7 +149,7 @@ describe("the imports page", () => {
     vi.stubGlobal("XMLHttpRequest", UploadXhr);
     const summary = (dryRun: boolean) => ({
       file: "classes.csv", kind: "classes" as const, dryRun, status: dryRun ? ("validated" as const) : ("imported" as const), batchId: dryRun ? null : 9, sha256: null,
-      unit: "rows" as const, rowsRead: 1, inserted: 1, updated: 0, unchanged: 0, rejected: 0, attemptsRead: null, attemptsRejected: null,
+      unit: "rows" as const, delimiter: "comma" as const, rowsRead: 1, inserted: 1, updated: 0, unchanged: 0, rejected: 0, attemptsRead: null, attemptsRejected: null,
       newCodes: { sites: [], instructors: [], manikins: [] }, warnings: [], issues: [], issuesTotal: 0, durationMs: 3,
     });
     const job = (id: string, mode: "validate" | "import"): ImportJob => ({

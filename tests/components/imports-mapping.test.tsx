@@ -60,6 +60,7 @@ const firstRow = ["A-1", "C-1", "L-0001", "MK-1", "adult", "live", "2026-07-14T0
 
 const upload: Upload = { id: "u1", fileName: "export.csv", kind: "attempts", size: 512, uploadedAt: "2026-07-20T10:00:00.000Z" };
 const preview: Preview = {
+  delimiter: "comma",
   header,
   rows: [firstRow],
   columns: [],
@@ -80,6 +81,7 @@ const doneJob: ImportJob = {
     kind: "attempts",
     dryRun: true,
     status: "validated",
+    delimiter: "comma",
     batchId: null,
     sha256: null,
     unit: "rows",

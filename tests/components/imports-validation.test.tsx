@@ -13,6 +13,7 @@ function refusedSummary(): ImportSummary {
     kind: "classes",
     dryRun: true,
     status: "refused",
+    delimiter: "comma",
     batchId: null,
     sha256: "d6fc2f95c925a01efde7ca8997eb7c122fe831fb11e6173491df6b912e2b6501",
     unit: "rows",
@@ -68,6 +69,11 @@ describe("validation report", () => {
     const link = screen.getByRole("link", { name: /Download the refused rows/ });
     expect(link.getAttribute("href")).toBe("/api/imports/jobs/abc/rejected.csv");
     expect(screen.getByText(/is not a column of classes files/)).toBeTruthy();
+  });
+
+  it("names the separator the file was read with", () => {
+    render(<ValidationReport summary={{ ...refusedSummary(), delimiter: "semicolon" }} rejectedCsvUrl={null} />);
+    expect(screen.getByText("Columns separated by semicolons.")).toBeTruthy();
   });
 
   it("says when the list is cut short and the download holds the rest", () => {

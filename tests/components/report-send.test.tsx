@@ -24,6 +24,7 @@ const version: ReportVersion = {
   createdBy: "Robin Example",
   pdfBytes: 19_445,
   lastSend: null,
+  releasedAt: "2026-10-02T09:30:00.000Z",
 };
 
 const users = {
@@ -45,16 +46,35 @@ function renderForm() {
   );
 }
 
+const coverNote = "Dear funders,\nour third-quarter report is attached.";
+
 describe("send to funders", () => {
+  it("asks for a cover note beside the field and goes no further without one", async () => {
+    const server = fakeServer({ "GET /api/users": users });
+    renderForm();
+    expect(await screen.findByText("funder@example.org")).toBeTruthy();
+    fireEvent.change(screen.getByRole("textbox", { name: /Cover note/ }), { target: { value: "   " } });
+    fireEvent.click(screen.getByRole("button", { name: "Review before sending" }));
+
+    const note = screen.getByRole("textbox", { name: /Cover note/ });
+    expect(note.getAttribute("aria-invalid")).toBe("true");
+    const message = document.getElementById(note.getAttribute("aria-describedby")!.split(" ")[0])!;
+    expect(message.textContent).toBe("Write a cover note for the funders");
+    expect(document.activeElement).toBe(note);
+    expect(screen.queryByRole("heading", { name: /Check before sending/ })).toBeNull();
+    expect(server.requests.filter((r) => r.method === "POST")).toHaveLength(0);
+  });
+
   it("refuses an invalid extra address beside the field and sends nothing", async () => {
     const server = fakeServer({ "GET /api/users": users });
     renderForm();
     expect(await screen.findByText("funder@example.org")).toBeTruthy(); // active funders only
     expect(screen.queryByText(/old-funder/)).toBeNull();
 
+    fireEvent.change(screen.getByRole("textbox", { name: /Cover note/ }), { target: { value: coverNote } });
     const extra = screen.getByRole("textbox", { name: /Extra addresses/ });
     fireEvent.change(extra, { target: { value: "board@example.org, treasurer(at)example.org" } });
-    fireEvent.click(screen.getByRole("button", { name: "Send to funders" }));
+    fireEvent.click(screen.getByRole("button", { name: "Review before sending" }));
 
     expect(extra.getAttribute("aria-invalid")).toBe("true");
     const message = document.getElementById(extra.getAttribute("aria-describedby")!.split(" ")[0])!;
@@ -63,7 +83,7 @@ describe("send to funders", () => {
     expect(server.requests.filter((r) => r.method === "POST")).toHaveLength(0);
   });
 
-  it("sends the chosen version with the extra addresses, cleaned", async () => {
+  it("shows the exact PDF, the note, the period and every recipient before anything is sent, and sends on confirmation", async () => {
     const sent: ReportSendRow = {
       id: 1,
       reportId: 4,
@@ -71,6 +91,8 @@ describe("send to funders", () => {
       version: 2,
       sentBy: "Robin Example",
       recipients: ["funder@example.org", "board@example.org"],
+      delivered: ["funder@example.org", "board@example.org"],
+      coverNote,
       status: "sent",
       error: null,
       messageId: "<1@localhost>",
@@ -78,12 +100,49 @@ describe("send to funders", () => {
     };
     const server = fakeServer({ "GET /api/users": users, "POST /api/reports/4/send": { status: 201, body: { send: sent } } });
     renderForm();
+    expect(await screen.findByText("funder@example.org")).toBeTruthy();
+    fireEvent.change(screen.getByRole("textbox", { name: /Cover note/ }), { target: { value: `  ${coverNote} ` } });
     fireEvent.change(screen.getByRole("textbox", { name: /Extra addresses/ }), { target: { value: " Board@Example.org;\nboard@example.org " } });
-    fireEvent.click(screen.getByRole("button", { name: "Send to funders" }));
-    expect(await screen.findByText("Version 2 of 2026 Q3 was sent to funder@example.org, board@example.org.")).toBeTruthy();
+    fireEvent.click(screen.getByRole("button", { name: "Review before sending" }));
+
+    const heading = screen.getByRole("heading", { name: "Check before sending: 2026 Q3, version 2" });
+    expect(document.activeElement).toBe(heading);
+    const recipients = screen.getByRole("list", { name: "Recipients" });
+    expect([...recipients.querySelectorAll("li")].map((li) => li.textContent)).toEqual(["funder@example.org", "board@example.org"]);
+    expect(screen.getByText(/each in a message of their own/)).toBeTruthy();
+    expect(screen.getByText((_, el) => el?.tagName === "BLOCKQUOTE" && el.textContent === coverNote)).toBeTruthy();
+    const frame = screen.getByTitle("PDF of 2026 Q3, version 2, as it will be attached");
+    expect(frame.getAttribute("src")).toBe("/api/reports/4/pdf?inline=1");
+    expect(screen.getByRole("link", { name: "Download the PDF of version 2" }).getAttribute("href")).toBe("/api/reports/4/pdf");
+    expect(server.requests.filter((r) => r.method === "POST")).toHaveLength(0);
+
+    fireEvent.click(screen.getByRole("button", { name: "Send to 2 recipients" }));
+    expect(await screen.findByText("Version 2 of 2026 Q3 was sent to funder@example.org, board@example.org, one message each.")).toBeTruthy();
     const post = server.requests.find((r) => r.method === "POST")!;
     expect(post.path).toBe("/api/reports/4/send");
-    expect(post.body).toEqual({ extraRecipients: ["board@example.org"] });
+    expect(post.body).toEqual({ coverNote, extraRecipients: ["board@example.org"] });
+  });
+
+  it("warns when the version to send was stored without the text on what the network is doing", async () => {
+    const data = { hasData: true, errors: { rows: [], attemptsWithErrors: { value: 0, hidden: null, text: "0" }, actions: "  " } };
+    fakeServer({ "GET /api/users": users, "GET /api/reports/4/data": { status: 200, body: { report: version, data } } });
+    renderForm();
+    expect(await screen.findByText("funder@example.org")).toBeTruthy();
+    fireEvent.change(screen.getByRole("textbox", { name: /Cover note/ }), { target: { value: coverNote } });
+    fireEvent.click(screen.getByRole("button", { name: "Review before sending" }));
+    expect(await screen.findByText(/This version was stored before you wrote what the network is doing about the errors/)).toBeTruthy();
+  });
+
+  it("goes back to the form with everything kept, and sends nothing", async () => {
+    const server = fakeServer({ "GET /api/users": users });
+    renderForm();
+    expect(await screen.findByText("funder@example.org")).toBeTruthy();
+    fireEvent.change(screen.getByRole("textbox", { name: /Cover note/ }), { target: { value: coverNote } });
+    fireEvent.click(screen.getByRole("button", { name: "Review before sending" }));
+    fireEvent.click(screen.getByRole("button", { name: "Back to editing" }));
+    expect((screen.getByRole("textbox", { name: /Cover note/ }) as HTMLTextAreaElement).value).toBe(coverNote);
+    expect(screen.queryByRole("heading", { name: /Check before sending/ })).toBeNull();
+    expect(server.requests.filter((r) => r.method === "POST")).toHaveLength(0);
   });
 
   it("reads addresses separated by commas, semicolons, spaces or lines, and caps them at 20", () => {
@@ -102,11 +161,12 @@ describe("send to funders", () => {
 });
 
 describe("report page", () => {
-  it("offers funders the latest version's stored PDF and none of the coordinator's tools", async () => {
+  it("offers funders the latest released version's stored PDF and none of the coordinator's tools", async () => {
+    const released = [version, { ...version, id: 3, version: 1 }];
     const server = fakeServer({
       "GET /api/me": sessionFor("funder"),
-      "GET /api/insight/options": { status: 200, body: { quarters: ["2026-Q3"], sites: [], patientTypes: [], feedbackModes: [], errors: [], instructors: [], manikins: [] } },
-      "GET /api/reports?period=2026-Q3": { status: 200, body: { reports: [version, { ...version, id: 3, version: 1 }] } },
+      "GET /api/reports": { status: 200, body: { reports: released } },
+      "GET /api/reports?period=2026-Q3": { status: 200, body: { reports: released } },
       "GET /api/reports/4/data": { status: 404, body: { error: { code: "not_found", message: "The report was not found." } } },
     });
     renderApp("/report?period=2026-Q3");
@@ -119,5 +179,16 @@ describe("report page", () => {
     expect(screen.queryByRole("button", { name: "Create report version" })).toBeNull();
     expect(screen.queryByRole("heading", { name: "Prepare and send" })).toBeNull();
     expect(server.requests.some((r) => r.path === "/api/report-sends")).toBe(false);
+    // no "today's figures" for funders: they read what was released to them
+    expect(screen.queryByRole("radio", { name: "Today's figures" })).toBeNull();
+    expect(server.requests.some((r) => r.path.includes("/preview"))).toBe(false);
+  });
+
+  it("tells a funder when no report has been released yet, and opens on no period", async () => {
+    const server = fakeServer({ "GET /api/me": sessionFor("funder"), "GET /api/reports": { status: 200, body: { reports: [] } } });
+    renderApp("/report");
+    expect(await screen.findByText("No report has been released yet")).toBeTruthy();
+    expect(screen.queryByRole("link", { name: /Download PDF/ })).toBeNull();
+    expect(server.requests.some((r) => r.path.startsWith("/api/reports?period="))).toBe(false);
   });
 });

@@ -1,13 +1,15 @@
 // The coordinator's quarter: sign in, import a class log and a device's attempts export whose columns need
 // matching (depth in centimetres), see the refused rows named by row, column and reason, upload the
 // corrected file, import it, and find the overview's numbers moved to what the API reports. The same sign-in
-// and import are then done with the keyboard alone.
+// and import are then done with the keyboard alone. Last, the funder report: a new version is previewed as
+// the PDF it is, sent only with a cover note and after a confirmation naming the period and every recipient.
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import type { Page } from "playwright-core";
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import type { OverviewAnswer } from "../../shared/schemas/insight";
+import { defaultPeriod, periodLabel } from "../../shared/period";
 import { formatCount, formatPercent } from "../../src/features/insight/format";
 import { runCli } from "../faults/helpers";
 import { describeFindings } from "./support/a11y";
@@ -314,5 +316,47 @@ describe("coordinator", () => {
 
     const batches = await journey.api<{ batches: { fileName: string; inserted: number; source: string }[] }>(page, "/api/imports/batches?limit=1");
     expect(batches.body.batches[0]).toMatchObject({ fileName: "keyboard-classes.csv", inserted: 1, source: "web" });
+  }, JOURNEY_TIMEOUT);
+
+  it("previews the report as its PDF, writes a cover note, confirms period and recipients, and sends", async () => {
+    const { page } = await journey.newPage();
+    await journey.signIn(page, coordinator.email, coordinator.password);
+    const options = await journey.api<{ quarters: string[] }>(page, "/api/insight/options");
+    const period = defaultPeriod(options.body.quarters)!;
+    await page.goto(`/report?period=${period}`);
+    await page.getByRole("heading", { name: "Funder report", level: 1 }).waitFor();
+
+    // a version of its own, so the step knows which PDF goes out
+    await page.getByRole("button", { name: "Create report version" }).click();
+    await page.getByText(/is stored \(PDF, /).waitFor();
+    const stored = await journey.api<{ reports: { id: number; version: number }[] }>(page, `/api/reports?period=${period}`);
+    const latest = stored.body.reports[0];
+    const users = await journey.api<{ users: { email: string; role: string; active: boolean }[] }>(page, "/api/users");
+    const funders = users.body.users.filter((u) => u.role === "funder" && u.active).map((u) => u.email.toLowerCase());
+
+    const send = page.getByRole("region", { name: "Send to funders" });
+    // nothing goes without a cover note
+    await send.getByRole("button", { name: "Review before sending" }).click();
+    await send.getByText("Write a cover note for the funders").waitFor();
+    const coverNote = "Dear funders, here is our report for the quarter.";
+    await send.getByRole("textbox", { name: /Cover note/ }).fill(coverNote);
+    await send.getByRole("button", { name: "Review before sending" }).click();
+
+    // the confirmation: period and version, every recipient, the note and the stored PDF itself
+    await send.getByRole("heading", { name: `Check before sending: ${periodLabel(period)}, version ${latest.version}` }).waitFor();
+    const recipients = await send.getByRole("list", { name: "Recipients" }).getByRole("listitem").allTextContents();
+    expect(recipients).toEqual(funders);
+    expect(await send.locator("iframe").getAttribute("src")).toBe(`/api/reports/${latest.id}/pdf?inline=1`);
+    expect(await send.getByRole("link", { name: `Download the PDF of version ${latest.version}` }).getAttribute("href")).toBe(`/api/reports/${latest.id}/pdf`);
+    // no axe here: the check would have to reach into the browser's own PDF viewer in the frame; the page
+    // itself is checked after the send
+    await journey.visited(page, "report-send-check", { axe: false });
+
+    await send.getByRole("button", { name: `Send to ${recipients.length} recipient${recipients.length === 1 ? "" : "s"}` }).click();
+    // the journeys run without a mail server: the send is recorded either way, with its note and recipients
+    await send.getByText(/was sent to|^Sending failed/).waitFor();
+    const sends = await journey.api<{ sends: { reportId: number; coverNote: string; recipients: string[] }[] }>(page, "/api/report-sends");
+    expect(sends.body.sends[0]).toMatchObject({ reportId: latest.id, coverNote, recipients: funders });
+    await journey.visited(page, "report-sent");
   }, JOURNEY_TIMEOUT);
 });

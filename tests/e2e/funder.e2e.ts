@@ -1,5 +1,6 @@
-// A funder: signs in, opens the quarter's report, downloads its PDF, and is refused every drill-down page
-// (and the API behind them) that would show instructors, errors, classes or single attempts.
+// A funder: signs in, opens the quarter's latest released report (never a version the coordinator has not
+// released), downloads its PDF, and is refused every drill-down page (and the API behind them) that would
+// show instructors, errors, classes or single attempts.
 import fs from "node:fs";
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import { defaultPeriod } from "../../shared/period";
@@ -15,10 +16,13 @@ let journey: Journey;
 let period: string;
 let versionId: number;
 let versionNumber: number;
+/** A newer version the coordinator has not released: funders must not see it. */
+let draftId: number;
 
 beforeAll(async () => {
   journey = await Journey.start("funder");
-  // the coordinator stores a new version of the report, so the test knows which PDF funders must get
+  // the coordinator stores and releases a new version of the report, so the test knows which PDF funders
+  // must get, then stores a newer one without releasing it
   const { context, page } = await journey.newPage();
   await journey.signIn(page, coordinator.email, coordinator.password);
   const options = await journey.api<{ quarters: string[] }>(page, "/api/insight/options");
@@ -27,6 +31,12 @@ beforeAll(async () => {
   expect(created.status).toBe(201);
   versionId = created.body.report.id;
   versionNumber = created.body.report.version;
+  const released = await journey.apiPost<{ released: boolean }>(page, `/api/reports/${versionId}/release`);
+  expect(released.status).toBe(200);
+  expect(released.body.released).toBe(true);
+  const draft = await journey.apiPost<{ report: { id: number } }>(page, `/api/reports/${period}`);
+  expect(draft.status).toBe(201);
+  draftId = draft.body.report.id;
   await context.close();
 }, SETUP_TIMEOUT);
 
@@ -39,17 +49,18 @@ afterAll(async () => {
 });
 
 describe("funder", () => {
-  it("opens the quarter's report, downloads its PDF, and is refused every drill-down", async () => {
+  it("opens the quarter's released report, downloads its PDF, and is refused drafts and every drill-down", async () => {
     const { page } = await journey.newPage();
     await journey.signIn(page, funder.email, funder.password);
 
-    // the report is the funder's start page, showing the stored version
+    // the report is the funder's start page, showing the latest released version, not the newer draft
     await page.waitForURL((url) => url.pathname === "/report");
     await page.getByRole("heading", { name: "Funder report", level: 1 }).waitFor();
     const download = page.getByRole("link", { name: /^Download PDF/ });
     await download.waitFor();
     expect(await download.getAttribute("href")).toBe(`/api/reports/${versionId}/pdf`);
     await page.getByText(`You are reading version ${versionNumber}`).waitFor();
+    expect(await page.getByRole("radio", { name: "Today's figures" }).count()).toBe(0);
     expect(await page.getByRole("combobox", { name: "Quarter" }).inputValue()).toBe(period);
     await page.getByText(new RegExp(`^Period ${period}`)).waitFor();
     await journey.visited(page, "report");
@@ -85,9 +96,11 @@ describe("funder", () => {
     const apiPaths = ["/api/insight/instructors", "/api/insight/errors", "/api/attempts", `/api/attempts/${anAttempt.id}`, `/api/classes/${anAttempt.classId}`, "/api/insight/overview"];
     const statuses = Object.fromEntries(await Promise.all(apiPaths.map(async (path) => [path, (await journey.api(page, path)).status] as const)));
     expect(statuses).toEqual(Object.fromEntries(apiPaths.map((path) => [path, 403])));
-    // while the report's own PDF is open to them
+    // while the released report's own PDF is open to them; the draft and today's figures are not
     const pdf = await page.request.get(journey.url(`/api/reports/${versionId}/pdf`));
     expect(pdf.status()).toBe(200);
+    expect((await page.request.get(journey.url(`/api/reports/${draftId}/pdf`))).status()).toBe(404);
+    expect((await journey.api(page, `/api/reports/${period}/preview`)).status).toBe(403);
 
     expect(journey.findings, describeFindings(journey.findings)).toEqual([]);
   }, JOURNEY_TIMEOUT);

@@ -47,6 +47,7 @@ describe("the list of state-changing routes", () => {
       "DELETE /api/imports/presets/:id",
       "POST /api/reports/:period",
       "PUT /api/reports/:period/notes",
+      "POST /api/reports/:id/release",
       "POST /api/report-sends/:id/retry",
     ]) {
       expect(names).toContain(expected);

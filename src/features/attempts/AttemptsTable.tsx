@@ -7,7 +7,7 @@ import type { AttemptSortKey, SortDirection } from "../../../shared/filters";
 import type { AttemptRow } from "../../../shared/schemas/insight";
 import { attemptFieldNames, patientTypeNames } from "../../../shared/vocabulary";
 import { ErrorNames, ResultBadge, type AttemptColumn } from "./attemptColumns";
-import { dateTime } from "./labels";
+import { formatRecordedDateTime } from "../../lib/formatting";
 import { attemptHref } from "./returnPath";
 
 export interface AttemptsTableProps {
@@ -109,7 +109,7 @@ function PhoneList({ rows, from, caption }: { rows: readonly AttemptRow[]; from:
             </span>
           </div>
           <p className="text-muted">
-            {dateTime(a.startedAt)} · <span className="font-mono">{a.learner}</span> · {patientTypeNames[a.profile]}
+            {formatRecordedDateTime(a.startedAt)} · <span className="font-mono">{a.learner}</span> · {patientTypeNames[a.profile]}
           </p>
           <p className="flex flex-wrap justify-between gap-x-3">
             <ErrorNames errors={a.errors} none="No errors" />

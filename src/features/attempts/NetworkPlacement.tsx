@@ -3,6 +3,7 @@
 import type { AttemptPlacement } from "../../../shared/schemas/insight";
 import { quarterLabel } from "../../../shared/period";
 import { patientTypeNames } from "../../../shared/vocabulary";
+import { formatCount } from "../../lib/formatting";
 import { ordinal } from "./labels";
 
 export interface NetworkPlacementProps {
@@ -35,7 +36,7 @@ export function NetworkPlacement({ placement, score }: NetworkPlacementProps) {
         <>
           <p>
             Its score is at the <strong className="tabular-nums">{ordinal(Math.round(p))} percentile</strong> of the network’s{" "}
-            {placement.attempts.toLocaleString("en-GB")} {group}: higher than {p.toFixed(1)} % of them, ties counted half.
+            {formatCount(placement.attempts)} {group}: higher than {p.toFixed(1)} % of them, ties counted half.
           </p>
           <PercentileTrack percentile={p} />
           <p className="flex justify-between text-caption text-muted" aria-hidden="true">

@@ -7,7 +7,7 @@ import type { LengthUnit } from "../../../shared/units";
 import { attemptFieldNames, errorLabels, errorShortNames, feedbackNames, patientTypeNames, resultNames } from "../../../shared/vocabulary";
 import { TargetBadge } from "../../components/TargetBadge";
 import type { AttemptColumnKey } from "./attemptListState";
-import { dateTime } from "./labels";
+import { formatRecordedDateTime } from "../../lib/formatting";
 
 export interface AttemptColumn {
   key: AttemptColumnKey;
@@ -35,7 +35,7 @@ export function ErrorNames({ errors, none = "None" }: { errors: AttemptRow["erro
 export function attemptColumns(unit: LengthUnit, formatLength: (mm: number) => string): Record<AttemptColumnKey, AttemptColumn> {
   const words = attemptFieldNames;
   return {
-    startedAt: { key: "startedAt", header: words.startedAt, cell: (a) => dateTime(a.startedAt), sortLabels: { asc: "oldest first", desc: "newest first" } },
+    startedAt: { key: "startedAt", header: words.startedAt, cell: (a) => formatRecordedDateTime(a.startedAt), sortLabels: { asc: "oldest first", desc: "newest first" } },
     learner: { key: "learner", header: words.learner, cell: (a) => <span className="font-mono">{a.learner}</span> },
     class: {
       key: "class",

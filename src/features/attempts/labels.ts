@@ -1,4 +1,5 @@
-// How the drill-down pages write errors, numbers and times; the words themselves are in shared/vocabulary.
+// How the drill-down pages write errors and numbers (dates and counts: src/lib/formatting.ts); the words themselves are in shared/vocabulary.
+import { formatCount } from "../../lib/formatting";
 import type { AttemptError } from "../../../shared/scoring/scoreAttempt";
 import { errorLabels } from "../../../shared/vocabulary";
 
@@ -68,20 +69,5 @@ export function percentNumber(share: number | null | undefined): number | null {
 }
 
 export function wholeNumber(value: number | null | undefined): string {
-  if (value === null || value === undefined || !Number.isFinite(value)) return "–";
-  return Math.round(value).toLocaleString("en-GB");
-}
-
-/** "2026-11-30T09:24:05Z" → "30 Nov 2026, 09:24" (UTC: times are shown as the device recorded them). */
-export function dateTime(iso: string): string {
-  const date = new Date(iso);
-  if (Number.isNaN(date.getTime())) return iso;
-  return date.toLocaleString("en-GB", { day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit", timeZone: "UTC" });
-}
-
-export function dateOnly(iso: string | null): string {
-  if (!iso) return "–";
-  const date = new Date(iso.length === 10 ? `${iso}T00:00:00Z` : iso);
-  if (Number.isNaN(date.getTime())) return iso;
-  return date.toLocaleDateString("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone: "UTC" });
+  return formatCount(value === null || value === undefined ? value : Math.round(value));
 }

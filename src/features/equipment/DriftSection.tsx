@@ -8,7 +8,8 @@ import { driftFlagNames, driftOffsetName, patientTypeNames } from "../../../shar
 import { rangeLabel } from "../../../shared/period";
 import { Chart, type ChartSize } from "../../components/Chart";
 import { DataTable, type Column } from "../../components/DataTable";
-import { formatDate, formatFixed } from "../insight/format";
+import { formatDay } from "../../lib/formatting";
+import { formatFixed } from "../insight/format";
 import { ink } from "../insight/chartStyle";
 import { QueryStatus } from "../insight/QueryStatus";
 import type { ApiFilters } from "../insight/queries";
@@ -49,13 +50,13 @@ function differencesPlot(offset: number | null) {
     marks: [
       Plot.ruleY([0], { stroke: ink.text }),
       ...(offset === null ? [] : [Plot.ruleY([offset], { stroke: ink.main, strokeDasharray: "4 3" })]),
-      Plot.dot(data as Difference[], { x: (d: Difference) => new Date(`${d.date}T00:00:00Z`), y: "difference_mm", fill: ink.main, r: 3.5, title: (d: Difference) => `${formatDate(d.date)}: ${formatMm(d.difference_mm)}` }),
+      Plot.dot(data as Difference[], { x: (d: Difference) => new Date(`${d.date}T00:00:00Z`), y: "difference_mm", fill: ink.main, r: 3.5, title: (d: Difference) => `${formatDay(d.date)}: ${formatMm(d.difference_mm)}` }),
     ],
   });
 }
 
 const differenceColumns: Column<Difference>[] = [
-  { key: "date", header: "Class date", value: (d) => d.date, render: (d) => formatDate(d.date) },
+  { key: "date", header: "Class date", value: (d) => d.date, render: (d) => formatDay(d.date) },
   { key: "classId", header: "Class", value: (d) => d.classId ?? "" },
   { key: "difference", header: "Difference", value: (d) => d.difference_mm, render: (d) => formatMm(d.difference_mm), align: "right" },
   { key: "attempts", header: "Attempts on it", value: (d) => d.attempts, align: "right" },

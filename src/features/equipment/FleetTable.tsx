@@ -2,7 +2,7 @@
 // and whether a fault is open.
 import type { EquipmentAnswer } from "../../../shared/schemas/equipment";
 import { DataTable, type Column } from "../../components/DataTable";
-import { dateOnly } from "../attempts/labels";
+import { formatCount, formatDay } from "../../lib/formatting";
 import { patientTypeNames } from "../../../shared/vocabulary";
 import { quarterLabel } from "../../../shared/period";
 
@@ -36,7 +36,7 @@ export function FleetTable({ answer }: { answer: EquipmentAnswer }) {
     due: dueBy.get(m.id) ?? [],
   }));
   const periodLabel = answer.period.from === answer.period.to ? quarterLabel(answer.period.from) : "period";
-  const number = (value: number) => value.toLocaleString("en-GB");
+  const number = formatCount;
   const hiddenOr = (value: number | null) =>
     value === null ? (
       <span className="text-small text-muted italic" title="Hidden to protect colleagues: too few attempts or instructors other than you">
@@ -49,12 +49,12 @@ export function FleetTable({ answer }: { answer: EquipmentAnswer }) {
     { key: "assetId", header: "Asset id", value: (m) => m.assetId, primary: true },
     { key: "patientType", header: "Patient type", value: (m) => (m.patientType ? patientTypeNames[m.patientType] : null) },
     { key: "site", header: "Site", value: (m) => m.site?.code ?? null },
-    { key: "inServiceSince", header: "In service since", value: (m) => m.inServiceSince, render: (m) => dateOnly(m.inServiceSince) },
-    { key: "retiredOn", header: "Retired", value: (m) => m.retiredOn, render: (m) => (m.retiredOn ? dateOnly(m.retiredOn) : <span className="text-muted">In service</span>) },
+    { key: "inServiceSince", header: "In service since", value: (m) => m.inServiceSince, render: (m) => formatDay(m.inServiceSince) },
+    { key: "retiredOn", header: "Retired", value: (m) => m.retiredOn, render: (m) => (m.retiredOn ? formatDay(m.retiredOn) : <span className="text-muted">In service</span>) },
     { key: "periodAttempts", header: `Attempts, ${periodLabel}`, value: (m) => m.periodAttempts, render: (m) => hiddenOr(m.periodAttempts), align: "right" },
     { key: "periodCompressions", header: `Compressions, ${periodLabel}`, value: (m) => m.periodCompressions, render: (m) => hiddenOr(m.periodCompressions), align: "right" },
     { key: "sinceService", header: "Compressions since service", value: (m) => m.compressionsSinceService, render: (m) => number(m.compressionsSinceService), align: "right" },
-    { key: "lastService", header: "Last service", value: (m) => m.lastServiceDate, render: (m) => (m.lastServiceDate ? dateOnly(m.lastServiceDate) : <span className="text-muted">None recorded</span>) },
+    { key: "lastService", header: "Last service", value: (m) => m.lastServiceDate, render: (m) => (m.lastServiceDate ? formatDay(m.lastServiceDate) : <span className="text-muted">None recorded</span>) },
     { key: "openFaults", header: "Open faults", value: (m) => m.openFaults, align: "right" },
     {
       key: "attention",

@@ -1,5 +1,6 @@
 // Compressions per quarter on the fleet, stacked by site; the table lists every manikin's attempts and
 // compressions per quarter. Quarters hidden from the viewer (too few others' attempts) are left out.
+import { formatCount } from "../../lib/formatting";
 import * as Plot from "@observablehq/plot";
 import { useMemo } from "react";
 import type { EquipmentAnswer } from "../../../shared/schemas/equipment";
@@ -58,6 +59,6 @@ export function UsageChart({ fleet }: { fleet: EquipmentAnswer["fleet"] }) {
   const description =
     quarters.length === 0
       ? "No use recorded."
-      : `Compressions on these manikins per quarter, stacked by site: ${(byQuarter.get(first) ?? 0).toLocaleString("en-GB")} in ${quarterLabel(first)}, ${(byQuarter.get(last) ?? 0).toLocaleString("en-GB")} in ${quarterLabel(last)}. The table lists each manikin per quarter.`;
+      : `Compressions on these manikins per quarter, stacked by site: ${formatCount(byQuarter.get(first) ?? 0)} in ${quarterLabel(first)}, ${formatCount(byQuarter.get(last) ?? 0)} in ${quarterLabel(last)}. The table lists each manikin per quarter.`;
   return <Chart title="Use per quarter" description={description} data={rows} columns={columns} rowKey={(r) => r.key} plot={usagePlot} exportFileName="manikin-use-per-quarter" />;
 }

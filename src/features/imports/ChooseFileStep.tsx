@@ -39,7 +39,7 @@ export function ChooseFileStep({ initialKind, onUploaded }: ChooseFileStepProps)
     const found: typeof errors = {};
     if (!kind) found.kind = "Choose what the file holds.";
     if (!file) found.file = "Choose a CSV file.";
-    else if (!file.name.toLowerCase().endsWith(".csv")) found.file = `${file.name} is not a .csv file. Save it from the spreadsheet as CSV (comma-separated) first.`;
+    else if (!file.name.toLowerCase().endsWith(".csv")) found.file = `${file.name} is not a .csv file. Save it from the spreadsheet as CSV first.`;
     else if (file.size > MAX_UPLOAD_BYTES) found.file = `${file.name} is ${formatBytes(file.size)}; the largest file Quarterbeat accepts is ${formatBytes(MAX_UPLOAD_BYTES)}. Split it into smaller files.`;
     else if (file.size === 0) found.file = `${file.name} is empty.`;
     setErrors(found);
@@ -81,7 +81,11 @@ export function ChooseFileStep({ initialKind, onUploaded }: ChooseFileStepProps)
                   value={value}
                   checked={kind === value}
                   disabled={coordinatorOnly || uploading}
-                  onChange={() => setKind(value)}
+                  onChange={() => {
+                    setKind(value);
+                    // the choice answers "Choose what the file holds"; an earlier upload's message is stale too
+                    setErrors(({ file: fileError }) => ({ file: fileError }));
+                  }}
                   className="mt-1 size-4 shrink-0 accent-dusk-700"
                 />
                 <span>
@@ -107,7 +111,7 @@ export function ChooseFileStep({ initialKind, onUploaded }: ChooseFileStepProps)
 
       {kind && <FormatHelp kind={kind} />}
 
-      <Field label="CSV file" hint={`A .csv file with a header row, up to ${formatBytes(MAX_UPLOAD_BYTES)}.`} error={errors.file}>
+      <Field label="CSV file" hint={`A .csv file with a header row, its columns separated by commas, semicolons or tabs, up to ${formatBytes(MAX_UPLOAD_BYTES)}.`} error={errors.file}>
         {({ id, describedBy, invalid }) => (
           <input
             id={id}
@@ -116,7 +120,11 @@ export function ChooseFileStep({ initialKind, onUploaded }: ChooseFileStepProps)
             aria-describedby={describedBy}
             aria-invalid={invalid || undefined}
             disabled={uploading}
-            onChange={(event) => setFile(event.target.files?.[0] ?? null)}
+            onChange={(event) => {
+              setFile(event.target.files?.[0] ?? null);
+              // messages about the previous file (or upload) no longer apply to the new one
+              setErrors(({ kind: kindError }) => ({ kind: kindError }));
+            }}
             className={`${controlClass(invalid)} py-2 file:mr-3 file:rounded-control file:border file:border-line-strong file:bg-paper file:px-3 file:py-1 file:font-medium`}
           />
         )}

@@ -97,6 +97,8 @@ export function ImportHistory({ highlightBatch }: { highlightBatch?: number | nu
                 Undo
               </Button>
             )}
+            {/* an undone batch keeps a readable row: say why it offers no undo, so the column never empties */}
+            {b.status === "undone" && b.rejected === 0 && <span className="px-2.5 text-small text-muted">Already undone</span>}
           </div>
         ),
       },
@@ -177,14 +179,18 @@ function Who({ batch }: { batch: ImportBatch }) {
 
 function BatchStatus({ batch }: { batch: ImportBatch }) {
   const applied = batch.status === "applied";
+  // the badge holds one short word; the time of an undo goes beneath it, where it may wrap
   return (
-    <span
-      className={`inline-flex items-center gap-1.5 rounded-full border px-2 py-0.5 text-caption font-semibold whitespace-nowrap ${applied ? "border-dusk-300 bg-dusk-50 text-dusk-800" : "border-line-strong bg-paper text-muted"}`}
-    >
-      <svg viewBox="0 0 10 10" className="size-2.5" aria-hidden="true">
-        <circle cx="5" cy="5" r="4" fill={applied ? "currentColor" : "none"} stroke="currentColor" strokeWidth="1.5" />
-      </svg>
-      {applied ? "Applied" : `Undone${batch.undoneAt ? ` ${formatDateTime(batch.undoneAt)}` : ""}`}
+    <span className="flex flex-col items-start gap-0.5">
+      <span
+        className={`inline-flex items-center gap-1.5 rounded-full border px-2 py-0.5 text-caption font-semibold whitespace-nowrap ${applied ? "border-dusk-300 bg-dusk-50 text-dusk-800" : "border-line-strong bg-paper text-muted"}`}
+      >
+        <svg viewBox="0 0 10 10" className="size-2.5" aria-hidden="true">
+          <circle cx="5" cy="5" r="4" fill={applied ? "currentColor" : "none"} stroke="currentColor" strokeWidth="1.5" />
+        </svg>
+        {applied ? "Applied" : "Undone"}
+      </span>
+      {!applied && batch.undoneAt && <span className="text-caption text-muted">{formatDateTime(batch.undoneAt)}</span>}
     </span>
   );
 }

@@ -5,6 +5,7 @@ import { useId, useMemo, useRef } from "react";
 import type { ImportKind } from "../../../shared/domain";
 import type { Preview, Upload } from "../../../shared/import/api";
 import { importColumns } from "../../../shared/import/columns";
+import { delimiterLabels } from "../../../shared/import/delimiter";
 import { resolveHeader } from "../../../shared/import/header";
 import type { ImportMapping } from "../../../shared/import/mapping";
 import { Button } from "../../components/Button";
@@ -68,6 +69,7 @@ export function MappingStep({ kind, upload, preview, draft, onDraftChange, onBac
     <div className="flex flex-col gap-6">
       <p className="text-small text-muted">
         {upload.fileName} · {formatBytes(upload.size)} · {kindLabels[kind]} · {preview.header.length} columns
+        {preview.delimiter && ` separated by ${delimiterLabels[preview.delimiter]}`}
       </p>
 
       <section aria-labelledby="preview-heading" className="flex flex-col gap-2">

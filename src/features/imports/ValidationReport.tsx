@@ -1,5 +1,6 @@
 // What a validation (or import) found: the counts, the codes it would create, and every refused row with
 // its row number, column and reason, as the server reported them.
+import { delimiterLabels } from "../../../shared/import/delimiter";
 import type { ImportSummary } from "../../../shared/import/api";
 import { DataTable, type Column } from "../../components/DataTable";
 import { Notice } from "../../components/Notice";
@@ -70,6 +71,7 @@ export function ValidationReport({ summary, rejectedCsvUrl }: ValidationReportPr
   return (
     <div className="flex flex-col gap-4">
       <p className="text-lead font-semibold">{summarySentence(summary)}</p>
+      {summary.delimiter && <p className="text-small text-muted">Columns separated by {delimiterLabels[summary.delimiter]}.</p>}
 
       <dl className="grid grid-cols-2 gap-3 sm:grid-cols-3 lg:grid-cols-6">
         {counts.map((count) => (

@@ -1,4 +1,5 @@
 // Words and number formats shared by the import pages.
+import { formatCount } from "../../lib/formatting";
 import type { ImportKind } from "../../../shared/domain";
 import type { ImportBatch } from "../../../shared/import/api";
 
@@ -28,12 +29,6 @@ export const unitLabels = {
   shares: { percent: "percentages, 0–100", fraction: "fractions, 0–1" },
 } as const;
 
-const numberFormat = new Intl.NumberFormat("en-GB");
-const dateTimeFormat = new Intl.DateTimeFormat("en-GB", { dateStyle: "medium", timeStyle: "short" });
-
-export function formatCount(value: number): string {
-  return numberFormat.format(value);
-}
 
 export function plural(count: number, one: string, many: string = `${one}s`): string {
   return `${formatCount(count)} ${count === 1 ? one : many}`;
@@ -45,7 +40,5 @@ export function formatBytes(bytes: number): string {
   return `${(bytes / (1024 * 1024)).toFixed(1)} MB`;
 }
 
-export function formatDateTime(iso: string): string {
-  const date = new Date(iso);
-  return Number.isNaN(date.getTime()) ? iso : dateTimeFormat.format(date);
-}
+// the import pages and the System page read these from here; they are the one formatting module's
+export { formatCount, formatDateTime } from "../../lib/formatting";

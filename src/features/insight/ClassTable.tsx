@@ -3,7 +3,8 @@
 import { Link } from "react-router";
 import type { ClassRow } from "../../../shared/schemas/insight";
 import { DataTable, type Column } from "../../components/DataTable";
-import { formatCount, formatDate, formatInterval, formatPercent, percentValue } from "./format";
+import { formatDay } from "../../lib/formatting";
+import { formatCount, formatInterval, formatPercent, percentValue } from "./format";
 import { courseTypeNames } from "../../../shared/vocabulary";
 
 export const classColumns: Column<ClassRow>[] = [
@@ -18,7 +19,7 @@ export const classColumns: Column<ClassRow>[] = [
     ),
     primary: true,
   },
-  { key: "date", header: "Date", value: (c) => c.date, render: (c) => formatDate(c.date), sortLabels: { asc: "oldest first", desc: "newest first" } },
+  { key: "date", header: "Date", value: (c) => c.date, render: (c) => formatDay(c.date), sortLabels: { asc: "oldest first", desc: "newest first" } },
   { key: "course", header: "Course", value: (c) => courseTypeNames[c.course] ?? c.course },
   { key: "learners", header: "Learners", value: (c) => c.learners, align: "right" },
   {

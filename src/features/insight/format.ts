@@ -4,6 +4,9 @@
 import type { z } from "zod";
 import type { funnelPositionSchema, Rate } from "../../../shared/schemas/insight";
 
+// counts are written by the one formatting module; pages that read them from here get the same text
+export { formatCount } from "../../lib/formatting";
+
 export type FunnelPosition = z.infer<typeof funnelPositionSchema>;
 
 /**
@@ -64,11 +67,6 @@ export function roundTo(value: number | null | undefined, decimals: number): num
   return roundHalf(value, decimals);
 }
 
-export function formatCount(value: number | null | undefined): string {
-  if (value === null || value === undefined) return "–";
-  return value.toLocaleString("en-GB");
-}
-
 /**
  * What a hidden group says instead of its value: never a zero that looks like a result. A group may be
  * hidden for its own size, for the few instructors in it, or because it would give a smaller one away, so
@@ -127,16 +125,3 @@ export function funnelPositionText(position: FunnelPosition | null | undefined):
   return position ? funnelPositionWords[position] : "No attempts to place";
 }
 
-/** "17 Oct 2026" from "2026-10-17" (no time zone shift: the date is read as written). */
-export function formatDate(date: string): string {
-  const match = /^(\d{4})-(\d{2})-(\d{2})/.exec(date);
-  if (!match) return date;
-  const months = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
-  return `${Number(match[3])} ${months[Number(match[2]) - 1]} ${match[1]}`;
-}
-
-/** "09:11" from an ISO time stamp, as recorded (UTC in the files). */
-export function formatTime(stamp: string): string {
-  const match = /T(\d{2}):(\d{2})/.exec(stamp);
-  return match ? `${match[1]}:${match[2]}` : stamp;
-}

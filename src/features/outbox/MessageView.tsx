@@ -3,7 +3,8 @@ import { forwardRef } from "react";
 import type { OutboxMessage } from "../../../shared/schemas/report";
 import { Button } from "../../components/Button";
 import { attachmentUrl } from "./queries";
-import { formatMessageTime, formatSize } from "./format";
+import { formatDateTime } from "../../lib/formatting";
+import { formatSize } from "./format";
 
 export interface MessageViewProps {
   message: OutboxMessage;
@@ -23,7 +24,7 @@ export const MessageView = forwardRef<HTMLHeadingElement, MessageViewProps>(func
       </div>
       <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-small">
         <dt className="font-semibold text-muted">Received</dt>
-        <dd>{formatMessageTime(message.receivedAt)}</dd>
+        <dd>{formatDateTime(message.receivedAt)}</dd>
         <dt className="font-semibold text-muted">From</dt>
         <dd className="min-w-0 break-words">{message.from}</dd>
         <dt className="font-semibold text-muted">To</dt>

@@ -1,23 +1,26 @@
-// Choose the report's period: a quarter, or a whole year. Only periods with data are offered.
+// Choose the report's period: a quarter, or a whole year. Only periods with data are offered (to funders,
+// only periods with a released report: the page passes those quarters and years).
 import { useId } from "react";
 import { controlClass } from "../../components/Field";
 import { defaultPeriod, periodKindOf, periodLabel, yearsOf, type PeriodKind } from "../../../shared/period";
 
 export interface PeriodPickerProps {
   quarters: readonly string[];
+  /** The years to offer; by default every year that has one of the quarters. */
+  years?: readonly string[];
   period: string;
   onChange: (period: string) => void;
 }
 
-export function PeriodPicker({ quarters, period, onChange }: PeriodPickerProps) {
+export function PeriodPicker({ quarters, years: offeredYears, period, onChange }: PeriodPickerProps) {
   const kind = periodKindOf(period);
-  const years = yearsOf(quarters);
+  const years = offeredYears ? [...offeredYears].sort().reverse() : yearsOf(quarters);
   const selectId = useId();
   const sortedQuarters = [...quarters].sort().reverse();
 
   function switchKind(next: PeriodKind) {
     if (next === kind) return;
-    if (next === "year") onChange(period.slice(0, 4));
+    if (next === "year") onChange(offeredYears && !offeredYears.includes(period.slice(0, 4)) && years[0] ? years[0] : period.slice(0, 4));
     else onChange(defaultPeriod(quarters.filter((q) => q.startsWith(period))) ?? defaultPeriod(quarters) ?? period);
   }
 

@@ -4,6 +4,7 @@ import clsx from "clsx";
 import type { ReactNode } from "react";
 import type { ChangeVerdict, GroupResult, HiddenReason, ReportData } from "../../../shared/schemas/report";
 import { FigureText, formatPoints, formatPointsSize, formatShare, formatWhole, hiddenReasons, rateWithInterval } from "./figures";
+import { formatDateTime } from "../../lib/formatting";
 import { MethodsBox } from "./MethodsBox";
 import { ReportTable } from "./ReportTable";
 import { TrendChart } from "./TrendChart";
@@ -17,7 +18,6 @@ export interface ReportViewProps {
   actionsSlot?: ReactNode;
 }
 
-const generatedFormat = new Intl.DateTimeFormat("en-GB", { dateStyle: "long", timeStyle: "short" });
 
 function Section({ id, title, children, className }: { id: string; title: string; children: ReactNode; className?: string }) {
   return (
@@ -76,7 +76,6 @@ function feedbackSentence(points: number, verdict: ChangeVerdict | null): string
 }
 
 export function ReportView({ data, source, actionsSlot }: ReportViewProps) {
-  const generated = new Date(data.generatedAt);
   return (
     <article aria-labelledby="report-title" className="flex flex-col gap-8" data-report-article="">
       <header className="flex flex-col gap-1">
@@ -85,7 +84,7 @@ export function ReportView({ data, source, actionsSlot }: ReportViewProps) {
           Training quality report, {data.periodLabel}
         </h2>
         <p className="text-small text-muted">
-          Period {data.period} · figures as of {Number.isNaN(generated.getTime()) ? data.generatedAt : generatedFormat.format(generated)} · scoring policy version{" "}
+          Period {data.period} · figures as of {formatDateTime(data.generatedAt)} · scoring policy version{" "}
           {data.policyVersion}
         </p>
         {source && <div className="mt-1 text-small">{source}</div>}

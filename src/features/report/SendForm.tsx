@@ -1,15 +1,18 @@
-// "Send to funders": a stored version goes to every active funder account, plus any extra addresses. The
-// addresses are checked in the browser with the server's own rule before anything is sent.
+// "Send to funders": a stored version goes with the coordinator's cover note to every active funder account,
+// plus any extra addresses, one message each. The form is checked in the browser with the server's own
+// rules; then a confirmation step shows the exact PDF, the note, the period and every recipient, and only
+// that step sends.
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { useId, useState, type FormEvent } from "react";
-import type { ReportSendRow, ReportVersion } from "../../../shared/schemas/report";
+import { coverNoteSchema, type ReportSendRow, type ReportVersion } from "../../../shared/schemas/report";
 import { Button } from "../../components/Button";
-import { Select, controlClass } from "../../components/Field";
+import { Field, Select, controlClass } from "../../components/Field";
 import { Notice } from "../../components/Notice";
 import { errorMessage } from "../../components/States";
 import { parseExtraAddresses } from "./extraAddresses";
 import { periodLabel } from "../../../shared/period";
 import { reportQueries, sendVersion } from "./queries";
+import { SendConfirmation } from "./SendConfirmation";
 
 export interface SendFormProps {
   period: string;
@@ -18,16 +21,27 @@ export interface SendFormProps {
   onSent?: (send: ReportSendRow) => void;
 }
 
+interface Review {
+  version: ReportVersion;
+  coverNote: string;
+  extra: string[];
+  recipients: string[];
+}
+
 export function SendForm({ period, versions, onSent }: SendFormProps) {
   const queryClient = useQueryClient();
   const funders = useQuery(reportQueries.funders());
   const latest = versions[0];
   const latestId = latest ? String(latest.id) : "";
   const [versionId, setVersionId] = useState(latestId);
+  const [coverNote, setCoverNote] = useState("");
+  const [coverError, setCoverError] = useState<string | undefined>(undefined);
   const [extra, setExtra] = useState("");
   const [extraError, setExtraError] = useState<string | null>(null);
   const [result, setResult] = useState<{ tone: "success" | "error"; text: string } | null>(null);
+  const [review, setReview] = useState<Review | null>(null);
   const extraId = useId();
+  const formId = useId();
 
   // A new version becomes the one to send.
   const [offeredLatestId, setOfferedLatestId] = useState(latestId);
@@ -37,38 +51,67 @@ export function SendForm({ period, versions, onSent }: SendFormProps) {
   }
 
   const send = useMutation({
-    mutationFn: ({ id, addresses }: { id: number; addresses: string[] }) => sendVersion(id, addresses),
+    mutationFn: ({ id, note, addresses }: { id: number; note: string; addresses: string[] }) => sendVersion(id, note, addresses),
     onSettled: () => queryClient.invalidateQueries({ queryKey: reportQueries.all() }),
   });
 
-  function submit(event: FormEvent<HTMLFormElement>) {
+  function checkCoverNote(text: string): string | undefined {
+    const checked = coverNoteSchema.safeParse(text);
+    return checked.success ? undefined : checked.error.issues[0]?.message;
+  }
+
+  function toReview(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
     setResult(null);
+    const noteError = checkCoverNote(coverNote);
     const parsed = parseExtraAddresses(extra);
+    setCoverError(noteError);
+    setExtraError(parsed.ok ? null : parsed.message);
+    if (noteError) {
+      document.getElementById(`${formId}-note`)?.querySelector("textarea")?.focus();
+      return;
+    }
     if (!parsed.ok) {
-      setExtraError(parsed.message);
       document.getElementById(extraId)?.focus();
       return;
     }
-    setExtraError(null);
     const version = versions.find((v) => String(v.id) === versionId);
     if (!version) {
       setResult({ tone: "error", text: "Choose the version to send." });
       return;
     }
+    if (!funders.isSuccess) {
+      setResult({ tone: "error", text: "The funder accounts are not loaded yet, so the recipients cannot be named. Try again in a moment." });
+      return;
+    }
+    const recipients = [...new Set([...funders.data.map((a) => a.toLowerCase()), ...parsed.addresses])];
+    if (recipients.length === 0) {
+      setResult({ tone: "error", text: "There is nobody to send the report to: add extra addresses, or add a funder under Users." });
+      return;
+    }
+    setReview({ version, coverNote: coverNoteSchema.parse(coverNote), extra: parsed.addresses, recipients });
+  }
+
+  function confirm() {
+    if (!review) return;
     send.mutate(
-      { id: version.id, addresses: parsed.addresses },
+      { id: review.version.id, note: review.coverNote, addresses: review.extra },
       {
         onSuccess: (row) => {
           onSent?.(row);
+          setReview(null);
           if (row.status === "sent") {
             setExtra("");
-            setResult({ tone: "success", text: `Version ${row.version} of ${periodLabel(row.period)} was sent to ${row.recipients.join(", ")}.` });
+            setCoverNote("");
+            setResult({ tone: "success", text: `Version ${row.version} of ${periodLabel(row.period)} was sent to ${row.recipients.join(", ")}, one message each.` });
           } else {
             setResult({ tone: "error", text: `Sending failed: ${row.error ?? "the mail server did not accept it"}. It is listed below; retry once the mail server is reachable.` });
           }
         },
-        onError: (error) => setResult({ tone: "error", text: `Nothing was sent: ${errorMessage(error)}` }),
+        onError: (error) => {
+          setReview(null);
+          setResult({ tone: "error", text: `Nothing was sent: ${errorMessage(error)}` });
+        },
       },
     );
   }
@@ -77,8 +120,21 @@ export function SendForm({ period, versions, onSent }: SendFormProps) {
     return <p className="text-muted">Create a report version first: funders receive a stored version, never figures that can still change.</p>;
   }
 
+  if (review) {
+    return (
+      <SendConfirmation
+        version={review.version}
+        coverNote={review.coverNote}
+        recipients={review.recipients}
+        busy={send.isPending}
+        onConfirm={confirm}
+        onBack={() => setReview(null)}
+      />
+    );
+  }
+
   return (
-    <form onSubmit={submit} noValidate className="flex flex-col gap-4">
+    <form onSubmit={toReview} noValidate className="flex flex-col gap-4">
       <Select
         label={`Version of ${periodLabel(period)} to send`}
         className="max-w-sm"
@@ -86,12 +142,32 @@ export function SendForm({ period, versions, onSent }: SendFormProps) {
         value={versionId}
         onChange={(event) => setVersionId(event.target.value)}
       />
+      <div id={`${formId}-note`}>
+        <Field label="Cover note" hint="Your words above the report in every message: why you send it and what is new. Up to 2000 characters." error={coverError}>
+          {({ id, describedBy, invalid }) => (
+            <textarea
+              id={id}
+              value={coverNote}
+              onChange={(event) => {
+                setCoverNote(event.target.value);
+                if (coverError) setCoverError(checkCoverNote(event.target.value));
+              }}
+              rows={5}
+              required
+              aria-required="true"
+              aria-invalid={invalid || undefined}
+              aria-describedby={describedBy}
+              className={`${controlClass(invalid)} max-w-3xl py-2`}
+            />
+          )}
+        </Field>
+      </div>
       <div className="text-small">
         <p className="font-semibold">Goes to every active funder account</p>
         {funders.isPending ? (
           <p className="text-muted">Loading the funder accounts…</p>
         ) : funders.isError ? (
-          <p className="text-muted">The list of funder accounts could not be loaded ({errorMessage(funders.error)}); the server still sends to all of them.</p>
+          <p className="text-danger-text">The list of funder accounts could not be loaded ({errorMessage(funders.error)}); reload the page before sending.</p>
         ) : funders.data.length === 0 ? (
           <p className="text-danger-text">There is no active funder account. Add extra addresses below, or add a funder under Users.</p>
         ) : (
@@ -129,9 +205,7 @@ export function SendForm({ period, versions, onSent }: SendFormProps) {
         )}
       </div>
       <div>
-        <Button type="submit" busy={send.isPending}>
-          Send to funders
-        </Button>
+        <Button type="submit">Review before sending</Button>
       </div>
       {result && <Notice tone={result.tone}>{result.text}</Notice>}
     </form>

@@ -9,7 +9,7 @@ import { Notice } from "../../components/Notice";
 import { EmptyState, ErrorState, LoadingState, errorMessage } from "../../components/States";
 import { periodLabel } from "../../../shared/period";
 import { reportQueries, retrySend } from "./queries";
-import { formatTime } from "./VersionsPanel";
+import { formatDateTime } from "../../lib/formatting";
 
 function SendStatus({ send }: { send: ReportSendRow }) {
   const sent = send.status === "sent";
@@ -46,7 +46,7 @@ export function SendHistory() {
   }
 
   const columns: Column<ReportSendRow>[] = [
-    { key: "when", header: "When", value: (s) => s.createdAt, render: (s) => formatTime(s.createdAt), sortLabels: { asc: "oldest first", desc: "newest first" } },
+    { key: "when", header: "When", value: (s) => s.createdAt, render: (s) => formatDateTime(s.createdAt), sortLabels: { asc: "oldest first", desc: "newest first" } },
     { key: "report", header: "Report", value: (s) => `${s.period} v${s.version}`, render: (s) => `${periodLabel(s.period)}, version ${s.version}`, primary: true },
     { key: "to", header: "To", value: (s) => s.recipients.join(", "), wrap: true },
     { key: "by", header: "Sent by", value: (s) => s.sentBy ?? "" },

@@ -4,17 +4,13 @@ import { useMutation } from "@tanstack/react-query";
 import { useState } from "react";
 import type { ReportVersion } from "../../../shared/schemas/report";
 import { Button } from "../../components/Button";
+import { formatDateTime } from "../../lib/formatting";
 import { Notice } from "../../components/Notice";
 import { errorMessage } from "../../components/States";
 import { periodLabel } from "../../../shared/period";
-import { createVersion, csvUrl, pdfUrl, reportQueries } from "./queries";
+import { createVersion, csvUrl, pdfUrl, releaseVersion, reportQueries } from "./queries";
 import { ReportTable } from "./ReportTable";
 
-const timeFormat = new Intl.DateTimeFormat("en-GB", { dateStyle: "medium", timeStyle: "short" });
-export const formatTime = (iso: string) => {
-  const date = new Date(iso);
-  return Number.isNaN(date.getTime()) ? iso : timeFormat.format(date);
-};
 export const formatKb = (bytes: number) => `${Math.max(1, Math.round(bytes / 1024))} kB`;
 
 export interface VersionsPanelProps {
@@ -29,12 +25,30 @@ export function VersionsPanel({ period, versions, onCreated }: VersionsPanelProp
     mutationFn: () => createVersion(period),
     meta: { invalidates: [reportQueries.all()] },
   });
+  const release = useMutation({
+    mutationFn: releaseVersion,
+    meta: { invalidates: [reportQueries.all()] },
+  });
+
+  function runRelease(version: ReportVersion) {
+    setMessage(null);
+    release.mutate(version.id, {
+      onSuccess: ({ report, notified, failed }) => {
+        const parts = [`Version ${report.version} of ${periodLabel(period)} is released: funders can read it now.`];
+        if (notified.length > 0) parts.push(`A notice went to ${notified.join(", ")}.`);
+        if (failed.length > 0) parts.push(`The notice could not reach ${failed.map((f) => f.address).join(", ")} (${failed[0].error}).`);
+        if (notified.length + failed.length === 0) parts.push("No funder account is active, so no notice went out.");
+        setMessage({ tone: failed.length > 0 ? "error" : "success", text: parts.join(" ") });
+      },
+      onError: (error) => setMessage({ tone: "error", text: `The version was not released: ${errorMessage(error)}` }),
+    });
+  }
 
   function run() {
     setMessage(null);
     create.mutate(undefined, {
       onSuccess: (version) => {
-        setMessage({ tone: "success", text: `Version ${version.version} of ${periodLabel(period)} is stored (PDF, ${formatKb(version.pdfBytes)}). Funders can download it now.` });
+        setMessage({ tone: "success", text: `Version ${version.version} of ${periodLabel(period)} is stored (PDF, ${formatKb(version.pdfBytes)}). Funders see it once you release or send it.` });
         onCreated(version);
       },
       onError: (error) => setMessage({ tone: "error", text: `No version was created: ${errorMessage(error)}` }),
@@ -49,7 +63,8 @@ export function VersionsPanel({ period, versions, onCreated }: VersionsPanelProp
             Report versions for {periodLabel(period)}
           </h3>
           <p className="text-small text-muted">
-            Creating a version stores today's figures, your text and the PDF. Funders always download the latest version; earlier ones stay here unchanged.
+            Creating a version stores today's figures, your text and the PDF. Funders see a version once you release it or send it to them, and read the latest one
+            released; earlier ones stay here unchanged.
           </p>
         </div>
         <Button onClick={run} busy={create.isPending}>
@@ -66,9 +81,20 @@ export function VersionsPanel({ period, versions, onCreated }: VersionsPanelProp
           rowKey={(v) => String(v.id)}
           columns={[
             { header: "Version", cell: (v) => `Version ${v.version}` },
-            { header: "Created", cell: (v) => formatTime(v.createdAt) },
+            { header: "Created", cell: (v) => formatDateTime(v.createdAt) },
             { header: "By", cell: (v) => v.createdBy ?? "command line" },
-            { header: "Last sent", cell: (v) => (v.lastSend ? `${v.lastSend.status === "sent" ? "Sent" : "Failed"} ${formatTime(v.lastSend.createdAt)}` : "Not sent") },
+            {
+              header: "Funders",
+              cell: (v) =>
+                v.releasedAt ? (
+                  `Released ${formatDateTime(v.releasedAt)}`
+                ) : (
+                  <Button size="sm" variant="secondary" onClick={() => runRelease(v)} busy={release.isPending && release.variables === v.id}>
+                    Release to funders<span className="sr-only"> version {v.version}</span>
+                  </Button>
+                ),
+            },
+            { header: "Last sent", cell: (v) => (v.lastSend ? `${v.lastSend.status === "sent" ? "Sent" : "Failed"} ${formatDateTime(v.lastSend.createdAt)}` : "Not sent") },
             {
               header: "Downloads",
               cell: (v) => (

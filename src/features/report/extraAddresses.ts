@@ -16,7 +16,7 @@ export function parseExtraAddresses(text: string): ExtraAddresses {
     return { ok: false, message: `${list} ${bad.length === 1 ? "is not an e-mail address" : "are not e-mail addresses"}. Use the form name@example.org.` };
   }
   const addresses = [...new Set(parts.map((part) => emailSchema.parse(part)))];
-  const checked = sendReportSchema.safeParse({ extraRecipients: addresses });
+  const checked = sendReportSchema.shape.extraRecipients.safeParse(addresses);
   if (!checked.success) return { ok: false, message: checked.error.issues[0]?.message ?? "Check the addresses." };
-  return { ok: true, addresses: checked.data.extraRecipients };
+  return { ok: true, addresses: checked.data };
 }

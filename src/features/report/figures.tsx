@@ -1,6 +1,7 @@
 // How the report's figures read on the page. The API already made each figure's text ("68.2 %",
 // "fewer than 5", "not shown"), the same words as the PDF; these helpers only add layout and the reason a
 // figure is hidden.
+import { formatCount, formatDecimal } from "../../lib/formatting";
 import clsx from "clsx";
 import type { CountFigure, HiddenReason, PerHundredFigure, RateFigure } from "../../../shared/schemas/report";
 
@@ -25,25 +26,23 @@ export function rateWithInterval(rate: RateFigure): string {
   return `${rate.text} (95 % interval ${rate.intervalText})`;
 }
 
-const percentFormat = new Intl.NumberFormat("en-GB", { maximumFractionDigits: 1, minimumFractionDigits: 1 });
-const wholeFormat = new Intl.NumberFormat("en-GB", { maximumFractionDigits: 0 });
 
 /** A share 0–1 as "36.7 %"; "–" when missing. */
 export function formatShare(share: number | null): string {
-  return share === null ? "–" : `${percentFormat.format(share * 100)} %`;
+  return share === null ? "–" : `${formatDecimal(share * 100, 1)} %`;
 }
 
 export function formatWhole(value: number | null): string {
-  return value === null ? "–" : wholeFormat.format(value);
+  return formatCount(value);
 }
 
 /** Signed percentage points, "+16.2 points", "−0.3 points". */
 export function formatPoints(points: number): string {
   const sign = points > 0 ? "+" : points < 0 ? "−" : "±";
-  return `${sign}${percentFormat.format(Math.abs(points))} percentage points`;
+  return `${sign}${formatDecimal(Math.abs(points), 1)} percentage points`;
 }
 
 /** The size of a change in percentage points, without its sign: "17.4 percentage points". */
 export function formatPointsSize(points: number): string {
-  return `${percentFormat.format(Math.abs(points))} percentage points`;
+  return `${formatDecimal(Math.abs(points), 1)} percentage points`;
 }

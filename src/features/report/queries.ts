@@ -1,6 +1,6 @@
 // The funder report API (server/reports/routes.ts) as TanStack Query options.
 import { queryOptions } from "@tanstack/react-query";
-import type { ReportData, ReportSendRow, ReportVersion } from "../../../shared/schemas/report";
+import type { ReleaseOutcome, ReportData, ReportSendRow, ReportVersion } from "../../../shared/schemas/report";
 import { userListAnswerSchema } from "../../../shared/schemas/users";
 import { getParsed } from "../../api/getParsed";
 import { http } from "../../api/http";
@@ -12,6 +12,12 @@ export const reportQueries = {
     queryOptions({
       queryKey: [...reportQueries.all(), "preview", period] as const,
       queryFn: async ({ signal }) => (await http.get<{ report: ReportData }>(`/api/reports/${period}/preview`, signal)).report,
+    }),
+  /** Every stored version the reader may see (for funders: the released ones), newest first. */
+  allVersions: () =>
+    queryOptions({
+      queryKey: [...reportQueries.all(), "versions"] as const,
+      queryFn: async ({ signal }) => (await http.get<{ reports: ReportVersion[] }>("/api/reports", signal)).reports,
     }),
   versions: (period: string) =>
     queryOptions({
@@ -46,6 +52,8 @@ export const reportQueries = {
 };
 
 export const pdfUrl = (id: number) => `/api/reports/${id}/pdf`;
+/** The same PDF, answered to be shown inside the page rather than downloaded. */
+export const pdfPreviewUrl = (id: number) => `/api/reports/${id}/pdf?inline=1`;
 export const csvUrl = (id: number) => `/api/reports/${id}/csv`;
 
 export function saveNotes(period: string, actions: string) {
@@ -56,8 +64,12 @@ export async function createVersion(period: string): Promise<ReportVersion> {
   return (await http.post<{ report: ReportVersion }>(`/api/reports/${period}`)).report;
 }
 
-export async function sendVersion(id: number, extraRecipients: string[]): Promise<ReportSendRow> {
-  return (await http.post<{ send: ReportSendRow }>(`/api/reports/${id}/send`, { extraRecipients })).send;
+export async function sendVersion(id: number, coverNote: string, extraRecipients: string[]): Promise<ReportSendRow> {
+  return (await http.post<{ send: ReportSendRow }>(`/api/reports/${id}/send`, { coverNote, extraRecipients })).send;
+}
+
+export function releaseVersion(id: number): Promise<ReleaseOutcome> {
+  return http.post<ReleaseOutcome>(`/api/reports/${id}/release`);
 }
 
 export async function retrySend(id: number): Promise<ReportSendRow> {

@@ -1,5 +1,6 @@
 // Scoring past attempts again under the version in force, after a confirmation that says what happens: the
 // old scores stay in each attempt's history and every score names the version that made it.
+import { formatCount } from "../../lib/formatting";
 import { useState } from "react";
 import type { RescoreAnswer } from "../../../shared/schemas/policySettings";
 import { Button } from "../../components/Button";
@@ -35,7 +36,7 @@ export function RescoreSection({ version, quarters, canEdit }: { version: number
       </p>
       {result && (
         <Notice tone="success">
-          Rescored under version {result.version}: {result.examined.toLocaleString("en-GB")} attempts examined, {result.changed.toLocaleString("en-GB")} changed score, result or errors. Their earlier scores are in each attempt’s history.
+          Rescored under version {result.version}: {formatCount(result.examined)} attempts examined, {formatCount(result.changed)} changed score, result or errors. Their earlier scores are in each attempt’s history.
         </Notice>
       )}
       {canEdit ? (

@@ -1,7 +1,7 @@
 // Every saved version of the policy, newest first, with its date, its note and what it changed.
 import type { LengthUnit } from "../../../shared/units";
 import { DataTable, type Column } from "../../components/DataTable";
-import { dateTime } from "../attempts/labels";
+import { formatDateTime } from "../../lib/formatting";
 import { changedFields, displayValue, readPath, unitWord } from "./policyFields";
 import type { PolicyVersionRow } from "./queries";
 
@@ -27,7 +27,7 @@ export function VersionList({ versions, unit, inForce }: { versions: readonly Po
   });
   const columns: Column<VersionRow>[] = [
     { key: "version", header: "Version", value: (v) => v.version, align: "right", render: (v) => (v.version === inForce ? <span className="font-semibold">{v.version} (in force)</span> : v.version), primary: true },
-    { key: "createdAt", header: "Saved", value: (v) => v.createdAt, render: (v) => dateTime(v.createdAt) },
+    { key: "createdAt", header: "Saved", value: (v) => v.createdAt, render: (v) => formatDateTime(v.createdAt) },
     { key: "note", header: "Note", value: (v) => v.note || null, wrap: true, render: (v) => v.note || <span className="text-muted">No note</span> },
     { key: "changes", header: "Changes from the version before", value: (v) => v.changes, wrap: true },
   ];

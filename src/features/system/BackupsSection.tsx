@@ -25,7 +25,7 @@ export function BackupsSection({ backups }: { backups: SystemReport["backups"] }
       <p className="text-small text-muted break-all">
         {backups.dir
           ? `Scheduled backups: ${plural(backups.filesInDir, "copy", "copies")} (${formatBytes(backups.bytesInDir)}) in ${backups.dir}. Keep a copy of this folder on another machine.`
-          : "Scheduled backups are off (BACKUP_DIR=off): take copies with `quarterbeat backup FILE`."}
+          : "Scheduled backups are off: copies are taken by hand from the command line."}
       </p>
       {newest && !newest.verified && <Notice tone="error">The newest backup ({formatDateTime(newest.takenAt)}) failed its verification: {newest.message}</Notice>}
       <p>

@@ -12,7 +12,7 @@ export function MailSection({ mail }: { mail: SystemReport["mail"] }) {
       <p>
         {mail.delivery === "smtp"
           ? `Mail is sent through ${mail.server}.`
-          : "No mail server is set (SMTP_URL): the local mail service keeps every message in the Outbox; nothing leaves this machine."}
+          : "No mail server is set up: the local mail service keeps every message in the Outbox; nothing leaves this machine."}
       </p>
       <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1">
         <dt className="font-semibold text-muted">Report sends delivered</dt>

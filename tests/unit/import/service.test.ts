@@ -1,7 +1,8 @@
 // The import service on a real SQLite file: every format, idempotency, all-or-nothing, skip-invalid, dry run,
 // corrections and undo, scope, and every refusal reason with its row, column and wording.
 import { describe, expect, it } from "vitest";
-import { importFiles, safeFileName } from "../../../server/imports/service";
+import { Readable } from "node:stream";
+import { importFile, importFiles, safeFileName } from "../../../server/imports/service";
 import { undoBatch } from "../../../server/imports/undo";
 import { ATTEMPT_HEADER, count, fixture, freshDb, load } from "./helpers";
 
@@ -19,6 +20,32 @@ describe("class logs", () => {
     const batch = db.$client.prepare("SELECT kind, file_name, source, rows_read, inserted, sha256 FROM import_batches WHERE id = ?").get(s.batchId);
     expect(batch).toMatchObject({ kind: "classes", file_name: "classes-valid.csv", source: "cli", rows_read: 3, inserted: 3 });
     expect((batch as { sha256: string }).sha256).toMatch(/^[0-9a-f]{64}$/);
+  });
+
+  it("reads semicolon- and tab-separated class logs as the comma file, and says which separator it used", async () => {
+    for (const [file, delimiter] of [
+      ["classes-semicolon.csv", "semicolon"],
+      ["classes-tab.csv", "tab"],
+    ] as const) {
+      const { db } = await freshDb();
+      const s = await load(db, "classes", file);
+      expect(s, file).toMatchObject({ status: "imported", delimiter, rowsRead: 3, inserted: 3, rejected: 0 });
+      // a quoted semicolon stays inside its value; a comma inside a value is no separator in these files
+      const c1 = db.$client.prepare("SELECT manikins, passed FROM classes WHERE id = 'C-001'").get();
+      expect(c1, file).toEqual({ manikins: "MK-1;MK-2", passed: 8 });
+    }
+    const { db } = await freshDb();
+    expect((await load(db, "classes", "classes-valid.csv")).delimiter).toBe("comma");
+  });
+
+  it("detects the separator on the header line even when it arrives in pieces, after blank lines", async () => {
+    const { db } = await freshDb();
+    const text = "\n  \nclass_id;date;site;instructor;course;learners;passed;manikins\nC-9;2026-07-14;NORTH;A1;adult;4;4;MK-1\n";
+    const pieces = [text.slice(0, 8), text.slice(8, 30), text.slice(30)];
+    const s = await importFile(db, { kind: "classes", input: { stream: Readable.from(pieces), fileName: "pieces.csv" }, source: "cli" });
+    expect(s).toMatchObject({ status: "imported", delimiter: "semicolon", rowsRead: 1, inserted: 1 });
+    const empty = await importFile(db, { kind: "classes", input: { stream: Readable.from([""]), fileName: "empty.csv" }, source: "cli" });
+    expect(empty).toMatchObject({ status: "refused", delimiter: null });
   });
 
   it("reports a re-import of the same file as unchanged, and a corrected file as one update that undo restores", async () => {

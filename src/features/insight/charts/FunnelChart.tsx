@@ -3,6 +3,7 @@
 // group far from the network rate can be chance; a large one cannot. Adjusted for case mix, each point sits at
 // its adjusted rate and effective number of attempts, where the limits give its own z-score. Points outside
 // the limits get a triangle (up or down) and their label, so the reading never depends on colour.
+import { Y_TITLE_MARGIN_TOP } from "./axisSpace";
 import * as Plot from "@observablehq/plot";
 import { useCallback } from "react";
 import type { z } from "zod";
@@ -125,7 +126,7 @@ export function FunnelChart({ title, units, curve, networkRate, scale, adjusted,
         height: width < 500 ? 280 : 360,
         marginLeft: 48,
         marginRight: 44,
-        marginTop: 20,
+        marginTop: Y_TITLE_MARGIN_TOP,
         marginBottom: 44,
         x: { domain: [0, Math.ceil(nMax * 1.08)], label: adjusted ? "Effective number of attempts" : "Number of attempts", labelAnchor: "center", labelOffset: 38, grid: true, ticks: width < 420 ? 4 : 8 },
         y: { domain: [0, 1], tickFormat: percentTick, label: adjusted ? "Pass rate adjusted for case mix" : "Measured pass rate", grid: true },

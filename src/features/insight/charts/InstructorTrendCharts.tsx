@@ -1,5 +1,6 @@
 // One instructor quarter by quarter: pass rate with its 95 % interval beside the network's rate, and the
 // median score. Quarters without attempts leave a gap, never a zero.
+import { Y_TITLE_MARGIN_TOP } from "./axisSpace";
 import * as Plot from "@observablehq/plot";
 import { useCallback } from "react";
 import type { InstructorDetailAnswer } from "../../../../shared/schemas/insight";
@@ -50,7 +51,7 @@ export function PassRateTrendChart({ rows, who }: { rows: readonly TrendRow[]; w
       height: width < 500 ? 260 : 300,
       marginLeft: 48,
       marginRight: 16,
-      marginTop: 20,
+      marginTop: Y_TITLE_MARGIN_TOP,
       marginBottom: width < 560 ? 40 : 30,
       x: { type: "point", domain: data.map((r) => r.quarter), tickFormat: quarterTick(width), label: null, padding: 0.4 },
       y: { domain: [0, top], tickFormat: percentTick, label: "Measured pass rate", grid: true },
@@ -106,7 +107,7 @@ export function MedianScoreTrendChart({ rows, who }: { rows: readonly TrendRow[]
       height: width < 500 ? 240 : 280,
       marginLeft: 48,
       marginRight: 16,
-      marginTop: 20,
+      marginTop: Y_TITLE_MARGIN_TOP,
       marginBottom: width < 560 ? 40 : 30,
       x: { type: "point", domain: data.map((r) => r.quarter), tickFormat: quarterTick(width), label: null, padding: 0.4 },
       y: { domain: [low, 100], label: "Median score", grid: true },

@@ -2,6 +2,7 @@
 // baseline quarters) and 3-sigma control limits for each quarter's number of attempts (widened by Laney's σ_z
 // when asked). A quarter outside the limits is
 // drawn as a diamond and labelled, so it stands out without colour.
+import { Y_TITLE_MARGIN_TOP } from "./axisSpace";
 import * as Plot from "@observablehq/plot";
 import { useCallback } from "react";
 import type { z } from "zod";
@@ -86,7 +87,7 @@ export function PassRateControlChart({ series, minCount, title = "Measured pass 
         height: width < 500 ? 260 : 320,
         marginLeft: 48,
         marginRight: width < 500 ? 12 : 72,
-        marginTop: 24,
+        marginTop: Y_TITLE_MARGIN_TOP,
         marginBottom: width < 500 ? 40 : 30,
         x: { type: "point", domain: points.map((p) => p.quarter), tickFormat: (q: string) => (width < 500 ? `${q.slice(5)}\n${q.slice(0, 4)}` : quarterLabel(q)), label: null, padding: 0.4 },
         y: { domain: [0, top], tickFormat: percentTick, label: "Measured pass rate", grid: true },

@@ -1,5 +1,6 @@
 // Where I sit among all instructors: each instructor's median score against their pass rate, others as
 // anonymous hollow circles, me as a labelled star.
+import { Y_TITLE_MARGIN_TOP } from "./axisSpace";
 import * as Plot from "@observablehq/plot";
 import { useCallback } from "react";
 import type { StandingAnswer } from "../../../../shared/schemas/insight";
@@ -41,7 +42,7 @@ export function SpreadChart({ points, minAttempts, instructorsLeftOut }: { point
       height: width < 500 ? 280 : 340,
       marginLeft: 48,
       marginRight: 24,
-      marginTop: 20,
+      marginTop: Y_TITLE_MARGIN_TOP,
       marginBottom: 44,
       x: { domain: [low, high], label: "Median score", labelAnchor: "center", labelOffset: 38, grid: true },
       y: { domain: [0, 1], tickFormat: percentTick, label: "Pass rate", grid: true },
