@@ -23,6 +23,7 @@ import { healthRoutes } from "./ops/healthRoutes";
 import { systemRoutes } from "./ops/systemRoutes";
 import { reportRoutes } from "./reports/routes";
 import { equipmentRoutes } from "./equipment/routes";
+import { actionRoutes } from "./actions/routes";
 import { insightRoutes } from "./insight/routes";
 import { projectRoot } from "./projectRoot";
 import { policyRoutes } from "./settings/policyRoutes";
@@ -52,6 +53,7 @@ function featureRouters(db: Db, config: Config, endSessions: EndSessionsAfterPas
     userRoutes(db, mailer, endSessions),
     siteRoutes(db),
     insightRoutes(db),
+    actionRoutes(db),
     equipmentRoutes(db),
     policyRoutes(db),
     reportRoutes(db, mailer, logger),

@@ -36,6 +36,10 @@ export const permissionTable = {
   readOwnStanding: { instructor: "own" },
   /** The fleet and consumables; an instructor sees their own site's manikins and their own classes. */
   readEquipment: { coordinator: "any", quality_lead: "any", instructor: "own" },
+  /** Improvement actions; an instructor sees those whose scope is the network, their site or themselves. */
+  readActions: { coordinator: "any", quality_lead: "any", instructor: "own" },
+  /** Record and change improvement actions and their notes. */
+  manageActions: { coordinator: "any", quality_lead: "any" },
   readReport: { coordinator: "any", funder: "any" },
   sendReport: { coordinator: "any" },
   readSettings: { coordinator: "any", quality_lead: "any" },

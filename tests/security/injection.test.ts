@@ -61,6 +61,9 @@ const QUERY_KEYS: Record<string, string[]> = {
   "/api/reports/:id/pdf": [],
   "/api/reports/:id/csv": [],
   "/api/report-sends": [],
+  "/api/actions": [],
+  "/api/actions/marks": FILTERS,
+  "/api/actions/:id": [],
 };
 
 /** Free-text filters that may answer 200: then with nothing in the list. */
