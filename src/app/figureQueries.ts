@@ -4,6 +4,7 @@
 import type { QueryClient, QueryKey } from "@tanstack/react-query";
 import { dataVersionAnswerSchema } from "../../shared/schemas/dataVersion";
 import { getParsed } from "../api/getParsed";
+import { actionQueries } from "../features/actions/queries";
 import { attemptQueries } from "../features/attempts/queries";
 import { equipmentQueries } from "../features/equipment/queries";
 import { errorQueries } from "../features/errors/queries";
@@ -25,6 +26,8 @@ export const figureQueryFamilies: readonly QueryKey[] = [
   instructorQueries.all(),
   // The System page counts classes, attempts and streams per quarter and lists the last imports.
   systemQueries.all(),
+  // Improvement actions are evaluated on the attempt figures.
+  actionQueries.all(),
 ];
 
 /**
