@@ -136,3 +136,25 @@ describe("the action page", () => {
     expect(screen.getByRole("button", { name: "Add note" })).toBeTruthy();
   });
 });
+
+describe("action marks on trend charts", () => {
+  const marks = [{ id: 3, title: "Infant depth refresher", startDate: "2026-02-15", quarter: "2026-Q1" }];
+
+  it("names each action starting in the chart's quarters in the pass-rate chart's description", async () => {
+    const { PassRateControlChart } = await import("../../src/features/insight/charts/PassRateControlChart");
+    const point = (quarter: string, passed: number) => ({ quarter, attempts: 20, passed, rate: passed / 20, low: 0.2, high: 0.8, lcl: 0.1, ucl: 0.9, outside: false, suppressed: false });
+    const series = { centre: 0.5, points: [point("2025-Q4", 8), point("2026-Q1", 10), point("2026-Q2", 12)], runChart: null };
+    render(<PassRateControlChart series={series} minCount={5} actions={[...marks, { id: 4, title: "Too early", startDate: "2024-01-10", quarter: "2024-Q1" }]} />);
+    const text = document.body.textContent ?? "";
+    expect(text).toContain("Improvement actions marked: A1 Infant depth refresher (from 15 Feb 2026, 2026 Q1).");
+    // an action outside the chart's quarters has no place on its axis
+    expect(text).not.toContain("Too early");
+  });
+
+  it("names them in the error trend chart's description too", async () => {
+    const { ErrorTrendChart } = await import("../../src/features/errors/ErrorTrendChart");
+    const row = (quarter: string, count: number) => ({ quarter, attempts: 20, count, share: count / 20, low: 0.1, high: 0.6 });
+    render(<ErrorTrendChart label="Too shallow" trend={[row("2025-Q4", 8), row("2026-Q1", 6)]} actions={marks} />);
+    expect(document.body.textContent).toContain("Improvement actions marked: A1 Infant depth refresher (from 15 Feb 2026, 2026 Q1).");
+  });
+});

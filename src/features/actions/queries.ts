@@ -1,8 +1,8 @@
 import { queryOptions } from "@tanstack/react-query";
-import type { InsightFilters } from "../../../shared/filters";
 import { actionDetailAnswerSchema, actionListAnswerSchema, actionMarksAnswerSchema } from "../../../shared/schemas/actions";
 import { getParsed } from "../../api/getParsed";
 import { withQuery } from "../../api/withQuery";
+import type { ApiFilters } from "../insight/queries";
 
 export const actionQueries = {
   all: () => ["actions"] as const,
@@ -17,7 +17,7 @@ export const actionQueries = {
       queryFn: ({ signal }) => getParsed(actionDetailAnswerSchema, `/api/actions/${id}`, signal),
     }),
   /** Actions a trend chart with these filters marks. */
-  marks: (filters: InsightFilters) =>
+  marks: (filters: ApiFilters) =>
     queryOptions({
       queryKey: [...actionQueries.all(), "marks", filters] as const,
       queryFn: async ({ signal }) => (await getParsed(actionMarksAnswerSchema, withQuery("/api/actions/marks", filters), signal)).marks,
