@@ -23,6 +23,7 @@ import { healthRoutes } from "./ops/healthRoutes";
 import { systemRoutes } from "./ops/systemRoutes";
 import { reportRoutes } from "./reports/routes";
 import { equipmentRoutes } from "./equipment/routes";
+import { alertAfterImport } from "./alerts/importAlerts";
 import { actionRoutes } from "./actions/routes";
 import { insightRoutes } from "./insight/routes";
 import { projectRoot } from "./projectRoot";
@@ -58,7 +59,7 @@ function featureRouters(db: Db, config: Config, endSessions: EndSessionsAfterPas
     policyRoutes(db),
     reportRoutes(db, mailer, logger),
     outboxRoutes(db),
-    importRoutes(db, { logger }),
+    importRoutes(db, { logger, afterImport: () => void alertAfterImport(db, mailer, logger) }),
     systemRoutes(db, { backupDir: config.backups.dir, mail: { smtpUrl: config.smtpUrl, localMail } }),
   ];
 }

@@ -40,6 +40,8 @@ export const permissionTable = {
   readActions: { coordinator: "any", quality_lead: "any", instructor: "own" },
   /** Record and change improvement actions and their notes. */
   manageActions: { coordinator: "any", quality_lead: "any" },
+  /** The digest mailed after an import: instructors newly outside the funnel's 99.8 % limits (by code) and manikins due for service. */
+  receiveImportAlerts: { coordinator: "any", quality_lead: "any" },
   readReport: { coordinator: "any", funder: "any" },
   sendReport: { coordinator: "any" },
   readSettings: { coordinator: "any", quality_lead: "any" },

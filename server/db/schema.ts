@@ -544,3 +544,9 @@ export const actionNotes = sqliteTable(
   },
   (t) => [index("action_notes_action_idx").on(t.actionId, t.date)],
 );
+
+/** Signals already mailed after an import (an instructor outside the funnel in a quarter, a manikin due), so each is sent once. */
+export const alertLog = sqliteTable("alert_log", {
+  key: text().primaryKey(),
+  sentAt: createdAt(),
+});
