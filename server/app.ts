@@ -26,6 +26,7 @@ import { equipmentRoutes } from "./equipment/routes";
 import { alertAfterImport } from "./alerts/importAlerts";
 import { actionRoutes } from "./actions/routes";
 import { insightRoutes } from "./insight/routes";
+import { trackerRoutes } from "./tracker/routes";
 import { projectRoot } from "./projectRoot";
 import { policyRoutes } from "./settings/policyRoutes";
 import { sessionSecret } from "./settings/store";
@@ -55,6 +56,7 @@ function featureRouters(db: Db, config: Config, endSessions: EndSessionsAfterPas
     siteRoutes(db),
     insightRoutes(db),
     actionRoutes(db),
+    trackerRoutes(db),
     equipmentRoutes(db),
     policyRoutes(db),
     reportRoutes(db, mailer, logger),

@@ -42,6 +42,8 @@ export const permissionTable = {
   manageActions: { coordinator: "any", quality_lead: "any" },
   /** The digest mailed after an import: instructors newly outside the funnel's 99.8 % limits (by code) and manikins due for service. */
   receiveImportAlerts: { coordinator: "any", quality_lead: "any" },
+  /** The quarter tracker: which instructors' class logs and attempts have arrived, and refused rows to fix. */
+  readTracker: { coordinator: "any" },
   readReport: { coordinator: "any", funder: "any" },
   sendReport: { coordinator: "any" },
   readSettings: { coordinator: "any", quality_lead: "any" },

@@ -13,6 +13,7 @@ import { insightQueries } from "../features/insight/queries";
 import { instructorQueries } from "../features/instructors/queries";
 import { reportQueries } from "../features/report/queries";
 import { systemQueries } from "../features/system/queries";
+import { trackerQueries } from "../features/tracker/queries";
 
 /** Answers computed from attempts, classes, equipment logs and the scoring policy. */
 export const figureQueryFamilies: readonly QueryKey[] = [
@@ -28,6 +29,8 @@ export const figureQueryFamilies: readonly QueryKey[] = [
   systemQueries.all(),
   // Improvement actions are evaluated on the attempt figures.
   actionQueries.all(),
+  // The quarter tracker counts classes, attempts and refused rows.
+  trackerQueries.all(),
 ];
 
 /**

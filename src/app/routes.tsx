@@ -55,6 +55,7 @@ export const appRoutes: readonly AppRoute[] = [
   { path: "equipment", title: "Equipment", group: "quality", permission: "readEquipment", page: lazy(() => import("../pages/EquipmentPage")) },
   { path: "report", title: "Funder report", group: "quality", permission: "readReport", page: lazy(() => import("../pages/ReportPage")), landing: true },
   { path: "imports", title: "Imports", group: "data", permission: "importData", page: lazy(() => import("../pages/ImportsPage")) },
+  { path: "tracker", title: "Quarter tracker", group: "data", permission: "readTracker", page: lazy(() => import("../pages/QuarterTrackerPage")) },
   { path: "settings", title: "Settings", group: "admin", permission: "readSettings", page: lazy(() => import("../pages/SettingsPage")) },
   { path: "admin/users", title: "Users", group: "admin", permission: "manageUsers", page: lazy(() => import("../pages/UsersAdminPage")) },
   { path: "admin/sites", title: "Sites and instructors", group: "admin", permission: "manageSites", page: lazy(() => import("../pages/SitesAdminPage")) },

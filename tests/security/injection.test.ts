@@ -64,6 +64,7 @@ const QUERY_KEYS: Record<string, string[]> = {
   "/api/actions": [],
   "/api/actions/marks": FILTERS,
   "/api/actions/:id": [],
+  "/api/tracker": ["quarter"],
 };
 
 /** Free-text filters that may answer 200: then with nothing in the list. */
