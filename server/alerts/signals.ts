@@ -2,7 +2,7 @@
 // rate in the newest quarter lies outside the funnel's 99.8 % limits around the network rate (the same
 // positions as the Instructors page), and manikins due for service by the network's equipment policy (the
 // same judgement as the Equipment page). Each signal carries a key that stays the same while it holds.
-import { periodOf } from "../../shared/period";
+import { periodOf, quarterOf } from "../../shared/period";
 import { equipmentReport } from "../equipment/service";
 import { instructorTable } from "../insight/instructors";
 import { quartersWithData } from "../insight/quarters";
@@ -38,8 +38,8 @@ function wholeNetwork(quarter: string): ResolvedFilters {
 
 /** Every signal that holds now; `asOf` ("YYYY-MM-DD") is the day service intervals are measured to. */
 export function currentSignals(db: Db, asOf: string): Signals {
-  const quarter = quartersWithData(db)[0];
-  if (!quarter) return { funnel: [], service: [] };
+  // the newest quarter with attempts; before any, manikins can still fall due
+  const quarter = quartersWithData(db)[0] ?? quarterOf(asOf);
   const funnel = instructorTable(db, wholeNetwork(quarter)).instructors.flatMap((row): FunnelSignal[] => {
     if (row.position !== "above998" && row.position !== "below998") return [];
     const side = row.position === "above998" ? "above" : "below";

@@ -2,7 +2,10 @@
 // 99.8 % funnel limits, manikins due for service), who receives it (coordinators and quality leads, one
 // message each), that it names instructors by code only, and that a signal is mailed once.
 import path from "node:path";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+import { jobResponseSchema } from "../../shared/import/api";
+import { createApp } from "../../server/app";
+import { loadConfig } from "../../server/config";
 import { sendImportAlerts } from "../../server/alerts/importAlerts";
 import { currentSignals } from "../../server/alerts/signals";
 import type { Db } from "../../server/db/client";
@@ -11,7 +14,10 @@ import { importFiles } from "../../server/imports/service";
 import { startLocalMailService, type LocalMailService } from "../../server/mail/localService";
 import { createMailer } from "../../server/mail/mailer";
 import { seedInsightNetwork } from "../fixtures/insight/network";
-import { makeTestDb, seedPeople } from "../helpers/testApp";
+import { makeTestDb, seedPeople, signIn } from "../helpers/testApp";
+
+// The web import runs in a worker thread that starts tsx on first use: allow for a busy machine.
+vi.setConfig({ testTimeout: 120_000 });
 
 const fixture = (name: string) => path.resolve(__dirname, "../fixtures/import", name);
 
@@ -34,6 +40,7 @@ describe("after an import", () => {
 
   it("mails each coordinator and quality lead one digest of the new signals, once", async () => {
     const mailer = createMailer(mail.url);
+    // nothing imported yet: no manikin, no attempt, nothing to say
     expect(await sendImportAlerts(db, mailer, "2027-12-31")).toEqual({ status: "nothing-new" });
 
     const { summaries } = await importFiles(db, { kind: "classes", inputs: [{ path: fixture("classes-valid.csv") }], source: "cli" });
@@ -71,6 +78,41 @@ describe("after an import", () => {
     } finally {
       await later.close();
       other.$client.close();
+    }
+  });
+});
+
+describe("after a web import", () => {
+  it("puts one digest per coordinator and quality lead in the Outbox", async () => {
+    const db = makeTestDb();
+    await seedPeople(db);
+    const mail = await startLocalMailService(db, { port: 0 });
+    try {
+      const app = createApp(db, loadConfig({ NODE_ENV: "test", SESSION_SECRET: "test-secret-at-least-16-chars", SMTP_URL: mail.url }), { clientDir: null });
+      const coordinator = await signIn(app, "coord@test.example");
+      const uploaded = await coordinator.agent
+        .post("/api/imports/uploads")
+        .set("x-csrf-token", coordinator.csrfToken)
+        .field("kind", "classes")
+        .attach("file", fixture("classes-valid.csv"), { contentType: "text/csv" })
+        .expect(201);
+      const started = await coordinator.post(`/api/imports/uploads/${uploaded.body.upload.id}/import`, {}).expect(202);
+      // the job, then the digest that follows it, finish in the background: ask until both are there
+      let status = "queued";
+      let messages = received(db);
+      for (let i = 0; i < 2400 && (status !== "done" || messages.length < 2); i++) {
+        if (status !== "done") status = jobResponseSchema.parse((await coordinator.get(`/api/imports/jobs/${started.body.job.id}`).expect(200)).body).job.status;
+        await new Promise((resolve) => setTimeout(resolve, 50));
+        messages = received(db);
+        if (status === "failed") break;
+      }
+      expect(status).toBe("done");
+      // the class log brings manikins MK-1, MK-2 and MK-3 with no service and no date in use recorded
+      expect(messages.map((m) => m.recipients).sort()).toEqual([["coord@test.example"], ["quality@test.example"]]);
+      expect(messages[0].text).toContain("MK-1");
+    } finally {
+      await mail.close();
+      db.$client.close();
     }
   });
 });
