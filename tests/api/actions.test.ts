@@ -121,6 +121,22 @@ describe("evaluation", () => {
   });
 });
 
+describe("evaluation seen by an instructor", () => {
+  it("shows a network action's figures but hides a site's whose other attempts form a small group", async () => {
+    const network = await record({ title: "Network refresher", startDate: "2026-01-01" });
+    const { evaluation } = actionDetailAnswerSchema.parse((await t.instructor.get(`/api/actions/${network.id}`).expect(200)).body);
+    // every quarter's attempts of others are at least 20, above the smallest group shown (5, the default policy)
+    // after = 2026-Q1 (81 of 263) + 2026-Q2 (28 of 44)
+    expect(evaluation!.after).toMatchObject({ x: 109, n: 307 });
+    // NORTH infant attempts: only C1's 4 in 2026-Q2, fewer than 5 others of A1, so suppressed for A1
+    const infant = await record({ title: "North infant drill", siteId: t.net.sites.north.id, profile: "infant", startDate: "2026-01-01" });
+    const hidden = actionDetailAnswerSchema.parse((await t.instructor.get(`/api/actions/${infant.id}`).expect(200)).body);
+    expect(hidden.evaluation).toBeNull();
+    const full = actionDetailAnswerSchema.parse((await t.quality.get(`/api/actions/${infant.id}`).expect(200)).body);
+    expect(full.evaluation!.after).toMatchObject({ x: 0, n: 4 });
+  });
+});
+
 describe("chart marks", () => {
   it("marks actions whose scope touches the chart's filters and whose start lies in its quarters", async () => {
     const north = await record({ title: "North infant refresher", siteId: t.net.sites.north.id, profile: "infant", startDate: "2026-04-20" });
