@@ -9,6 +9,7 @@ import { Button } from "../components/Button";
 import { DataTable, type Column } from "../components/DataTable";
 import { Dialog } from "../components/Dialog";
 import { PageHeader } from "../components/PageHeader";
+import { SafetyNote } from "../components/SafetyNote";
 import { ErrorState, LoadingState } from "../components/States";
 import { ActionForm } from "../features/actions/ActionForm";
 import { actionQueries } from "../features/actions/queries";
@@ -63,6 +64,7 @@ export default function ActionsPage() {
           emptyMessage={list.data.mayManage ? "No actions yet. Record the first one with “Record action”." : "No improvement action concerns you yet."}
         />
       )}
+      <SafetyNote compact className="mt-4" />
       <Dialog open={adding} title="Record an improvement action" onClose={() => setAdding(false)}>
         <ActionForm onCancel={() => setAdding(false)} onDone={(action) => navigate(`/actions/${action.id}`)} />
       </Dialog>
