@@ -23,8 +23,11 @@ import { healthRoutes } from "./ops/healthRoutes";
 import { systemRoutes } from "./ops/systemRoutes";
 import { reportRoutes } from "./reports/routes";
 import { equipmentRoutes } from "./equipment/routes";
+import { alertAfterImport } from "./alerts/importAlerts";
+import { actionRoutes } from "./actions/routes";
 import { insightRoutes } from "./insight/routes";
 import { learnerRoutes } from "./learners/routes";
+import { trackerRoutes } from "./tracker/routes";
 import { projectRoot } from "./projectRoot";
 import { policyRoutes } from "./settings/policyRoutes";
 import { chartSettingsRoutes } from "./settings/chartRoutes";
@@ -54,13 +57,15 @@ function featureRouters(db: Db, config: Config, endSessions: EndSessionsAfterPas
     userRoutes(db, mailer, endSessions),
     siteRoutes(db),
     insightRoutes(db),
+    actionRoutes(db),
+    trackerRoutes(db),
     equipmentRoutes(db),
     learnerRoutes(db),
     policyRoutes(db),
     chartSettingsRoutes(db),
     reportRoutes(db, mailer, logger),
     outboxRoutes(db),
-    importRoutes(db, { logger }),
+    importRoutes(db, { logger, afterImport: () => void alertAfterImport(db, mailer, logger) }),
     systemRoutes(db, { backupDir: config.backups.dir, mail: { smtpUrl: config.smtpUrl, localMail } }),
   ];
 }

@@ -31,3 +31,7 @@ export const equipmentEventTypes = [
 export type EquipmentEventType = (typeof equipmentEventTypes)[number];
 
 export const lengthUnits = ["mm", "cm", "in"] as const;
+
+/** Where an improvement action stands. */
+export const actionStatuses = ["planned", "under_way", "done", "stopped"] as const;
+export type ActionStatus = (typeof actionStatuses)[number];

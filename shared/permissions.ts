@@ -38,6 +38,14 @@ export const permissionTable = {
   readCalibration: { coordinator: "any", quality_lead: "any", instructor: "own" },
   /** The fleet and consumables; an instructor sees their own site's manikins and their own classes. */
   readEquipment: { coordinator: "any", quality_lead: "any", instructor: "own" },
+  /** Improvement actions; an instructor sees those whose scope is the network, their site or themselves. */
+  readActions: { coordinator: "any", quality_lead: "any", instructor: "own" },
+  /** Record and change improvement actions and their notes. */
+  manageActions: { coordinator: "any", quality_lead: "any" },
+  /** The digest mailed after an import: instructors newly outside the funnel's 99.8 % limits (by code) and manikins due for service. */
+  receiveImportAlerts: { coordinator: "any", quality_lead: "any" },
+  /** The quarter tracker: which instructors' class logs and attempts have arrived, and refused rows to fix. */
+  readTracker: { coordinator: "any" },
   readReport: { coordinator: "any", funder: "any" },
   sendReport: { coordinator: "any" },
   readSettings: { coordinator: "any", quality_lead: "any" },

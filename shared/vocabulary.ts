@@ -1,6 +1,6 @@
 // The one vocabulary of figures and dimensions: every page, chart, table, CSV export, the PDF report and the
 // CLI take their words from here, so the same thing is never called two names. Add a word here, not in a page.
-import type { CourseType, FeedbackMode } from "./domain";
+import type { ActionStatus, CourseType, FeedbackMode } from "./domain";
 import type { PatientType } from "./scoring/policy";
 import type { AttemptError } from "./scoring/scoreAttempt";
 import type { DriftFlag } from "./schemas/equipment";
@@ -117,4 +117,41 @@ export const calibrationNames = {
   lenient: "Measured failures passed",
   strict: "Measured passes failed",
   kappa: "Agreement (κ)",
+} as const;
+
+/** What an improvement action can aim at: the measured pass rate, or the share of attempts failing on one error. */
+export type AimFigure = "passRate" | AttemptError;
+
+/** An aim's name, and whether the network wants it to go up or down. */
+export function aimFigureName(aim: AimFigure): string {
+  return aim === "passRate" ? figureNames.passRate : `Attempts failing on “${errorVocabulary[aim].short}”`;
+}
+export function aimGoesUp(aim: AimFigure): boolean {
+  return aim === "passRate";
+}
+
+export const actionStatusNames: Record<ActionStatus, string> = {
+  planned: "Planned",
+  under_way: "Under way",
+  done: "Done",
+  stopped: "Stopped",
+};
+
+/** The wording of improvement actions and their evaluation. */
+export const actionWords = {
+  action: "Improvement action",
+  aim: "Aim",
+  target: "Target",
+  scope: "Scope",
+  network: "Whole network",
+  startDate: "Start date",
+  owner: "Owner",
+  status: "Status",
+  notes: "Notes",
+  before: "Before the action",
+  after: "After the action",
+  /** Why the comparison does not prove the action caused a change. */
+  caution:
+    "A before/after comparison of observed data is not proof that the action caused a change: other things change over time too. " +
+    "A difference is called higher or lower only when its 95 % interval excludes zero.",
 } as const;

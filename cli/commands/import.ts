@@ -8,7 +8,12 @@ import { importKinds } from "../../shared/domain";
 import type { ImportSummary } from "../../shared/import/api";
 import { importMappingSchema, type ImportMapping } from "../../shared/import/mapping";
 import { AppError } from "../../server/errors";
+import { sendImportAlerts } from "../../server/alerts/importAlerts";
+import type { Config } from "../../server/config";
+import type { Db } from "../../server/db/client";
 import { importFiles, type ImportProgress } from "../../server/imports/service";
+import { startLocalMailService } from "../../server/mail/localService";
+import { createMailer } from "../../server/mail/mailer";
 import { CLI_ACTOR } from "../../server/imports/run";
 import { findUserByEmail } from "../../server/users/service";
 import { delimiterLabels } from "../../shared/import/delimiter";
@@ -61,7 +66,7 @@ export function registerImport(program: Command) {
         if (!fs.existsSync(file) || !fs.statSync(file).isFile()) throw new UsageError(`No file ${file}.`);
       }
       const mapping = options.map ? readMappingFile(options.map) : undefined;
-      const { db } = context(command);
+      const { config, db } = context(command);
       let userId: number | null = null;
       if (options.as) {
         const user = findUserByEmail(db, options.as);
@@ -92,6 +97,7 @@ export function registerImport(program: Command) {
         for (const summary of result.summaries) printSummary(summary);
         if (result.notImported.length > 0) console.log(`Not imported (an earlier file was refused): ${result.notImported.join(", ")}`);
       }
+      if (result.summaries.some((s) => s.status === "imported")) await mailAlerts(config, db, options.json ?? false);
       const refused = result.summaries.filter((s) => s.status === "refused");
       if (refused.length > 0) {
         throw new AppError(
@@ -103,6 +109,26 @@ export function registerImport(program: Command) {
         );
       }
     });
+}
+
+/**
+ * The same digest as after a web import. Without SMTP_URL the local mail service runs for the length of this
+ * step, as for `quarterbeat report --send`; its mailbox is the database's Outbox.
+ */
+async function mailAlerts(config: Config, db: Db, quiet: boolean) {
+  let local: Awaited<ReturnType<typeof startLocalMailService>> | null = null;
+  try {
+    if (!config.smtpUrl) local = await startLocalMailService(db);
+    const outcome = await sendImportAlerts(db, createMailer(config.smtpUrl ?? local!.url));
+    if (quiet) return;
+    if (outcome.status === "sent") console.log(`Mailed ${outcome.signals} new signal${outcome.signals === 1 ? "" : "s"} to ${outcome.recipients} coordinator and quality-lead account${outcome.recipients === 1 ? "" : "s"}.`);
+    if (outcome.status === "failed") console.log(`The alert digest could not be sent (${outcome.error}); it is tried again after the next import.`);
+  } catch (err) {
+    // the import itself is done: a digest that cannot be prepared must not turn it into a failure
+    if (!quiet) console.log(`The alert digest could not be prepared: ${(err as Error).message}`);
+  } finally {
+    await local?.close();
+  }
 }
 
 /** Rows, rows per second and a time left estimated from the bytes read. Only on a terminal. */

@@ -9,7 +9,9 @@
 // - Rows written by an import carry the batch id so that a batch can be undone.
 import { sql } from "drizzle-orm";
 import { blob, index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
+import type { AimFigure } from "../../shared/vocabulary";
 import {
+  actionStatuses,
   courseTypes,
   equipmentEventTypes,
   feedbackModes,
@@ -551,3 +553,50 @@ export const backupLog = sqliteTable(
   },
   (t) => [index("backup_log_taken_idx").on(t.takenAt)],
 );
+
+/**
+ * Improvement actions: what a quality lead or coordinator changed to move one figure, where, and from when.
+ * The scope is the network (no site, no instructor), a site or an instructor, optionally one patient type.
+ */
+export const improvementActions = sqliteTable(
+  "improvement_actions",
+  {
+    id: integer().primaryKey({ autoIncrement: true }),
+    title: text().notNull(),
+    aim: text().$type<AimFigure>().notNull(),
+    /** The aim's target as a percentage (0–100). */
+    target: real().notNull(),
+    siteId: integer().references(() => sites.id),
+    instructorId: integer().references(() => instructors.id),
+    profile: text({ enum: patientTypes }),
+    startDate: text().notNull(), // YYYY-MM-DD
+    owner: text().notNull(),
+    status: text({ enum: actionStatuses }).notNull().default("planned"),
+    createdBy: integer().references(() => users.id),
+    createdAt: createdAt(),
+    updatedAt: createdAt(),
+  },
+  (t) => [index("improvement_actions_start_idx").on(t.startDate)],
+);
+
+/** Dated notes on an action's progress. */
+export const actionNotes = sqliteTable(
+  "action_notes",
+  {
+    id: integer().primaryKey({ autoIncrement: true }),
+    actionId: integer()
+      .notNull()
+      .references(() => improvementActions.id, { onDelete: "cascade" }),
+    date: text().notNull(), // YYYY-MM-DD
+    text: text().notNull(),
+    createdBy: integer().references(() => users.id),
+    createdAt: createdAt(),
+  },
+  (t) => [index("action_notes_action_idx").on(t.actionId, t.date)],
+);
+
+/** Signals already mailed after an import (an instructor outside the funnel in a quarter, a manikin due), so each is sent once. */
+export const alertLog = sqliteTable("alert_log", {
+  key: text().primaryKey(),
+  sentAt: createdAt(),
+});

@@ -35,6 +35,8 @@ export class ImportJobs {
   constructor(
     private readonly dbFile: string,
     private readonly logger?: Logger,
+    /** Called once an import job has written a batch (not for validation or a refused file). */
+    private readonly afterImport?: (summary: ImportSummary) => void,
   ) {}
 
   start(upload: StoredUpload, mode: "validate" | "import", mapping: ImportMapping, skipInvalid: boolean, actor: ImportActor & { userId: number }): ImportJob {
@@ -111,6 +113,7 @@ export class ImportJobs {
         job.error = error;
         job.status = error ? "failed" : "done";
         if (summary && summary.issuesTotal > 0) job.rejectedCsvUrl = `/api/imports/jobs/${job.id}/rejected.csv`;
+        if (summary?.status === "imported" && job.mode === "import") this.afterImport?.(summary);
         resolve();
       };
       this.current = { job, finish };

@@ -12,6 +12,7 @@ import {
   presetListQuerySchema,
   runRequestSchema,
   uploadFormSchema,
+  type ImportSummary,
   type Preview,
   type RunRequest,
 } from "../../shared/import/api";
@@ -39,12 +40,14 @@ export interface ImportRouteOptions {
   jobs?: ImportJobs;
   maxUploadBytes?: number;
   logger?: Logger;
+  /** Called after each web import that wrote a batch (the alert digest). */
+  afterImport?: (summary: ImportSummary) => void;
 }
 
 export function importRoutes(db: Db, options: ImportRouteOptions = {}): Router {
   const router = Router();
   const uploads = options.uploads ?? new UploadStore();
-  const jobs = options.jobs ?? new ImportJobs(db.$client.name, options.logger);
+  const jobs = options.jobs ?? new ImportJobs(db.$client.name, options.logger, options.afterImport);
   const upload = multer({
     storage: multer.diskStorage({
       destination: uploads.dir,

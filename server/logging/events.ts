@@ -35,6 +35,13 @@ export function logImport(logger: Logger, event: ImportEvent) {
   else logger.info(fields, "import finished");
 }
 
+/** The digest after an import: how many signals and recipients, never who or what. */
+export function logImportAlerts(logger: Logger, outcome: { status: string; recipients?: number; signals?: number }) {
+  const fields = { event: "import_alerts", status: outcome.status, recipients: outcome.recipients ?? 0, signals: outcome.signals ?? 0 };
+  if (outcome.status === "failed") logger.warn(fields, "import alerts not sent");
+  else logger.info(fields, "import alerts checked");
+}
+
 export function logReportSend(logger: Logger, send: ReportSendRow, userId: number, durationMs: number) {
   const fields = {
     event: "report_send",

@@ -4,6 +4,7 @@
 import type { QueryClient, QueryKey } from "@tanstack/react-query";
 import { dataVersionAnswerSchema } from "../../shared/schemas/dataVersion";
 import { getParsed } from "../api/getParsed";
+import { actionQueries } from "../features/actions/queries";
 import { attemptQueries } from "../features/attempts/queries";
 import { equipmentQueries } from "../features/equipment/queries";
 import { errorQueries } from "../features/errors/queries";
@@ -13,6 +14,7 @@ import { instructorQueries } from "../features/instructors/queries";
 import { learnerQueries } from "../features/learners/queries";
 import { reportQueries } from "../features/report/queries";
 import { systemQueries } from "../features/system/queries";
+import { trackerQueries } from "../features/tracker/queries";
 
 /** Answers computed from attempts, classes, equipment logs and the scoring policy. */
 export const figureQueryFamilies: readonly QueryKey[] = [
@@ -27,6 +29,10 @@ export const figureQueryFamilies: readonly QueryKey[] = [
   instructorQueries.all(),
   // The System page counts classes, attempts and streams per quarter and lists the last imports.
   systemQueries.all(),
+  // Improvement actions are evaluated on the attempt figures.
+  actionQueries.all(),
+  // The quarter tracker counts classes, attempts and refused rows.
+  trackerQueries.all(),
 ];
 
 /**

@@ -14,6 +14,7 @@ import { BreakdownPanel, type BreakdownRow } from "../features/errors/BreakdownP
 import { ErrorTrendChart } from "../features/errors/ErrorTrendChart";
 import { ParetoChart } from "../features/errors/ParetoChart";
 import { errorQueries } from "../features/errors/queries";
+import { useActionMarks, type ChartScope } from "../features/actions/useActionMarks";
 import { linkParams, useInsightFilters, type InsightFilterState, type OptionalFilter } from "../features/insight/useInsightFilters";
 import { rangeLabel } from "../../shared/period";
 import { feedbackNames, patientTypeNames } from "../../shared/vocabulary";
@@ -106,7 +107,7 @@ function ErrorTrends({ state }: { state: InsightFilterState }) {
                   />
                 </div>
                 {analysis.data.selected ? (
-                  <SelectedError selected={analysis.data.selected} values={values} />
+                  <SelectedError selected={analysis.data.selected} values={values} scope={state.api} />
                 ) : (
                   <EmptyState title="No error chosen">Choose an error above, or “Trend and breakdown” in the table view of the chart, to see its trend by quarter and where it happens.</EmptyState>
                 )}
@@ -121,7 +122,8 @@ function ErrorTrends({ state }: { state: InsightFilterState }) {
 
 type Selected = NonNullable<import("../../shared/schemas/insight").ErrorsAnswer["selected"]>;
 
-function SelectedError({ selected, values }: { selected: Selected; values: FilterValues }) {
+function SelectedError({ selected, values, scope }: { selected: Selected; values: FilterValues; scope: ChartScope }) {
+  const actions = useActionMarks(scope, selected.trend.map((row) => row.quarter));
   const attemptsLink = (extra: Record<string, string | null>) => `/attempts?${linkParams(values, { error: selected.error, ...extra })}`;
   const withError = selected.byProfile.reduce((sum, row) => sum + row.count, 0);
   return (
@@ -134,7 +136,7 @@ function SelectedError({ selected, values }: { selected: Selected; values: Filte
           List these {withError} attempts
         </Link>
       </p>
-      <ErrorTrendChart label={selected.label} trend={selected.trend} />
+      <ErrorTrendChart label={selected.label} trend={selected.trend} actions={actions} />
       <p className="text-small text-muted">
         With one quarter chosen, the trend shows the eight quarters up to it; with a longer period, each of its quarters. The other filters apply throughout. The groups below cover the chosen period only.
       </p>

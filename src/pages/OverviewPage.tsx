@@ -19,6 +19,8 @@ import { NothingToChart } from "../features/insight/charts/NothingToChart";
 import { suppressedText } from "../features/insight/format";
 import { quarterLabel } from "../../shared/period";
 import { insightQueries } from "../features/insight/queries";
+import { useActionMarks } from "../features/actions/useActionMarks";
+import type { ActionMark } from "../../shared/schemas/actions";
 import type { InsightFilterState } from "../features/insight/useInsightFilters";
 
 export default function OverviewPage() {
@@ -39,14 +41,15 @@ function OverviewBody({ state }: { state: InsightFilterState }) {
   const [params] = useSearchParams();
   const limits = params.get("limits") === "laney" ? "laney" : undefined;
   const query = useQuery({ ...insightQueries.overview({ ...state.api, limits }), placeholderData: keepPreviousData });
+  const actions = useActionMarks(state.api, query.data?.series.points.map((p) => p.quarter) ?? []);
   return (
     <QueryStatus query={query} loadingLabel={`Loading ${quarterLabel(state.quarter)}…`} errorTitle="The overview could not be loaded">
-      {(answer) => (answer.attempts === 0 ? <NoDataForFilters state={state} /> : <OverviewContent answer={answer} />)}
+      {(answer) => (answer.attempts === 0 ? <NoDataForFilters state={state} /> : <OverviewContent answer={answer} actions={actions} />)}
     </QueryStatus>
   );
 }
 
-export function OverviewContent({ answer }: { answer: OverviewAnswer }) {
+export function OverviewContent({ answer, actions }: { answer: OverviewAnswer; actions?: readonly ActionMark[] }) {
   const min = answer.suppressionMinCount;
   return (
     <div className="flex flex-col gap-8">
@@ -77,7 +80,7 @@ export function OverviewContent({ answer }: { answer: OverviewAnswer }) {
           The control limits show how far a quarter's pass rate can move by chance alone, given its number of attempts. A quarter outside them
           is a real change worth looking into, for better or worse.
         </p>
-        <PassRateControlChart series={answer.series} minCount={min} />
+        <PassRateControlChart series={answer.series} minCount={min} actions={actions} />
         <ChartBaselineCaption series={answer.series} />
       </section>
 

@@ -61,6 +61,9 @@ const matrix: Row[] = [
   { method: "get", path: "/api/report-sends", expect: coordinatorOnly },
   { method: "get", path: "/api/outbox", expect: coordinatorOnly },
   { method: "get", path: "/api/system", expect: coordinatorOnly },
+  { method: "get", path: "/api/actions", expect: network },
+  { method: "get", path: "/api/actions/marks", expect: network },
+  { method: "get", path: "/api/tracker", expect: coordinatorOnly },
 ];
 
 /** Row scope: an instructor asking for another instructor's row is told it does not exist. */

@@ -21,6 +21,8 @@ import { outboxQueries } from "../../src/features/outbox/queries";
 import { reportQueries } from "../../src/features/report/queries";
 import { settingsQueries } from "../../src/features/settings/queries";
 import { systemQueries } from "../../src/features/system/queries";
+import { actionQueries } from "../../src/features/actions/queries";
+import { trackerQueries } from "../../src/features/tracker/queries";
 import { siteQueries } from "../../src/features/sites/queries";
 import { userQueries } from "../../src/features/users/queries";
 import { fakeServer } from "./testServer";
@@ -106,6 +108,8 @@ describe("query keys", () => {
     { family: siteQueries.all(), keys: [siteQueries.list().queryKey] },
     { family: userQueries.all(), keys: [userQueries.list().queryKey] },
     { family: systemQueries.all(), keys: [systemQueries.report().queryKey] },
+    { family: actionQueries.all(), keys: [actionQueries.list().queryKey, actionQueries.detail(1).queryKey, actionQueries.marks({}).queryKey] },
+    { family: trackerQueries.all(), keys: [trackerQueries.quarter("2026-Q3").queryKey] },
   ];
 
   it.each(built)("builds every key of $family under its family", ({ family, keys }) => {
@@ -118,7 +122,7 @@ describe("query keys", () => {
   });
 
   it("invalidates the families whose answers a write of figures changes", () => {
-    expect(figureQueryFamilies.map((key) => key[0])).toEqual(["insight", "errors", "attempts", "equipment", "report", "imports", "instructors", "system"]);
+    expect(figureQueryFamilies.map((key) => key[0])).toEqual(["insight", "errors", "attempts", "equipment", "report", "imports", "instructors", "system", "actions", "tracker"]);
   });
 });
 

@@ -65,6 +65,10 @@ const QUERY_KEYS: Record<string, string[]> = {
   "/api/reports/:id/pdf": [],
   "/api/reports/:id/csv": [],
   "/api/report-sends": [],
+  "/api/actions": [],
+  "/api/actions/marks": FILTERS,
+  "/api/actions/:id": [],
+  "/api/tracker": ["quarter"],
 };
 
 /** Free-text filters that may answer 200: then with nothing in the list. */

@@ -1,5 +1,8 @@
 // One error's share of attempts per quarter with its 95 % interval, so a real change can be told from noise.
 import * as Plot from "@observablehq/plot";
+import { useCallback } from "react";
+import type { ActionMark } from "../../../shared/schemas/actions";
+import { actionMarkLayers, describeActionMarks } from "../actions/chartMarks";
 import type { ErrorsAnswer } from "../../../shared/schemas/insight";
 import { Chart, type ChartSize } from "../../components/Chart";
 import type { Column } from "../../components/DataTable";
@@ -19,7 +22,7 @@ const columns: Column<TrendRow>[] = [
   { key: "high", header: "95 % interval to (%)", value: (row) => percentNumber(row.high), render: (row) => percent(row.high), align: "right" },
 ];
 
-function trendPlot(data: readonly TrendRow[], { width }: ChartSize): Plot.PlotOptions {
+function trendPlot(data: readonly TrendRow[], { width }: ChartSize, actions: readonly ActionMark[]): Plot.PlotOptions {
   const rows = (data as TrendRow[]).filter((row) => row.share !== null);
   const top = Math.min(1, Math.max(0.1, ...rows.map((row) => row.high ?? 0)) * 1.15);
   return {
@@ -32,11 +35,15 @@ function trendPlot(data: readonly TrendRow[], { width }: ChartSize): Plot.PlotOp
       Plot.line(rows, { x: "quarter", y: "share", stroke: dusk[700], strokeWidth: 1.5 }),
       Plot.dot(rows, { x: "quarter", y: "share", fill: dusk[700], r: 4, title: (row: TrendRow) => `${row.quarter}: ${percent(row.share)} (${row.count} of ${row.attempts})` }),
       Plot.ruleY([0]),
+      ...actionMarkLayers(actions, (data as TrendRow[]).map((row) => row.quarter)),
     ],
   };
 }
 
-export function ErrorTrendChart({ label, trend }: { label: string; trend: readonly TrendRow[] }) {
+const noActions: readonly ActionMark[] = [];
+
+export function ErrorTrendChart({ label, trend, actions = noActions }: { label: string; trend: readonly TrendRow[]; actions?: readonly ActionMark[] }) {
+  const plot = useCallback((data: readonly TrendRow[], size: ChartSize) => trendPlot(data, size, actions), [actions]);
   const shown = trend.filter((row) => row.share !== null);
   const first = shown[0];
   const last = shown[shown.length - 1];
@@ -50,5 +57,6 @@ export function ErrorTrendChart({ label, trend }: { label: string; trend: readon
         ? `${percent(first.share)} of attempts in ${quarterLabel(first.quarter)}. Bars show the 95 % interval.`
         : `Share of attempts with “${label.toLowerCase()}” per quarter, from ${percent(first.share)} in ${quarterLabel(first.quarter)} to ${percent(last.share)} in ${quarterLabel(last.quarter)}. ` +
           `Bars show the 95 % interval; ${clear ? "the change from first to last is clear of chance (the 95 % interval of the difference excludes zero)" : "the change from first to last may be chance (the 95 % interval of the difference includes zero)"}.`;
-  return <Chart title="Trend by quarter" description={description} data={trend} columns={columns} rowKey={(row) => row.quarter} plot={trendPlot} exportFileName="error-trend" />;
+  const marked = description + describeActionMarks(actions, trend.map((row) => row.quarter));
+  return <Chart title="Trend by quarter" description={marked} data={trend} columns={columns} rowKey={(row) => row.quarter} plot={plot} exportFileName="error-trend" />;
 }

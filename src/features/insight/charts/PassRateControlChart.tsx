@@ -14,6 +14,8 @@ import { NothingToChart } from "./NothingToChart";
 import { ink, percentTick, shareAxisTop } from "../chartStyle";
 import { formatCount, formatInterval, formatPercent, percentValue, suppressedText } from "../format";
 import { quarterLabel } from "../../../../shared/period";
+import type { ActionMark } from "../../../../shared/schemas/actions";
+import { actionMarkLayers, describeActionMarks } from "../../actions/chartMarks";
 
 export type PassRateSeries = z.infer<typeof passRateSeriesSchema>;
 export type SeriesPoint = PassRateSeries["points"][number];
@@ -74,7 +76,20 @@ export function seriesColumns(minCount: number): Column<SeriesPoint>[] {
   ];
 }
 
-export function PassRateControlChart({ series, minCount, title = "Measured pass rate by quarter" }: { series: PassRateSeries; minCount: number; title?: string }) {
+const noActions: readonly ActionMark[] = [];
+
+export function PassRateControlChart({
+  series,
+  minCount,
+  title = "Measured pass rate by quarter",
+  actions = noActions,
+}: {
+  series: PassRateSeries;
+  minCount: number;
+  title?: string;
+  /** Improvement actions to mark at the quarter they start in. */
+  actions?: readonly ActionMark[];
+}) {
   // without a single quarter to show, a centre line alone would only hint at the hidden figures
   const nothingShown = series.points.every((p) => p.rate === null);
   const centre = nothingShown ? null : series.centre;
@@ -117,10 +132,11 @@ export function PassRateControlChart({ series, minCount, title = "Measured pass 
           // on narrow screens the diamonds alone mark these quarters (the words would overlap)
           width < 500 ? null : Plot.text(outside.filter((p) => side(p) === "above"), { x: "quarter", y: "rate", text: () => "above", dy: -15, fill: ink.text, fontWeight: 600 }),
           width < 500 ? null : Plot.text(outside.filter((p) => side(p) === "below"), { x: "quarter", y: "rate", text: () => "below", dy: 17, fill: ink.text, fontWeight: 600 }),
+          ...actionMarkLayers(actions, points.map((p) => p.quarter)),
         ],
       };
     },
-    [centre],
+    [centre, actions],
   );
 
   if (nothingShown) {
@@ -130,7 +146,7 @@ export function PassRateControlChart({ series, minCount, title = "Measured pass 
   return (
     <Chart
       title={title}
-      description={describeSeries(series)}
+      description={describeSeries(series) + describeActionMarks(actions, series.points.map((p) => p.quarter))}
       data={series.points}
       columns={seriesColumns(minCount)}
       rowKey={(p) => p.quarter}
@@ -143,6 +159,7 @@ export function PassRateControlChart({ series, minCount, title = "Measured pass 
             { label: "Centre line", swatch: lineSwatch(ink.main) },
             { label: "Control limits", swatch: lineSwatch(ink.limit, "5 4") },
             { label: "Outside the limits", swatch: shapeSwatch("diamond", ink.accent, ink.text) },
+            ...(describeActionMarks(actions, series.points.map((p) => p.quarter)) ? [{ label: "Improvement action starts", swatch: lineSwatch(ink.accentDark, "3 3") }] : []),
           ]}
         />
       }

@@ -1,0 +1,25 @@
+import { queryOptions } from "@tanstack/react-query";
+import { actionDetailAnswerSchema, actionListAnswerSchema, actionMarksAnswerSchema } from "../../../shared/schemas/actions";
+import { getParsed } from "../../api/getParsed";
+import { withQuery } from "../../api/withQuery";
+import type { ApiFilters } from "../insight/queries";
+
+export const actionQueries = {
+  all: () => ["actions"] as const,
+  list: () =>
+    queryOptions({
+      queryKey: [...actionQueries.all(), "list"] as const,
+      queryFn: ({ signal }) => getParsed(actionListAnswerSchema, "/api/actions", signal),
+    }),
+  detail: (id: number) =>
+    queryOptions({
+      queryKey: [...actionQueries.all(), "detail", id] as const,
+      queryFn: ({ signal }) => getParsed(actionDetailAnswerSchema, `/api/actions/${id}`, signal),
+    }),
+  /** Actions a trend chart with these filters marks. */
+  marks: (filters: ApiFilters) =>
+    queryOptions({
+      queryKey: [...actionQueries.all(), "marks", filters] as const,
+      queryFn: async ({ signal }) => (await getParsed(actionMarksAnswerSchema, withQuery("/api/actions/marks", filters), signal)).marks,
+    }),
+};

@@ -1,0 +1,12 @@
+import type { ActionRow } from "../../../shared/schemas/actions";
+import { actionWords, dimensionNames, patientTypeNames } from "../../../shared/vocabulary";
+
+/** "Whole network", "Site NORTH", "Instructor A1", with " · Infant" when one patient type is chosen. */
+export function scopeLabel(action: Pick<ActionRow, "siteCode" | "instructorCode" | "profile">): string {
+  const where = action.instructorCode
+    ? `${dimensionNames.instructor} ${action.instructorCode}`
+    : action.siteCode
+      ? `${dimensionNames.site} ${action.siteCode}`
+      : actionWords.network;
+  return action.profile ? `${where} · ${patientTypeNames[action.profile]}` : where;
+}

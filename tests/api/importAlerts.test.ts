@@ -1,0 +1,133 @@
+// The digest mailed after an import, through the local mail service: what it finds (instructors outside the
+// 99.8 % funnel limits, manikins due for service), who receives it (coordinators and quality leads, one
+// message each), that it names instructors by code only, and that a signal is mailed once.
+import path from "node:path";
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+import { jobResponseSchema } from "../../shared/import/api";
+import { createApp } from "../../server/app";
+import { loadConfig } from "../../server/config";
+import { sendImportAlerts } from "../../server/alerts/importAlerts";
+import { currentSignals } from "../../server/alerts/signals";
+import type { Db } from "../../server/db/client";
+import { mailbox } from "../../server/db/schema";
+import { importFiles } from "../../server/imports/service";
+import { startLocalMailService, type LocalMailService } from "../../server/mail/localService";
+import { createMailer } from "../../server/mail/mailer";
+import { seedInsightNetwork } from "../fixtures/insight/network";
+import { makeTestDb, seedPeople, signIn } from "../helpers/testApp";
+
+// The web import runs in a worker thread that starts tsx on first use: allow for a busy machine.
+vi.setConfig({ testTimeout: 120_000 });
+
+const fixture = (name: string) => path.resolve(__dirname, "../fixtures/import", name);
+
+function received(db: Db) {
+  return db.select({ recipients: mailbox.recipients, subject: mailbox.subject, text: mailbox.text }).from(mailbox).all();
+}
+
+describe("after an import", () => {
+  let db: Db;
+  let mail: LocalMailService;
+  beforeAll(async () => {
+    db = makeTestDb();
+    await seedPeople(db);
+    mail = await startLocalMailService(db, { port: 0 });
+  });
+  afterAll(async () => {
+    await mail.close();
+    db.$client.close();
+  });
+
+  it("mails each coordinator and quality lead one digest of the new signals, once", async () => {
+    const mailer = createMailer(mail.url);
+    // nothing imported yet: no manikin, no attempt, nothing to say
+    expect(await sendImportAlerts(db, mailer, "2027-12-31")).toEqual({ status: "nothing-new" });
+
+    const { summaries } = await importFiles(db, { kind: "classes", inputs: [{ path: fixture("classes-valid.csv") }], source: "cli" });
+    expect(summaries[0].status).toBe("imported");
+    await importFiles(db, { kind: "attempts", inputs: [{ path: fixture("attempts-valid.csv") }], source: "cli" });
+
+    // The class log brings manikins MK-1, MK-2 and MK-3 with no service and no date in use recorded: all due.
+    // B1's one attempt passes: at n = 1 the interpolated exact upper limit (Spiegelhalter, Stat Med
+    // 2005;24:1185–1202, appendix A.1.1) is 1 − 0.001/p for a network rate p, below 1, so 1 of 1 lies above it.
+    const outcome = await sendImportAlerts(db, mailer, "2027-12-31");
+    expect(outcome).toMatchObject({ status: "sent", recipients: 2, signals: 4 });
+    const messages = received(db);
+    expect(messages.map((m) => m.recipients).sort()).toEqual([["coord@test.example"], ["quality@test.example"]]);
+    for (const message of messages) {
+      expect(message.subject).toBe("Quarterbeat: 4 new signals after the latest import");
+      expect(message.text).toContain("  - B1: above the limits (1 of 1 attempts passed)");
+      expect(message.text).toContain("Manikins due for service:");
+      for (const asset of ["MK-1", "MK-2", "MK-3"]) expect(message.text).toContain(asset);
+      // codes only: no instructor's name, no learner code
+      expect(message.text).not.toMatch(/Instructor A1|L-0001/);
+      expect(message.text).toContain("not a medical device");
+    }
+
+    expect(await sendImportAlerts(db, mailer, "2027-12-31")).toEqual({ status: "nothing-new" });
+    expect(received(db)).toHaveLength(2);
+  });
+
+  it("reports a mail server that is not configured without recording the signals as sent", async () => {
+    const other = makeTestDb();
+    await seedInsightNetwork(other);
+    expect(await sendImportAlerts(other, createMailer(undefined), "2026-07-01")).toEqual({ status: "not-configured" });
+    const later = await startLocalMailService(other, { port: 0 });
+    try {
+      expect(await sendImportAlerts(other, createMailer(later.url), "2026-07-01")).toMatchObject({ status: "sent" });
+    } finally {
+      await later.close();
+      other.$client.close();
+    }
+  });
+});
+
+describe("after a web import", () => {
+  it("puts one digest per coordinator and quality lead in the Outbox", async () => {
+    const db = makeTestDb();
+    await seedPeople(db);
+    const mail = await startLocalMailService(db, { port: 0 });
+    try {
+      const app = createApp(db, loadConfig({ NODE_ENV: "test", SESSION_SECRET: "test-secret-at-least-16-chars", SMTP_URL: mail.url }), { clientDir: null });
+      const coordinator = await signIn(app, "coord@test.example");
+      const uploaded = await coordinator.agent
+        .post("/api/imports/uploads")
+        .set("x-csrf-token", coordinator.csrfToken)
+        .field("kind", "classes")
+        .attach("file", fixture("classes-valid.csv"), { contentType: "text/csv" })
+        .expect(201);
+      const started = await coordinator.post(`/api/imports/uploads/${uploaded.body.upload.id}/import`, {}).expect(202);
+      // the job, then the digest that follows it, finish in the background: ask until both are there
+      let status = "queued";
+      let messages = received(db);
+      for (let i = 0; i < 2400 && (status !== "done" || messages.length < 2); i++) {
+        if (status !== "done") status = jobResponseSchema.parse((await coordinator.get(`/api/imports/jobs/${started.body.job.id}`).expect(200)).body).job.status;
+        await new Promise((resolve) => setTimeout(resolve, 50));
+        messages = received(db);
+        if (status === "failed") break;
+      }
+      expect(status).toBe("done");
+      // the class log brings manikins MK-1, MK-2 and MK-3 with no service and no date in use recorded
+      expect(messages.map((m) => m.recipients).sort()).toEqual([["coord@test.example"], ["quality@test.example"]]);
+      expect(messages[0].text).toContain("MK-1");
+    } finally {
+      await mail.close();
+      db.$client.close();
+    }
+  });
+});
+
+describe("the signals", () => {
+  it("finds an instructor above the 99.8 % limits and a manikin past its service interval", async () => {
+    const db = makeTestDb();
+    await seedInsightNetwork(db);
+    const signals = currentSignals(db, "2026-07-01");
+    // 2026-Q2: the network passes 28 of 44. D1 passes 20 of 20; under Binomial(20, 28/44) that chance is
+    // (28/44)^20 ≈ 0.00012, below the 0.001 of the upper 99.8 % limit (exact binomial funnel limits,
+    // Spiegelhalter, Stat Med 2005;24:1185–1202). A1 6/10, B1 2/10 and C1 0/4 stay inside the 99.8 % limits.
+    expect(signals.funnel).toEqual([{ key: "funnel:2026-Q2:D1:above", quarter: "2026-Q2", instructorCode: "D1", side: "above", passed: 20, attempts: 20 }]);
+    // MK-N2 came into use on 2020-01-01 with no service recorded; the default interval is 365 days.
+    expect(signals.service.map((s) => s.key)).toEqual(["service:MK-N2:service_by_days:never"]);
+    db.$client.close();
+  });
+});
