@@ -9,6 +9,7 @@ import { createQueryClient } from "../../src/app/queryClient";
 import { ActionForm } from "../../src/features/actions/ActionForm";
 import { renderApp } from "./renderApp";
 import { fakeServer, sessionFor } from "./testServer";
+import { formatDay } from "../../src/lib/formatting";
 
 vi.setConfig({ testTimeout: 20_000 });
 
@@ -153,7 +154,7 @@ describe("action marks on trend charts", () => {
     };
     render(<PassRateControlChart series={series} minCount={5} actions={[...marks, { id: 4, title: "Too early", startDate: "2024-01-10", quarter: "2024-Q1" }]} />);
     const text = document.body.textContent ?? "";
-    expect(text).toContain("Improvement actions marked: A1 Infant depth refresher (from 15 Feb 2026, 2026 Q1).");
+    expect(text).toContain(`Improvement actions marked: A1 Infant depth refresher (from ${formatDay("2026-02-15")}, 2026 Q1).`);
     // an action outside the chart's quarters has no place on its axis
     expect(text).not.toContain("Too early");
   });
@@ -162,6 +163,6 @@ describe("action marks on trend charts", () => {
     const { ErrorTrendChart } = await import("../../src/features/errors/ErrorTrendChart");
     const row = (quarter: string, count: number) => ({ quarter, attempts: 20, count, share: count / 20, low: 0.1, high: 0.6 });
     render(<ErrorTrendChart label="Too shallow" trend={[row("2025-Q4", 8), row("2026-Q1", 6)]} actions={marks} />);
-    expect(document.body.textContent).toContain("Improvement actions marked: A1 Infant depth refresher (from 15 Feb 2026, 2026 Q1).");
+    expect(document.body.textContent).toContain(`Improvement actions marked: A1 Infant depth refresher (from ${formatDay("2026-02-15")}, 2026 Q1).`);
   });
 });

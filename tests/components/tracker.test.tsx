@@ -4,6 +4,7 @@ import { afterEach, describe, expect, it, vi } from "vitest";
 import type { TrackerAnswer } from "../../shared/schemas/tracker";
 import { renderApp } from "./renderApp";
 import { fakeServer, sessionFor } from "./testServer";
+import { formatDay } from "../../src/lib/formatting";
 
 vi.setConfig({ testTimeout: 20_000 });
 
@@ -29,7 +30,7 @@ describe("quarter tracker page", () => {
     const b1 = screen.getAllByRole("row").find((row) => row.textContent?.includes("B1"))!;
     expect(b1.textContent).toContain("Arrived (1 class)");
     expect(b1.textContent).toContain("Missing");
-    expect(b1.textContent).toContain("20 Apr 2026");
+    expect(b1.textContent).toContain(formatDay("2026-04-20"));
     expect(screen.getByText(/2 refused rows name no known instructor or class/)).toBeTruthy();
   });
 });
