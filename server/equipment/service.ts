@@ -7,7 +7,7 @@ import { DEFAULT_POLICY, type EquipmentPolicy } from "../../shared/scoring/polic
 import type { Db } from "../db/client";
 import { attempts, classes, equipmentEvents, manikins, sites } from "../db/schema";
 import type { ResolvedFilters } from "../insight/filters";
-import { talliesByPair } from "../metrics/summaries";
+import { networkScope, talliesByPair } from "../metrics/summaries";
 
 const DAY_MS = 86_400_000;
 
@@ -76,7 +76,7 @@ export function equipmentReport(db: Db, policy: EquipmentPolicy, scope: Equipmen
 
   // attempts and compressions per manikin and quarter, from the attempt summaries
   const fleetIds = new Set(ids);
-  const usage = [...talliesByPair(db, { from: trend.from, to: trend.to, siteId: null, profile: null, feedback: null, instructorId: null, manikinId: null }, "manikinId", "quarter")]
+  const usage = [...talliesByPair(db, networkScope(trend.from, trend.to), "manikinId", "quarter")]
     .map(([key, tally]) => {
       const [manikinId, quarter] = key.split("|");
       return { manikinId: Number(manikinId), quarter, n: tally.n, compressions: tally.compressions };

@@ -4,6 +4,7 @@
 // instructors leave only as counts.
 import { and, count, countDistinct, gte, inArray, lt, sum } from "drizzle-orm";
 import { courseTypes, feedbackModes, type CourseType, type FeedbackMode } from "../../shared/domain";
+import { nextQuarter, quarterDates } from "../../shared/period";
 import { patientTypes, type PatientType } from "../../shared/scoring/policy";
 import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
 import type { KappaTable } from "../../shared/stats";
@@ -54,12 +55,8 @@ export function reportScope(quarters: readonly string[]): SummaryScope {
 
 /** First day of the quarters and first day after them, for tables that carry dates rather than quarters. */
 function dateSpan(quarters: readonly string[]): [string, string] {
-  const sorted = [...quarters].sort();
-  const [firstYear, firstQ] = sorted[0].split("-Q").map(Number);
-  const [lastYear, lastQ] = sorted[sorted.length - 1].split("-Q").map(Number);
-  const monthText = (quarter: number) => String((quarter - 1) * 3 + 1).padStart(2, "0");
-  const after = lastQ === 4 ? `${lastYear + 1}-01-01` : `${lastYear}-${monthText(lastQ + 1)}-01`;
-  return [`${firstYear}-${monthText(firstQ)}-01`, after];
+  const { from, to } = reportScope(quarters);
+  return [quarterDates(from).first, quarterDates(nextQuarter(to)).first];
 }
 
 export function reportNumbers(db: Db, quarters: readonly string[]): ReportNumbers {

@@ -12,7 +12,7 @@ import { parseQuarter, previousQuarter } from "../../shared/period";
 import type { Db } from "../db/client";
 import { learnerOutcomes } from "../metrics/learnerOutcomes";
 import { ceilingFigures, medianAtCeiling } from "../metrics/ceiling";
-import { addTally, emptyTally, judgedOf, medianOfCounts, talliesBy, totalTally, valueCounts, type SummaryScope } from "../metrics/summaries";
+import { addTally, emptyTally, judgedOf, medianOfCounts, networkScope, talliesBy, totalTally, valueCounts, type SummaryScope } from "../metrics/summaries";
 import { badRequest } from "../errors";
 
 export interface QuarterSummary {
@@ -92,15 +92,7 @@ export function quarterSummary(db: Db, quarter: string, filter: SummaryFilter = 
     .get(...params) as { classes: number; learners: number; passed: number; instructors: number; sites: number };
 
   // attempt figures from the attempt summaries, as the pages and the funder report read them
-  const scope: SummaryScope = {
-    from: quarter,
-    to: quarter,
-    siteId: filter.siteId ?? null,
-    profile: null,
-    feedback: null,
-    instructorId: filter.instructorId ?? null,
-    manikinId: null,
-  };
+  const scope: SummaryScope = { ...networkScope(quarter, quarter), siteId: filter.siteId ?? null, instructorId: filter.instructorId ?? null };
   const byFeedback = talliesBy<FeedbackMode>(db, scope, "feedback");
   const total = [...byFeedback.values()].reduce(addTally, emptyTally());
   const live = byFeedback.get("live") ?? emptyTally();
