@@ -1,6 +1,6 @@
 // The one vocabulary of figures and dimensions: every page, chart, table, CSV export, the PDF report and the
 // CLI take their words from here, so the same thing is never called two names. Add a word here, not in a page.
-import type { ActionStatus, CourseType, FeedbackMode } from "./domain";
+import type { ActionStatus, CourseType, EquipmentEventType, FeedbackMode } from "./domain";
 import type { PatientType } from "./scoring/policy";
 import type { AttemptError } from "./scoring/scoreAttempt";
 import type { DriftFlag } from "./schemas/equipment";
@@ -111,6 +111,17 @@ export const driftFlagNames: Record<DriftFlag, string> = {
   "too few classes": "Too few shared classes to judge",
 };
 export const driftOffsetName = "Depth offset against peers";
+
+/** The lines of a manikin's equipment log. */
+export const equipmentEventNames: Record<EquipmentEventType, string> = {
+  commissioned: "Put into use",
+  lung_replaced: "Lung replaced",
+  mouthpiece_cleaned: "Mouthpiece cleaned",
+  battery_replaced: "Battery replaced",
+  serviced: "Serviced",
+  fault: "Fault reported",
+  retired: "Retired",
+};
 
 /** An instructor's pass/fail against the measurement. */
 export const calibrationNames = {

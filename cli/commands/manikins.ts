@@ -4,7 +4,8 @@ import type { Command } from "commander";
 import { eq } from "drizzle-orm";
 import { z } from "zod";
 import { sites } from "../../server/db/schema";
-import { DRIFT_DEFAULTS, manikinDriftReport } from "../../server/metrics/manikinDrift";
+import { DRIFT_DEFAULTS, driftRule, manikinDriftReport } from "../../server/metrics/manikinDrift";
+import { currentPolicy } from "../../server/policy/service";
 import { context } from "../context";
 import { UsageError } from "../errors";
 import { checkQuarterRange } from "../quarterRange";
@@ -13,8 +14,8 @@ const optionsSchema = z.object({
   from: z.string(),
   to: z.string(),
   site: z.string().optional(),
-  minClasses: z.string(),
-  minOffset: z.string(),
+  minClasses: z.string().optional(),
+  minOffset: z.string().optional(),
   json: z.boolean().optional(),
 });
 
@@ -33,15 +34,16 @@ export function registerManikins(program: Command) {
     .requiredOption("--from <quarter>", "first quarter, e.g. 2025-Q1")
     .requiredOption("--to <quarter>", "last quarter, e.g. 2026-Q4")
     .option("--site <code>", "one site's manikins (default: the whole fleet)")
-    .option("--min-classes <k>", "paired classes needed before a manikin can be flagged", String(DRIFT_DEFAULTS.minClasses))
-    .option("--min-offset <mm>", "smallest offset (mm) worth a check", String(DRIFT_DEFAULTS.minOffsetMm))
+    .option("--min-classes <k>", "paired classes needed before a manikin can be flagged (default: the network's setting)")
+    .option("--min-offset <mm>", "smallest offset (mm) worth a check (default: the network's setting)")
     .option("--json", "print JSON")
     .action((raw: unknown, command: Command) => {
       const options = optionsSchema.parse(raw);
       checkQuarterRange(options.from, options.to);
-      const minClasses = positiveNumber(options.minClasses, "--min-classes", true);
-      const minOffsetMm = positiveNumber(options.minOffset, "--min-offset", false);
       const { db } = context(command);
+      const setting = driftRule(currentPolicy(db).policy.equipment);
+      const minClasses = options.minClasses === undefined ? setting.minClasses : positiveNumber(options.minClasses, "--min-classes", true);
+      const minOffsetMm = options.minOffset === undefined ? setting.minOffsetMm : positiveNumber(options.minOffset, "--min-offset", false);
       let siteId: number | null = null;
       if (options.site !== undefined) {
         const site = db.select({ id: sites.id }).from(sites).where(eq(sites.code, options.site)).get();

@@ -11,7 +11,7 @@ import { alertLog, users } from "../db/schema";
 import { MailNotConfiguredError, type Mailer } from "../mail/mailer";
 import { logImportAlerts } from "../logging/events";
 import type { Logger } from "../logging/logger";
-import { currentSignals, type Signals } from "./signals";
+import { currentSignals, signalKeys, type Signals } from "./signals";
 
 export type AlertOutcome =
   | { status: "nothing-new" }
@@ -20,11 +20,14 @@ export type AlertOutcome =
   | { status: "failed"; error: string };
 
 function unsent(db: Db, signals: Signals): Signals {
-  const keys = [...signals.funnel, ...signals.service].map((signal) => signal.key);
+  const keys = signalKeys(signals);
   if (keys.length === 0) return signals;
   const sent = new Set(db.select({ key: alertLog.key }).from(alertLog).where(inArray(alertLog.key, keys)).all().map((row) => row.key));
-  return { funnel: signals.funnel.filter((s) => !sent.has(s.key)), service: signals.service.filter((s) => !sent.has(s.key)) };
+  const fresh = <T extends { key: string }>(list: T[]) => list.filter((s) => !sent.has(s.key));
+  return { funnel: fresh(signals.funnel), service: fresh(signals.service), drift: fresh(signals.drift) };
 }
+
+const mm = (value: number) => `${value > 0 ? "+" : value < 0 ? "−" : ""}${Math.abs(value).toFixed(1)} mm`;
 
 export function digestText(signals: Signals): string {
   const lines = ["Quarterbeat checked the figures after the latest import and found something new to look at.", ""];
@@ -38,6 +41,14 @@ export function digestText(signals: Signals): string {
     for (const s of signals.service) lines.push(`  - ${s.assetId}${s.siteCode ? ` (${s.siteCode})` : ""}: ${s.reason}`);
     lines.push("");
   }
+  if (signals.drift.length > 0) {
+    const { from, to } = signals.drift[0];
+    lines.push(`Manikins whose depth readings differ from their peers' in the same classes, ${quarterLabel(from)} to ${quarterLabel(to)}:`);
+    for (const s of signals.drift) {
+      lines.push(`  - ${s.assetId}${s.siteCode ? ` (${s.siteCode})` : ""}: reads ${mm(s.offsetMm)} against its peers over ${s.classes} shared classes (95 % interval ${mm(s.ci95[0])} to ${mm(s.ci95[1])}); check the depth sensor before drawing conclusions about learners or instructors.`);
+    }
+    lines.push("");
+  }
   lines.push(
     "Open Quarterbeat's Instructors and Equipment pages for the details. A point outside the limits is a reason to look, not a judgement of a person.",
     SAFETY_NOTE,
@@ -47,7 +58,7 @@ export function digestText(signals: Signals): string {
 
 export async function sendImportAlerts(db: Db, mailer: Mailer, asOf: string = new Date().toISOString().slice(0, 10)): Promise<AlertOutcome> {
   const fresh = unsent(db, currentSignals(db, asOf));
-  const keys = [...fresh.funnel, ...fresh.service].map((signal) => signal.key);
+  const keys = signalKeys(fresh);
   if (keys.length === 0) return { status: "nothing-new" };
   const recipients = db
     .select({ email: users.email })

@@ -13,7 +13,8 @@ import { sendCached } from "../insight/cache";
 import { mayShow } from "../insight/release";
 import { viewerKey, viewerOf } from "../insight/viewer";
 import { currentPolicy } from "../policy/service";
-import { DRIFT_DEFAULTS, manikinDriftReport } from "../metrics/manikinDrift";
+import { driftRule, manikinDriftReport } from "../metrics/manikinDrift";
+import { manikinRecord } from "./manikinRecord";
 import { equipmentReport } from "./service";
 
 export function equipmentRoutes(db: Db): Router {
@@ -47,7 +48,7 @@ export function equipmentRoutes(db: Db): Router {
   // An instructor sees the offsets of their site's manikins but not which of others' classes lie behind them.
   router.get("/equipment/drift", allow("readEquipment"), (req, res) => {
     const { user, viewer, filters } = equipmentContext(req);
-    const rule = DRIFT_DEFAULTS;
+    const rule = driftRule(currentPolicy(db).policy.equipment);
     const showClasses = can(user, "readEquipment", "any");
     // a manikin filter narrows the rows shown; the manikin is still compared with all of its peers
     const onlyManikin = filters.manikinId === null ? null : (db.select({ assetId: manikins.assetId }).from(manikins).where(eq(manikins.id, filters.manikinId)).get()?.assetId ?? null);
@@ -59,6 +60,24 @@ export function equipmentRoutes(db: Db): Router {
         .filter((m) => onlyManikin === null || m.manikin === onlyManikin)
         .map((m) => (showClasses ? m : { ...m, differences: m.differences.map((d) => ({ ...d, classId: null })) })),
     }));
+  });
+
+  // One manikin's record; an instructor opens only their own site's manikins. The period filters apply; a
+  // manikin filter in the query is ignored, the path names the manikin.
+  router.get("/equipment/manikins/:assetId", allow("readEquipment"), (req, res) => {
+    const { user, viewer, filters } = equipmentContext(req);
+    const assetId = String(req.params.assetId);
+    const asOf = new Date().toISOString().slice(0, 10);
+    const onlyInstructorId = rowScope(user, "readEquipment").instructorId;
+    const seesFleet = can(user, "readEquipment", "any");
+    const usageShown = (manikinId: number, quarter: string) =>
+      mayShow(db, viewer, { from: quarter, to: quarter, siteId: null, profile: null, feedback: null, instructorId: null, manikinId });
+    sendCached(db, res, `equipment-manikin|${assetId}|${asOf}|${viewerKey(viewer)}|${filtersKey(filters)}`, () =>
+      manikinRecord(db, currentPolicy(db).policy.equipment, assetId, { filters, onlyInstructorId, asOf, usageShown }, {
+        onlySiteId: seesFleet ? null : filters.siteId,
+        showClasses: seesFleet,
+      }),
+    );
   });
 
   return router;

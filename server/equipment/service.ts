@@ -39,7 +39,7 @@ function consumable(fromClassLogs: number, fromEvents: number, learners: number)
   return { fromClassLogs, fromEvents, total, per100Learners: learners === 0 ? null : (100 * total) / learners };
 }
 
-function thresholds(policy: EquipmentPolicy): EquipmentAnswer["thresholds"] {
+export function thresholds(policy: EquipmentPolicy): EquipmentAnswer["thresholds"] {
   const entry = (key: keyof EquipmentPolicy) => ({
     value: policy[key],
     projectDefault: policy[key] === DEFAULT_POLICY.equipment[key],
@@ -54,9 +54,21 @@ function thresholds(policy: EquipmentPolicy): EquipmentAnswer["thresholds"] {
 }
 
 export function equipmentReport(db: Db, policy: EquipmentPolicy, scope: EquipmentScope): EquipmentAnswer {
-  const { filters, asOf } = scope;
-  const period = filters.period;
-  const trend = trendQuarters(period);
+  const fleetRows = fleetRecords(db, scope);
+  return {
+    period: scope.filters.period,
+    asOf: scope.asOf,
+    thresholds: thresholds(policy),
+    fleet: fleetRows,
+    consumables: consumablesBySiteQuarter(db, scope.filters),
+    attention: [...fleetAttention(fleetRows, policy, scope.asOf), ...mouthpieceAttention(db, policy, scope)],
+  };
+}
+
+/** The manikins the filters select, with their use per quarter of the trend window and their service state. */
+export function fleetRecords(db: Db, scope: EquipmentScope): EquipmentAnswer["fleet"] {
+  const { filters } = scope;
+  const trend = trendQuarters(filters.period);
 
   const fleetConditions: SQL[] = [];
   if (filters.siteId !== null) fleetConditions.push(eq(manikins.siteId, filters.siteId));
@@ -117,7 +129,7 @@ export function equipmentReport(db: Db, policy: EquipmentPolicy, scope: Equipmen
     }),
   );
 
-  const fleetRows: EquipmentAnswer["fleet"] = fleet.map(({ manikin: m, siteCode }) => ({
+  return fleet.map(({ manikin: m, siteCode }) => ({
     id: m.id,
     assetId: m.assetId,
     patientType: m.patientType,
@@ -133,15 +145,6 @@ export function equipmentReport(db: Db, policy: EquipmentPolicy, scope: Equipmen
     lastServiceDate: eventsOf.get(m.id)?.lastService ?? null,
     openFaults: eventsOf.get(m.id)?.openFaults ?? 0,
   }));
-
-  return {
-    period,
-    asOf,
-    thresholds: thresholds(policy),
-    fleet: fleetRows,
-    consumables: consumablesBySiteQuarter(db, filters),
-    attention: [...fleetAttention(fleetRows, policy, asOf), ...mouthpieceAttention(db, policy, scope)],
-  };
 }
 
 function consumablesBySiteQuarter(db: Db, filters: ResolvedFilters): EquipmentAnswer["consumables"] {
@@ -207,7 +210,8 @@ function consumablesBySiteQuarter(db: Db, filters: ResolvedFilters): EquipmentAn
     }));
 }
 
-function fleetAttention(fleet: EquipmentAnswer["fleet"], policy: EquipmentPolicy, asOf: string): EquipmentAnswer["attention"] {
+/** Services due by compressions or by days, and open faults, for each manikin still in service. */
+export function fleetAttention(fleet: EquipmentAnswer["fleet"], policy: EquipmentPolicy, asOf: string): EquipmentAnswer["attention"] {
   const items: EquipmentAnswer["attention"] = [];
   for (const m of fleet) {
     if (m.retiredOn !== null && m.retiredOn <= asOf) continue;

@@ -9,17 +9,22 @@
 // every other comparison, and the rest are compared again until none meets the rule.
 import { and, between, eq, inArray } from "drizzle-orm";
 import type { DriftFlag } from "../../shared/schemas/equipment";
-import type { PatientType } from "../../shared/scoring/policy";
+import { DEFAULT_POLICY, type EquipmentPolicy, type PatientType } from "../../shared/scoring/policy";
 import { meanWithInterval } from "../../shared/stats/meanInterval";
 import type { Db } from "../db/client";
 import { attempts, classes, manikins, sites } from "../db/schema";
-
-export const DRIFT_DEFAULTS = { minClasses: 5, minOffsetMm: 3 } as const;
 
 export interface DriftOptions {
   minClasses: number;
   minOffsetMm: number;
 }
+
+/** The flag rule as the network's equipment policy sets it (Settings). */
+export function driftRule(policy: EquipmentPolicy): DriftOptions {
+  return { minClasses: policy.driftMinClasses, minOffsetMm: policy.driftMinOffsetMm };
+}
+
+export const DRIFT_DEFAULTS: DriftOptions = driftRule(DEFAULT_POLICY.equipment);
 
 export interface DriftAttempt {
   classId: string;

@@ -1,5 +1,6 @@
 // Answer of GET /api/equipment: the manikin fleet, consumables per 100 learners and what needs attention.
 import { z } from "zod";
+import { equipmentEventTypes } from "../domain";
 import { patientTypes } from "../scoring/policy";
 import { periodSchema } from "./insight";
 
@@ -104,3 +105,29 @@ export const driftAnswerSchema = z.object({
   manikins: z.array(manikinDriftSchema),
 });
 export type DriftAnswer = z.infer<typeof driftAnswerSchema>;
+
+/** One line of a manikin's equipment log. */
+export const equipmentLogEntrySchema = z.object({
+  date: z.string(),
+  event: z.enum(equipmentEventTypes),
+  quantity: count,
+  note: z.string(),
+  /** Faults only: whether it was marked resolved. */
+  resolved: z.boolean(),
+});
+
+/** Answer of GET /api/equipment/manikins/:assetId: one manikin's record, its service state, use and depth readings. */
+export const manikinRecordSchema = z.object({
+  period: periodSchema,
+  asOf: z.string(),
+  thresholds: equipmentAnswerSchema.shape.thresholds,
+  manikin: fleetRowSchema,
+  attention: z.array(attentionItemSchema),
+  /** The most recent log lines, newest first; `logTotal` counts them all. */
+  log: z.array(equipmentLogEntrySchema),
+  logTotal: count,
+  rule: driftAnswerSchema.shape.rule,
+  /** The manikin against its peers in the period; null when it shared no class with a peer of its patient type. */
+  drift: manikinDriftSchema.nullable(),
+});
+export type ManikinRecord = z.infer<typeof manikinRecordSchema>;

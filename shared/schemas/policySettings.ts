@@ -62,6 +62,8 @@ export const POLICY_FIELD_SOURCES: readonly PolicyFieldSource[] = [
   { path: "equipment.serviceEveryCompressions", kind: "project_default", sources: [], note: "Network policy, not a manufacturer's figure." },
   { path: "equipment.serviceEveryDays", kind: "project_default", sources: [], note: "Network policy, not a manufacturer's figure." },
   { path: "equipment.minMouthpieceCleansPerLearner", kind: "project_default", sources: [], note: "Network policy." },
+  { path: "equipment.driftMinClasses", kind: "project_default", sources: [], note: "Fewer shared classes give too wide an interval to judge a device." },
+  { path: "equipment.driftMinOffsetMm", kind: "project_default", sources: [], note: "A smaller difference stays well inside a depth band of 10 mm." },
 ];
 
 export const policySettingsAnswerSchema = z.object({

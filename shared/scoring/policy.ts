@@ -57,6 +57,9 @@ export const equipmentPolicySchema = z.object({
   serviceEveryCompressions: wholePositive("Compressions between services"),
   serviceEveryDays: wholePositive("Days between services"),
   minMouthpieceCleansPerLearner: nonNegative("Mouthpiece cleans per learner"),
+  // policies saved before the drift check existed read as the defaults
+  driftMinClasses: wholePositive("Shared classes before a manikin's depth readings are judged").default(5),
+  driftMinOffsetMm: positive("Depth difference from peers worth a check (mm)").default(3),
 });
 export type EquipmentPolicy = z.infer<typeof equipmentPolicySchema>;
 
@@ -115,7 +118,9 @@ export const DEFAULT_POLICY: NetworkPolicy = {
   // minimum number of contributors beside a minimum count).
   suppressionMinInstructors: 3,
   // Project defaults (network policy, not a guideline).
-  equipment: { serviceEveryCompressions: 250_000, serviceEveryDays: 365, minMouthpieceCleansPerLearner: 1 },
+  // Manikin drift: judged after 5 shared classes and from 3 mm against peers (project defaults; 3 mm is well
+  // inside a guideline depth band of 10 mm, so a sensor off by that much moves learners across its edges).
+  equipment: { serviceEveryCompressions: 250_000, serviceEveryDays: 365, minMouthpieceCleansPerLearner: 1, driftMinClasses: 5, driftMinOffsetMm: 3 },
 };
 
 export function bandFor(policy: NetworkPolicy, patientType: PatientType): Band {

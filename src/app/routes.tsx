@@ -55,6 +55,7 @@ export const appRoutes: readonly AppRoute[] = [
   { path: "actions", title: "Improvement actions", group: "quality", permission: "readActions", page: lazy(() => import("../pages/ActionsPage")) },
   { path: "actions/:id", title: "Improvement action", group: "quality", permission: "readActions", nav: false, page: lazy(() => import("../pages/ActionDetailPage")) },
   { path: "equipment", title: "Equipment", group: "quality", permission: "readEquipment", page: lazy(() => import("../pages/EquipmentPage")) },
+  { path: "equipment/manikins/:assetId", title: "Manikin", group: "quality", permission: "readEquipment", nav: false, page: lazy(() => import("../pages/ManikinPage")) },
   { path: "report", title: "Funder report", group: "quality", permission: "readReport", page: lazy(() => import("../pages/ReportPage")), landing: true },
   { path: "imports", title: "Imports", group: "data", permission: "importData", page: lazy(() => import("../pages/ImportsPage")) },
   { path: "tracker", title: "Quarter tracker", group: "data", permission: "readTracker", page: lazy(() => import("../pages/QuarterTrackerPage")) },

@@ -20,6 +20,8 @@ export interface Column<Row> {
   align?: "left" | "right";
   /** Let long text wrap (default: cells stay on one line and the table scrolls sideways). */
   wrap?: boolean;
+  /** Let a long header wrap onto two lines, so a column of short numbers stays narrow. */
+  headerWrap?: boolean;
   /** Words for the phone sort menu, e.g. { asc: "oldest first", desc: "newest first" }. */
   sortLabels?: { asc: string; desc: string };
   /** On phones rows show as cards; the column marked primary titles each card (default: the first column). */
@@ -194,7 +196,7 @@ export function DataTable<Row>({
                     key={column.key}
                     scope="col"
                     aria-sort={active ? (sort.direction === "asc" ? "ascending" : "descending") : sortable ? "none" : undefined}
-                    className={clsx("px-3 py-2 font-semibold whitespace-nowrap text-muted first:pl-4 last:pr-4", column.align === "right" && "text-right")}
+                    className={clsx("px-3 py-2 font-semibold text-muted first:pl-4 last:pr-4", column.headerWrap ? "min-w-20" : "whitespace-nowrap", column.align === "right" && "text-right")}
                   >
                     {sortable ? (
                       <button

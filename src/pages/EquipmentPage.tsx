@@ -12,6 +12,7 @@ import { AttentionList } from "../features/equipment/AttentionList";
 import { ConsumablesCharts } from "../features/equipment/ConsumablesChart";
 import { DriftSection } from "../features/equipment/DriftSection";
 import { FleetTable } from "../features/equipment/FleetTable";
+import { manikinPath } from "../features/equipment/links";
 import { equipmentQueries } from "../features/equipment/queries";
 import { UsageChart } from "../features/equipment/UsageChart";
 import { linkParams, useInsightFilters, type InsightFilterState, type OptionalFilter } from "../features/insight/useInsightFilters";
@@ -57,14 +58,20 @@ function Equipment({ state, ownSite }: { state: InsightFilterState | null; ownSi
       ) : report.isError ? (
         <ErrorState error={report.error} onRetry={() => report.refetch()} />
       ) : (
-        <EquipmentView answer={report.data} ownSite={ownSite} />
+        <EquipmentView answer={report.data} ownSite={ownSite} manikinHref={(assetId) => manikinPath(assetId, state ? linkParams(state.values, { manikin: null }) : "")} />
       )}
       {state && (
         <section aria-labelledby="drift-heading" className="mt-8 flex flex-col gap-3">
           <h2 id="drift-heading" className="text-title">
             Depth readings against peers
           </h2>
-          <DriftSection api={state.api} attemptsHref={(assetId) => `/attempts?${linkParams(state.values, { manikin: assetId })}`} />
+          <DriftSection
+            api={state.api}
+            links={{
+              attempts: (assetId) => `/attempts?${linkParams(state.values, { manikin: assetId })}`,
+              manikin: (assetId) => manikinPath(assetId, linkParams(state.values, { manikin: null })),
+            }}
+          />
         </section>
       )}
     </>
@@ -98,7 +105,7 @@ function Thresholds({ answer, ownSite }: { answer: EquipmentAnswer; ownSite: boo
   );
 }
 
-function EquipmentView({ answer, ownSite }: { answer: EquipmentAnswer; ownSite: boolean }) {
+function EquipmentView({ answer, ownSite, manikinHref }: { answer: EquipmentAnswer; ownSite: boolean; manikinHref: (assetId: string) => string }) {
   const retired = answer.fleet.filter((m) => m.retiredOn !== null && m.retiredOn <= answer.asOf).length;
   return (
     <div className="flex flex-col gap-8">
@@ -110,7 +117,7 @@ function EquipmentView({ answer, ownSite }: { answer: EquipmentAnswer; ownSite: 
         <p className="text-small text-muted">
           Services and faults are as of {formatDay(answer.asOf)}; mouthpiece cleans cover the classes of {rangeLabel(answer.period)}.
         </p>
-        <AttentionList items={answer.attention} linkClasses />
+        <AttentionList items={answer.attention} linkClasses manikinHref={manikinHref} />
       </section>
 
       <section aria-labelledby="fleet-heading" className="flex flex-col gap-3">
@@ -124,7 +131,7 @@ function EquipmentView({ answer, ownSite }: { answer: EquipmentAnswer; ownSite: 
             <p className="text-small text-muted">
               {answer.fleet.length} manikins{retired > 0 ? `, ${retired} of them retired` : ""}. Attempts and compressions are for {rangeLabel(answer.period)}; compressions since service count every attempt since the last service (or since the manikin came into use).
             </p>
-            <FleetTable answer={answer} />
+            <FleetTable answer={answer} manikinHref={manikinHref} />
             <UsageChart fleet={answer.fleet} />
           </>
         )}

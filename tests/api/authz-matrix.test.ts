@@ -42,6 +42,7 @@ const matrix: Row[] = [
   { method: "get", path: "/api/attempts.csv", expect: network },
   { method: "get", path: "/api/equipment", expect: network },
   { method: "get", path: "/api/equipment/drift", expect: network },
+  { method: "get", path: "/api/equipment/manikins/MK-N1", expect: network },
   { method: "get", path: "/api/learners/retention", expect: drillDown },
   { method: "get", path: "/api/learners/calibration", expect: network },
   { method: "get", path: "/api/settings/policy", expect: directory },
@@ -75,6 +76,8 @@ const rowScoped: { path: string; as: "instructor" | "otherInstructor"; status: n
   { path: "/api/insight/overview?instructor=B1", as: "instructor", status: 403 },
   { path: "/api/equipment?site=SOUTH", as: "instructor", status: 403 },
   { path: "/api/equipment/drift?site=SOUTH", as: "instructor", status: 403 },
+  { path: "/api/equipment/manikins/MK-S1", as: "instructor", status: 404 },
+  { path: "/api/equipment/manikins/MK-N1", as: "otherInstructor", status: 404 },
   { path: "/api/learners/calibration?instructor=B1", as: "instructor", status: 403 },
 ];
 

@@ -24,15 +24,18 @@ const answer: DriftAnswer = {
 function renderView(value: DriftAnswer) {
   render(
     <MemoryRouter>
-      <DriftView answer={value} attemptsHref={(assetId) => `/attempts?manikin=${assetId}`} />
+      <DriftView answer={value} links={{ attempts: (assetId) => `/attempts?manikin=${assetId}`, manikin: (assetId) => `/equipment/manikins/${assetId}` }} />
     </MemoryRouter>,
   );
 }
 
 describe("DriftView", { timeout: 30_000 }, () => {
-  it("names the flagged manikin with its offset and links to its attempts", () => {
+  it("names the flagged manikin with its offset and links to its record and its attempts", () => {
     renderView(answer);
-    expect(screen.getByText("NTH-A02 reads +4.0 mm against its peers")).toBeTruthy();
+    const verdict = screen.getByText(/reads \+4\.0 mm against its peers/);
+    expect(verdict.textContent).toBe("NTH-A02 reads +4.0 mm against its peers");
+    expect(within(verdict).getByRole("link", { name: "NTH-A02" }).getAttribute("href")).toBe("/equipment/manikins/NTH-A02");
+    expect(screen.getByRole("link", { name: "Open NTH-A02’s record" }).getAttribute("href")).toBe("/equipment/manikins/NTH-A02");
     expect(screen.getByRole("link", { name: "Attempts on NTH-A02" }).getAttribute("href")).toBe("/attempts?manikin=NTH-A02");
     expect(screen.getByText(/at least 5 classes, its mean difference is at least 3 mm/)).toBeTruthy();
   });

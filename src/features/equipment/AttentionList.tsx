@@ -13,7 +13,7 @@ export const attentionKindLabels: Record<Item["kind"], string> = {
   mouthpiece_cleaning: "Too few mouthpiece cleans",
 };
 
-export function AttentionList({ items, linkClasses }: { items: readonly Item[]; linkClasses: boolean }) {
+export function AttentionList({ items, linkClasses, manikinHref }: { items: readonly Item[]; linkClasses: boolean; manikinHref?: (assetId: string) => string }) {
   const columns: Column<Item & { key: string }>[] = [
     { key: "kind", header: "What", value: (i) => attentionKindLabels[i.kind], primary: true },
     {
@@ -22,7 +22,13 @@ export function AttentionList({ items, linkClasses }: { items: readonly Item[]; 
       value: (i) => i.manikin?.assetId ?? i.classId,
       render: (i) =>
         i.manikin ? (
-          i.manikin.assetId
+          manikinHref ? (
+            <Link to={manikinHref(i.manikin.assetId)} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+              {i.manikin.assetId}
+            </Link>
+          ) : (
+            i.manikin.assetId
+          )
         ) : i.classId && linkClasses ? (
           <Link to={`/classes/${encodeURIComponent(i.classId)}`} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
             {i.classId}

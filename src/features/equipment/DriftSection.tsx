@@ -15,17 +15,17 @@ import { QueryStatus } from "../insight/QueryStatus";
 import type { ApiFilters } from "../insight/queries";
 import { equipmentQueries } from "./queries";
 
-function formatMm(value: number | null): string {
+export function formatMm(value: number | null): string {
   if (value === null) return "–";
   return `${value > 0 ? "+" : value < 0 ? "−" : ""}${formatFixed(Math.abs(value), 1)} mm`;
 }
 
-function intervalMm(ci: [number, number] | null): string {
+export function intervalMm(ci: [number, number] | null): string {
   return ci ? `${formatMm(ci[0])} to ${formatMm(ci[1])}` : "–";
 }
 
-const columns: Column<ManikinDriftRow>[] = [
-  { key: "manikin", header: "Asset id", value: (m) => m.manikin, primary: true },
+const columns = (manikinHref: ((assetId: string) => string) | null): Column<ManikinDriftRow>[] => [
+  { key: "manikin", header: "Asset id", value: (m) => m.manikin, primary: true, render: (m) => <ManikinLink assetId={m.manikin} href={manikinHref?.(m.manikin) ?? null} /> },
   { key: "profile", header: "Patient type", value: (m) => patientTypeNames[m.profile] },
   { key: "site", header: "Site", value: (m) => m.site },
   { key: "classes", header: "Shared classes", value: (m) => m.classes, align: "right" },
@@ -63,8 +63,9 @@ const differenceColumns: Column<Difference>[] = [
   { key: "peers", header: "Attempts on peers", value: (d) => d.peer_attempts, align: "right" },
 ];
 
-function Evidence({ manikin, attemptsHref }: { manikin: ManikinDriftRow; attemptsHref: (assetId: string) => string }) {
-  const description = `${manikin.manikin}'s mean depth minus its peers' in each of ${manikin.classes} shared classes; dots are classes, the dashed line is the offset ${formatMm(manikin.offset_mm)} (95 % interval ${intervalMm(manikin.ci95)}), flagged in comparison round ${manikin.flagged_in_round ?? "–"}.`;
+/** The paired differences behind one manikin's offset, class by class, with a link to its attempts. */
+export function DriftEvidence({ manikin, links }: { manikin: ManikinDriftRow; links: DriftLinks }) {
+  const description = `${manikin.manikin}'s mean depth minus its peers' in each of ${manikin.classes} shared classes; dots are classes, the dashed line is the offset ${formatMm(manikin.offset_mm)} (95 % interval ${intervalMm(manikin.ci95)})${manikin.flagged_in_round === null ? "" : `, flagged in comparison round ${manikin.flagged_in_round}`}.`;
   return (
     <div className="flex flex-col gap-2">
       <Chart
@@ -76,20 +77,47 @@ function Evidence({ manikin, attemptsHref }: { manikin: ManikinDriftRow; attempt
         plot={differencesPlot(manikin.offset_mm)}
         exportFileName={`depth-against-peers-${manikin.manikin}`}
       />
-      <Link to={attemptsHref(manikin.manikin)} className="text-small font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
-        Attempts on {manikin.manikin}
-      </Link>
+      <p className="flex flex-wrap gap-x-6 gap-y-1">
+        {links.manikin && (
+          <Link to={links.manikin(manikin.manikin)} className="text-small font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+            Open {manikin.manikin}’s record
+          </Link>
+        )}
+        <Link to={links.attempts(manikin.manikin)} className="text-small font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+          Attempts on {manikin.manikin}
+        </Link>
+      </p>
     </div>
   );
 }
 
-export function DriftView({ answer, attemptsHref }: { answer: DriftAnswer; attemptsHref: (assetId: string) => string }) {
+export interface DriftLinks {
+  attempts: (assetId: string) => string;
+  /** A manikin's own page; left out on that page itself. */
+  manikin?: (assetId: string) => string;
+}
+
+function ManikinLink({ assetId, href }: { assetId: string; href: string | null }) {
+  if (!href) return <>{assetId}</>;
+  return (
+    <Link to={href} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+      {assetId}
+    </Link>
+  );
+}
+
+/** A threshold in millimetres as set: whole numbers without decimals. */
+export function formatThresholdMm(value: number): string {
+  return `${formatFixed(value, Number.isInteger(value) ? 0 : 1)} mm`;
+}
+
+export function DriftView({ answer, links }: { answer: DriftAnswer; links: DriftLinks }) {
   const flagged = answer.manikins.filter((m) => m.flag === "check");
   return (
     <div className="flex flex-col gap-4">
       <p className="text-small text-muted">
         For each class where a manikin and at least one other manikin of its patient type were used, the difference of their mean depths (mm). A manikin is flagged when it
-        shared at least {answer.rule.minClasses} classes, its mean difference is at least {formatFixed(answer.rule.minOffsetMm, 0)} mm either way and the 95 % interval (mean ±
+        shared at least {answer.rule.minClasses} classes, its mean difference is at least {formatThresholdMm(answer.rule.minOffsetMm)} either way and the 95 % interval (mean ±
         1.96 standard errors, Bland and Altman 1986) excludes zero. A drifting manikin pulls its peers the other way, so manikins are flagged one at a time and the rest compared
         again without it. {rangeLabel(answer.period)}.
       </p>
@@ -98,17 +126,23 @@ export function DriftView({ answer, attemptsHref }: { answer: DriftAnswer; attem
       ) : (
         <p>
           <strong>
-            {flagged.length === 1 ? `${flagged[0].manikin} reads ${formatMm(flagged[0].offset_mm)} against its peers` : `${flagged.length} manikins differ from their peers`}
+            {flagged.length === 1 ? (
+              <>
+                <ManikinLink assetId={flagged[0].manikin} href={links.manikin?.(flagged[0].manikin) ?? null} /> reads {formatMm(flagged[0].offset_mm)} against its peers
+              </>
+            ) : (
+              `${flagged.length} manikins differ from their peers`
+            )}
           </strong>
           : check the depth sensor before blaming learners, instructors or the site.
         </p>
       )}
       {flagged.map((m) => (
-        <Evidence key={m.manikin} manikin={m} attemptsHref={attemptsHref} />
+        <DriftEvidence key={m.manikin} manikin={m} links={links} />
       ))}
       <DataTable
         caption="Manikins against their peers"
-        columns={columns}
+        columns={columns(links.manikin ?? null)}
         rows={answer.manikins}
         rowKey={(m) => `${m.manikin}|${m.profile}`}
         exportFileName="manikin-depth-against-peers"
@@ -119,11 +153,11 @@ export function DriftView({ answer, attemptsHref }: { answer: DriftAnswer; attem
   );
 }
 
-export function DriftSection({ api, attemptsHref }: { api: ApiFilters; attemptsHref: (assetId: string) => string }) {
+export function DriftSection({ api, links }: { api: ApiFilters; links: DriftLinks }) {
   const query = useQuery(equipmentQueries.drift(api));
   return (
     <QueryStatus query={query} loadingLabel="Comparing manikins with their peers…" errorTitle="The manikin comparison could not be loaded">
-      {(answer) => <DriftView answer={answer} attemptsHref={attemptsHref} />}
+      {(answer) => <DriftView answer={answer} links={links} />}
     </QueryStatus>
   );
 }

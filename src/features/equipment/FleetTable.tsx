@@ -1,5 +1,6 @@
 // The manikin fleet: where each manikin is, how much it was used in the period and since its last service,
 // and whether a fault is open.
+import { Link } from "react-router";
 import type { EquipmentAnswer } from "../../../shared/schemas/equipment";
 import { DataTable, type Column } from "../../components/DataTable";
 import { formatCount, formatDay } from "../../lib/formatting";
@@ -19,7 +20,7 @@ function sumOrHidden(values: readonly (number | null)[]): number | null {
   return values.some((value) => value === null) ? null : values.reduce<number>((sum, value) => sum + value!, 0);
 }
 
-export function FleetTable({ answer }: { answer: EquipmentAnswer }) {
+export function FleetTable({ answer, manikinHref }: { answer: EquipmentAnswer; manikinHref?: (assetId: string) => string }) {
   const inPeriod = new Set(answer.period.quarters);
   const dueBy = new Map<number, string[]>();
   for (const item of answer.attention) {
@@ -46,19 +47,27 @@ export function FleetTable({ answer }: { answer: EquipmentAnswer }) {
       number(value)
     );
   const columns: Column<ShownFleetRow>[] = [
-    { key: "assetId", header: "Asset id", value: (m) => m.assetId, primary: true },
-    { key: "patientType", header: "Patient type", value: (m) => (m.patientType ? patientTypeNames[m.patientType] : null) },
+    {
+      key: "assetId",
+      header: "Asset id",
+      value: (m) => m.assetId,
+      primary: true,
+      render: (m) =>
+        manikinHref ? (
+          <Link to={manikinHref(m.assetId)} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+            {m.assetId}
+          </Link>
+        ) : (
+          m.assetId
+        ),
+    },
+    { key: "patientType", header: "Patient type", headerWrap: true, value: (m) => (m.patientType ? patientTypeNames[m.patientType] : null) },
     { key: "site", header: "Site", value: (m) => m.site?.code ?? null },
-    { key: "inServiceSince", header: "In service since", value: (m) => m.inServiceSince, render: (m) => formatDay(m.inServiceSince) },
-    { key: "retiredOn", header: "Retired", value: (m) => m.retiredOn, render: (m) => (m.retiredOn ? formatDay(m.retiredOn) : <span className="text-muted">In service</span>) },
-    { key: "periodAttempts", header: `Attempts, ${periodLabel}`, value: (m) => m.periodAttempts, render: (m) => hiddenOr(m.periodAttempts), align: "right" },
-    { key: "periodCompressions", header: `Compressions, ${periodLabel}`, value: (m) => m.periodCompressions, render: (m) => hiddenOr(m.periodCompressions), align: "right" },
-    { key: "sinceService", header: "Compressions since service", value: (m) => m.compressionsSinceService, render: (m) => number(m.compressionsSinceService), align: "right" },
-    { key: "lastService", header: "Last service", value: (m) => m.lastServiceDate, render: (m) => (m.lastServiceDate ? formatDay(m.lastServiceDate) : <span className="text-muted">None recorded</span>) },
-    { key: "openFaults", header: "Open faults", value: (m) => m.openFaults, align: "right" },
     {
       key: "attention",
       header: "Needs attention",
+      wrap: true,
+      headerWrap: true,
       value: (m) => m.due.join("; "),
       render: (m) =>
         m.due.length === 0 ? (
@@ -71,6 +80,20 @@ export function FleetTable({ answer }: { answer: EquipmentAnswer }) {
             {m.due.join(", ")}
           </span>
         ),
+    },
+    { key: "periodAttempts", header: `Attempts, ${periodLabel}`, headerWrap: true, value: (m) => m.periodAttempts, render: (m) => hiddenOr(m.periodAttempts), align: "right" },
+    { key: "periodCompressions", header: `Compressions, ${periodLabel}`, headerWrap: true, value: (m) => m.periodCompressions, render: (m) => hiddenOr(m.periodCompressions), align: "right" },
+    { key: "sinceService", header: "Compressions since service", headerWrap: true, value: (m) => m.compressionsSinceService, render: (m) => number(m.compressionsSinceService), align: "right" },
+    { key: "lastService", header: "Last service", headerWrap: true, value: (m) => m.lastServiceDate, render: (m) => (m.lastServiceDate ? formatDay(m.lastServiceDate) : <span className="text-muted">None recorded</span>) },
+    { key: "openFaults", header: "Open faults", headerWrap: true, value: (m) => m.openFaults, align: "right" },
+    // last: the least asked-for column, where a narrow screen cuts the table
+    {
+      key: "status",
+      header: "In use since",
+      headerWrap: true,
+      wrap: true,
+      value: (m) => (m.retiredOn ? `Retired ${m.retiredOn}` : (m.inServiceSince ?? "")),
+      render: (m) => (m.retiredOn ? <span className="text-muted">Retired {formatDay(m.retiredOn)}</span> : m.inServiceSince ? formatDay(m.inServiceSince) : <span className="text-muted">Not recorded</span>),
     },
   ];
   return (

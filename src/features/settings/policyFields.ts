@@ -44,6 +44,8 @@ export const fieldGroups = {
     { path: "equipment.serviceEveryCompressions", label: "Service after this many compressions", kind: "count", whole: true },
     { path: "equipment.serviceEveryDays", label: "Or after this many days", kind: "count", whole: true },
     { path: "equipment.minMouthpieceCleansPerLearner", label: "Mouthpiece cleans per learner, at least", kind: "perLearner" },
+    { path: "equipment.driftMinClasses", label: "Judge a manikin's depth readings after this many shared classes", kind: "count", whole: true },
+    { path: "equipment.driftMinOffsetMm", label: "Check a manikin that reads deeper or shallower than its peers by at least", kind: "length" },
   ] as PolicyField[],
 };
 

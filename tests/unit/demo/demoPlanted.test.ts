@@ -5,6 +5,8 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Db } from "../../../server/db/client";
 import { DEMO_SCENARIO } from "../../../server/demo/scenario";
+import { digestText } from "../../../server/alerts/importAlerts";
+import { currentSignals } from "../../../server/alerts/signals";
 import { calibrationByInstructor } from "../../../server/metrics/calibration";
 import { manikinDriftReport } from "../../../server/metrics/manikinDrift";
 import { retention } from "../../../server/metrics/retention";
@@ -49,6 +51,17 @@ describe("demo story: the drifting manikin", () => {
     expect(before.length).toBeGreaterThan(5);
     expect(Math.abs(meanOf(before))).toBeLessThan(1.5);
     expect(meanOf(after)).toBeGreaterThan(3);
+  });
+});
+
+describe("demo story: the drifting manikin in the import alerts", () => {
+  it("is a signal over the newest four quarters, named with its offset in the digest", () => {
+    const signals = currentSignals(db, "2026-12-01");
+    expect(signals.drift.map((s) => s.key)).toEqual([`drift:${DEMO_SCENARIO.driftingSensor.manikin}:deeper`]);
+    expect(signals.drift[0]).toMatchObject({ from: "2026-Q1", to: "2026-Q4", siteCode: "LTQ" });
+    const text = digestText(signals);
+    expect(text).toMatch(/Manikins whose depth readings differ from their peers' in the same classes, 2026 Q1 to 2026 Q4:/);
+    expect(text).toMatch(new RegExp(`${DEMO_SCENARIO.driftingSensor.manikin} \\(LTQ\\): reads \\+[34]\\.\\d mm against its peers over \\d+ shared classes`));
   });
 });
 
