@@ -1,9 +1,12 @@
 // The quality lead: from the error Pareto on Error trends to one error's breakdown, on to the attempts of a
-// group, to one attempt with a compression stream: its pass-rule checklist and its compression charts. What the screens show is
+// group, to one attempt with a compression stream: its pass-rule checklist and its compression charts; and from
+// the Equipment page to the manikin flagged for a depth sensor check, with its evidence. What the screens show is
 // checked against the API's answers.
 import type { Locator, Page } from "playwright-core";
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
+import type { DriftAnswer, ManikinRecord } from "../../shared/schemas/equipment";
 import type { AttemptDetailAnswer, ErrorsAnswer } from "../../shared/schemas/insight";
+import { DEMO_SCENARIO } from "../../server/demo/scenario";
 import { fromMm, type LengthUnit } from "../../shared/units";
 import { besideThreshold } from "../../src/features/attempts/labels";
 import { describeFindings } from "./support/a11y";
@@ -142,6 +145,48 @@ describe("quality lead", () => {
     expect(Number(firstCells[0])).toBe(1);
     expect(Number(firstCells[2])).toBe(Number(fromMm(stream!.depth_mm[0], unit).toFixed(unit === "in" ? 2 : 1)));
     await journey.visited(page, "attempt-depth-table", { axe: false });
+
+    expect(journey.findings, describeFindings(journey.findings)).toEqual([]);
+  }, JOURNEY_TIMEOUT);
+
+  it("opens the manikin flagged for a depth sensor check from the Equipment page and sees the evidence", async () => {
+    const { page } = await journey.newPage();
+    await journey.signIn(page, qualityLead.email, qualityLead.password);
+    await page.waitForURL((url) => url.pathname === "/overview");
+
+    await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Equipment" }).click();
+    await page.waitForURL((url) => url.pathname === "/equipment");
+    // one quarter holds too few shared classes to judge a manikin: look at the last four
+    await page.getByRole("combobox", { name: "Period" }).selectOption("last-4");
+    await page.waitForURL((url) => url.searchParams.get("quarter") === "last-4");
+    const drift = await journey.api<DriftAnswer>(page, "/api/equipment/drift?from=2026-Q1&to=2026-Q4");
+    expect(drift.status).toBe(200);
+    const flagged = drift.body.manikins.filter((m) => m.flag === "check");
+    expect(flagged.map((m) => m.manikin)).toEqual([DEMO_SCENARIO.driftingSensor.manikin]);
+    const assetId = flagged[0].manikin;
+    const section = page.getByRole("region", { name: "Depth readings against peers" });
+    await section.getByText(new RegExp(`^${assetId} reads \\+\\d\\.\\d mm against its peers$`)).waitFor();
+    await journey.visited(page, "equipment-drift");
+
+    await section.getByRole("link", { name: `Open ${assetId}’s record` }).click();
+    await page.waitForURL((url) => url.pathname === `/equipment/manikins/${assetId}` && url.searchParams.get("quarter") === "last-4");
+    await page.getByRole("heading", { name: `Manikin ${assetId}`, level: 1 }).waitFor();
+    const record = await journey.api<ManikinRecord>(page, `/api/equipment/manikins/${assetId}?from=2026-Q1&to=2026-Q4`);
+    expect(record.status).toBe(200);
+    const offset = record.body.drift!.offset_mm!;
+    expect(record.body.drift!.flag).toBe("check");
+    // the verdict in words with the API's classes and offset, and the class-by-class evidence as a labelled picture
+    await page.getByText(`Check the depth sensor: over ${record.body.drift!.classes} shared classes, ${assetId} reads +${offset.toFixed(1)} mm (deeper) against its peers`, { exact: false }).waitFor();
+    const evidence = chart(page, `${assetId}: depth against its peers, class by class`);
+    await picture(evidence).waitFor();
+    await evidence.getByRole("button", { name: "Show as table" }).click();
+    expect(await evidence.locator("tbody tr").count()).toBe(record.body.drift!.differences.length);
+    await page.getByRole("table", { name: `Equipment log of ${assetId}` }).waitFor();
+    await journey.visited(page, "manikin");
+
+    // back to the equipment page with the period kept
+    await page.getByRole("main").getByRole("link", { name: "Equipment", exact: true }).click();
+    await page.waitForURL((url) => url.pathname === "/equipment" && url.searchParams.get("quarter") === "last-4");
 
     expect(journey.findings, describeFindings(journey.findings)).toEqual([]);
   }, JOURNEY_TIMEOUT);
