@@ -2,6 +2,7 @@
 // error its trend by quarter and where it happens, down to the attempts themselves.
 import { useQuery } from "@tanstack/react-query";
 import { useCallback } from "react";
+import { manikinPath } from "../features/equipment/links";
 import { Link, useSearchParams } from "react-router";
 import type { FeedbackMode } from "../../shared/domain";
 import type { PatientType } from "../../shared/scoring/policy";
@@ -135,6 +136,10 @@ function SelectedError({ selected, values, scope }: { selected: Selected; values
         <Link to={attemptsLink({})} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
           List these {withError} attempts
         </Link>
+        {/* straight to the attempts whose compressions can be looked at one by one */}
+        <Link to={attemptsLink({ stream: "yes" })} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+          Only those with a compression stream
+        </Link>
       </p>
       <ErrorTrendChart label={selected.label} trend={selected.trend} actions={actions} />
       <p className="text-small text-muted">
@@ -194,7 +199,16 @@ function Breakdowns({ selected, attemptsLink }: { selected: Selected; attemptsLi
     instructor: (
       <BreakdownPanel dimension="instructor" rows={selected.byInstructor} nameOf={named} attemptsHref={(row) => (recorded(row.key) ? attemptsLink({ instructor: row.key }) : null)} errorLabel={selected.label} />
     ),
-    manikin: <BreakdownPanel dimension="manikin" rows={selected.byManikin} nameOf={named} attemptsHref={(row) => (recorded(row.key) ? attemptsLink({ manikin: row.key }) : null)} errorLabel={selected.label} />,
+    manikin: (
+      <BreakdownPanel
+        dimension="manikin"
+        rows={selected.byManikin}
+        nameOf={named}
+        attemptsHref={(row) => (recorded(row.key) ? attemptsLink({ manikin: row.key }) : null)}
+        recordHref={(row) => (recorded(row.key) ? manikinPath(row.key) : null)}
+        errorLabel={selected.label}
+      />
+    ),
   }[by];
   return (
     <section aria-labelledby="breakdown-heading" className="flex flex-col gap-3">

@@ -1,7 +1,9 @@
 // An instructor: signs in, reads their medians and percentile beside the network's on My standing (the same
-// figures the API gives), and cannot open another instructor's class or attempt by editing the address.
+// figures the API gives), opens their own attempts with their most common error, and cannot open another
+// instructor's class or attempt by editing the address.
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
-import type { StandingAnswer } from "../../shared/schemas/insight";
+import type { AttemptListAnswer, StandingAnswer } from "../../shared/schemas/insight";
+import { errorShortNames } from "../../shared/vocabulary";
 import { formatMetric, metricWords, percentileSentence } from "../../src/features/insight/standing/StandingMetrics";
 import { describeFindings } from "./support/a11y";
 import { demoAccount } from "./support/accounts";
@@ -32,7 +34,7 @@ interface OtherClass {
 }
 
 describe("instructor", () => {
-  it("finds their medians and percentile against the network, and cannot open another instructor's class", async () => {
+  it("finds their medians and percentile against the network, opens their attempts with their commonest error, and cannot open another instructor's class", async () => {
     const { page } = await journey.newPage();
     await journey.signIn(page, instructor.email, instructor.password);
 
@@ -65,6 +67,20 @@ describe("instructor", () => {
     // the heading names the instructor and the quarter
     await page.getByRole("heading", { name: new RegExp(`^${standing.me.code} · ${standing.me.name}, ${SEED_QUARTER.replace("-", " ")}$`) }).waitFor();
     await journey.visited(page, "my-standing");
+
+    // my most common error, to my own attempts with it, and back
+    const commonest = [...standing.errorProfile.rows].filter((r) => r.mine !== null && r.mine > 0).sort((a, b) => b.mine! - a.mine!)[0];
+    expect(commonest).toBeDefined();
+    await page.getByRole("navigation", { name: "Open your attempts with an error" }).getByRole("link", { name: errorShortNames[commonest.error], exact: true }).click();
+    await page.waitForURL((url) => url.pathname === "/attempts" && url.searchParams.get("error") === commonest.error && url.searchParams.get("quarter") === SEED_QUARTER);
+    const mine = await journey.api<AttemptListAnswer>(page, `/api/attempts?quarter=${SEED_QUARTER}&error=${commonest.error}&pageSize=200`);
+    expect(mine.status).toBe(200);
+    expect(mine.body.total).toBeGreaterThan(0);
+    expect(mine.body.attempts.every((a) => a.instructor?.code === standing.me.code && a.errors.includes(commonest.error))).toBe(true);
+    await page.getByText(new RegExp(`^Attempts 1–\\d+ of ${mine.body.total.toLocaleString("en-GB")}, sorted by`)).waitFor();
+    await journey.visited(page, "my-attempts-with-error");
+    await page.goBack();
+    await page.waitForURL((url) => url.pathname === "/my-standing");
 
     // another instructor's class in the same quarter, found in the database
     const other = journey.db.$client

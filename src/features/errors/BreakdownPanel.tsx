@@ -23,6 +23,8 @@ export interface BreakdownPanelProps {
   nameOf: (row: BreakdownRow) => string;
   /** Link to the attempts of this group with the error, or null when the group cannot be filtered on. */
   attemptsHref: (row: BreakdownRow) => string | null;
+  /** The group's own page (a manikin's record), linked from its name; null for none. */
+  recordHref?: (row: BreakdownRow) => string | null;
   errorLabel: string;
 }
 
@@ -52,7 +54,7 @@ function breakdownPlot(data: readonly ShownRow[], { width }: ChartSize): Plot.Pl
   };
 }
 
-export function BreakdownPanel({ dimension, rows, nameOf, attemptsHref, errorLabel }: BreakdownPanelProps) {
+export function BreakdownPanel({ dimension, rows, nameOf, attemptsHref, recordHref, errorLabel }: BreakdownPanelProps) {
   const shown = useMemo<ShownRow[]>(
     () =>
       rows.map((row) => {
@@ -69,7 +71,22 @@ export function BreakdownPanel({ dimension, rows, nameOf, attemptsHref, errorLab
   const groups = shown.filter((row) => row.attempts > 0).length;
   const capitalised = dimension[0].toUpperCase() + dimension.slice(1);
   const columns: Column<ShownRow>[] = [
-    { key: "name", header: capitalised, value: (row) => row.name, primary: true },
+    {
+      key: "name",
+      header: capitalised,
+      value: (row) => row.name,
+      primary: true,
+      render: (row) => {
+        const href = recordHref?.(row);
+        return href ? (
+          <Link to={href} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+            {row.name}
+          </Link>
+        ) : (
+          row.name
+        );
+      },
+    },
     {
       key: "attemptsLink",
       header: "Drill down",
