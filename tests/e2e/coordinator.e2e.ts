@@ -338,6 +338,11 @@ describe("coordinator", () => {
     // a version of its own, so the step knows which PDF goes out
     await page.getByRole("button", { name: "Create report version" }).click();
     await page.getByText(/is stored \(PDF, /).waitFor();
+    // on a phone the page, versions table included, stays within the screen's width
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.getByRole("table", { name: new RegExp("^Report versions for") }).waitFor();
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+    await page.setViewportSize({ width: 1360, height: 900 });
     const stored = await journey.api<{ reports: { id: number; version: number }[] }>(page, `/api/reports?period=${period}`);
     const latest = stored.body.reports[0];
     const users = await journey.api<{ users: { email: string; role: string; active: boolean }[] }>(page, "/api/users");

@@ -79,7 +79,7 @@ export function MappingStep({ kind, upload, preview, draft, onDraftChange, onBac
         {preview.rows.length === 0 ? (
           <p className="text-muted">The file has a header row but no data rows.</p>
         ) : (
-          <div role="region" aria-labelledby="preview-heading" tabIndex={0} className="overflow-x-auto rounded-card border border-line bg-surface shadow-card">
+          <div role="region" aria-labelledby="preview-heading" tabIndex={0} className="relative overflow-x-auto rounded-card border border-line bg-surface shadow-card">
             <table className="w-full border-collapse text-left text-small">
               <caption className="sr-only">
                 The first {Math.min(PREVIEW_ROWS, preview.rows.length)} data rows; under each file column, the Quarterbeat column that reads it.
