@@ -367,10 +367,13 @@ describe("coordinator", () => {
     await journey.visited(page, "report-send-check", { axe: false });
 
     await send.getByRole("button", { name: `Send to ${recipients.length} recipient${recipients.length === 1 ? "" : "s"}` }).click();
-    // the journeys run without a mail server: the send is recorded either way, with its note and recipients
-    await send.getByText(/was sent to|^Sending failed/).waitFor();
-    const sends = await journey.api<{ sends: { reportId: number; coverNote: string; recipients: string[] }[] }>(page, "/api/report-sends");
-    expect(sends.body.sends[0]).toMatchObject({ reportId: latest.id, coverNote, recipients: funders });
+    // the journeys' mail goes to the local mail service: one message per recipient, each with the PDF
+    await send.getByText(/was sent to/).waitFor();
+    const sends = await journey.api<{ sends: { reportId: number; coverNote: string; recipients: string[]; status: string }[] }>(page, "/api/report-sends");
+    expect(sends.body.sends[0]).toMatchObject({ reportId: latest.id, coverNote, recipients: funders, status: "sent" });
+    const messages = journey.db.$client.prepare("SELECT recipients, attachments FROM mailbox WHERE text LIKE ?").all(`%${coverNote.slice(0, 40)}%`) as { recipients: string; attachments: string }[];
+    expect(messages.map((m) => JSON.parse(m.recipients) as string[]).sort()).toEqual(funders.map((f) => [f]).sort());
+    for (const m of messages) expect((JSON.parse(m.attachments) as { contentType: string }[]).map((a) => a.contentType)).toContain("application/pdf");
     await journey.visited(page, "report-sent");
   }, JOURNEY_TIMEOUT);
 });

@@ -1,6 +1,7 @@
-// A funder: signs in, opens the quarter's latest released report (never a version the coordinator has not
-// released), downloads its PDF, and is refused every drill-down page (and the API behind them) that would
-// show instructors, errors, classes or single attempts.
+// A funder: is told by e-mail that a report version was released, follows the message's link, opens the
+// quarter's latest released report (never a version the coordinator has not released), downloads its PDF, and
+// is refused every drill-down page (and the API behind them) that would show instructors, errors, classes or
+// single attempts.
 import fs from "node:fs";
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import { defaultPeriod } from "../../shared/period";
@@ -31,9 +32,10 @@ beforeAll(async () => {
   expect(created.status).toBe(201);
   versionId = created.body.report.id;
   versionNumber = created.body.report.version;
-  const released = await journey.apiPost<{ released: boolean }>(page, `/api/reports/${versionId}/release`);
+  const released = await journey.apiPost<{ released: boolean; notified: string[] }>(page, `/api/reports/${versionId}/release`);
   expect(released.status).toBe(200);
   expect(released.body.released).toBe(true);
+  expect(released.body.notified.map((a) => a.toLowerCase())).toContain(funder.email.toLowerCase());
   const draft = await journey.apiPost<{ report: { id: number } }>(page, `/api/reports/${period}`);
   expect(draft.status).toBe(201);
   draftId = draft.body.report.id;
@@ -49,11 +51,24 @@ afterAll(async () => {
 });
 
 describe("funder", () => {
-  it("opens the quarter's released report, downloads its PDF, and is refused drafts and every drill-down", async () => {
+  it("follows the release notice to the quarter's released report, downloads its PDF, and is refused drafts and every drill-down", async () => {
+    // the release notice: one message to this funder alone, with the report's address
+    const notices = journey.db.$client
+      .prepare("SELECT recipients, subject, text FROM mailbox WHERE subject LIKE '%released' ORDER BY id")
+      .all() as { recipients: string; subject: string; text: string }[];
+    const addressed = (m: { recipients: string }) => (JSON.parse(m.recipients) as string[]).map((a) => a.toLowerCase());
+    const mine = notices.filter((m) => addressed(m).includes(funder.email.toLowerCase()));
+    expect(mine).toHaveLength(1);
+    expect(addressed(mine[0])).toEqual([funder.email.toLowerCase()]);
+    expect(mine[0].text).toContain(`Version ${versionNumber} of the training quality report`);
+    const link = /Read it and download its PDF at (\S+)/.exec(mine[0].text)![1];
+    expect(new URL(link).pathname + new URL(link).search).toBe(`/report?period=${period}`);
+
     const { page } = await journey.newPage();
     await journey.signIn(page, funder.email, funder.password);
-
-    // the report is the funder's start page, showing the latest released version, not the newer draft
+    // the report is the funder's start page; the notice's link opens the same released version
+    await page.waitForURL((url) => url.pathname === "/report");
+    await page.goto(new URL(link).pathname + new URL(link).search);
     await page.waitForURL((url) => url.pathname === "/report");
     await page.getByRole("heading", { name: "Funder report", level: 1 }).waitFor();
     const download = page.getByRole("link", { name: /^Download PDF/ });
