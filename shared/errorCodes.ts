@@ -15,6 +15,8 @@ export const apiErrorCodes = {
   /** A payload that does not fit its schema; details name the fields. */
   invalid: "invalid",
   tooLarge: "too_large",
+  /** An upload whose file was removed (kept hours over, or the server restarted): upload it again. */
+  uploadGone: "upload_gone",
   internal: "internal",
 } as const;
 
