@@ -211,6 +211,21 @@ export class ImportRecords {
 }
 
 /**
+ * Called by the import worker on its own connection as soon as a job's import or check has finished, before
+ * it tells the server: the request thread's write of the same state may wait for the lock, and a server that
+ * stopped in between must not report a stored import as interrupted. (If the job's first record has not
+ * landed yet, this changes nothing and the server's own write, with the same state, follows.)
+ */
+export function recordJobDone(db: Db, jobId: string, summary: ImportSummary, finishedAt = new Date()): void {
+  const info = db
+    .update(importJobs)
+    .set({ status: "done", summary, error: null, rowsRead: summary.rowsRead, rejectedKept: summary.issuesTotal > 0, finishedAt: finishedAt.toISOString() })
+    .where(eq(importJobs.id, jobId))
+    .run();
+  noteHousekeepingWrite(db.$client, info);
+}
+
+/**
  * The answer for a job that is not live in this process: one of a stopped server, or one this server has
  * forgotten. Unfinished in the record means its server stopped before the end (the start-up write saying
  * so may still be pending).
