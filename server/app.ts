@@ -46,12 +46,14 @@ export interface AppOptions {
   logger?: Logger;
   /** The local mail service stands in for SMTP_URL (config.smtpUrl then points at it). */
   localMail?: boolean;
+  /** The web uploads' folder, used as it is (tests of a restart); by default a new one of this process. */
+  uploadDir?: string;
 }
 
 const defaultClientDir = path.join(projectRoot, "dist/client");
 
 /** Feature routers mounted under /api. Each one guards its own routes with `allow(...)`. */
-function featureRouters(db: Db, config: Config, endSessions: EndSessionsAfterPasswordChange, logger: Logger, localMail: boolean): Router[] {
+function featureRouters(db: Db, config: Config, endSessions: EndSessionsAfterPasswordChange, logger: Logger, options: AppOptions): Router[] {
   const mailer = createMailer(config.smtpUrl);
   return [
     userRoutes(db, mailer, endSessions),
@@ -65,8 +67,8 @@ function featureRouters(db: Db, config: Config, endSessions: EndSessionsAfterPas
     chartSettingsRoutes(db),
     reportRoutes(db, mailer, logger),
     outboxRoutes(db),
-    importRoutes(db, { logger, afterImport: () => void alertAfterImport(db, mailer, logger) }),
-    systemRoutes(db, { backupDir: config.backups.dir, mail: { smtpUrl: config.smtpUrl, localMail } }),
+    importRoutes(db, { logger, uploadDir: options.uploadDir, afterImport: () => void alertAfterImport(db, mailer, logger) }),
+    systemRoutes(db, { backupDir: config.backups.dir, mail: { smtpUrl: config.smtpUrl, localMail: options.localMail ?? false } }),
   ];
 }
 
@@ -122,7 +124,7 @@ export function createApp(db: Db, config: Config, options: AppOptions = {}) {
       signInLimit: options.signInLimit ?? { windowMs: 15 * 60 * 1000, limit: 10 },
     }),
   );
-  for (const router of featureRouters(db, config, endSessions, logger, options.localMail ?? false)) api.use(router);
+  for (const router of featureRouters(db, config, endSessions, logger, options)) api.use(router);
   api.use(rememberRoute);
   api.use(notFoundHandler);
   app.use("/api", api);

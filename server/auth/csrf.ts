@@ -1,6 +1,7 @@
 // Double-submit CSRF tokens bound to the session: state-changing requests must echo the token in a header.
 import type { CookieOptions } from "express";
 import { doubleCsrf } from "csrf-csrf";
+import { apiErrorCodes } from "../../shared/errorCodes";
 import { AppError } from "../errors";
 
 /** The token cookie's name and flags; sign-out clears it with the same ones, or the browser keeps it. */
@@ -24,4 +25,4 @@ export function createCsrf(secret: string, production: boolean) {
 }
 
 export const csrfRefused = () =>
-  new AppError("csrf", 403, "The form's security token is missing or out of date. Reload the page and try again.");
+  new AppError(apiErrorCodes.csrf, 403, "The form's security token is missing or out of date. Reload the page and try again.");

@@ -1,6 +1,7 @@
 import { Router, type CookieOptions, type Request, type Response } from "express";
 import type passport from "passport";
 import { changePasswordSchema, preferencesSchema, signInSchema, type CurrentUser } from "../../shared/schemas/auth";
+import { apiErrorCodes } from "../../shared/errorCodes";
 import type { Db } from "../db/client";
 import { AppError } from "../errors";
 import { parseWith } from "../http/validate";
@@ -39,7 +40,7 @@ export function authRoutes({ db, passport, csrfToken, csrfCookie, endSessionsAft
     });
     if (!user) {
       countAsGuess(res);
-      throw new AppError("invalid_credentials", 401, "The e-mail or password is not right.");
+      throw new AppError(apiErrorCodes.invalidCredentials, 401, "The e-mail or password is not right.");
     }
     await logIn(req, user);
     res.json({ user, csrfToken: csrfToken(req, res) });

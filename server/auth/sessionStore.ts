@@ -3,6 +3,7 @@
 import session from "express-session";
 import type { Db } from "../db/client";
 import { noteHousekeepingWrite } from "../db/dataState";
+import { isBusy, withoutWaiting, writeWhenFree } from "../db/writeWhenFree";
 
 const DAY_MS = 24 * 60 * 60 * 1000;
 const TOUCH_EVERY_MS = 5 * 60 * 1000;
@@ -67,33 +68,12 @@ export class SqliteSessionStore extends session.Store {
     noteHousekeepingWrite(this.sqlite, info);
   }
 
-  /** Runs `run` at once, without the connection's busy wait: SQLITE_BUSY instead of a stalled server. */
-  private withoutWaiting(run: () => void): void {
-    const busyTimeout = this.sqlite.pragma("busy_timeout", { simple: true }) as number;
-    this.sqlite.pragma("busy_timeout = 0");
-    try {
-      run();
-    } finally {
-      this.sqlite.pragma(`busy_timeout = ${busyTimeout}`);
-    }
-  }
-
   /**
    * A session write (sign-in, sign-out) while an import holds the write lock waits for it without blocking
    * the server: the connection's busy timeout would stall every request and then fail the sign-in with a 500.
    */
-  private writeWhenFree(run: () => void, callback?: (err?: unknown) => void, giveUpAt = Date.now() + WRITE_WAIT_MS): void {
-    try {
-      this.withoutWaiting(run);
-    } catch (err) {
-      if ((err as { code?: string }).code === "SQLITE_BUSY" && Date.now() < giveUpAt) {
-        setTimeout(() => this.writeWhenFree(run, callback, giveUpAt), 50);
-        return;
-      }
-      callback?.(err);
-      return;
-    }
-    callback?.();
+  private writeWhenFree(run: () => void, callback?: (err?: unknown) => void): void {
+    writeWhenFree(this.sqlite, run, callback, Date.now() + WRITE_WAIT_MS);
   }
 
   override touch(sid: string, sess: session.SessionData, callback?: () => void): void {
@@ -104,10 +84,10 @@ export class SqliteSessionStore extends session.Store {
     const now = Date.now();
     if (now - (this.lastTouched.get(sid) ?? 0) > TOUCH_EVERY_MS) {
       try {
-        this.withoutWaiting(() => this.housekeeping(this.statements.touch.run(SqliteSessionStore.expiry(sess), sid)));
+        withoutWaiting(this.sqlite, () => this.housekeeping(this.statements.touch.run(SqliteSessionStore.expiry(sess), sid)));
         this.lastTouched.set(sid, now);
       } catch (err) {
-        if ((err as { code?: string }).code !== "SQLITE_BUSY") throw err;
+        if (!isBusy(err)) throw err;
       }
     }
     callback?.();
@@ -148,7 +128,7 @@ export class SqliteSessionStore extends session.Store {
   private pruneOnSchedule(): void {
     if (!this.sqlite.open) return clearInterval(this.pruneTimer);
     try {
-      this.withoutWaiting(() => this.prune());
+      withoutWaiting(this.sqlite, () => this.prune());
     } catch {
       // an import holding the write lock (or any other failure) only delays the pruning to the next round;
       // housekeeping must never bring the server down

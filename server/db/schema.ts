@@ -19,6 +19,7 @@ import {
   lengthUnits,
   userRoles,
 } from "../../shared/domain";
+import { jobStatuses, uploadEndReasons } from "../../shared/import/api";
 
 const patientTypes = ["infant", "child", "adult"] as const;
 
@@ -159,6 +160,48 @@ export const batchChanges = sqliteTable(
     previous: text({ mode: "json" }).notNull(),
   },
   (t) => [index("batch_changes_batch_idx").on(t.batchId)],
+);
+
+/**
+ * Web uploads and their validation and import jobs, so that their ids still answer after a restart. The files
+ * live in the server's upload folder; at start-up the uploads of the stopped server are ended (their files
+ * removed) and its unfinished jobs marked interrupted (server/imports/records.ts). Housekeeping: no figure
+ * reads these tables.
+ */
+export const importUploads = sqliteTable("import_uploads", {
+  id: text().primaryKey(),
+  userId: integer().notNull(),
+  kind: text({ enum: importKinds }).notNull(),
+  fileName: text().notNull(),
+  sizeBytes: integer().notNull(),
+  /** The stored file, under a random name in the upload folder. */
+  path: text().notNull(),
+  uploadedAt: text().notNull(),
+  /** When and why the file was removed; null while it can be used. */
+  endedAt: text(),
+  endReason: text({ enum: uploadEndReasons }),
+});
+
+export const importJobs = sqliteTable(
+  "import_jobs",
+  {
+    id: text().primaryKey(),
+    uploadId: text().notNull(),
+    userId: integer().notNull(),
+    mode: text({ enum: ["validate", "import"] }).notNull(),
+    status: text({ enum: jobStatuses }).notNull(),
+    totalBytes: integer(),
+    rowsRead: integer().notNull(),
+    summary: text({ mode: "json" }),
+    error: text(),
+    /** Where the job writes its refused rows, beside the upload (removed with it). */
+    rejectedPath: text().notNull(),
+    /** The refused rows can still be downloaded. */
+    rejectedKept: integer({ mode: "boolean" }).notNull(),
+    createdAt: text().notNull(),
+    finishedAt: text(),
+  },
+  (t) => [index("import_jobs_status_idx").on(t.status)],
 );
 
 export const importPresets = sqliteTable("import_presets", {

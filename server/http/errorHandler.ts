@@ -1,8 +1,9 @@
 import type { ErrorRequestHandler, RequestHandler } from "express";
+import { apiErrorCodes } from "../../shared/errorCodes";
 import { AppError } from "../errors";
 
 export const notFoundHandler: RequestHandler = (req, _res, next) => {
-  next(new AppError("not_found", 404, `No API route ${req.method} ${req.path}.`));
+  next(new AppError(apiErrorCodes.notFound, 404, `No API route ${req.method} ${req.path}.`));
 };
 
 /** Answers `{ error: { code, message, details } }`; never leaks stack traces or SQL to the client. */
@@ -14,14 +15,14 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
   // body-parser and multer errors carry a status and a type of their own
   const status = typeof err?.status === "number" ? err.status : typeof err?.statusCode === "number" ? err.statusCode : 500;
   if (status === 413 || err?.code === "LIMIT_FILE_SIZE") {
-    res.status(413).json({ error: { code: "too_large", message: "The upload is larger than the server accepts." } });
+    res.status(413).json({ error: { code: apiErrorCodes.tooLarge, message: "The upload is larger than the server accepts." } });
     return;
   }
   if (status >= 400 && status < 500) {
-    res.status(status).json({ error: { code: "bad_request", message: "The request could not be read." } });
+    res.status(status).json({ error: { code: apiErrorCodes.badRequest, message: "The request could not be read." } });
     return;
   }
   // the request's log line carries the error (message, stack) at level error
   res.err = err instanceof Error ? err : new Error(String(err));
-  res.status(500).json({ error: { code: "internal", message: "Something went wrong on the server. It has been logged." } });
+  res.status(500).json({ error: { code: apiErrorCodes.internal, message: "Something went wrong on the server. It has been logged." } });
 };

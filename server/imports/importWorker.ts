@@ -3,6 +3,7 @@
 // it awaits the next chunk. Started once by jobs.ts (through worker.mjs); takes one job at a time by message.
 import { parentPort } from "node:worker_threads";
 import { openDatabase } from "../db/client";
+import { recordJobDone } from "./records";
 import { importFile, type ImportFileOptions } from "./service";
 
 export interface WorkerInput {
@@ -30,6 +31,11 @@ port.on("message", async (input: WorkerInput) => {
       now: input.options.now ? new Date(input.options.now) : undefined,
       onProgress: (p) => post({ jobId, type: "progress", bytesRead: p.bytesRead, totalBytes: p.totalBytes, rows: p.rows }),
     });
+    try {
+      recordJobDone(db, jobId, summary);
+    } catch {
+      // the server writes the same state itself; the import is stored either way
+    }
     post({ jobId, type: "done", summary });
   } catch (err) {
     post({ jobId, type: "failed", message: err instanceof Error ? err.message : String(err) });

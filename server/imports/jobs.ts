@@ -2,16 +2,19 @@
 // with its own database connection, one after another, so two imports never wait on each other's write lock
 // and no job pays for starting a thread. A worker that dies fails its job and is replaced for the next.
 // The page polls a job for its progress (bytes read of the total, rows) and then reads its summary.
+// Each change of a job's state is also recorded in SQLite (records.ts), so that after a restart its id
+// answers with its outcome, or as interrupted when the server stopped before it finished.
 import crypto from "node:crypto";
 import fs from "node:fs";
 import { Worker } from "node:worker_threads";
 import type { UserRole } from "../../shared/domain";
-import type { ImportJob, ImportSummary } from "../../shared/import/api";
+import { apiErrorCodes } from "../../shared/errorCodes";
+import { finishedJobStatuses, type ImportJob, type ImportSummary } from "../../shared/import/api";
 import type { ImportMapping } from "../../shared/import/mapping";
-import { can } from "../../shared/permissions";
 import { AppError } from "../errors";
 import { logImport } from "../logging/events";
 import type { Logger } from "../logging/logger";
+import { jobFromRecord, mayUseImport, type ImportRecords, type JobRecord } from "./records";
 import type { ImportActor } from "./run";
 import { rejectedRowsPath, type StoredUpload } from "./uploads";
 import type { WorkerInput, WorkerMessage } from "./importWorker";
@@ -19,6 +22,7 @@ import type { WorkerInput, WorkerMessage } from "./importWorker";
 interface JobState extends ImportJob {
   userId: number;
   rejectedPath: string;
+  finishedAt: string | null;
 }
 
 // From source the worker is TypeScript loaded through tsx (worker.mjs); compiled, it is the bundle
@@ -34,6 +38,7 @@ export class ImportJobs {
 
   constructor(
     private readonly dbFile: string,
+    private readonly records: ImportRecords,
     private readonly logger?: Logger,
     /** Called once an import job has written a batch (not for validation or a refused file). */
     private readonly afterImport?: (summary: ImportSummary) => void,
@@ -53,8 +58,10 @@ export class ImportJobs {
       createdAt: new Date().toISOString(),
       userId: actor.userId,
       rejectedPath: rejectedRowsPath(upload.path, id),
+      finishedAt: null,
     };
     this.jobs.set(id, job);
+    this.save(job);
     this.forgetOld();
     const input: WorkerInput = {
       jobId: id,
@@ -75,14 +82,22 @@ export class ImportJobs {
   }
 
   get(id: string, user: { id: number; role: UserRole }): ImportJob {
-    return publicJob(this.own(id, user));
+    const live = this.jobs.get(id);
+    if (live && mayUseImport(live.userId, user)) return publicJob(live);
+    const record = live ? null : this.records.findJob(id);
+    if (record && mayUseImport(record.userId, user)) return jobFromRecord(record);
+    throw jobNotFound();
   }
 
   /** Path of the job's refused rows as CSV, once it has some. */
   rejectedCsv(id: string, user: { id: number; role: UserRole }): string {
-    const job = this.own(id, user);
-    if (job.status !== "done" || !job.rejectedCsvUrl || !fs.existsSync(job.rejectedPath)) throw new AppError("not_found", 404, "This job has no refused rows to download.");
-    return job.rejectedPath;
+    const job = this.jobs.get(id);
+    if (job && mayUseImport(job.userId, user)) {
+      if (job.status !== "done" || !job.rejectedCsvUrl || !fs.existsSync(job.rejectedPath)) throw new AppError(apiErrorCodes.notFound, 404, "This job has no refused rows to download.");
+      return job.rejectedPath;
+    }
+    this.get(id, user); // 404 unless the user's job is on record
+    throw new AppError(apiErrorCodes.notFound, 404, "The refused rows of this job were removed with its upload. An import keeps its refused rows in the import history.");
   }
 
   /** Resolves when every job started so far has finished (tests, shutdown). */
@@ -90,14 +105,13 @@ export class ImportJobs {
     return this.tail;
   }
 
-  private own(id: string, user: { id: number; role: UserRole }): JobState {
-    const job = this.jobs.get(id);
-    if (!job || (job.userId !== user.id && !can(user, "importData", "any"))) throw new AppError("not_found", 404, "The import job was not found.");
-    return job;
+  private save(job: JobState) {
+    this.records.saveJob(recordOf(job));
   }
 
   private run(job: JobState, input: WorkerInput): Promise<void> {
     job.status = "running";
+    this.save(job);
     const started = Date.now();
     return new Promise((resolve) => {
       let finished = false;
@@ -113,6 +127,8 @@ export class ImportJobs {
         job.error = error;
         job.status = error ? "failed" : "done";
         if (summary && summary.issuesTotal > 0) job.rejectedCsvUrl = `/api/imports/jobs/${job.id}/rejected.csv`;
+        job.finishedAt = new Date().toISOString();
+        this.save(job);
         if (summary?.status === "imported" && job.mode === "import") this.afterImport?.(summary);
         resolve();
       };
@@ -155,15 +171,37 @@ export class ImportJobs {
     if (this.jobs.size <= KEEP_JOBS) return;
     for (const [id, job] of this.jobs) {
       if (this.jobs.size <= KEEP_JOBS) break;
-      if (job.status === "done" || job.status === "failed") {
+      if (finishedJobStatuses.includes(job.status)) {
         fs.rmSync(job.rejectedPath, { force: true });
         this.jobs.delete(id);
+        // its record still answers for it, without the refused rows
+        this.records.saveJob({ ...recordOf(job), rejectedKept: false });
       }
     }
   }
 }
 
+const jobNotFound = () => new AppError(apiErrorCodes.notFound, 404, "The import job was not found.");
+
+function recordOf(job: JobState): JobRecord {
+  return {
+    id: job.id,
+    uploadId: job.uploadId,
+    userId: job.userId,
+    mode: job.mode,
+    status: job.status,
+    totalBytes: job.progress.totalBytes,
+    rows: job.progress.rows,
+    summary: job.summary,
+    error: job.error,
+    rejectedPath: job.rejectedPath,
+    rejectedKept: job.rejectedCsvUrl !== null,
+    createdAt: job.createdAt,
+    finishedAt: job.finishedAt,
+  };
+}
+
 function publicJob(job: JobState): ImportJob {
-  const { userId: _user, rejectedPath: _path, ...rest } = job;
+  const { userId: _user, rejectedPath: _path, finishedAt: _finished, ...rest } = job;
   return { ...rest, progress: { ...rest.progress } };
 }

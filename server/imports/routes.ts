@@ -26,6 +26,7 @@ import { parseId, parseWith } from "../http/validate";
 import type { Logger } from "../logging/logger";
 import { getBatch, listBatches, rejectedRows, rejectedRowsCsv } from "./history";
 import { ImportJobs } from "./jobs";
+import { ImportRecords } from "./records";
 import { createPreset, deletePreset, getPreset, listPresets } from "./presets";
 import { safeFileName } from "./service";
 import { undoBatch } from "./undo";
@@ -36,8 +37,8 @@ export const MAX_UPLOAD_BYTES = 50 * 1024 * 1024;
 const CSV_TYPES = new Set(["text/csv", "application/csv", "text/plain", "application/vnd.ms-excel", "text/comma-separated-values"]);
 
 export interface ImportRouteOptions {
-  uploads?: UploadStore;
-  jobs?: ImportJobs;
+  /** The upload folder to use as it is; by default a new one of this process in the temp folder. */
+  uploadDir?: string;
   maxUploadBytes?: number;
   logger?: Logger;
   /** Called after each web import that wrote a batch (the alert digest). */
@@ -46,8 +47,11 @@ export interface ImportRouteOptions {
 
 export function importRoutes(db: Db, options: ImportRouteOptions = {}): Router {
   const router = Router();
-  const uploads = options.uploads ?? new UploadStore();
-  const jobs = options.jobs ?? new ImportJobs(db.$client.name, options.logger, options.afterImport);
+  const records = new ImportRecords(db, options.logger);
+  // what a stopped server left unfinished is ended before this one makes anything of its own
+  records.endStoppedServerWork();
+  const uploads = new UploadStore(records, options.uploadDir);
+  const jobs = new ImportJobs(db.$client.name, records, options.logger, options.afterImport);
   const upload = multer({
     storage: multer.diskStorage({
       destination: uploads.dir,

@@ -1,6 +1,8 @@
 // Uploaded files waiting for preview, validation and import. Stored under random names in a private temp
-// folder (the original name is only ever shown, never used as a path) and forgotten after a few hours. The
-// folders that stopped servers left behind are removed when a new store starts (uploadSweep.ts).
+// folder (the original name is only ever shown, never used as a path) and removed after a few hours. Each
+// upload is also recorded in SQLite (records.ts): after a restart, or once removed, its id answers 410 with
+// the reason instead of 404. The folders that stopped servers left behind are removed when a new store
+// starts (uploadSweep.ts); the files of this database's stopped server also by its records.
 import crypto from "node:crypto";
 import fs from "node:fs";
 import os from "node:os";
@@ -8,9 +10,10 @@ import path from "node:path";
 import { parse } from "csv-parse";
 import { delimiterChars, detectDelimiter, headerLine, type Delimiter } from "../../shared/import/delimiter";
 import type { ImportKind, UserRole } from "../../shared/domain";
-import { can } from "../../shared/permissions";
 import type { Upload } from "../../shared/import/api";
-import { notFound } from "../errors";
+import { apiErrorCodes } from "../../shared/errorCodes";
+import { AppError, notFound } from "../errors";
+import { mayUseImport, uploadEndedMessage, type ImportRecords } from "./records";
 import { sweepOrphanedUploadFolders, uploadFolderPrefix } from "./uploadSweep";
 
 export interface StoredUpload extends Upload {
@@ -31,7 +34,11 @@ export class UploadStore {
   private readonly uploads = new Map<string, StoredUpload>();
 
   /** `dir`: a folder to use as it is; otherwise a new one of this process under `root`, after sweeping. */
-  constructor(dir?: string, root = os.tmpdir()) {
+  constructor(
+    private readonly records: ImportRecords,
+    dir?: string,
+    root = os.tmpdir(),
+  ) {
     if (dir === undefined) {
       sweepOrphanedUploadFolders(root);
       this.dir = fs.mkdtempSync(uploadFolderPrefix(root));
@@ -58,14 +65,18 @@ export class UploadStore {
       userId,
     };
     this.uploads.set(upload.id, upload);
+    this.records.saveUpload({ ...upload, endedAt: null, endReason: null });
     return upload;
   }
 
-  /** The upload, if it exists and belongs to this user (importers with "any" reach may use anyone's). */
+  /** The upload, if it exists and this user may use it (mayUseImport); 410 once its file is removed. */
   get(id: string, user: { id: number; role: UserRole }): StoredUpload {
     const upload = this.uploads.get(id);
-    if (!upload || (upload.userId !== user.id && !can(user, "importData", "any"))) throw notFound("The upload");
-    return upload;
+    if (upload && mayUseImport(upload.userId, user)) return upload;
+    // not live here: removed after its time, or left by a stopped server (its file is gone)
+    const record = upload ? null : this.records.findUpload(id);
+    if (record && mayUseImport(record.userId, user)) throw new AppError(apiErrorCodes.uploadGone, 410, uploadEndedMessage(record.endReason));
+    throw notFound("The upload");
   }
 
   private sweep() {
@@ -79,6 +90,7 @@ export class UploadStore {
       const start = `${path.basename(upload.path)}.`;
       for (const name of files) if (name.startsWith(start) && name.endsWith(REJECTED_SUFFIX)) fs.rmSync(path.join(this.dir, name), { force: true });
       this.uploads.delete(upload.id);
+      this.records.saveUpload({ ...upload, endedAt: new Date().toISOString(), endReason: "expired" });
     }
   }
 }

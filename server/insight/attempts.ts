@@ -35,6 +35,17 @@ type JoinedRow = {
   hasStream: number;
 };
 
+/** The ids `selectRows` would give, with the same joins, so that any of the list's sort orders applies. */
+export function selectRowIds(db: Db, where: SQL) {
+  return db
+    .select({ id: attempts.id })
+    .from(attempts)
+    .leftJoin(sites, eq(attempts.siteId, sites.id))
+    .leftJoin(instructors, eq(attempts.instructorId, instructors.id))
+    .leftJoin(manikins, eq(attempts.manikinId, manikins.id))
+    .where(where);
+}
+
 export function selectRows(db: Db, where: SQL) {
   return db
     .select(rowColumns)

@@ -1,15 +1,21 @@
-// Every attempt a search selects as CSV, in the search's order: the whole result, not one page. The rows are
-// read in chunks inside one read transaction, so a file never mixes rows from before and after an import.
+// Every attempt a search selects as CSV, in the search's order: the whole result, not one page. A whole
+// quarter is tens of thousands of rows, too many to read and write in one go without holding the server's
+// event loop, so the export reads on a connection of its own inside one read transaction (a file never
+// mixes rows from before and after an import): the ids in the search's order once, then the rows a chunk of
+// ids at a time, giving the loop back between chunks and waiting while the client is slow to take them.
 // Lengths are in millimetres (the unit the figures are stored in); cells are written by shared/csv.
 import { csvLine, SPREADSHEET_CSV, type CsvCell } from "../../shared/csv";
 import type { AttemptRow } from "../../shared/schemas/insight";
 import { attemptFieldNames, errorLabels, feedbackNames, patientTypeNames, resultNames } from "../../shared/vocabulary";
-import type { Db } from "../db/client";
-import { selectRows, toRow } from "./attempts";
+import { inArray } from "drizzle-orm";
+import { openDatabase } from "../db/client";
+import { attempts } from "../db/schema";
+import { selectRowIds, selectRows, toRow } from "./attempts";
 import { attemptOrder, attemptSearchConditions, type AttemptSearch } from "./attemptSearch";
 import type { ResolvedFilters } from "./filters";
 
-const CHUNK_ROWS = 1000;
+/** Rows per chunk: small enough that reading and writing one holds the event loop well under 100 ms. */
+const CHUNK_ROWS = 500;
 
 const words = attemptFieldNames;
 
@@ -50,22 +56,41 @@ function line(cells: readonly CsvCell[]): string {
   return csvLine(cells, SPREADSHEET_CSV);
 }
 
-/** Hands `write` the header, then the rows a chunk at a time; answers the number of rows written. */
-export function writeAttemptsCsv(db: Db, filters: ResolvedFilters, search: AttemptSearch, write: (text: string) => void): number {
-  const where = attemptSearchConditions(filters, search);
-  const order = attemptOrder(search);
-  return db.$client
-    .transaction(() => {
-      write(line(columns.map(([header]) => header)));
-      let written = 0;
-      for (;;) {
-        const rows = selectRows(db, where).orderBy(...order).limit(CHUNK_ROWS).offset(written).all();
-        if (rows.length > 0) write(rows.map(toRow).map((attempt) => line(columns.map(([, value]) => value(attempt)))).join(""));
-        written += rows.length;
-        if (rows.length < CHUNK_ROWS) return written;
-      }
-    })
-    .deferred();
+/** Where the file goes: `write` answers false when the reader has enough for now; `drained` waits until more is wanted. */
+export interface CsvSink {
+  write(text: string): boolean;
+  drained(): Promise<void>;
+  /** The reader went away: stop reading. */
+  closed(): boolean;
+}
+
+const nextTurn = () => new Promise<void>((resolve) => setImmediate(resolve));
+
+/** Writes the header, then the rows a chunk at a time; answers the number of rows written. */
+export async function writeAttemptsCsv(dbFile: string, filters: ResolvedFilters, search: AttemptSearch, sink: CsvSink): Promise<number> {
+  const reader = openDatabase(dbFile, { migrate: false });
+  try {
+    reader.$client.exec("BEGIN"); // the snapshot every chunk reads
+    const where = attemptSearchConditions(filters, search);
+    const ids = selectRowIds(reader, where)
+      .orderBy(...attemptOrder(search))
+      .all()
+      .map((row) => row.id);
+    sink.write(line(columns.map(([header]) => header)));
+    let written = 0;
+    while (written < ids.length && !sink.closed()) {
+      const chunk = ids.slice(written, written + CHUNK_ROWS);
+      const byId = new Map(selectRows(reader, inArray(attempts.id, chunk)).all().map((row) => [row.attempt.id, toRow(row)]));
+      const text = chunk.map((id) => line(columns.map(([, value]) => value(byId.get(id)!)))).join("");
+      written += chunk.length;
+      if (!sink.write(text)) await sink.drained();
+      else await nextTurn();
+    }
+    return written;
+  } finally {
+    if (reader.$client.inTransaction) reader.$client.exec("COMMIT");
+    reader.$client.close();
+  }
 }
 
 /** "attempts-2026-Q2.csv", or "attempts-2025-Q3-to-2026-Q2.csv" for a range. */

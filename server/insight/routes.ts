@@ -93,7 +93,7 @@ export function insightRoutes(db: Db): Router {
   });
 
   // The whole result of the same search as CSV, with the same row scope.
-  router.get("/attempts.csv", allow("readAttempts"), (req, res) => {
+  router.get("/attempts.csv", allow("readAttempts"), async (req, res) => {
     const query = parseWith(attemptExportQuerySchema, req.query, "The filters");
     const search = attemptSearchOf(query, rowScope(signedInUser(req), "readAttempts").instructorId);
     const { filters } = context(req, "attempts.csv", filterPart(query));
@@ -102,7 +102,18 @@ export function insightRoutes(db: Db): Router {
       .attachment(attemptsCsvFileName(filters))
       .type("text/csv; charset=utf-8")
       .set("Cache-Control", "no-store");
-    writeAttemptsCsv(db, filters, search, (text) => res.write(text));
+    try {
+      await writeAttemptsCsv(db.$client.name, filters, search, {
+        write: (text) => res.write(text),
+        drained: () => new Promise((resolve) => res.once("drain", resolve).once("close", resolve)),
+        closed: () => res.destroyed,
+      });
+    } catch (err) {
+      // the header is sent: a failure can only cut the download short, and the request log keeps the error
+      res.err = err instanceof Error ? err : new Error(String(err));
+      res.destroy();
+      return;
+    }
     res.end();
   });
 

@@ -103,11 +103,21 @@ export const runRequestSchema = z
   .strict();
 export type RunRequest = z.infer<typeof runRequestSchema>;
 
+export const jobStatuses = ["queued", "running", "done", "failed", "interrupted"] as const;
+export type JobStatus = (typeof jobStatuses)[number];
+/** A job with one of these statuses will not change again. */
+export const finishedJobStatuses: readonly JobStatus[] = ["done", "failed", "interrupted"];
+
+/** Why an upload's file was removed: the server restarted, or it was kept as long as uploads are. */
+export const uploadEndReasons = ["restarted", "expired"] as const;
+export type UploadEndReason = (typeof uploadEndReasons)[number];
+
 export const jobSchema = z.object({
   id: z.string(),
   uploadId: z.string(),
   mode: z.enum(["validate", "import"]),
-  status: z.enum(["queued", "running", "done", "failed"]),
+  /** interrupted: the server stopped while the job waited or ran; nothing was written (error says so). */
+  status: z.enum(jobStatuses),
   progress: z.object({
     bytesRead: z.number().int(),
     totalBytes: z.number().int().nullable(),

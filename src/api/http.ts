@@ -1,6 +1,7 @@
 // The one way the client talks to the server: JSON in and out, same-origin cookies, and the CSRF header on
 // every request that changes something. Errors arrive as { error: { code, message, details } } and leave
 // as ApiError so pages can show the server's message beside the right field.
+import { apiErrorCodes } from "../../shared/errorCodes";
 
 const unsafeMethods = new Set(["POST", "PUT", "PATCH", "DELETE"]);
 
@@ -54,7 +55,7 @@ export function toApiError(status: number, body: unknown): ApiError {
 }
 
 export function isCsrfFailure(error: unknown): boolean {
-  return error instanceof ApiError && error.status === 403 && error.code === "csrf";
+  return error instanceof ApiError && error.status === 403 && error.code === apiErrorCodes.csrf;
 }
 
 /** A token for a signed-out visitor (needed before signing in). */

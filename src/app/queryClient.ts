@@ -1,11 +1,12 @@
 import { MutationCache, QueryCache, QueryClient } from "@tanstack/react-query";
+import { apiErrorCodes } from "../../shared/errorCodes";
 import { ApiError } from "../api/http";
 import { authQueries } from "../features/auth/queries";
 import { familiesChangedBy, invalidateFamilies } from "./figureQueries";
 
 /** A 401 that means "your session ended", as opposed to a wrong password on the sign-in form. */
 export function isSessionEnded(error: unknown): boolean {
-  return error instanceof ApiError && error.status === 401 && error.code !== "invalid_credentials";
+  return error instanceof ApiError && error.status === 401 && error.code !== apiErrorCodes.invalidCredentials;
 }
 
 /**

@@ -76,7 +76,7 @@ describe("route guard", () => {
   it("sends the user to sign in, and back afterwards, when the session ends during a change", async () => {
     fakeServer({
       "GET /api/me": sessionFor("instructor"),
-      "PATCH /api/me": { status: 401, body: { error: { code: "unauthorized", message: "Sign in first." } } },
+      "PATCH /api/me": signedOut,
     });
     const { router } = renderApp("/account");
     fireEvent.click(await screen.findByLabelText(/centimetres/i));

@@ -103,25 +103,34 @@ const doneJob: ImportJob = {
   createdAt: "2026-07-20T10:00:01.000Z",
 };
 
+/** The Imports page's routes, with a validation job that answers `job` when polled. */
+function fakeImportServer(job: ImportJob) {
+  return fakeServer({
+    "GET /api/me": sessionFor("coordinator"),
+    "GET /api/imports/batches?limit=25&offset=0": { status: 200, body: { batches: [], total: 0 } },
+    "GET /api/imports/formats": { status: 200, body: { formats: { attempts: [] } } },
+    "GET /api/imports/presets?kind=attempts": { status: 200, body: { presets: [] } },
+    "POST /api/imports/uploads/u1/validate": { status: 202, body: { job: { ...doneJob, status: "queued", summary: null } } },
+    "GET /api/imports/jobs/job-1": { status: 200, body: { job } },
+  });
+}
+
+/** Opens the page, chooses attempt summaries and uploads the file; resolves on the mapping step. */
+async function uploadOnPage() {
+  renderApp("/imports");
+  await screen.findByRole("heading", { name: /Step 1 of 4/ });
+  fireEvent.click(screen.getByRole("radio", { name: /Attempt summaries/ }));
+  fireEvent.change(screen.getByLabelText("CSV file"), { target: { files: [new File([header.join(",")], "export.csv", { type: "text/csv" })] } });
+  fireEvent.click(screen.getByRole("button", { name: "Upload and preview" }));
+  await screen.findByRole("heading", { name: /Step 2 of 4/ });
+}
+
 describe("mapping step", () => {
   it("sends the mapping JSON the server's schema expects: renames, depth in inches, no value translations", async () => {
-    const server = fakeServer({
-      "GET /api/me": sessionFor("coordinator"),
-      "GET /api/imports/batches?limit=25&offset=0": { status: 200, body: { batches: [], total: 0 } },
-      "GET /api/imports/formats": { status: 200, body: { formats: { attempts: [] } } },
-      "GET /api/imports/presets?kind=attempts": { status: 200, body: { presets: [] } },
-      "POST /api/imports/uploads/u1/validate": { status: 202, body: { job: { ...doneJob, status: "queued", summary: null } } },
-      "GET /api/imports/jobs/job-1": { status: 200, body: { job: doneJob } },
-    });
+    const server = fakeImportServer(doneJob);
     ScriptedXhr.answers.push({ status: 201, body: { upload, preview } });
 
-    renderApp("/imports");
-    await screen.findByRole("heading", { name: /Step 1 of 4/ });
-    fireEvent.click(screen.getByRole("radio", { name: /Attempt summaries/ }));
-    fireEvent.change(screen.getByLabelText("CSV file"), { target: { files: [new File([header.join(",")], "export.csv", { type: "text/csv" })] } });
-    fireEvent.click(screen.getByRole("button", { name: "Upload and preview" }));
-
-    await screen.findByRole("heading", { name: /Step 2 of 4/ });
+    await uploadOnPage();
     expect(ScriptedXhr.sent[0]).toMatchObject({ method: "POST", url: "/api/imports/uploads" });
     expect((ScriptedXhr.sent[0].body as FormData).get("kind")).toBe("attempts");
 
@@ -147,6 +156,26 @@ describe("mapping step", () => {
     // The server parses it with the shared schema: it must come through unchanged.
     expect(importMappingSchema.parse((validate.body as { mapping: unknown }).mapping)).toEqual(expected);
     await screen.findByText("All 1 rows can be imported. Nothing has been written yet.");
+  });
+});
+
+describe("a job the server's restart cut short", () => {
+  it("shows the server's message, offers the way back and stops asking", async () => {
+    const message = "The server restarted before this check finished. Nothing was written. Upload the file again to check it.";
+    const interrupted: ImportJob = { ...doneJob, status: "interrupted", progress: { bytesRead: 0, totalBytes: 512, rows: 0 }, summary: null, error: message };
+    const server = fakeImportServer(interrupted);
+    ScriptedXhr.answers.push({ status: 201, body: { upload, preview: { ...preview, suggestedMapping: { ...preview.suggestedMapping, columns: { learner: "Learner Code", depth_mm: "Depth (in)" } } } } });
+
+    await uploadOnPage();
+    fireEvent.click(screen.getByRole("button", { name: "Validate the file" }));
+
+    expect(await screen.findByText(message)).toBeTruthy();
+    expect(screen.getByRole("button", { name: "Upload a corrected file" })).toBeTruthy();
+    const polls = () => server.requests.filter((r) => r.path === "/api/imports/jobs/job-1").length;
+    const seen = polls();
+    // the page asks every 400 ms while a job is unfinished; an interrupted job is finished
+    await new Promise((resolve) => setTimeout(resolve, 1000));
+    expect(polls()).toBe(seen);
   });
 });
 

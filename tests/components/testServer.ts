@@ -1,6 +1,7 @@
 // A stand-in for the server's HTTP answers in component tests: a table of "METHOD /path" → answer, served
 // through a stubbed fetch, with every request recorded.
 import { vi } from "vitest";
+import { apiErrorCodes, signInFirstMessage } from "../../shared/errorCodes";
 
 export interface FakeAnswer {
   status: number;
@@ -28,7 +29,7 @@ export function fakeServer(routes: FakeRoutes) {
       body: typeof init?.body === "string" ? JSON.parse(init.body) : undefined,
     });
     const route = routes[`${method} ${path}`];
-    const answer = typeof route === "function" ? route(init) : (route ?? { status: 404, body: { error: { code: "not_found", message: "Not found" } } });
+    const answer = typeof route === "function" ? route(init) : (route ?? { status: 404, body: { error: { code: apiErrorCodes.notFound, message: "Not found" } } });
     return new Response(answer.body === undefined ? null : JSON.stringify(answer.body), {
       status: answer.status,
       headers: { "content-type": "application/json" },
@@ -38,7 +39,8 @@ export function fakeServer(routes: FakeRoutes) {
   return { requests };
 }
 
-export const signedOut: FakeAnswer = { status: 401, body: { error: { code: "unauthenticated", message: "Sign in first" } } };
+/** What the server answers a signed-out request (server/errors.ts `unauthorized`); tests/api/fakeServerAgreement.test.ts compares. */
+export const signedOut: FakeAnswer = { status: 401, body: { error: { code: apiErrorCodes.unauthorized, message: signInFirstMessage } } };
 
 export function sessionFor(role: "coordinator" | "quality_lead" | "instructor" | "funder"): FakeAnswer {
   return {

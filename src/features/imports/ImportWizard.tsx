@@ -220,7 +220,8 @@ function ValidateStep({ job, pollError, fileName, kind, skipInvalid, onSkipInval
   );
   if (pollError && !job) return <JobError message={errorMessage(pollError)} actions={back} />;
   if (!job || job.status === "queued" || job.status === "running") return <JobProgress job={job} fileName={fileName} />;
-  if (job.status === "failed" || !job.summary) return <JobError message={job.error ?? "The check stopped without a result."} actions={back} />;
+  // failed, or interrupted by a server restart: the server's message says what happened and what to do
+  if (job.status !== "done" || !job.summary) return <JobError message={job.error ?? "The check stopped without a result."} actions={back} />;
 
   const summary = job.summary;
   const things = summary.unit === "attempts" ? "attempt" : "row";
@@ -290,7 +291,7 @@ function ImportStep({ job, pollError, fileName, onNewFile, onBackToMapping }: { 
   );
   if (pollError && !job) return <JobError message={errorMessage(pollError)} actions={again} />;
   if (!job || job.status === "queued" || job.status === "running") return <JobProgress job={job} fileName={fileName} />;
-  if (job.status === "failed" || !job.summary) return <JobError message={job.error ?? "The import stopped without a result. Nothing was written."} actions={again} />;
+  if (job.status !== "done" || !job.summary) return <JobError message={job.error ?? "The import stopped without a result. Nothing was written."} actions={again} />;
   const summary = job.summary;
   return (
     <div className="flex flex-col gap-4">

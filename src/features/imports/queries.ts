@@ -6,6 +6,7 @@ import type { ImportKind } from "../../../shared/domain";
 import {
   batchDetailResponseSchema,
   batchListResponseSchema,
+  finishedJobStatuses,
   formatsResponseSchema,
   jobResponseSchema,
   presetListResponseSchema,
@@ -58,8 +59,8 @@ export const importQueries = {
     queryOptions({
       queryKey: [...importQueries.all(), "job", id] as const,
       queryFn: async ({ signal }) => (await getParsed(jobResponseSchema, `/api/imports/jobs/${id}`, signal)).job,
-      // Poll while the job works; stop once it has an answer.
-      refetchInterval: (query) => (query.state.data && (query.state.data.status === "done" || query.state.data.status === "failed") ? false : 400),
+      // Poll while the job works; stop once it has an answer (done, failed, or cut short by a server restart).
+      refetchInterval: (query) => (query.state.data && finishedJobStatuses.includes(query.state.data.status) ? false : 400),
       staleTime: 0,
     }),
 };

@@ -3,7 +3,9 @@ import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { afterEach, describe, expect, it, vi } from "vitest";
+import { ImportRecords } from "../../../server/imports/records";
 import { rejectedRowsPath, UploadStore } from "../../../server/imports/uploads";
+import { makeTestDb } from "../../helpers/testApp";
 
 const HOUR_MS = 60 * 60 * 1000;
 let dir: string | undefined;
@@ -16,12 +18,13 @@ afterEach(() => {
 describe("upload store sweep", () => {
   it("removes an expired upload with the refused-row files of each of its jobs, and nothing newer", () => {
     dir = fs.mkdtempSync(path.join(os.tmpdir(), "qb-upload-store-"));
-    const store = new UploadStore(dir);
+    const db = makeTestDb();
+    const store = new UploadStore(new ImportRecords(db), dir);
     vi.useFakeTimers({ toFake: ["Date"], now: new Date("2026-10-02T09:00:00Z") });
 
     const oldPath = store.newPath();
     fs.writeFileSync(oldPath, "class_id\n");
-    store.add({ path: oldPath, fileName: "classes.csv", size: 9 }, "classes", 1);
+    const first = store.add({ path: oldPath, fileName: "classes.csv", size: 9 }, "classes", 1);
     const oldRejected = [rejectedRowsPath(oldPath, "job-a"), rejectedRowsPath(oldPath, "job-b")];
     for (const file of oldRejected) fs.writeFileSync(file, "row,reason\n");
 
@@ -34,5 +37,10 @@ describe("upload store sweep", () => {
     for (const gone of [oldPath, ...oldRejected]) expect(fs.existsSync(gone), gone).toBe(false);
     expect(fs.readdirSync(dir).sort()).toEqual([path.basename(newPath), path.basename(rejectedRowsPath(newPath, "job-c"))].sort());
     expect(store.get(upload.id, { id: 1, role: "coordinator" }).path).toBe(newPath);
+    // the removed upload's id says why it is gone, to its owner; to others it does not exist
+    const ownerAsks = () => store.get(first.id, { id: 1, role: "instructor" });
+    expect(ownerAsks).toThrow(expect.objectContaining({ status: 410, message: expect.stringContaining("kept for 6 hours") }));
+    expect(() => store.get(first.id, { id: 2, role: "instructor" })).toThrow(expect.objectContaining({ status: 404 }));
+    db.$client.close();
   });
 });
