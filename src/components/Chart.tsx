@@ -7,8 +7,13 @@
 //
 // Keep `plot` stable (define it outside the component or in useCallback) so the chart is not redrawn on
 // every render.
+//
+// A mark with Plot's `href` channel is a door to the rows behind it: a click follows the link inside the app.
+// Keyboard and screen-reader users reach the same places from the table view's links (the picture is one
+// image to assistive technology, with nothing to focus inside it).
 import * as Plot from "@observablehq/plot";
-import { useEffect, useId, useRef, useState, type ReactNode } from "react";
+import { useEffect, useId, useRef, useState, type ReactNode, type RefObject } from "react";
+import { useInRouterContext, useNavigate } from "react-router";
 import { chartSeries } from "../styles/palette";
 import { DataTable, type Column } from "./DataTable";
 
@@ -43,6 +48,7 @@ export function Chart<Row>({ title, description, data, columns, rowKey, plot, ex
   const plotRef = useRef<HTMLDivElement>(null);
   const titleId = useId();
   const descriptionId = useId();
+  const inRouter = useInRouterContext();
 
   // Follow the container's width so the chart fits phones and wide screens alike.
   useEffect(() => {
@@ -70,6 +76,15 @@ export function Chart<Row>({ title, description, data, columns, rowKey, plot, ex
     });
     // Plot names each mark's <g> ("bar", "rule"); inside role="img" those names are not allowed and say nothing.
     figure.querySelectorAll("g[aria-label]").forEach((mark) => mark.removeAttribute("aria-label"));
+    // Plot wraps a linked mark in <a>; a link inside an image is an interactive control nested in a
+    // non-interactive one, so it becomes a plain group that remembers its address
+    figure.querySelectorAll("a").forEach((link) => {
+      const group = document.createElementNS("http://www.w3.org/2000/svg", "g");
+      group.setAttribute("class", "chart-mark-link");
+      group.setAttribute("data-href", link.getAttribute("href") ?? "");
+      group.replaceChildren(...link.childNodes);
+      link.replaceWith(group);
+    });
     target.replaceChildren(figure);
     return () => figure.remove();
   }, [data, plot, width, showTable]);
@@ -108,9 +123,29 @@ export function Chart<Row>({ title, description, data, columns, rowKey, plot, ex
             {legend && <div className="mb-2">{legend}</div>}
             {/* The picture itself is one image to assistive technology; its words are the caption above. */}
             <div ref={plotRef} role="img" aria-labelledby={titleId} aria-describedby={descriptionId} className="overflow-x-auto" />
+            {inRouter && <MarkLinkFollower target={plotRef} />}
           </>
         )}
       </div>
     </figure>
   );
+}
+
+/** Follows a click on a linked mark inside the app instead of reloading the page. */
+function MarkLinkFollower({ target }: { target: RefObject<HTMLDivElement | null> }) {
+  const navigate = useNavigate();
+  useEffect(() => {
+    const element = target.current;
+    if (!element) return;
+    function follow(event: MouseEvent) {
+      if (event.defaultPrevented || event.button !== 0) return;
+      const href = (event.target as Element | null)?.closest("[data-href]")?.getAttribute("data-href");
+      if (!href || !href.startsWith("/")) return;
+      event.preventDefault();
+      navigate(href);
+    }
+    element.addEventListener("click", follow);
+    return () => element.removeEventListener("click", follow);
+  }, [target, navigate]);
+  return null;
 }

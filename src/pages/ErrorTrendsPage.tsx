@@ -127,6 +127,9 @@ function SelectedError({ selected, values, scope }: { selected: Selected; values
   const actions = useActionMarks(scope, selected.trend.map((row) => row.quarter));
   const attemptsLink = (extra: Record<string, string | null>) => `/attempts?${linkParams(values, { error: selected.error, ...extra })}`;
   const withError = selected.byProfile.reduce((sum, row) => sum + row.count, 0);
+  const valuesKey = JSON.stringify(values);
+  // stable while the filters stay, so the chart is not redrawn on every render
+  const quarterHref = useCallback((quarter: string) => `/attempts?${linkParams(JSON.parse(valuesKey) as FilterValues, { error: selected.error, quarter })}`, [valuesKey, selected.error]);
   return (
     <div className="flex flex-col gap-6">
       <p className="flex flex-wrap items-center gap-x-4 gap-y-2">
@@ -141,7 +144,7 @@ function SelectedError({ selected, values, scope }: { selected: Selected; values
           Only those with a compression stream
         </Link>
       </p>
-      <ErrorTrendChart label={selected.label} trend={selected.trend} actions={actions} />
+      <ErrorTrendChart label={selected.label} trend={selected.trend} actions={actions} quarterHref={quarterHref} />
       <p className="text-small text-muted">
         With one quarter chosen, the trend shows the eight quarters up to it; with a longer period, each of its quarters. The other filters apply throughout. The groups below cover the chosen period only.
       </p>

@@ -1,6 +1,7 @@
 // Network overview: the quarter's measured pass rate against what instructors recorded, the quarterly
 // p-chart, the error Pareto and live against hidden display. Landing page for coordinators and quality leads.
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
+import { useCallback } from "react";
 import { useSearchParams } from "react-router";
 import type { OverviewAnswer } from "../../shared/schemas/insight";
 import { PageHeader } from "../components/PageHeader";
@@ -21,7 +22,8 @@ import { quarterLabel } from "../../shared/period";
 import { insightQueries } from "../features/insight/queries";
 import { useActionMarks } from "../features/actions/useActionMarks";
 import type { ActionMark } from "../../shared/schemas/actions";
-import type { InsightFilterState } from "../features/insight/useInsightFilters";
+import { linkParams, type InsightFilterState } from "../features/insight/useInsightFilters";
+import { useCan } from "../features/auth/useCan";
 
 export default function OverviewPage() {
   return (
@@ -42,14 +44,18 @@ function OverviewBody({ state }: { state: InsightFilterState }) {
   const limits = params.get("limits") === "laney" ? "laney" : undefined;
   const query = useQuery({ ...insightQueries.overview({ ...state.api, limits }), placeholderData: keepPreviousData });
   const actions = useActionMarks(state.api, query.data?.series.points.map((p) => p.quarter) ?? []);
+  // those who may drill down open an error's trend and breakdown from its bar or row
+  const drillDown = useCan("drillDown");
+  const valuesKey = JSON.stringify(state.values);
+  const examineHref = useCallback((row: { error: string }) => `/errors?${linkParams(JSON.parse(valuesKey) as InsightFilterState["values"], { error: row.error })}`, [valuesKey]);
   return (
     <QueryStatus query={query} loadingLabel={`Loading ${quarterLabel(state.quarter)}…`} errorTitle="The overview could not be loaded">
-      {(answer) => (answer.attempts === 0 ? <NoDataForFilters state={state} /> : <OverviewContent answer={answer} actions={actions} />)}
+      {(answer) => (answer.attempts === 0 ? <NoDataForFilters state={state} /> : <OverviewContent answer={answer} actions={actions} examineHref={drillDown ? examineHref : undefined} />)}
     </QueryStatus>
   );
 }
 
-export function OverviewContent({ answer, actions }: { answer: OverviewAnswer; actions?: readonly ActionMark[] }) {
+export function OverviewContent({ answer, actions, examineHref }: { answer: OverviewAnswer; actions?: readonly ActionMark[]; examineHref?: (row: { error: string }) => string }) {
   const min = answer.suppressionMinCount;
   return (
     <div className="flex flex-col gap-8">
@@ -94,7 +100,7 @@ export function OverviewContent({ answer, actions }: { answer: OverviewAnswer; a
               <NothingToChart title="Which errors matter most" text={`The errors are hidden: ${suppressedText(min)}.`} />
             </div>
           ) : (
-            <ErrorParetoChart rows={answer.errors.rows} attempts={answer.errors.attempts} />
+            <ErrorParetoChart rows={answer.errors.rows} attempts={answer.errors.attempts} examineHref={examineHref} />
           )}
           <div className="flex flex-col gap-2">
             <FeedbackComparisonChart groups={answer.feedback} minCount={min} />

@@ -1,6 +1,7 @@
 import * as Plot from "@observablehq/plot";
 import { cleanup, fireEvent, render, screen, within } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
+import { MemoryRouter, Route, Routes, useLocation } from "react-router";
 import { Chart } from "../../src/components/Chart";
 import type { Column } from "../../src/components/DataTable";
 
@@ -66,5 +67,45 @@ describe("Chart", () => {
     fireEvent.click(screen.getByRole("button", { name: "Show as chart" }));
     expect(screen.queryByRole("table")).toBeNull();
     expect(screen.getByRole("img", { name: "Compressions in target range" }).querySelector("svg")).not.toBeNull();
+  });
+});
+
+describe("chart marks that open the rows behind them", () => {
+  const linkedPlot = (rows: readonly QuarterShare[]) => ({ marks: [Plot.barY(rows as QuarterShare[], { x: "quarter", y: "share", href: (r: QuarterShare) => `/attempts?quarter=${r.quarter}` })] });
+
+  function Where() {
+    const location = useLocation();
+    return <p data-testid="where">{location.pathname + location.search}</p>;
+  }
+
+  function renderLinked() {
+    return render(
+      <MemoryRouter initialEntries={["/overview"]}>
+        <Routes>
+          <Route
+            path="*"
+            element={
+              <>
+                <Chart title="Linked bars" description="Each bar opens its quarter's attempts." data={data} columns={columns} rowKey={(r) => r.quarter} plot={linkedPlot} />
+                <Where />
+              </>
+            }
+          />
+        </Routes>
+      </MemoryRouter>,
+    );
+  }
+
+  it("follows a click on a mark inside the app, to the mark's own address", () => {
+    const { container } = renderLinked();
+    const links = container.querySelectorAll('div[role="img"] [data-href]');
+    expect(links).toHaveLength(3);
+    fireEvent.click(links[1].querySelector("rect") ?? links[1]);
+    expect(screen.getByTestId("where").textContent).toBe("/attempts?quarter=2025-Q2");
+  });
+
+  it("puts nothing focusable inside the picture: the table view's links are the keyboard's way", () => {
+    const { container } = renderLinked();
+    expect(container.querySelectorAll('div[role="img"] a, div[role="img"] [tabindex]')).toHaveLength(0);
   });
 });

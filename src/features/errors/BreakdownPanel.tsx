@@ -1,7 +1,7 @@
 // Where one error happens: a small bar chart of its share in each group (with the 95 % interval, so small
 // groups are not over-read) beside a sortable table whose rows lead to the matching attempts.
 import * as Plot from "@observablehq/plot";
-import { useMemo } from "react";
+import { useCallback, useMemo } from "react";
 import { Link } from "react-router";
 import type { ErrorsAnswer } from "../../../shared/schemas/insight";
 import { wilsonInterval } from "../../../shared/stats/wilson";
@@ -34,7 +34,7 @@ interface ShownRow extends BreakdownRow {
   high: number | null;
 }
 
-function breakdownPlot(data: readonly ShownRow[], { width }: ChartSize): Plot.PlotOptions {
+function breakdownPlot(data: readonly ShownRow[], { width }: ChartSize, attemptsHref: (row: BreakdownRow) => string | null): Plot.PlotOptions {
   const rows = data as ShownRow[];
   const longest = Math.max(4, ...rows.map((row) => row.name.length));
   return {
@@ -44,7 +44,8 @@ function breakdownPlot(data: readonly ShownRow[], { width }: ChartSize): Plot.Pl
     x: { domain: [0, Math.min(1, Math.max(0.1, ...rows.map((row) => row.high ?? row.share)) * 1.1)], tickFormat: (v: number) => `${Math.round(v * 100)} %`, label: "Share of attempts with the error", grid: true, ticks: width < 400 ? 3 : 5 },
     y: { domain: rows.map((row) => row.name), label: null },
     marks: [
-      Plot.barX(rows, { y: "name", x: "share", fill: dusk[300] }),
+      // a bar opens the group's attempts with the error, as the table's links do
+      Plot.barX(rows, { y: "name", x: "share", fill: dusk[300], href: (row: ShownRow) => (row.count > 0 ? attemptsHref(row) : null) }),
       Plot.ruleY(rows, { y: "name", x1: "low", x2: "high", stroke: dusk[800], strokeWidth: 1.5 }),
       Plot.tickX(rows, { y: "name", x: "low", stroke: dusk[800] }),
       Plot.tickX(rows, { y: "name", x: "high", stroke: dusk[800] }),
@@ -69,6 +70,7 @@ export function BreakdownPanel({ dimension, rows, nameOf, attemptsHref, recordHr
     return kept.sort((a, b) => b.share - a.share);
   }, [shown]);
   const groups = shown.filter((row) => row.attempts > 0).length;
+  const plot = useCallback((data: readonly ShownRow[], size: ChartSize) => breakdownPlot(data, size, attemptsHref), [attemptsHref]);
   const capitalised = dimension[0].toUpperCase() + dimension.slice(1);
   const columns: Column<ShownRow>[] = [
     {
@@ -125,7 +127,7 @@ export function BreakdownPanel({ dimension, rows, nameOf, attemptsHref, recordHr
 
   return (
     <div className="flex min-w-0 flex-col gap-4">
-      <Chart title={`By ${dimension}`} description={description} data={charted} columns={columns.filter((c) => c.key !== "attemptsLink")} rowKey={(row) => row.key} plot={breakdownPlot} exportFileName={`error-by-${dimension.replace(/\s+/g, "-")}-chart`} />
+      <Chart title={`By ${dimension}`} description={description} data={charted} columns={columns.filter((c) => c.key !== "attemptsLink")} rowKey={(row) => row.key} plot={plot} exportFileName={`error-by-${dimension.replace(/\s+/g, "-")}-chart`} />
       <DataTable
         caption={`Attempts with the error by ${dimension}`}
         columns={columns}

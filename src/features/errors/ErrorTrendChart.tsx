@@ -22,7 +22,7 @@ const columns: Column<TrendRow>[] = [
   { key: "high", header: "95 % interval to (%)", value: (row) => percentNumber(row.high), render: (row) => percent(row.high), align: "right" },
 ];
 
-function trendPlot(data: readonly TrendRow[], { width }: ChartSize, actions: readonly ActionMark[]): Plot.PlotOptions {
+function trendPlot(data: readonly TrendRow[], { width }: ChartSize, actions: readonly ActionMark[], quarterHref?: (quarter: string) => string): Plot.PlotOptions {
   const rows = (data as TrendRow[]).filter((row) => row.share !== null);
   const top = Math.min(1, Math.max(0.1, ...rows.map((row) => row.high ?? 0)) * 1.15);
   return {
@@ -33,7 +33,15 @@ function trendPlot(data: readonly TrendRow[], { width }: ChartSize, actions: rea
     marks: [
       Plot.ruleX(rows, { x: "quarter", y1: "low", y2: "high", stroke: dusk[300], strokeWidth: 6, strokeLinecap: "round" }),
       Plot.line(rows, { x: "quarter", y: "share", stroke: dusk[700], strokeWidth: 1.5 }),
-      Plot.dot(rows, { x: "quarter", y: "share", fill: dusk[700], r: 4, title: (row: TrendRow) => `${row.quarter}: ${percent(row.share)} (${row.count} of ${row.attempts})` }),
+      Plot.dot(rows, {
+        x: "quarter",
+        y: "share",
+        fill: dusk[700],
+        r: 4,
+        title: (row: TrendRow) => `${row.quarter}: ${percent(row.share)} (${row.count} of ${row.attempts})`,
+        // a quarter's point opens that quarter's attempts with the error
+        ...(quarterHref ? { href: (row: TrendRow) => (row.count > 0 ? quarterHref(row.quarter) : null) } : {}),
+      }),
       Plot.ruleY([0]),
       ...actionMarkLayers(actions, (data as TrendRow[]).map((row) => row.quarter)),
     ],
@@ -42,8 +50,8 @@ function trendPlot(data: readonly TrendRow[], { width }: ChartSize, actions: rea
 
 const noActions: readonly ActionMark[] = [];
 
-export function ErrorTrendChart({ label, trend, actions = noActions }: { label: string; trend: readonly TrendRow[]; actions?: readonly ActionMark[] }) {
-  const plot = useCallback((data: readonly TrendRow[], size: ChartSize) => trendPlot(data, size, actions), [actions]);
+export function ErrorTrendChart({ label, trend, actions = noActions, quarterHref }: { label: string; trend: readonly TrendRow[]; actions?: readonly ActionMark[]; quarterHref?: (quarter: string) => string }) {
+  const plot = useCallback((data: readonly TrendRow[], size: ChartSize) => trendPlot(data, size, actions, quarterHref), [actions, quarterHref]);
   const shown = trend.filter((row) => row.share !== null);
   const first = shown[0];
   const last = shown[shown.length - 1];

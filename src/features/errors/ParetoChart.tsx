@@ -1,6 +1,7 @@
 // The error Pareto: how often each error occurs, most frequent first, with the running share of all errors,
 // so the few errors that make up most of the problem stand out.
 import * as Plot from "@observablehq/plot";
+import { useCallback } from "react";
 import { Link } from "react-router";
 import type { ErrorsAnswer } from "../../../shared/schemas/insight";
 import { Chart, type ChartSize } from "../../components/Chart";
@@ -19,7 +20,7 @@ export interface ParetoChartProps {
   selected?: string | null;
 }
 
-function paretoPlot(data: readonly ParetoRow[], { width }: ChartSize): Plot.PlotOptions {
+function paretoPlot(data: readonly ParetoRow[], { width }: ChartSize, examineHref: (row: ParetoRow) => string): Plot.PlotOptions {
   const rows = data as ParetoRow[];
   const total = rows.reduce((sum, row) => sum + row.count, 0) || 1;
   const narrow = width < 560;
@@ -32,7 +33,7 @@ function paretoPlot(data: readonly ParetoRow[], { width }: ChartSize): Plot.Plot
     x: { domain: rows.map((row) => row.error), tickFormat: (e: keyof typeof errorShortNames) => errorShortNames[e], tickRotate: narrow ? -40 : 0, label: null },
     y: { domain: [0, total], label: "Attempts with the error", grid: true, nice: false },
     marks: [
-      Plot.barY(rows, { x: "error", y: "count", fill: dusk[600], title: (row: ParetoRow) => `${errorShortNames[row.error]}: ${row.count}` }),
+      Plot.barY(rows, { x: "error", y: "count", fill: dusk[600], title: (row: ParetoRow) => `${errorShortNames[row.error]}: ${row.count}`, href: examineHref }),
       // counts sit inside tall bars (the first bar's top is also the first point of the line) and above short ones
       Plot.text(rows, { x: "error", y: "count", text: (row: ParetoRow) => String(row.count), dy: 10, fill: "white", fontWeight: 600, filter: (row: ParetoRow) => row.count >= total * 0.08 }),
       Plot.text(rows, { x: "error", y: "count", text: (row: ParetoRow) => String(row.count), dy: -7, fill: "#1C1B2E", filter: (row: ParetoRow) => row.count < total * 0.08 }),
@@ -45,6 +46,8 @@ function paretoPlot(data: readonly ParetoRow[], { width }: ChartSize): Plot.Plot
 }
 
 export function ParetoChart({ rows, attempts, examineHref, selected }: ParetoChartProps) {
+  // a bar opens its error's trend and breakdown, as the table's links do
+  const plot = useCallback((data: readonly ParetoRow[], size: ChartSize) => paretoPlot(data, size, examineHref), [examineHref]);
   const top = rows.filter((row) => row.count > 0);
   const totalErrors = rows.reduce((sum, row) => sum + row.count, 0);
   const needed = top.findIndex((row) => row.cumulativeShare >= 0.8);
@@ -85,7 +88,7 @@ export function ParetoChart({ rows, attempts, examineHref, selected }: ParetoCha
       data={rows}
       columns={columns}
       rowKey={(row) => row.error}
-      plot={paretoPlot}
+      plot={plot}
       exportFileName="error-pareto"
     />
   );

@@ -1,6 +1,8 @@
 // The error Pareto: how often each kind of error occurred, largest first, as bars of the share of all errors
 // counted, with the running total as a line, so the few errors that make up most of the problem stand out.
 import * as Plot from "@observablehq/plot";
+import { useCallback, useMemo } from "react";
+import { Link } from "react-router";
 import type { z } from "zod";
 import type { paretoRowSchema } from "../../../../shared/schemas/insight";
 import { Chart, type ChartSize } from "../../../components/Chart";
@@ -47,7 +49,7 @@ export const paretoColumns: Column<ParetoRow>[] = [
   { key: "attempts", header: "Share of attempts (%)", value: (r) => percentValue(r.attemptShare), render: (r) => formatPercent(r.attemptShare), align: "right" },
 ];
 
-const plot = (rows: readonly ParetoRow[], { width }: ChartSize): Plot.PlotOptions => {
+const paretoPlot = (rows: readonly ParetoRow[], { width }: ChartSize, examineHref?: (row: ParetoRow) => string): Plot.PlotOptions => {
   const labelled = rows.map((row) => ({ ...row, name: errorShortNames[row.error] }));
   return {
     height: Math.max(220, rows.length * 38 + 60),
@@ -57,7 +59,7 @@ const plot = (rows: readonly ParetoRow[], { width }: ChartSize): Plot.PlotOption
     x: { domain: [0, 1], tickFormat: percentTick, label: "Share of all errors counted", labelAnchor: "center", labelOffset: 38, grid: true, ticks: width < 700 ? 5 : 10 },
     y: { domain: labelled.map((row) => row.name), label: null, padding: 0.25 },
     marks: [
-      Plot.barX(labelled, { x: "share", y: "name", fill: ink.main, title: (r: ParetoRow) => `${r.label}: ${r.count} (${formatPercent(r.share)})` }),
+      Plot.barX(labelled, { x: "share", y: "name", fill: ink.main, title: (r: ParetoRow) => `${r.label}: ${r.count} (${formatPercent(r.share)})`, ...(examineHref ? { href: examineHref } : {}) }),
       // counts sit inside long bars (where the running-total line starts) and after short ones
       Plot.text(labelled.filter((r) => r.share >= 0.12), { x: "share", y: "name", text: (r: ParetoRow) => formatCount(r.count), dx: -6, textAnchor: "end", fill: "white", fontWeight: 600 }),
       Plot.text(labelled.filter((r) => r.share < 0.12), { x: "share", y: "name", text: (r: ParetoRow) => formatCount(r.count), dx: 6, textAnchor: "start", fill: ink.text }),
@@ -68,13 +70,36 @@ const plot = (rows: readonly ParetoRow[], { width }: ChartSize): Plot.PlotOption
   };
 };
 
-export function ErrorParetoChart({ rows, attempts, title = "Which errors matter most" }: { rows: readonly ParetoRow[]; attempts: number | null; title?: string }) {
+/** `examineHref`, for those who may drill down: each bar and table row opens the error's trend and breakdown. */
+export function ErrorParetoChart({ rows, attempts, title = "Which errors matter most", examineHref }: { rows: readonly ParetoRow[]; attempts: number | null; title?: string; examineHref?: (row: ParetoRow) => string }) {
+  const plot = useCallback((data: readonly ParetoRow[], size: ChartSize) => paretoPlot(data, size, examineHref), [examineHref]);
+  const columns = useMemo<Column<ParetoRow>[]>(
+    () =>
+      examineHref
+        ? [
+            ...paretoColumns,
+            {
+              key: "examine",
+              header: "Examine",
+              value: () => null,
+              sortable: false,
+              exportable: false,
+              render: (r) => (
+                <Link to={examineHref(r)} aria-label={`Trend and breakdown of “${r.label}”`} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+                  Trend and breakdown
+                </Link>
+              ),
+            },
+          ]
+        : paretoColumns,
+    [examineHref],
+  );
   return (
     <Chart
       title={title}
       description={describePareto(rows, attempts)}
       data={rows}
-      columns={paretoColumns}
+      columns={columns}
       rowKey={(r) => r.error}
       plot={plot}
       exportFileName="errors-pareto"
