@@ -199,3 +199,135 @@ export function releaseShows(release: Release, selects: (coords: readonly (strin
     return taken === 0 || (released && taken === coords.length);
   });
 }
+
+// ---------------------------------------------------------------------------------------------------------
+// The funder report family (docs/decisions/007-report-disclosure.md). Every report, quarter or year, shows
+// counts over one quarter or one calendar year: totals and breakdowns (patient type, display, course, error,
+// retention group). A count of one measure is therefore a sum of cells quarter × category, and the family is
+// judged once over all of them, as the pages' grid is: within each quarter the small cells of a breakdown are
+// pooled with that quarter's smallest cells; a quarter whose own total is small (or whose pool would give a
+// cell away) is pooled whole with the year's smallest other quarters. A count is shown only when it takes
+// every pool whole, so no difference of shown counts, within one report or across reports, is a small cell.
+
+/** One cell of a measure: its count in one quarter and one category of a breakdown. */
+export interface FamilyCell {
+  quarter: string;
+  category: string;
+  count: number;
+}
+
+/**
+ * The cells of one measure (attempts, classes, learners, …), each breakdown released of it listed over the same
+ * quarter totals. A measure released only as totals has one breakdown with one category.
+ */
+export type MeasureCells = Readonly<Record<string, readonly FamilyCell[]>>;
+
+interface QuarterPool {
+  quarter: string;
+  categories: Set<string>;
+}
+
+/** Which counts of one measure the family may show. */
+export interface MeasureRelease {
+  /** Pools inside one quarter, per breakdown: a count taking some of a pool's categories but not all is hidden. */
+  quarterPools: Readonly<Record<string, readonly QuarterPool[]>>;
+  /** Whole quarters pooled within their year: only a total taking all of them shows them; `released` false when even the year cannot. */
+  yearPools: readonly { quarters: ReadonlySet<string>; released: boolean }[];
+}
+
+/** A count a reader sees hidden lies in 1 … min − 1 ("fewer than min") or is at least min ("not shown"); zero reads "no data". */
+export function hiddenReasonOf(value: number, minCount: number): HiddenReason {
+  return value > 0 && isSmall(value, minCount) ? "small" : "protects-other";
+}
+
+const unsafeCount = (count: number, minCount: number) => count > 0 && isSmall(count, minCount);
+
+/**
+ * True when what a reader knows of a pool — its sum, and of each hidden value 1 … min − 1 ("fewer than") or at
+ * least min ("not shown") — leaves some member a single possible value.
+ */
+function poolPins(values: readonly number[], minCount: number): boolean {
+  const sum = values.reduce((total, value) => total + value, 0);
+  const bounds = values.map((value): [number, number] => (hiddenReasonOf(value, minCount) === "small" ? [1, minCount - 1] : [minCount, Number.POSITIVE_INFINITY]));
+  return bounds.some(([low, high], index) => {
+    const others = bounds.filter((_, other) => other !== index);
+    const feasibleLow = Math.max(low, sum - others.reduce((total, [, otherHigh]) => total + otherHigh, 0));
+    const feasibleHigh = Math.min(high, sum - others.reduce((total, [otherLow]) => total + otherLow, 0));
+    return feasibleLow === feasibleHigh;
+  });
+}
+
+/**
+ * Members and the pool grown from them: the smallest candidates join, in order, until the pool is safe and
+ * pins no member. Null when the candidates run out first.
+ */
+function growPool<T>(members: T[], candidates: T[], countOf: (item: T) => number, minCount: number): T[] | null {
+  const pool = [...members];
+  const rest = [...candidates].sort((a, b) => countOf(a) - countOf(b));
+  const unsafe = () => unsafeCount(pool.reduce((sum, item) => sum + countOf(item), 0), minCount) || poolPins(pool.map(countOf), minCount);
+  while (unsafe()) {
+    const next = rest.shift();
+    if (next === undefined) return null;
+    pool.push(next);
+  }
+  return pool;
+}
+
+/**
+ * Judges one measure for the whole family. Pools never span years, and stay inside one quarter unless the
+ * quarter itself is too small, so each quarter's report keeps its totals.
+ */
+export function releaseMeasure(cells: MeasureCells, minCount: number): MeasureRelease {
+  const breakdowns = Object.entries(cells);
+  const totals = new Map<string, number>();
+  for (const cell of breakdowns[0]?.[1] ?? []) totals.set(cell.quarter, (totals.get(cell.quarter) ?? 0) + cell.count);
+  const wholeQuarters = new Set([...totals].filter(([, total]) => unsafeCount(total, minCount)).map(([quarter]) => quarter));
+
+  const quarterPools: Record<string, QuarterPool[]> = {};
+  for (const [name, list] of breakdowns) {
+    quarterPools[name] = [];
+    const byQuarter = new Map<string, FamilyCell[]>();
+    for (const cell of list) {
+      const quarterCells = byQuarter.get(cell.quarter);
+      if (quarterCells) quarterCells.push(cell);
+      else byQuarter.set(cell.quarter, [cell]);
+    }
+    for (const [quarter, quarterCells] of [...byQuarter].sort(([a], [b]) => (a < b ? -1 : 1))) {
+      const small = quarterCells.filter((cell) => unsafeCount(cell.count, minCount));
+      if (small.length === 0 || wholeQuarters.has(quarter)) continue;
+      const safe = quarterCells.filter((cell) => cell.count >= minCount);
+      const pool = growPool(small, safe, (cell) => cell.count, minCount);
+      // the quarter cannot protect its own small cells: its total is pooled with the year instead
+      if (pool === null) wholeQuarters.add(quarter);
+      else quarterPools[name].push({ quarter, categories: new Set(pool.map((cell) => cell.category)) });
+    }
+  }
+
+  const yearPools: MeasureRelease["yearPools"][number][] = [];
+  const years = new Set([...wholeQuarters].map((quarter) => quarter.slice(0, 4)));
+  for (const year of [...years].sort()) {
+    const members = [...wholeQuarters].filter((quarter) => quarter.startsWith(year));
+    const others = [...totals.keys()].filter((quarter) => quarter.startsWith(year) && !wholeQuarters.has(quarter) && totals.get(quarter)! > 0);
+    const pool = growPool(members, others, (quarter) => totals.get(quarter)!, minCount);
+    yearPools.push({ quarters: new Set(pool ?? [...members, ...others]), released: pool !== null });
+  }
+  for (const name of Object.keys(quarterPools)) {
+    quarterPools[name] = quarterPools[name].filter((pool) => !yearPools.some((year) => year.quarters.has(pool.quarter)));
+  }
+  return { quarterPools, yearPools };
+}
+
+/**
+ * Whether the count over `quarters` (one quarter or a year's) of `category` in `breakdown` — or of every
+ * category when `category` is null — takes every pool whole and nothing withheld.
+ */
+export function measureShows(release: MeasureRelease, quarters: readonly string[], breakdown: string, category: string | null): boolean {
+  const taken = new Set(quarters);
+  for (const pool of release.yearPools) {
+    const inside = [...pool.quarters].filter((quarter) => taken.has(quarter)).length;
+    if (inside === 0) continue;
+    if (!pool.released || category !== null || inside < pool.quarters.size) return false;
+  }
+  if (category === null) return true;
+  return !(release.quarterPools[breakdown] ?? []).some((pool) => taken.has(pool.quarter) && pool.categories.has(category));
+}
