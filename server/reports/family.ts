@@ -103,6 +103,8 @@ export function decideFamily(cells: FamilyCells, minCount: number): FamilyReleas
   ) as Record<FamilyMeasure, MeasureRelease>;
   return {
     hidden(measure, quarters, value, breakdown = FAMILY_MEASURES[measure][0], category = null) {
+      // an empty count holds no one, and no pool counts on an empty cell, so "no data" never gives anything away
+      if (value === 0) return null;
       return measureShows(releases[measure], quarters, breakdown, category) ? null : hiddenReasonOf(value, minCount);
     },
   };
