@@ -132,9 +132,11 @@ export function releaseShows(release: Release, selects: (coords: readonly (strin
 // counts over one quarter or one calendar year: totals and breakdowns (patient type, display, course, error,
 // retention group). A count of one measure is therefore a sum of cells quarter × category, and the family is
 // judged once over all of them, as the pages' grid is: within each quarter the small cells of a breakdown are
-// pooled with that quarter's smallest cells; a quarter whose own total is small (or whose pool would give a
-// cell away) is pooled whole with the year's smallest other quarters. A count is shown only when it takes
-// every pool whole, so no difference of shown counts, within one report or across reports, is a small cell.
+// pooled with that quarter's smallest other cells; a quarter whose own total is small (or that cannot pool its
+// small cells) is withheld whole. A count is shown only when it takes every pool whole and no withheld
+// quarter, so no difference of shown counts, within one report or across reports, is a small cell. Each
+// quarter is judged on its own cells alone, so a quarter's decision does not change when later quarters
+// arrive, and versions released earlier stay consistent with later ones.
 
 /** One cell of a measure: its count in one quarter and one category of a breakdown. */
 export interface FamilyCell {
@@ -158,8 +160,8 @@ interface QuarterPool {
 export interface MeasureRelease {
   /** Pools inside one quarter, per breakdown: a count taking some of a pool's categories but not all is hidden. */
   quarterPools: Readonly<Record<string, readonly QuarterPool[]>>;
-  /** Whole quarters pooled within their year: only a total taking all of them shows them; `released` false when even the year cannot. */
-  yearPools: readonly { quarters: ReadonlySet<string>; released: boolean }[];
+  /** Quarters too small to protect (their total, or a breakdown's small cells): every count taking any of their cells is hidden. */
+  withheld: ReadonlySet<string>;
 }
 
 /** A count a reader sees hidden lies in 1 … min − 1 ("fewer than min") or is at least min ("not shown"); zero reads "no data". */
@@ -185,13 +187,13 @@ function poolPins(values: readonly number[], minCount: number): boolean {
 }
 
 /**
- * Members and the pool grown from them: the smallest candidates join, in order, until the pool is safe and
- * pins no member. Null when the candidates run out first.
+ * The small cells and the pool grown from them: the smallest candidates join, in order, until the pool is safe
+ * and pins no member. Null when the candidates run out first.
  */
-function growPool<T>(members: T[], candidates: T[], countOf: (item: T) => number, minCount: number): T[] | null {
-  const pool = [...members];
-  const rest = [...candidates].sort((a, b) => countOf(a) - countOf(b));
-  const unsafe = () => unsafeCount(pool.reduce((sum, item) => sum + countOf(item), 0), minCount) || poolPins(pool.map(countOf), minCount);
+function growPool(small: readonly FamilyCell[], candidates: readonly FamilyCell[], minCount: number): FamilyCell[] | null {
+  const pool = [...small];
+  const rest = [...candidates].sort((a, b) => a.count - b.count);
+  const unsafe = () => unsafeCount(pool.reduce((sum, cell) => sum + cell.count, 0), minCount) || poolPins(pool.map((cell) => cell.count), minCount);
   while (unsafe()) {
     const next = rest.shift();
     if (next === undefined) return null;
@@ -201,14 +203,14 @@ function growPool<T>(members: T[], candidates: T[], countOf: (item: T) => number
 }
 
 /**
- * Judges one measure for the whole family. Pools never span years, and stay inside one quarter unless the
- * quarter itself is too small, so each quarter's report keeps its totals.
+ * Judges one measure for the whole family. Pools stay inside one quarter and are made from its cells alone,
+ * so each quarter's report keeps its total and its decision never depends on another quarter.
  */
 export function releaseMeasure(cells: MeasureCells, minCount: number): MeasureRelease {
   const breakdowns = Object.entries(cells);
   const totals = new Map<string, number>();
   for (const cell of breakdowns[0]?.[1] ?? []) totals.set(cell.quarter, (totals.get(cell.quarter) ?? 0) + cell.count);
-  const wholeQuarters = new Set([...totals].filter(([, total]) => unsafeCount(total, minCount)).map(([quarter]) => quarter));
+  const withheld = new Set([...totals].filter(([, total]) => unsafeCount(total, minCount)).map(([quarter]) => quarter));
 
   const quarterPools: Record<string, QuarterPool[]> = {};
   for (const [name, list] of breakdowns) {
@@ -219,42 +221,25 @@ export function releaseMeasure(cells: MeasureCells, minCount: number): MeasureRe
       if (quarterCells) quarterCells.push(cell);
       else byQuarter.set(cell.quarter, [cell]);
     }
-    for (const [quarter, quarterCells] of [...byQuarter].sort(([a], [b]) => (a < b ? -1 : 1))) {
+    for (const [quarter, quarterCells] of byQuarter) {
       const small = quarterCells.filter((cell) => unsafeCount(cell.count, minCount));
-      if (small.length === 0 || wholeQuarters.has(quarter)) continue;
-      const safe = quarterCells.filter((cell) => cell.count >= minCount);
-      const pool = growPool(small, safe, (cell) => cell.count, minCount);
-      // the quarter cannot protect its own small cells: its total is pooled with the year instead
-      if (pool === null) wholeQuarters.add(quarter);
+      if (small.length === 0 || withheld.has(quarter)) continue;
+      const pool = growPool(small, quarterCells.filter((cell) => cell.count >= minCount), minCount);
+      // the quarter's total would pin its own small cells: nothing of the quarter can be shown
+      if (pool === null) withheld.add(quarter);
       else quarterPools[name].push({ quarter, categories: new Set(pool.map((cell) => cell.category)) });
     }
   }
-
-  const yearPools: MeasureRelease["yearPools"][number][] = [];
-  const years = new Set([...wholeQuarters].map((quarter) => quarter.slice(0, 4)));
-  for (const year of [...years].sort()) {
-    const members = [...wholeQuarters].filter((quarter) => quarter.startsWith(year));
-    const others = [...totals.keys()].filter((quarter) => quarter.startsWith(year) && !wholeQuarters.has(quarter) && totals.get(quarter)! > 0);
-    const pool = growPool(members, others, (quarter) => totals.get(quarter)!, minCount);
-    yearPools.push({ quarters: new Set(pool ?? [...members, ...others]), released: pool !== null });
-  }
-  for (const name of Object.keys(quarterPools)) {
-    quarterPools[name] = quarterPools[name].filter((pool) => !yearPools.some((year) => year.quarters.has(pool.quarter)));
-  }
-  return { quarterPools, yearPools };
+  for (const name of Object.keys(quarterPools)) quarterPools[name] = quarterPools[name].filter((pool) => !withheld.has(pool.quarter));
+  return { quarterPools, withheld };
 }
 
 /**
  * Whether the count over `quarters` (one quarter or a year's) of `category` in `breakdown` — or of every
- * category when `category` is null — takes every pool whole and nothing withheld.
+ * category when `category` is null — takes every pool whole and no withheld quarter.
  */
 export function measureShows(release: MeasureRelease, quarters: readonly string[], breakdown: string, category: string | null): boolean {
-  const taken = new Set(quarters);
-  for (const pool of release.yearPools) {
-    const inside = [...pool.quarters].filter((quarter) => taken.has(quarter)).length;
-    if (inside === 0) continue;
-    if (!pool.released || category !== null || inside < pool.quarters.size) return false;
-  }
+  if (quarters.some((quarter) => release.withheld.has(quarter))) return false;
   if (category === null) return true;
-  return !(release.quarterPools[breakdown] ?? []).some((pool) => taken.has(pool.quarter) && pool.categories.has(category));
+  return !(release.quarterPools[breakdown] ?? []).some((pool) => quarters.includes(pool.quarter) && pool.categories.has(category));
 }

@@ -233,7 +233,11 @@ async function plantNetwork() {
   klass("2026-Q3", "2026-08-13", "infant", [pass, pass, shallow, shallow, pass, shallow]);
   klass("2026-Q3", "2026-08-14", "adult", Array.from({ length: 30 }, (_, i) => (i % 3 ? pass : shallow)));
   const app = makeTestApp(db);
-  return { db, coordinator: await signIn(app, "coord@test.example"), funder: await signIn(app, "funder@test.example") };
+  /** More class logs without attempts, as a later import brings them. */
+  const addClasses = (quarter: string, date: string, course: "child" | "adult", count: number) => {
+    for (let i = 0; i < count; i++) klass(quarter, date, course);
+  };
+  return { db, addClasses, coordinator: await signIn(app, "coord@test.example"), funder: await signIn(app, "funder@test.example") };
 }
 
 describe("the planted network", () => {
@@ -281,6 +285,31 @@ describe("the planted network", () => {
       expect(preview).toEqual(JSON.parse(JSON.stringify(built)));
     }
   });
+});
+
+describe("a quarter that arrives after reports were released", () => {
+  it("leaves every version released before it consistent with those after it: nothing to solve for", async () => {
+    const planted = await plantNetwork();
+    try {
+      planted.addClasses("2027-Q1", "2027-02-09", "adult", 8);
+      planted.addClasses("2027-Q1", "2027-02-10", "child", 6);
+      const before = truthOf(planted.db);
+      const early = await releasedToFunder(planted.coordinator, planted.funder, ["2027-Q1", "2027"]);
+      // a thin quarter: 3 classes. Pooling it with 2027-Q1 would now hide that quarter's 14, already released
+      planted.addClasses("2027-Q2", "2027-05-11", "adult", 3);
+      const after = truthOf(planted.db);
+      const late = await releasedToFunder(planted.coordinator, planted.funder, ["2027-Q1", "2027-Q2", "2027"]);
+      const year = (released: typeof early) => released.find((r) => r.data.period === "2027")!.data.reach.classes;
+      expect(year(early).value).toBe(14);
+      expect(year(late)).toMatchObject({ value: null, hidden: "protects-other" });
+      expect(late.find((r) => r.data.period === "2027-Q1")!.data.reach.classes.value).toBe(14);
+      // each version's counts as the cells they summed when it was made; 2027-Q1's cells did not change since
+      const shown = [...early.flatMap(({ data }) => figuresOf(data, before)), ...late.flatMap(({ data }) => figuresOf(data, after))];
+      expect(attack(after, shown)).toEqual([]);
+    } finally {
+      planted.db.$client.close();
+    }
+  }, 60_000);
 });
 
 // ------------------------------------------------------------------------------------------------------

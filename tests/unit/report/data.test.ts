@@ -29,10 +29,10 @@ describe("report data for 2026-Q3", () => {
     expect(q3.reach.sites).toEqual({ value: 2, hidden: null, text: "2" });
   });
 
-  it("hides this quarter's 6 classes, since the year's 7 less them would be 2026-Q2's single class", () => {
-    expect(q3.reach.classes).toEqual({ value: null, hidden: "protects-other", text: "not shown" });
+  it("shows this quarter's 6 classes and hides the year's 7, which less them would be 2026-Q2's single class", () => {
+    expect(q3.reach.classes).toEqual({ value: 6, hidden: null, text: "6" });
     expect(buildReportData(db, "2026-Q2").reach.classes).toEqual({ value: null, hidden: "small", text: "fewer than 5" });
-    expect(buildReportData(db, "2026").reach.classes).toEqual({ value: 7, hidden: null, text: "7" });
+    expect(buildReportData(db, "2026").reach.classes).toEqual({ value: null, hidden: "protects-other", text: "not shown" });
   });
 
   it("splits learners by course: infant (3) hidden with child (6), no all-ages learners reads \"no data\"", () => {
@@ -213,7 +213,7 @@ describe("narrative", () => {
     expect(text).toContain("65.0 % of measured attempts met the network's pass rule (95 % interval 49.5–77.9 %)");
     expect(text).toContain("the pass rate rose from 30.0 % to 65.0 %");
     expect(text).toContain("That is no clear change from the same quarter last year (60.0 %)");
-    expect(text).toContain("fewer than 5 instructors at 2 sites ran a number of classes not shown here for 48 learners");
+    expect(text).toContain("fewer than 5 instructors at 2 sites ran 6 classes for 48 learners");
     expect(text).toContain("moderate agreement");
     // like with like: 42 of 48 learners recorded as completing against 26 of 40 learners passing at least once
     expect(text).toContain("Instructors recorded 87.5 % of learners as completing the course; on the manikin, 65.0 % of the learners measured passed at least once.");
@@ -229,6 +229,8 @@ describe("other periods", () => {
     expect(year.comparisons).toHaveLength(1);
     expect(year.comparisons[0]).toMatchObject({ period: "2025", passRate: { value: 0.6 } });
     expect(year.trend.points.at(-1)!.quarter).toBe("2026-Q4");
+    // the year's classes hide to protect 2026-Q2's single class, and the words say so without a number
+    expect(year.narrative[0]).toContain("ran a number of classes not shown here for 68 learners");
   });
 
   it("says plainly when a period has no data", () => {

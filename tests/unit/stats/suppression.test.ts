@@ -51,27 +51,31 @@ describe("releaseMeasure (the funder report family)", () => {
     expect(shows(["2026-Q1"], null) && shows(YEAR, null)).toBe(true);
   });
 
-  it("pools a quarter whose own total is small with the year's smallest other quarter, keeping the year's total", () => {
+  it("withholds a quarter whose own total is small, and every count of its year, leaving the other quarters alone", () => {
     const release = releaseMeasure({ total: cellsOf({ "2026-Q1": [40], "2026-Q2": [9], "2026-Q3": [3], "2026-Q4": [0] }) }, MIN);
     const shows = (quarters: string[]) => measureShows(release, quarters, "total", null);
-    expect(YEAR.map((q) => shows([q]))).toEqual([true, false, false, true]);
-    expect(shows(YEAR)).toBe(true);
-    // another year is not touched
+    expect(YEAR.map((q) => shows([q]))).toEqual([true, true, false, true]);
+    // the year less 2026-Q1, Q2 and Q4 would be 2026-Q3's 3
+    expect(shows(YEAR)).toBe(false);
     expect(shows(["2025-Q3"])).toBe(true);
   });
 
-  it("withholds a year too small to protect its quarters, and every count that touches it", () => {
-    const release = releaseMeasure({ total: cellsOf({ "2025-Q1": [2], "2025-Q2": [1], "2026-Q1": [30] }) }, MIN);
-    expect(measureShows(release, ["2025-Q1", "2025-Q2", "2025-Q3", "2025-Q4"], "total", null)).toBe(false);
-    expect(measureShows(release, ["2026-Q1"], "total", null)).toBe(true);
+  it("decides each quarter from its own cells, so a quarter added later changes no earlier quarter", () => {
+    const before = releaseMeasure({ course: cellsOf({ "2026-Q1": [30, 12, 3], "2026-Q2": [20, 6, 6] }) }, MIN);
+    const after = releaseMeasure({ course: cellsOf({ "2026-Q1": [30, 12, 3], "2026-Q2": [20, 6, 6], "2026-Q3": [2, 0, 1] }) }, MIN);
+    for (const quarter of ["2026-Q1", "2026-Q2"]) {
+      for (const category of [null, "a", "b", "c"]) {
+        expect(measureShows(after, [quarter], "course", category)).toBe(measureShows(before, [quarter], "course", category));
+      }
+    }
   });
 
-  it("hides the whole quarter's breakdown of a measure when one breakdown cannot pool its small cells", () => {
-    // 4 + 4 = 8 with both "fewer than 5" pins each at 4: the quarter goes to the year, in both breakdowns
+  it("withholds the quarter when one breakdown cannot pool its small cells, in every breakdown of the measure", () => {
+    // 4 + 4 = 8 with both "fewer than 5" pins each at 4
     const release = releaseMeasure({ first: cellsOf({ "2026-Q1": [4, 4], "2026-Q2": [20, 20] }), second: cellsOf({ "2026-Q1": [8, 0], "2026-Q2": [30, 10] }) }, MIN);
     expect(measureShows(release, ["2026-Q1"], "first", null)).toBe(false);
     expect(measureShows(release, ["2026-Q1"], "second", "a")).toBe(false);
-    expect(measureShows(release, YEAR, "second", null)).toBe(true);
+    expect(measureShows(release, ["2026-Q2"], "second", "a")).toBe(true);
   });
 
   it("labels a hidden count by its own size: 1–4 'small', anything else 'protects-other'", () => {
@@ -101,7 +105,7 @@ describe("releaseMeasure (the funder report family)", () => {
     fc.assert(
       fc.property(fc.array(fc.oneof(fc.constant(0), fc.integer({ min: MIN, max: 60 })), { minLength: 1, maxLength: 6 }), (values) => {
         const release = releaseMeasure({ only: cellsOf({ "2026-Q1": values, "2026-Q3": [...values].reverse() }) }, MIN);
-        expect(release.yearPools).toEqual([]);
+        expect(release.withheld.size).toBe(0);
         expect(release.quarterPools.only).toEqual([]);
       }),
     );
