@@ -165,13 +165,13 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
   const errorTotalShown = errorsHidden(errorTotal) === null;
   let prefixShown = errorTotalShown;
   const errorRows: ErrorRow[] = paretoRows.map((row) => {
-    const hidden = errorTotalShown ? errorsHidden(row.count, "error", row.name) : hiddenReasonOf(row.count, min);
+    const hidden = errorsHidden(row.count, "error", row.name);
     prefixShown = prefixShown && hidden === null;
     return {
       name: row.name,
       label: errorLabels[row.name as keyof typeof errorLabels] ?? row.name,
       count: countFigure(row.count, min, hidden),
-      share: hidden === null ? row.share : null,
+      share: errorTotalShown && hidden === null ? row.share : null,
       cumulativeShare: prefixShown ? row.cumulativeShare : null,
     };
   });
