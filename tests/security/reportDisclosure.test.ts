@@ -10,7 +10,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Test } from "supertest";
 import { courseTypes } from "../../shared/domain";
 import { quartersOf, parsePeriod } from "../../shared/period";
-import type { CountFigure, ReportData } from "../../shared/schemas/report";
+import type { CountFigure, HiddenReason, ReportData } from "../../shared/schemas/report";
 import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
 import { openDatabase, type Db } from "../../server/db/client";
 import { retentionBins, retentionByQuarter } from "../../server/metrics/retention";
@@ -21,6 +21,7 @@ import { buildDirectory } from "../../server/demo/directory";
 import { DEMO_SCENARIO } from "../../server/demo/scenario";
 import { makeTestApp, makeTestDb, signIn, tempDbFile, type Agent } from "../helpers/testApp";
 import { insertClass, seedInsightNetwork, type Spec } from "../fixtures/insight/network";
+import { propagateBounds, type BoundedSum } from "./boundsSolver";
 import { derivableUnsafeGroups, type TruthCell } from "./disclosureSolver";
 
 const MIN = 5;
@@ -74,17 +75,19 @@ function cellsOf(truth: Truth, measure: string, quarters: readonly string[], cat
 // ------------------------------------------------------------------------------------------------------
 // Every count a report shows, as the cells it sums
 
+/** A count a report shows (value), or hides with a label that still bounds it (hidden). */
 interface Shown {
   measure: string;
   cells: string[];
-  value: number;
+  value: number | null;
+  hidden: HiddenReason | null;
   where: string;
 }
 
 function figuresOf(data: ReportData, truth: Truth): Shown[] {
   const shown: Shown[] = [];
   const put = (figure: CountFigure, measure: string, quarters: readonly string[], where: string, category?: (parts: string[]) => boolean) => {
-    if (figure.value !== null) shown.push({ measure, cells: cellsOf(truth, measure, quarters, category), value: figure.value, where: `${data.period} ${where}` });
+    shown.push({ measure, cells: cellsOf(truth, measure, quarters, category), value: figure.value, hidden: figure.hidden, where: `${data.period} ${where}` });
   };
   const q = data.quarters;
   put(data.reach.attempts, "attempts", q, "attempts");
@@ -103,7 +106,9 @@ function figuresOf(data: ReportData, truth: Truth): Shown[] {
   for (const row of data.errors.rows) put(row.count, "errors", q, `error ${row.name}`, ([name]) => name === row.name);
   // a share of all errors gives that total away: count ÷ share
   const withShare = data.errors.rows.find((row) => row.share !== null && row.share > 0 && row.count.value !== null);
-  if (withShare) shown.push({ measure: "errors", cells: cellsOf(truth, "errors", q), value: Math.round(withShare.count.value! / withShare.share!), where: `${data.period} errors total` });
+  if (withShare) {
+    shown.push({ measure: "errors", cells: cellsOf(truth, "errors", q), value: Math.round(withShare.count.value! / withShare.share!), hidden: null, where: `${data.period} errors total` });
+  }
   put(data.errors.attemptsWithErrors, "withErrors", q, "attempts with errors");
   put(data.reach.classes, "classes", q, "classes");
   put(data.reach.learners, "learners", q, "learners");
@@ -119,8 +124,13 @@ function figuresOf(data: ReportData, truth: Truth): Shown[] {
   return shown;
 }
 
-/** Every count shown equals its cells' sum (so the model is the one the reports use); then the solve. */
-function attack(truth: Truth, shown: readonly Shown[]) {
+/**
+ * Every count shown equals its cells' sum (so the model is the one the reports use); then the solve: the
+ * linear one, and the labels' bounds propagated over the same sums. `smallFrom` is the least a "fewer than"
+ * count can be: 1 where zero reads "no data", 0 where zero was hidden too.
+ */
+function attack(truth: Truth, figures: readonly Shown[], smallFrom = 1) {
+  const shown = figures.filter((figure): figure is Shown & { value: number } => figure.value !== null);
   for (const figure of shown) {
     const sum = figure.cells.reduce((total, key) => total + truth.get(key)!, 0);
     expect({ where: figure.where, value: figure.value }).toEqual({ where: figure.where, value: sum });
@@ -133,7 +143,25 @@ function attack(truth: Truth, shown: readonly Shown[]) {
     const sets = shown.filter((figure) => figure.measure === measure && figure.cells.length > 0);
     // counts cannot be negative: a shown zero says each of its cells is zero
     const zeros = sets.filter((figure) => figure.value === 0).flatMap((figure) => figure.cells.map((key) => [key]));
-    return derivableUnsafeGroups(cells, [...sets.map((figure) => figure.cells), ...zeros], { minCount: MIN, minInstructors: 1 });
+    const linear = derivableUnsafeGroups(cells, [...sets.map((figure) => figure.cells), ...zeros], { minCount: MIN, minInstructors: 1 });
+    const sums: BoundedSum[] = figures
+      .filter((figure) => figure.measure === measure && figure.cells.length > 0)
+      .map((figure) =>
+        figure.value !== null
+          ? { cells: figure.cells, low: figure.value, high: figure.value }
+          : figure.hidden === "small"
+            ? { cells: figure.cells, low: smallFrom, high: MIN - 1 }
+            : { cells: figure.cells, low: MIN, high: Number.POSITIVE_INFINITY },
+      );
+    const bounds = propagateBounds(
+      cells.map((cell) => cell.key),
+      sums,
+    );
+    const pinned = [...bounds]
+      .filter(([key, [low, high]]) => low === high && truth.get(key)! > 0 && truth.get(key)! < MIN)
+      .map(([key]) => ({ cells: [key] }))
+      .filter((found) => !linear.some((leak) => leak.cells.length === 1 && leak.cells[0] === found.cells[0]));
+    return [...linear, ...pinned];
   });
 }
 
@@ -185,11 +213,11 @@ function earlierRuleFigures(truth: Truth, periods: readonly string[]): Shown[] {
     const quarters = quartersOf(parsePeriod(period)!);
     const sum = (cells: string[]) => cells.reduce((total, key) => total + truth.get(key)!, 0);
     const total = cellsOf(truth, "classes", quarters);
-    if (sum(total) >= MIN) shown.push({ measure: "classes", cells: total, value: sum(total), where: `${period} classes` });
+    if (sum(total) >= MIN) shown.push({ measure: "classes", cells: total, value: sum(total), hidden: null, where: `${period} classes` });
     const byCourse = courseTypes.map((course) => cellsOf(truth, "classes", quarters, ([c]) => c === course));
     const hidden = perReportBreakdown(byCourse.map(sum));
     byCourse.forEach((cells, i) => {
-      if (!hidden[i]) shown.push({ measure: "classes", cells, value: sum(cells), where: `${period} classes ${courseTypes[i]}` });
+      if (!hidden[i]) shown.push({ measure: "classes", cells, value: sum(cells), hidden: null, where: `${period} classes ${courseTypes[i]}` });
     });
   }
   return shown;
@@ -239,6 +267,24 @@ async function plantNetwork() {
   };
   return { db, addClasses, coordinator: await signIn(app, "coord@test.example"), funder: await signIn(app, "funder@test.example") };
 }
+
+describe("the labels' bounds", () => {
+  it("pin a cell that the sums alone leave open, as a reader does by hand (so the bounds attack can fail)", () => {
+    // a quarter's hidden child (fewer than 5) and infant (not shown) cells add up to 8; the year's infant
+    // count less the other quarters' shown ones gives this quarter's infant 5, and so child 3 — the earlier
+    // rule's 2025-Q2 child classes on the demo network, found the same way
+    const sums: BoundedSum[] = [
+      { cells: ["child", "infant"], low: 8, high: 8 },
+      { cells: ["child"], low: 0, high: MIN - 1 },
+      { cells: ["infant"], low: MIN, high: Number.POSITIVE_INFINITY },
+      { cells: ["infant", "infant elsewhere"], low: 15, high: 15 },
+      { cells: ["infant elsewhere"], low: 10, high: 10 },
+    ];
+    expect(propagateBounds(["child", "infant", "infant elsewhere"], sums).get("child")).toEqual([3, 3]);
+    // without the year's infant count, child is only known to be 0 to 3
+    expect(propagateBounds(["child", "infant"], sums.slice(0, 3)).get("child")).toEqual([0, 3]);
+  });
+});
 
 describe("the planted network", () => {
   let planted: Awaited<ReturnType<typeof plantNetwork>>;
