@@ -1,9 +1,10 @@
 // The attacker's view of the funder report family: a funder holds every released report, each quarter's and
 // each year's, as the API gives them. Every count they show is a sum over cells quarter × category of one
 // measure (attempts by patient type × display, judged attempts, errors, attempts with errors, classes and
-// learners by course, retention groups); a count shown as "no data" also says each of its cells is zero. The
-// attack solves those equations for hidden small cells (./disclosureSolver: is a cell's indicator in the row
-// space of the shown counts?). On the demo network and on a planted network whose small cells the earlier
+// learners by course, retention groups); a count shown as "no data" also says each of its cells is zero, and
+// a hidden one's label bounds it. The attack solves those equations for hidden small cells
+// (./disclosureSolver: is a cell's indicator in the row space of the shown counts?) and propagates the
+// labels' bounds over them (./boundsSolver). On the demo network and on a planted network whose small cells the earlier
 // per-report rule gave away by subtracting quarters from their year, it finds none; the earlier rule, applied
 // to the same planted network, is shown to leak, so the attack can fail.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
