@@ -1,89 +1,16 @@
 // Small-cell suppression: the one module that decides what instructors and funders may not see, for the
 // pages' API and the funder report alike. Pure: numbers in, decisions out.
 //
-// Primary suppression: a count below the network's smallest group shown (policy.suppressionMinCount) is
-// hidden, and so is every rate made from fewer than that many. The pages count only other people's attempts
-// (a viewer knows their own) and show an empty group (nothing of anyone's reveals nothing); the report
-// hides every count below the threshold.
-// Complementary suppression: in a breakdown whose total is shown, total minus the shown cells equals the sum
-// of the hidden cells. One hidden cell would be given away at once, and even several can be pinned down
-// (two hidden cells of a breakdown with threshold 5 whose remainder is 8 must both be 4). So while any hidden
-// cell can be worked out exactly, the smallest shown cell is hidden too; when none is left, the total goes.
-// A reader knows a "small" cell lies in 0 … min − 1 and a cell hidden to protect another is at least min, so
-// the check below uses exactly that knowledge.
+// Primary suppression: a count of 1 to min − 1 (policy.suppressionMinCount) describes a small group. The pages
+// count only other people's attempts (a viewer knows their own); an empty group reveals nothing anywhere.
+// Complementary suppression is never decided answer by answer, because two answers that are each safe can be
+// subtracted: the pages judge one released grid for every answer (releaseGrid), and the funder report judges
+// every count of every quarter's and year's report together (releaseMeasure).
 import type { HiddenReason } from "./schemas/report";
 
-export interface BreakdownSuppression {
-  cells: (HiddenReason | null)[];
-  total: HiddenReason | null;
-}
-
-/** Primary rule for one count: hidden when below the threshold. */
+/** Primary rule for one count: below the threshold. */
 export function isSmall(count: number, minCount: number): boolean {
   return minCount > 1 && count < minCount;
-}
-
-/**
- * Decides which cells of a breakdown to hide. `totalShown` says whether the report shows the total (or
- * anything that gives it away, such as shares of the total); without it, only the primary rule applies.
- */
-export function suppressBreakdown(values: readonly number[], minCount: number, totalShown = true): BreakdownSuppression {
-  for (const value of values) {
-    if (!Number.isInteger(value) || value < 0) throw new RangeError(`suppressBreakdown: counts must be whole numbers ≥ 0 (got ${value})`);
-  }
-  const cells: (HiddenReason | null)[] = values.map((value) => (isSmall(value, minCount) ? "small" : null));
-  const total = values.reduce((sum, value) => sum + value, 0);
-  let totalReason: HiddenReason | null = isSmall(total, minCount) ? "small" : null;
-  if (!totalShown || totalReason) return { cells, total: totalReason };
-
-  while (anyHiddenCellPinned(values, cells, minCount)) {
-    const next = smallestShownCell(values, cells);
-    if (next === -1) {
-      // every cell is hidden and the total still pins them: hide the total as well
-      totalReason = "protects-other";
-      break;
-    }
-    cells[next] = "protects-other";
-  }
-  return { cells, total: totalReason };
-}
-
-/** The shown cell with the smallest value; among equal values the last one, so hidden rows stay together at a sorted table's end. */
-function smallestShownCell(values: readonly number[], cells: readonly (HiddenReason | null)[]): number {
-  let best = -1;
-  values.forEach((value, index) => {
-    if (cells[index] !== null) return;
-    if (best === -1 || value <= values[best]) best = index;
-  });
-  return best;
-}
-
-/**
- * True when total minus the shown cells, together with what the labels say about each hidden cell, leaves
- * exactly one possible value for some hidden cell.
- */
-export function anyHiddenCellPinned(
-  values: readonly number[],
-  cells: readonly (HiddenReason | null)[],
-  minCount: number,
-): boolean {
-  const hidden = values.map((value, index) => ({ value, reason: cells[index] })).filter((cell) => cell.reason !== null);
-  if (hidden.length === 0) return false;
-  const remainder = hidden.reduce((sum, cell) => sum + cell.value, 0);
-  const bounds = hidden.map((cell) => knownBounds(cell.reason!, minCount));
-  return bounds.some(([low, high], index) => {
-    const others = bounds.filter((_, other) => other !== index);
-    const othersLow = others.reduce((sum, [otherLow]) => sum + otherLow, 0);
-    const othersHigh = others.reduce((sum, [, otherHigh]) => sum + otherHigh, 0);
-    const feasibleLow = Math.max(low, remainder - othersHigh);
-    const feasibleHigh = Math.min(high, remainder - othersLow);
-    return feasibleLow === feasibleHigh;
-  });
-}
-
-/** What a reader knows about a hidden cell from its label alone. */
-function knownBounds(reason: HiddenReason, minCount: number): [number, number] {
-  return reason === "small" ? [0, minCount - 1] : [minCount, Number.POSITIVE_INFINITY];
 }
 
 /** The pages' primary rule: a group holding some, but fewer than the threshold, of other people's attempts. */
@@ -198,4 +125,121 @@ export function releaseShows(release: Release, selects: (coords: readonly (strin
     const taken = coords.filter(selects).length;
     return taken === 0 || (released && taken === coords.length);
   });
+}
+
+// ---------------------------------------------------------------------------------------------------------
+// The funder report family (docs/decisions/007-report-disclosure.md). Every report, quarter or year, shows
+// counts over one quarter or one calendar year: totals and breakdowns (patient type, display, course, error,
+// retention group). A count of one measure is therefore a sum of cells quarter × category, and the family is
+// judged once over all of them, as the pages' grid is: within each quarter the small cells of a breakdown are
+// pooled with that quarter's smallest other cells; a quarter whose own total is small (or that cannot pool its
+// small cells) is withheld whole. A count is shown only when it takes every pool whole and no withheld
+// quarter, so no difference of shown counts, within one report or across reports, is a small cell. Each
+// quarter is judged on its own cells alone, so a quarter's decision does not change when later quarters
+// arrive, and versions released earlier stay consistent with later ones.
+
+/** One cell of a measure: its count in one quarter and one category of a breakdown. */
+export interface FamilyCell {
+  quarter: string;
+  category: string;
+  count: number;
+}
+
+/**
+ * The cells of one measure (attempts, classes, learners, …), each breakdown released of it listed over the same
+ * quarter totals. A measure released only as totals has one breakdown with one category.
+ */
+export type MeasureCells = Readonly<Record<string, readonly FamilyCell[]>>;
+
+interface QuarterPool {
+  quarter: string;
+  categories: Set<string>;
+}
+
+/** Which counts of one measure the family may show. */
+export interface MeasureRelease {
+  /** Pools inside one quarter, per breakdown: a count taking some of a pool's categories but not all is hidden. */
+  quarterPools: Readonly<Record<string, readonly QuarterPool[]>>;
+  /** Quarters too small to protect (their total, or a breakdown's small cells): every count taking any of their cells is hidden. */
+  withheld: ReadonlySet<string>;
+}
+
+/** A count a reader sees hidden lies in 1 … min − 1 ("fewer than min") or is at least min ("not shown"); zero reads "no data". */
+export function hiddenReasonOf(value: number, minCount: number): HiddenReason {
+  return value > 0 && isSmall(value, minCount) ? "small" : "protects-other";
+}
+
+const unsafeCount = (count: number, minCount: number) => count > 0 && isSmall(count, minCount);
+
+/**
+ * True when what a reader knows of a pool — its sum, and of each hidden value 1 … min − 1 ("fewer than") or at
+ * least min ("not shown") — leaves some member a single possible value.
+ */
+function poolPins(values: readonly number[], minCount: number): boolean {
+  const sum = values.reduce((total, value) => total + value, 0);
+  const bounds = values.map((value): [number, number] => (hiddenReasonOf(value, minCount) === "small" ? [1, minCount - 1] : [minCount, Number.POSITIVE_INFINITY]));
+  return bounds.some(([low, high], index) => {
+    const others = bounds.filter((_, other) => other !== index);
+    const feasibleLow = Math.max(low, sum - others.reduce((total, [, otherHigh]) => total + otherHigh, 0));
+    const feasibleHigh = Math.min(high, sum - others.reduce((total, [otherLow]) => total + otherLow, 0));
+    return feasibleLow === feasibleHigh;
+  });
+}
+
+/**
+ * The small cells and the pool grown from them: the smallest candidates join, in order, until the pool is safe
+ * and pins no member. Null when the candidates run out first.
+ */
+function growPool(small: readonly FamilyCell[], candidates: readonly FamilyCell[], minCount: number): FamilyCell[] | null {
+  const pool = [...small];
+  const rest = [...candidates].sort((a, b) => a.count - b.count);
+  const unsafe = () => unsafeCount(pool.reduce((sum, cell) => sum + cell.count, 0), minCount) || poolPins(pool.map((cell) => cell.count), minCount);
+  while (unsafe()) {
+    const next = rest.shift();
+    if (next === undefined) return null;
+    pool.push(next);
+  }
+  return pool;
+}
+
+/**
+ * Judges one measure for the whole family. Pools stay inside one quarter and are made from its cells alone,
+ * so each quarter's report keeps its total and its decision never depends on another quarter.
+ */
+export function releaseMeasure(cells: MeasureCells, minCount: number): MeasureRelease {
+  const breakdowns = Object.entries(cells);
+  const totals = new Map<string, number>();
+  for (const cell of breakdowns[0]?.[1] ?? []) totals.set(cell.quarter, (totals.get(cell.quarter) ?? 0) + cell.count);
+  const withheld = new Set([...totals].filter(([, total]) => unsafeCount(total, minCount)).map(([quarter]) => quarter));
+
+  const quarterPools: Record<string, QuarterPool[]> = {};
+  for (const [name, list] of breakdowns) {
+    quarterPools[name] = [];
+    const byQuarter = new Map<string, FamilyCell[]>();
+    for (const cell of list) {
+      const quarterCells = byQuarter.get(cell.quarter);
+      if (quarterCells) quarterCells.push(cell);
+      else byQuarter.set(cell.quarter, [cell]);
+    }
+    for (const [quarter, quarterCells] of byQuarter) {
+      const small = quarterCells.filter((cell) => unsafeCount(cell.count, minCount));
+      if (small.length === 0 || withheld.has(quarter)) continue;
+      const pool = growPool(small, quarterCells.filter((cell) => cell.count >= minCount), minCount);
+      // the quarter's total would pin its own small cells: nothing of the quarter can be shown
+      if (pool === null) withheld.add(quarter);
+      else quarterPools[name].push({ quarter, categories: new Set(pool.map((cell) => cell.category)) });
+    }
+  }
+  for (const name of Object.keys(quarterPools)) quarterPools[name] = quarterPools[name].filter((pool) => !withheld.has(pool.quarter));
+  return { quarterPools, withheld };
+}
+
+/**
+ * Whether the count over `quarters` (one quarter or a year's) of `category` in `breakdown` — or of every
+ * category when `category` is null — takes every pool whole and no withheld quarter.
+ */
+export function measureShows(release: MeasureRelease, quarters: readonly string[], breakdown: string, category: string | null): boolean {
+  if (quarters.some((quarter) => release.withheld.has(quarter))) return false;
+  if (category === null) return true;
+  return !(release.quarterPools[breakdown] ?? []).some((pool) => quarters.includes(pool.quarter) && pool.categories.has(category));
 }

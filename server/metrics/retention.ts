@@ -7,7 +7,7 @@
 // class of any kind, since a recertification follows the learner's last course whatever it practised.
 import { sql } from "drizzle-orm";
 import type { PatientType } from "../../shared/scoring/policy";
-import { quarterDates } from "../../shared/period";
+import { quarterDates, quarterOf } from "../../shared/period";
 import { retentionBins, type RetentionBin } from "../../shared/schemas/learners";
 import { wilsonInterval } from "../../shared/stats/wilson";
 import type { Db } from "../db/client";
@@ -48,11 +48,12 @@ function group(learners: number, passed: number): RetentionGroup {
   return { learners, passed, rate: learners === 0 ? null : passed / learners, ci95: wilsonInterval(passed, learners) };
 }
 
-export function retention(db: Db, from: string, to: string, profile: PatientType | null = null): Retention {
+/** Each learner–class pair of the quarters `from` to `to`: the class's date, whether its first attempt passed, and the learner's previous class date. */
+function retentionPairs(db: Db, from: string, to: string, profile: PatientType | null) {
   const first = quarterDates(from).first;
   const last = quarterDates(to).last;
   const ofProfile = profile === null ? sql`1` : sql`${attempts.profile} = ${profile}`;
-  const pairs = db.all<{ date: string; passed: number; previous_date: string | null }>(sql`
+  return db.all<{ date: string; passed: number; previous_date: string | null }>(sql`
     WITH firsts AS (
       SELECT ${attempts.learner} AS learner, ${attempts.classId} AS class_id, ${classes.date} AS date, ${attempts.passed} AS passed,
         row_number() OVER (PARTITION BY ${attempts.learner}, ${attempts.classId} ORDER BY ${attempts.startedAt}, ${attempts.id}) AS k
@@ -66,7 +67,9 @@ export function retention(db: Db, from: string, to: string, profile: PatientType
     SELECT p.date, p.passed,
       (SELECT max(q.date) FROM learner_classes q WHERE q.learner = p.learner AND q.date < p.date) AS previous_date
     FROM pairs p WHERE p.date BETWEEN ${first} AND ${last}`);
+}
 
+function retentionOf(pairs: ReturnType<typeof retentionPairs>): Retention {
   const firstTime = { learners: 0, passed: 0 };
   const byBin = new Map(retentionBins.map((bin) => [bin, { learners: 0, passed: 0 }]));
   for (const pair of pairs) {
@@ -78,4 +81,20 @@ export function retention(db: Db, from: string, to: string, profile: PatientType
     first_time: group(firstTime.learners, firstTime.passed),
     returning: retentionBins.map((months) => ({ months, ...group(byBin.get(months)!.learners, byBin.get(months)!.passed) })),
   };
+}
+
+export function retention(db: Db, from: string, to: string, profile: PatientType | null = null): Retention {
+  return retentionOf(retentionPairs(db, from, to, profile));
+}
+
+/** Retention of each quarter from `from` to `to` that has learner–class pairs, from one read (the funder report's disclosure control judges them all). */
+export function retentionByQuarter(db: Db, from: string, to: string): Map<string, Retention> {
+  const byQuarter = new Map<string, ReturnType<typeof retentionPairs>>();
+  for (const pair of retentionPairs(db, from, to, null)) {
+    const quarter = quarterOf(pair.date);
+    const list = byQuarter.get(quarter);
+    if (list) list.push(pair);
+    else byQuarter.set(quarter, [pair]);
+  }
+  return new Map([...byQuarter].map(([quarter, pairs]) => [quarter, retentionOf(pairs)]));
 }

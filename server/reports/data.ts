@@ -1,10 +1,12 @@
 // The funder report's content for one period: reach, measured pass rate with its interval, comparisons,
 // trend, common errors with the coordinator's actions, live vs hidden display, instructor agreement and
 // equipment use. Every figure passes through small-cell suppression here, so nothing downstream (web page,
-// PDF, e-mail, CSV) can show a hidden cell by mistake.
+// PDF, e-mail, CSV, API) can show a hidden cell by mistake; which counts hide is decided once for every report
+// of every period together (./family.ts), so no report can be subtracted from another to reveal one.
 import { eq } from "drizzle-orm";
 import { courseTypes, feedbackModes } from "../../shared/domain";
-import type { ErrorRow, GroupResult, RateFigure, ReportComparison, ReportData, TrendPoint } from "../../shared/schemas/report";
+import type { ErrorRow, GroupResult, HiddenReason, RateFigure, ReportComparison, ReportData, TrendPoint } from "../../shared/schemas/report";
+import { hiddenReasonOf } from "../../shared/suppression";
 import { comparisonPeriods, parsePeriod, periodMonths, quartersOf, trailingQuarters, type ReportPeriod } from "../../shared/period";
 import { GUIDELINE_SOURCES, SAFETY_NOTE, patientTypes, type NetworkPolicy } from "../../shared/scoring/policy";
 import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
@@ -15,10 +17,10 @@ import { currentPolicy } from "../policy/service";
 import { badRequest } from "../errors";
 import { getSetting } from "../settings/store";
 import { compareRates, differencePoints } from "./compare";
-import { countFigure, formatPoints, hiddenText, perHundredFigure, rateFigure } from "./figures";
+import { familyRelease, type FamilyBreakdown, type FamilyMeasure, type FamilyRelease } from "./family";
+import { countFigure, formatPoints, hiddenText, perHundredFigure, plainCount, rateFigure } from "./figures";
 import { writeNarrative } from "./narrative";
 import { passTallyByQuarter, reportNumbers, reportScope, type PassTally } from "./queries";
-import { suppressBreakdown } from "../../shared/suppression";
 import { courseTypeNames, errorLabels, feedbackNames, patientTypeNames, retentionGroupNames } from "../../shared/vocabulary";
 import { learnerOutcomes } from "../metrics/learnerOutcomes";
 import { retention } from "../metrics/retention";
@@ -47,36 +49,42 @@ function addTallies(tallies: PassTally[]): PassTally {
   return tallies.reduce((sum, t) => ({ attempts: sum.attempts + t.attempts, passed: sum.passed + t.passed }), { attempts: 0, passed: 0 });
 }
 
-/** Groups of attempts whose counts add up to the shown total: suppressed together. */
+/** The family's decision for one measure over the report's quarters. */
+function decisionOf(family: FamilyRelease, measure: FamilyMeasure, quarters: readonly string[]) {
+  return (value: number, breakdown?: FamilyBreakdown, category?: string | null) => family.hidden(measure, quarters, value, breakdown, category);
+}
+
+/** Groups of one breakdown (patient types, displays, retention groups): each count and its rate hidden as the family decided. */
 function groupResults(
   groups: { key: string; label: string; tally: PassTally }[],
   min: number,
-  totalShown: boolean,
+  hidden: (value: number, category: string) => HiddenReason | null,
 ): GroupResult[] {
-  const decision = suppressBreakdown(
-    groups.map((g) => g.tally.attempts),
-    min,
-    totalShown,
-  );
-  return groups.map((group, i) => ({
-    key: group.key,
-    label: group.label,
-    attempts: countFigure(group.tally.attempts, min, decision.cells[i]),
-    passRate: rateFigure(group.tally.passed, group.tally.attempts, min, decision.cells[i]),
-  }));
+  return groups.map((group) => {
+    const decided = hidden(group.tally.attempts, group.key);
+    return {
+      key: group.key,
+      label: group.label,
+      attempts: countFigure(group.tally.attempts, min, decided),
+      passRate: rateFigure(group.tally.passed, group.tally.attempts, min, decided),
+    };
+  });
 }
 
-/**
- * Retention as a network figure. The groups together make up the period's learner–class pairs, so they are
- * suppressed as a breakdown whose total could be known (shared/suppression.ts).
- */
-function retentionResults(db: Db, quarters: string[], min: number): NonNullable<ReportData["retention"]> {
+/** Retention as a network figure: learner–class pairs by group, one breakdown of the family's "retention" measure. */
+function retentionResults(db: Db, quarters: string[], min: number, family: FamilyRelease): NonNullable<ReportData["retention"]> {
   const answer = retention(db, quarters[0], quarters[quarters.length - 1]);
   const groups = [
     { key: "first_time", label: retentionGroupNames.first_time, tally: { attempts: answer.first_time.learners, passed: answer.first_time.passed } },
     ...answer.returning.map((bin) => ({ key: bin.months, label: retentionGroupNames[bin.months], tally: { attempts: bin.learners, passed: bin.passed } })),
   ];
-  const [firstTime, ...returning] = groupResults(groups, min, true).map((g) => ({ key: g.key, label: g.label, learners: g.attempts, firstAttemptPassRate: g.passRate }));
+  const hidden = decisionOf(family, "retention", quarters);
+  const [firstTime, ...returning] = groupResults(groups, min, (value, key) => hidden(value, "group", key)).map((g) => ({
+    key: g.key,
+    label: g.label,
+    learners: g.attempts,
+    firstAttemptPassRate: g.passRate,
+  }));
   return { firstTime, returning };
 }
 
@@ -100,38 +108,33 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
   const numbers = reportNumbers(db, quarters);
   const measuredLearners = learnerOutcomes(db, reportScope(quarters));
   const hasData = numbers.classes > 0 || numbers.attempts.attempts > 0;
+  const family = familyRelease(db, min);
+  const attemptsHidden = decisionOf(family, "attempts", quarters);
+  const classesHidden = decisionOf(family, "classes", quarters);
+  const learnersHidden = decisionOf(family, "learners", quarters);
 
   // Reach
-  const classes = countFigure(numbers.classes, min);
-  const learners = countFigure(numbers.learners, min);
-  const attemptsShown = countFigure(numbers.attempts.attempts, min);
-  const classSplit = suppressBreakdown(
-    courseTypes.map((c) => numbers.byCourse[c].classes),
-    min,
-    classes.hidden === null,
-  );
-  const learnerSplit = suppressBreakdown(
-    courseTypes.map((c) => numbers.byCourse[c].learners),
-    min,
-    learners.hidden === null,
-  );
-  const byCourse = courseTypes.map((course, i) => ({
+  const classes = countFigure(numbers.classes, min, classesHidden(numbers.classes));
+  const learners = countFigure(numbers.learners, min, learnersHidden(numbers.learners));
+  const attemptsShown = countFigure(numbers.attempts.attempts, min, attemptsHidden(numbers.attempts.attempts));
+  const byCourse = courseTypes.map((course) => ({
     key: course,
     label: courseTypeNames[course],
-    classes: countFigure(numbers.byCourse[course].classes, min, classSplit.cells[i]),
-    learners: countFigure(numbers.byCourse[course].learners, min, learnerSplit.cells[i]),
+    classes: countFigure(numbers.byCourse[course].classes, min, classesHidden(numbers.byCourse[course].classes, "course", course)),
+    learners: countFigure(numbers.byCourse[course].learners, min, learnersHidden(numbers.byCourse[course].learners, "course", course)),
   }));
 
-  // Pass rate, comparisons and trend
-  const passRate = rateFigure(numbers.attempts.passed, numbers.attempts.attempts, min);
+  // Pass rate, comparisons and trend: every rate hidden exactly when its count of attempts is
+  const passRate = rateFigure(numbers.attempts.passed, numbers.attempts.attempts, min, attemptsShown.hidden);
   const comparisonList = comparisonPeriods(period);
   const trendQuarters = trailingQuarters(period, TREND_QUARTERS);
   const neededQuarters = [...new Set([...trendQuarters, ...comparisonList.flatMap((c) => quartersOf(c.period))])];
   const tallies = passTallyByQuarter(db, neededQuarters);
 
   const comparisons: ReportComparison[] = comparisonList.map(({ label, period: earlier }) => {
-    const tally = addTallies(quartersOf(earlier).map((q) => tallies.get(q)!));
-    const earlierRate = rateFigure(tally.passed, tally.attempts, min);
+    const earlierQuarters = quartersOf(earlier);
+    const tally = addTallies(earlierQuarters.map((q) => tallies.get(q)!));
+    const earlierRate = rateFigure(tally.passed, tally.attempts, min, family.hidden("attempts", earlierQuarters, tally.attempts));
     const verdict = compareRates(passRate, earlierRate);
     const points = differencePoints(passRate, earlierRate);
     return {
@@ -148,29 +151,27 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
   const trendTallies = trendQuarters.map((q) => tallies.get(q)!);
   const chart = pChart(trendTallies.map((t) => ({ n: t.attempts, count: t.passed })));
   const trendPoints: TrendPoint[] = trendQuarters.map((quarter, i) => {
-    const rate = rateFigure(trendTallies[i].passed, trendTallies[i].attempts, min);
+    const rate = rateFigure(trendTallies[i].passed, trendTallies[i].attempts, min, family.hidden("attempts", [quarter], trendTallies[i].attempts));
     const point = chart.points[i];
     // a hidden quarter's limits would give away its size, so they go with it
     const shown = rate.hidden === null && point.p !== null;
     return { quarter, passRate: rate, lcl: shown ? point.lcl : null, ucl: shown ? point.ucl : null, outside: shown && point.outside };
   });
 
-  // Errors (Pareto). Shares of the total give the total away, so the breakdown is treated as having one.
+  // Errors (Pareto). A share of all errors gives that total away, so shares show only with the total.
   const paretoRows = pareto(Object.fromEntries(attemptErrorNames.map((name, bit) => [name, numbers.errorCounts[bit]])));
-  const errorSplit = suppressBreakdown(
-    paretoRows.map((r) => r.count),
-    min,
-    true,
-  );
-  let prefixShown = true;
-  const errorRows: ErrorRow[] = paretoRows.map((row, i) => {
-    const hidden = errorSplit.total ?? errorSplit.cells[i];
+  const errorsHidden = decisionOf(family, "errors", quarters);
+  const errorTotal = numbers.errorCounts.reduce((sum, n) => sum + n, 0);
+  const errorTotalShown = errorsHidden(errorTotal) === null;
+  let prefixShown = errorTotalShown;
+  const errorRows: ErrorRow[] = paretoRows.map((row) => {
+    const hidden = errorsHidden(row.count, "error", row.name);
     prefixShown = prefixShown && hidden === null;
     return {
       name: row.name,
       label: errorLabels[row.name as keyof typeof errorLabels] ?? row.name,
       count: countFigure(row.count, min, hidden),
-      share: hidden === null ? row.share : null,
+      share: errorTotalShown && hidden === null ? row.share : null,
       cumulativeShare: prefixShown ? row.cumulativeShare : null,
     };
   });
@@ -179,18 +180,20 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
   const feedbackGroups = groupResults(
     feedbackModes.map((mode) => ({ key: mode, label: feedbackNames[mode], tally: numbers.byFeedback[mode] })),
     min,
-    attemptsShown.hidden === null,
+    (value, mode) => attemptsHidden(value, "feedback", mode),
   );
   const [live, hiddenDisplay] = feedbackGroups;
 
   // Instructors' judgement vs measurement
   const kappa = cohensKappa(numbers.agreement);
-  const pairs = countFigure(kappa.n, min);
+  const pairs = countFigure(kappa.n, min, family.hidden("judged", quarters, kappa.n));
   const kappaShown = pairs.hidden === null && kappa.kappa !== null;
   const completions = Math.min(numbers.completions, numbers.learners);
 
-  // Equipment
-  const manikinsUsed = countFigure(numbers.manikinsUsed, min);
+  // Equipment. Manikins, services and faults describe no person; compressions are a sum over the attempts
+  // and hide with their count.
+  const manikinsUsed = plainCount(numbers.manikinsUsed);
+  const compressions = countFigure(numbers.compressions, min, attemptsShown.hidden && hiddenReasonOf(numbers.compressions, min));
 
   const data: ReportData = {
     period: period.id,
@@ -205,7 +208,7 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
     reach: {
       classes,
       learners,
-      sites: countFigure(numbers.sites, min),
+      sites: plainCount(numbers.sites),
       instructors: countFigure(numbers.instructors, min),
       attempts: attemptsShown,
       byCourse,
@@ -216,9 +219,13 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
     byPatientType: groupResults(
       patientTypes.map((p) => ({ key: p, label: patientTypeNames[p], tally: numbers.byPatientType[p] })),
       min,
-      attemptsShown.hidden === null,
+      (value, profile) => attemptsHidden(value, "profile", profile),
     ),
-    errors: { rows: errorRows, attemptsWithErrors: countFigure(numbers.attemptsWithErrors, min), actions: readQuarterNotes(db, period.id) },
+    errors: {
+      rows: errorRows,
+      attemptsWithErrors: countFigure(numbers.attemptsWithErrors, min, family.hidden("attemptsWithErrors", quarters, numbers.attemptsWithErrors)),
+      actions: readQuarterNotes(db, period.id),
+    },
     feedback: {
       live,
       hidden: hiddenDisplay,
@@ -230,23 +237,23 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
       kappa: kappaShown ? kappa.kappa : null,
       observedAgreement: kappaShown ? kappa.p0 : null,
       kappaText: kappaShown ? kappa.kappa!.toFixed(2) : pairs.hidden ? hiddenText(pairs.hidden, min) : "not available",
-      completionRate: rateFigure(completions, numbers.learners, min),
+      completionRate: rateFigure(completions, numbers.learners, min, learners.hidden),
       everPassedRate: rateFigure(measuredLearners.everPassed, measuredLearners.learners, min),
       objectivePassRate: passRate,
     },
     equipment: {
       manikinsUsed,
-      compressions: countFigure(numbers.compressions, min),
-      compressionsPerManikin: manikinsUsed.hidden === null && numbers.manikinsUsed > 0 ? numbers.compressions / numbers.manikinsUsed : null,
-      lungsPer100Learners: perHundredFigure(numbers.lungsReplaced, numbers.learners, min),
-      mouthpiecesPer100Learners: perHundredFigure(numbers.mouthpiecesCleaned, numbers.learners, min),
-      batteriesPer100Learners: perHundredFigure(numbers.batteriesReplaced, numbers.learners, min),
-      services: countFigure(numbers.services, min),
-      faults: countFigure(numbers.faults, min),
+      compressions,
+      compressionsPerManikin: compressions.hidden === null && numbers.manikinsUsed > 0 ? numbers.compressions / numbers.manikinsUsed : null,
+      lungsPer100Learners: perHundredFigure(numbers.lungsReplaced, numbers.learners, min, learners.hidden),
+      mouthpiecesPer100Learners: perHundredFigure(numbers.mouthpiecesCleaned, numbers.learners, min, learners.hidden),
+      batteriesPer100Learners: perHundredFigure(numbers.batteriesReplaced, numbers.learners, min, learners.hidden),
+      services: plainCount(numbers.services),
+      faults: plainCount(numbers.faults),
     },
     methods: methodsText(policy, version, numbers.policyVersions),
     narrative: [],
-    retention: retentionResults(db, quarters, min),
+    retention: retentionResults(db, quarters, min, family),
   };
   data.narrative = writeNarrative(data);
   return data;
@@ -290,8 +297,10 @@ function methodsText(policy: NetworkPolicy, version: number, scoredUnder: number
     sources: GUIDELINE_SOURCES.map((s) => s.citation),
     safetyNote: SAFETY_NOTE,
     suppressionNote:
-      `To protect learners and instructors, any count below ${policy.suppressionMinCount}, and any rate made from fewer than ` +
-      `${policy.suppressionMinCount}, reads "fewer than ${policy.suppressionMinCount}". Where a shown total would give a ` +
-      `hidden figure away, another figure is hidden too and reads "not shown".`,
+      `To protect learners and instructors, a count of people or their activity below ${policy.suppressionMinCount} reads ` +
+      `"fewer than ${policy.suppressionMinCount}", and a period or group with none reads "no data". Where a figure shown here or in ` +
+      `another quarter's or year's report would give a hidden count away by subtraction, that figure is hidden too and reads ` +
+      `"not shown". A rate or figure per 100 learners reads "hidden" when the group it is made of is hidden. Counts of sites, ` +
+      `manikins, services and faults describe no person and are always shown.`,
   };
 }

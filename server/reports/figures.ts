@@ -31,23 +31,42 @@ export function formatPoints(points: number): string {
   return `${size} percentage ${size === "1.0" ? "point" : "points"}`;
 }
 
-/** A count, hidden by the primary rule unless a breakdown decided otherwise. */
+/** What a figure of nothing reads: no activity is not a small group, so it is never "fewer than". */
+export const NO_DATA = "no data";
+
+/** What a hidden rate or per-100 figure reads: its denominator group is hidden, and the rate is no count. */
+export const HIDDEN_RATE = "hidden";
+
+/** The primary rule alone: a count of 1 to min − 1 describes a small group. */
+export function primaryReason(value: number, minCount: number): HiddenReason | null {
+  return value > 0 && isSmall(value, minCount) ? "small" : null;
+}
+
+/**
+ * A count of people or their activity. Hidden as the report family's decision says (`decided`), or by the
+ * primary rule when no decision covers it; zero reads "no data".
+ */
 export function countFigure(value: number, minCount: number, decided?: HiddenReason | null): CountFigure {
-  const hidden = decided !== undefined ? decided : isSmall(value, minCount) ? "small" : null;
+  const hidden = decided !== undefined ? decided : primaryReason(value, minCount);
   if (hidden) return { value: null, hidden, text: hiddenText(hidden, minCount) };
+  return { value, hidden: null, text: value === 0 ? NO_DATA : formatCount(value) };
+}
+
+/** A count that describes no person (sites, manikins, services, faults): always shown. */
+export function plainCount(value: number): CountFigure {
   return { value, hidden: null, text: formatCount(value) };
 }
 
 /**
- * A proportion `successes / n` with its Wilson 95 % interval. Hidden when n is below the threshold or when
- * the group's count is hidden for another reason (`decided`).
+ * A proportion `successes / n` with its Wilson 95 % interval. Hidden exactly when its group of n is hidden
+ * (`decided`, or the primary rule on n), and then it reads "hidden": a rate is never "fewer than" anything.
  */
 export function rateFigure(successes: number, n: number, minCount: number, decided?: HiddenReason | null): RateFigure {
   const count = countFigure(n, minCount, decided);
   const hidden = count.hidden;
-  if (hidden) return { value: null, low: null, high: null, n: count, hidden, text: hiddenText(hidden, minCount), intervalText: "" };
+  if (hidden) return { value: null, low: null, high: null, n: count, hidden, text: HIDDEN_RATE, intervalText: "" };
   const interval = wilsonInterval(successes, n);
-  if (!interval) return { value: null, low: null, high: null, n: count, hidden: null, text: "no attempts", intervalText: "" };
+  if (!interval) return { value: null, low: null, high: null, n: count, hidden: null, text: NO_DATA, intervalText: "" };
   const value = successes / n;
   return {
     value,
@@ -60,13 +79,15 @@ export function rateFigure(successes: number, n: number, minCount: number, decid
   };
 }
 
-/** Events per 100 learners; hidden when the learners or the events are below the threshold (either would let the other be worked out). */
-export function perHundredFigure(events: number | null, learners: number, minCount: number): PerHundredFigure {
+/**
+ * Events per 100 learners. The events (consumables) describe no person, so only the learners can hide it:
+ * when their count is hidden (`decided`, or the primary rule), the figure reads "hidden".
+ */
+export function perHundredFigure(events: number | null, learners: number, minCount: number, decided?: HiddenReason | null): PerHundredFigure {
   if (events === null) return { value: null, hidden: null, text: "not recorded" };
-  if (isSmall(learners, minCount) || isSmall(events, minCount)) {
-    return { value: null, hidden: "small", text: hiddenText("small", minCount) };
-  }
-  if (learners === 0) return { value: null, hidden: null, text: "no learners" };
+  const hidden = decided !== undefined ? decided : primaryReason(learners, minCount);
+  if (hidden) return { value: null, hidden, text: HIDDEN_RATE };
+  if (learners === 0) return { value: null, hidden: null, text: NO_DATA };
   const value = (events / learners) * 100;
   return { value, hidden: null, text: value.toFixed(1) };
 }

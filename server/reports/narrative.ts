@@ -17,7 +17,11 @@ export function kappaWords(kappa: number): string {
   return "almost perfect";
 }
 
-const plural = (figure: CountFigure, one: string, many: string) => `${figure.text} ${figure.value === 1 ? one : many}`;
+/** "12 classes", "fewer than 5 classes", "1 class"; a count hidden to protect another reads "a number of … not shown here". */
+function plural(figure: CountFigure, one: string, many: string): string {
+  if (figure.hidden === "protects-other") return `a number of ${many} not shown here`;
+  return `${figure.text} ${figure.value === 1 ? one : many}`;
+}
 
 export function writeNarrative(data: ReportData): string[] {
   if (!data.hasData) return [`No classes or measured attempts were recorded for ${data.periodLabel}.`];

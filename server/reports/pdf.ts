@@ -178,7 +178,7 @@ function drawPassRatePanel(page: PageFlow, data: ReportData) {
   const rate = data.passRate;
   doc.font(FONT).fontSize(9).fillColor(colours.muted).text(figureNames.passRate, MARGIN.left + 16, top + 10, { lineBreak: false });
   doc.fontSize(rate.value === null ? 16 : 32).fillColor(colours.ink).text(rate.text, MARGIN.left + 16, top + 24, { lineBreak: false });
-  const sub = rate.value === null ? "too few measured attempts to show" : `95 % interval ${rate.intervalText}`;
+  const sub = rate.hidden ? "hidden to protect a small group" : rate.value === null ? "no measured attempts" : `95 % interval ${rate.intervalText}`;
   doc.fontSize(9).fillColor(colours.ink).text(sub, MARGIN.left + 16, top + 62, { lineBreak: false });
   doc.fontSize(7.5).fillColor(colours.muted).text(`of ${data.reach.attempts.text} measured attempts`, MARGIN.left + 16, top + 75, { lineBreak: false });
 
@@ -330,7 +330,9 @@ function drawAgreement(page: PageFlow, data: ReportData) {
     a.kappa !== null && a.observedAgreement !== null
       ? `On the ${a.pairs.text} attempts where the instructor also recorded pass or fail, instructor and measurement agreed on ` +
         `${(a.observedAgreement * 100).toFixed(1)} %; Cohen's kappa, which discounts agreement expected by chance, is ${a.kappaText}.`
-      : `Attempts with both an instructor's judgement and a measurement: ${a.pairs.text}, too few to compute agreement.`;
+      : a.pairs.hidden
+        ? `Attempts with both an instructor's judgement and a measurement: ${a.pairs.text}; agreement is not shown.`
+        : `Attempts with both an instructor's judgement and a measurement: ${a.pairs.text}.`;
   page.paragraph(kappa, { size: 9, gapAfter: 14 });
 }
 

@@ -2,6 +2,7 @@ import { cleanup, render, screen, within } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import type { CountFigure, RateFigure, ReportData } from "../../shared/schemas/report";
 import { rateWithInterval } from "../../src/features/report/figures";
+import { describeTrend } from "../../src/features/report/TrendChart";
 import { ReportView } from "../../src/features/report/ReportView";
 
 vi.setConfig({ testTimeout: 20_000 });
@@ -18,7 +19,7 @@ const rate = (value: number, low: number, high: number, n: number, text: string,
   text,
   intervalText,
 });
-const hiddenRate: RateFigure = { value: null, low: null, high: null, n: small, hidden: "small", text: "fewer than 5", intervalText: "" };
+const hiddenRate: RateFigure = { value: null, low: null, high: null, n: small, hidden: "small", text: "hidden", intervalText: "" };
 
 /** A report as the API answers it: texts already made, some figures suppressed. */
 function reportData(): ReportData {
@@ -37,7 +38,7 @@ function reportData(): ReportData {
     reach: {
       classes: count(41),
       learners: count(417),
-      sites: small,
+      sites: count(4),
       instructors: count(12),
       attempts: count(855),
       byCourse: [
@@ -97,9 +98,9 @@ function reportData(): ReportData {
       compressionsPerManikin: 3991.08,
       lungsPer100Learners: { value: 1.68, hidden: null, text: "1.7" },
       mouthpiecesPer100Learners: { value: 109.6, hidden: null, text: "109.6" },
-      batteriesPer100Learners: { value: null, hidden: "small", text: "fewer than 5" },
+      batteriesPer100Learners: { value: 0.5, hidden: null, text: "0.5" },
       services: count(19),
-      faults: small,
+      faults: count(2),
     },
     methods: {
       scoredUnderVersions: [1],
@@ -109,9 +110,9 @@ function reportData(): ReportData {
       sources: ["Olasveengen TM, Semeraro F, Ristagno G, et al. European Resuscitation Council Guidelines 2021: Basic Life Support. Resuscitation. 2021;161:98–114."],
       safetyNote:
         "Quarterbeat is a training-quality tool, not a medical device. Learners follow current resuscitation guidelines, their training organisation and local protocols.",
-      suppressionNote: 'To protect learners and instructors, any count below 5, and any rate made from fewer than 5, reads "fewer than 5".',
+      suppressionNote: 'To protect learners and instructors, a count of people or their activity below 5 reads "fewer than 5", and a period or group with none reads "no data".',
     },
-    narrative: ["In July–September 2026, 12 instructors at fewer than 5 sites ran 41 classes for 417 learners."],
+    narrative: ["In July–September 2026, 12 instructors at 4 sites ran 41 classes for 417 learners."],
   };
 }
 
@@ -122,17 +123,26 @@ function statValue(label: string): string {
 describe("funder report page", () => {
   it("shows suppressed figures exactly as the API words them", () => {
     render(<ReportView data={reportData()} />);
-    expect(statValue("Sites")).toBe("fewer than 5");
-    expect(statValue("Faults reported")).toBe("fewer than 5");
+    // sites and faults describe no person: always a number
+    expect(statValue("Sites")).toBe("4");
+    expect(statValue("Faults reported")).toBe("2");
     const courses = screen.getByRole("table", { name: "Classes and learners by course" });
     const child = within(courses).getByRole("rowheader", { name: "Child CPR" }).closest("tr")!;
     expect(within(child).getAllByRole("cell").map((c) => c.textContent)).toEqual(["fewer than 5", "not shown"]);
-    // A hidden rate shows no interval at all.
+    // A hidden rate reads "hidden", never as a count, and shows no interval at all.
     const byType = screen.getByRole("table", { name: "Pass rate by patient type" });
     const childType = within(byType).getByRole("rowheader", { name: "Child" }).closest("tr")!;
-    expect(within(childType).getAllByRole("cell").map((c) => c.textContent)).toEqual(["fewer than 5", "fewer than 5", ""]);
+    expect(within(childType).getAllByRole("cell").map((c) => c.textContent)).toEqual(["fewer than 5", "hidden", ""]);
     // And the reason is said under the table that has one.
     expect(screen.getByText(/“fewer than 5”: hidden because it comes from too few people or events/)).toBeTruthy();
+  });
+
+  it("tells a hidden quarter of the trend from one without attempts", () => {
+    const { trend } = reportData();
+    expect(describeTrend(trend)).toContain("1 quarter is hidden to protect small groups.");
+    const empty = { ...trend, points: [{ ...trend.points[0], passRate: { ...hiddenRate, n: count(0), hidden: null, text: "no data" } }, trend.points[1]] };
+    expect(describeTrend(empty)).toContain("1 quarter has no measured attempts.");
+    expect(describeTrend(empty)).not.toContain("hidden");
   });
 
   it("gives the pass rate with its 95 % interval as text", () => {
@@ -140,7 +150,7 @@ describe("funder report page", () => {
     expect(screen.getByText("Pass rate: 38.1 % (95 % interval 34.9–41.4 %)")).toBeTruthy();
     expect(screen.getByText("95 % interval 34.9–41.4 %")).toBeTruthy();
     expect(rateWithInterval(reportData().passRate)).toBe("38.1 % (95 % interval 34.9–41.4 %)");
-    expect(rateWithInterval(hiddenRate)).toBe("fewer than 5");
+    expect(rateWithInterval(hiddenRate)).toBe("hidden");
     const byType = screen.getByRole("table", { name: "Pass rate by patient type" });
     const infant = within(byType).getByRole("rowheader", { name: "Infant" }).closest("tr")!;
     expect(within(infant).getAllByRole("cell").map((c) => c.textContent)).toEqual(["299", "38.5 %", "33.1–44.1 %"]);

@@ -1,5 +1,6 @@
 // The funder report as a readable page: every figure comes with the text the API made for it (the same
-// words as the PDF); suppressed figures read "fewer than 5" or "not shown" exactly as the API gives them.
+// words as the PDF); suppressed counts read "fewer than 5" or "not shown", hidden rates "hidden", exactly as the
+// API gives them.
 import clsx from "clsx";
 import type { ReactNode } from "react";
 import type { ChangeVerdict, GroupResult, HiddenReason, ReportData } from "../../../shared/schemas/report";

@@ -30,7 +30,7 @@ function side(point: TrendPoint): "above" | "below" | null {
 
 export function describeTrend(trend: Trend): string {
   const shown = trend.points.filter((p) => p.passRate.value !== null);
-  if (shown.length === 0) return "No quarter in this range has enough measured attempts to chart.";
+  if (shown.length === 0) return "No quarter in this range has a pass rate to chart.";
   const first = shown[0];
   const last = shown[shown.length - 1];
   const parts = [
@@ -45,8 +45,10 @@ export function describeTrend(trend: Trend): string {
     const words = [above.length ? `above it in ${above.join(", ")}` : "", below.length ? `below it in ${below.join(", ")}` : ""].filter(Boolean);
     parts.push(`${outside.length} of ${shown.length} quarters lie outside the range chance alone would give (${words.join("; ")}).`);
   }
-  const hidden = trend.points.length - shown.length;
-  if (hidden > 0) parts.push(`${hidden} quarter${hidden === 1 ? " is" : "s are"} not drawn because too few attempts were measured.`);
+  const hidden = trend.points.filter((p) => p.passRate.hidden !== null).length;
+  const empty = trend.points.length - shown.length - hidden;
+  if (hidden > 0) parts.push(`${hidden} quarter${hidden === 1 ? " is" : "s are"} hidden to protect small groups.`);
+  if (empty > 0) parts.push(`${empty} quarter${empty === 1 ? " has" : "s have"} no measured attempts.`);
   return parts.join(" ");
 }
 

@@ -1,5 +1,5 @@
 // How the report's figures read on the page. The API already made each figure's text ("68.2 %",
-// "fewer than 5", "not shown"), the same words as the PDF; these helpers only add layout and the reason a
+// "fewer than 5", "not shown", "hidden" for a rate, "no data"), the same words as the PDF; these helpers only add layout and the reason a
 // figure is hidden.
 import { formatCount, formatDecimal } from "../../lib/formatting";
 import clsx from "clsx";
@@ -7,7 +7,7 @@ import type { CountFigure, HiddenReason, PerHundredFigure, RateFigure } from "..
 
 export const hiddenReasons: Record<HiddenReason, string> = {
   small: "hidden because it comes from too few people or events to show without risk of identifying someone.",
-  "protects-other": "hidden so that a total shown elsewhere cannot give away a small figure.",
+  "protects-other": "hidden so that figures shown here or in another quarter's or year's report cannot give away a small figure by subtraction.",
 };
 
 /** A count, per-100 figure or rate's text; hidden ones are muted and say why on hover and to screen readers. */

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { compareRates, differencePoints } from "../../../server/reports/compare";
-import { countFigure, formatCount, perHundredFigure, rateFigure } from "../../../server/reports/figures";
+import { countFigure, formatCount, perHundredFigure, plainCount, rateFigure } from "../../../server/reports/figures";
 import { kappaWords } from "../../../server/reports/narrative";
 
 describe("compareRates", () => {
@@ -35,12 +35,20 @@ describe("figures", () => {
     expect(formatCount(1234567)).toBe("1,234,567");
     expect(countFigure(4, 5)).toEqual({ value: null, hidden: "small", text: "fewer than 5" });
     expect(countFigure(5, 5)).toEqual({ value: 5, hidden: null, text: "5" });
+    // no activity is no small group: it reads "no data", never "fewer than 5"
+    expect(countFigure(0, 5)).toEqual({ value: 0, hidden: null, text: "no data" });
+    expect(countFigure(40, 5, "protects-other")).toEqual({ value: null, hidden: "protects-other", text: "not shown" });
+    expect(plainCount(2)).toEqual({ value: 2, hidden: null, text: "2" });
   });
 
-  it("hides a rate made from fewer than the threshold, and an events-per-100 figure when either part is small", () => {
-    expect(rateFigure(2, 4, 5)).toMatchObject({ value: null, text: "fewer than 5", intervalText: "" });
-    expect(perHundredFigure(4, 200, 5).text).toBe("fewer than 5");
-    expect(perHundredFigure(12, 4, 5).text).toBe("fewer than 5");
+  it("hides a rate only with its group, reading \"hidden\" rather than a count", () => {
+    expect(rateFigure(2, 4, 5)).toMatchObject({ value: null, hidden: "small", text: "hidden", intervalText: "", n: { text: "fewer than 5" } });
+    expect(rateFigure(30, 40, 5, "protects-other")).toMatchObject({ value: null, hidden: "protects-other", text: "hidden", n: { text: "not shown" } });
+    expect(rateFigure(0, 0, 5)).toMatchObject({ value: null, hidden: null, text: "no data" });
+    // a few events per many learners describe no person: shown; only a small or hidden group of learners hides it
+    expect(perHundredFigure(4, 200, 5).text).toBe("2.0");
+    expect(perHundredFigure(12, 4, 5)).toEqual({ value: null, hidden: "small", text: "hidden" });
+    expect(perHundredFigure(12, 200, 5, "protects-other")).toEqual({ value: null, hidden: "protects-other", text: "hidden" });
     expect(perHundredFigure(12, 200, 5).text).toBe("6.0");
     expect(perHundredFigure(null, 200, 5).text).toBe("not recorded");
   });

@@ -21,20 +21,25 @@ beforeAll(async () => {
 afterAll(() => db.$client.close());
 
 describe("report data for 2026-Q3", () => {
-  it("counts reach and hides the counts below 5 (two instructors, two sites)", () => {
+  it("counts reach, hides the instructors (2) and shows the sites (2), which describe no person", () => {
     expect(q3.hasData).toBe(true);
-    expect(q3.reach.classes).toEqual({ value: 6, hidden: null, text: "6" });
     expect(q3.reach.learners.value).toBe(10 + 8 + 6 + 9 + 3 + 12);
     expect(q3.reach.attempts.value).toBe(40);
     expect(q3.reach.instructors).toEqual({ value: null, hidden: "small", text: "fewer than 5" });
-    expect(q3.reach.sites).toEqual({ value: null, hidden: "small", text: "fewer than 5" });
+    expect(q3.reach.sites).toEqual({ value: 2, hidden: null, text: "2" });
   });
 
-  it("splits learners by course, hiding the infant (3) and all-ages (0) cells", () => {
+  it("shows this quarter's 6 classes and hides the year's 7, which less them would be 2026-Q2's single class", () => {
+    expect(q3.reach.classes).toEqual({ value: 6, hidden: null, text: "6" });
+    expect(buildReportData(db, "2026-Q2").reach.classes).toEqual({ value: null, hidden: "small", text: "fewer than 5" });
+    expect(buildReportData(db, "2026").reach.classes).toEqual({ value: null, hidden: "protects-other", text: "not shown" });
+  });
+
+  it("splits learners by course: infant (3) hidden with child (6), no all-ages learners reads \"no data\"", () => {
     const learners = Object.fromEntries(q3.reach.byCourse.map((c) => [c.key, c.learners.text]));
-    expect(learners).toEqual({ adult: "39", child: "6", infant: "fewer than 5", "all-ages": "fewer than 5" });
-    // classes per course are 4, 1, 1 and 0: all under 5
-    expect(q3.reach.byCourse.every((c) => c.classes.hidden === "small")).toBe(true);
+    expect(learners).toEqual({ adult: "39", child: "not shown", infant: "fewer than 5", "all-ages": "no data" });
+    // classes per course are 4, 1, 1 and 0: under 5, except the empty one
+    expect(q3.reach.byCourse.map((c) => c.classes.text)).toEqual(["fewer than 5", "fewer than 5", "fewer than 5", "no data"]);
   });
 
   it("gives the objective pass rate 26/40 with its Wilson 95 % interval", () => {
@@ -71,8 +76,8 @@ describe("report data for 2026-Q3", () => {
     expect(last.lcl).toBeCloseTo(0.30656, 4);
     expect(last.ucl).toBeCloseTo(0.77916, 4);
     expect(last.outside).toBe(false);
-    // quarters without attempts are hidden, limits and all
-    expect(q3.trend.points[0]).toMatchObject({ lcl: null, ucl: null, passRate: { value: null, text: "fewer than 5" } });
+    // quarters without attempts have no data, and no limits: nothing is hidden there
+    expect(q3.trend.points[0]).toMatchObject({ lcl: null, ucl: null, passRate: { value: null, hidden: null, text: "no data" } });
   });
 
   it("hides the 2 infant attempts and, so the total cannot reveal them, the 6 child attempts", () => {
@@ -84,14 +89,17 @@ describe("report data for 2026-Q3", () => {
     expect(byType.adult.passRate.text).toBe("68.8 %");
   });
 
-  it("ranks errors: 11 too shallow shown, the rest under 5 hidden with their shares", () => {
+  it("ranks errors: 11 too shallow shown, the three under 5 hidden together with their shares, the absent ones \"no data\"", () => {
     const [first, ...rest] = q3.errors.rows;
     expect(first.name).toBe("too_shallow");
     expect(first.count.value).toBe(11);
     // 17 errors in all (11 too shallow, 3 too fast, 2 recoil, 1 long pause)
     expect(first.share).toBeCloseTo(11 / 17, 10);
     expect(first.cumulativeShare).toBeCloseTo(11 / 17, 10);
-    expect(rest.every((r) => r.count.value === null && r.share === null && r.cumulativeShare === null)).toBe(true);
+    const hidden = rest.filter((r) => r.count.value === null);
+    expect(hidden.map((r) => r.name).sort()).toEqual(["incomplete_recoil", "long_pause", "too_fast"]);
+    expect(hidden.every((r) => r.count.text === "fewer than 5" && r.share === null && r.cumulativeShare === null)).toBe(true);
+    expect(rest.filter((r) => r.count.value !== null).every((r) => r.count.value === 0 && r.count.text === "no data")).toBe(true);
     expect(q3.errors.attemptsWithErrors.value).toBe(14);
     expect(q3.errors.actions).toBe("Depth drill at the start of every class.");
   });
@@ -120,9 +128,10 @@ describe("report data for 2026-Q3", () => {
     expect(e.compressionsPerManikin).toBe(1600);
     expect(e.lungsPer100Learners.text).toBe("10.4"); // 5 lungs / 48 learners
     expect(e.mouthpiecesPer100Learners.text).toBe("100.0");
-    expect(e.batteriesPer100Learners.text).toBe("fewer than 5"); // 2 batteries
+    // 2 batteries per 48 learners: a rate over a group of 48 is shown, however few the events
+    expect(e.batteriesPer100Learners.text).toBe("4.2");
     expect(e.services.value).toBe(5); // the 2026-10-01 service belongs to the next quarter
-    expect(e.faults.text).toBe("fewer than 5");
+    expect(e.faults).toEqual({ value: 2, hidden: null, text: "2" });
   });
 
   it("describes the method from the current policy with the guideline sources and the safety note", () => {
@@ -135,18 +144,17 @@ describe("report data for 2026-Q3", () => {
     expect(q3.methods.scoredUnderVersions).toEqual([1]);
   });
 
-  it("suppresses retention like every other breakdown: the empty bins are small, so the first-timers protect them", () => {
-    // Every attempt of the fixture has its own learner, so all 40 learner–class pairs are first courses. The
-    // bins of returns (0 each) are below 5; with the total knowable, showing 40 first-timers would give the
-    // hidden bins away, so it is hidden too (shared/suppression.ts).
-    expect(q3.retention!.firstTime.learners).toEqual({ value: null, hidden: "protects-other", text: "not shown" });
-    expect(q3.retention!.firstTime.firstAttemptPassRate.value).toBeNull();
+  it("shows retention's empty bins as \"no data\", so the 40 first-timers stay shown", () => {
+    // Every attempt of the fixture has its own learner, so all 40 learner–class pairs are first courses and
+    // every bin of returns is empty: no one is in them, so nothing needs protecting.
+    expect(q3.retention!.firstTime.learners).toEqual({ value: 40, hidden: null, text: "40" });
+    expect(q3.retention!.firstTime.firstAttemptPassRate.value).toBe(26 / 40);
     expect(q3.retention!.returning.map((g) => [g.key, g.learners.hidden, g.firstAttemptPassRate.text])).toEqual([
-      ["0-6", "small", "fewer than 5"],
-      ["6-12", "small", "fewer than 5"],
-      ["12-18", "small", "fewer than 5"],
-      ["18-24", "small", "fewer than 5"],
-      ["24+", "small", "fewer than 5"],
+      ["0-6", null, "no data"],
+      ["6-12", null, "no data"],
+      ["12-18", null, "no data"],
+      ["18-24", null, "no data"],
+      ["24+", null, "no data"],
     ]);
   });
 
@@ -205,7 +213,7 @@ describe("narrative", () => {
     expect(text).toContain("65.0 % of measured attempts met the network's pass rule (95 % interval 49.5–77.9 %)");
     expect(text).toContain("the pass rate rose from 30.0 % to 65.0 %");
     expect(text).toContain("That is no clear change from the same quarter last year (60.0 %)");
-    expect(text).toContain("fewer than 5 instructors at fewer than 5 sites");
+    expect(text).toContain("fewer than 5 instructors at 2 sites ran 6 classes for 48 learners");
     expect(text).toContain("moderate agreement");
     // like with like: 42 of 48 learners recorded as completing against 26 of 40 learners passing at least once
     expect(text).toContain("Instructors recorded 87.5 % of learners as completing the course; on the manikin, 65.0 % of the learners measured passed at least once.");
@@ -221,6 +229,8 @@ describe("other periods", () => {
     expect(year.comparisons).toHaveLength(1);
     expect(year.comparisons[0]).toMatchObject({ period: "2025", passRate: { value: 0.6 } });
     expect(year.trend.points.at(-1)!.quarter).toBe("2026-Q4");
+    // the year's classes hide to protect 2026-Q2's single class, and the words say so without a number
+    expect(year.narrative[0]).toContain("ran a number of classes not shown here for 68 learners");
   });
 
   it("says plainly when a period has no data", () => {

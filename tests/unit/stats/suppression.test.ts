@@ -1,32 +1,27 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import type { HiddenReason } from "../../../shared/schemas/report";
-import { anyHiddenCellPinned, hidesOthers, isSafeGroup, releaseGrid, releaseShows, suppressBreakdown, type GridCell } from "../../../shared/suppression";
+import { hiddenReasonOf, hidesOthers, isSafeGroup, measureShows, releaseGrid, releaseMeasure, releaseShows, type FamilyCell, type GridCell } from "../../../shared/suppression";
 
 const MIN = 5;
 
 /**
- * Every value a hidden cell could take for a reader who sees the shown cells, the total and the labels
- * ("fewer than 5" = 0…4; "not shown" = at least 5). Brute force, independent of the code under test.
+ * Every value a hidden cell of one quarter could take for a reader who sees the quarter's total, its shown
+ * cells and the labels ("fewer than 5" = 1…4, a zero reads "no data"; "not shown" = at least 5). Brute
+ * force, independent of the code under test.
  */
-function possibleValues(values: number[], cells: (HiddenReason | null)[], index: number, totalShown: boolean): number[] {
-  const hidden = cells.flatMap((reason, i) => (reason ? [i] : []));
-  const limit = values.reduce((a, b) => a + b, 0) + MIN + 1;
-  const range = (i: number): [number, number] => (cells[i] === "small" ? [0, MIN - 1] : [MIN, limit]);
-  if (!totalShown) {
-    const [low, high] = range(index);
-    return Array.from({ length: high - low + 1 }, (_, k) => low + k);
-  }
-  const remainder = hidden.reduce((sum, i) => sum + values[i], 0);
+function possibleValues(values: number[], hidden: boolean[], index: number): number[] {
+  const members = hidden.flatMap((isHidden, i) => (isHidden ? [i] : []));
+  const remainder = members.reduce((sum, i) => sum + values[i], 0);
+  const range = (i: number): [number, number] => (values[i] < MIN ? [1, MIN - 1] : [MIN, remainder]);
   const found = new Set<number>();
   const chosen: number[] = [];
   const walk = (k: number, sum: number) => {
     if (sum > remainder) return;
-    if (k === hidden.length) {
-      if (sum === remainder) found.add(chosen[hidden.indexOf(index)]);
+    if (k === members.length) {
+      if (sum === remainder) found.add(chosen[members.indexOf(index)]);
       return;
     }
-    const [low, high] = range(hidden[k]);
+    const [low, high] = range(members[k]);
     for (let v = low; v <= high; v++) {
       chosen[k] = v;
       walk(k + 1, sum + v);
@@ -36,91 +31,84 @@ function possibleValues(values: number[], cells: (HiddenReason | null)[], index:
   return [...found];
 }
 
-describe("suppressBreakdown", () => {
-  it("hides a single small cell together with the smallest shown one", () => {
-    // total 45 is shown; 45 − 30 − 12 would reveal the 3 if only it were hidden
-    const result = suppressBreakdown([30, 12, 3], MIN);
-    expect(result.cells).toEqual([null, "protects-other", "small"]);
-    expect(result.total).toBeNull();
+const CATEGORIES = ["a", "b", "c", "d", "e", "f"];
+
+/** One breakdown over the given quarters' counts, categories a, b, c, … */
+function cellsOf(byQuarter: Record<string, number[]>): FamilyCell[] {
+  return Object.entries(byQuarter).flatMap(([quarter, counts]) => counts.map((count, i) => ({ quarter, category: CATEGORIES[i], count })));
+}
+
+const YEAR = ["2026-Q1", "2026-Q2", "2026-Q3", "2026-Q4"];
+
+describe("releaseMeasure (the funder report family)", () => {
+  it("pools a small cell with its quarter's smallest other cell, and hides the year's counts of both", () => {
+    const release = releaseMeasure({ course: cellsOf({ "2026-Q1": [30, 12, 3], "2026-Q2": [20, 6, 6] }) }, MIN);
+    const shows = (quarters: string[], category: string | null) => measureShows(release, quarters, "course", category);
+    expect(["a", "b", "c"].map((c) => shows(["2026-Q1"], c))).toEqual([true, false, false]);
+    expect(["a", "b", "c"].map((c) => shows(["2026-Q2"], c))).toEqual([true, true, true]);
+    // the year's b and c less 2026-Q2's would be 2026-Q1's hidden cells
+    expect(["a", "b", "c"].map((c) => shows(YEAR, c))).toEqual([true, false, false]);
+    expect(shows(["2026-Q1"], null) && shows(YEAR, null)).toBe(true);
   });
 
-  it("hides a zero like any other count below the threshold", () => {
-    expect(suppressBreakdown([0, 20, 30], MIN).cells).toEqual(["small", "protects-other", null]);
+  it("withholds a quarter whose own total is small, and every count of its year, leaving the other quarters alone", () => {
+    const release = releaseMeasure({ total: cellsOf({ "2026-Q1": [40], "2026-Q2": [9], "2026-Q3": [3], "2026-Q4": [0] }) }, MIN);
+    const shows = (quarters: string[]) => measureShows(release, quarters, "total", null);
+    expect(YEAR.map((q) => shows([q]))).toEqual([true, true, false, true]);
+    // the year less 2026-Q1, Q2 and Q4 would be 2026-Q3's 3
+    expect(shows(YEAR)).toBe(false);
+    expect(shows(["2025-Q3"])).toBe(true);
   });
 
-  it("adds a cell when two small cells could be worked out from the remainder (4 + 4 = 8 can only be 4 and 4)", () => {
-    const result = suppressBreakdown([4, 4, 50, 60], MIN);
-    expect(result.cells).toEqual(["small", "small", "protects-other", null]);
+  it("decides each quarter from its own cells, so a quarter added later changes no earlier quarter", () => {
+    const before = releaseMeasure({ course: cellsOf({ "2026-Q1": [30, 12, 3], "2026-Q2": [20, 6, 6] }) }, MIN);
+    const after = releaseMeasure({ course: cellsOf({ "2026-Q1": [30, 12, 3], "2026-Q2": [20, 6, 6], "2026-Q3": [2, 0, 1] }) }, MIN);
+    for (const quarter of ["2026-Q1", "2026-Q2"]) {
+      for (const category of [null, "a", "b", "c"]) {
+        expect(measureShows(after, [quarter], "course", category)).toBe(measureShows(before, [quarter], "course", category));
+      }
+    }
   });
 
-  it("leaves two small cells alone when the remainder does not pin them", () => {
-    expect(suppressBreakdown([3, 2, 50, 60], MIN).cells).toEqual(["small", "small", null, null]);
+  it("withholds the quarter when one breakdown cannot pool its small cells, in every breakdown of the measure", () => {
+    // 4 + 4 = 8 with both "fewer than 5" pins each at 4
+    const release = releaseMeasure({ first: cellsOf({ "2026-Q1": [4, 4], "2026-Q2": [20, 20] }), second: cellsOf({ "2026-Q1": [8, 0], "2026-Q2": [30, 10] }) }, MIN);
+    expect(measureShows(release, ["2026-Q1"], "first", null)).toBe(false);
+    expect(measureShows(release, ["2026-Q1"], "second", "a")).toBe(false);
+    expect(measureShows(release, ["2026-Q2"], "second", "a")).toBe(true);
   });
 
-  it("hides nothing when every cell is large enough", () => {
-    expect(suppressBreakdown([5, 6, 100], MIN)).toEqual({ cells: [null, null, null], total: null });
+  it("labels a hidden count by its own size: 1–4 'small', anything else 'protects-other'", () => {
+    expect([1, 4, 5, 0, 40].map((n) => hiddenReasonOf(n, MIN))).toEqual(["small", "small", "protects-other", "protects-other", "protects-other"]);
   });
 
-  it("hides the total when it is itself below the threshold, with no complementary cell needed", () => {
-    expect(suppressBreakdown([1, 2], MIN)).toEqual({ cells: ["small", "small"], total: "small" });
-  });
-
-  it("hides the total when even hiding every cell would still give one away", () => {
-    // 4 + 4 with the total 8 shown: both must be 4, and there is no shown cell left to hide
-    expect(suppressBreakdown([4, 4], MIN)).toEqual({ cells: ["small", "small"], total: "protects-other" });
-  });
-
-  it("applies only the primary rule when no total is shown", () => {
-    expect(suppressBreakdown([30, 12, 3], MIN, false).cells).toEqual([null, null, "small"]);
-  });
-
-  it("among equal candidates hides the last, so hidden rows of a sorted table stay together", () => {
-    expect(suppressBreakdown([9, 9, 3], MIN).cells).toEqual([null, "protects-other", "small"]);
-  });
-
-  it("refuses counts that are not whole numbers ≥ 0", () => {
-    expect(() => suppressBreakdown([1.5], MIN)).toThrow(RangeError);
-    expect(() => suppressBreakdown([-1], MIN)).toThrow(RangeError);
-  });
-
-  it("property: every cell under the threshold is hidden", () => {
-    fc.assert(
-      fc.property(fc.array(fc.nat({ max: 40 }), { minLength: 1, maxLength: 6 }), (values) => {
-        const { cells } = suppressBreakdown(values, MIN);
-        values.forEach((value, i) => {
-          if (value < MIN) expect(cells[i]).toBe("small");
-        });
-      }),
-    );
-  });
-
-  it("property: no total minus the shown cells reveals a hidden cell", () => {
+  it("property: every quarter cell of 1 to 4 is hidden, a zero never is, and no hidden cell is pinned by the quarter's total", () => {
     fc.assert(
       fc.property(fc.array(fc.nat({ max: 25 }), { minLength: 1, maxLength: 5 }), (values) => {
-        const { cells, total } = suppressBreakdown(values, MIN);
-        const totalShown = total === null;
-        cells.forEach((reason, i) => {
-          if (reason === null) return;
-          const options = possibleValues(values, cells, i, totalShown);
-          expect(options).toContain(values[i]);
+        const release = releaseMeasure({ only: cellsOf({ "2026-Q1": values, "2026-Q2": values.map(() => 50) }) }, MIN);
+        const totalShown = measureShows(release, ["2026-Q1"], "only", null);
+        const hidden = values.map((_, i) => !measureShows(release, ["2026-Q1"], "only", CATEGORIES[i]));
+        values.forEach((value, i) => {
+          if (value > 0 && value < MIN) expect(hidden[i]).toBe(true);
+          if (value === 0 && totalShown) expect(hidden[i]).toBe(false);
+          if (!hidden[i] || !totalShown) return;
+          const options = possibleValues(values, hidden, i);
+          expect(options).toContain(value);
           expect(options.length).toBeGreaterThan(1);
         });
-        expect(anyHiddenCellPinned(values, cells, MIN) && totalShown).toBe(false);
       }),
       { numRuns: 300 },
     );
   });
 
-  it("property: a cell is hidden to protect another only when a small cell needed it", () => {
+  it("property: with every cell 0 or at least 5, nothing is hidden", () => {
     fc.assert(
-      fc.property(fc.array(fc.integer({ min: MIN, max: 60 }), { minLength: 1, maxLength: 6 }), (values) => {
-        expect(suppressBreakdown(values, MIN).cells.every((c) => c === null)).toBe(true);
+      fc.property(fc.array(fc.oneof(fc.constant(0), fc.integer({ min: MIN, max: 60 })), { minLength: 1, maxLength: 6 }), (values) => {
+        const release = releaseMeasure({ only: cellsOf({ "2026-Q1": values, "2026-Q3": [...values].reverse() }) }, MIN);
+        expect(release.withheld.size).toBe(0);
+        expect(release.quarterPools.only).toEqual([]);
       }),
     );
-  });
-
-  it("hides nothing with a threshold of 1 (a group of 0 holds nobody)", () => {
-    expect(suppressBreakdown([0, 3], 1).cells).toEqual([null, null]);
   });
 });
 
