@@ -14,6 +14,7 @@ import { registerFunnel } from "./commands/funnel";
 import { registerManikins } from "./commands/manikins";
 import { registerRestore } from "./commands/restore";
 import { registerSystem } from "./commands/system";
+import { registerTrend } from "./commands/trend";
 import { APP_VERSION } from "../server/ops/version";
 import { closeContext } from "./context";
 import { handleError } from "./errors";
@@ -39,6 +40,7 @@ export function buildProgram(): Command {
   registerAgreement(program);
   registerManikins(program);
   registerFunnel(program);
+  registerTrend(program);
   return program;
 }
 
