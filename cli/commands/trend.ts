@@ -2,16 +2,15 @@
 // point per calendar month of the class date, with its median and the run-chart rules (Anhøj & Olesen 2014)
 // — the chart the action detail page draws, from the same service. Rates are fractions.
 import type { Command } from "commander";
-import { eq } from "drizzle-orm";
 import { z } from "zod";
 import { isQuarter } from "../../shared/period";
 import { patientTypes, type PatientType } from "../../shared/scoring/policy";
 import { figureNames } from "../../shared/vocabulary";
-import { sites } from "../../server/db/schema";
 import { monthlyRunChart } from "../../server/metrics/monthlyRunChart";
 import { context } from "../context";
 import { UsageError } from "../errors";
 import { checkQuarterRange } from "../quarterRange";
+import { siteIdOfCode } from "../siteCode";
 
 const optionsSchema = z.object({
   from: z.string(),
@@ -51,12 +50,7 @@ export function registerTrend(program: Command) {
         if (baselineTo < options.from || baselineTo > options.to) throw new UsageError(`--baseline-to ${baselineTo} lies outside ${options.from} to ${options.to}.`, "Name a quarter of the range.");
       }
       const { db } = context(command);
-      let siteId: number | null = null;
-      if (options.site !== undefined) {
-        const site = db.select({ id: sites.id }).from(sites).where(eq(sites.code, options.site)).get();
-        if (!site) throw new UsageError(`No site has the code "${options.site}".`, "Use a site code from the Sites page, e.g. --site WRM.");
-        siteId = site.id;
-      }
+      const siteId = siteIdOfCode(db, options.site);
       const chart = monthlyRunChart(db, { from: options.from, to: options.to, siteId, instructorId: null, profile }, { baselineTo });
       if (baselineTo !== undefined && chart.baseline === null) {
         throw new UsageError(`No month up to ${baselineTo} has attempts, so there is no baseline median.`, "Name a later --baseline-to, or leave it out.");
