@@ -1,5 +1,6 @@
 // Registers the commands; each lives in cli/commands/<name>.ts and ends in the one error handler.
 import { Command } from "commander";
+import { registerActions } from "./commands/actions";
 import { registerBackup } from "./commands/backup";
 import { registerDb } from "./commands/db";
 import { registerDemo } from "./commands/demo";
@@ -41,6 +42,7 @@ export function buildProgram(): Command {
   registerManikins(program);
   registerFunnel(program);
   registerTrend(program);
+  registerActions(program);
   return program;
 }
 

@@ -9,6 +9,7 @@ import { allow, signedInUser } from "../auth/guard";
 import { parseId, parseWith } from "../http/validate";
 import { resolveFilters } from "../insight/filters";
 import { viewerOf } from "../insight/viewer";
+import { withVerdicts } from "./actionList";
 import { evaluationFor } from "./evaluation";
 import { actionMarks } from "./marks";
 import { addNote, createAction, deleteAction, deleteNote, getAction, listActions, listNotes, updateAction } from "./service";
@@ -18,7 +19,8 @@ export function actionRoutes(db: Db): Router {
 
   router.get("/actions", allow("readActions"), (req, res) => {
     const user = signedInUser(req);
-    res.json({ actions: listActions(db, user), mayManage: can(user, "manageActions") });
+    const viewer = viewerOf(db, user);
+    res.json({ actions: withVerdicts(listActions(db, user), (action) => evaluationFor(db, viewer, action)), mayManage: can(user, "manageActions") });
   });
 
   // before /actions/:id, so "marks" is not taken for an id

@@ -12,7 +12,7 @@ import { ActionEvaluation } from "../features/actions/ActionEvaluation";
 import { ActionForm } from "../features/actions/ActionForm";
 import { NoteForm } from "../features/actions/NoteForm";
 import { actionQueries } from "../features/actions/queries";
-import { scopeLabel } from "../features/actions/scopeLabel";
+import { scopeLabel } from "../../shared/actionScope";
 import { formatPercent } from "../features/insight/format";
 import { formatDay } from "../lib/formatting";
 
