@@ -12,6 +12,7 @@ import { viewerOf } from "../insight/viewer";
 import { withVerdicts } from "./actionList";
 import { evaluationFor } from "./evaluation";
 import { actionMarks } from "./marks";
+import { actionMonthlyChart } from "./monthly";
 import { addNote, createAction, deleteAction, deleteNote, getAction, listActions, listNotes, updateAction } from "./service";
 
 export function actionRoutes(db: Db): Router {
@@ -34,6 +35,12 @@ export function actionRoutes(db: Db): Router {
     const user = signedInUser(req);
     const action = getAction(db, user, parseId(req.params.id));
     res.json({ action, notes: listNotes(db, action.id), evaluation: evaluationFor(db, viewerOf(db, user), action), mayManage: can(user, "manageActions") });
+  });
+
+  router.get("/actions/:id/monthly", allow("readActions"), (req, res) => {
+    const user = signedInUser(req);
+    const action = getAction(db, user, parseId(req.params.id));
+    res.json({ chart: actionMonthlyChart(db, viewerOf(db, user), action) });
   });
 
   router.post("/actions", allow("manageActions"), (req, res) => {
