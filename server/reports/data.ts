@@ -2,6 +2,7 @@
 // trend, common errors with the coordinator's actions, live vs hidden display, instructor agreement and
 // equipment use. Every figure passes through small-cell suppression here, so nothing downstream (web page,
 // PDF, e-mail, CSV) can show a hidden cell by mistake.
+import { reportActions } from "./actions";
 import { eq } from "drizzle-orm";
 import { courseTypes, feedbackModes } from "../../shared/domain";
 import type { ErrorRow, GroupResult, RateFigure, ReportComparison, ReportData, TrendPoint } from "../../shared/schemas/report";
@@ -83,6 +84,8 @@ function retentionResults(db: Db, quarters: string[], min: number): NonNullable<
 export interface BuildOptions {
   /** When the report is made; fixed by callers that need the same output twice. */
   now?: Date;
+  /** List the improvement actions started by the end of the period (the coordinator's choice). */
+  includeActions?: boolean;
 }
 
 /** A report period named by a request or a command; anything else is answered as a bad request. */
@@ -247,6 +250,7 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
     methods: methodsText(policy, version, numbers.policyVersions),
     narrative: [],
     retention: retentionResults(db, quarters, min),
+    ...(options.includeActions ? { improvementActions: reportActions(db, period) } : {}),
   };
   data.narrative = writeNarrative(data);
   return data;
