@@ -209,4 +209,17 @@ describe("action marks on trend charts", () => {
     render(<ErrorTrendChart label="Too shallow" trend={[row("2025-Q4", 8), row("2026-Q1", 6)]} actions={marks} />);
     expect(document.body.textContent).toContain(`Improvement actions marked: A1 Infant depth refresher (from ${formatDay("2026-02-15")}, 2026 Q1).`);
   });
+
+  it("lists the marked actions under the error trend chart as links to their evaluation", async () => {
+    const { ActionMarkList } = await import("../../src/features/actions/ActionMarkList");
+    const { MemoryRouter } = await import("react-router");
+    render(
+      <MemoryRouter>
+        <ActionMarkList marks={[...marks, { id: 4, title: "Too early", startDate: "2024-01-10", quarter: "2024-Q1" }]} quarters={["2025-Q4", "2026-Q1"]} />
+      </MemoryRouter>,
+    );
+    expect(screen.getByRole("link", { name: "Infant depth refresher" }).getAttribute("href")).toBe("/actions/3");
+    expect(document.body.textContent).toContain(`A1 Infant depth refresher (from ${formatDay("2026-02-15")}, 2026 Q1)`);
+    expect(screen.queryByText("Too early")).toBeNull();
+  });
 });
