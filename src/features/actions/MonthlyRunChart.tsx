@@ -58,12 +58,14 @@ function MonthlyPlot({ action, chart }: { action: ActionRow; chart: Answer }) {
         const median = p.phase === "before" || p.phase === "after" ? medianOf(p.phase) : null;
         return median === null ? [] : [{ period: p.period, median, phase: p.phase }];
       });
+      // many months: slanted labels, with room below and to the left for them
+      const slanted = points.length > 12;
       return {
-        height: width < 500 ? 240 : 300,
-        marginLeft: 48,
+        height: width < 500 ? 260 : 320,
+        marginLeft: slanted ? 60 : 48,
         marginTop: 24,
-        marginBottom: 40,
-        x: { type: "band", domain: points.map((p) => p.period), tickFormat: formatMonth, tickRotate: points.length > 12 ? -45 : 0, label: null, padding: 0 },
+        marginBottom: slanted ? 64 : 40,
+        x: { type: "band", domain: points.map((p) => p.period), tickFormat: formatMonth, tickRotate: slanted ? -45 : 0, label: null, padding: 0 },
         y: { domain: [0, shareAxisTop(points.map((p) => p.rate))], tickFormat: percentTick, label: aimFigureName(action.aim), grid: true },
         marks: [
           Plot.tickY(centres, { x: "period", y: "median", stroke: (c: (typeof centres)[number]) => (c.phase === "after" ? ink.accentDark : ink.main), strokeWidth: 2 }),
