@@ -1,5 +1,6 @@
 // Registers the commands; each lives in cli/commands/<name>.ts and ends in the one error handler.
 import { Command } from "commander";
+import { registerActions } from "./commands/actions";
 import { registerBackup } from "./commands/backup";
 import { registerDb } from "./commands/db";
 import { registerDemo } from "./commands/demo";
@@ -14,6 +15,7 @@ import { registerFunnel } from "./commands/funnel";
 import { registerManikins } from "./commands/manikins";
 import { registerRestore } from "./commands/restore";
 import { registerSystem } from "./commands/system";
+import { registerTrend } from "./commands/trend";
 import { APP_VERSION } from "../server/ops/version";
 import { closeContext } from "./context";
 import { handleError } from "./errors";
@@ -39,6 +41,8 @@ export function buildProgram(): Command {
   registerAgreement(program);
   registerManikins(program);
   registerFunnel(program);
+  registerTrend(program);
+  registerActions(program);
   return program;
 }
 

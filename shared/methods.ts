@@ -63,7 +63,7 @@ export const methodNotes: readonly MethodNote[] = [
   {
     id: "run-chart",
     title: "Run-chart rules",
-    text: "A shift is signalled when too many quarters in a row sit on one side of the median, or the series crosses the median too few times, for the number of quarters shown.",
+    text: "A shift is signalled when too many points in a row sit on one side of the median (more than log2(n) + 3, rounded, for n points off the median), or the series crosses the median too few times (fewer than the 5th percentile of a binomial distribution with n − 1 trials and one half), for the number of points shown. The points are quarters on the overview, and months on an improvement action's page and in the command line's trend command; an action's monthly chart takes a median of the months before its start and another of the months after it, and judges the months after the start against the median before it.",
     sources: ["Anhøj J, Olesen AV. Run charts revisited. PLoS One 2014;9:e113825."],
   },
   {

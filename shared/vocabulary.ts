@@ -148,6 +148,12 @@ export const actionStatusNames: Record<ActionStatus, string> = {
   stopped: "Stopped",
 };
 
+/** An action's evaluation in one phrase: the aim after the start against before it; null until both sides have attempts. */
+export function actionVerdictName(verdict: "up" | "down" | "no clear change" | null): string {
+  if (verdict === null) return "Not known yet";
+  return verdict === "up" ? "Higher after the start" : verdict === "down" ? "Lower after the start" : "No clear change";
+}
+
 /** The wording of improvement actions and their evaluation. */
 export const actionWords = {
   action: "Improvement action",
@@ -158,6 +164,7 @@ export const actionWords = {
   startDate: "Start date",
   owner: "Owner",
   status: "Status",
+  verdict: "Evaluation",
   notes: "Notes",
   before: "Before the action",
   after: "After the action",

@@ -1,14 +1,13 @@
 // `quarterbeat manikins --from 2025-Q1 --to 2026-Q4`: each manikin's depth readings against the other manikins
 // of the same patient type in the same classes, and which ones to check for sensor drift.
 import type { Command } from "commander";
-import { eq } from "drizzle-orm";
 import { z } from "zod";
-import { sites } from "../../server/db/schema";
 import { DRIFT_DEFAULTS, driftRule, manikinDriftReport } from "../../server/metrics/manikinDrift";
 import { currentPolicy } from "../../server/policy/service";
 import { context } from "../context";
 import { UsageError } from "../errors";
 import { checkQuarterRange } from "../quarterRange";
+import { siteIdOfCode } from "../siteCode";
 
 const optionsSchema = z.object({
   from: z.string(),
@@ -44,12 +43,7 @@ export function registerManikins(program: Command) {
       const setting = driftRule(currentPolicy(db).policy.equipment);
       const minClasses = options.minClasses === undefined ? setting.minClasses : positiveNumber(options.minClasses, "--min-classes", true);
       const minOffsetMm = options.minOffset === undefined ? setting.minOffsetMm : positiveNumber(options.minOffset, "--min-offset", false);
-      let siteId: number | null = null;
-      if (options.site !== undefined) {
-        const site = db.select({ id: sites.id }).from(sites).where(eq(sites.code, options.site)).get();
-        if (!site) throw new UsageError(`No site has the code "${options.site}".`, "Use a site code from the Sites page, e.g. --site WRM.");
-        siteId = site.id;
-      }
+      const siteId = siteIdOfCode(db, options.site);
       const rows = manikinDriftReport(db, { from: options.from, to: options.to, siteId, options: { minClasses, minOffsetMm } });
       if (options.json) {
         const answer = rows.map(({ differences: _evidence, ...row }) => row);

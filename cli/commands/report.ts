@@ -1,4 +1,4 @@
-// `quarterbeat report --quarter 2026-Q3 --out report.pdf [--send --note "…"] [--to a@example.org]` (or --year
+// `quarterbeat report --quarter 2026-Q3 --out report.pdf [--include-actions] [--send --note "…"] [--to a@example.org]` (or --year
 // 2026): generates and stores the next version of the funder report, writes its PDF and, with --send, e-mails
 // it with the cover note to every active funder, one message each (which releases the version to them). Without SMTP_URL the message goes to the local mail service (the web app's Outbox).
 import fs from "node:fs";
@@ -21,6 +21,7 @@ const optionsSchema = z.object({
   send: z.boolean().optional(),
   note: z.string().optional(),
   to: z.array(z.string()).default([]),
+  includeActions: z.boolean().optional(),
 });
 
 const collect = (value: string, previous: string[] = []) => [...previous, ...value.split(",").map((v) => v.trim()).filter(Boolean)];
@@ -35,6 +36,7 @@ export function registerReport(program: Command) {
     .option("--send", "also e-mail the report to every active funder")
     .option("--note <text>", "the cover note above the report in each message (required with --send)")
     .option("--to <addresses>", "extra recipients for --send (repeat or separate with commas)", collect)
+    .option("--include-actions", "list the improvement actions started by the period's end (never their owners)")
     .action(async (raw: unknown, command: Command) => {
       const options = optionsSchema.parse(raw);
       if (Boolean(options.quarter) === Boolean(options.year)) {
@@ -54,7 +56,7 @@ export function registerReport(program: Command) {
 
       const { config, db } = context(command);
       const period = (options.quarter ?? options.year)!;
-      const report = await generateReport(db, period);
+      const report = await generateReport(db, period, { includeActions: options.includeActions ?? false });
       const out = path.resolve(options.out ?? reportFileName(report.period, report.version));
       try {
         fs.writeFileSync(out, report.pdf);

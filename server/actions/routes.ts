@@ -9,8 +9,10 @@ import { allow, signedInUser } from "../auth/guard";
 import { parseId, parseWith } from "../http/validate";
 import { resolveFilters } from "../insight/filters";
 import { viewerOf } from "../insight/viewer";
+import { withVerdicts } from "./actionList";
 import { evaluationFor } from "./evaluation";
 import { actionMarks } from "./marks";
+import { actionMonthlyChart } from "./monthly";
 import { addNote, createAction, deleteAction, deleteNote, getAction, listActions, listNotes, updateAction } from "./service";
 
 export function actionRoutes(db: Db): Router {
@@ -18,7 +20,8 @@ export function actionRoutes(db: Db): Router {
 
   router.get("/actions", allow("readActions"), (req, res) => {
     const user = signedInUser(req);
-    res.json({ actions: listActions(db, user), mayManage: can(user, "manageActions") });
+    const viewer = viewerOf(db, user);
+    res.json({ actions: withVerdicts(listActions(db, user), (action) => evaluationFor(db, viewer, action)), mayManage: can(user, "manageActions") });
   });
 
   // before /actions/:id, so "marks" is not taken for an id
@@ -32,6 +35,12 @@ export function actionRoutes(db: Db): Router {
     const user = signedInUser(req);
     const action = getAction(db, user, parseId(req.params.id));
     res.json({ action, notes: listNotes(db, action.id), evaluation: evaluationFor(db, viewerOf(db, user), action), mayManage: can(user, "manageActions") });
+  });
+
+  router.get("/actions/:id/monthly", allow("readActions"), (req, res) => {
+    const user = signedInUser(req);
+    const action = getAction(db, user, parseId(req.params.id));
+    res.json({ chart: actionMonthlyChart(db, viewerOf(db, user), action) });
   });
 
   router.post("/actions", allow("manageActions"), (req, res) => {

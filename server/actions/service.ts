@@ -47,10 +47,14 @@ export function concerns(db: Db, user: CurrentUser, action: Pick<ActionRow, "sit
   return true;
 }
 
+/** Every action, newest start first: for the command line, which reads the whole database. */
+export function allActions(db: Db): ActionRow[] {
+  return selectActions(db).orderBy(desc(improvementActions.startDate), desc(improvementActions.id)).all();
+}
+
 /** Actions the user may see, newest start first. */
 export function listActions(db: Db, user: CurrentUser): ActionRow[] {
-  const rows = selectActions(db).orderBy(desc(improvementActions.startDate), desc(improvementActions.id)).all();
-  return rows.filter((row) => concerns(db, user, row));
+  return allActions(db).filter((row) => concerns(db, user, row));
 }
 
 /** One action the user may see; one that does not concern them is answered as missing. */

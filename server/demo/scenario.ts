@@ -19,7 +19,11 @@
 //   the less often their first attempt passes.
 // - One adult manikin's depth sensor reads 4 mm deep from the autumn of 2025 on.
 // - One instructor passes most learners whatever the measurement says.
-import type { CourseType, UserRole } from "../../shared/domain";
+// - The quality lead recorded two improvement actions: the refresher, whose pass rate clearly rose after it,
+//   and depth feedback cards on one site's adult manikins, which left the share of too-shallow attempts
+//   where it was.
+import type { ActionStatus, CourseType, UserRole } from "../../shared/domain";
+import type { AimFigure } from "../../shared/vocabulary";
 import type { PatientType } from "../../shared/scoring/policy";
 
 export interface ScenarioSite {
@@ -72,6 +76,20 @@ export interface ScenarioProfileTendency {
   rateExcessCpm: number;
   /** Share of untrained learners who lean on the chest between compressions. */
   leanChance: number;
+}
+
+export interface ScenarioAction {
+  title: string;
+  aim: AimFigure;
+  /** Target, percent. */
+  target: number;
+  site: string | null;
+  profile: PatientType | null;
+  /** YYYY-MM-DD on the reference calendar; moves by whole quarters with the story, like the refresher. */
+  startDate: string;
+  status: ActionStatus;
+  /** Dated notes (reference calendar, moved like the start). */
+  notes: { date: string; text: string }[];
 }
 
 export interface DemoScenario {
@@ -127,6 +145,8 @@ export interface DemoScenario {
   };
   /** All instructors took a refresher in this quarter; learners are a little better during it, clearly after. */
   refresher: { quarter: string; skillDuring: number; skillAfter: number };
+  /** Improvement actions the quality lead recorded; the first is the refresher, starting on its quarter's first day. */
+  improvementActions: ScenarioAction[];
   /** How instructors judge by eye (they see rate and pauses, hardly depth or recoil). */
   judgement: {
     passWhenMeasuredPass: number;
@@ -316,6 +336,32 @@ export const DEMO_SCENARIO: DemoScenario = {
   },
 
   refresher: { quarter: "2026-Q1", skillDuring: 0.1, skillAfter: 0.7 },
+
+  improvementActions: [
+    {
+      title: "Refresher on depth, rate and recoil for every instructor",
+      aim: "passRate",
+      target: 35,
+      site: null,
+      profile: null,
+      startDate: "2026-01-01",
+      status: "done",
+      notes: [
+        { date: "2026-02-16", text: "Two thirds of the instructors have taken the refresher session; the rest are booked for March." },
+        { date: "2026-03-30", text: "Every instructor has taken the refresher." },
+      ],
+    },
+    {
+      title: "Depth feedback cards on the adult manikins at Wrenmoor",
+      aim: "too_shallow",
+      target: 10,
+      site: "WRM",
+      profile: "adult",
+      startDate: "2026-05-01",
+      status: "stopped",
+      notes: [{ date: "2026-10-12", text: "Stopped: the share of too-shallow adult attempts has not moved; the cards are being rethought." }],
+    },
+  ],
 
   judgement: {
     passWhenMeasuredPass: 0.93,

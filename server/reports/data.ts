@@ -3,6 +3,7 @@
 // equipment use. Every figure passes through small-cell suppression here, so nothing downstream (web page,
 // PDF, e-mail, CSV, API) can show a hidden cell by mistake; which counts hide is decided once for every report
 // of every period together (./family.ts), so no report can be subtracted from another to reveal one.
+import { reportActions } from "./actions";
 import { eq } from "drizzle-orm";
 import { courseTypes, feedbackModes } from "../../shared/domain";
 import type { ErrorRow, GroupResult, HiddenReason, RateFigure, ReportComparison, ReportData, TrendPoint } from "../../shared/schemas/report";
@@ -91,6 +92,8 @@ function retentionResults(db: Db, quarters: string[], min: number, family: Famil
 export interface BuildOptions {
   /** When the report is made; fixed by callers that need the same output twice. */
   now?: Date;
+  /** List the improvement actions started by the end of the period (the coordinator's choice). */
+  includeActions?: boolean;
 }
 
 /** A report period named by a request or a command; anything else is answered as a bad request. */
@@ -254,6 +257,7 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
     methods: methodsText(policy, version, numbers.policyVersions),
     narrative: [],
     retention: retentionResults(db, quarters, min, family),
+    ...(options.includeActions ? { improvementActions: reportActions(db, period) } : {}),
   };
   data.narrative = writeNarrative(data);
   return data;

@@ -52,6 +52,7 @@ export function renderReportPdf(data: ReportData, meta: PdfMeta): Promise<Buffer
   drawNarrative(page, data);
   drawTrend(page, data);
   drawErrors(page, data);
+  drawImprovementActions(page, data);
   drawFeedback(page, data);
   drawPatientTypes(page, data);
   drawCourses(page, data);
@@ -233,6 +234,35 @@ function drawErrors(page: PageFlow, data: ReportData) {
   doc.font(FONT).fontSize(8).fillColor(colours.accentDark).text("What the network is doing about it", MARGIN.left + 14, top + 8, { lineBreak: false });
   writeRuns(doc, note, MARGIN.left + 14, top + 21, { width, size: 9.5, colour: colours.ink });
   page.y = top + textHeight + 30 + 18;
+}
+
+function drawImprovementActions(page: PageFlow, data: ReportData) {
+  const actions = data.improvementActions;
+  if (!actions) return;
+  page.heading("Improvement actions", 15 * (Math.min(actions.length, 4) + 2) + 30);
+  page.paragraph(
+    actions.length === 0
+      ? "No improvement action had started by the end of the period."
+      : "What the network has changed to move one figure, where and from when, with how far each has got. Actions aimed at a single instructor are not listed.",
+    { size: 9, gapAfter: 8 },
+  );
+  if (actions.length === 0) return;
+  drawTable(
+    page,
+    [
+      { title: "Action", width: 150 },
+      { title: "Aim", width: 140 },
+      { title: "Where", width: 80 },
+      { title: "Start", width: 70 },
+      { title: "Status", width: CONTENT_WIDTH - 440 },
+    ],
+    actions.map((a) => [a.title, a.aim, a.scope, dateFormat.format(new Date(`${a.startDate}T00:00:00Z`)), a.status]),
+  );
+  page.paragraph("A change after an action started is not proof that the action caused it: other things change over time too.", {
+    size: 7.5,
+    colour: colours.muted,
+    gapAfter: 14,
+  });
 }
 
 function drawFeedback(page: PageFlow, data: ReportData) {

@@ -2,7 +2,7 @@
 // send. Funders see released versions only: one not yet released is answered as missing.
 //   GET  /reports                     stored versions (newest first), optional ?period=
 //   GET  /reports/:period/preview     the report as it would be generated now (data + narrative; coordinators)
-//   POST /reports/:period             generate and store the next version
+//   POST /reports/:period             generate and store the next version ({ includeActions } lists the improvement actions)
 //   GET  /reports/:id/data            a stored version's data
 //   GET  /reports/:id/pdf             a stored version's PDF, byte for byte (?inline=1: shown in the page)
 //   GET  /reports/:id/csv             a stored version's figures as CSV
@@ -14,7 +14,7 @@
 //   POST /report-sends/:id/retry      try a failed send again
 import { Router, type Request } from "express";
 import { can } from "../../shared/permissions";
-import { quarterNotesSchema, sendReportSchema } from "../../shared/schemas/report";
+import { generateReportSchema, quarterNotesSchema, sendReportSchema } from "../../shared/schemas/report";
 import type { Db } from "../db/client";
 import { allow, signedInUser } from "../auth/guard";
 import { parseId, parseWith } from "../http/validate";
@@ -44,7 +44,8 @@ export function reportRoutes(db: Db, mailer: Mailer, logger: Logger): Router {
   });
 
   router.post("/reports/:period", allow("sendReport"), async (req, res) => {
-    const stored = await generateReport(db, reportPeriod(req.params.period).id, { userId: signedInUser(req).id });
+    const { includeActions } = parseWith(generateReportSchema, req.body ?? {}, "The report version");
+    const stored = await generateReport(db, reportPeriod(req.params.period).id, { userId: signedInUser(req).id, includeActions });
     const { data: _data, pdf: _pdf, ...version } = stored;
     res.status(201).json({ report: version });
   });

@@ -49,12 +49,16 @@ function toVersion(row: VersionRow): ReportVersion {
 }
 
 /** Builds the report for a period, renders its PDF and stores both as the period's next version. */
-export async function generateReport(db: Db, periodText: string, options: { userId?: number | null; now?: Date } = {}): Promise<StoredReport> {
+export async function generateReport(
+  db: Db,
+  periodText: string,
+  options: { userId?: number | null; now?: Date; includeActions?: boolean } = {},
+): Promise<StoredReport> {
   const period = reportPeriod(periodText);
   const createdAt = options.now ?? new Date();
   // Milliseconds are dropped: the PDF's creation date has whole seconds, and the stored time should match it.
   createdAt.setUTCMilliseconds(0);
-  const data = buildReportData(db, period.id, { now: createdAt });
+  const data = buildReportData(db, period.id, { now: createdAt, includeActions: options.includeActions });
   if (!data.hasData) throw noDataError(period.id);
 
   for (let tries = 0; ; tries++) {

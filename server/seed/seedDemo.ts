@@ -1,12 +1,17 @@
 // Seeds the invented demo network: its directory (sites, instructors, one account per role) directly, then
-// its four data files through the same import service the CLI and the web upload use.
+// its four data files through the same import service the CLI and the web upload use, the quality lead's
+// improvement actions, and the alert digest an import would have mailed, written into the local outbox.
 import { Readable } from "node:stream";
 import { count, eq } from "drizzle-orm";
 import type { ImportKind } from "../../shared/domain";
 import type { ImportSummary } from "../../shared/import/api";
 import { buildDirectory } from "../demo/directory";
 import { generateDemoNetwork, type DemoNetwork } from "../demo/generate";
+import { recordDemoActions } from "../demo/improvementActions";
 import { DEMO_SCENARIO } from "../demo/scenario";
+import { buildTimeline } from "../demo/timeline";
+import { sendImportAlerts } from "../alerts/importAlerts";
+import { createOutboxMailer } from "../mail/outboxMailer";
 import type { Db } from "../db/client";
 import { attempts, classes, importBatches, instructors, sites, users } from "../db/schema";
 import { AppError } from "../errors";
@@ -15,7 +20,7 @@ import { generateReport, markReleased } from "../reports/store";
 import { previousQuarter, quarterOf } from "../../shared/period";
 import { setSetting } from "../settings/store";
 import { createInstructor, createSite, listInstructors, listSites } from "../sites/service";
-import { createUser, findUserByEmail } from "../users/service";
+import { createUser, findActiveUser, findUserByEmail } from "../users/service";
 
 export interface SeedResult {
   network: DemoNetwork["network"];
@@ -32,7 +37,7 @@ export function isEmpty(db: Db): boolean {
   return n === 0 && c === 0;
 }
 
-/** Removes every imported row and person, for `demo seed --force`. Policy versions and settings stay. */
+/** Removes every imported row, person, action and outbox message, for `demo seed --force`. Policy versions and settings stay. */
 export function clearNetwork(db: Db): void {
   const sqlite = db.$client;
   sqlite.transaction(() => {
@@ -47,6 +52,10 @@ export function clearNetwork(db: Db): void {
       "batch_changes",
       "report_sends",
       "reports",
+      "action_notes",
+      "improvement_actions",
+      "alert_log",
+      "mailbox",
       "quarter_notes",
       "import_presets",
       "import_batches",
@@ -76,14 +85,16 @@ export async function seedDemo(db: Db, options: { today?: string; seed?: number 
     }
   }
   const instructorIds = new Map(listInstructors(db).map((i) => [i.code, i.id]));
+  let qualityLeadId: number | null = null;
   for (const account of demo.accounts) {
-    await createUser(db, {
+    const user = await createUser(db, {
       email: account.email,
       displayName: account.displayName,
       role: account.role,
       instructorId: account.instructor ? (instructorIds.get(account.instructor) ?? null) : null,
       password: account.password,
     });
+    if (account.role === "quality_lead") qualityLeadId = user.id;
   }
 
   const imports: ImportSummary[] = [];
@@ -103,6 +114,13 @@ export async function seedDemo(db: Db, options: { today?: string; seed?: number 
   // e-mail: the demo's funder accounts are being made in this same run).
   const issued = await generateReport(db, previousQuarter(quarterOf(today)));
   markReleased(db, issued.id, null);
+  const qualityLead = qualityLeadId === null ? undefined : findActiveUser(db, qualityLeadId);
+  if (qualityLead) {
+    recordDemoActions(db, DEMO_SCENARIO, buildTimeline(today, DEMO_SCENARIO.referenceToday, DEMO_SCENARIO.historyQuarters), qualityLead, siteIds);
+  }
+  // What the coordinator and the quality lead would have been mailed after the imports (an instructor
+  // outside the funnel limits, a manikin due for service), kept in the outbox: a demo mails no one.
+  await sendImportAlerts(db, createOutboxMailer(db), today);
   return { network: demo.network, accounts: demo.accounts, imports };
 }
 

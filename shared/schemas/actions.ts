@@ -111,8 +111,12 @@ export const actionEvaluationSchema = z.object({
 });
 export type ActionEvaluation = z.infer<typeof actionEvaluationSchema>;
 
+/** An action in the list, with the verdict of its evaluation (null until both sides have attempts, or when the viewer may not see the scope's figures). */
+export const actionListRowSchema = actionRowSchema.extend({ verdict: actionEvaluationSchema.shape.verdict });
+export type ActionListRow = z.infer<typeof actionListRowSchema>;
+
 /** GET /api/actions. */
-export const actionListAnswerSchema = z.object({ actions: z.array(actionRowSchema), mayManage: z.boolean() });
+export const actionListAnswerSchema = z.object({ actions: z.array(actionListRowSchema), mayManage: z.boolean() });
 /** GET /api/actions/:id: the action, its notes and its evaluation (null when the viewer may not see the scope's figures). */
 export const actionDetailAnswerSchema = z.object({
   action: actionRowSchema,

@@ -25,6 +25,10 @@ export const coverNoteSchema = z
   .min(1, "Write a cover note for the funders")
   .max(2000, "Use at most 2000 characters");
 
+/** POST /api/reports/:period: whether the new version lists the network's improvement actions. */
+export const generateReportSchema = z.object({ includeActions: z.boolean({ message: "Say yes or no" }).default(false) });
+export type GenerateReportRequest = z.infer<typeof generateReportSchema>;
+
 export const sendReportSchema = z.object({
   coverNote: coverNoteSchema,
   extraRecipients: z.array(emailSchema).max(20, "Send to at most 20 extra addresses at once").default([]),
@@ -185,6 +189,20 @@ export interface ReportData {
    * Absent from reports stored before the figure existed.
    */
   retention?: { firstTime: RetentionGroupResult; returning: RetentionGroupResult[] };
+  /**
+   * The improvement actions started by the end of the period, when the coordinator chose to include them:
+   * what, aimed at which figure, where, from when and how far along — never who owns them, and none aimed at
+   * a single instructor. Absent when not chosen.
+   */
+  improvementActions?: ReportAction[];
+}
+
+export interface ReportAction {
+  title: string;
+  aim: string;
+  scope: string;
+  startDate: string;
+  status: string;
 }
 
 /** A stored report version, without its data and PDF bytes. */

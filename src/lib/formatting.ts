@@ -64,6 +64,12 @@ export function formatDay(iso: string | null | undefined): string {
   return date ? cached("day", (l) => new Intl.DateTimeFormat(l, { ...DAY, timeZone: "UTC" })).format(date) : iso;
 }
 
+/** A calendar month as written: "Oct 2026" from "2026-10". */
+export function formatMonth(month: string): string {
+  const date = /^\d{4}-\d{2}$/.test(month) ? parse(`${month}-01`) : null;
+  return date ? cached("month", (l) => new Intl.DateTimeFormat(l, { month: "short", year: "numeric", timeZone: "UTC" })).format(date) : month;
+}
+
 /** When something happened in Quarterbeat (an import, a send), in the reader's time zone: "2 Dec 2026, 15:20". */
 export function formatDateTime(iso: string): string {
   const date = parse(iso);

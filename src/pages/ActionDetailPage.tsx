@@ -9,10 +9,11 @@ import { Dialog } from "../components/Dialog";
 import { PageHeader } from "../components/PageHeader";
 import { ErrorState, LoadingState } from "../components/States";
 import { ActionEvaluation } from "../features/actions/ActionEvaluation";
+import { MonthlyRunChart } from "../features/actions/MonthlyRunChart";
 import { ActionForm } from "../features/actions/ActionForm";
 import { NoteForm } from "../features/actions/NoteForm";
 import { actionQueries } from "../features/actions/queries";
-import { scopeLabel } from "../features/actions/scopeLabel";
+import { scopeLabel } from "../../shared/actionScope";
 import { formatPercent } from "../features/insight/format";
 import { formatDay } from "../lib/formatting";
 
@@ -55,6 +56,12 @@ export default function ActionDetailPage() {
               Before and after
             </h2>
             <ActionEvaluation action={detail.data.action} evaluation={detail.data.evaluation} />
+          </section>
+          <section aria-labelledby="monthly-heading" className="mb-10">
+            <h2 id="monthly-heading" className="mb-3 text-title">
+              Month by month
+            </h2>
+            <MonthlyRunChart action={detail.data.action} />
           </section>
           <section aria-labelledby="notes-heading" className="mb-10">
             <h2 id="notes-heading" className="mb-3 text-title">

@@ -3,8 +3,8 @@
 import { useQuery } from "@tanstack/react-query";
 import { useState } from "react";
 import { Link, useNavigate } from "react-router";
-import type { ActionRow } from "../../shared/schemas/actions";
-import { actionStatusNames, actionWords, aimFigureName } from "../../shared/vocabulary";
+import type { ActionListRow } from "../../shared/schemas/actions";
+import { actionStatusNames, actionVerdictName, actionWords, aimFigureName } from "../../shared/vocabulary";
 import { Button } from "../components/Button";
 import { DataTable, type Column } from "../components/DataTable";
 import { Dialog } from "../components/Dialog";
@@ -13,11 +13,11 @@ import { SafetyNote } from "../components/SafetyNote";
 import { ErrorState, LoadingState } from "../components/States";
 import { ActionForm } from "../features/actions/ActionForm";
 import { actionQueries } from "../features/actions/queries";
-import { scopeLabel } from "../features/actions/scopeLabel";
+import { scopeLabel } from "../../shared/actionScope";
 import { formatPercent } from "../features/insight/format";
 import { formatDay } from "../lib/formatting";
 
-const columns: Column<ActionRow>[] = [
+const columns: Column<ActionListRow>[] = [
   {
     key: "title",
     header: actionWords.action,
@@ -36,6 +36,7 @@ const columns: Column<ActionRow>[] = [
   { key: "startDate", header: actionWords.startDate, value: (a) => a.startDate, render: (a) => formatDay(a.startDate) },
   { key: "owner", header: actionWords.owner, value: (a) => a.owner },
   { key: "status", header: actionWords.status, value: (a) => actionStatusNames[a.status] },
+  { key: "verdict", header: actionWords.verdict, value: (a) => actionVerdictName(a.verdict) },
 ];
 
 export default function ActionsPage() {

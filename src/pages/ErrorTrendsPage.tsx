@@ -13,6 +13,7 @@ import { PageHeader } from "../components/PageHeader";
 import { EmptyState, ErrorState, LoadingState } from "../components/States";
 import { BreakdownPanel, type BreakdownRow } from "../features/errors/BreakdownPanel";
 import { ErrorTrendChart } from "../features/errors/ErrorTrendChart";
+import { ActionMarkList } from "../features/actions/ActionMarkList";
 import { ParetoChart } from "../features/errors/ParetoChart";
 import { errorQueries } from "../features/errors/queries";
 import { useActionMarks, type ChartScope } from "../features/actions/useActionMarks";
@@ -145,6 +146,7 @@ function SelectedError({ selected, values, scope }: { selected: Selected; values
         </Link>
       </p>
       <ErrorTrendChart label={selected.label} trend={selected.trend} actions={actions} quarterHref={quarterHref} />
+      <ActionMarkList marks={actions} quarters={selected.trend.map((row) => row.quarter)} />
       <p className="text-small text-muted">
         With one quarter chosen, the trend shows the eight quarters up to it; with a longer period, each of its quarters. The other filters apply throughout. The groups below cover the chosen period only.
       </p>

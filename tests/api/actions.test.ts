@@ -2,6 +2,7 @@
 // evaluation against a hand computation on the insight fixture network (tests/fixtures/insight/network.ts).
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { actionDetailAnswerSchema, actionListAnswerSchema, actionMarksAnswerSchema } from "../../shared/schemas/actions";
+import { actionMonthlyAnswerSchema } from "../../shared/schemas/runChart";
 import { startInsightApp, type InsightTestContext } from "../fixtures/insight/setup";
 
 let t: InsightTestContext;
@@ -134,6 +135,42 @@ describe("evaluation seen by an instructor", () => {
     expect(hidden.evaluation).toBeNull();
     const full = actionDetailAnswerSchema.parse((await t.quality.get(`/api/actions/${infant.id}`).expect(200)).body);
     expect(full.evaluation!.after).toMatchObject({ x: 0, n: 4 });
+  });
+});
+
+describe("monthly run chart", () => {
+  it("splits the aim's months at the start, each side with its own median, and judges the months after around the one before", async () => {
+    // SOUTH, too shallow, by class month: 2025-11 B1 20 of 20 (before); 2026-02 D1 182 of 263 (the start's
+    // month, started on the 15th: neither side); 2026-05 B1 4 of 10 and 2026-06 D1 0 of 20 (after).
+    const action = await record({ title: "South depth clinic by month", aim: "too_shallow", target: 20, siteId: t.net.sites.south.id, startDate: "2026-02-15" });
+    const { chart } = actionMonthlyAnswerSchema.parse((await t.quality.get(`/api/actions/${action.id}/monthly`).expect(200)).body);
+    expect(chart!.points.map((p) => [p.period, p.phase, p.x, p.n])).toEqual([
+      ["2025-11", "before", 20, 20],
+      ["2026-02", "transition", 182, 263],
+      ["2026-05", "after", 4, 10],
+      ["2026-06", "after", 0, 20],
+    ]);
+    expect(chart!.phases.map((p) => [p.phase, p.from, p.to, p.median])).toEqual([
+      ["before", "2025-11", "2025-11", 1],
+      ["after", "2026-05", "2026-06", 0.2],
+    ]);
+    // both months after lie below the median before (1.0): 2 useful points, one run of 2, no crossing; limits
+    // for 2 useful points (Anhøj & Olesen 2014): run over round(log2(2) + 3) = 4, fewer than 0 crossings — no signal
+    expect(chart).toMatchObject({ median: 1, useful: 2, longestRun: 2, longestRunLimit: 4, crossings: 0, crossingsLimit: 0, signal: false });
+  });
+
+  it("shows an instructor the months of their own action only", async () => {
+    const own = await record({ title: "A1 monthly", instructorId: t.net.instructors.a1.id, startDate: "2026-01-01" });
+    const network = await record({ title: "Network monthly", startDate: "2026-01-01" });
+    const mine = actionMonthlyAnswerSchema.parse((await t.instructor.get(`/api/actions/${own.id}/monthly`).expect(200)).body);
+    // A1's classes: 2025-08 (1 of 29 passed), 2026-04 (6 of 10)
+    expect(mine.chart!.points.map((p) => [p.period, p.phase, p.x, p.n])).toEqual([
+      ["2025-08", "before", 1, 29],
+      ["2026-04", "after", 6, 10],
+    ]);
+    const others = actionMonthlyAnswerSchema.parse((await t.instructor.get(`/api/actions/${network.id}/monthly`).expect(200)).body);
+    expect(others.chart).toBeNull();
+    await t.funder.get(`/api/actions/${network.id}/monthly`).expect(403);
   });
 });
 

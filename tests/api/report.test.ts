@@ -14,6 +14,7 @@ let app: TestApp;
 let coordinator: Agent;
 let funder: Agent;
 let instructor: Agent;
+let quality: Agent;
 
 /** Supertest collects binary bodies only when given a parser; the response is a Node stream underneath. */
 const binary: Parameters<Test["parse"]>[0] = (res, done) => {
@@ -31,6 +32,7 @@ beforeAll(async () => {
   coordinator = await signIn(app, "coord@test.example");
   funder = await signIn(app, "funder@test.example");
   instructor = await signIn(app, "a1@test.example");
+  quality = await signIn(app, "quality@test.example");
 });
 afterAll(() => db.$client.close());
 
@@ -150,6 +152,28 @@ describe("stored versions", () => {
     const res = await coordinator.post("/api/reports/2027-Q1").expect(422);
     expect(res.body.error).toMatchObject({ code: "no_data" });
     expect(res.body.error.message).toMatch(/no classes or measured attempts for 2027-Q1/);
+  });
+
+  it("lists the improvement actions in a version only when the coordinator asks for them", async () => {
+    const action = await quality.post("/api/actions", {
+      title: "Rate metronome in every class",
+      aim: "passRate",
+      target: 70,
+      siteId: null,
+      instructorId: null,
+      profile: null,
+      startDate: "2026-07-06",
+      owner: "Robin Owner",
+      status: "under_way",
+    });
+    expect(action.status).toBe(201);
+    const plain = await coordinator.post("/api/reports/2026-Q3").expect(201);
+    expect((await coordinator.get(`/api/reports/${plain.body.report.id}/data`).expect(200)).body.data.improvementActions).toBeUndefined();
+    const withActions = await coordinator.post("/api/reports/2026-Q3", { includeActions: true }).expect(201);
+    const data = (await coordinator.get(`/api/reports/${withActions.body.report.id}/data`).expect(200)).body.data;
+    expect(data.improvementActions).toEqual([{ title: "Rate metronome in every class", aim: "Measured pass rate", scope: "Whole network", startDate: "2026-07-06", status: "Under way" }]);
+    const refused = await coordinator.post("/api/reports/2026-Q3", { includeActions: "yes" }).expect(422);
+    expect(refused.body.error.details[0].path).toBe("includeActions");
   });
 
   it("answers 404 for a report that does not exist", async () => {

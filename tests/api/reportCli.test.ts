@@ -8,7 +8,7 @@ import { pathToFileURL } from "node:url";
 import { PDFParse } from "pdf-parse";
 import { beforeAll, describe, expect, it } from "vitest";
 import { openDatabase } from "../../server/db/client";
-import { mailbox, reports } from "../../server/db/schema";
+import { improvementActions, mailbox, reports } from "../../server/db/schema";
 import { insertReportFixture } from "../unit/report/fixture";
 import { makeTestDb, seedPeople, tempDbFile } from "../helpers/testApp";
 
@@ -96,5 +96,16 @@ describe("quarterbeat report", () => {
     const bad = cli(["report", "--quarter", "2026-Q7"]);
     expect(bad.code).toBe(1);
     expect(bad.stderr).toMatch(/not a report period/);
+  });
+
+  it("lists the improvement actions with --include-actions, without their owner", async () => {
+    readDb((db) => db.insert(improvementActions).values({ title: "Rate metronome in every class", aim: "passRate", target: 70, startDate: "2026-07-06", owner: "Robin Owner", status: "under_way" }).run());
+    const res = cli(["report", "--quarter", "2026-Q3", "--out", "with-actions.pdf", "--include-actions"]);
+    expect(res.code, res.stderr).toBe(0);
+    const parser = new PDFParse({ data: new Uint8Array(fs.readFileSync(path.join(outDir, "with-actions.pdf"))) });
+    const { text } = await parser.getText();
+    await parser.destroy();
+    expect(text).toMatch(/Rate metronome in every class\s+Measured pass rate\s+Whole network\s+6 July 2026\s+Under way/);
+    expect(text).not.toContain("Robin Owner");
   });
 });

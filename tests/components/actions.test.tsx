@@ -4,6 +4,7 @@ import { QueryClientProvider } from "@tanstack/react-query";
 import { cleanup, fireEvent, render, screen, waitFor } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import type { ActionDetailAnswer, ActionRow } from "../../shared/schemas/actions";
+import type { MonthlyRunChart } from "../../shared/schemas/runChart";
 import { setCsrfToken } from "../../src/api/http";
 import { createQueryClient } from "../../src/app/queryClient";
 import { ActionForm } from "../../src/features/actions/ActionForm";
@@ -130,6 +131,49 @@ describe("the action page", () => {
     expect(screen.getByText(/not proof that the action caused a change/)).toBeTruthy();
   });
 
+  it("draws the months split at the start and says in words whether they shifted", async () => {
+    const rules = { useful: 0, longestRun: 0, longestRunLimit: null, crossings: 0, crossingsLimit: null, signal: false };
+    const point = (period: string, phase: "before" | "transition" | "after", x: number, n: number) => ({ period, phase, x, n, rate: x / n });
+    const chart: MonthlyRunChart = {
+      aim: "too_shallow",
+      baseline: { from: "2025-09", to: "2026-01", months: 5 },
+      points: [
+        point("2025-09", "before", 9, 20),
+        point("2025-10", "before", 10, 20),
+        point("2025-11", "before", 11, 20),
+        point("2025-12", "before", 10, 20),
+        point("2026-01", "before", 12, 20),
+        point("2026-02", "transition", 8, 20),
+        ...["2026-03", "2026-04", "2026-05", "2026-06", "2026-07", "2026-08", "2026-09"].map((month) => point(month, "after", 4, 20)),
+      ],
+      phases: [
+        { phase: "before", from: "2025-09", to: "2026-01", median: 0.5, rules: { ...rules, median: 0.5 } },
+        { phase: "after", from: "2026-03", to: "2026-09", median: 0.2, rules: { ...rules, median: 0.2 } },
+      ],
+      // seven months after the start, all below the median before: a run of 7 over the limit round(log2(7) + 3) = 6
+      median: 0.5,
+      useful: 7,
+      longestRun: 7,
+      longestRunLimit: 6,
+      crossings: 0,
+      crossingsLimit: 1,
+      signal: true,
+    };
+    fakeServer({ "GET /api/me": sessionFor("quality_lead"), "GET /api/actions/3": { status: 200, body: detail }, "GET /api/actions/3/monthly": { status: 200, body: { chart } } });
+    renderApp("/actions/3");
+    const signal = await screen.findByTestId("monthly-signal");
+    expect(signal.textContent).toBe(
+      "The median is 20.0 % after the start against 50.0 % before it. A shift is signalled: 7 months in a row after the start lie on one side of the median before it (more than 6 is unlikely by chance).",
+    );
+    expect(screen.getByText(/the months before the start and the months after it are summarised separately/)).toBeTruthy();
+  });
+
+  it("tells an instructor why the months of another scope are not shown", async () => {
+    fakeServer({ "GET /api/me": sessionFor("instructor"), "GET /api/actions/3": { status: 200, body: detail }, "GET /api/actions/3/monthly": { status: 200, body: { chart: null } } });
+    renderApp("/actions/3");
+    expect(await screen.findByText(/the monthly chart is shown for your own actions only/)).toBeTruthy();
+  });
+
   it("offers a quality lead the change and note forms", async () => {
     fakeServer({ "GET /api/me": sessionFor("quality_lead"), "GET /api/actions/3": { status: 200, body: { ...detail, mayManage: true } }, ...directory });
     renderApp("/actions/3");
@@ -164,5 +208,18 @@ describe("action marks on trend charts", () => {
     const row = (quarter: string, count: number) => ({ quarter, attempts: 20, count, share: count / 20, low: 0.1, high: 0.6 });
     render(<ErrorTrendChart label="Too shallow" trend={[row("2025-Q4", 8), row("2026-Q1", 6)]} actions={marks} />);
     expect(document.body.textContent).toContain(`Improvement actions marked: A1 Infant depth refresher (from ${formatDay("2026-02-15")}, 2026 Q1).`);
+  });
+
+  it("lists the marked actions under the error trend chart as links to their evaluation", async () => {
+    const { ActionMarkList } = await import("../../src/features/actions/ActionMarkList");
+    const { MemoryRouter } = await import("react-router");
+    render(
+      <MemoryRouter>
+        <ActionMarkList marks={[...marks, { id: 4, title: "Too early", startDate: "2024-01-10", quarter: "2024-Q1" }]} quarters={["2025-Q4", "2026-Q1"]} />
+      </MemoryRouter>,
+    );
+    expect(screen.getByRole("link", { name: "Infant depth refresher" }).getAttribute("href")).toBe("/actions/3");
+    expect(document.body.textContent).toContain(`A1 Infant depth refresher (from ${formatDay("2026-02-15")}, 2026 Q1)`);
+    expect(screen.queryByText("Too early")).toBeNull();
   });
 });

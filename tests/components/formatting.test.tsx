@@ -8,7 +8,7 @@ import { afterEach, describe, expect, it, vi } from "vitest";
 import type { ReportVersion } from "../../shared/schemas/report";
 import { createQueryClient } from "../../src/app/queryClient";
 import { VersionsPanel } from "../../src/features/report/VersionsPanel";
-import { formatCount, formatDateTime, formatDay, formatDecimal, formatLocale, formatRecordedClock, formatRecordedDateTime, setFormatLocale } from "../../src/lib/formatting";
+import { formatCount, formatDateTime, formatDay, formatDecimal, formatLocale, formatMonth, formatRecordedClock, formatRecordedDateTime, setFormatLocale } from "../../src/lib/formatting";
 import { appliedBatch } from "./importBatch";
 import { renderApp } from "./renderApp";
 import { fakeServer, sessionFor } from "./testServer";
@@ -30,6 +30,7 @@ describe("the formatting module", () => {
     expect(formatRecordedClock("2026-11-30T09:24:05Z")).toBe("09:24");
     expect(formatCount(12345)).toBe("12,345");
     expect(formatDecimal(36.66, 1)).toBe("36.7");
+    expect(formatMonth("2026-01")).toBe("Jan 2026");
 
     setFormatLocale("en-US");
     expect(formatDay("2026-12-02")).toBe("Dec 2, 2026");

@@ -68,6 +68,7 @@ const QUERY_KEYS: Record<string, string[]> = {
   "/api/actions": [],
   "/api/actions/marks": FILTERS,
   "/api/actions/:id": [],
+  "/api/actions/:id/monthly": [],
   "/api/tracker": ["quarter"],
 };
 

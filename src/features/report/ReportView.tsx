@@ -5,7 +5,7 @@ import clsx from "clsx";
 import type { ReactNode } from "react";
 import type { ChangeVerdict, GroupResult, HiddenReason, ReportData } from "../../../shared/schemas/report";
 import { FigureText, formatPoints, formatPointsSize, formatShare, formatWhole, hiddenReasons, rateWithInterval } from "./figures";
-import { formatDateTime } from "../../lib/formatting";
+import { formatDateTime, formatDay } from "../../lib/formatting";
 import { MethodsBox } from "./MethodsBox";
 import { ReportTable } from "./ReportTable";
 import { TrendChart } from "./TrendChart";
@@ -219,6 +219,33 @@ function ReportSections({ data, actionsSlot }: { data: ReportData; actionsSlot?:
             ))}
         </div>
       </Section>
+
+      {data.improvementActions && (
+        <Section id="report-improvement-actions" title="Improvement actions">
+          {data.improvementActions.length === 0 ? (
+            <p className="text-muted">No improvement action had started by the end of the period.</p>
+          ) : (
+            <>
+              <p className="text-small text-muted">
+                What the network has changed to move one figure, where and from when. Actions aimed at a single instructor are not listed. A change after an
+                action started is not proof that the action caused it.
+              </p>
+              <ReportTable
+                caption="Improvement actions"
+                rows={data.improvementActions}
+                rowKey={(a) => `${a.startDate}-${a.title}`}
+                columns={[
+                  { header: "Action", cell: (a) => a.title },
+                  { header: "Aim", cell: (a) => a.aim },
+                  { header: "Where", cell: (a) => a.scope },
+                  { header: "Start", cell: (a) => formatDay(a.startDate) },
+                  { header: "Status", cell: (a) => a.status },
+                ]}
+              />
+            </>
+          )}
+        </Section>
+      )}
 
       <Section id="report-feedback" title="Live or hidden feedback display">
         <p className="text-small text-muted">Some attempts are made with the manikin's live display shown to the learner, others with it hidden, as in a real emergency.</p>

@@ -21,8 +21,9 @@ export interface VersionsPanelProps {
 
 export function VersionsPanel({ period, versions, onCreated }: VersionsPanelProps) {
   const [message, setMessage] = useState<{ tone: "success" | "error"; text: string } | null>(null);
+  const [includeActions, setIncludeActions] = useState(false);
   const create = useMutation({
-    mutationFn: () => createVersion(period),
+    mutationFn: () => createVersion(period, includeActions),
     meta: { invalidates: [reportQueries.all()] },
   });
   const release = useMutation({
@@ -67,9 +68,18 @@ export function VersionsPanel({ period, versions, onCreated }: VersionsPanelProp
             released; earlier ones stay here unchanged.
           </p>
         </div>
-        <Button onClick={run} busy={create.isPending}>
-          Create report version
-        </Button>
+        <div className="flex flex-col items-end gap-2">
+          <label className="inline-flex max-w-xs items-start gap-2 text-small">
+            <input type="checkbox" className="mt-1" checked={includeActions} onChange={(event) => setIncludeActions(event.target.checked)} />
+            <span>
+              Include the improvement actions
+              <span className="block text-caption text-muted">Title, aim, start and status of those started by the period&apos;s end; never the owner, and none aimed at one instructor.</span>
+            </span>
+          </label>
+          <Button onClick={run} busy={create.isPending}>
+            Create report version
+          </Button>
+        </div>
       </div>
       {message && <Notice tone={message.tone}>{message.text}</Notice>}
       {versions.length === 0 ? (

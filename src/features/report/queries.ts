@@ -60,8 +60,8 @@ export function saveNotes(period: string, actions: string) {
   return http.put<{ period: string; actions: string }>(`/api/reports/${period}/notes`, { actions });
 }
 
-export async function createVersion(period: string): Promise<ReportVersion> {
-  return (await http.post<{ report: ReportVersion }>(`/api/reports/${period}`)).report;
+export async function createVersion(period: string, includeActions = false): Promise<ReportVersion> {
+  return (await http.post<{ report: ReportVersion }>(`/api/reports/${period}`, { includeActions })).report;
 }
 
 export async function sendVersion(id: number, coverNote: string, extraRecipients: string[]): Promise<ReportSendRow> {

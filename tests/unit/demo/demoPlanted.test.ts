@@ -1,13 +1,19 @@
-// The demo network plants three stories for the retention, manikin and calibration figures: learners who
-// come back for recertification and pass their first attempt less often after longer gaps, one adult manikin
-// whose depth sensor reads 4 mm deep from the autumn of 2025, and one lenient instructor. The services that
-// answer the pages and the CLI must find each of them in the seeded database.
+// The demo network plants stories for the retention, manikin and calibration figures: learners who come back
+// for recertification and pass their first attempt less often after longer gaps, one adult manikin whose
+// depth sensor reads 4 mm deep from the autumn of 2025, and one lenient instructor; and the quality lead's
+// two improvement actions with the alert digest the imports would have mailed. The services that answer the
+// pages and the CLI must find each of them in the seeded database.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Db } from "../../../server/db/client";
 import { DEMO_SCENARIO } from "../../../server/demo/scenario";
 import { digestText } from "../../../server/alerts/importAlerts";
 import { currentSignals } from "../../../server/alerts/signals";
+import { evaluateAction } from "../../../server/actions/evaluation";
+import { allActions } from "../../../server/actions/service";
+import { listOutbox } from "../../../server/mail/outbox";
 import { calibrationByInstructor } from "../../../server/metrics/calibration";
+import { monthlyRunChart } from "../../../server/metrics/monthlyRunChart";
+import { quarterOf } from "../../../shared/period";
 import { manikinDriftReport } from "../../../server/metrics/manikinDrift";
 import { retention } from "../../../server/metrics/retention";
 import { seedDemo } from "../../../server/seed/seedDemo";
@@ -73,6 +79,35 @@ describe("demo story: the lenient instructor", () => {
       const others = rows.filter((r) => r.instructor !== lenient.instructor);
       expect(lenient.lenient_share!, quarter).toBeGreaterThan(0.8);
       for (const other of others) expect(other.lenient_share ?? 0, `${other.instructor} in ${quarter}`).toBeLessThan(lenient.lenient_share!);
+    }
+  });
+});
+
+describe("demo story: improvement actions and the alert digest", () => {
+  it("records the refresher, whose pass rate rose after it, and the depth cards, which moved nothing", () => {
+    const actions = allActions(db);
+    expect(actions).toHaveLength(2);
+    const refresher = actions.find((a) => a.aim === "passRate")!;
+    expect(refresher).toMatchObject({ siteId: null, instructorId: null, profile: null, owner: "Imogen Tarrow" });
+    expect(quarterOf(refresher.startDate)).toBe(DEMO_SCENARIO.refresher.quarter);
+    expect(evaluateAction(db, refresher).verdict).toBe("up");
+    const monthly = monthlyRunChart(db, { from: "2025-Q1", to: "2026-Q4", siteId: null, instructorId: null, profile: null }, { splitAt: refresher.startDate });
+    const [before, after] = monthly.phases;
+    expect(after.median! - before.median!).toBeGreaterThan(0.1);
+    expect(monthly.signal).toBe(true);
+
+    const cards = actions.find((a) => a.aim === "too_shallow")!;
+    expect(cards).toMatchObject({ siteCode: "WRM", profile: "adult", status: "stopped" });
+    expect(evaluateAction(db, cards).verdict).toBe("no clear change");
+  });
+
+  it("keeps the digest about the instructor below the funnel limits in the outbox, for the coordinator and the quality lead", () => {
+    const digests = listOutbox(db).filter((m) => m.subject.includes("after the latest import"));
+    expect(digests.flatMap((m) => m.recipients).sort()).toEqual(["imogen.tarrow@harrowmere-cpr.example", "rowan.ellery@harrowmere-cpr.example"]);
+    for (const message of digests) {
+      expect(message.text).toContain("outside the 99.8 % funnel limits");
+      expect(message.text).toMatch(/- IN06: below the limits \(\d+ of \d+ attempts passed\)/);
+      expect(message.text).not.toContain("Desmond Quarrie");
     }
   });
 });

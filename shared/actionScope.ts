@@ -1,5 +1,6 @@
-import type { ActionRow } from "../../../shared/schemas/actions";
-import { actionWords, dimensionNames, patientTypeNames } from "../../../shared/vocabulary";
+// An action's scope in words, the same on the pages, in the CLI and in the funder report.
+import type { ActionRow } from "./schemas/actions";
+import { actionWords, dimensionNames, patientTypeNames } from "./vocabulary";
 
 /** "Whole network", "Site NORTH", "Instructor A1", with " · Infant" when one patient type is chosen. */
 export function scopeLabel(action: Pick<ActionRow, "siteCode" | "instructorCode" | "profile">): string {
