@@ -193,9 +193,13 @@ describe("network overview", () => {
     serve("coordinator", overview);
     renderApp("/overview?quarter=2026-Q3");
     await screen.findByRole("heading", { name: "Which errors matter most" });
+    // a coordinator may drill down: each row also opens the error's trend and breakdown
     expect(tableOf("Which errors matter most")).toEqual(
-      overview.errors.rows.map((r) => [r.label, String(r.count), pct(r.share), pct(r.cumulativeShare), pct(r.attemptShare)]),
+      overview.errors.rows.map((r) => [r.label, String(r.count), pct(r.share), pct(r.cumulativeShare), pct(r.attemptShare), "Trend and breakdown"]),
     );
+    const first = overview.errors.rows[0];
+    const link = screen.getByRole("link", { name: `Trend and breakdown of “${first.label}”` });
+    expect(new URLSearchParams(link.getAttribute("href")!.split("?")[1]).get("error")).toBe(first.error);
   });
 
   it("the live-against-hidden table and the recorded-against-measured table hold the same rates", async () => {
