@@ -56,6 +56,7 @@ const QUERY_KEYS: Record<string, string[]> = {
   "/api/attempts/:id": [],
   "/api/equipment": FILTERS,
   "/api/equipment/drift": FILTERS,
+  "/api/equipment/manikins/:assetId": FILTERS,
   "/api/learners/retention": FILTERS,
   "/api/learners/calibration": FILTERS,
   "/api/reports": ["period"],
@@ -110,7 +111,7 @@ describe("injection strings in query filters", () => {
   const cases = Object.entries(QUERY_KEYS).flatMap(([route, keys]) => keys.map((key) => ({ route, key })));
   it.each(cases)("$route ?$key=…", async ({ route, key }) => {
     const agent = agentFor(route);
-    const url = fillParams(route, { id: String(t.net.instructors.a1.id) });
+    const url = fillParams(route, { id: String(t.net.instructors.a1.id), assetId: "MK-N1" });
     for (const payload of INJECTIONS) {
       const res = await agent.get(url).query({ [key]: payload });
       const label = `${url}?${key}=${payload} → ${res.status} ${res.text.slice(0, 200)}`;
