@@ -1,9 +1,10 @@
 // One instructor (coordinator, quality lead): quarterly pass rate with its interval beside the network's,
 // median score, and the classes of the chosen quarter.
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
-import { Link, useParams, useSearchParams } from "react-router";
+import { useParams } from "react-router";
 import type { InstructorDetailAnswer, InstructorsAnswer, OverviewAnswer } from "../../shared/schemas/insight";
 import { ApiError } from "../api/http";
+import { BackLink } from "../components/BackLink";
 import { PageHeader } from "../components/PageHeader";
 import { SafetyNote } from "../components/SafetyNote";
 import { EmptyState } from "../components/States";
@@ -26,7 +27,7 @@ export default function InstructorDetailPage() {
   const { id = "" } = useParams();
   return (
     <div>
-      <BackLink />
+      <BackLink to="/instructors" label="All instructors" />
       <InsightFilters optional={["patientType", "feedback"]} label="Filter this instructor's figures" before={(state) => <InstructorHeader id={id} state={state} />}>
         {(state) => <InstructorBody id={id} state={state} />}
       </InsightFilters>
@@ -44,16 +45,6 @@ function InstructorHeader({ id, state }: { id: string; state: InsightFilterState
       title={`${known.code} · ${known.name}`}
       description={`${site ? `${site.code} · ${site.name}. ` : ""}Pass rate and median score quarter by quarter, and the classes of the chosen quarter.`}
     />
-  );
-}
-
-function BackLink() {
-  const [params] = useSearchParams();
-  const search = params.toString() ? `?${params.toString()}` : "";
-  return (
-    <Link to={`/instructors${search}`} className="mb-3 inline-flex min-h-9 items-center gap-1 font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
-      <span aria-hidden="true">←</span> All instructors
-    </Link>
   );
 }
 

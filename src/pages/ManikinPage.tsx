@@ -3,13 +3,14 @@
 // its use per quarter and its equipment log. Reached from the fleet, the attention list and the drift table.
 import { useQuery } from "@tanstack/react-query";
 import type { ReactNode } from "react";
-import { Link, useParams, useSearchParams } from "react-router";
+import { Link, useParams } from "react-router";
 import type { ManikinRecord } from "../../shared/schemas/equipment";
 import { driftFlagNames, equipmentEventNames, patientTypeNames } from "../../shared/vocabulary";
 import { quarterLabel, rangeLabel } from "../../shared/period";
 import { ApiError } from "../api/http";
 import { DataTable, type Column } from "../components/DataTable";
 import { FilterBar } from "../components/FilterBar";
+import { BackLink } from "../components/BackLink";
 import { PageHeader } from "../components/PageHeader";
 import { SafetyNote } from "../components/SafetyNote";
 import { EmptyState, ErrorState, LoadingState } from "../components/States";
@@ -24,7 +25,7 @@ export default function ManikinPage() {
   const { optionsQuery, state } = useInsightFilters([], { ranges: true });
   return (
     <div>
-      <BackLink />
+      <BackLink to="/equipment" label="Equipment" />
       <PageHeader title={`Manikin ${assetId}`} description="Its service state and what is due, its depth readings against the other manikins of its patient type in the same classes, its use and its equipment log." />
       {optionsQuery.isPending ? (
         <LoadingState label="Loading the filters…" />
@@ -37,16 +38,6 @@ export default function ManikinPage() {
         </>
       )}
     </div>
-  );
-}
-
-function BackLink() {
-  const [params] = useSearchParams();
-  const search = params.toString() ? `?${params.toString()}` : "";
-  return (
-    <Link to={`/equipment${search}`} className="mb-3 inline-flex min-h-9 items-center gap-1 font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
-      <span aria-hidden="true">←</span> Equipment
-    </Link>
   );
 }
 
