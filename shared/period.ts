@@ -69,6 +69,12 @@ export function quarterOf(date: string): string {
   return `${match[1]}-Q${Math.ceil(month / 3)}`;
 }
 
+/** The first quarter that begins on or after a date: the first whole quarter after a change made that day. */
+export function firstQuarterFrom(date: string): string {
+  const quarter = quarterOf(date);
+  return quarterDates(quarter).first === date ? quarter : nextQuarter(quarter);
+}
+
 /** The quarter a moment falls in on the local calendar (the viewer's own "today"). */
 export function quarterOfLocalDate(date: Date): string {
   return formatQuarter({ year: date.getFullYear(), q: (Math.floor(date.getMonth() / 3) + 1) as Quarter["q"] });

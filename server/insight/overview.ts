@@ -8,22 +8,22 @@
 import { sql } from "drizzle-orm";
 import { feedbackModes, type FeedbackMode } from "../../shared/domain";
 import type { OverviewAnswer } from "../../shared/schemas/insight";
-import type { chartLimitModes } from "../../shared/schemas/chartSettings";
-import { changeFrom, changeVerdict, cohensKappa, pChart, proportionDifference, runChartSignals } from "../../shared/stats";
+import type { OverviewChartOptions } from "../../shared/schemas/chartSettings";
+import { changeFrom, changeVerdict, cohensKappa, proportionDifference } from "../../shared/stats";
 import type { Db } from "../db/client";
 import { classes } from "../db/schema";
 import { addTally, emptyTally, judgedOf, medianOfCounts, mergeCounts, talliesBy, valueCountsBy, type ValueCounts } from "../metrics/summaries";
 import type { ResolvedFilters } from "./filters";
-import { chartBaseline } from "./chartBaseline";
+import { passRateSeries } from "./passRateSeries";
 import { learnerOutcomes } from "../metrics/learnerOutcomes";
 import { errorPareto } from "./pareto";
 import { previousPeriod, trendQuarters } from "../../shared/period";
-import { rateFor, rateOf } from "./rates";
+import { rateFor } from "./rates";
 import { classConditions, scopeOf } from "./sql";
 import { mayShow } from "./release";
 import { hidesGroup, type Viewer } from "./viewer";
 
-export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters, limits: (typeof chartLimitModes)[number] = "binomial"): OverviewAnswer {
+export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters, chart: OverviewChartOptions = { limits: "binomial", splitAt: null }): OverviewAnswer {
   const period = filters.period;
   const before = previousPeriod(period);
   const trend = trendQuarters(period);
@@ -78,23 +78,6 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters, limit
     [inPeriod.fp, inPeriod.ff],
   ]);
 
-  // the centre and limits come from the stated baseline quarters, never from the quarters being judged; a
-  // baseline quarter hidden from this viewer stays out of the centre line, so it cannot be used to work it out
-  const baseline = chartBaseline(db);
-  const baselineSamples: { n: number; count: number }[] = [];
-  if (baseline.from !== null && baseline.to !== null) {
-    const byBaselineQuarter = talliesBy<string>(db, scopeOf(filters, { from: baseline.from, to: baseline.to }), "quarter");
-    for (const quarter of [...byBaselineQuarter.keys()].sort()) {
-      // a quarter this viewer could not be shown on its own stays out of the centre line too
-      if (!mayShow(db, viewer, scopeOf(filters, { from: quarter, to: quarter }))) continue;
-      const tally = byBaselineQuarter.get(quarter)!;
-      baselineSamples.push({ n: tally.n, count: tally.passed });
-    }
-  }
-  const chart = pChart(
-    trend.quarters.map((q, i) => (seriesHidden[i] ? { n: 0, count: 0 } : { n: byQuarter.get(q)!.n, count: byQuarter.get(q)!.passed })),
-    { baseline: baselineSamples, laney: limits === "laney" },
-  );
   // scores per feedback display; the period's median is that of both distributions together
   const scores = hidden ? new Map<FeedbackMode, ValueCounts>() : valueCountsBy<FeedbackMode>(db, "score", scopeOf(filters), "feedback");
   const scoresOf = (mode: FeedbackMode) => scores.get(mode) ?? [];
@@ -136,21 +119,8 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters, limit
           suppressed: false,
         },
     medianScore: hidden ? null : medianOfCounts(mergeCounts(...feedbackModes.map(scoresOf))),
-    series: {
-      centre: chart.centre,
-      baseline: { ...baseline, attempts: baselineSamples.length === 0 ? null : baselineSamples.reduce((sum, sample) => sum + sample.n, 0) },
-      limits,
-      sigmaZ: chart.sigmaZ,
-      runChart: runChartSignals(chart.points.flatMap((point, i) => (seriesHidden[i] || point.p === null ? [] : [point.p]))),
-      points: trend.quarters.map((quarter, i) => {
-        if (seriesHidden[i]) {
-          return { quarter, attempts: null, passed: null, rate: null, low: null, high: null, lcl: null, ucl: null, outside: false, suppressed: true };
-        }
-        const point = chart.points[i];
-        const rate = rateOf(point.count, point.n);
-        return { quarter, attempts: point.n, passed: point.count, rate: point.p, low: rate.low, high: rate.high, lcl: point.lcl, ucl: point.ucl, outside: point.outside, suppressed: false };
-      }),
-    },
+    // centre and limits from stated baseline quarters, never from the quarters being judged (./passRateSeries)
+    series: passRateSeries(db, viewer, filters, { quarters: trend.quarters, byQuarter, hidden: seriesHidden, limits: chart.limits, splitAt: chart.splitAt }),
     errors: errorPareto(inPeriod.errors, inPeriod.n, hidden),
     feedback: feedbackModes.map((mode, i) => {
       const tally = tallyOfMode(mode);

@@ -2,7 +2,7 @@
 import { Router, type Request } from "express";
 import { z } from "zod";
 import { adjustQuerySchema, attemptExportQuerySchema, attemptListQuerySchema, errorsQuerySchema, insightFiltersSchema, insightFilterShape } from "../../shared/filters";
-import { chartLimitsQuerySchema } from "../../shared/schemas/chartSettings";
+import { overviewChartQuerySchema } from "../../shared/schemas/chartSettings";
 import type { Db } from "../db/client";
 import { allow, rowScope, signedInUser } from "../auth/guard";
 import { parseId, parseWith } from "../http/validate";
@@ -41,11 +41,12 @@ export function insightRoutes(db: Db): Router {
     sendCached(db, res, `options|${viewerKey(viewer)}`, () => filterOptions(db, viewer));
   });
 
-  // the p-chart's limits: plain binomial, or widened by Laney's σ_z with `limits=laney`
+  // the p-chart's limits: plain binomial, or widened by Laney's σ_z with `limits=laney`; `split=YYYY-MM-DD`
+  // splits it into phases before and after that date
   router.get("/insight/overview", allow("readNetwork"), (req, res) => {
-    const { limits } = parseWith(chartLimitsQuerySchema, req.query, "The filters");
-    const { viewer, filters, key } = context(req, `overview:${limits}`);
-    sendCached(db, res, key, () => overview(db, viewer, filters, limits));
+    const { limits, split } = parseWith(overviewChartQuerySchema, req.query, "The filters");
+    const { viewer, filters, key } = context(req, `overview:${limits}:${split ?? ""}`);
+    sendCached(db, res, key, () => overview(db, viewer, filters, { limits, splitAt: split ?? null }));
   });
 
   // comparisons between instructors: adjusted for case mix unless `adjust=none` asks for the crude view

@@ -25,6 +25,16 @@ export type ChartBaseline = z.infer<typeof chartBaselineSchema>;
 
 /** `laney` widens the limits by Laney's σ_z (for quarters with many attempts); `binomial` keeps them plain. */
 export const chartLimitModes = ["binomial", "laney"] as const;
-export const chartLimitsQuerySchema = z.object({
+/** The overview p-chart's options: its limits, and a date to split it at (an improvement action's start). */
+export const overviewChartQuerySchema = z.object({
   limits: z.enum(chartLimitModes, { error: `Use one of ${chartLimitModes.join(", ")}` }).default("binomial"),
+  split: z
+    .string()
+    .regex(/^\d{4}-(0[1-9]|1[0-2])-(0[1-9]|[12]\d|3[01])$/, { error: "Give the date to split the chart at as YYYY-MM-DD" })
+    .optional(),
 });
+export interface OverviewChartOptions {
+  limits: (typeof chartLimitModes)[number];
+  /** "YYYY-MM-DD", or null for one phase. */
+  splitAt: string | null;
+}

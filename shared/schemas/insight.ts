@@ -134,8 +134,24 @@ export const passRateSeriesSchema = z.object({
   sigmaZ: z.number().nullable(),
   points: z.array(seriesPointSchema),
   /**
+   * The chart split at a date (an improvement action's start): the quarters from the first whole quarter on
+   * or after it form a phase of their own, whose centre and limits come from its first four quarters with
+   * attempts (`baseline`). Until the phase has four, its quarters are judged against the limits before the
+   * split and `centre` is null. The centre before the split comes from baseline quarters before it only.
+   */
+  split: z
+    .object({
+      date: z.string(),
+      quarter: z.string(),
+      centre: share.nullable(),
+      baseline: z.object({ from: z.string(), to: z.string(), attempts: count }).nullable(),
+      sigmaZ: z.number().nullable(),
+    })
+    .nullable(),
+  /**
    * Run-chart rules over the shown quarters' rates around their median (Anhøj & Olesen 2014): the longest
    * run on one side and the crossings, with their limits; null for fewer than two quarters off the median.
+   * With a split, the median is that of the quarters before it, carried on (a shift after it signals).
    */
   runChart: z
     .object({ median: share, useful: count, run: count, longestRun: count, crossings: count, fewestCrossings: count, shift: z.boolean() })

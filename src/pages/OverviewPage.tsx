@@ -8,6 +8,7 @@ import { PageHeader } from "../components/PageHeader";
 import { SafetyNote } from "../components/SafetyNote";
 import { PassRateControlChart } from "../features/insight/charts/PassRateControlChart";
 import { ChartBaselineCaption } from "../features/insight/charts/ChartBaselineCaption";
+import { ChartSplitChoice } from "../features/insight/charts/ChartSplitChoice";
 import { ErrorParetoChart } from "../features/insight/charts/ErrorParetoChart";
 import { FeedbackComparisonChart } from "../features/insight/charts/FeedbackComparisonChart";
 import { InsightFilters } from "../features/insight/InsightFilters";
@@ -42,7 +43,8 @@ export default function OverviewPage() {
 function OverviewBody({ state }: { state: InsightFilterState }) {
   const [params] = useSearchParams();
   const limits = params.get("limits") === "laney" ? "laney" : undefined;
-  const query = useQuery({ ...insightQueries.overview({ ...state.api, limits }), placeholderData: keepPreviousData });
+  const split = /^\d{4}-\d{2}-\d{2}$/.test(params.get("split") ?? "") ? params.get("split")! : undefined;
+  const query = useQuery({ ...insightQueries.overview({ ...state.api, limits, split }), placeholderData: keepPreviousData });
   const actions = useActionMarks(state.api, query.data?.series.points.map((p) => p.quarter) ?? []);
   // those who may drill down open an error's trend and breakdown from its bar or row
   const drillDown = useCan("drillDown");
@@ -88,6 +90,7 @@ export function OverviewContent({ answer, actions, examineHref }: { answer: Over
         </p>
         <PassRateControlChart series={answer.series} minCount={min} actions={actions} />
         <ChartBaselineCaption series={answer.series} />
+        <ChartSplitChoice actions={actions ?? []} />
       </section>
 
       <section aria-labelledby="errors-heading" className="flex flex-col gap-3">

@@ -314,6 +314,44 @@ describe("the control chart's baseline and limits", () => {
   });
 });
 
+describe("the control chart split at an improvement action's start", () => {
+  const point = (o: OverviewAnswer, q: string) => o.series.points.find((p) => p.quarter === q)!;
+
+  it("judges the first quarters after the split against the limits before it, until the new phase has four", async () => {
+    // 2026-01-15 is inside 2026-Q1, so the first whole quarter after it is 2026-Q2
+    const o = await get("/api/insight/overview?split=2026-01-15");
+    // the default baseline 2025-Q3 … 2026-Q2 is cut at the split: 1 + 0 + 81 passed of 29 + 20 + 263 = 82/312
+    expect(o.series.baseline).toEqual({ from: "2025-Q3", to: "2026-Q1", source: "default", attempts: 312 });
+    expect(o.series.centre).toBeCloseTo(82 / 312, 12);
+    // one quarter after the split: too few for a centre of its own (Montgomery's phase I needs a baseline)
+    expect(o.series.split).toEqual({ date: "2026-01-15", quarter: "2026-Q2", centre: null, baseline: null, sigmaZ: null });
+    // 2026-Q2 (44 attempts) against the old limits, worked by hand: 82/312 ± 3·√(0.262821 · 0.737179 / 44)
+    // = 0.262821 ± 0.199072 → 0.063748 to 0.461893; its 28/44 = 0.636 is above
+    expect(point(o, "2026-Q2").lcl).toBeCloseTo(0.063748, 5);
+    expect(point(o, "2026-Q2").ucl).toBeCloseTo(0.461893, 5);
+    expect(point(o, "2026-Q2").outside).toBe(true);
+    // the run-chart median is that of the quarters before the split (1/29, 0, 81/263 → 1/29), carried on
+    expect(o.series.runChart?.median).toBeCloseTo(1 / 29, 12);
+  });
+
+  it("gives the phase after the split a centre of its own from its first four quarters", async () => {
+    // split at the first day of 2025-Q3: nothing before it, and the four quarters 2025-Q3 … 2026-Q2 after it
+    const o = await get("/api/insight/overview?split=2025-07-01");
+    expect(o.series.split).toEqual({ date: "2025-07-01", quarter: "2025-Q3", centre: 110 / 356, baseline: { from: "2025-Q3", to: "2026-Q2", attempts: 356 }, sigmaZ: null });
+    expect(o.series.centre).toBeNull();
+    // the same limits as the unsplit chart, whose baseline is those same four quarters
+    const whole = await get("/api/insight/overview");
+    expect(point(o, "2026-Q1").ucl).toBeCloseTo(point(whole, "2026-Q1").ucl!, 12);
+    expect(o.series.points.map((p) => p.outside)).toEqual(whole.series.points.map((p) => p.outside));
+  });
+
+  it("leaves the chart whole without a split, and refuses a date it cannot read", async () => {
+    expect((await get("/api/insight/overview")).series.split).toBeNull();
+    const bad = await t.coordinator.get("/api/insight/overview?split=2026-13-01").expect(422);
+    expect(bad.body.error.details[0]).toMatchObject({ path: "split" });
+  });
+});
+
 describe("suppression of small groups", () => {
   it("shows a group of 4 attempts to the quality lead", async () => {
     const o = await get("/api/insight/overview?profile=infant", t.quality);

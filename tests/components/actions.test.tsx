@@ -195,12 +195,42 @@ describe("action marks on trend charts", () => {
       sigmaZ: null,
       points: [point("2025-Q4", 8), point("2026-Q1", 10), point("2026-Q2", 12)],
       runChart: null,
+      split: null,
     };
     render(<PassRateControlChart series={series} minCount={5} actions={[...marks, { id: 4, title: "Too early", startDate: "2024-01-10", quarter: "2024-Q1" }]} />);
     const text = document.body.textContent ?? "";
     expect(text).toContain(`Improvement actions marked: A1 Infant depth refresher (from ${formatDay("2026-02-15")}, 2026 Q1).`);
     // an action outside the chart's quarters has no place on its axis
     expect(text).not.toContain("Too early");
+  });
+
+  it("steps the pass-rate chart's centre line at a split and says where the new phase's centre comes from", async () => {
+    const { PassRateControlChart } = await import("../../src/features/insight/charts/PassRateControlChart");
+    const point = (quarter: string, passed: number) => ({ quarter, attempts: 20, passed, rate: passed / 20, low: 0.2, high: 0.8, lcl: 0.1, ucl: 0.9, outside: false, suppressed: false });
+    const series = {
+      centre: 0.4,
+      baseline: { from: "2025-Q1", to: "2025-Q4", source: "default" as const, attempts: 80 },
+      limits: "binomial" as const,
+      sigmaZ: null,
+      points: [point("2025-Q4", 8), point("2026-Q1", 10), point("2026-Q2", 12)],
+      runChart: null,
+      split: { date: "2026-01-01", quarter: "2026-Q1", centre: 0.55, baseline: { from: "2026-Q1", to: "2026-Q4", attempts: 80 }, sigmaZ: null },
+    };
+    render(<PassRateControlChart series={series} minCount={5} actions={marks} />);
+    const text = document.body.textContent ?? "";
+    expect(text).toContain(`The chart is split at ${formatDay("2026-01-01")}: from 2026 Q1 the quarters form a phase of their own, with a centre line of 55`);
+    // the table view gives each quarter the centre it is judged against: 40 % before the split, 55 % after
+    const { seriesColumns } = await import("../../src/features/insight/charts/PassRateControlChart");
+    const centre = seriesColumns(5, series).find((column) => column.key === "centre")!;
+    expect(centre.header).toBe("Centre line (%)");
+    expect(series.points.map((p) => centre.value(p))).toEqual([40, 55, 55]);
+    expect(seriesColumns(5, { ...series, split: null }).some((column) => column.key === "centre")).toBe(false);
+  });
+
+  it("says a young phase is judged against the limits before the split", async () => {
+    const { splitSentence } = await import("../../src/features/insight/charts/PassRateControlChart");
+    const series = { split: { date: "2026-05-10", quarter: "2026-Q3", centre: null, baseline: null, sigmaZ: null } } as Parameters<typeof splitSentence>[0];
+    expect(splitSentence(series)).toContain("judged against the limits before the split until it has four quarters with attempts");
   });
 
   it("names them in the error trend chart's description too", async () => {

@@ -189,7 +189,7 @@ describe("one instructor", () => {
     learnerOutcomes: { measured: 600, firstAttempt: rate(240, 600), everPassed: rate(250, 600) },
     recordedCompletion: rate(158, 262),
     agreement: { pairs: 0, table: [[0, 0], [0, 0]], observed: null, expected: null, kappa: null, suppressed: false },
-    medianScore: 83, series: { centre: 0.3, baseline: { from: "2025-Q4", to: "2026-Q3", source: "default", attempts: 3200 }, limits: "binomial", sigmaZ: null, runChart: null, points: [point("2026-Q2", 325, 859), point("2026-Q3", 326, 855), point("2026-Q4", 259, 615)] },
+    medianScore: 83, series: { centre: 0.3, baseline: { from: "2025-Q4", to: "2026-Q3", source: "default", attempts: 3200 }, limits: "binomial", sigmaZ: null, runChart: null, split: null, points: [point("2026-Q2", 325, 859), point("2026-Q3", 326, 855), point("2026-Q4", 259, 615)] },
     errors: { attempts: 615, rows: [], suppressed: false }, feedback: [],
   });
 

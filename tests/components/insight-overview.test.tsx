@@ -268,6 +268,7 @@ describe("network overview", () => {
         ...overview.series,
         centre: 0.2719,
         runChart: null,
+        split: null,
         points: [
           overview.series.points[0],
           { quarter: "2026-Q2", attempts: null, passed: null, rate: null, low: null, high: null, lcl: null, ucl: null, outside: false, suppressed: true },

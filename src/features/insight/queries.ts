@@ -28,6 +28,8 @@ export interface ApiFilters {
   adjust?: string;
   /** The overview p-chart's limits: `laney` for Laney's p′ (plain binomial when absent). */
   limits?: string;
+  /** The overview p-chart split at this date, "YYYY-MM-DD" (one phase when absent). */
+  split?: string;
 }
 
 export const insightQueries = {

@@ -4,7 +4,7 @@
 import { useSearchParams } from "react-router";
 import { quarterLabel } from "../../../../shared/period";
 import { formatCount, formatFixed } from "../format";
-import type { PassRateSeries } from "./PassRateControlChart";
+import { splitSentence, type PassRateSeries } from "./PassRateControlChart";
 
 /** Quarters this large make plain binomial limits narrow enough to flag ordinary variation (common practice). */
 export const LANEY_SUGGESTED_ATTEMPTS = 200;
@@ -21,7 +21,8 @@ export function baselineSentence(series: PassRateSeries): string {
       : series.limits === "laney"
         ? "Laney's factor needs two baseline quarters with attempts; the limits are plain 3 standard errors."
         : "Limits are 3 standard errors of each quarter's number of attempts.";
-  return `Centre line from ${range} (${chosen}${size}): later quarters are judged against it and never move it. ${limits}`;
+  const cut = series.split === null ? "" : ` before the split`;
+  return `Centre line${cut} from ${range} (${chosen}${size}): later quarters are judged against it and never move it. ${limits}`;
 }
 
 export function ChartBaselineCaption({ series }: { series: PassRateSeries }) {
@@ -37,6 +38,7 @@ export function ChartBaselineCaption({ series }: { series: PassRateSeries }) {
   return (
     <div className="flex max-w-3xl flex-col gap-2 text-small text-muted">
       <p>{baselineSentence(series)}</p>
+      {series.split !== null && <p>{splitSentence(series)}</p>}
       {(laney || largest >= LANEY_SUGGESTED_ATTEMPTS) && (
         <label className="inline-flex items-center gap-2 text-ink">
           <input type="checkbox" checked={laney} onChange={(event) => toggle(event.target.checked)} />

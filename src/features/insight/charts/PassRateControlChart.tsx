@@ -16,6 +16,7 @@ import { formatCount, formatInterval, formatPercent, percentValue, suppressedTex
 import { quarterLabel } from "../../../../shared/period";
 import type { ActionMark } from "../../../../shared/schemas/actions";
 import { actionMarkLayers, describeActionMarks } from "../../actions/chartMarks";
+import { formatDay } from "../../../lib/formatting";
 
 export type PassRateSeries = z.infer<typeof passRateSeriesSchema>;
 export type SeriesPoint = PassRateSeries["points"][number];
@@ -53,14 +54,38 @@ export function describeSeries(series: PassRateSeries): string {
         : `The run-chart rules find no shift: the longest run on one side of the median ${formatPercent(runs.median)} is ${runs.run} (a shift needs more than ${runs.longestRun}) and the series crosses it ${runs.crossings} time${runs.crossings === 1 ? "" : "s"}.`,
     );
   }
+  const split = splitSentence(series);
+  if (split) parts.push(split);
   const hidden = series.points.filter((p) => p.suppressed).length;
   if (hidden > 0) parts.push(`${hidden} quarter${hidden === 1 ? " is" : "s are"} hidden because they hold too few attempts.`);
   return parts.join(" ");
 }
 
-export function seriesColumns(minCount: number): Column<SeriesPoint>[] {
+/** How a split chart judges the quarters after its split, in words; empty without a split. */
+export function splitSentence(series: PassRateSeries): string {
+  const { split } = series;
+  if (split === null) return "";
+  const start = `The chart is split at ${formatDay(split.date)}: from ${quarterLabel(split.quarter)} the quarters form a phase of their own`;
+  if (split.centre === null || split.baseline === null) {
+    return `${start}, judged against the limits before the split until it has four quarters with attempts to set its own centre line.`;
+  }
+  const range = split.baseline.from === split.baseline.to ? quarterLabel(split.baseline.from) : `${quarterLabel(split.baseline.from)} to ${quarterLabel(split.baseline.to)}`;
+  return `${start}, with a centre line of ${formatPercent(split.centre)} from ${range} (${formatCount(split.baseline.attempts)} attempts).`;
+}
+
+/** The centre line each quarter is judged against: the phase after a split has its own once it has one. */
+function centreOf(series: PassRateSeries, quarter: string): number | null {
+  const { split } = series;
+  return split !== null && split.centre !== null && quarter >= split.quarter ? split.centre : series.centre;
+}
+
+export function seriesColumns(minCount: number, series?: PassRateSeries): Column<SeriesPoint>[] {
   const hidden = suppressedText(minCount);
+  // with a split, each quarter's own centre line: the reader of the table cannot see where it steps
+  const centreColumn: Column<SeriesPoint>[] =
+    series?.split?.centre == null ? [] : [{ key: "centre", header: "Centre line (%)", value: (p) => percentValue(centreOf(series, p.quarter)), render: (p) => formatPercent(centreOf(series, p.quarter)), align: "right" }];
   return [
+    ...centreColumn,
     { key: "quarter", header: "Quarter", value: (p) => p.quarter, render: (p) => quarterLabel(p.quarter) },
     { key: "attempts", header: "Attempts", value: (p) => p.attempts, render: (p) => (p.suppressed ? hidden : formatCount(p.attempts)), align: "right" },
     { key: "passed", header: "Passed", value: (p) => p.passed, render: (p) => (p.suppressed ? hidden : formatCount(p.passed)), align: "right" },
@@ -93,6 +118,7 @@ export function PassRateControlChart({
   // without a single quarter to show, a centre line alone would only hint at the hidden figures
   const nothingShown = series.points.every((p) => p.rate === null);
   const centre = nothingShown ? null : series.centre;
+  const phased = !nothingShown && series.split !== null && series.split.centre !== null;
   const plot = useCallback(
     (points: readonly SeriesPoint[], { width }: ChartSize): Plot.PlotOptions => {
       const shown = points.filter((p) => p.rate !== null);
@@ -107,10 +133,23 @@ export function PassRateControlChart({
         x: { type: "point", domain: points.map((p) => p.quarter), tickFormat: (q: string) => (width < 500 ? `${q.slice(5)}\n${q.slice(0, 4)}` : quarterLabel(q)), label: null, padding: 0.4 },
         y: { domain: [0, top], tickFormat: percentTick, label: "Measured pass rate", grid: true },
         marks: [
-          centre === null ? null : Plot.ruleY([centre], { stroke: ink.main, strokeWidth: 1.5 }),
-          width < 500 || centre === null
+          // one centre line, or with a split a step from the centre before it to the new phase's at the boundary
+          phased
+            ? Plot.line(points, { x: "quarter", y: (p: SeriesPoint) => centreOf(series, p.quarter), curve: "step", stroke: ink.main, strokeWidth: 1.5 })
+            : centre === null
+              ? null
+              : Plot.ruleY([centre], { stroke: ink.main, strokeWidth: 1.5 }),
+          width < 500 || centreOf(series, points[points.length - 1].quarter) === null || nothingShown
             ? null
-            : Plot.text([centre], { x: () => points[points.length - 1].quarter, y: (c: number) => c, text: () => `centre ${formatPercent(centre)}`, dx: 14, dy: -8, textAnchor: "start", fill: ink.text }),
+            : Plot.text([centreOf(series, points[points.length - 1].quarter)], {
+                x: () => points[points.length - 1].quarter,
+                y: (c: number) => c,
+                text: (c: number) => `centre ${formatPercent(c)}`,
+                dx: 14,
+                dy: -8,
+                textAnchor: "start",
+                fill: ink.text,
+              }),
           Plot.line(shown, { x: "quarter", y: "ucl", curve: "step", stroke: ink.limit, strokeDasharray: "5 4" }),
           Plot.line(shown, { x: "quarter", y: "lcl", curve: "step", stroke: ink.limit, strokeDasharray: "5 4" }),
           Plot.ruleX(shown, { x: "quarter", y1: "low", y2: "high", stroke: ink.soft, strokeWidth: 3 }),
@@ -136,7 +175,7 @@ export function PassRateControlChart({
         ],
       };
     },
-    [centre, actions],
+    [centre, actions, phased, series, nothingShown],
   );
 
   if (nothingShown) {
@@ -148,7 +187,7 @@ export function PassRateControlChart({
       title={title}
       description={describeSeries(series) + describeActionMarks(actions, series.points.map((p) => p.quarter))}
       data={series.points}
-      columns={seriesColumns(minCount)}
+      columns={seriesColumns(minCount, series)}
       rowKey={(p) => p.quarter}
       plot={plot}
       exportFileName="pass-rate-by-quarter"
@@ -156,7 +195,7 @@ export function PassRateControlChart({
         <ChartLegend
           items={[
             { label: "Pass rate (bar: 95 % interval)", swatch: <><path d="M12 0v12" stroke={ink.soft} strokeWidth="3" />{shapeSwatch("circle", ink.main, "white")}</> },
-            { label: "Centre line", swatch: lineSwatch(ink.main) },
+            { label: phased ? "Centre line (stepping at the split)" : "Centre line", swatch: lineSwatch(ink.main) },
             { label: "Control limits", swatch: lineSwatch(ink.limit, "5 4") },
             { label: "Outside the limits", swatch: shapeSwatch("diamond", ink.accent, ink.text) },
             ...(describeActionMarks(actions, series.points.map((p) => p.quarter)) ? [{ label: "Improvement action starts", swatch: lineSwatch(ink.accentDark, "3 3") }] : []),
