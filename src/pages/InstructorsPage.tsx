@@ -1,6 +1,7 @@
 // Instructors (coordinator, quality lead): every instructor's pass rate on the funnel plot and in a table,
 // each linking to that instructor's page.
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
+import { useCallback } from "react";
 import { Link, useSearchParams } from "react-router";
 import type { InstructorsAnswer } from "../../shared/schemas/insight";
 import { DataTable, type Column } from "../components/DataTable";
@@ -76,6 +77,8 @@ export function InstructorsContent({ answer }: { answer: InstructorsAnswer }) {
     .filter((r) => r.adjustedRate !== null && r.effectiveAttempts !== null && r.passRate.successes !== null)
     .map((r) => ({ key: r.id, label: r.code, n: r.effectiveAttempts!, attempts: r.attempts, successes: r.passRate.successes!, rate: r.adjustedRate!, z: r.z, position: r.position }));
   const outside = answer.instructors.filter((r) => r.position && r.position !== "inside");
+  // each point opens that instructor's page with the same filters, like the table's link
+  const unitHref = useCallback((unit: FunnelUnit) => `/instructors/${unit.key}${search}`, [search]);
   return (
     <div className="flex flex-col gap-6">
       <AdjustChoice />
@@ -124,6 +127,7 @@ export function InstructorsContent({ answer }: { answer: InstructorsAnswer }) {
         subject="each instructor"
         unitHeader="Instructor"
         exportFileName={`instructor-funnel-${answer.period.from}`}
+        unitHref={unitHref}
       />
       <DataTable
         caption="Instructors"

@@ -50,14 +50,26 @@ function OverviewBody({ state }: { state: InsightFilterState }) {
   const drillDown = useCan("drillDown");
   const valuesKey = JSON.stringify(state.values);
   const examineHref = useCallback((row: { error: string }) => `/errors?${linkParams(JSON.parse(valuesKey) as InsightFilterState["values"], { error: row.error })}`, [valuesKey]);
+  const quarterHref = useCallback((quarter: string) => `/attempts?${linkParams(JSON.parse(valuesKey) as InsightFilterState["values"], { quarter })}`, [valuesKey]);
   return (
     <QueryStatus query={query} loadingLabel={`Loading ${quarterLabel(state.quarter)}…`} errorTitle="The overview could not be loaded">
-      {(answer) => (answer.attempts === 0 ? <NoDataForFilters state={state} /> : <OverviewContent answer={answer} actions={actions} examineHref={drillDown ? examineHref : undefined} />)}
+      {(answer) => (answer.attempts === 0 ? <NoDataForFilters state={state} /> : <OverviewContent answer={answer} actions={actions} examineHref={drillDown ? examineHref : undefined} quarterHref={drillDown ? quarterHref : undefined} />)}
     </QueryStatus>
   );
 }
 
-export function OverviewContent({ answer, actions, examineHref }: { answer: OverviewAnswer; actions?: readonly ActionMark[]; examineHref?: (row: { error: string }) => string }) {
+export function OverviewContent({
+  answer,
+  actions,
+  examineHref,
+  quarterHref,
+}: {
+  answer: OverviewAnswer;
+  actions?: readonly ActionMark[];
+  examineHref?: (row: { error: string }) => string;
+  /** For those who may drill down: a quarter's point opens its attempts. */
+  quarterHref?: (quarter: string) => string;
+}) {
   const min = answer.suppressionMinCount;
   return (
     <div className="flex flex-col gap-8">
@@ -88,7 +100,7 @@ export function OverviewContent({ answer, actions, examineHref }: { answer: Over
           The control limits show how far a quarter's pass rate can move by chance alone, given its number of attempts. A quarter outside them
           is a real change worth looking into, for better or worse.
         </p>
-        <PassRateControlChart series={answer.series} minCount={min} actions={actions} />
+        <PassRateControlChart series={answer.series} minCount={min} actions={actions} quarterHref={quarterHref} />
         <ChartBaselineCaption series={answer.series} />
         <ChartSplitChoice actions={actions ?? []} />
       </section>

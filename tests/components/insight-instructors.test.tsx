@@ -151,6 +151,10 @@ describe("instructors", () => {
     expect(labels).toContain("IN06");
     expect(labels).toContain("IN08");
     expect(labels).not.toContain("IN04");
+    // every point is a door to that instructor's page, with the same filters as the table's links
+    const doors = [...plot.querySelectorAll("[data-href]")].map((g) => g.getAttribute("data-href"));
+    expect(doors).toContain("/instructors/6?quarter=2026-Q4");
+    expect(doors).toContain("/instructors/4?quarter=2026-Q4");
   });
 
   it("lists every instructor in a table whose rows link to the instructor's page, keeping the filters", async () => {

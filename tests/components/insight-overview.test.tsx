@@ -57,6 +57,7 @@ const overview: OverviewAnswer = overviewAnswerSchema.parse({
     sigmaZ: null,
     // 25.7 %, 25.5 %, 29.5 %: around the median 25.7 % one point below, one above (Anhøj limits for 2 points: run 4, crossings 0)
     runChart: { median: 0.2568, useful: 2, run: 1, longestRun: 4, crossings: 1, fewestCrossings: 0, shift: false },
+    split: null,
     points: [
       { quarter: "2026-Q1", attempts: 666, passed: 171, rate: 0.2568, low: 0.225, high: 0.2913, lcl: 0.2196, ucl: 0.3242, outside: false, suppressed: false },
       { quarter: "2026-Q2", attempts: 941, passed: 240, rate: 0.2551, low: 0.2283, high: 0.2838, lcl: 0.2282, ucl: 0.3156, outside: false, suppressed: false },
@@ -200,6 +201,16 @@ describe("network overview", () => {
     const first = overview.errors.rows[0];
     const link = screen.getByRole("link", { name: `Trend and breakdown of “${first.label}”` });
     expect(new URLSearchParams(link.getAttribute("href")!.split("?")[1]).get("error")).toBe(first.error);
+  });
+
+  it("makes each quarter of the control chart a door to that quarter's attempts for those who may drill down", async () => {
+    serve("coordinator", overview);
+    renderApp("/overview?quarter=2026-Q3");
+    const plot = await screen.findByRole("img", { name: "Measured pass rate by quarter" });
+    const doors = [...plot.querySelectorAll("[data-href]")].map((g) => g.getAttribute("data-href"));
+    const shown = overview.series.points.filter((p) => p.rate !== null);
+    expect(doors).toHaveLength(shown.length);
+    expect(doors).toContain("/attempts?quarter=2026-Q3");
   });
 
   it("the live-against-hidden table and the recorded-against-measured table hold the same rates", async () => {

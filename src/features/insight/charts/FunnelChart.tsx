@@ -111,9 +111,11 @@ export interface FunnelChartProps {
   subject: string;
   unitHeader: string;
   exportFileName: string;
+  /** Where a point leads (an instructor's page); without it the points are pictures only. */
+  unitHref?: (unit: FunnelUnit) => string;
 }
 
-export function FunnelChart({ title, units, curve, networkRate, scale, adjusted, subject, unitHeader, exportFileName }: FunnelChartProps) {
+export function FunnelChart({ title, units, curve, networkRate, scale, adjusted, subject, unitHeader, exportFileName, unitHref }: FunnelChartProps) {
   const plot = useCallback(
     (rows: readonly FunnelUnit[], { width }: ChartSize): Plot.PlotOptions => {
       const nMax = Math.max(10, ...rows.map((u) => u.n), ...curve.map((c) => c.n));
@@ -146,6 +148,7 @@ export function FunnelChart({ title, units, curve, networkRate, scale, adjusted,
             stroke: colourOf,
             strokeWidth: 2,
             title: (u: FunnelUnit) => `${u.label}: ${formatPercent(u.rate)}${adjusted ? " adjusted" : ""}, ${u.attempts} attempts — ${funnelPositionText(u.position)}`,
+            ...(unitHref ? { href: unitHref } : {}),
           }),
           Plot.text(labelled, { x: "n", y: "rate", text: "label", dx: 10, textAnchor: "start", fill: ink.text, fontWeight: 600, stroke: "white", strokeWidth: 3, paintOrder: "stroke" } as Plot.TextOptions),
           Plot.dot(me, { x: "n", y: "rate", symbol: "star", r: 9, fill: ink.accent, stroke: ink.text, strokeWidth: 1.5 }),
@@ -153,7 +156,7 @@ export function FunnelChart({ title, units, curve, networkRate, scale, adjusted,
         ],
       };
     },
-    [curve, networkRate, adjusted],
+    [curve, networkRate, adjusted, unitHref],
   );
 
   const hasMe = units.some((u) => u.isMe);

@@ -5,6 +5,7 @@
 import { Y_TITLE_MARGIN_TOP } from "./axisSpace";
 import * as Plot from "@observablehq/plot";
 import { useCallback } from "react";
+import { Link } from "react-router";
 import type { z } from "zod";
 import type { passRateSeriesSchema } from "../../../../shared/schemas/insight";
 import { Chart, type ChartSize } from "../../../components/Chart";
@@ -79,14 +80,27 @@ function centreOf(series: PassRateSeries, quarter: string): number | null {
   return split !== null && split.centre !== null && quarter >= split.quarter ? split.centre : series.centre;
 }
 
-export function seriesColumns(minCount: number, series?: PassRateSeries): Column<SeriesPoint>[] {
+export function seriesColumns(minCount: number, series?: PassRateSeries, quarterHref?: (quarter: string) => string): Column<SeriesPoint>[] {
   const hidden = suppressedText(minCount);
   // with a split, each quarter's own centre line: the reader of the table cannot see where it steps
   const centreColumn: Column<SeriesPoint>[] =
     series?.split?.centre == null ? [] : [{ key: "centre", header: "Centre line (%)", value: (p) => percentValue(centreOf(series, p.quarter)), render: (p) => formatPercent(centreOf(series, p.quarter)), align: "right" }];
   return [
     ...centreColumn,
-    { key: "quarter", header: "Quarter", value: (p) => p.quarter, render: (p) => quarterLabel(p.quarter) },
+    {
+      key: "quarter",
+      header: "Quarter",
+      value: (p) => p.quarter,
+      // the table view is the keyboard's way to the quarter's attempts that the chart's points give the mouse
+      render: (p) =>
+        quarterHref && p.attempts ? (
+          <Link to={quarterHref(p.quarter)} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+            {quarterLabel(p.quarter)}
+          </Link>
+        ) : (
+          quarterLabel(p.quarter)
+        ),
+    },
     { key: "attempts", header: "Attempts", value: (p) => p.attempts, render: (p) => (p.suppressed ? hidden : formatCount(p.attempts)), align: "right" },
     { key: "passed", header: "Passed", value: (p) => p.passed, render: (p) => (p.suppressed ? hidden : formatCount(p.passed)), align: "right" },
     { key: "rate", header: "Pass rate (%)", value: (p) => percentValue(p.rate), render: (p) => (p.suppressed ? hidden : formatPercent(p.rate)), align: "right" },
@@ -108,12 +122,15 @@ export function PassRateControlChart({
   minCount,
   title = "Measured pass rate by quarter",
   actions = noActions,
+  quarterHref,
 }: {
   series: PassRateSeries;
   minCount: number;
   title?: string;
   /** Improvement actions to mark at the quarter they start in. */
   actions?: readonly ActionMark[];
+  /** Where a quarter's point leads (that quarter's attempts); without it the points are pictures only. */
+  quarterHref?: (quarter: string) => string;
 }) {
   // without a single quarter to show, a centre line alone would only hint at the hidden figures
   const nothingShown = series.points.every((p) => p.rate === null);
@@ -123,6 +140,7 @@ export function PassRateControlChart({
     (points: readonly SeriesPoint[], { width }: ChartSize): Plot.PlotOptions => {
       const shown = points.filter((p) => p.rate !== null);
       const outside = shown.filter((p) => p.outside);
+      const link = quarterHref ? { href: (p: SeriesPoint) => quarterHref(p.quarter) } : {};
       const top = shareAxisTop(shown.flatMap((p) => [p.ucl, p.high, p.rate]));
       return {
         height: width < 500 ? 260 : 320,
@@ -156,7 +174,7 @@ export function PassRateControlChart({
           Plot.line(shown, { x: "quarter", y: "rate", stroke: ink.main, strokeWidth: 1.5 }),
           Plot.dot(
             shown.filter((p) => !p.outside),
-            { x: "quarter", y: "rate", r: 4.5, fill: ink.main, stroke: "white", title: (p: SeriesPoint) => `${quarterLabel(p.quarter)}: ${formatPercent(p.rate)}` },
+            { x: "quarter", y: "rate", r: 4.5, fill: ink.main, stroke: "white", title: (p: SeriesPoint) => `${quarterLabel(p.quarter)}: ${formatPercent(p.rate)}`, ...link },
           ),
           Plot.dot(outside, {
             x: "quarter",
@@ -167,6 +185,7 @@ export function PassRateControlChart({
             stroke: ink.text,
             strokeWidth: 1.5,
             title: (p: SeriesPoint) => `${quarterLabel(p.quarter)}: ${formatPercent(p.rate)}, outside the control limits`,
+            ...link,
           }),
           // on narrow screens the diamonds alone mark these quarters (the words would overlap)
           width < 500 ? null : Plot.text(outside.filter((p) => side(p) === "above"), { x: "quarter", y: "rate", text: () => "above", dy: -15, fill: ink.text, fontWeight: 600 }),
@@ -175,7 +194,7 @@ export function PassRateControlChart({
         ],
       };
     },
-    [centre, actions, phased, series, nothingShown],
+    [centre, actions, phased, series, nothingShown, quarterHref],
   );
 
   if (nothingShown) {
@@ -187,7 +206,7 @@ export function PassRateControlChart({
       title={title}
       description={describeSeries(series) + describeActionMarks(actions, series.points.map((p) => p.quarter))}
       data={series.points}
-      columns={seriesColumns(minCount, series)}
+      columns={seriesColumns(minCount, series, quarterHref)}
       rowKey={(p) => p.quarter}
       plot={plot}
       exportFileName="pass-rate-by-quarter"
