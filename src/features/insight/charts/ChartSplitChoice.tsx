@@ -21,11 +21,11 @@ export function ChartSplitChoice({ actions }: { actions: readonly ActionMark[] }
     setParams(changed, { replace: true });
   };
   return (
-    <div className="flex flex-wrap items-center gap-2 text-small">
+    <div className="flex max-w-xl flex-col gap-1 text-small">
       <label htmlFor={id} className="text-ink">
         Split the chart at an improvement action
       </label>
-      <select id={id} value={current} onChange={(event) => choose(event.target.value)} className={`${controlClass(false)} w-auto`}>
+      <select id={id} value={current} onChange={(event) => choose(event.target.value)} className={controlClass(false)}>
         <option value="">No split: one centre line</option>
         {offered.map((action) => (
           <option key={`${action.id}-${action.startDate}`} value={action.startDate}>
