@@ -8,7 +8,7 @@ import { eq } from "drizzle-orm";
 import { courseTypes, feedbackModes } from "../../shared/domain";
 import type { ErrorRow, GroupResult, HiddenReason, RateFigure, ReportComparison, ReportData, TrendPoint } from "../../shared/schemas/report";
 import { hiddenReasonOf } from "../../shared/suppression";
-import { comparisonPeriods, parsePeriod, periodMonths, quartersOf, trailingQuarters, type ReportPeriod } from "../../shared/period";
+import { comparisonPeriods, parsePeriod, periodMonths, quartersBetween, quartersOf, trailingQuarters, type ReportPeriod } from "../../shared/period";
 import { GUIDELINE_SOURCES, SAFETY_NOTE, patientTypes, type NetworkPolicy } from "../../shared/scoring/policy";
 import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
 import { changeFrom, cohensKappa, pareto, pChart } from "../../shared/stats";
@@ -24,6 +24,7 @@ import { writeNarrative } from "./narrative";
 import { passTallyByQuarter, reportNumbers, reportScope, type PassTally } from "./queries";
 import { courseTypeNames, errorLabels, feedbackNames, patientTypeNames, retentionGroupNames } from "../../shared/vocabulary";
 import { learnerOutcomes } from "../metrics/learnerOutcomes";
+import { chartBaseline } from "../insight/chartBaseline";
 import { retention } from "../metrics/retention";
 
 export const TREND_QUARTERS = 8;
@@ -48,6 +49,26 @@ export function saveQuarterNotes(db: Db, period: string, actions: string, userId
 
 function addTallies(tallies: PassTally[]): PassTally {
   return tallies.reduce((sum, t) => ({ attempts: sum.attempts + t.attempts, passed: sum.passed + t.passed }), { attempts: 0, passed: 0 });
+}
+
+/**
+ * The control chart's baseline: the quarters the overview's chart takes its centre from (a coordinator's
+ * setting, or the first four quarters with attempts), cut at the report's last quarter so a report never
+ * rests on what came after it. A quarter the report family hides stays out, so the centre cannot be used to
+ * work it out; without a baseline quarter before the period ends, there is no centre and no limits.
+ */
+function reportBaseline(db: Db, family: FamilyRelease, lastQuarter: string): { samples: { n: number; count: number }[]; range: { from: string; to: string } | null } {
+  const stated = chartBaseline(db);
+  if (stated.from === null || stated.to === null || stated.from > lastQuarter) return { samples: [], range: null };
+  const to = stated.to < lastQuarter ? stated.to : lastQuarter;
+  const baselineQuarters = quartersBetween(stated.from, to);
+  const tallies = passTallyByQuarter(db, baselineQuarters);
+  const samples = baselineQuarters.flatMap((quarter) => {
+    const tally = tallies.get(quarter)!;
+    if (tally.attempts === 0 || family.hidden("attempts", [quarter], tally.attempts) !== null) return [];
+    return [{ n: tally.attempts, count: tally.passed }];
+  });
+  return { samples, range: samples.length === 0 ? null : { from: stated.from, to } };
 }
 
 /** The family's decision for one measure over the report's quarters. */
@@ -152,7 +173,11 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
   });
 
   const trendTallies = trendQuarters.map((q) => tallies.get(q)!);
-  const chart = pChart(trendTallies.map((t) => ({ n: t.attempts, count: t.passed })));
+  const baseline = reportBaseline(db, family, quarters[quarters.length - 1]);
+  const chart = pChart(
+    trendTallies.map((t) => ({ n: t.attempts, count: t.passed })),
+    { baseline: baseline.samples },
+  );
   const trendPoints: TrendPoint[] = trendQuarters.map((quarter, i) => {
     const rate = rateFigure(trendTallies[i].passed, trendTallies[i].attempts, min, family.hidden("attempts", [quarter], trendTallies[i].attempts));
     const point = chart.points[i];
@@ -218,7 +243,7 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
     },
     passRate,
     comparisons,
-    trend: { points: trendPoints, centre: chart.centre },
+    trend: { points: trendPoints, centre: chart.centre, baseline: baseline.range },
     byPatientType: groupResults(
       patientTypes.map((p) => ({ key: p, label: patientTypeNames[p], tally: numbers.byPatientType[p] })),
       min,

@@ -3,6 +3,7 @@
 import PDFDocument from "pdfkit";
 import type { CountFigure, ReportData } from "../../shared/schemas/report";
 import { markGeometry } from "../../shared/markGeometry";
+import { trendBaselineText } from "../../shared/reportTrend";
 import { drawErrorBars, drawRateBars, drawTrendChart } from "./pdfCharts";
 import { colours, FONT, registerFonts, textRuns, type Doc } from "./pdfStyle";
 import { dimensionNames, figureNames, retentionFigureName } from "../../shared/vocabulary";
@@ -207,7 +208,8 @@ function drawTrend(page: PageFlow, data: ReportData) {
   page.y += height + 4;
   page.paragraph(
     "Each dot is one quarter's share of measured attempts that met the pass rule; the shaded band is its 95 % interval. " +
-      "Dashes mark the 3-sigma control limits of a p-chart: a quarter outside them (ringed) differs by more than chance would explain.",
+      "Dashes mark the 3-sigma control limits of a p-chart: a quarter outside them (ringed) differs by more than chance would explain. " +
+      trendBaselineText(data.trend),
     { size: 7.5, colour: colours.muted, gapAfter: 14 },
   );
 }

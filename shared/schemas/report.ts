@@ -140,7 +140,11 @@ export interface ReportData {
   };
   passRate: RateFigure;
   comparisons: ReportComparison[];
-  trend: { points: TrendPoint[]; centre: number | null };
+  /**
+   * `centre` from the baseline quarters `baseline` (the overview chart's, cut at the report's last quarter),
+   * never from the quarters judged. Versions stored before the baseline was recorded have no `baseline`.
+   */
+  trend: { points: TrendPoint[]; centre: number | null; baseline?: { from: string; to: string } | null };
   byPatientType: GroupResult[];
   errors: { rows: ErrorRow[]; attemptsWithErrors: CountFigure; actions: string };
   feedback: {

@@ -10,6 +10,7 @@ import { ChartLegend, lineSwatch, shapeSwatch } from "../insight/ChartLegend";
 import { ink, percentTick, shareAxisTop } from "../insight/chartStyle";
 import { formatShare } from "./figures";
 import { quarterLabel } from "../../../shared/period";
+import { trendBaselineText } from "../../../shared/reportTrend";
 
 type Trend = ReportData["trend"];
 
@@ -35,8 +36,10 @@ export function describeTrend(trend: Trend): string {
   const last = shown[shown.length - 1];
   const parts = [
     `Share of measured attempts that met the pass rule, from ${first.passRate.text} in ${quarterLabel(first.quarter)} to ${last.passRate.text} in ${quarterLabel(last.quarter)}` +
-      (trend.centre !== null ? `, around an average of ${formatShare(trend.centre)}.` : "."),
+      (trend.centre === null ? "." : trend.baseline === undefined ? `, around an average of ${formatShare(trend.centre)}.` : `, around a centre line of ${formatShare(trend.centre)}.`),
   ];
+  const baseline = trendBaselineText(trend);
+  if (baseline) parts.push(baseline);
   const outside = shown.filter((p) => p.outside);
   if (outside.length === 0) parts.push("Every quarter stays within the range that chance alone would give.");
   else {
@@ -89,7 +92,7 @@ export function TrendChart({ trend }: { trend: Trend }) {
           centre === null ? null : Plot.ruleY([centre], { stroke: ink.main, strokeWidth: 1.5 }),
           narrow || centre === null
             ? null
-            : Plot.text([centre], { x: points[points.length - 1].quarter, y: (c: number) => c, text: () => `average ${formatShare(centre)}`, dx: 10, textAnchor: "start", fill: ink.text }),
+            : Plot.text([centre], { x: points[points.length - 1].quarter, y: (c: number) => c, text: () => `${trend.baseline === undefined ? "average" : "centre"} ${formatShare(centre)}`, dx: 10, textAnchor: "start", fill: ink.text }),
           Plot.line(shown, { x: "quarter", y: "ucl", curve: "step", stroke: ink.limit, strokeDasharray: "5 4" }),
           Plot.line(shown, { x: "quarter", y: "lcl", curve: "step", stroke: ink.limit, strokeDasharray: "5 4" }),
           Plot.ruleX(shown, { x: "quarter", y1: "low", y2: "high", stroke: ink.soft, strokeWidth: 3 }),
@@ -111,7 +114,7 @@ export function TrendChart({ trend }: { trend: Trend }) {
         ],
       };
     },
-    [centre],
+    [centre, trend.baseline],
   );
 
   return (

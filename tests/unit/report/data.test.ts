@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Db } from "../../../server/db/client";
 import { buildReportData, saveQuarterNotes } from "../../../server/reports/data";
 import { reportNumbers } from "../../../server/reports/queries";
+import { saveChartBaseline } from "../../../server/insight/chartBaseline";
 import { quarterSummary } from "../../../server/stats/quarterSummary";
 import type { ReportData } from "../../../shared/schemas/report";
 import { attemptErrorNames } from "../../../shared/scoring/scoreAttempt";
@@ -66,10 +67,13 @@ describe("report data for 2026-Q3", () => {
     expect(lastYear.verdict).toBe("no clear change");
   });
 
-  it("draws eight quarters with p-chart limits from the eight-quarter centre 38/70", () => {
+  it("draws eight quarters with p-chart limits around the baseline's centre 38/70", () => {
     expect(q3.trend.points.map((p) => p.quarter)).toEqual([
       "2024-Q4", "2025-Q1", "2025-Q2", "2025-Q3", "2025-Q4", "2026-Q1", "2026-Q2", "2026-Q3",
     ]);
+    // the overview's default baseline, the first four quarters with attempts: here only three exist
+    // (2025-Q3 6/10, 2026-Q2 6/20, 2026-Q3 26/40)
+    expect(q3.trend.baseline).toEqual({ from: "2025-Q3", to: "2026-Q3" });
     expect(q3.trend.centre).toBeCloseTo(38 / 70, 10);
     const last = q3.trend.points[7];
     // Montgomery's p-chart: p̄ ± 3·sqrt(p̄(1 − p̄)/n), computed by hand for p̄ = 38/70, n = 40
@@ -78,6 +82,29 @@ describe("report data for 2026-Q3", () => {
     expect(last.outside).toBe(false);
     // quarters without attempts have no data, and no limits: nothing is hidden there
     expect(q3.trend.points[0]).toMatchObject({ lcl: null, ucl: null, passRate: { value: null, hidden: null, text: "no data" } });
+  });
+
+  it("never takes the centre from quarters after the report's period, and follows a coordinator's baseline", () => {
+    // 2026-Q2's report: the baseline is cut at its own last quarter, 6/10 + 6/20 = 12/30
+    const q2 = buildReportData(db, "2026-Q2");
+    expect(q2.trend.baseline).toEqual({ from: "2025-Q3", to: "2026-Q2" });
+    expect(q2.trend.centre).toBeCloseTo(12 / 30, 10);
+    saveChartBaseline(db, { from: "2026-Q2", to: "2026-Q2" });
+    try {
+      const withSetting = buildReportData(db, "2026-Q3");
+      expect(withSetting.trend.baseline).toEqual({ from: "2026-Q2", to: "2026-Q2" });
+      // Montgomery's p-chart around p̄ = 6/20 = 0.3 for n = 40: 0.3 ± 3·√(0.3 · 0.7 / 40) = 0.082630 to 0.517370;
+      // 26/40 = 0.65 lies above it
+      expect(withSetting.trend.centre).toBeCloseTo(0.3, 10);
+      expect(withSetting.trend.points[7]).toMatchObject({ outside: true });
+      expect(withSetting.trend.points[7].ucl).toBeCloseTo(0.51737, 4);
+      // a report of a period before the baseline has no centre and no limits to judge it by
+      const early = buildReportData(db, "2025-Q3");
+      expect(early.trend).toMatchObject({ centre: null, baseline: null });
+      expect(early.trend.points.every((p) => p.lcl === null && p.ucl === null && !p.outside)).toBe(true);
+    } finally {
+      saveChartBaseline(db, null);
+    }
   });
 
   it("hides the 2 infant attempts and, so the total cannot reveal them, the 6 child attempts", () => {
