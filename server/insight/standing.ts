@@ -16,7 +16,19 @@ import type { Db } from "../db/client";
 import { instructors } from "../db/schema";
 import { instructorFunnel, type InstructorFunnel } from "../metrics/instructorFunnel";
 import { ceilingFigures, medianAtCeiling } from "../metrics/ceiling";
-import { addTally, emptyTally, medianOfCounts, talliesBy, talliesByPair, valueCounts, valueCountsBy, type Tally, type ValueCounts } from "../metrics/summaries";
+import {
+  addTally,
+  emptyTally,
+  medianOfCounts,
+  mergeCounts,
+  talliesBy,
+  talliesByPair,
+  valueCounts,
+  valueCountsByInstructorStratum,
+  type StratumKey,
+  type Tally,
+  type ValueCounts,
+} from "../metrics/summaries";
 import { forbidden } from "../errors";
 import { cached } from "./cache";
 import { filtersKey, type ResolvedFilters } from "./filters";
@@ -52,6 +64,10 @@ function networkFigures(db: Db, network: ResolvedFilters, adjust: AdjustMode): N
     const scope = scopeOf(network);
     const byMetric = <T>(compute: (key: MetricKey) => T) => Object.fromEntries(standingMetricKeys.map((key) => [key, compute(key)])) as Record<MetricKey, T>;
     const tallies = talliesBy<number>(db, scope, "instructorId");
+    // one grouped read per metric gives every instructor's distribution in every stratum; an instructor's whole
+    // distribution is the merge of their strata (reading each stratum apart would scan the scope once per stratum)
+    const byStratum = byMetric((key) => valueCountsByInstructorStratum(db, key, scope));
+    const byInstructor = byMetric((key) => new Map([...byStratum[key]].map(([id, strata]): [number, ValueCounts] => [id, strata.size === 1 ? [...strata.values()][0] : mergeCounts(...strata.values())])));
     const strata: NetworkFigures["strata"] = [];
     if (adjust === "case-mix") {
       for (const feedback of network.feedback === null ? feedbackModes : [network.feedback]) {
@@ -63,14 +79,16 @@ function networkFigures(db: Db, network: ResolvedFilters, adjust: AdjustMode): N
             if (p === profile) attempts.set(Number(instructor), tally.n);
           }
           if (attempts.size === 0) continue;
-          const stratum = { ...scope, profile, feedback };
-          strata.push({ attempts, byInstructor: byMetric((key) => valueCountsBy<number>(db, key, stratum, "instructorId")) });
+          const stratum: StratumKey = `${profile}|${feedback}`;
+          const inStratum = (key: MetricKey): Distributions =>
+            new Map([...byStratum[key]].flatMap(([id, counts]): [number, ValueCounts][] => (counts.has(stratum) ? [[id, counts.get(stratum)!]] : [])));
+          strata.push({ attempts, byInstructor: byMetric(inStratum) });
         }
       }
     }
     return {
       tallies,
-      byInstructor: byMetric((key) => valueCountsBy<number>(db, key, scope, "instructorId")),
+      byInstructor,
       network: byMetric((key) => valueCounts(db, key, scope)),
       errors: [...tallies.values()].reduce(addTally, emptyTally()).errors,
       funnel: instructorFunnel(db, scope, adjust),

@@ -332,6 +332,50 @@ export function valueCountsBy<K extends string | number>(db: Db, metric: Summary
   ) as Map<K, ValueCounts>;
 }
 
+/** A stratum of the case-mix adjustment: `${profile}|${feedback}`. */
+export type StratumKey = `${string}|${string}`;
+
+/**
+ * Each instructor's distribution of a metric in each stratum (patient type × feedback display) from one grouped
+ * read of the scope, instead of one read per stratum: keyed by instructor id, then stratum.
+ */
+export function valueCountsByInstructorStratum(db: Db, metric: SummaryMetric, scope: SummaryScope): Map<number, Map<StratumKey, ValueCounts>> {
+  const { sql: text, params } = db
+    .select({
+      instructorId: attemptValues.instructorId,
+      profile: attemptValues.profile,
+      feedback: attemptValues.feedback,
+      value: attemptValues.value,
+      count: sql<number>`sum(${attemptValues.count})`,
+    })
+    .from(attemptValues)
+    .where(and(eq(attemptValues.metric, metric), scopeConditions(attemptValues, scope)))
+    .groupBy(attemptValues.instructorId, attemptValues.profile, attemptValues.feedback, attemptValues.value)
+    .orderBy(attemptValues.instructorId, attemptValues.profile, attemptValues.feedback, attemptValues.value)
+    .toSQL();
+  const byInstructor = new Map<number, Map<StratumKey, ValueCounts>>();
+  let strata = new Map<StratumKey, ValueCounts>();
+  let current: ValueCounts = [];
+  let lastInstructor: number | undefined;
+  let lastStratum: StratumKey | undefined;
+  for (const [instructorId, profile, feedback, value, count] of db.$client.prepare(text).raw(true).iterate(...params) as Iterable<[number, string, string, number, number]>) {
+    if (instructorId !== lastInstructor) {
+      strata = new Map();
+      byInstructor.set(instructorId, strata);
+      lastInstructor = instructorId;
+      lastStratum = undefined;
+    }
+    const stratum: StratumKey = `${profile}|${feedback}`;
+    if (stratum !== lastStratum) {
+      current = [];
+      strata.set(stratum, current);
+      lastStratum = stratum;
+    }
+    current.push({ value, count });
+  }
+  return byInstructor;
+}
+
 /** The median of a metric over the attempts in scope; null when there are none. */
 export function medianIn(db: Db, metric: SummaryMetric, scope: SummaryScope): number | null {
   return medianOfCounts(valueCounts(db, metric, scope));
