@@ -54,7 +54,7 @@ export function clearNetwork(db: Db): void {
       "reports",
       "action_notes",
       "improvement_actions",
-      "alert_log",
+      "alert_deliveries",
       "mailbox",
       "quarter_notes",
       "import_presets",
