@@ -80,12 +80,12 @@ describe("alerts per user", () => {
     await funder.put("/api/me/alerts", { kinds: ["funnel"] }).expect(403);
   });
 
-  it("refuses an unknown kind, a kind named twice and a body without kinds, and keeps the choice as it was", async () => {
+  it("refuses an unknown kind, a kind named twice, a body without kinds and kinds that are not a list, and keeps the choice as it was", async () => {
     const unknown = await northInstructor.put("/api/me/alerts", { kinds: ["funnel", "weather"] }).expect(422);
     expect(unknown.body.error.details).toEqual([expect.objectContaining({ path: "kinds.1", message: expect.stringContaining("Choose from funnel, shift") })]);
     await northInstructor.put("/api/me/alerts", { kinds: ["funnel", "funnel"] }).expect(422);
     await northInstructor.put("/api/me/alerts", {}).expect(422);
-    await northInstructor.put("/api/me/alerts", "funnel").expect(422);
+    await northInstructor.put("/api/me/alerts", { kinds: "funnel" }).expect(422);
     expect((await northInstructor.get("/api/me/alerts").expect(200)).body).toEqual({ kinds: ["service", "drift"], isDefault: true });
   });
 
