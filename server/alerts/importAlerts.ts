@@ -16,7 +16,7 @@ import { MailNotConfiguredError, type Mailer } from "../mail/mailer";
 import { logImportAlerts } from "../logging/events";
 import type { Logger } from "../logging/logger";
 import { signalsFor, type Recipient } from "./audience";
-import { monthLabel, scopeLabel, signalLine, signalLink } from "./signalLines";
+import { monthLabel, monthsLabel, scopeLabel, signalLine, signalLink } from "./signalLines";
 import { currentSignals, signalList, signalsOf, type Signals, type TaggedSignal } from "./signals";
 
 export type AlertOutcome =
@@ -62,7 +62,7 @@ export function digestText(signals: Signals): string {
   if (signals.shift.length > 0) {
     lines.push("Monthly measured pass rate running on one side of its median up to the newest month (a reason to look at what changed, not proof of its cause):");
     for (const s of signals.shift) {
-      lines.push(`  - ${scopeLabel(s.siteCode)}: ${s.direction} its median in ${s.months} months from ${monthLabel(s.since)} to ${monthLabel(s.through)}; a run of more than ${s.runLimit} months, or so few crossings of the median, is unlikely by chance.`);
+      lines.push(`  - ${scopeLabel(s.siteCode)}: ${s.direction} its median in ${monthsLabel(s.months)} from ${monthLabel(s.since)} to ${monthLabel(s.through)}; a run of more than ${monthsLabel(s.runLimit)}, or so few crossings of the median, is unlikely by chance.`);
     }
     lines.push("");
   }

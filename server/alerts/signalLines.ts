@@ -13,6 +13,10 @@ export function monthLabel(month: string): string {
   return `${MONTHS[index - 1] ?? month} ${year}`;
 }
 
+export function monthsLabel(count: number): string {
+  return `${count} month${count === 1 ? "" : "s"}`;
+}
+
 export function scopeLabel(siteCode: string | null): string {
   return siteCode === null ? "The network" : `Site ${siteCode}`;
 }
@@ -22,7 +26,7 @@ export function signalLine(item: TaggedSignal): string {
     case "funnel":
       return `${item.signal.instructorCode} ${item.signal.side} the 99.8 % funnel limits in ${quarterLabel(item.signal.quarter)} (${item.signal.passed} of ${item.signal.attempts} attempts passed)`;
     case "shift":
-      return `${scopeLabel(item.signal.siteCode)}: monthly pass rate ${item.signal.direction} its median for ${item.signal.months} months since ${monthLabel(item.signal.since)}`;
+      return `${scopeLabel(item.signal.siteCode)}: monthly pass rate ${item.signal.direction} its median for ${monthsLabel(item.signal.months)} since ${monthLabel(item.signal.since)}`;
     case "service":
       return `${item.signal.assetId}${item.signal.siteCode ? ` (${item.signal.siteCode})` : ""} due for service: ${item.signal.reason}`;
     case "drift":
