@@ -32,6 +32,7 @@ describe("alerts after each import on my account", () => {
     // each box is described by its one-line explanation
     expect(shift.getAttribute("aria-describedby")).toBe("alert-kind-shift");
     expect(section.getByText("Only signals about you and your own site reach you.")).toBeTruthy();
+    expect(section.getByText("These are your role's usual alerts until you save a choice.")).toBeTruthy();
 
     fireEvent.click(shift);
     fireEvent.click(service);
@@ -53,6 +54,7 @@ describe("alerts after each import on my account", () => {
     renderApp("/account");
     const button = await screen.findByRole("button", { name: "Save alert choice" });
     expect(screen.queryByText("Only signals about you and your own site reach you.")).toBeNull();
+    expect(screen.queryByText("These are your role's usual alerts until you save a choice.")).toBeNull();
     fireEvent.click(button);
     expect(await screen.findByText("The alert choice is not valid.")).toBeTruthy();
     expect(screen.queryByText("Saved. The next digest follows this choice.")).toBeNull();

@@ -27,13 +27,13 @@ export function AlertChoiceSection() {
       ) : choice.isError ? (
         <ErrorState error={choice.error} onRetry={() => void choice.refetch()} />
       ) : (
-        <AlertChoiceForm initial={choice.data.kinds} />
+        <AlertChoiceForm initial={choice.data.kinds} isDefault={choice.data.isDefault} />
       )}
     </section>
   );
 }
 
-function AlertChoiceForm({ initial }: { initial: AlertChoice["kinds"] }) {
+function AlertChoiceForm({ initial, isDefault }: { initial: AlertChoice["kinds"]; isDefault: boolean }) {
   const save = useSaveAlertChoice();
   const form = useSchemaForm(alertChoiceSchema, { kinds: initial });
   const [saved, setSaved] = useState(false);
@@ -57,6 +57,7 @@ function AlertChoiceForm({ initial }: { initial: AlertChoice["kinds"] }) {
       <fieldset className="flex flex-col gap-2">
         <legend className="mb-2 text-small font-semibold text-ink">E-mail me about</legend>
         {!seesEveryone && <p className="mb-1 text-small text-muted">Only signals about you and your own site reach you.</p>}
+        {isDefault && <p className="mb-1 text-small text-muted">These are your role's usual alerts until you save a choice.</p>}
         {alertKinds.map((kind) => (
           <label key={kind} className="flex min-h-11 cursor-pointer items-start gap-3 rounded-control border border-line px-3 py-2 has-checked:border-dusk-600 has-checked:bg-dusk-50">
             <input type="checkbox" value={kind} {...form.register("kinds")} aria-labelledby={`alert-kind-${kind}-label`} aria-describedby={`alert-kind-${kind}`} className="mt-1 size-4 accent-dusk-700" />
