@@ -24,6 +24,7 @@ import { systemRoutes } from "./ops/systemRoutes";
 import { reportRoutes } from "./reports/routes";
 import { equipmentRoutes } from "./equipment/routes";
 import { alertAfterImport } from "./alerts/importAlerts";
+import { alertRoutes } from "./alerts/routes";
 import { actionRoutes } from "./actions/routes";
 import { insightRoutes } from "./insight/routes";
 import { learnerRoutes } from "./learners/routes";
@@ -67,6 +68,7 @@ function featureRouters(db: Db, config: Config, endSessions: EndSessionsAfterPas
     chartSettingsRoutes(db),
     reportRoutes(db, mailer, logger),
     outboxRoutes(db),
+    alertRoutes(db),
     importRoutes(db, { logger, uploadDir: options.uploadDir, afterImport: () => void alertAfterImport(db, mailer, logger) }),
     systemRoutes(db, { backupDir: config.backups.dir, mail: { smtpUrl: config.smtpUrl, localMail: options.localMail ?? false } }),
   ];

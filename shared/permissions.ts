@@ -42,8 +42,13 @@ export const permissionTable = {
   readActions: { coordinator: "any", quality_lead: "any", instructor: "own" },
   /** Record and change improvement actions and their notes. */
   manageActions: { coordinator: "any", quality_lead: "any" },
-  /** The digest mailed after an import: instructors newly outside the funnel's 99.8 % limits (by code) and manikins due for service. */
-  receiveImportAlerts: { coordinator: "any", quality_lead: "any" },
+  /**
+   * The digest mailed after an import (shared/alertKinds.ts), its choice on the account page and the history of
+   * what was mailed; an instructor only signals about their own site and themselves.
+   */
+  receiveImportAlerts: { coordinator: "any", quality_lead: "any", instructor: "own" },
+  /** Every user's alerts history: which signal went to how many people. */
+  readAllAlerts: { coordinator: "any" },
   /** The quarter tracker: which instructors' class logs and attempts have arrived, and refused rows to fix. */
   readTracker: { coordinator: "any" },
   readReport: { coordinator: "any", funder: "any" },

@@ -121,7 +121,7 @@ async function mailAlerts(config: Config, db: Db, quiet: boolean) {
     if (!config.smtpUrl) local = await startLocalMailService(db);
     const outcome = await sendImportAlerts(db, createMailer(config.smtpUrl ?? local!.url));
     if (quiet) return;
-    if (outcome.status === "sent") console.log(`Mailed ${outcome.signals} new signal${outcome.signals === 1 ? "" : "s"} to ${outcome.recipients} coordinator and quality-lead account${outcome.recipients === 1 ? "" : "s"}.`);
+    if (outcome.status === "sent") console.log(`Mailed ${outcome.signals} new signal${outcome.signals === 1 ? "" : "s"} to ${outcome.recipients} account${outcome.recipients === 1 ? "" : "s"}, each by its own alert choice.`);
     if (outcome.status === "failed") console.log(`The alert digest could not be sent (${outcome.error}); it is tried again after the next import.`);
   } catch (err) {
     // the import itself is done: a digest that cannot be prepared must not turn it into a failure

@@ -9,6 +9,7 @@
 // - Rows written by an import carry the batch id so that a batch can be undone.
 import { sql } from "drizzle-orm";
 import { blob, index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
+import type { AlertKind } from "../../shared/alertKinds";
 import type { AimFigure } from "../../shared/vocabulary";
 import {
   actionStatuses,
@@ -76,6 +77,8 @@ export const users = sqliteTable("users", {
   lengthUnit: text({ enum: lengthUnits })
     .notNull()
     .default("mm"),
+  /** The alert kinds chosen on the account page; null until chosen, when the role's defaults apply (shared/alertKinds.ts). */
+  alertKinds: text({ mode: "json" }).$type<AlertKind[]>(),
   createdAt: createdAt(),
 });
 
@@ -638,8 +641,24 @@ export const actionNotes = sqliteTable(
   (t) => [index("action_notes_action_idx").on(t.actionId, t.date)],
 );
 
-/** Signals already mailed after an import (an instructor outside the funnel in a quarter, a manikin due), so each is sent once. */
-export const alertLog = sqliteTable("alert_log", {
-  key: text().primaryKey(),
-  sentAt: createdAt(),
-});
+/**
+ * Each signal mailed to each user after an import, so a signal reaches a person once, and the alerts history
+ * shows what they were told. The summary and link are kept as mailed: the figures behind them move on.
+ */
+export const alertDeliveries = sqliteTable(
+  "alert_deliveries",
+  {
+    id: integer().primaryKey({ autoIncrement: true }),
+    userId: integer()
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    key: text().notNull(),
+    kind: text().$type<AlertKind>().notNull(),
+    summary: text().notNull(),
+    /** The in-app path of the page behind the signal, or null. */
+    linkPath: text(),
+    linkLabel: text(),
+    sentAt: createdAt(),
+  },
+  (t) => [uniqueIndex("alert_deliveries_user_key_idx").on(t.userId, t.key), index("alert_deliveries_sent_idx").on(t.sentAt)],
+);

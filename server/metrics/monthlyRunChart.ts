@@ -27,24 +27,45 @@ export interface MonthlyScope {
   aim?: AimFigure;
 }
 
-/** Attempts and the aim's count per calendar month of the class date: one grouped query. */
-export function monthlyCounts(db: Db, scope: MonthlyScope): { period: string; n: number; x: number }[] {
+const classMonth = sql<string>`substr(${classes.date}, 1, 7)`;
+
+function countedOf(scope: MonthlyScope) {
   const aim = scope.aim ?? "passRate";
-  const counted = aim === "passRate" ? sql<number>`sum(${attempts.passed})` : sql<number>`sum(${hasError(aim)})`;
+  return aim === "passRate" ? sql<number>`sum(${attempts.passed})` : sql<number>`sum(${hasError(aim)})`;
+}
+
+function conditionsOf(scope: MonthlyScope): SQL | undefined {
   const conditions: SQL[] = [between(attempts.quarter, scope.from, scope.to)];
   if (scope.siteId !== null) conditions.push(eq(attempts.siteId, scope.siteId));
   if (scope.instructorId !== null) conditions.push(eq(attempts.instructorId, scope.instructorId));
   if (scope.profile !== null) conditions.push(eq(attempts.profile, scope.profile));
-  const month = sql<string>`substr(${classes.date}, 1, 7)`;
+  return and(...conditions);
+}
+
+/** Attempts and the aim's count per calendar month of the class date: one grouped query. */
+export function monthlyCounts(db: Db, scope: MonthlyScope): { period: string; n: number; x: number }[] {
   return db
-    .select({ period: month, n: sql<number>`count(*)`, x: counted })
+    .select({ period: classMonth, n: sql<number>`count(*)`, x: countedOf(scope) })
     .from(attempts)
     .innerJoin(classes, eq(classes.id, attempts.classId))
-    .where(and(...conditions))
-    .groupBy(month)
-    .orderBy(month)
+    .where(conditionsOf(scope))
+    .groupBy(classMonth)
+    .orderBy(classMonth)
     .all()
     .map((row) => ({ period: row.period, n: Number(row.n), x: Number(row.x ?? 0) }));
+}
+
+/** The same counts split by instructor, for readers who must not learn about a small group of others' attempts. */
+export function monthlyCountsByInstructor(db: Db, scope: MonthlyScope): { period: string; instructorId: number; n: number; x: number }[] {
+  return db
+    .select({ period: classMonth, instructorId: attempts.instructorId, n: sql<number>`count(*)`, x: countedOf(scope) })
+    .from(attempts)
+    .innerJoin(classes, eq(classes.id, attempts.classId))
+    .where(conditionsOf(scope))
+    .groupBy(classMonth, attempts.instructorId)
+    .orderBy(classMonth)
+    .all()
+    .map((row) => ({ period: row.period, instructorId: row.instructorId, n: Number(row.n), x: Number(row.x ?? 0) }));
 }
 
 /** The rules over some rates around a centre; the limits are null without a useful point. */

@@ -54,7 +54,7 @@ export function clearNetwork(db: Db): void {
       "reports",
       "action_notes",
       "improvement_actions",
-      "alert_log",
+      "alert_deliveries",
       "mailbox",
       "quarter_notes",
       "import_presets",
@@ -118,8 +118,9 @@ export async function seedDemo(db: Db, options: { today?: string; seed?: number 
   if (qualityLead) {
     recordDemoActions(db, DEMO_SCENARIO, buildTimeline(today, DEMO_SCENARIO.referenceToday, DEMO_SCENARIO.historyQuarters), qualityLead, siteIds);
   }
-  // What the coordinator and the quality lead would have been mailed after the imports (an instructor
-  // outside the funnel limits, a manikin due for service), kept in the outbox: a demo mails no one.
+  // What each account would have been mailed after the imports by its role's default choice (the coordinator
+  // and the quality lead: an instructor outside the funnel limits, the network's shift, a manikin due for
+  // service, the drifting manikin), kept in the outbox and in the Alerts page's history: a demo mails no one.
   await sendImportAlerts(db, createOutboxMailer(db), today);
   return { network: demo.network, accounts: demo.accounts, imports };
 }

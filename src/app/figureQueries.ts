@@ -5,6 +5,7 @@ import type { QueryClient, QueryKey } from "@tanstack/react-query";
 import { dataVersionAnswerSchema } from "../../shared/schemas/dataVersion";
 import { getParsed } from "../api/getParsed";
 import { actionQueries } from "../features/actions/queries";
+import { alertQueries } from "../features/alerts/queries";
 import { attemptQueries } from "../features/attempts/queries";
 import { equipmentQueries } from "../features/equipment/queries";
 import { errorQueries } from "../features/errors/queries";
@@ -33,6 +34,8 @@ export const figureQueryFamilies: readonly QueryKey[] = [
   actionQueries.all(),
   // The quarter tracker counts classes, attempts and refused rows.
   trackerQueries.all(),
+  // An import mails new alerts, which the Alerts page lists.
+  alertQueries.all(),
 ];
 
 /**

@@ -64,6 +64,7 @@ export const appRoutes: readonly AppRoute[] = [
   { path: "admin/sites", title: "Sites and instructors", group: "admin", permission: "manageSites", page: lazy(() => import("../pages/SitesAdminPage")) },
   { path: "outbox", title: "Outbox", group: "admin", permission: "sendReport", page: lazy(() => import("../pages/OutboxPage")) },
   { path: "system", title: "System", group: "admin", permission: "readSystem", page: lazy(() => import("../pages/SystemPage")) },
+  { path: "alerts", title: "Alerts", group: "you", permission: "receiveImportAlerts", page: lazy(() => import("../pages/AlertsPage")) },
   { path: "methods", title: "Methods", group: "quality", page: lazy(() => import("../pages/MethodsPage")) },
   { path: "account", title: "My account", group: "you", page: lazy(() => import("../pages/AccountPage")), landing: true },
   // Development builds only: a gallery of the UI kit.

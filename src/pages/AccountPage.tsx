@@ -1,4 +1,4 @@
-// My account: who I am, my password, and the unit lengths are shown in.
+// My account: who I am, my password, the unit lengths are shown in, and which alerts I am mailed after imports.
 import { useState } from "react";
 import { Link } from "react-router";
 import { lengthUnits, roleLabels } from "../../shared/domain";
@@ -10,6 +10,7 @@ import { FormShell } from "../components/FormShell";
 import { Notice } from "../components/Notice";
 import { PageHeader } from "../components/PageHeader";
 import { errorMessage } from "../components/States";
+import { AlertChoiceSection } from "../features/alerts/AlertChoiceSection";
 import { useChangePassword, useUpdateLengthUnit } from "../features/auth/mutations";
 import { useCan } from "../features/auth/useCan";
 import { useCurrentUser } from "../features/auth/useSession";
@@ -18,6 +19,7 @@ import { showServerError, useSchemaForm } from "../lib/useSchemaForm";
 
 export default function AccountPage() {
   const user = useCurrentUser();
+  const receivesAlerts = useCan("receiveImportAlerts");
   return (
     <div>
       <PageHeader title="My account" description="Your details, your password and how Quarterbeat shows lengths to you." />
@@ -39,7 +41,10 @@ export default function AccountPage() {
           </section>
           <ChangePasswordSection email={user.email} />
         </div>
-        <LengthUnitSection unit={user.lengthUnit} />
+        <div className="flex flex-col gap-6">
+          <LengthUnitSection unit={user.lengthUnit} />
+          {receivesAlerts && <AlertChoiceSection />}
+        </div>
       </div>
     </div>
   );

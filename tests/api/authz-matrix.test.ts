@@ -23,6 +23,7 @@ const directory = { coordinator: 200, quality_lead: 200, instructor: 403, funder
 const network = { coordinator: 200, quality_lead: 200, instructor: 200, funder: 403 };
 const drillDown = directory;
 const instructorOnly = { coordinator: 403, quality_lead: 403, instructor: 200, funder: 403 };
+const alertReaders = network;
 
 const matrix: Row[] = [
   { method: "get", path: "/api/me", expect: everyone },
@@ -65,6 +66,10 @@ const matrix: Row[] = [
   { method: "get", path: "/api/actions", expect: network },
   { method: "get", path: "/api/actions/marks", expect: network },
   { method: "get", path: "/api/tracker", expect: coordinatorOnly },
+  { method: "get", path: "/api/me/alerts", expect: alertReaders },
+  { method: "put", path: "/api/me/alerts", body: { kinds: ["service"] }, expect: alertReaders },
+  { method: "get", path: "/api/alerts", expect: alertReaders },
+  { method: "get", path: "/api/alerts/all", expect: coordinatorOnly },
 ];
 
 /** Row scope: an instructor asking for another instructor's row is told it does not exist. */

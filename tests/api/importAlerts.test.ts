@@ -1,6 +1,7 @@
 // The digest mailed after an import, through the local mail service: what it finds (instructors outside the
-// 99.8 % funnel limits, manikins due for service), who receives it (coordinators and quality leads, one
-// message each), that it names instructors by code only, and that a signal is mailed once.
+// 99.8 % funnel limits, manikins due for service), who receives it (one message per receiving user, an
+// instructor only about their own site), that it names instructors by code only, and that a signal is mailed
+// to each person once.
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { jobResponseSchema } from "../../shared/import/api";
@@ -38,7 +39,7 @@ describe("after an import", () => {
     db.$client.close();
   });
 
-  it("mails each coordinator and quality lead one digest of the new signals, once", async () => {
+  it("mails each receiving user their own digest of the new signals, once", async () => {
     const mailer = createMailer(mail.url);
     // nothing imported yet: no manikin, no attempt, nothing to say
     expect(await sendImportAlerts(db, mailer, "2027-12-31")).toEqual({ status: "nothing-new" });
@@ -51,21 +52,32 @@ describe("after an import", () => {
     // B1's one passed attempt is no signal: at n = 1 the 99.8 % limits p ± 3.09·√(p(1−p)) reach past 0 and 1
     // (Spiegelhalter, Qual Saf Health Care 2005;14:347), so a single attempt never lies outside them.
     const outcome = await sendImportAlerts(db, mailer, "2027-12-31");
-    expect(outcome).toMatchObject({ status: "sent", recipients: 2, signals: 3 });
+    // coordinator and quality lead: all three; each instructor by default: their own site's manikins only
+    expect(outcome).toMatchObject({ status: "sent", recipients: 4, signals: 3 });
     const messages = received(db);
-    expect(messages.map((m) => m.recipients).sort()).toEqual([["coord@test.example"], ["quality@test.example"]]);
-    for (const message of messages) {
+    const to = (email: string) => messages.filter((m) => m.recipients.includes(email));
+    expect(messages.map((m) => m.recipients).sort()).toEqual([["a1@test.example"], ["b1@test.example"], ["coord@test.example"], ["quality@test.example"]]);
+    for (const message of [...to("coord@test.example"), ...to("quality@test.example")]) {
       expect(message.subject).toBe("Quarterbeat: 3 new signals after the latest import");
       expect(message.text).not.toContain("above the limits");
       expect(message.text).toContain("Manikins due for service:");
       for (const asset of ["MK-1", "MK-2", "MK-3"]) expect(message.text).toContain(asset);
+    }
+    const [northInstructor] = to("a1@test.example");
+    expect(northInstructor.subject).toBe("Quarterbeat: 2 new signals after the latest import");
+    expect(northInstructor.text).toMatch(/MK-1 \(NORTH\)[\s\S]*MK-2 \(NORTH\)/);
+    expect(northInstructor.text).not.toMatch(/MK-3|SOUTH|B1/);
+    const [southInstructor] = to("b1@test.example");
+    expect(southInstructor.text).toContain("MK-3 (SOUTH)");
+    expect(southInstructor.text).not.toMatch(/MK-1|MK-2|NORTH|A1/);
+    for (const message of messages) {
       // codes only: no instructor's name, no learner code
       expect(message.text).not.toMatch(/Instructor A1|L-0001/);
       expect(message.text).toContain("not a medical device");
     }
 
     expect(await sendImportAlerts(db, mailer, "2027-12-31")).toEqual({ status: "nothing-new" });
-    expect(received(db)).toHaveLength(2);
+    expect(received(db)).toHaveLength(4);
   });
 
   it("reports a mail server that is not configured without recording the signals as sent", async () => {
@@ -83,7 +95,7 @@ describe("after an import", () => {
 });
 
 describe("after a web import", () => {
-  it("puts one digest per coordinator and quality lead in the Outbox", async () => {
+  it("puts one digest per receiving user in the Outbox", async () => {
     const db = makeTestDb();
     await seedPeople(db);
     const mail = await startLocalMailService(db, { port: 0 });
@@ -100,7 +112,7 @@ describe("after a web import", () => {
       // the job, then the digest that follows it, finish in the background: ask until both are there
       let status = "queued";
       let messages = received(db);
-      for (let i = 0; i < 2400 && (status !== "done" || messages.length < 2); i++) {
+      for (let i = 0; i < 2400 && (status !== "done" || messages.length < 4); i++) {
         if (status !== "done") status = jobResponseSchema.parse((await coordinator.get(`/api/imports/jobs/${started.body.job.id}`).expect(200)).body).job.status;
         await new Promise((resolve) => setTimeout(resolve, 50));
         messages = received(db);
@@ -108,8 +120,8 @@ describe("after a web import", () => {
       }
       expect(status).toBe("done");
       // the class log brings manikins MK-1, MK-2 and MK-3 with no service and no date in use recorded
-      expect(messages.map((m) => m.recipients).sort()).toEqual([["coord@test.example"], ["quality@test.example"]]);
-      expect(messages[0].text).toContain("MK-1");
+      expect(messages.map((m) => m.recipients).sort()).toEqual([["a1@test.example"], ["b1@test.example"], ["coord@test.example"], ["quality@test.example"]]);
+      expect(messages.find((m) => m.recipients.includes("coord@test.example"))!.text).toContain("MK-1");
     } finally {
       await mail.close();
       db.$client.close();

@@ -122,7 +122,7 @@ describe("query keys", () => {
   });
 
   it("invalidates the families whose answers a write of figures changes", () => {
-    expect(figureQueryFamilies.map((key) => key[0])).toEqual(["insight", "errors", "attempts", "equipment", "report", "learners", "imports", "instructors", "system", "actions", "tracker"]);
+    expect(figureQueryFamilies.map((key) => key[0])).toEqual(["insight", "errors", "attempts", "equipment", "report", "learners", "imports", "instructors", "system", "actions", "tracker", "alerts"]);
   });
 });
 

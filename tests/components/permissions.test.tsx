@@ -67,6 +67,7 @@ describe("the route table", () => {
     expect(rolesOf("calibration")).toEqual(["coordinator", "quality_lead", "instructor"]);
     expect(rolesOf("report")).toEqual(["coordinator", "funder"]);
     expect(rolesOf("account")).toEqual([...userRoles]);
+    expect(rolesOf("alerts")).toEqual(["coordinator", "quality_lead", "instructor"]);
   });
 });
 

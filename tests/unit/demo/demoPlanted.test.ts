@@ -7,6 +7,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Db } from "../../../server/db/client";
 import { DEMO_SCENARIO } from "../../../server/demo/scenario";
 import { digestText } from "../../../server/alerts/importAlerts";
+import { allAlerts, myAlerts } from "../../../server/alerts/history";
+import { findUserByEmail } from "../../../server/users/service";
 import { currentSignals } from "../../../server/alerts/signals";
 import { evaluateAction } from "../../../server/actions/evaluation";
 import { allActions } from "../../../server/actions/service";
@@ -108,6 +110,19 @@ describe("demo story: improvement actions and the alert digest", () => {
       expect(message.text).toContain("outside the 99.8 % funnel limits");
       expect(message.text).toMatch(/- IN06: below the limits \(\d+ of \d+ attempts passed\)/);
       expect(message.text).not.toContain("Desmond Quarrie");
+      // the refresher's rise is a run above the network's median reaching the newest month
+      expect(message.text).toMatch(/- The network: above its median in \d+ months from/);
     }
+    // the instructor account's defaults (service and drift of its own site's manikins) hold nothing here:
+    // no empty message, and nothing about IN06
+    expect(listOutbox(db).filter((m) => m.recipients.includes("ilse.pendrake@harrowmere-cpr.example"))).toEqual([]);
+  });
+
+  it("lists what the coordinator was mailed on the Alerts page, with the page behind each signal", () => {
+    const coordinator = findUserByEmail(db, "rowan.ellery@harrowmere-cpr.example")!;
+    const { deliveries } = myAlerts(db, coordinator.id);
+    expect(deliveries.map((d) => d.kind).sort()).toEqual(["drift", "funnel", "service", "shift"]);
+    expect(deliveries.find((d) => d.kind === "drift")!.link).toEqual({ label: `Manikin ${DEMO_SCENARIO.driftingSensor.manikin}`, path: `/equipment/manikins/${DEMO_SCENARIO.driftingSensor.manikin}` });
+    expect(allAlerts(db).signals.every((s) => s.recipients === 2)).toBe(true);
   });
 });
