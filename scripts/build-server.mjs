@@ -17,6 +17,8 @@ await build({
     cli: "cli/main.ts",
     // jobs.ts starts this file as its worker thread when it runs compiled
     importWorker: "server/imports/importWorker.ts",
+    // offThread/pool.ts starts this file as its worker thread when it runs compiled
+    answerWorker: "server/insight/offThread/answerWorker.ts",
   },
   outdir,
   outExtension: { ".js": ".js" },

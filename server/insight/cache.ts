@@ -50,19 +50,46 @@ export function dataVersion(db: Db): string {
  */
 export function cached<T>(db: Db, key: string, compute: () => T): T {
   if (!enabled) return compute();
+  const { store, before } = currentStore(db);
+  if (store.entries.has(key)) return store.entries.get(key) as T;
+  const sqlite = db.$client;
+  const value = sqlite.inTransaction ? compute() : sqlite.transaction(compute).deferred();
+  keepIfUnchanged(db, store, before, key, value);
+  return value;
+}
+
+/** The cache of the database's present state (emptied when the state moved on since it was last read). */
+function currentStore(db: Db): { store: Store; before: string } {
   const store = storeFor(db);
   const before = dataState(db.$client);
   if (before !== store.version) {
     store.version = before;
     store.entries.clear();
   }
-  if (store.entries.has(key)) return store.entries.get(key) as T;
-  const sqlite = db.$client;
-  const value = sqlite.inTransaction ? compute() : sqlite.transaction(compute).deferred();
-  if (dataState(db.$client) === before) {
-    if (store.entries.size >= MAX_ENTRIES) store.entries.delete(store.entries.keys().next().value as string);
-    store.entries.set(key, value);
-  }
+  return { store, before };
+}
+
+/** Keeps an answer only if nothing was written while it was computed, so it is never served for another state. */
+function keepIfUnchanged(db: Db, store: Store, before: string, key: string, value: unknown): void {
+  if (dataState(db.$client) !== before || store.version !== before) return;
+  if (store.entries.size >= MAX_ENTRIES) store.entries.delete(store.entries.keys().next().value as string);
+  store.entries.set(key, value);
+}
+
+export function insightCacheEnabled(): boolean {
+  return enabled;
+}
+
+/**
+ * As `cached`, for an answer computed elsewhere (a worker thread reading its own snapshot): kept only if the
+ * database was not written while it was computed, so it is never served for a state it was not computed in.
+ */
+export async function cachedAsync(db: Db, key: string, compute: () => Promise<string>): Promise<string> {
+  if (!enabled) return compute();
+  const { store, before } = currentStore(db);
+  if (store.entries.has(key)) return store.entries.get(key) as string;
+  const value = await compute();
+  keepIfUnchanged(db, store, before, key, value);
   return value;
 }
 

@@ -1,4 +1,5 @@
-// Network-insight routes: parse the filters, apply the viewer's scope, answer from the per-state cache.
+// Network-insight routes: parse the filters, apply the viewer's scope, answer from the per-state cache; the
+// answers that can take long on a large network are computed off the event loop (./offThread).
 import { Router, type Request } from "express";
 import { z } from "zod";
 import { adjustQuerySchema, attemptExportQuerySchema, attemptListQuerySchema, errorsQuerySchema, insightFiltersSchema, insightFilterShape } from "../../shared/filters";
@@ -11,12 +12,9 @@ import { attemptSearchKey, attemptSearchOf } from "./attemptSearch";
 import { attemptsCsvFileName, writeAttemptsCsv } from "./attemptsCsv";
 import { dataVersion, sendCached } from "./cache";
 import { classDetail } from "./classes";
-import { errorAnalysis } from "./errors";
 import { filtersKey, resolveFilters } from "./filters";
-import { instructorDetail, instructorTable } from "./instructors";
 import { filterOptions } from "./options";
-import { overview } from "./overview";
-import { standing } from "./standing";
+import { sendAnswer } from "./offThread/pool";
 import { viewerKey, viewerOf } from "./viewer";
 
 const rowIdSchema = z.string().trim().min(1, "Give an id").max(100, "An id has at most 100 characters");
@@ -46,32 +44,32 @@ export function insightRoutes(db: Db): Router {
   router.get("/insight/overview", allow("readNetwork"), (req, res) => {
     const { limits, split } = parseWith(overviewChartQuerySchema, req.query, "The filters");
     const { viewer, filters, key } = context(req, `overview:${limits}:${split ?? ""}`);
-    sendCached(db, res, key, () => overview(db, viewer, filters, { limits, splitAt: split ?? null }));
+    return sendAnswer(db, res, key, "overview", [viewer, filters, { limits, splitAt: split ?? null }]);
   });
 
   // comparisons between instructors: adjusted for case mix unless `adjust=none` asks for the crude view
   router.get("/insight/standing", allow("readOwnStanding"), (req, res) => {
     const { adjust } = parseWith(adjustQuerySchema, req.query, "The filters");
     const { viewer, filters, key } = context(req, `standing:${adjust}`);
-    sendCached(db, res, key, () => standing(db, viewer, filters, adjust));
+    return sendAnswer(db, res, key, "standing", [viewer, filters, adjust]);
   });
 
   router.get("/insight/instructors", allow("drillDown"), (req, res) => {
     const { adjust } = parseWith(adjustQuerySchema, req.query, "The filters");
     const { filters, key } = context(req, `instructors:${adjust}`);
-    sendCached(db, res, key, () => instructorTable(db, filters, adjust));
+    return sendAnswer(db, res, key, "instructors", [filters, adjust]);
   });
 
   router.get("/insight/instructors/:id", allow("drillDown"), (req, res) => {
     const id = parseId(req.params.id);
     const { filters, key } = context(req, `instructor:${id}`);
-    sendCached(db, res, key, () => instructorDetail(db, id, filters));
+    return sendAnswer(db, res, key, "instructor", [id, filters]);
   });
 
   router.get("/insight/errors", allow("drillDown"), (req, res) => {
     const { error, ...filterQuery } = parseWith(errorsQuerySchema, req.query, "The filters");
     const { filters, key } = context(req, `errors:${error ?? ""}`, filterQuery);
-    sendCached(db, res, key, () => errorAnalysis(db, filters, error));
+    return sendAnswer(db, res, key, "errors", [filters, error]);
   });
 
   router.get("/classes/:id", allow("readAttempts"), (req, res) => {

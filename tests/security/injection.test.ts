@@ -45,7 +45,7 @@ const QUERY_KEYS: Record<string, string[]> = {
   "/api/imports/presets": ["kind"],
   "/api/data-version": [],
   "/api/insight/options": [],
-  "/api/insight/overview": [...FILTERS, "limits"],
+  "/api/insight/overview": [...FILTERS, "limits", "split"],
   "/api/insight/standing": [...FILTERS, "adjust"],
   "/api/insight/instructors": [...FILTERS, "adjust"],
   "/api/insight/instructors/:id": FILTERS,
@@ -71,6 +71,9 @@ const QUERY_KEYS: Record<string, string[]> = {
   "/api/actions/:id": [],
   "/api/actions/:id/monthly": [],
   "/api/tracker": ["quarter"],
+  "/api/me/alerts": [],
+  "/api/alerts": [],
+  "/api/alerts/all": [],
 };
 
 /** Free-text filters that may answer 200: then with nothing in the list. */
