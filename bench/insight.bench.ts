@@ -8,12 +8,16 @@
 // sequential requests ("cold"), then autocannon with 10 connections for QB_BENCH_DURATION seconds. The floor is
 // GET /api/me, the cheapest signed-in route (sessions, sign-in and the HTTP stack on this machine), measured the
 // same way in the same run. The server runs in a child process on 127.0.0.1, so the load generator never shares
-// its thread. "My standing" is asked by an instructor account; the other endpoints by a coordinator.
+// its thread. "My standing" is asked by an instructor account; the other endpoints by a coordinator. "loop" is
+// the server's event loop's longest block during the sequential requests: the long answers are computed in a
+// worker thread, so it stays small however long they take.
 //
 // Run: npx tsx bench/insight.bench.ts
 //   QB_BENCH_SCALE=0.1       shrink the large network (0.1 → about 100,000 attempts; up to 10 → 10 million)
 //   QB_BENCH_DURATION=3      seconds of load per endpoint
 import { spawn, type ChildProcess } from "node:child_process";
+import http from "node:http";
+import { monitorEventLoopDelay } from "node:perf_hooks";
 import fs from "node:fs";
 import { createRequire } from "node:module";
 import os from "node:os";
@@ -48,6 +52,8 @@ const PERIODS = [
   { name: "all 8 quarters", query: "from=2024-Q1&to=2025-Q4" },
 ];
 const COLD_RUNS = 5;
+/** monitorEventLoopDelay's sampling interval (ms); delays are shown beyond it. */
+const LOOP_RESOLUTION_MS = 10;
 const GOAL_P95_MS = 100;
 
 // ---- server role: open the database, start the app, print the port ---------------------------------------
@@ -60,6 +66,19 @@ async function serve() {
   setInsightCache(process.env.QB_BENCH_CACHE !== "off");
   const db = openDatabase(process.env.QB_BENCH_DB!);
   const app = createApp(db, loadConfig({ NODE_ENV: "test", SESSION_SECRET: "bench-secret-at-least-16" }), { clientDir: null });
+  // the event loop's longest block, read and reset by the bench over a side port of its own (not the app's)
+  const loop = monitorEventLoopDelay({ resolution: LOOP_RESOLUTION_MS });
+  loop.enable();
+  const side = http.createServer((req, res) => {
+    const blocked = loop.count === 0 ? 0 : Math.max(0, loop.max / 1e6 - LOOP_RESOLUTION_MS);
+    if (req.url === "/reset") loop.reset();
+    res.end(JSON.stringify({ blocked }));
+  });
+  side.listen(0, "127.0.0.1", () => {
+    const address = side.address();
+    process.stdout.write(`LOOP ${typeof address === "object" && address ? address.port : 0}\n`);
+  });
+  side.unref();
   const server = app.listen(0, "127.0.0.1", () => {
     const address = server.address();
     process.stdout.write(`PORT ${typeof address === "object" && address ? address.port : 0}\n`);
@@ -87,21 +106,22 @@ async function buildDatabase(size: Size): Promise<{ file: string; attempts: numb
   return { file, attempts, seconds: (performance.now() - started) / 1000 };
 }
 
-async function startServer(file: string, cache: boolean): Promise<{ child: ChildProcess; base: string }> {
+async function startServer(file: string, cache: boolean): Promise<{ child: ChildProcess; base: string; loop: string }> {
   const child = spawn(process.execPath, ["--import", "tsx", self], {
     env: { ...process.env, QB_BENCH_ROLE: "server", QB_BENCH_DB: file, QB_BENCH_CACHE: cache ? "on" : "off" },
     stdio: ["ignore", "pipe", "inherit"],
   });
-  const port = await new Promise<number>((resolve, reject) => {
+  const [port, loopPort] = await new Promise<[number, number]>((resolve, reject) => {
     let out = "";
     child.stdout!.on("data", (chunk) => {
       out += chunk;
       const match = /PORT (\d+)/.exec(out);
-      if (match) resolve(Number(match[1]));
+      const loopMatch = /LOOP (\d+)/.exec(out);
+      if (match && loopMatch) resolve([Number(match[1]), Number(loopMatch[1])]);
     });
     child.on("exit", (code) => reject(new Error(`bench server exited with ${code}`)));
   });
-  return { child, base: `http://127.0.0.1:${port}` };
+  return { child, base: `http://127.0.0.1:${port}`, loop: `http://127.0.0.1:${loopPort}` };
 }
 
 function stopServer(child: ChildProcess): Promise<void> {
@@ -161,6 +181,8 @@ function load(url: string, cookie: string, seconds: number): Promise<LoadFigures
 
 interface Figures {
   cold: number;
+  /** The server's event loop's longest block (ms) during the sequential requests. */
+  blocked: number;
   load: LoadFigures;
 }
 
@@ -185,8 +207,10 @@ async function measure(size: Size, seconds: number): Promise<Measured> {
           const url = `${server.base}${endpoint.path}?${period.query}`;
           const cookie = cookies.get(endpoint.as)!;
           const runs: number[] = [];
+          await fetch(`${server.loop}/reset`);
           for (let i = 0; i < COLD_RUNS; i++) runs.push(await timedGet(url, cookie));
-          figures[period.name][endpoint.name] = { cold: quantile(runs, 0.5)!, load: await load(url, cookie, seconds) };
+          const { blocked } = (await (await fetch(`${server.loop}/read`)).json()) as { blocked: number };
+          figures[period.name][endpoint.name] = { cold: quantile(runs, 0.5)!, blocked, load: await load(url, cookie, seconds) };
         }
       }
     } finally {
@@ -210,13 +234,13 @@ async function bench() {
 
   const ms = (value: number) => value.toFixed(1).padStart(8);
   console.log(`\nAnswer cache off; 10 connections × ${seconds} s per endpoint; times in ms.`);
-  console.log(`${"period".padEnd(15)} ${"endpoint".padEnd(22)} ${"attempts".padStart(10)} ${"cold".padStart(8)} ${"p50".padStart(8)} ${"p95".padStart(8)} ${"p99".padStart(8)} ${"req".padStart(7)} err`);
+  console.log(`${"period".padEnd(15)} ${"endpoint".padEnd(22)} ${"attempts".padStart(10)} ${"cold".padStart(8)} ${"loop".padStart(8)} ${"p50".padStart(8)} ${"p95".padStart(8)} ${"p99".padStart(8)} ${"req".padStart(7)} err`);
   for (const period of PERIODS) {
     for (const { name } of ENDPOINTS) {
       for (const m of [small, large]) {
         const f = m.figures[period.name][name];
         console.log(
-          `${period.name.padEnd(15)} ${name.padEnd(22)} ${m.attempts.toLocaleString("en-GB").padStart(10)} ${ms(f.cold)} ${ms(f.load.p50)} ${ms(f.load.p95)} ${ms(f.load.p99)} ${String(f.load.requests).padStart(7)} ${f.load.errors}`,
+          `${period.name.padEnd(15)} ${name.padEnd(22)} ${m.attempts.toLocaleString("en-GB").padStart(10)} ${ms(f.cold)} ${ms(f.blocked)} ${ms(f.load.p50)} ${ms(f.load.p95)} ${ms(f.load.p99)} ${String(f.load.requests).padStart(7)} ${f.load.errors}`,
         );
       }
     }
