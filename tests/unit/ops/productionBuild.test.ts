@@ -71,7 +71,7 @@ describe("production build", () => {
   });
 
   it(
-    "runs the compiled server, CLI and import worker with node alone",
+    "runs the compiled server, CLI, import worker and answer worker with node alone",
     async () => {
       const vite = spawnSync(process.execPath, [path.join(root, "node_modules/vite/bin/vite.js"), "build", "--outDir", path.join(copy, "dist/client"), "--emptyOutDir", "--logLevel", "warn"], { cwd: root, encoding: "utf8" });
       expect(vite.status, vite.stderr).toBe(0);
@@ -114,6 +114,17 @@ describe("production build", () => {
       expect(answer.message).toBeUndefined();
       expect(answer.type).toBe("done");
       expect(answer.summary?.rowsRead).toBeGreaterThan(0);
+
+      // the compiled answer worker, as offThread/pool.ts starts it, computes an overview of the empty network
+      const answerWorker = new Worker(path.join(copy, "dist/server/answerWorker.js"));
+      const answered = new Promise<{ id: number; json?: string; crash?: string; error?: unknown }>((resolve) => answerWorker.on("message", resolve));
+      const viewer = { user: { id: 1, email: "c@network.example", displayName: "C", role: "coordinator", instructorId: null }, seesEveryone: true, ownInstructorId: null, suppressionMinCount: 5, suppressionMinInstructors: 3 };
+      const filters = { period: { from: "2026-Q3", to: "2026-Q3", quarters: ["2026-Q3"] }, siteId: null, profile: null, feedback: null, instructorId: null, manikinId: null };
+      answerWorker.postMessage({ id: 1, dbFile: path.join(copy, "data/quarterbeat.sqlite"), key: "build-check", useCache: false, name: "overview", args: [viewer, filters, { limits: "binomial", splitAt: null }] });
+      const reply = await answered;
+      await answerWorker.terminate();
+      expect(reply.crash).toBeUndefined();
+      expect(JSON.parse(reply.json!)).toMatchObject({ attempts: 0, period: { from: "2026-Q3" } });
     },
     BUILD_TIMEOUT,
   );
