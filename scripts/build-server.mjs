@@ -18,7 +18,7 @@ await build({
     // jobs.ts starts this file as its worker thread when it runs compiled
     importWorker: "server/imports/importWorker.ts",
     // offThread/pool.ts starts this file as its worker thread when it runs compiled
-    answerWorker: "server/insight/offThread/answerWorker.ts",
+    answerWorker: "server/offThread/answerWorker.ts",
   },
   outdir,
   outExtension: { ".js": ".js" },

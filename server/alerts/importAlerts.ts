@@ -17,7 +17,10 @@ import { logImportAlerts } from "../logging/events";
 import type { Logger } from "../logging/logger";
 import { signalsFor, type Recipient } from "./audience";
 import { monthLabel, monthsLabel, scopeLabel, signalLine, signalLink } from "./signalLines";
+import { answerText } from "../offThread/pool";
 import { currentSignals, signalList, signalsOf, type Signals, type TaggedSignal } from "./signals";
+
+const today = () => new Date().toISOString().slice(0, 10);
 
 export type AlertOutcome =
   | { status: "nothing-new" }
@@ -91,8 +94,9 @@ export function digestText(signals: Signals): string {
   return lines.join("\n");
 }
 
-export async function sendImportAlerts(db: Db, mailer: Mailer, asOf: string = new Date().toISOString().slice(0, 10)): Promise<AlertOutcome> {
-  const list = signalList(currentSignals(db, asOf));
+/** `signals`: those holding now, when the caller worked them out already (off the event loop); else read here. */
+export async function sendImportAlerts(db: Db, mailer: Mailer, asOf: string = today(), signals?: Signals): Promise<AlertOutcome> {
+  const list = signalList(signals ?? currentSignals(db, asOf));
   if (list.length === 0) return { status: "nothing-new" };
   const delivered = new Set<string>();
   let messages = 0;
@@ -128,7 +132,11 @@ function recordDeliveries(db: Db, recipient: Recipient, fresh: readonly TaggedSi
 
 /** Runs the digest without holding up the import it follows; the outcome goes on the log, never an exception. */
 export function alertAfterImport(db: Db, mailer: Mailer, logger: Logger): Promise<void> {
-  return sendImportAlerts(db, mailer).then(
+  const asOf = today();
+  // the signals read the whole network: worked out in the answer worker, so the server keeps answering meanwhile
+  return Promise.resolve(answerText(db, `signals|${asOf}`, "signals", [asOf]))
+    .then((text) => sendImportAlerts(db, mailer, asOf, JSON.parse(text) as Signals))
+    .then(
     (outcome) => logImportAlerts(logger, outcome),
     () => logImportAlerts(logger, { status: "failed" }),
   );

@@ -14,7 +14,7 @@ import { dataVersion, sendCached } from "./cache";
 import { classDetail } from "./classes";
 import { filtersKey, resolveFilters } from "./filters";
 import { filterOptions } from "./options";
-import { sendAnswer } from "./offThread/pool";
+import { sendAnswer } from "../offThread/pool";
 import { viewerKey, viewerOf } from "./viewer";
 
 const rowIdSchema = z.string().trim().min(1, "Give an id").max(100, "An id has at most 100 characters");

@@ -8,8 +8,8 @@ import type { Db } from "../../server/db/client";
 import { openDatabase } from "../../server/db/client";
 import { AppError } from "../../server/errors";
 import { resolveFilters } from "../../server/insight/filters";
-import { answerJson } from "../../server/insight/offThread/answers";
-import { answerText, closeAnswerThread } from "../../server/insight/offThread/pool";
+import { answerJson } from "../../server/offThread/answers";
+import { answerText, closeAnswerThread } from "../../server/offThread/pool";
 import { viewerOf } from "../../server/insight/viewer";
 import type { CurrentUser } from "../../shared/schemas/auth";
 import { generateNetwork } from "../fixtures/insight/generateNetwork";
@@ -43,6 +43,8 @@ describe("insight answers off the event loop", () => {
     expect(await answerText(db, "test:standing", "standing", [mine, ownFilters, "case-mix"])).toBe(answerJson(db, "standing", [mine, ownFilters, "case-mix"]));
     expect(await answerText(db, "test:instructors", "instructors", [filters, "case-mix"])).toBe(answerJson(db, "instructors", [filters, "case-mix"]));
     expect(await answerText(db, "test:errors", "errors", [filters, "too_shallow"])).toBe(answerJson(db, "errors", [filters, "too_shallow"]));
+    // the checks after an import, as the digest reads them
+    expect(await answerText(db, "test:signals", "signals", ["2025-12-31"])).toBe(answerJson(db, "signals", ["2025-12-31"]));
   });
 
   it("passes an answer's refusal back as the same error", async () => {

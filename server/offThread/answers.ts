@@ -1,11 +1,12 @@
-// The insight answers that may take long on a large network, by name: the worker thread computes them from
+// The answers that may take long on a large network, by name: the worker thread computes them from
 // these names and plain arguments, and the server computes the same functions in-process when it cannot use a
 // worker (a database in memory). One table, so both ways answer with the same code.
-import type { Db } from "../../db/client";
-import { overview } from "../overview";
-import { standing } from "../standing";
-import { instructorDetail, instructorTable } from "../instructors";
-import { errorAnalysis } from "../errors";
+import type { Db } from "../db/client";
+import { overview } from "../insight/overview";
+import { standing } from "../insight/standing";
+import { instructorDetail, instructorTable } from "../insight/instructors";
+import { errorAnalysis } from "../insight/errors";
+import { currentSignals } from "../alerts/signals";
 
 export const offThreadAnswers = {
   overview,
@@ -13,6 +14,8 @@ export const offThreadAnswers = {
   instructors: instructorTable,
   instructor: instructorDetail,
   errors: errorAnalysis,
+  // the checks after an import read the whole network (funnel, drift, run charts)
+  signals: currentSignals,
 } satisfies Record<string, (db: Db, ...args: never[]) => unknown>;
 
 export type AnswerName = keyof typeof offThreadAnswers;

@@ -2,9 +2,9 @@
 // over many quarters on a large network) never holds the web server's event loop. Started by pool.ts; takes
 // one request at a time by message and answers with the JSON text or the error to send.
 import { parentPort } from "node:worker_threads";
-import { openDatabase, type Db } from "../../db/client";
-import { AppError } from "../../errors";
-import { cached } from "../cache";
+import { openDatabase, type Db } from "../db/client";
+import { AppError } from "../errors";
+import { cached } from "../insight/cache";
 import { answerJson, type AnswerArgs, type AnswerName } from "./answers";
 
 export interface AnswerRequest {

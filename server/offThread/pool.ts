@@ -5,9 +5,9 @@
 // the client as it would in-process.
 import { Worker } from "node:worker_threads";
 import type { Response } from "express";
-import type { Db } from "../../db/client";
-import { AppError } from "../../errors";
-import { cached, cachedAsync, insightCacheEnabled } from "../cache";
+import type { Db } from "../db/client";
+import { AppError } from "../errors";
+import { cached, cachedAsync, insightCacheEnabled } from "../insight/cache";
 import { answerJson, type AnswerArgs, type AnswerName } from "./answers";
 import type { AnswerReply, AnswerRequest } from "./answerWorker";
 
