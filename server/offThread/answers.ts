@@ -7,6 +7,7 @@ import { standing } from "../insight/standing";
 import { instructorDetail, instructorTable } from "../insight/instructors";
 import { errorAnalysis } from "../insight/errors";
 import { currentSignals } from "../alerts/signals";
+import { driftAnswer, fleetAnswer, manikinAnswer } from "../equipment/answers";
 
 export const offThreadAnswers = {
   overview,
@@ -14,6 +15,9 @@ export const offThreadAnswers = {
   instructors: instructorTable,
   instructor: instructorDetail,
   errors: errorAnalysis,
+  fleet: fleetAnswer,
+  drift: driftAnswer,
+  manikin: manikinAnswer,
   // the checks after an import read the whole network (funnel, drift, run charts)
   signals: currentSignals,
 } satisfies Record<string, (db: Db, ...args: never[]) => unknown>;

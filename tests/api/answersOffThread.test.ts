@@ -43,6 +43,9 @@ describe("insight answers off the event loop", () => {
     expect(await answerText(db, "test:standing", "standing", [mine, ownFilters, "case-mix"])).toBe(answerJson(db, "standing", [mine, ownFilters, "case-mix"]));
     expect(await answerText(db, "test:instructors", "instructors", [filters, "case-mix"])).toBe(answerJson(db, "instructors", [filters, "case-mix"]));
     expect(await answerText(db, "test:errors", "errors", [filters, "too_shallow"])).toBe(answerJson(db, "errors", [filters, "too_shallow"]));
+    // the equipment answers, whose usage figures follow the viewer's grid
+    expect(await answerText(db, "test:fleet", "fleet", [viewer, filters, "2025-12-31"])).toBe(answerJson(db, "fleet", [viewer, filters, "2025-12-31"]));
+    expect(await answerText(db, "test:drift", "drift", [viewer, filters])).toBe(answerJson(db, "drift", [viewer, filters]));
     // the checks after an import, as the digest reads them
     expect(await answerText(db, "test:signals", "signals", ["2025-12-31"])).toBe(answerJson(db, "signals", ["2025-12-31"]));
   });
