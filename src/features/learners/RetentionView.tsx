@@ -31,6 +31,16 @@ export function retentionRows(answer: RetentionAnswer): RetentionRow[] {
   return [row("first_time", retentionGroupNames.first_time, answer.first_time), ...answer.returning.map((b) => row(b.months, retentionGroupNames[b.months], b))];
 }
 
+// On a phone the full group names do not fit beside the bars.
+const shortGroupLabels: Record<string, string> = {
+  first_time: "First course",
+  "0-6": "0–6 months",
+  "6-12": "6–12 months",
+  "12-18": "12–18 months",
+  "18-24": "18–24 months",
+  "24+": "24+ months",
+};
+
 const columns: Column<RetentionRow>[] = [
   { key: "group", header: "Learners", value: (r) => r.group, primary: true },
   { key: "learners", header: "Learner–class pairs", value: (r) => r.learners, render: (r) => formatCount(r.learners), align: "right" },
@@ -42,7 +52,7 @@ const columns: Column<RetentionRow>[] = [
 export function RetentionView({ answer }: { answer: RetentionAnswer }) {
   const rows = retentionRows(answer);
   const returning = rows.slice(1).filter((r) => r.learners > 0);
-  const bars: IntervalBar[] = rows.filter((r) => r.learners > 0).map((r) => ({ label: r.group, rate: r.rate, low: r.low, high: r.high }));
+  const bars: IntervalBar[] = rows.filter((r) => r.learners > 0).map((r) => ({ label: r.group, shortLabel: shortGroupLabels[r.key], rate: r.rate, low: r.low, high: r.high }));
   const about = answer.profile ? ` on ${patientTypeNames[answer.profile].toLowerCase()} attempts` : "";
   const description =
     returning.length === 0
