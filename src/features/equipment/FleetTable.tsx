@@ -77,7 +77,15 @@ export function FleetTable({ answer, manikinHref }: { answer: EquipmentAnswer; m
             <svg viewBox="0 0 12 12" className="size-3" aria-hidden="true">
               <path d="M6 1 11 10.5H1z" fill="currentColor" />
             </svg>
-            {m.due.join(", ")}
+            {/* each reason stays on one line; a list of them may wrap between reasons */}
+            <span>
+              {m.due.map((reason, i) => (
+                <span key={reason}>
+                  {i > 0 && ", "}
+                  <span className="whitespace-nowrap">{reason}</span>
+                </span>
+              ))}
+            </span>
           </span>
         ),
     },
@@ -93,7 +101,16 @@ export function FleetTable({ answer, manikinHref }: { answer: EquipmentAnswer; m
       headerWrap: true,
       wrap: true,
       value: (m) => (m.retiredOn ? `Retired ${m.retiredOn}` : (m.inServiceSince ?? "")),
-      render: (m) => (m.retiredOn ? <span className="text-muted">Retired {formatDay(m.retiredOn)}</span> : m.inServiceSince ? formatDay(m.inServiceSince) : <span className="text-muted">Not recorded</span>),
+      render: (m) =>
+        m.retiredOn ? (
+          <span className="text-muted">
+            Retired <span className="whitespace-nowrap">{formatDay(m.retiredOn)}</span>
+          </span>
+        ) : m.inServiceSince ? (
+          <span className="whitespace-nowrap">{formatDay(m.inServiceSince)}</span>
+        ) : (
+          <span className="text-muted">Not recorded</span>
+        ),
     },
   ];
   return (
