@@ -90,8 +90,9 @@ export function VersionsPanel({ period, versions, onCreated }: VersionsPanelProp
           rows={versions}
           rowKey={(v) => String(v.id)}
           columns={[
-            { header: "Version", cell: (v) => `Version ${v.version}` },
-            { header: "Created", cell: (v) => formatDateTime(v.createdAt) },
+            // the table scrolls sideways on a phone rather than break a version's name or date
+            { header: "Version", cell: (v) => <span className="whitespace-nowrap">Version {v.version}</span> },
+            { header: "Created", cell: (v) => <span className="whitespace-nowrap">{formatDateTime(v.createdAt)}</span> },
             { header: "By", cell: (v) => v.createdBy ?? "command line" },
             {
               header: "Funders",
