@@ -49,9 +49,9 @@ function differencesPlot(offset: number | null) {
     marginLeft: 56,
     // two-line date ticks ("18" over "Oct")
     marginBottom: 36,
-    // keeps the dots of the first and last class inside the frame
+    // insets keep the dots of the first, last, highest and lowest class inside the frame, clear of the axes
     x: { type: "utc", label: null, ticks: width < 560 ? 4 : 8, inset: 8 },
-    y: { label: "Difference (mm)", grid: true },
+    y: { label: "Difference (mm)", grid: true, inset: 8 },
     marks: [
       Plot.ruleY([0], { stroke: ink.text }),
       ...(offset === null ? [] : [Plot.ruleY([offset], { stroke: ink.main, strokeDasharray: "4 3" })]),

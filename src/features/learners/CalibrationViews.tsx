@@ -30,6 +30,8 @@ export function CalibrationTable({ row, subject = YOU }: { row: CalibrationRow; 
   const who = subject.you ? "You" : subject.code;
   const cell = "border border-line px-3 py-2 text-right tabular-nums";
   const head = "border border-line bg-surface px-3 py-2 text-left font-semibold";
+  // column headings over right-aligned counts stand right-aligned too
+  const columnHead = "border border-line bg-surface px-3 py-2 text-right font-semibold";
   return (
     <table className="border-collapse text-small">
       <caption className="mb-1 text-left font-semibold">
@@ -38,10 +40,10 @@ export function CalibrationTable({ row, subject = YOU }: { row: CalibrationRow; 
       <thead>
         <tr>
           <td className="border border-line px-3 py-2" />
-          <th scope="col" className={head}>
+          <th scope="col" className={columnHead}>
             Measured pass
           </th>
-          <th scope="col" className={head}>
+          <th scope="col" className={columnHead}>
             Measured fail
           </th>
         </tr>
