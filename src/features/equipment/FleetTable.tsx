@@ -77,15 +77,7 @@ export function FleetTable({ answer, manikinHref }: { answer: EquipmentAnswer; m
             <svg viewBox="0 0 12 12" className="size-3" aria-hidden="true">
               <path d="M6 1 11 10.5H1z" fill="currentColor" />
             </svg>
-            {/* each reason stays on one line; a list of them may wrap between reasons */}
-            <span>
-              {m.due.map((reason, i) => (
-                <span key={reason}>
-                  {i > 0 && ", "}
-                  <span className="whitespace-nowrap">{reason}</span>
-                </span>
-              ))}
-            </span>
+            {m.due.join(", ")}
           </span>
         ),
     },
