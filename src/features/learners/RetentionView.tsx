@@ -1,6 +1,6 @@
 // Skill retention: first-attempt pass rates of learners back for recertification, by months since their
 // previous class, beside first-timers — as interval bars and as a table.
-import type { RetentionAnswer } from "../../../shared/schemas/learners";
+import type { RetentionAnswer, RetentionBin } from "../../../shared/schemas/learners";
 import { patientTypeNames, retentionFigureName, retentionGroupNames } from "../../../shared/vocabulary";
 import { rangeLabel } from "../../../shared/period";
 import { Chart } from "../../components/Chart";
@@ -9,7 +9,7 @@ import { intervalBarsPlot, type IntervalBar } from "../insight/charts/intervalPl
 import { formatCount, formatInterval, formatPercent, percentValue } from "../insight/format";
 
 interface RetentionRow {
-  key: string;
+  key: RetentionBin | "first_time";
   group: string;
   learners: number;
   passed: number;
@@ -19,7 +19,7 @@ interface RetentionRow {
 }
 
 export function retentionRows(answer: RetentionAnswer): RetentionRow[] {
-  const row = (key: string, group: string, g: RetentionAnswer["first_time"]): RetentionRow => ({
+  const row = (key: RetentionRow["key"], group: string, g: RetentionAnswer["first_time"]): RetentionRow => ({
     key,
     group,
     learners: g.learners,
@@ -32,7 +32,7 @@ export function retentionRows(answer: RetentionAnswer): RetentionRow[] {
 }
 
 // On a phone the full group names do not fit beside the bars.
-const shortGroupLabels: Record<string, string> = {
+const shortGroupLabels: Record<RetentionBin | "first_time", string> = {
   first_time: "First course",
   "0-6": "0–6 months",
   "6-12": "6–12 months",

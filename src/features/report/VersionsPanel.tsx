@@ -68,7 +68,8 @@ export function VersionsPanel({ period, versions, onCreated }: VersionsPanelProp
             released; earlier ones stay here unchanged.
           </p>
         </div>
-        <div className="flex flex-col items-end gap-2">
+        {/* on a phone this block falls under the heading: there it lines up on the left like the rest */}
+        <div className="flex flex-col items-start gap-2 lg:items-end">
           <label className="inline-flex max-w-xs items-start gap-2 text-small">
             <input type="checkbox" className="mt-1" checked={includeActions} onChange={(event) => setIncludeActions(event.target.checked)} />
             <span>
