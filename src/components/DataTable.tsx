@@ -142,7 +142,7 @@ export function DataTable<Row>({
           {filterable && (
             <div className="flex min-w-[min(100%,16rem)] flex-1 flex-col gap-1 sm:max-w-sm">
               <label htmlFor={filterId} className="text-small font-semibold">
-                Filter {caption.toLowerCase()}
+                Filter {captionInSentence(caption)}
               </label>
               <input
                 id={filterId}
@@ -325,4 +325,9 @@ function SortMark({ direction }: { direction: "asc" | "desc" | null }) {
       <path d="M5 13 1 8.5h8z" fill="currentColor" opacity={direction === "desc" ? 1 : 0.3} />
     </svg>
   );
+}
+
+/** A caption in the middle of a sentence: "Files of 2026 Q4" → "files of 2026 Q4" (codes and quarters keep their capitals). */
+function captionInSentence(caption: string): string {
+  return /^[A-Z][^A-Z]/.test(caption) ? caption.charAt(0).toLowerCase() + caption.slice(1) : caption;
 }

@@ -161,7 +161,17 @@ export function ClassContent({ answer, backTo }: { answer: ClassDetailAnswer; ba
           <Fact label="Measured pass rate" wide>
             <RateText rate={answer.passRate} stacked={false} />
           </Fact>
-          <Fact label="Manikins" wide>{c.manikins.length ? c.manikins.join(", ") : notRecorded}</Fact>
+          <Fact label="Manikins" wide>
+            {/* a list may wrap between asset ids, never at the hyphen inside one */}
+            {c.manikins.length
+              ? c.manikins.map((assetId, i) => (
+                  <span key={assetId}>
+                    {i > 0 && ", "}
+                    <span className="whitespace-nowrap">{assetId}</span>
+                  </span>
+                ))
+              : notRecorded}
+          </Fact>
           <Fact label="Lungs replaced">{c.lungsReplaced ?? notRecorded}</Fact>
           <Fact label="Mouthpieces cleaned">{c.mouthpiecesCleaned ?? notRecorded}</Fact>
           <Fact label="Batteries replaced">{c.batteriesReplaced ?? notRecorded}</Fact>

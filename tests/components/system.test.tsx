@@ -50,8 +50,8 @@ describe("system page", () => {
     const growth = screen.getByRole("table", { name: "Stored data per quarter" });
     const rows = within(growth).getAllByRole("row").slice(1).map((row) => within(row).getAllByRole("cell").map((cell) => cell.textContent));
     expect(rows).toEqual([
-      ["2026-Q3", "41", "855", "35"],
-      ["2026-Q2", "40", "859", "52"],
+      ["2026 Q3", "41", "855", "35"],
+      ["2026 Q2", "40", "859", "52"],
     ]);
 
     expect(screen.getByRole("alert").textContent).toContain("failed its verification: ENOSPC: no space left on device");

@@ -9,7 +9,7 @@ import { Chart, type ChartSize } from "../../components/Chart";
 import type { Column } from "../../components/DataTable";
 import { SafetyNote } from "../../components/SafetyNote";
 import { ChartLegend, lineSwatch, shapeSwatch } from "../insight/ChartLegend";
-import { ink, percentTick, shareAxisTop } from "../insight/chartStyle";
+import { ink, percentTick, quarterTick, shareAxisTop } from "../insight/chartStyle";
 import { formatCount, formatPercent, formatPoints, percentValue } from "../insight/format";
 
 const phaseNames: Record<EvaluationPoint["phase"], string> = { before: "Before", transition: "Start quarter (neither side)", after: "After" };
@@ -56,7 +56,8 @@ function RunChart({ action, evaluation }: { action: ActionRow; evaluation: Evalu
       height: width < 500 ? 240 : 300,
       marginLeft: 48,
       marginTop: 24,
-      x: { type: "point", domain: points.map((p) => p.period), tickFormat: quarterLabel, label: null, padding: 0.4 },
+      marginBottom: width < 560 ? 40 : 30,
+      x: { type: "point", domain: points.map((p) => p.period), tickFormat: quarterTick(width), label: null, padding: 0.4 },
       y: { domain: [0, shareAxisTop([...points.map((p) => p.rate), target])], tickFormat: percentTick, label: aimFigureName(action.aim), grid: true },
       marks: [
         median === null ? null : Plot.ruleY([median], { stroke: ink.main, strokeWidth: 1.5 }),

@@ -58,14 +58,25 @@ function MonthlyPlot({ action, chart }: { action: ActionRow; chart: Answer }) {
         const median = p.phase === "before" || p.phase === "after" ? medianOf(p.phase) : null;
         return median === null ? [] : [{ period: p.period, median, phase: p.phase }];
       });
-      // many months: slanted labels, with room below and to the left for them
-      const slanted = points.length > 12;
+      // many months, or a narrow chart: slanted labels, with room below and to the left for them
+      const slanted = points.length > 12 || (width < 560 && points.length > 4);
+      const marginLeft = slanted ? 60 : 48;
+      // slanted labels need about 22 px each along the axis: on a narrow chart only every second or third month is named
+      const step = Math.max(1, Math.ceil(22 / ((width - marginLeft - 20) / Math.max(1, points.length))));
       return {
         height: width < 500 ? 260 : 320,
-        marginLeft: slanted ? 60 : 48,
+        marginLeft,
         marginTop: 24,
         marginBottom: slanted ? 64 : 40,
-        x: { type: "band", domain: points.map((p) => p.period), tickFormat: formatMonth, tickRotate: slanted ? -45 : 0, label: null, padding: 0 },
+        x: {
+          type: "band",
+          domain: points.map((p) => p.period),
+          ticks: points.filter((_, i) => i % step === 0).map((p) => p.period),
+          tickFormat: formatMonth,
+          tickRotate: slanted ? -45 : 0,
+          label: null,
+          padding: 0,
+        },
         y: { domain: [0, shareAxisTop(points.map((p) => p.rate))], tickFormat: percentTick, label: aimFigureName(action.aim), grid: true },
         marks: [
           Plot.tickY(centres, { x: "period", y: "median", stroke: (c: (typeof centres)[number]) => (c.phase === "after" ? ink.accentDark : ink.main), strokeWidth: 2 }),

@@ -9,6 +9,7 @@ import { Chart, type ChartSize } from "../../components/Chart";
 import { DataTable, type Column } from "../../components/DataTable";
 import { TargetMark, type TargetStatus } from "../../components/TargetBadge";
 import { status as statusColours } from "../../styles/palette";
+import { X_TITLE_BELOW, X_TITLE_MARGIN_BOTTOM, Y_TITLE_MARGIN_TOP } from "../insight/charts/axisSpace";
 import type { CompressionPoint, CompressionSeries, DepthClass, PauseSpan, RateClass } from "./compressionSeries";
 
 export const depthClassLabels: Record<DepthClass, string> = { on_target: "On target", too_shallow: "Too shallow", too_deep: "Too deep" };
@@ -45,7 +46,9 @@ function seconds(value: number): string {
 function timeFrame(points: readonly CompressionPoint[], pauses: readonly PauseSpan[], width: number) {
   const end = Math.max(1, ...points.map((p) => p.t));
   return {
-    x: { domain: [0, Math.ceil(end / 5) * 5], label: "Time since the attempt started (s)", ticks: width < 500 ? 5 : 10 },
+    x: { domain: [0, Math.ceil(end / 5) * 5], label: "Time since the attempt started (s)", ...X_TITLE_BELOW, ticks: width < 500 ? 5 : 10 },
+    marginTop: Y_TITLE_MARGIN_TOP,
+    marginBottom: X_TITLE_MARGIN_BOTTOM,
     pauseMarks: [
       Plot.rect(pauses as PauseSpan[], { x1: "start", x2: "end", fill: pauseFill }),
       // neighbouring pauses take turns at two heights so their labels never overlap; phones get the length only
@@ -100,6 +103,8 @@ export function CompressionCharts({ series, band, unit, pauseThresholdS, longPau
       return {
         height: 300,
         marginLeft: 48,
+        marginTop: frame.marginTop,
+        marginBottom: frame.marginBottom,
         x: frame.x,
         y: { domain: [fromMm(Math.max(0, low - 2), unit), fromMm(high + 2, unit)], label: `Depth (${unit})`, grid: true },
         color: colour,
@@ -135,6 +140,8 @@ export function CompressionCharts({ series, band, unit, pauseThresholdS, longPau
       return {
         height: 260,
         marginLeft: 48,
+        marginTop: frame.marginTop,
+        marginBottom: frame.marginBottom,
         x: frame.x,
         y: { domain: [low, high], label: "Rate (per minute)", grid: true, clamp: true },
         color: colour,
@@ -167,6 +174,8 @@ export function CompressionCharts({ series, band, unit, pauseThresholdS, longPau
       return {
         height: 220,
         marginLeft: 48,
+        marginTop: frame.marginTop,
+        marginBottom: frame.marginBottom,
         x: frame.x,
         y: { domain: [0, fromMm(high, unit)], label: `Still pressed at release (${unit})`, grid: true },
         color: colour,

@@ -9,6 +9,7 @@ import { Chart, type ChartSize } from "../../components/Chart";
 import type { Column } from "../../components/DataTable";
 import { status as statusColours } from "../../styles/palette";
 import { ChartLegend } from "../insight/ChartLegend";
+import { X_TITLE_BELOW, X_TITLE_MARGIN_BOTTOM, Y_TITLE_MARGIN_TOP } from "../insight/charts/axisSpace";
 import { CompressionCharts } from "./CompressionCharts";
 import type { CompressionSeries } from "./compressionSeries";
 import { distribution, ribbon, type BandClass, type DistributionBin, type Lane, type LaneShare, type RibbonSegment } from "./compressionDistribution";
@@ -97,7 +98,8 @@ export function CompressionOverview({ series, band, unit, pauseThresholdS, longP
       return {
         height: 170,
         marginLeft: width < 500 ? 92 : 160,
-        x: { domain: [0, Math.ceil(end / 5) * 5], label: "Time since the attempt started (s)", ticks: width < 500 ? 5 : 10 },
+        marginBottom: X_TITLE_MARGIN_BOTTOM,
+        x: { domain: [0, Math.ceil(end / 5) * 5], label: "Time since the attempt started (s)", ...X_TITLE_BELOW, ticks: width < 500 ? 5 : 10 },
         y: {
           domain: [0, 2 + laneHeight],
           ticks: (["depth", "rate", "recoil"] as const).map((lane) => laneRow[lane] + laneHeight / 2),
@@ -141,8 +143,10 @@ export function CompressionOverview({ series, band, unit, pauseThresholdS, longP
         const stacked = bins.flatMap((b) => (["low", "on", "high"] as const).filter((cls) => b[cls] > 0).map((cls) => ({ x1: toAxis(b.from), x2: toAxis(b.to), cls, count: b[cls] })));
         return {
           height,
+          marginTop: Y_TITLE_MARGIN_TOP,
           marginLeft: 48,
-          x: { label },
+          marginBottom: X_TITLE_MARGIN_BOTTOM,
+          x: { label, ...X_TITLE_BELOW },
           y: { label: "Compressions", grid: true },
           marks: [
             Plot.rect([0], { x1: toAxis(bandLow), x2: toAxis(bandHigh), y1: 0, y2: Math.max(1, ...bins.map((b) => b.low + b.on + b.high)), fill: statusColours.onTarget.tint }),

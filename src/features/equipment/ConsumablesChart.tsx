@@ -8,6 +8,7 @@ import { Chart, type ChartSize } from "../../components/Chart";
 import type { Column } from "../../components/DataTable";
 import { EmptyState } from "../../components/States";
 import { dusk } from "../../styles/palette";
+import { Y_TITLE_MARGIN_TOP } from "../insight/charts/axisSpace";
 
 export interface ConsumablesBySite {
   site: string;
@@ -53,11 +54,14 @@ function columnsFor(key: Item, title: string): Column<ConsumablesBySite>[] {
 function plotFor(key: Item) {
   return (data: readonly ConsumablesBySite[], { width }: ChartSize): Plot.PlotOptions => {
     const rows = (data as ConsumablesBySite[]).map((r) => ({ site: r.site, value: per100(r[key], r.learners) }));
+    const highest = Math.max(0, ...rows.map((r) => r.value ?? 0));
     return {
       height: 220,
+      marginTop: Y_TITLE_MARGIN_TOP,
       marginLeft: 44,
       x: { label: null, tickRotate: width < 260 ? -30 : 0 },
-      y: { label: "Per 100 learners", grid: true, nice: true },
+      // headroom above the tallest bar for its value
+      y: { label: "Per 100 learners", grid: true, nice: true, domain: [0, highest > 0 ? highest * 1.15 : 1] },
       marks: [
         Plot.barY(rows, { x: "site", y: "value", fill: dusk[600] }),
         Plot.text(rows, { x: "site", y: "value", text: (r: { value: number | null }) => (r.value === null ? "–" : String(r.value)), dy: -7, fill: "#1C1B2E" }),

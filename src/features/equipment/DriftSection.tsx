@@ -11,6 +11,7 @@ import { DataTable, type Column } from "../../components/DataTable";
 import { formatDay } from "../../lib/formatting";
 import { formatFixed } from "../insight/format";
 import { ink } from "../insight/chartStyle";
+import { Y_TITLE_MARGIN_TOP } from "../insight/charts/axisSpace";
 import { QueryStatus } from "../insight/QueryStatus";
 import type { ApiFilters } from "../insight/queries";
 import { equipmentQueries } from "./queries";
@@ -44,9 +45,13 @@ type Difference = ManikinDriftRow["differences"][number];
 function differencesPlot(offset: number | null) {
   return (data: readonly Difference[], { width }: ChartSize): Plot.PlotOptions => ({
     height: 240,
+    marginTop: Y_TITLE_MARGIN_TOP,
     marginLeft: 56,
-    x: { type: "utc", label: null, ticks: width < 560 ? 4 : 8 },
-    y: { label: "Difference (mm)", grid: true },
+    // two-line date ticks ("18" over "Oct")
+    marginBottom: 36,
+    // insets keep the dots of the first, last, highest and lowest class inside the frame, clear of the axes
+    x: { type: "utc", label: null, ticks: width < 560 ? 4 : 8, inset: 8 },
+    y: { label: "Difference (mm)", grid: true, inset: 8 },
     marks: [
       Plot.ruleY([0], { stroke: ink.text }),
       ...(offset === null ? [] : [Plot.ruleY([offset], { stroke: ink.main, strokeDasharray: "4 3" })]),

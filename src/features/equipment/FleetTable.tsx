@@ -93,7 +93,16 @@ export function FleetTable({ answer, manikinHref }: { answer: EquipmentAnswer; m
       headerWrap: true,
       wrap: true,
       value: (m) => (m.retiredOn ? `Retired ${m.retiredOn}` : (m.inServiceSince ?? "")),
-      render: (m) => (m.retiredOn ? <span className="text-muted">Retired {formatDay(m.retiredOn)}</span> : m.inServiceSince ? formatDay(m.inServiceSince) : <span className="text-muted">Not recorded</span>),
+      render: (m) =>
+        m.retiredOn ? (
+          <span className="text-muted">
+            Retired <span className="whitespace-nowrap">{formatDay(m.retiredOn)}</span>
+          </span>
+        ) : m.inServiceSince ? (
+          <span className="whitespace-nowrap">{formatDay(m.inServiceSince)}</span>
+        ) : (
+          <span className="text-muted">Not recorded</span>
+        ),
     },
   ];
   return (

@@ -1,4 +1,5 @@
 // Colours and axis formats shared by the insight charts (values from the product palette).
+import { quarterLabel } from "../../../shared/period";
 import { chartSeries, dusk, marigold, neutral, status } from "../../styles/palette";
 
 export const ink = {
@@ -16,6 +17,10 @@ export const ink = {
 
 /** Axis ticks for shares: 0.3 → "30 %". */
 export const percentTick = (value: number) => `${Math.round(value * 100)} %`;
+
+/** Quarter ticks: "2026 Q3", or on a narrow chart, where eight of those run into each other, "Q3" over "2026"
+ *  (give such a chart about 40 px of bottom margin). */
+export const quarterTick = (width: number) => (q: string) => (width < 560 ? `${q.slice(5)}\n${q.slice(0, 4)}` : quarterLabel(q));
 
 /** The top of a share axis: the largest value with some air, rounded up to 10 %, never above 100 %. */
 export function shareAxisTop(values: readonly (number | null | undefined)[], floor = 0.5): number {

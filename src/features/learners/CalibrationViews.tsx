@@ -30,6 +30,8 @@ export function CalibrationTable({ row, subject = YOU }: { row: CalibrationRow; 
   const who = subject.you ? "You" : subject.code;
   const cell = "border border-line px-3 py-2 text-right tabular-nums";
   const head = "border border-line bg-surface px-3 py-2 text-left font-semibold";
+  // column headings over right-aligned counts stand right-aligned too
+  const columnHead = "border border-line bg-surface px-3 py-2 text-right font-semibold";
   return (
     <table className="border-collapse text-small">
       <caption className="mb-1 text-left font-semibold">
@@ -38,10 +40,10 @@ export function CalibrationTable({ row, subject = YOU }: { row: CalibrationRow; 
       <thead>
         <tr>
           <td className="border border-line px-3 py-2" />
-          <th scope="col" className={head}>
+          <th scope="col" className={columnHead}>
             Measured pass
           </th>
-          <th scope="col" className={head}>
+          <th scope="col" className={columnHead}>
             Measured fail
           </th>
         </tr>
@@ -117,14 +119,14 @@ export function OwnCalibration({ answer }: { answer: CalibrationAnswer }) {
 const allColumns: Column<CalibrationRow>[] = [
   { key: "instructor", header: "Instructor", value: (r) => `${r.instructor.code} · ${r.instructor.name}`, primary: true },
   { key: "judged", header: "Judged", value: (r) => r.judged, render: (r) => formatCount(r.judged), align: "right" },
-  { key: "both_pass", header: "Both pass", value: (r) => r.both_pass, align: "right" },
-  { key: "pass_fail", header: "Passed, measured fail", value: (r) => r.instructor_pass_measured_fail, align: "right" },
-  { key: "fail_pass", header: "Failed, measured pass", value: (r) => r.instructor_fail_measured_pass, align: "right" },
-  { key: "both_fail", header: "Both fail", value: (r) => r.both_fail, align: "right" },
-  { key: "lenient", header: calibrationNames.lenient, value: (r) => percentValue(r.lenient_share), render: (r) => formatPercent(r.lenient_share), align: "right" },
-  { key: "lenient_ci", header: "95 % interval", value: (r) => formatInterval(r.lenient_ci95?.[0], r.lenient_ci95?.[1]), align: "right" },
-  { key: "strict", header: calibrationNames.strict, value: (r) => percentValue(r.strict_share), render: (r) => formatPercent(r.strict_share), align: "right" },
-  { key: "strict_ci", header: "95 % interval ", value: (r) => formatInterval(r.strict_ci95?.[0], r.strict_ci95?.[1]), align: "right" },
+  { key: "both_pass", header: "Both pass", headerWrap: true, value: (r) => r.both_pass, align: "right" },
+  { key: "pass_fail", header: "Passed, measured fail", headerWrap: true, value: (r) => r.instructor_pass_measured_fail, align: "right" },
+  { key: "fail_pass", header: "Failed, measured pass", headerWrap: true, value: (r) => r.instructor_fail_measured_pass, align: "right" },
+  { key: "both_fail", header: "Both fail", headerWrap: true, value: (r) => r.both_fail, align: "right" },
+  { key: "lenient", header: calibrationNames.lenient, headerWrap: true, value: (r) => percentValue(r.lenient_share), render: (r) => formatPercent(r.lenient_share), align: "right" },
+  { key: "lenient_ci", header: "95 % interval", headerWrap: true, value: (r) => formatInterval(r.lenient_ci95?.[0], r.lenient_ci95?.[1]), align: "right" },
+  { key: "strict", header: calibrationNames.strict, headerWrap: true, value: (r) => percentValue(r.strict_share), render: (r) => formatPercent(r.strict_share), align: "right" },
+  { key: "strict_ci", header: "95 % interval ", headerWrap: true, value: (r) => formatInterval(r.strict_ci95?.[0], r.strict_ci95?.[1]), align: "right" },
   { key: "kappa", header: calibrationNames.kappa, value: (r) => r.kappa, render: (r) => formatKappa(r.kappa, r.kappa_ci95), align: "right" },
   { key: "kappa_words", header: "In words", value: (r) => kappaWords(r.kappa) },
 ];

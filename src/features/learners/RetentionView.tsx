@@ -1,6 +1,6 @@
 // Skill retention: first-attempt pass rates of learners back for recertification, by months since their
 // previous class, beside first-timers — as interval bars and as a table.
-import type { RetentionAnswer } from "../../../shared/schemas/learners";
+import type { RetentionAnswer, RetentionBin } from "../../../shared/schemas/learners";
 import { patientTypeNames, retentionFigureName, retentionGroupNames } from "../../../shared/vocabulary";
 import { rangeLabel } from "../../../shared/period";
 import { Chart } from "../../components/Chart";
@@ -9,7 +9,7 @@ import { intervalBarsPlot, type IntervalBar } from "../insight/charts/intervalPl
 import { formatCount, formatInterval, formatPercent, percentValue } from "../insight/format";
 
 interface RetentionRow {
-  key: string;
+  key: RetentionBin | "first_time";
   group: string;
   learners: number;
   passed: number;
@@ -19,7 +19,7 @@ interface RetentionRow {
 }
 
 export function retentionRows(answer: RetentionAnswer): RetentionRow[] {
-  const row = (key: string, group: string, g: RetentionAnswer["first_time"]): RetentionRow => ({
+  const row = (key: RetentionRow["key"], group: string, g: RetentionAnswer["first_time"]): RetentionRow => ({
     key,
     group,
     learners: g.learners,
@@ -30,6 +30,16 @@ export function retentionRows(answer: RetentionAnswer): RetentionRow[] {
   });
   return [row("first_time", retentionGroupNames.first_time, answer.first_time), ...answer.returning.map((b) => row(b.months, retentionGroupNames[b.months], b))];
 }
+
+// On a phone the full group names do not fit beside the bars.
+const shortGroupLabels: Record<RetentionBin | "first_time", string> = {
+  first_time: "First course",
+  "0-6": "0–6 months",
+  "6-12": "6–12 months",
+  "12-18": "12–18 months",
+  "18-24": "18–24 months",
+  "24+": "24+ months",
+};
 
 const columns: Column<RetentionRow>[] = [
   { key: "group", header: "Learners", value: (r) => r.group, primary: true },
@@ -42,7 +52,7 @@ const columns: Column<RetentionRow>[] = [
 export function RetentionView({ answer }: { answer: RetentionAnswer }) {
   const rows = retentionRows(answer);
   const returning = rows.slice(1).filter((r) => r.learners > 0);
-  const bars: IntervalBar[] = rows.filter((r) => r.learners > 0).map((r) => ({ label: r.group, rate: r.rate, low: r.low, high: r.high }));
+  const bars: IntervalBar[] = rows.filter((r) => r.learners > 0).map((r) => ({ label: r.group, shortLabel: shortGroupLabels[r.key], rate: r.rate, low: r.low, high: r.high }));
   const about = answer.profile ? ` on ${patientTypeNames[answer.profile].toLowerCase()} attempts` : "";
   const description =
     returning.length === 0

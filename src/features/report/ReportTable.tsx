@@ -1,5 +1,6 @@
 // A plain table for the report's small figure tables: no filter or export (the report has its own CSV),
-// prints cleanly, scrolls sideways on a phone.
+// prints cleanly, scrolls sideways on a phone. Figures (right-aligned) stay on one line, so an interval never
+// breaks before its "%".
 import clsx from "clsx";
 import type { ReactNode } from "react";
 
@@ -32,7 +33,7 @@ export function ReportTable<Row>({ caption, columns, rows, rowKey }: { caption: 
                     {column.cell(row)}
                   </th>
                 ) : (
-                  <td key={i} className={clsx("px-3 py-2 last:pr-4", column.align === "right" && "text-right tabular-nums")}>
+                  <td key={i} className={clsx("px-3 py-2 last:pr-4", column.align === "right" && "text-right whitespace-nowrap tabular-nums")}>
                     {column.cell(row)}
                   </td>
                 ),

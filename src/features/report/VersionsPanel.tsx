@@ -68,7 +68,8 @@ export function VersionsPanel({ period, versions, onCreated }: VersionsPanelProp
             released; earlier ones stay here unchanged.
           </p>
         </div>
-        <div className="flex flex-col items-end gap-2">
+        {/* on a phone this block falls under the heading: there it lines up on the left like the rest */}
+        <div className="flex flex-col items-start gap-2 lg:items-end">
           <label className="inline-flex max-w-xs items-start gap-2 text-small">
             <input type="checkbox" className="mt-1" checked={includeActions} onChange={(event) => setIncludeActions(event.target.checked)} />
             <span>
@@ -90,8 +91,9 @@ export function VersionsPanel({ period, versions, onCreated }: VersionsPanelProp
           rows={versions}
           rowKey={(v) => String(v.id)}
           columns={[
-            { header: "Version", cell: (v) => `Version ${v.version}` },
-            { header: "Created", cell: (v) => formatDateTime(v.createdAt) },
+            // the table scrolls sideways on a phone rather than break a version's name or date
+            { header: "Version", cell: (v) => <span className="whitespace-nowrap">Version {v.version}</span> },
+            { header: "Created", cell: (v) => <span className="whitespace-nowrap">{formatDateTime(v.createdAt)}</span> },
             { header: "By", cell: (v) => v.createdBy ?? "command line" },
             {
               header: "Funders",

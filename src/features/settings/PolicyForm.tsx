@@ -111,7 +111,8 @@ export function PolicyForm({ current, defaults, fieldSources, unit, canEdit, sav
             readOnly={!canEdit}
             value={values[field.path] ?? ""}
             onChange={(event) => change(field.path, event.target.value)}
-            className={controlClass(invalid) + (canEdit ? "" : " bg-paper text-muted")}
+            // mt-auto: fields side by side keep their boxes on one line whatever the length of their hints
+            className={controlClass(invalid) + " mt-auto" + (canEdit ? "" : " bg-paper text-muted")}
           />
         )}
       </Field>

@@ -1,14 +1,15 @@
 // Program version, schema level and the database's size, then how it grew quarter by quarter.
+import { quarterLabel } from "../../../shared/period";
 import type { QuarterGrowth, SystemReport } from "../../../shared/schemas/system";
 import { DataTable, type Column } from "../../components/DataTable";
 import { StatCard } from "../../components/StatCard";
 import { formatBytes, formatCount } from "../imports/labels";
 
 const growthColumns: Column<QuarterGrowth>[] = [
-  { key: "quarter", header: "Quarter", value: (q) => q.quarter, primary: true },
+  { key: "quarter", header: "Quarter", value: (q) => q.quarter, render: (q) => quarterLabel(q.quarter), primary: true },
   { key: "classes", header: "Classes", value: (q) => q.classes, render: (q) => formatCount(q.classes), align: "right" },
   { key: "attempts", header: "Attempts", value: (q) => q.attempts, render: (q) => formatCount(q.attempts), align: "right" },
-  { key: "streams", header: "Compression streams", value: (q) => q.compressionStreams, render: (q) => formatCount(q.compressionStreams), align: "right" },
+  { key: "streams", header: "Compression streams", headerWrap: true, value: (q) => q.compressionStreams, render: (q) => formatCount(q.compressionStreams), align: "right" },
 ];
 
 export function DatabaseSection({ report }: { report: SystemReport }) {

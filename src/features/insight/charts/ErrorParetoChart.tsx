@@ -54,7 +54,8 @@ const paretoPlot = (rows: readonly ParetoRow[], { width }: ChartSize, examineHre
   return {
     height: Math.max(220, rows.length * 38 + 60),
     marginLeft: 128,
-    marginRight: 16,
+    // room for half of the centred "100 %" tick label at the right end of the axis
+    marginRight: 24,
     marginBottom: 44,
     x: { domain: [0, 1], tickFormat: percentTick, label: "Share of all errors counted", labelAnchor: "center", labelOffset: 38, grid: true, ticks: width < 700 ? 5 : 10 },
     y: { domain: labelled.map((row) => row.name), label: null, padding: 0.25 },

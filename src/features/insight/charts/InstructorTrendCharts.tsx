@@ -7,7 +7,7 @@ import type { InstructorDetailAnswer } from "../../../../shared/schemas/insight"
 import { Chart, type ChartSize } from "../../../components/Chart";
 import type { Column } from "../../../components/DataTable";
 import { ChartLegend, lineSwatch, shapeSwatch } from "../ChartLegend";
-import { ink, percentTick, shareAxisTop } from "../chartStyle";
+import { ink, percentTick, quarterTick, shareAxisTop } from "../chartStyle";
 import { formatCount, formatInterval, formatPercent, formatScore, percentValue, roundTo } from "../format";
 import { quarterLabel } from "../../../../shared/period";
 
@@ -18,8 +18,6 @@ export interface TrendRow {
   /** The network's pass rate that quarter, with the same filters; null when not known. */
   network: number | null;
 }
-
-const quarterTick = (width: number) => (q: string) => (width < 560 ? `${q.slice(5)}\n${q.slice(0, 4)}` : quarterLabel(q));
 
 export function describeTrend(rows: readonly TrendRow[], who: string): string {
   const withData = rows.filter((r) => r.passRate.rate !== null);

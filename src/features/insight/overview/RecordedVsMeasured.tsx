@@ -60,9 +60,10 @@ interface AgreementRow {
 }
 
 const agreementColumns: Column<AgreementRow>[] = [
-  { key: "instructor", header: "Instructor's result", value: (r) => (r.instructor === "pass" ? "Recorded as passed" : "Recorded as not passed"), primary: true },
-  { key: "pass", header: "Measured: passed", value: (r) => r.measuredPass, align: "right" },
-  { key: "fail", header: "Measured: not passed", value: (r) => r.measuredFail, align: "right" },
+  // wrapping headers and row names keep this small table near a phone's width
+  { key: "instructor", header: "Instructor's result", headerWrap: true, wrap: true, value: (r) => (r.instructor === "pass" ? "Recorded as passed" : "Recorded as not passed"), primary: true },
+  { key: "pass", header: "Measured: passed", headerWrap: true, value: (r) => r.measuredPass, align: "right" },
+  { key: "fail", header: "Measured: not passed", headerWrap: true, value: (r) => r.measuredFail, align: "right" },
   { key: "total", header: "Total", value: (r) => r.measuredPass + r.measuredFail, align: "right" },
 ];
 

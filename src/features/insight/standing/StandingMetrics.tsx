@@ -49,7 +49,7 @@ function CeilingFigures({ metric, answer }: { metric: Metric; answer: StandingAn
   return (
     <>
       <p className="mt-1 flex items-baseline gap-2">
-        <span className="text-headline tabular-nums">{formatPct(ceiling.mine.shareAtCeiling === null ? null : ceiling.mine.shareAtCeiling * 100)}</span>
+        <span className="text-headline whitespace-nowrap tabular-nums">{formatPct(ceiling.mine.shareAtCeiling === null ? null : ceiling.mine.shareAtCeiling * 100)}</span>
         <span className="text-small text-muted">of your attempts at 100 %</span>
       </p>
       <p className="text-small tabular-nums">
@@ -81,7 +81,7 @@ export function StandingMetrics({ answer }: { answer: StandingAnswer }) {
             ) : (
               <>
             <p className="mt-1 flex items-baseline gap-2">
-              <span className="text-headline tabular-nums">{formatMetric(metric.key, mine)}</span>
+              <span className="text-headline whitespace-nowrap tabular-nums">{formatMetric(metric.key, mine)}</span>
               <span className="text-small text-muted">you</span>
             </p>
             <p className="text-small tabular-nums">
