@@ -15,6 +15,7 @@
 // Run: npx tsx bench/insight.bench.ts
 //   QB_BENCH_SCALE=0.1       shrink the large network (0.1 → about 100,000 attempts; up to 10 → 10 million)
 //   QB_BENCH_DURATION=3      seconds of load per endpoint
+//   QB_BENCH_LARGE_DB=<file> use a copy of a large network generated before (same generator, no users)
 import { spawn, type ChildProcess } from "node:child_process";
 import http from "node:http";
 import { monitorEventLoopDelay } from "node:perf_hooks";
@@ -24,6 +25,7 @@ import os from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { quantile } from "../shared/stats";
+import type { Db } from "../server/db/client";
 
 /** The part of autocannon's API used here (the package ships no type declarations). */
 interface AutocannonInstance {
@@ -94,12 +96,22 @@ interface Size {
   classesPerInstructorQuarter: number;
 }
 
+/** A copy of a large network generated earlier (with no users yet), to spare the minutes of generating it again. */
+async function copyOfNetwork(source: string, file: string): Promise<{ db: Db; attempts: number }> {
+  const { openDatabase } = await import("../server/db/client");
+  fs.copyFileSync(source, file);
+  const db = openDatabase(file);
+  const { n } = db.$client.prepare("SELECT count(*) AS n FROM attempts").get() as { n: number };
+  return { db, attempts: n };
+}
+
 async function buildDatabase(size: Size): Promise<{ file: string; attempts: number; seconds: number }> {
   const { generateNetwork } = await import("../tests/fixtures/insight/generateNetwork");
   const { createUser } = await import("../server/users/service");
   const file = path.join(fs.mkdtempSync(path.join(os.tmpdir(), "qb-bench-insight-")), "network.sqlite");
   const started = performance.now();
-  const { db, attempts } = generateNetwork(file, { instructors: size.instructors, quarters: 8, classesPerInstructorQuarter: size.classesPerInstructorQuarter, attemptsPerClass: 10 });
+  const reuse = size.label === "large" ? process.env.QB_BENCH_LARGE_DB : undefined;
+  const { db, attempts } = reuse ? await copyOfNetwork(reuse, file) : generateNetwork(file, { instructors: size.instructors, quarters: 8, classesPerInstructorQuarter: size.classesPerInstructorQuarter, attemptsPerClass: 10 });
   await createUser(db, { email: EMAIL, displayName: "Bench", role: "coordinator", instructorId: null, password: PASSWORD });
   await createUser(db, { email: INSTRUCTOR_EMAIL, displayName: "Bench instructor", role: "instructor", instructorId: 1, password: PASSWORD });
   db.$client.close();

@@ -4,7 +4,7 @@
 import { parentPort } from "node:worker_threads";
 import { openDatabase, type Db } from "../db/client";
 import { AppError } from "../errors";
-import { cached } from "../insight/cache";
+import { cached, setInsightCache } from "../insight/cache";
 import { answerJson, type AnswerArgs, type AnswerName } from "./answers";
 
 export interface AnswerRequest {
@@ -38,6 +38,8 @@ function connectionTo(file: string): Db {
 port.on("message", (request: AnswerRequest) => {
   let reply: AnswerReply;
   try {
+    // the answers also keep parts they share in the cache (standing's network figures): on or off as the server's
+    setInsightCache(request.useCache);
     const db = connectionTo(request.dbFile);
     const compute = () => answerJson(db, request.name, request.args as AnswerArgs<AnswerName>);
     reply = { id: request.id, json: request.useCache ? cached(db, request.key, compute) : compute() };
