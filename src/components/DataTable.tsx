@@ -155,7 +155,7 @@ export function DataTable<Row>({
               />
             </div>
           )}
-          {cards && <PhoneSortSelect id={sortId} columns={columns} sort={sort} onChange={setSort} />}
+          {cards && <PhoneSortSelect id={sortId} columns={columns} sort={sort} onChange={setSort} rows={rows} />}
           {toolbar}
           {exportFileName && (
             <button
@@ -286,10 +286,32 @@ function CardList<Row>({ caption, columns, rows, rowKey, emptyText }: { caption:
   );
 }
 
+/** Values that sort as dates: "2026-07-14", "2026-07-14T09:30:00Z". */
+const ISO_DATE_START = /^\d{4}-\d{2}-\d{2}/;
+
 /** Phones have no column headers to click, so sorting is a select there. */
-export function PhoneSortSelect<Row>({ id, columns, sort, onChange }: { id: string; columns: readonly Column<Row>[]; sort: SortState | null; onChange: (sort: SortState | null) => void }) {
+export function PhoneSortSelect<Row>({
+  id,
+  columns,
+  sort,
+  onChange,
+  rows = [],
+}: {
+  id: string;
+  columns: readonly Column<Row>[];
+  sort: SortState | null;
+  onChange: (sort: SortState | null) => void;
+  /** Read to word a column of dates as oldest or newest first rather than A to Z. */
+  rows?: readonly Row[];
+}) {
   const sortable = columns.filter((c) => c.sortable !== false);
   if (sortable.length === 0) return null;
+  const labels = (c: Column<Row>) => {
+    if (c.sortLabels) return c.sortLabels;
+    if (c.align === "right") return { asc: "lowest first", desc: "highest first" };
+    const first = rows.map((row) => c.value(row)).find((value) => value !== null && value !== undefined && value !== "");
+    return typeof first === "string" && ISO_DATE_START.test(first) ? { asc: "oldest first", desc: "newest first" } : { asc: "A to Z", desc: "Z to A" };
+  };
   return (
     <div className="flex w-full flex-col gap-1 sm:hidden">
       <label htmlFor={id} className="text-small font-semibold">
@@ -307,10 +329,10 @@ export function PhoneSortSelect<Row>({ id, columns, sort, onChange }: { id: stri
         <option value="">As listed</option>
         {sortable.flatMap((c) => [
           <option key={`${c.key}:asc`} value={`${c.key}:asc`}>
-            {c.header}, {c.sortLabels?.asc ?? (c.align === "right" ? "lowest first" : "A to Z")}
+            {c.header}, {labels(c).asc}
           </option>,
           <option key={`${c.key}:desc`} value={`${c.key}:desc`}>
-            {c.header}, {c.sortLabels?.desc ?? (c.align === "right" ? "highest first" : "Z to A")}
+            {c.header}, {labels(c).desc}
           </option>,
         ])}
       </select>

@@ -102,3 +102,22 @@ describe("DataTable", () => {
     expect(text).toBe("Code,Name,Share\r\nSITE-10,Harbour Hall,0.62\r\n");
   });
 });
+
+describe("the phone's sort choice", () => {
+  it("words a column of dates as oldest or newest first, text as A to Z and numbers as lowest or highest first", async () => {
+    const { PhoneSortSelect } = await import("../../src/components/DataTable");
+    interface Dated {
+      date: string;
+      site: string;
+      n: number;
+    }
+    const dated: Column<Dated>[] = [
+      { key: "date", header: "Date", value: (r) => r.date },
+      { key: "site", header: "Site", value: (r) => r.site },
+      { key: "n", header: "Learners", value: (r) => r.n, align: "right" },
+    ];
+    render(<PhoneSortSelect id="sort" columns={dated} sort={null} onChange={() => {}} rows={[{ date: "2026-07-14", site: "North", n: 8 }]} />);
+    const options = within(screen.getByLabelText("Sort by")).getAllByRole("option").map((o) => o.textContent);
+    expect(options).toEqual(["As listed", "Date, oldest first", "Date, newest first", "Site, A to Z", "Site, Z to A", "Learners, lowest first", "Learners, highest first"]);
+  });
+});

@@ -117,6 +117,9 @@ export function seriesColumns(minCount: number, series?: PassRateSeries, quarter
 
 const noActions: readonly ActionMark[] = [];
 
+/** Labels clear of the diamonds, with a white halo so an action's dashed line does not run through them. */
+const haloText = { fill: ink.text, fontWeight: 600, stroke: "white", strokeWidth: 3, paintOrder: "stroke" } as const;
+
 export function PassRateControlChart({
   series,
   minCount,
@@ -188,8 +191,8 @@ export function PassRateControlChart({
             ...link,
           }),
           // on narrow screens the diamonds alone mark these quarters (the words would overlap)
-          width < 500 ? null : Plot.text(outside.filter((p) => side(p) === "above"), { x: "quarter", y: "rate", text: () => "above", dy: -15, fill: ink.text, fontWeight: 600 }),
-          width < 500 ? null : Plot.text(outside.filter((p) => side(p) === "below"), { x: "quarter", y: "rate", text: () => "below", dy: 17, fill: ink.text, fontWeight: 600 }),
+          width < 500 ? null : Plot.text(outside.filter((p) => side(p) === "above"), { x: "quarter", y: "rate", text: () => "above", dy: -20, ...haloText }),
+          width < 500 ? null : Plot.text(outside.filter((p) => side(p) === "below"), { x: "quarter", y: "rate", text: () => "below", dy: 21, ...haloText }),
           ...actionMarkLayers(actions, points.map((p) => p.quarter)),
         ],
       };
