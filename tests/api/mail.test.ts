@@ -1,6 +1,7 @@
 // Sending reports through SMTP to the local mail service, failed sends and their retry, the outbox, and the
 // welcome message. The mail service listens on 127.0.0.1 port 0, started by the test.
 import net from "node:net";
+import nodemailer from "nodemailer";
 import type { Test } from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createApp } from "../../server/app";
@@ -139,11 +140,33 @@ describe("sending a report", () => {
         "",
       ].join("\r\n"),
     );
-    const id = storeReceivedMail(db, raw, { from: "someone@example.org", to: ["coord@test.example"] });
+    const id = await storeReceivedMail(db, raw, { from: "someone@example.org", to: ["coord@test.example"] });
     const file = await coordinator.get(`/api/outbox/${id}/attachment/0`).buffer(true).parse(binary).expect(200);
     expect(file.headers["content-type"]).toBe("application/octet-stream");
     expect(file.headers["content-disposition"]).toBe(`attachment; filename="Bericht \\"M?rz\\".html"; filename*=UTF-8''Bericht%20%22M%C3%A4rz%22.html`);
     expect((file.body as Buffer).toString()).toBe("<script>alert(1)</script>");
+  });
+
+  it("lists a non-ASCII subject and a long file name split over parameters (RFC 2231), and downloads the file", async () => {
+    const filename = `Bericht-Ärztekammer-${"Qualität-".repeat(8)}2026.csv`;
+    const subject = "Ünïcödé ".repeat(12).trim();
+    const transport = nodemailer.createTransport({ streamTransport: true, buffer: true, newline: "windows" });
+    const built = await transport.sendMail({ from: "a@example.org", to: "coord@test.example", subject, text: "line one\nline two", attachments: [{ filename, content: "a,b\r\n1,2\r\n", contentType: "text/csv" }] });
+    const raw = built.message as Buffer;
+    // nodemailer splits the name as RFC 2231 asks, so the reader has to join it again
+    expect(raw.toString("latin1")).toContain("filename*0*=");
+    const id = await storeReceivedMail(db, raw, { from: "a@example.org", to: ["coord@test.example"] });
+    const listed = (await coordinator.get("/api/outbox").expect(200)).body.messages.find((m: { id: number }) => m.id === id);
+    expect(listed).toMatchObject({ subject, text: "line one\r\nline two", attachments: [{ index: 0, filename, contentType: "text/csv", size: 10 }] });
+    const file = await coordinator.get(`/api/outbox/${id}/attachment/0`).buffer(true).parse(binary).expect(200);
+    expect((file.body as Buffer).toString()).toBe("a,b\r\n1,2\r\n");
+  });
+
+  it("keeps a message that is not MIME at all, with an empty subject and no attachments", async () => {
+    const id = await storeReceivedMail(db, Buffer.from("just some bytes"), { from: "a@example.org", to: ["coord@test.example"] });
+    const listed = (await coordinator.get("/api/outbox").expect(200)).body.messages.find((m: { id: number }) => m.id === id);
+    expect(listed).toMatchObject({ subject: "", attachments: [] });
+    await coordinator.get(`/api/outbox/${id}/attachment/0`).expect(404);
   });
 
   it("refuses an extra address that is not an e-mail address", async () => {
