@@ -1,6 +1,5 @@
 // Sending reports through SMTP to the local mail service, failed sends and their retry, the outbox, and the
 // welcome message. The mail service listens on 127.0.0.1 port 0, started by the test.
-import net from "node:net";
 import nodemailer from "nodemailer";
 import type { Test } from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -12,6 +11,7 @@ import { startLocalMailService, storeReceivedMail, type LocalMailService } from 
 import { createMailer } from "../../server/mail/mailer";
 import { findReport } from "../../server/reports/store";
 import { insertReportFixture } from "../unit/report/fixture";
+import { freePort } from "../helpers/freePort";
 import { makeTestDb, seedPeople, signIn, type Agent } from "../helpers/testApp";
 
 let db: Db;
@@ -23,15 +23,6 @@ function appWithSmtp(smtpUrl?: string) {
   const env: NodeJS.ProcessEnv = { NODE_ENV: "test", SESSION_SECRET: "test-secret-at-least-16-chars" };
   if (smtpUrl) env.SMTP_URL = smtpUrl;
   return createApp(db, loadConfig(env), { clientDir: null });
-}
-
-/** A port on 127.0.0.1 where nothing listens: bound once to learn a free number, then closed again. */
-async function closedPort(): Promise<number> {
-  const server = net.createServer();
-  await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
-  const { port } = server.address() as net.AddressInfo;
-  await new Promise<void>((resolve) => server.close(() => resolve()));
-  return port;
 }
 
 /** Supertest collects binary bodies only when given a parser; the response is a Node stream underneath. */
@@ -46,7 +37,7 @@ beforeAll(async () => {
   db = makeTestDb();
   insertReportFixture(db, await seedPeople(db));
   mail = await startLocalMailService(db, { port: 0 });
-  closedPortUrl = `smtp://127.0.0.1:${await closedPort()}`;
+  closedPortUrl = `smtp://127.0.0.1:${await freePort()}`;
   const coordinator = await signIn(appWithSmtp(mail.url), "coord@test.example");
   reportId = (await coordinator.post("/api/reports/2026-Q3").expect(201)).body.report.id;
 });
