@@ -5,7 +5,7 @@ import type { AddressInfo } from "node:net";
 import { SMTPServer } from "smtp-server";
 import type { Db } from "../db/client";
 import { mailbox } from "../db/schema";
-import { parseMail } from "./mime";
+import { readMail } from "./readMail";
 
 /** Larger than any report PDF; a message over this is refused rather than stored cut short. */
 const MAX_MESSAGE_BYTES = 25 * 1024 * 1024;
@@ -17,12 +17,12 @@ export interface LocalMailService {
   close(): Promise<void>;
 }
 
-export function storeReceivedMail(db: Db, raw: Buffer, envelope: { from: string; to: string[] }): number {
+export async function storeReceivedMail(db: Db, raw: Buffer, envelope: { from: string; to: string[] }): Promise<number> {
   let subject: string;
   let text = "";
   let attachments: { filename: string; contentType: string; size: number }[] = [];
   try {
-    const parsed = parseMail(raw);
+    const parsed = await readMail(raw);
     subject = parsed.subject;
     text = parsed.text;
     attachments = parsed.attachments.map((a) => ({ filename: a.filename, contentType: a.contentType, size: a.content.length }));
@@ -54,13 +54,11 @@ export function startLocalMailService(db: Db, options: { port?: number } = {}): 
           callback(Object.assign(new Error("Message is larger than the local mail service accepts"), { responseCode: 552 }));
           return;
         }
-        try {
-          const from = session.envelope.mailFrom ? session.envelope.mailFrom.address : "";
-          storeReceivedMail(db, Buffer.concat(chunks), { from, to: session.envelope.rcptTo.map((r) => r.address) });
-          callback();
-        } catch (err) {
-          callback(err as Error);
-        }
+        const from = session.envelope.mailFrom ? session.envelope.mailFrom.address : "";
+        storeReceivedMail(db, Buffer.concat(chunks), { from, to: session.envelope.rcptTo.map((r) => r.address) }).then(
+          () => callback(),
+          (err: Error) => callback(err),
+        );
       });
     },
   });

@@ -4,7 +4,7 @@ import type { OutboxMessage } from "../../shared/schemas/report";
 import type { Db } from "../db/client";
 import { mailbox } from "../db/schema";
 import { notFound } from "../errors";
-import { parseMail, type ParsedAttachment } from "./mime";
+import { readMail, type MailAttachment } from "./readMail";
 
 export function listOutbox(db: Db, limit = 200): OutboxMessage[] {
   return db
@@ -25,10 +25,10 @@ export function listOutbox(db: Db, limit = 200): OutboxMessage[] {
 }
 
 /** One attachment's bytes, read back from the stored raw message. */
-export function outboxAttachment(db: Db, messageId: number, index: number): ParsedAttachment {
+export async function outboxAttachment(db: Db, messageId: number, index: number): Promise<MailAttachment> {
   const row = db.select({ raw: mailbox.raw }).from(mailbox).where(eq(mailbox.id, messageId)).get();
   if (!row) throw notFound("The message");
-  const attachment = parseMail(Buffer.from(row.raw)).attachments[index];
+  const attachment = (await readMail(Buffer.from(row.raw))).attachments[index];
   if (!attachment) throw notFound("The attachment");
   return attachment;
 }

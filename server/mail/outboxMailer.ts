@@ -14,7 +14,7 @@ export function createOutboxMailer(db: Db): Mailer {
     async send(mail) {
       const info = await transport.sendMail({ from: DEFAULT_FROM, to: mail.to, subject: mail.subject, text: mail.text, attachments: mail.attachments });
       const raw = Buffer.isBuffer(info.message) ? info.message : Buffer.from(String(info.message));
-      storeReceivedMail(db, raw, { from: info.envelope.from || "", to: info.envelope.to });
+      await storeReceivedMail(db, raw, { from: info.envelope.from || "", to: info.envelope.to });
       return { messageId: String(info.messageId ?? ""), accepted: info.envelope.to, rejected: [] };
     },
     sendWelcomeEmail(user, signInUrl) {

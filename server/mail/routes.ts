@@ -13,9 +13,9 @@ export function outboxRoutes(db: Db): Router {
     res.json({ messages: listOutbox(db) });
   });
 
-  router.get("/outbox/:id/attachment/:index", (req, res) => {
+  router.get("/outbox/:id/attachment/:index", async (req, res) => {
     const index = Number(req.params.index);
-    const attachment = outboxAttachment(db, parseId(req.params.id), Number.isInteger(index) && index >= 0 ? index : -1);
+    const attachment = await outboxAttachment(db, parseId(req.params.id), Number.isInteger(index) && index >= 0 ? index : -1);
     // only types the report itself sends keep their type; anything else downloads as plain bytes
     const safeType = ["application/pdf", "text/csv"].includes(attachment.contentType) ? attachment.contentType : "application/octet-stream";
     // attachment() also sets a type from the name's extension; the safe type set after it wins

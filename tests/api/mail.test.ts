@@ -1,6 +1,6 @@
 // Sending reports through SMTP to the local mail service, failed sends and their retry, the outbox, and the
 // welcome message. The mail service listens on 127.0.0.1 port 0, started by the test.
-import net from "node:net";
+import nodemailer from "nodemailer";
 import type { Test } from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createApp } from "../../server/app";
@@ -11,6 +11,7 @@ import { startLocalMailService, storeReceivedMail, type LocalMailService } from 
 import { createMailer } from "../../server/mail/mailer";
 import { findReport } from "../../server/reports/store";
 import { insertReportFixture } from "../unit/report/fixture";
+import { freePort } from "../helpers/freePort";
 import { makeTestDb, seedPeople, signIn, type Agent } from "../helpers/testApp";
 
 let db: Db;
@@ -22,15 +23,6 @@ function appWithSmtp(smtpUrl?: string) {
   const env: NodeJS.ProcessEnv = { NODE_ENV: "test", SESSION_SECRET: "test-secret-at-least-16-chars" };
   if (smtpUrl) env.SMTP_URL = smtpUrl;
   return createApp(db, loadConfig(env), { clientDir: null });
-}
-
-/** A port on 127.0.0.1 where nothing listens: bound once to learn a free number, then closed again. */
-async function closedPort(): Promise<number> {
-  const server = net.createServer();
-  await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
-  const { port } = server.address() as net.AddressInfo;
-  await new Promise<void>((resolve) => server.close(() => resolve()));
-  return port;
 }
 
 /** Supertest collects binary bodies only when given a parser; the response is a Node stream underneath. */
@@ -45,7 +37,7 @@ beforeAll(async () => {
   db = makeTestDb();
   insertReportFixture(db, await seedPeople(db));
   mail = await startLocalMailService(db, { port: 0 });
-  closedPortUrl = `smtp://127.0.0.1:${await closedPort()}`;
+  closedPortUrl = `smtp://127.0.0.1:${await freePort()}`;
   const coordinator = await signIn(appWithSmtp(mail.url), "coord@test.example");
   reportId = (await coordinator.post("/api/reports/2026-Q3").expect(201)).body.report.id;
 });
@@ -139,11 +131,33 @@ describe("sending a report", () => {
         "",
       ].join("\r\n"),
     );
-    const id = storeReceivedMail(db, raw, { from: "someone@example.org", to: ["coord@test.example"] });
+    const id = await storeReceivedMail(db, raw, { from: "someone@example.org", to: ["coord@test.example"] });
     const file = await coordinator.get(`/api/outbox/${id}/attachment/0`).buffer(true).parse(binary).expect(200);
     expect(file.headers["content-type"]).toBe("application/octet-stream");
     expect(file.headers["content-disposition"]).toBe(`attachment; filename="Bericht \\"M?rz\\".html"; filename*=UTF-8''Bericht%20%22M%C3%A4rz%22.html`);
     expect((file.body as Buffer).toString()).toBe("<script>alert(1)</script>");
+  });
+
+  it("lists a non-ASCII subject and a long file name split over parameters (RFC 2231), and downloads the file", async () => {
+    const filename = `Bericht-Ärztekammer-${"Qualität-".repeat(8)}2026.csv`;
+    const subject = "Ünïcödé ".repeat(12).trim();
+    const transport = nodemailer.createTransport({ streamTransport: true, buffer: true, newline: "windows" });
+    const built = await transport.sendMail({ from: "a@example.org", to: "coord@test.example", subject, text: "line one\nline two", attachments: [{ filename, content: "a,b\r\n1,2\r\n", contentType: "text/csv" }] });
+    const raw = built.message as Buffer;
+    // nodemailer splits the name as RFC 2231 asks, so the reader has to join it again
+    expect(raw.toString("latin1")).toContain("filename*0*=");
+    const id = await storeReceivedMail(db, raw, { from: "a@example.org", to: ["coord@test.example"] });
+    const listed = (await coordinator.get("/api/outbox").expect(200)).body.messages.find((m: { id: number }) => m.id === id);
+    expect(listed).toMatchObject({ subject, text: "line one\r\nline two", attachments: [{ index: 0, filename, contentType: "text/csv", size: 10 }] });
+    const file = await coordinator.get(`/api/outbox/${id}/attachment/0`).buffer(true).parse(binary).expect(200);
+    expect((file.body as Buffer).toString()).toBe("a,b\r\n1,2\r\n");
+  });
+
+  it("keeps a message that is not MIME at all, with an empty subject and no attachments", async () => {
+    const id = await storeReceivedMail(db, Buffer.from("just some bytes"), { from: "a@example.org", to: ["coord@test.example"] });
+    const listed = (await coordinator.get("/api/outbox").expect(200)).body.messages.find((m: { id: number }) => m.id === id);
+    expect(listed).toMatchObject({ subject: "", attachments: [] });
+    await coordinator.get(`/api/outbox/${id}/attachment/0`).expect(404);
   });
 
   it("refuses an extra address that is not an e-mail address", async () => {

@@ -6,16 +6,16 @@
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
-import type { Page } from "playwright-core";
-import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
+import type { Page } from "@playwright/test";
 import type { OverviewAnswer } from "../../shared/schemas/insight";
 import { defaultPeriod, periodLabel } from "../../shared/period";
 import { formatCount, formatPercent } from "../../src/features/insight/format";
 import { runCli } from "../faults/helpers";
 import { describeFindings } from "./support/a11y";
 import { demoAccount, demoDirectory } from "./support/accounts";
-import { SEED_QUARTER, SEED_TODAY } from "./support/database";
-import { JOURNEY_TIMEOUT, Journey, SETUP_TIMEOUT, tabTo, textOf } from "./support/journey";
+import { expect, test } from "./support/fixtures";
+import { api, signIn, tabTo, textOf } from "./support/pages";
+import { SEED_QUARTER, SEED_TODAY, servedDatabaseFile } from "./support/seed";
 
 const coordinator = demoAccount("coordinator");
 const QUARTER = SEED_QUARTER;
@@ -114,25 +114,11 @@ function cliAttemptsFile(count: number): string {
 }
 const CLI_ATTEMPTS = 4;
 /** How long a page may take to draw an answer it has asked for, on a busy machine. */
-const SETTLE = { timeout: 15_000, interval: 100 };
+const SETTLE = { timeout: 15_000, intervals: [100] };
 
 const BAD_ROWS = { 3: { rate_cpm: "400" }, 7: { learner: "Ann Example" } };
 
 const csv = (name: string, text: string) => ({ name, mimeType: "text/csv", buffer: Buffer.from(`${text}\n`, "utf8") });
-
-let journey: Journey;
-
-beforeAll(async () => {
-  journey = await Journey.start("coordinator");
-}, SETUP_TIMEOUT);
-
-afterEach(async (context) => {
-  if (context.task.result?.state === "fail") await journey?.shotAfterFailure();
-});
-
-afterAll(async () => {
-  await journey?.close();
-});
 
 /** The big number of the overview's stat card with this label. */
 function statValue(page: Page, label: string) {
@@ -140,7 +126,7 @@ function statValue(page: Page, label: string) {
 }
 
 async function overviewFromApi(page: Page): Promise<OverviewAnswer> {
-  const answer = await journey.api<OverviewAnswer>(page, `/api/insight/overview?quarter=${QUARTER}`);
+  const answer = await api<OverviewAnswer>(page, `/api/insight/overview?quarter=${QUARTER}`);
   expect(answer.status).toBe(200);
   return answer.body;
 }
@@ -163,14 +149,12 @@ async function matchDeviceColumns(page: Page) {
   await page.getByText("Every required column is matched.").waitFor({ state: "attached" });
 }
 
-describe("coordinator", () => {
-  it("imports a quarter's class log and a device's attempts, fixes a refused file, and sees the overview follow", async () => {
-    const { page } = await journey.newPage();
-
+test.describe("coordinator", () => {
+  test("imports a quarter's class log and a device's attempts, fixes a refused file, and sees the overview follow", async ({ page, journey }) => {
     await page.goto("/sign-in");
     await page.getByRole("heading", { name: "Sign in" }).waitFor();
     await journey.visited(page, "sign-in");
-    await journey.signIn(page, coordinator.email, coordinator.password);
+    await signIn(page, coordinator);
 
     // the landing page shows the latest quarter, which the API agrees with
     await page.waitForURL((url) => url.pathname === "/overview" && url.searchParams.get("quarter") === QUARTER);
@@ -245,7 +229,7 @@ describe("coordinator", () => {
     const cliDir = fs.mkdtempSync(path.join(os.tmpdir(), "qb-e2e-cli-"));
     const cliFile = path.join(cliDir, "more-attempts.csv");
     fs.writeFileSync(cliFile, cliAttemptsFile(CLI_ATTEMPTS));
-    const cli = await runCli(journey.dbFile, ["import", "attempts", cliFile]);
+    const cli = await runCli(servedDatabaseFile(), ["import", "attempts", cliFile]);
     fs.rmSync(cliDir, { recursive: true, force: true });
     expect(cli.code, cli.stderr).toBe(0);
     const afterCli = await overviewFromApi(page);
@@ -254,10 +238,9 @@ describe("coordinator", () => {
     await expect.poll(() => textOf(statValue(page, "Attempts measured")), SETTLE).toBe(formatCount(afterCli.attempts));
 
     expect(journey.findings, describeFindings(journey.findings)).toEqual([]);
-  }, JOURNEY_TIMEOUT);
+  });
 
-  it("signs in and imports a class log with the keyboard alone", async () => {
-    const { page } = await journey.newPage();
+  test("signs in and imports a class log with the keyboard alone", async ({ page, journey }) => {
     // one column under another name, matched with the keyboard
     const keyboardLog = ["class_id,date,site,instructor,Programme,learners,passed,manikins", `E2E-K-C1,${CLASSES[0].date},${instructor.site},${instructor.code},child,4,3,`].join("\n");
 
@@ -323,14 +306,12 @@ describe("coordinator", () => {
     await page.getByText(/keyboard-classes\.csv is imported as batch \d+/).waitFor();
     await journey.visited(page, "keyboard-imported", { axe: false });
 
-    const batches = await journey.api<{ batches: { fileName: string; inserted: number; source: string }[] }>(page, "/api/imports/batches?limit=1");
+    const batches = await api<{ batches: { fileName: string; inserted: number; source: string }[] }>(page, "/api/imports/batches?limit=1");
     expect(batches.body.batches[0]).toMatchObject({ fileName: "keyboard-classes.csv", inserted: 1, source: "web" });
-  }, JOURNEY_TIMEOUT);
+  });
 
-  it("previews the report as its PDF, writes a cover note, confirms period and recipients, and sends", async () => {
-    const { page } = await journey.newPage();
-    await journey.signIn(page, coordinator.email, coordinator.password);
-    const options = await journey.api<{ quarters: string[] }>(page, "/api/insight/options");
+  test("previews the report as its PDF, writes a cover note, confirms period and recipients, and sends", async ({ coordinatorPage: page, journey, database }) => {
+    const options = await api<{ quarters: string[] }>(page, "/api/insight/options");
     const period = defaultPeriod(options.body.quarters)!;
     await page.goto(`/report?period=${period}`);
     await page.getByRole("heading", { name: "Funder report", level: 1 }).waitFor();
@@ -343,9 +324,9 @@ describe("coordinator", () => {
     await page.getByRole("table", { name: new RegExp("^Report versions for") }).waitFor();
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
     await page.setViewportSize({ width: 1360, height: 900 });
-    const stored = await journey.api<{ reports: { id: number; version: number }[] }>(page, `/api/reports?period=${period}`);
+    const stored = await api<{ reports: { id: number; version: number }[] }>(page, `/api/reports?period=${period}`);
     const latest = stored.body.reports[0];
-    const users = await journey.api<{ users: { email: string; role: string; active: boolean }[] }>(page, "/api/users");
+    const users = await api<{ users: { email: string; role: string; active: boolean }[] }>(page, "/api/users");
     const funders = users.body.users.filter((u) => u.role === "funder" && u.active).map((u) => u.email.toLowerCase());
 
     const send = page.getByRole("region", { name: "Send to funders" });
@@ -369,11 +350,11 @@ describe("coordinator", () => {
     await send.getByRole("button", { name: `Send to ${recipients.length} recipient${recipients.length === 1 ? "" : "s"}` }).click();
     // the journeys' mail goes to the local mail service: one message per recipient, each with the PDF
     await send.getByText(/was sent to/).waitFor();
-    const sends = await journey.api<{ sends: { reportId: number; coverNote: string; recipients: string[]; status: string }[] }>(page, "/api/report-sends");
+    const sends = await api<{ sends: { reportId: number; coverNote: string; recipients: string[]; status: string }[] }>(page, "/api/report-sends");
     expect(sends.body.sends[0]).toMatchObject({ reportId: latest.id, coverNote, recipients: funders, status: "sent" });
-    const messages = journey.db.$client.prepare("SELECT recipients, attachments FROM mailbox WHERE text LIKE ?").all(`%${coverNote.slice(0, 40)}%`) as { recipients: string; attachments: string }[];
+    const messages = database.prepare("SELECT recipients, attachments FROM mailbox WHERE text LIKE ?").all(`%${coverNote.slice(0, 40)}%`) as { recipients: string; attachments: string }[];
     expect(messages.map((m) => JSON.parse(m.recipients) as string[]).sort()).toEqual(funders.map((f) => [f]).sort());
     for (const m of messages) expect((JSON.parse(m.attachments) as { contentType: string }[]).map((a) => a.contentType)).toContain("application/pdf");
     await journey.visited(page, "report-sent");
-  }, JOURNEY_TIMEOUT);
+  });
 });

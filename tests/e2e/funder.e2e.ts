@@ -3,16 +3,15 @@
 // is refused every drill-down page (and the API behind them) that would show instructors, errors, classes or
 // single attempts.
 import fs from "node:fs";
-import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import { defaultPeriod } from "../../shared/period";
 import { describeFindings } from "./support/a11y";
 import { demoAccount } from "./support/accounts";
-import { JOURNEY_TIMEOUT, Journey, SETUP_TIMEOUT } from "./support/journey";
+import { expect, test } from "./support/fixtures";
+import { api, apiPost, signIn } from "./support/pages";
 
 const funder = demoAccount("funder");
 const coordinator = demoAccount("coordinator");
 
-let journey: Journey;
 /** The period the report page opens on: the latest quarter that has ended (by the browser's clock). */
 let period: string;
 let versionId: number;
@@ -20,40 +19,32 @@ let versionNumber: number;
 /** A newer version the coordinator has not released: funders must not see it. */
 let draftId: number;
 
-beforeAll(async () => {
-  journey = await Journey.start("funder");
+test.beforeAll(async ({ browser }) => {
   // the coordinator stores and releases a new version of the report, so the test knows which PDF funders
   // must get, then stores a newer one without releasing it
-  const { context, page } = await journey.newPage();
-  await journey.signIn(page, coordinator.email, coordinator.password);
-  const options = await journey.api<{ quarters: string[] }>(page, "/api/insight/options");
+  const context = await browser.newContext();
+  const page = await context.newPage();
+  await signIn(page, coordinator);
+  const options = await api<{ quarters: string[] }>(page, "/api/insight/options");
   period = defaultPeriod(options.body.quarters)!;
-  const created = await journey.apiPost<{ report: { id: number; version: number } }>(page, `/api/reports/${period}`);
+  const created = await apiPost<{ report: { id: number; version: number } }>(page, `/api/reports/${period}`);
   expect(created.status).toBe(201);
   versionId = created.body.report.id;
   versionNumber = created.body.report.version;
-  const released = await journey.apiPost<{ released: boolean; notified: string[] }>(page, `/api/reports/${versionId}/release`);
+  const released = await apiPost<{ released: boolean; notified: string[] }>(page, `/api/reports/${versionId}/release`);
   expect(released.status).toBe(200);
   expect(released.body.released).toBe(true);
   expect(released.body.notified.map((a) => a.toLowerCase())).toContain(funder.email.toLowerCase());
-  const draft = await journey.apiPost<{ report: { id: number } }>(page, `/api/reports/${period}`);
+  const draft = await apiPost<{ report: { id: number } }>(page, `/api/reports/${period}`);
   expect(draft.status).toBe(201);
   draftId = draft.body.report.id;
   await context.close();
-}, SETUP_TIMEOUT);
-
-afterEach(async (context) => {
-  if (context.task.result?.state === "fail") await journey?.shotAfterFailure();
 });
 
-afterAll(async () => {
-  await journey?.close();
-});
-
-describe("funder", () => {
-  it("follows the release notice to the quarter's released report, downloads its PDF, and is refused drafts and every drill-down", async () => {
+test.describe("funder", () => {
+  test("follows the release notice to the quarter's released report, downloads its PDF, and is refused drafts and every drill-down", async ({ funderPage: page, journey, database }) => {
     // the release notice: one message to this funder alone, with the report's address
-    const notices = journey.db.$client
+    const notices = database
       .prepare("SELECT recipients, subject, text FROM mailbox WHERE subject LIKE '%released' ORDER BY id")
       .all() as { recipients: string; subject: string; text: string }[];
     const addressed = (m: { recipients: string }) => (JSON.parse(m.recipients) as string[]).map((a) => a.toLowerCase());
@@ -64,8 +55,6 @@ describe("funder", () => {
     const link = /Read it and download its PDF at (\S+)/.exec(mine[0].text)![1];
     expect(new URL(link).pathname + new URL(link).search).toBe(`/report?period=${period}`);
 
-    const { page } = await journey.newPage();
-    await journey.signIn(page, funder.email, funder.password);
     // the report is the funder's start page; the notice's link opens the same released version
     await page.waitForURL((url) => url.pathname === "/report");
     await page.goto(new URL(link).pathname + new URL(link).search);
@@ -95,7 +84,7 @@ describe("funder", () => {
     }
 
     // a class and an attempt of the network, typed into the address bar
-    const anAttempt = journey.db.$client.prepare("SELECT id, class_id AS classId, learner FROM attempts ORDER BY id LIMIT 1").get() as { id: string; classId: string; learner: string };
+    const anAttempt = database.prepare("SELECT id, class_id AS classId, learner FROM attempts ORDER BY id LIMIT 1").get() as { id: string; classId: string; learner: string };
     const pages = ["/instructors", "/errors", "/attempts", `/attempts/${anAttempt.id}`, `/classes/${anAttempt.classId}`];
     for (const [i, path] of pages.entries()) {
       await page.goto(path);
@@ -109,14 +98,14 @@ describe("funder", () => {
 
     // the API behind those pages refuses the funder too
     const apiPaths = ["/api/insight/instructors", "/api/insight/errors", "/api/attempts", `/api/attempts/${anAttempt.id}`, `/api/classes/${anAttempt.classId}`, "/api/insight/overview"];
-    const statuses = Object.fromEntries(await Promise.all(apiPaths.map(async (path) => [path, (await journey.api(page, path)).status] as const)));
+    const statuses = Object.fromEntries(await Promise.all(apiPaths.map(async (path) => [path, (await api(page, path)).status] as const)));
     expect(statuses).toEqual(Object.fromEntries(apiPaths.map((path) => [path, 403])));
     // while the released report's own PDF is open to them; the draft and today's figures are not
-    const pdf = await page.request.get(journey.url(`/api/reports/${versionId}/pdf`));
+    const pdf = await page.request.get(`/api/reports/${versionId}/pdf`);
     expect(pdf.status()).toBe(200);
-    expect((await page.request.get(journey.url(`/api/reports/${draftId}/pdf`))).status()).toBe(404);
-    expect((await journey.api(page, `/api/reports/${period}/preview`)).status).toBe(403);
+    expect((await page.request.get(`/api/reports/${draftId}/pdf`)).status()).toBe(404);
+    expect((await api(page, `/api/reports/${period}/preview`)).status).toBe(403);
 
     expect(journey.findings, describeFindings(journey.findings)).toEqual([]);
-  }, JOURNEY_TIMEOUT);
+  });
 });

@@ -1,35 +1,21 @@
 // The quality lead records an improvement action, finds it marked on the error trend chart of its aim, and
 // follows the mark to the action's before/after evaluation and its monthly run chart. What the screens show
 // is checked against the API's answers.
-import type { Page } from "playwright-core";
-import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
+import type { Page } from "@playwright/test";
 import type { ActionDetailAnswer, ActionMark } from "../../shared/schemas/actions";
 import { describeFindings } from "./support/a11y";
 import { demoAccount } from "./support/accounts";
-import { SEED_QUARTER } from "./support/database";
-import { JOURNEY_TIMEOUT, Journey, SETUP_TIMEOUT, textOf } from "./support/journey";
+import { expect, test } from "./support/fixtures";
+import { api, textOf } from "./support/pages";
+import { SEED_QUARTER } from "./support/seed";
 
 const qualityLead = demoAccount("quality_lead");
 const title = "Recoil reminder at the start of every class";
 const verdictWords = { up: "higher after the start", down: "lower after the start", "no clear change": "no clear change" } as const;
 
-let journey: Journey;
-
-beforeAll(async () => {
-  journey = await Journey.start("improvement-action");
-}, SETUP_TIMEOUT);
-
-afterEach(async (context) => {
-  if (context.task.result?.state === "fail") await journey?.shotAfterFailure();
-});
-
-afterAll(async () => {
-  await journey?.close();
-});
-
 async function expectEvaluation(page: Page, id: number) {
   await page.getByRole("heading", { name: "Before and after" }).waitFor();
-  const detail = await journey.api<ActionDetailAnswer>(page, `/api/actions/${id}`);
+  const detail = await api<ActionDetailAnswer>(page, `/api/actions/${id}`);
   expect(detail.status).toBe(200);
   const evaluation = detail.body.evaluation!;
   expect(evaluation.verdict).not.toBeNull();
@@ -37,12 +23,10 @@ async function expectEvaluation(page: Page, id: number) {
   expect(await textOf(page.getByTestId("monthly-signal"))).toMatch(/^The median is \d+\.\d % after the start against \d+\.\d % before it\./);
 }
 
-describe("quality lead and an improvement action", () => {
-  it(
+test.describe("quality lead and an improvement action", () => {
+  test(
     "records an action, sees it marked on its error's trend chart and follows the mark to its evaluation",
-    async () => {
-      const { page } = await journey.newPage();
-      await journey.signIn(page, qualityLead.email, qualityLead.password);
+    async ({ qualityLeadPage: page, journey }) => {
       await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Improvement actions" }).click();
       await page.waitForURL((url) => url.pathname === "/actions");
       await page.getByRole("button", { name: "Record action" }).click();
@@ -67,7 +51,7 @@ describe("quality lead and an improvement action", () => {
       await page.goto(`/errors?quarter=${SEED_QUARTER}&error=incomplete_recoil`);
       const trend = page.locator("figure").filter({ has: page.getByRole("heading", { name: "Trend by quarter", exact: true }) });
       await trend.waitFor();
-      const marks = await journey.api<{ marks: ActionMark[] }>(page, "/api/actions/marks?from=2025-Q1&to=2026-Q4");
+      const marks = await api<{ marks: ActionMark[] }>(page, "/api/actions/marks?from=2025-Q1&to=2026-Q4");
       const number = marks.body.marks.findIndex((mark) => mark.id === id) + 1;
       expect(number).toBeGreaterThan(0);
       await page.getByText(`A${number} ${title} (from 1 Apr 2026, 2026 Q2)`).first().waitFor();
@@ -85,6 +69,5 @@ describe("quality lead and an improvement action", () => {
       expect(journey.pageErrors).toEqual([]);
       expect(journey.findings, describeFindings(journey.findings)).toEqual([]);
     },
-    JOURNEY_TIMEOUT,
   );
 });

@@ -1,30 +1,16 @@
 // An instructor: signs in, reads their medians and percentile beside the network's on My standing (the same
 // figures the API gives), opens their own attempts with their most common error, and cannot open another
 // instructor's class or attempt by editing the address.
-import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import type { AttemptListAnswer, StandingAnswer } from "../../shared/schemas/insight";
 import { errorShortNames } from "../../shared/vocabulary";
 import { formatMetric, metricWords, percentileSentence } from "../../src/features/insight/standing/StandingMetrics";
 import { describeFindings } from "./support/a11y";
 import { demoAccount } from "./support/accounts";
-import { SEED_QUARTER } from "./support/database";
-import { JOURNEY_TIMEOUT, Journey, SETUP_TIMEOUT, textOf } from "./support/journey";
+import { expect, test } from "./support/fixtures";
+import { api, textOf } from "./support/pages";
+import { SEED_QUARTER } from "./support/seed";
 
 const instructor = demoAccount("instructor");
-
-let journey: Journey;
-
-beforeAll(async () => {
-  journey = await Journey.start("instructor");
-}, SETUP_TIMEOUT);
-
-afterEach(async (context) => {
-  if (context.task.result?.state === "fail") await journey?.shotAfterFailure();
-});
-
-afterAll(async () => {
-  await journey?.close();
-});
 
 interface OtherClass {
   id: string;
@@ -33,14 +19,12 @@ interface OtherClass {
   name: string;
 }
 
-describe("instructor", () => {
-  it("finds their medians and percentile against the network, opens their attempts with their commonest error, and cannot open another instructor's class", async () => {
-    const { page } = await journey.newPage();
-    await journey.signIn(page, instructor.email, instructor.password);
+test.describe("instructor", () => {
+  test("finds their medians and percentile against the network, opens their attempts with their commonest error, and cannot open another instructor's class", async ({ instructorPage: page, journey, database }) => {
 
     // My standing is the instructor's start page, on the latest quarter
     await page.waitForURL((url) => url.pathname === "/my-standing" && url.searchParams.get("quarter") === SEED_QUARTER);
-    const answer = await journey.api<StandingAnswer>(page, `/api/insight/standing?quarter=${SEED_QUARTER}`);
+    const answer = await api<StandingAnswer>(page, `/api/insight/standing?quarter=${SEED_QUARTER}`);
     expect(answer.status).toBe(200);
     const standing = answer.body;
     expect(standing.me.code).toBe(instructor.instructor);
@@ -73,7 +57,7 @@ describe("instructor", () => {
     expect(commonest).toBeDefined();
     await page.getByRole("navigation", { name: "Open your attempts with an error" }).getByRole("link", { name: errorShortNames[commonest.error], exact: true }).click();
     await page.waitForURL((url) => url.pathname === "/attempts" && url.searchParams.get("error") === commonest.error && url.searchParams.get("quarter") === SEED_QUARTER);
-    const mine = await journey.api<AttemptListAnswer>(page, `/api/attempts?quarter=${SEED_QUARTER}&error=${commonest.error}&pageSize=200`);
+    const mine = await api<AttemptListAnswer>(page, `/api/attempts?quarter=${SEED_QUARTER}&error=${commonest.error}&pageSize=200`);
     expect(mine.status).toBe(200);
     expect(mine.body.total).toBeGreaterThan(0);
     expect(mine.body.attempts.every((a) => a.instructor?.code === standing.me.code && a.errors.includes(commonest.error))).toBe(true);
@@ -83,14 +67,14 @@ describe("instructor", () => {
     await page.waitForURL((url) => url.pathname === "/my-standing");
 
     // another instructor's class in the same quarter, found in the database
-    const other = journey.db.$client
+    const other = database
       .prepare(
         `SELECT c.id, c.date, i.code, i.name FROM classes c JOIN instructors i ON i.id = c.instructor_id
          WHERE i.code <> ? AND c.quarter = ? AND EXISTS (SELECT 1 FROM attempts a WHERE a.class_id = c.id) ORDER BY c.id LIMIT 1`,
       )
       .get(instructor.instructor, SEED_QUARTER) as OtherClass;
     expect(other).toBeDefined();
-    const theirAttempts = journey.db.$client.prepare("SELECT id, learner FROM attempts WHERE class_id = ? ORDER BY id").all(other.id) as { id: string; learner: string }[];
+    const theirAttempts = database.prepare("SELECT id, learner FROM attempts WHERE class_id = ? ORDER BY id").all(other.id) as { id: string; learner: string }[];
     expect(theirAttempts.length).toBeGreaterThan(0);
     // (the instructor's own class table links none of them)
     expect(await page.locator(`a[href^="/classes/${encodeURIComponent(other.id)}"]`).count()).toBe(0);
@@ -104,17 +88,17 @@ describe("instructor", () => {
     }
     await journey.visited(page, "other-class-refused");
     // the API answers such a class as missing, and lists none of its attempts
-    expect((await journey.api(page, `/api/classes/${encodeURIComponent(other.id)}`)).status).toBe(404);
-    const listed = await journey.api<{ attempts?: unknown[] }>(page, `/api/attempts?class=${encodeURIComponent(other.id)}&quarter=${SEED_QUARTER}`);
+    expect((await api(page, `/api/classes/${encodeURIComponent(other.id)}`)).status).toBe(404);
+    const listed = await api<{ attempts?: unknown[] }>(page, `/api/attempts?class=${encodeURIComponent(other.id)}&quarter=${SEED_QUARTER}`);
     expect(listed.status === 404 || listed.body.attempts?.length === 0).toBe(true);
 
     // nor one of its attempts
     await page.goto(`/attempts/${encodeURIComponent(theirAttempts[0].id)}`);
     await page.getByRole("heading", { name: "Attempt not found", level: 1 }).waitFor();
     expect(await textOf(page.locator("main"))).not.toContain(theirAttempts[0].learner);
-    expect((await journey.api(page, `/api/attempts/${encodeURIComponent(theirAttempts[0].id)}`)).status).toBe(404);
+    expect((await api(page, `/api/attempts/${encodeURIComponent(theirAttempts[0].id)}`)).status).toBe(404);
     await journey.visited(page, "other-attempt-refused");
 
     expect(journey.findings, describeFindings(journey.findings)).toEqual([]);
-  }, JOURNEY_TIMEOUT);
+  });
 });

@@ -2,34 +2,16 @@
 // group, to one attempt with a compression stream: its pass-rule checklist and its compression charts; and from
 // the Equipment page to the manikin flagged for a depth sensor check, with its evidence. What the screens show is
 // checked against the API's answers.
-import type { Locator, Page } from "playwright-core";
-import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
+import type { Locator, Page } from "@playwright/test";
 import type { DriftAnswer, ManikinRecord } from "../../shared/schemas/equipment";
 import type { AttemptDetailAnswer, ErrorsAnswer } from "../../shared/schemas/insight";
 import { DEMO_SCENARIO } from "../../server/demo/scenario";
 import { fromMm, type LengthUnit } from "../../shared/units";
 import { besideThreshold } from "../../src/features/attempts/labels";
 import { describeFindings } from "./support/a11y";
-import { demoAccount } from "./support/accounts";
-import { SEED_QUARTER } from "./support/database";
-import { JOURNEY_TIMEOUT, Journey, SETUP_TIMEOUT, textOf } from "./support/journey";
-
-const qualityLead = demoAccount("quality_lead");
-/** Pages of attempts to look through for one with a stream (about one attempt in twenty has one). */
-
-let journey: Journey;
-
-beforeAll(async () => {
-  journey = await Journey.start("quality");
-}, SETUP_TIMEOUT);
-
-afterEach(async (context) => {
-  if (context.task.result?.state === "fail") await journey?.shotAfterFailure();
-});
-
-afterAll(async () => {
-  await journey?.close();
-});
+import { expect, test } from "./support/fixtures";
+import { api, textOf } from "./support/pages";
+import { SEED_QUARTER } from "./support/seed";
 
 /** A figure of the UI kit's Chart, by its title. */
 function chart(page: Page, title: string): Locator {
@@ -41,17 +23,15 @@ function picture(figure: Locator): Locator {
   return figure.locator('div[role="img"] svg').first();
 }
 
-describe("quality lead", () => {
-  it("goes from the error Pareto to an attempt with a compression stream in three clicks, and back to the same list", async () => {
-    const { page } = await journey.newPage();
-    await journey.signIn(page, qualityLead.email, qualityLead.password);
+test.describe("quality lead", () => {
+  test("goes from the error Pareto to an attempt with a compression stream in three clicks, and back to the same list", async ({ qualityLeadPage: page, journey }) => {
     await page.waitForURL((url) => url.pathname === "/overview");
 
     await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Error trends" }).click();
     await page.waitForURL((url) => url.pathname === "/errors");
     const pareto = chart(page, "Errors, most frequent first");
     await picture(pareto).waitFor();
-    const errors = await journey.api<ErrorsAnswer>(page, `/api/insight/errors?quarter=${SEED_QUARTER}`);
+    const errors = await api<ErrorsAnswer>(page, `/api/insight/errors?quarter=${SEED_QUARTER}`);
     expect(errors.status).toBe(200);
     const top = errors.body.pareto.rows[0];
     expect(top.count).toBeGreaterThan(0);
@@ -68,7 +48,7 @@ describe("quality lead", () => {
     await firstRow.getByRole("link", { name: `Trend and breakdown of “${top.label}”` }).click();
     await page.waitForURL((url) => url.searchParams.get("error") === top.error);
     await page.getByRole("heading", { name: top.label, level: 2 }).waitFor();
-    const selected = await journey.api<ErrorsAnswer>(page, `/api/insight/errors?quarter=${SEED_QUARTER}&error=${top.error}`);
+    const selected = await api<ErrorsAnswer>(page, `/api/insight/errors?quarter=${SEED_QUARTER}&error=${top.error}`);
     const withError = selected.body.selected!.byProfile.reduce((sum, row) => sum + row.count, 0);
     await page.getByText(`${withError} of ${selected.body.selected!.byProfile.reduce((sum, row) => sum + row.attempts, 0)} attempts in the period have this error.`).waitFor();
     const breakdown = page.getByRole("table", { name: "Attempts with the error by patient type" });
@@ -97,12 +77,12 @@ describe("quality lead", () => {
     await page.waitForURL((url) => url.pathname === `/attempts/${encodeURIComponent(attemptId)}`);
     await page.getByRole("heading", { name: `Attempt ${attemptId}`, level: 1 }).waitFor();
 
-    const detail = await journey.api<AttemptDetailAnswer>(page, `/api/attempts/${encodeURIComponent(attemptId)}`);
+    const detail = await api<AttemptDetailAnswer>(page, `/api/attempts/${encodeURIComponent(attemptId)}`);
     expect(detail.status).toBe(200);
     const { attempt, stream } = detail.body;
     expect(stream).not.toBeNull();
     expect(attempt.errors).toContain(top.error);
-    const unit = ((await journey.api<{ user: { lengthUnit: LengthUnit } }>(page, "/api/me")).body.user.lengthUnit);
+    const unit = ((await api<{ user: { lengthUnit: LengthUnit } }>(page, "/api/me")).body.user.lengthUnit);
 
     // the pass rule as a checklist: each criterion's value as the API gives it, never rounded onto its pass mark
     const m = attempt.metrics;
@@ -152,11 +132,9 @@ describe("quality lead", () => {
     await page.getByRole("table", { name: "Attempts" }).getByRole("link", { name: attemptId }).waitFor();
 
     expect(journey.findings, describeFindings(journey.findings)).toEqual([]);
-  }, JOURNEY_TIMEOUT);
+  });
 
-  it("opens the manikin flagged for a depth sensor check from the Equipment page and sees the evidence", async () => {
-    const { page } = await journey.newPage();
-    await journey.signIn(page, qualityLead.email, qualityLead.password);
+  test("opens the manikin flagged for a depth sensor check from the Equipment page and sees the evidence", async ({ qualityLeadPage: page, journey }) => {
     await page.waitForURL((url) => url.pathname === "/overview");
 
     await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Equipment" }).click();
@@ -164,7 +142,7 @@ describe("quality lead", () => {
     // one quarter holds too few shared classes to judge a manikin: look at the last four
     await page.getByRole("combobox", { name: "Period" }).selectOption("last-4");
     await page.waitForURL((url) => url.searchParams.get("quarter") === "last-4");
-    const drift = await journey.api<DriftAnswer>(page, "/api/equipment/drift?from=2026-Q1&to=2026-Q4");
+    const drift = await api<DriftAnswer>(page, "/api/equipment/drift?from=2026-Q1&to=2026-Q4");
     expect(drift.status).toBe(200);
     const flagged = drift.body.manikins.filter((m) => m.flag === "check");
     expect(flagged.map((m) => m.manikin)).toEqual([DEMO_SCENARIO.driftingSensor.manikin]);
@@ -176,7 +154,7 @@ describe("quality lead", () => {
     await section.getByRole("link", { name: `Open ${assetId}’s record` }).click();
     await page.waitForURL((url) => url.pathname === `/equipment/manikins/${assetId}` && url.searchParams.get("quarter") === "last-4");
     await page.getByRole("heading", { name: `Manikin ${assetId}`, level: 1 }).waitFor();
-    const record = await journey.api<ManikinRecord>(page, `/api/equipment/manikins/${assetId}?from=2026-Q1&to=2026-Q4`);
+    const record = await api<ManikinRecord>(page, `/api/equipment/manikins/${assetId}?from=2026-Q1&to=2026-Q4`);
     expect(record.status).toBe(200);
     const offset = record.body.drift!.offset_mm!;
     expect(record.body.drift!.flag).toBe("check");
@@ -194,5 +172,5 @@ describe("quality lead", () => {
     await page.waitForURL((url) => url.pathname === "/equipment" && url.searchParams.get("quarter") === "last-4");
 
     expect(journey.findings, describeFindings(journey.findings)).toEqual([]);
-  }, JOURNEY_TIMEOUT);
+  });
 });

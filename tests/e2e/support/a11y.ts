@@ -1,6 +1,6 @@
 // Accessibility check of the page as it stands, with axe-core. Only "serious" and "critical" findings count.
 import AxeBuilder from "@axe-core/playwright";
-import type { Page } from "playwright-core";
+import type { Page } from "@playwright/test";
 
 export interface A11yFinding {
   page: string;
