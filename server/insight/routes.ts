@@ -7,7 +7,7 @@ import { overviewChartQuerySchema } from "../../shared/schemas/chartSettings";
 import type { Db } from "../db/client";
 import { allow, rowScope, signedInUser } from "../auth/guard";
 import { parseId, parseWith } from "../http/validate";
-import { attemptDetail, attemptList } from "./attempts";
+import { attemptDetail } from "./attempts";
 import { attemptSearchKey, attemptSearchOf } from "./attemptSearch";
 import { attemptsCsvFileName, writeAttemptsCsv } from "./attemptsCsv";
 import { dataVersion, sendCached } from "./cache";
@@ -88,7 +88,7 @@ export function insightRoutes(db: Db): Router {
     const search = attemptSearchOf(query, rowScope(signedInUser(req), "readAttempts").instructorId);
     const page = { page: query.page, pageSize: query.pageSize };
     const { filters, key } = context(req, `attempts:${attemptSearchKey(search)}:${page.page}:${page.pageSize}`, filterPart(query));
-    sendCached(db, res, key, () => attemptList(db, filters, search, page));
+    return sendAnswer(db, res, key, "attempts", [filters, search, page]);
   });
 
   // The whole result of the same search as CSV, with the same row scope.

@@ -6,6 +6,7 @@ import { overview } from "../insight/overview";
 import { standing } from "../insight/standing";
 import { instructorDetail, instructorTable } from "../insight/instructors";
 import { errorAnalysis } from "../insight/errors";
+import { attemptList } from "../insight/attempts";
 import { currentSignals } from "../alerts/signals";
 import { driftAnswer, fleetAnswer, manikinAnswer } from "../equipment/answers";
 
@@ -15,6 +16,8 @@ export const offThreadAnswers = {
   instructors: instructorTable,
   instructor: instructorDetail,
   errors: errorAnalysis,
+  // a page of a large result still counts and sorts the whole result
+  attempts: attemptList,
   fleet: fleetAnswer,
   drift: driftAnswer,
   manikin: manikinAnswer,
