@@ -10,7 +10,7 @@ import { quarterOf } from "../../shared/period";
 import { isSafeGroup, type ReleaseRule } from "../../shared/suppression";
 import { median } from "../../shared/stats";
 import type { Db } from "../db/client";
-import { monthlyCountsByInstructor, runChartRules, type MonthlyScope } from "../metrics/monthlyRunChart";
+import { monthlyCountsBySiteAndInstructor, runChartRules } from "../metrics/monthlyRunChart";
 import { currentPolicy } from "../policy/service";
 import { listSites } from "../sites/service";
 
@@ -37,22 +37,26 @@ interface MonthRate {
   rate: number;
 }
 
+type MonthlyRow = ReturnType<typeof monthlyCountsBySiteAndInstructor>[number];
+
 /** The months a reader of this series may learn about, with their measured pass rate. */
-export function shownMonths(rows: ReturnType<typeof monthlyCountsByInstructor>, rule: ReleaseRule): MonthRate[] {
-  const months = new Map<string, { n: number; x: number; byInstructor: number[] }>();
+export function shownMonths(rows: readonly Pick<MonthlyRow, "period" | "instructorId" | "n" | "x">[], rule: ReleaseRule): MonthRate[] {
+  const months = new Map<string, { n: number; x: number; byInstructor: Map<number, number> }>();
   for (const row of rows) {
-    const month = months.get(row.period) ?? { n: 0, x: 0, byInstructor: [] };
+    const month = months.get(row.period) ?? { n: 0, x: 0, byInstructor: new Map<number, number>() };
     month.n += row.n;
     month.x += row.x;
-    month.byInstructor.push(row.n);
+    // an instructor teaching at two sites is one person in the network's series
+    month.byInstructor.set(row.instructorId, (month.byInstructor.get(row.instructorId) ?? 0) + row.n);
     months.set(row.period, month);
   }
   return [...months.entries()]
     .sort(([a], [b]) => a.localeCompare(b))
     .filter(([, month]) => {
       // the fewest others' attempts any reader has: the busiest instructor's view; a reader with none sees them all
-      const largest = Math.max(...month.byInstructor);
-      return isSafeGroup(month.n, month.byInstructor.length, rule) && isSafeGroup(month.n - largest, month.byInstructor.length - 1, rule);
+      const largest = Math.max(...month.byInstructor.values());
+      const instructors = month.byInstructor.size;
+      return isSafeGroup(month.n, instructors, rule) && isSafeGroup(month.n - largest, instructors - 1, rule);
     })
     .map(([period, month]) => ({ period, rate: month.x / month.n }));
 }
@@ -86,9 +90,10 @@ export function shiftSignals(db: Db, quarters: readonly string[]): ShiftSignal[]
     { siteId: null, siteCode: null },
     ...listSites(db).filter((site) => site.active).map((site) => ({ siteId: site.id, siteCode: site.code })),
   ];
+  // one read of the window serves the network's series and every site's
+  const rows = monthlyCountsBySiteAndInstructor(db, { from: window[window.length - 1], to: newest, siteId: null, instructorId: null, profile: null });
   return scopes.flatMap(({ siteId, siteCode }): ShiftSignal[] => {
-    const scope: MonthlyScope = { from: window[window.length - 1], to: newest, siteId, instructorId: null, profile: null };
-    const points = shownMonths(monthlyCountsByInstructor(db, scope), rule);
+    const points = shownMonths(siteId === null ? rows : rows.filter((row) => row.siteId === siteId), rule);
     // a series whose newest shown month lies before the newest quarter says nothing about now
     if (points.length === 0 || quarterOf(`${points[points.length - 1].period}-01`) !== newest) return [];
     const shift = shiftAtEnd(points);

@@ -55,17 +55,20 @@ export function monthlyCounts(db: Db, scope: MonthlyScope): { period: string; n:
     .map((row) => ({ period: row.period, n: Number(row.n), x: Number(row.x ?? 0) }));
 }
 
-/** The same counts split by instructor, for readers who must not learn about a small group of others' attempts. */
-export function monthlyCountsByInstructor(db: Db, scope: MonthlyScope): { period: string; instructorId: number; n: number; x: number }[] {
+/**
+ * The same counts split by site and instructor, for readers who must not learn about a small group of others'
+ * attempts: one grouped query serves the network's series and every site's.
+ */
+export function monthlyCountsBySiteAndInstructor(db: Db, scope: MonthlyScope): { period: string; siteId: number; instructorId: number; n: number; x: number }[] {
   return db
-    .select({ period: classMonth, instructorId: attempts.instructorId, n: sql<number>`count(*)`, x: countedOf(scope) })
+    .select({ period: classMonth, siteId: attempts.siteId, instructorId: attempts.instructorId, n: sql<number>`count(*)`, x: countedOf(scope) })
     .from(attempts)
     .innerJoin(classes, eq(classes.id, attempts.classId))
     .where(conditionsOf(scope))
-    .groupBy(classMonth, attempts.instructorId)
+    .groupBy(classMonth, attempts.siteId, attempts.instructorId)
     .orderBy(classMonth)
     .all()
-    .map((row) => ({ period: row.period, instructorId: row.instructorId, n: Number(row.n), x: Number(row.x ?? 0) }));
+    .map((row) => ({ period: row.period, siteId: row.siteId, instructorId: row.instructorId, n: Number(row.n), x: Number(row.x ?? 0) }));
 }
 
 /** The rules over some rates around a centre; the limits are null without a useful point. */
