@@ -6,16 +6,9 @@ import { actionStatuses } from "../domain";
 import { patientTypes } from "../scoring/policy";
 import { attemptErrorNames } from "../scoring/scoreAttempt";
 import type { AimFigure } from "../vocabulary";
+import { isoDateSchema } from "./isoDate";
 
 export const aimFigures = ["passRate", ...attemptErrorNames] as const satisfies readonly AimFigure[];
-
-const isoDate = z
-  .string()
-  .regex(/^\d{4}-\d{2}-\d{2}$/, "Use a date such as 2026-04-01")
-  .refine((text) => {
-    const date = new Date(`${text}T00:00:00Z`);
-    return !Number.isNaN(date.getTime()) && date.toISOString().startsWith(text);
-  }, "Not a real date");
 
 const actionFields = z.object({
   title: z.string().trim().min(1, "Say what the action is").max(200, "Use at most 200 characters"),
@@ -24,7 +17,7 @@ const actionFields = z.object({
   siteId: z.number().int().positive().nullable(),
   instructorId: z.number().int().positive().nullable(),
   profile: z.enum(patientTypes).nullable(),
-  startDate: isoDate,
+  startDate: isoDateSchema,
   owner: z.string().trim().min(1, "Name who owns the action").max(120, "Use at most 120 characters"),
   status: z.enum(actionStatuses),
 });
@@ -40,7 +33,7 @@ export const updateActionSchema = actionFields.partial().refine(oneScope, oneSco
 export type ActionChanges = z.infer<typeof updateActionSchema>;
 
 export const newActionNoteSchema = z.object({
-  date: isoDate,
+  date: isoDateSchema,
   text: z.string().trim().min(1, "Write the note").max(2000, "Use at most 2000 characters"),
 });
 export type NewActionNote = z.infer<typeof newActionNoteSchema>;

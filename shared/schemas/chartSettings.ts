@@ -2,6 +2,7 @@
 // overview p-chart's centre line and limits. Without a setting it is the first four quarters with attempts.
 import { z } from "zod";
 import { quarterParamSchema } from "../filters";
+import { isoDateSchema } from "./isoDate";
 
 /** How many quarters with attempts make the default baseline. */
 export const DEFAULT_BASELINE_QUARTERS = 4;
@@ -28,10 +29,7 @@ export const chartLimitModes = ["binomial", "laney"] as const;
 /** The overview p-chart's options: its limits, and a date to split it at (an improvement action's start). */
 export const overviewChartQuerySchema = z.object({
   limits: z.enum(chartLimitModes, { error: `Use one of ${chartLimitModes.join(", ")}` }).default("binomial"),
-  split: z
-    .string()
-    .regex(/^\d{4}-(0[1-9]|1[0-2])-(0[1-9]|[12]\d|3[01])$/, { error: "Give the date to split the chart at as YYYY-MM-DD" })
-    .optional(),
+  split: isoDateSchema.optional(),
 });
 export interface OverviewChartOptions {
   limits: (typeof chartLimitModes)[number];
