@@ -8,7 +8,7 @@
 // old process gives by chance?". A quarter a viewer could not be shown on its own never enters a centre line.
 import { firstQuarterFrom, previousQuarter } from "../../shared/period";
 import type { chartLimitModes } from "../../shared/schemas/chartSettings";
-import { DEFAULT_BASELINE_QUARTERS } from "../../shared/schemas/chartSettings";
+import { DEFAULT_BASELINE_QUARTERS, type ChartBaseline } from "../../shared/schemas/chartSettings";
 import type { OverviewAnswer } from "../../shared/schemas/insight";
 import { median, pChart, runChartSignals, type PChartSample } from "../../shared/stats";
 import type { Db } from "../db/client";
@@ -60,8 +60,7 @@ function phaseBaseline(db: Db, viewer: Viewer, filters: ResolvedFilters, from: s
 }
 
 /** Before a split, the stated baseline cut at the split; when nothing of it lies before, the first quarters that do. */
-function baselineBefore(db: Db, viewer: Viewer, filters: ResolvedFilters, splitQuarter: string | null): { from: string | null; to: string | null; samples: PChartSample[] } {
-  const stated = chartBaseline(db);
+function baselineBefore(db: Db, viewer: Viewer, filters: ResolvedFilters, stated: ChartBaseline, splitQuarter: string | null): { from: string | null; to: string | null; samples: PChartSample[] } {
   if (stated.from === null || stated.to === null) return { from: null, to: null, samples: [] };
   if (splitQuarter === null || stated.to < splitQuarter) return { from: stated.from, to: stated.to, samples: baselineSamples(db, viewer, filters, stated.from, stated.to) };
   const lastBefore = previousQuarter(splitQuarter);
@@ -77,7 +76,8 @@ const sumN = (samples: readonly PChartSample[]) => samples.reduce((sum, sample) 
 export function passRateSeries(db: Db, viewer: Viewer, filters: ResolvedFilters, input: SeriesInput): Series {
   const { quarters, byQuarter, hidden, limits } = input;
   const splitQuarter = input.splitAt === null ? null : firstQuarterFrom(input.splitAt);
-  const before = baselineBefore(db, viewer, filters, splitQuarter);
+  const stated = chartBaseline(db);
+  const before = baselineBefore(db, viewer, filters, stated, splitQuarter);
   const found = splitQuarter === null ? null : phaseBaseline(db, viewer, filters, splitQuarter);
   // a phase whose baseline quarters are all hidden from this viewer has no centre of its own to show
   const after = found !== null && found.samples.length > 0 ? found : null;
@@ -96,7 +96,7 @@ export function passRateSeries(db: Db, viewer: Viewer, filters: ResolvedFilters,
 
   return {
     centre: beforeChart.centre,
-    baseline: { from: before.from, to: before.to, source: chartBaseline(db).source, attempts: before.samples.length === 0 ? null : sumN(before.samples) },
+    baseline: { from: before.from, to: before.to, source: stated.source, attempts: before.samples.length === 0 ? null : sumN(before.samples) },
     limits,
     sigmaZ: beforeChart.sigmaZ,
     split:

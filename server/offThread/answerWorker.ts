@@ -42,7 +42,7 @@ port.on("message", (request: AnswerRequest) => {
     setInsightCache(request.useCache);
     const db = connectionTo(request.dbFile);
     const compute = () => answerJson(db, request.name, request.args as AnswerArgs<AnswerName>);
-    reply = { id: request.id, json: request.useCache ? cached(db, request.key, compute) : compute() };
+    reply = { id: request.id, json: cached(db, request.key, compute) };
   } catch (err) {
     reply =
       err instanceof AppError
