@@ -1,7 +1,7 @@
 // The choice between comparing instructors as measured and adjusted for case mix, kept in the URL
 // (?adjust=none; adjusted when absent) so a link shows the same comparison. Pages that compare instructors
 // show it beside the comparison and say what each view means.
-import { useSearchParams } from "react-router";
+import { useSearchParam } from "../../lib/useSearchParam";
 import { adjustModes, type AdjustMode } from "../../../shared/filters";
 import { adjustNames } from "../../../shared/vocabulary";
 import { formatFixed } from "./format";
@@ -14,19 +14,14 @@ export const adjustExplanations: Record<AdjustMode, string> = {
 
 /** The comparison asked for in the URL; case mix unless `adjust=none`. */
 export function useAdjustMode(): AdjustMode {
-  const [params] = useSearchParams();
-  return params.get("adjust") === "none" ? "none" : "case-mix";
+  const [adjust] = useSearchParam("adjust");
+  return adjust === "none" ? "none" : "case-mix";
 }
 
 export function AdjustChoice() {
-  const [params, setParams] = useSearchParams();
+  const [, setAdjust] = useSearchParam("adjust");
   const mode = useAdjustMode();
-  const choose = (next: AdjustMode) => {
-    const changed = new URLSearchParams(params);
-    if (next === "case-mix") changed.delete("adjust");
-    else changed.set("adjust", next);
-    setParams(changed, { replace: true });
-  };
+  const choose = (next: AdjustMode) => setAdjust(next === "case-mix" ? null : next);
   return (
     <fieldset className="flex flex-col gap-2 rounded-card border border-line bg-surface p-4">
       <legend className="px-1 text-small font-semibold">Compare instructors</legend>

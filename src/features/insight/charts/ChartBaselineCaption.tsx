@@ -1,7 +1,7 @@
 // Says where the control chart's centre line and limits come from (the baseline quarters) and how wide the
 // limits are, and offers Laney's p′ limits for quarters with many attempts; the choice is kept in the URL
 // (?limits=laney) so a link shows the same chart.
-import { useSearchParams } from "react-router";
+import { useSearchParam } from "../../../lib/useSearchParam";
 import { quarterLabel } from "../../../../shared/period";
 import { formatCount, formatFixed } from "../format";
 import { splitSentence, type PassRateSeries } from "./PassRateControlChart";
@@ -26,15 +26,10 @@ export function baselineSentence(series: PassRateSeries): string {
 }
 
 export function ChartBaselineCaption({ series }: { series: PassRateSeries }) {
-  const [params, setParams] = useSearchParams();
+  const [, setLimits] = useSearchParam("limits");
   const laney = series.limits === "laney";
   const largest = Math.max(0, ...series.points.map((p) => p.attempts ?? 0));
-  const toggle = (on: boolean) => {
-    const changed = new URLSearchParams(params);
-    if (on) changed.set("limits", "laney");
-    else changed.delete("limits");
-    setParams(changed, { replace: true });
-  };
+  const toggle = (on: boolean) => setLimits(on ? "laney" : null);
   return (
     <div className="flex max-w-3xl flex-col gap-2 text-small text-muted">
       <p>{baselineSentence(series)}</p>
