@@ -1,7 +1,7 @@
 // What the alerts page lists: the signals mailed to the reader, newest first, and for a coordinator every
 // user's, each signal once with how many people it went to. Links are kept as mailed: each was chosen for its
 // recipient's role (./signalLines.ts), so a user's own rows only hold links they may open.
-import { desc, eq } from "drizzle-orm";
+import { desc, eq, inArray, min } from "drizzle-orm";
 import { can } from "../../shared/permissions";
 import type { AllAlertsAnswer, MyAlertsAnswer } from "../../shared/schemas/alerts";
 import type { Db } from "../db/client";
@@ -30,10 +30,18 @@ export function myAlerts(db: Db, userId: number): MyAlertsAnswer {
  * their own pages) is listed without one.
  */
 export function allAlerts(db: Db): AllAlertsAnswer {
+  // the newest signals by when each first went out, chosen in SQL so only their deliveries are read
+  const newestSignals = db
+    .select({ key: alertDeliveries.key })
+    .from(alertDeliveries)
+    .groupBy(alertDeliveries.key)
+    .orderBy(desc(min(alertDeliveries.sentAt)), alertDeliveries.key)
+    .limit(LIMIT);
   const rows = db
     .select({ delivery: alertDeliveries, role: users.role })
     .from(alertDeliveries)
     .innerJoin(users, eq(users.id, alertDeliveries.userId))
+    .where(inArray(alertDeliveries.key, newestSignals))
     .orderBy(alertDeliveries.sentAt, alertDeliveries.id)
     .all();
   const bySignal = new Map<string, AllAlertsAnswer["signals"][number] & { people: Set<number> }>();
@@ -50,5 +58,5 @@ export function allAlerts(db: Db): AllAlertsAnswer {
   const signals = [...bySignal.values()]
     .map(({ people, ...signal }) => ({ ...signal, recipients: people.size }))
     .sort((a, b) => (a.sentAt === b.sentAt ? a.key.localeCompare(b.key) : a.sentAt < b.sentAt ? 1 : -1));
-  return { signals: signals.slice(0, LIMIT) };
+  return { signals };
 }

@@ -1,13 +1,15 @@
 // Each user's alerts: the choice of kinds (GET and PUT /api/me/alerts), the digest each user gets (only the
 // kinds they chose, an instructor only about themselves and their own site), and the history of what was
 // mailed (GET /api/alerts for one's own, GET /api/alerts/all for a coordinator).
+import { eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { alertKinds } from "../../shared/alertKinds";
 import { alertChoiceAnswerSchema, allAlertsAnswerSchema, myAlertsAnswerSchema } from "../../shared/schemas/alerts";
+import { allAlerts } from "../../server/alerts/history";
 import { sendImportAlerts } from "../../server/alerts/importAlerts";
 import { currentSignals } from "../../server/alerts/signals";
 import type { Db } from "../../server/db/client";
-import { mailbox } from "../../server/db/schema";
+import { alertDeliveries, mailbox, users } from "../../server/db/schema";
 import { startLocalMailService, type LocalMailService } from "../../server/mail/localService";
 import { createMailer } from "../../server/mail/mailer";
 import { createInstructor, createSite } from "../../server/sites/service";
@@ -163,5 +165,16 @@ describe("alerts per user", () => {
     const [toQuality] = mailTo(db, "quality@test.example");
     expect(toQuality.subject).toBe("Quarterbeat: 1 new signal after the latest import");
     expect(await sendImportAlerts(db, createMailer(mail.url), AS_OF)).toEqual({ status: "nothing-new" });
+  });
+  it("lists the 500 signals that went out last, newest first, when more are stored", () => {
+    const coordinatorId = db.select({ id: users.id }).from(users).where(eq(users.role, "coordinator")).get()!.id;
+    const stamp = (i: number) => `2027-01-01T00:${String(Math.floor(i / 60)).padStart(2, "0")}:${String(i % 60).padStart(2, "0")}.000Z`;
+    db.insert(alertDeliveries)
+      .values(Array.from({ length: 510 }, (_, i) => ({ userId: coordinatorId, key: `test:${i}`, kind: "noData" as const, summary: `signal ${i}`, sentAt: stamp(i) })))
+      .run();
+    const signals = allAlerts(db).signals;
+    expect(signals).toHaveLength(500);
+    expect(signals[0].key).toBe("test:509");
+    expect(signals[499].key).toBe("test:10");
   });
 });
