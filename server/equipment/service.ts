@@ -8,6 +8,7 @@ import type { Db } from "../db/client";
 import { attempts, classes, equipmentEvents, manikins, sites } from "../db/schema";
 import type { ResolvedFilters } from "../insight/filters";
 import { networkScope, talliesByPair } from "../metrics/summaries";
+import { writtenDate } from "../../shared/writtenDate";
 
 const DAY_MS = 86_400_000;
 
@@ -220,7 +221,7 @@ export function fleetAttention(fleet: EquipmentAnswer["fleet"], policy: Equipmen
       items.push({
         ...base,
         kind: "service_by_compressions",
-        reason: `${m.compressionsSinceService.toLocaleString("en-GB")} compressions since ${m.lastServiceDate ? `the last service on ${m.lastServiceDate}` : "it came into use"}; service is due every ${policy.serviceEveryCompressions.toLocaleString("en-GB")}.`,
+        reason: `${m.compressionsSinceService.toLocaleString("en-GB")} compressions since ${m.lastServiceDate ? `the last service on ${writtenDate(m.lastServiceDate)}` : "it came into use"}; service is due every ${policy.serviceEveryCompressions.toLocaleString("en-GB")}.`,
       });
     }
     const since = m.lastServiceDate ?? m.inServiceSince;
@@ -232,7 +233,7 @@ export function fleetAttention(fleet: EquipmentAnswer["fleet"], policy: Equipmen
         reason:
           days === null
             ? `No service and no date in use are recorded; service is due every ${policy.serviceEveryDays} days.`
-            : `${days} days since ${m.lastServiceDate ? `the last service on ${m.lastServiceDate}` : `it came into use on ${m.inServiceSince} with no service recorded`}; service is due every ${policy.serviceEveryDays} days.`,
+            : `${days} days since ${m.lastServiceDate ? `the last service on ${writtenDate(m.lastServiceDate)}` : `it came into use on ${writtenDate(m.inServiceSince)} with no service recorded`}; service is due every ${policy.serviceEveryDays} days.`,
       });
     }
     if (m.openFaults > 0) {
@@ -263,6 +264,6 @@ function mouthpieceAttention(db: Db, policy: EquipmentPolicy, scope: EquipmentSc
       site: { id: row.siteId, code: row.siteCode },
       manikin: null,
       classId: row.id,
-      reason: `Class ${row.id} on ${row.date}: ${row.cleaned} mouthpiece cleans logged for ${row.learners} learners; at least ${row.learners * policy.minMouthpieceCleansPerLearner} expected (${policy.minMouthpieceCleansPerLearner} per learner).`,
+      reason: `Class ${row.id} on ${writtenDate(row.date)}: ${row.cleaned} mouthpiece cleans logged for ${row.learners} learners; at least ${row.learners * policy.minMouthpieceCleansPerLearner} expected (${policy.minMouthpieceCleansPerLearner} per learner).`,
     }));
 }

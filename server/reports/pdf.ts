@@ -7,6 +7,7 @@ import { trendBaselineText } from "../../shared/reportTrend";
 import { drawErrorBars, drawRateBars, drawTrendChart } from "./pdfCharts";
 import { colours, FONT, registerFonts, textRuns, type Doc } from "./pdfStyle";
 import { dimensionNames, figureNames, retentionFigureName } from "../../shared/vocabulary";
+import { writtenDate } from "../../shared/writtenDate";
 
 export interface PdfMeta {
   version: number;
@@ -17,7 +18,6 @@ const PAGE = { width: 595.28, height: 841.89 };
 const MARGIN = { left: 48, right: 48, top: 48, bottom: 60 };
 const CONTENT_WIDTH = PAGE.width - MARGIN.left - MARGIN.right;
 
-const dateFormat = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "long", year: "numeric", timeZone: "UTC" });
 
 export function renderReportPdf(data: ReportData, meta: PdfMeta): Promise<Buffer> {
   const doc = new PDFDocument({
@@ -139,7 +139,7 @@ function drawTitle(page: PageFlow, data: ReportData, meta: PdfMeta) {
   const versions = data.methods.scoredUnderVersions;
   const scored = versions.length ? ` · scored under policy version ${versions.join(", ")}` : "";
   doc.fontSize(8.5).fillColor(colours.muted).text(
-    `Period ${data.kind === "year" ? `${data.period} (${data.quarters.join(", ")})` : data.period} · generated ${dateFormat.format(meta.createdAt)}${scored}`,
+    `Period ${data.kind === "year" ? `${data.period} (${data.quarters.join(", ")})` : data.period} · generated ${writtenDate(meta.createdAt)}${scored}`,
     MARGIN.left,
     page.y,
     { width: CONTENT_WIDTH },
@@ -258,7 +258,7 @@ function drawImprovementActions(page: PageFlow, data: ReportData) {
       { title: "Start", width: 70 },
       { title: "Status", width: CONTENT_WIDTH - 440 },
     ],
-    actions.map((a) => [a.title, a.aim, a.scope, dateFormat.format(new Date(`${a.startDate}T00:00:00Z`)), a.status]),
+    actions.map((a) => [a.title, a.aim, a.scope, writtenDate(a.startDate), a.status]),
   );
   page.paragraph("A change after an action started is not proof that the action caused it: other things change over time too.", {
     size: 7.5,
@@ -465,7 +465,7 @@ function drawFooters(doc: Doc, data: ReportData, meta: PdfMeta) {
     doc.moveTo(MARGIN.left, y - 6).lineTo(PAGE.width - MARGIN.right, y - 6).lineWidth(0.5).strokeColor(colours.line).stroke();
     doc.font(FONT).fontSize(7.5).fillColor(colours.muted);
     doc.text(
-      `Quarterbeat · report for funders · ${data.period} · version ${meta.version} · generated ${dateFormat.format(meta.createdAt)}`,
+      `Quarterbeat · report for funders · ${data.period} · version ${meta.version} · generated ${writtenDate(meta.createdAt)}`,
       MARGIN.left,
       y,
       { width: CONTENT_WIDTH - 80, lineBreak: false },

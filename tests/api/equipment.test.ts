@@ -77,7 +77,7 @@ describe("the fleet (coordinator, 2026-Q2)", () => {
     const byCompressions = report.attention.filter((a) => a.kind === "service_by_compressions");
     // MK-S1 31 300 > 30 000; MK-N2 400 and MK-N1 0 are below
     expect(byCompressions.map((a) => a.manikin?.assetId)).toEqual(["MK-S1"]);
-    expect(byCompressions[0].reason).toMatch(/31,300 compressions since the last service on 2025-10-01; service is due every 30,000/);
+    expect(byCompressions[0].reason).toMatch(/31,300 compressions since the last service on 1 October 2025; service is due every 30,000/);
     expect(report.thresholds.serviceEveryCompressions.projectDefault).toBe(false);
   });
 
