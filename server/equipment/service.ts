@@ -231,9 +231,9 @@ export function fleetAttention(fleet: EquipmentAnswer["fleet"], policy: Equipmen
         ...base,
         kind: "service_by_days",
         reason:
-          days === null
+          since === null || days === null
             ? `No service and no date in use are recorded; service is due every ${policy.serviceEveryDays} days.`
-            : `${days} days since ${m.lastServiceDate ? `the last service on ${writtenDate(m.lastServiceDate)}` : `it came into use on ${writtenDate(m.inServiceSince)} with no service recorded`}; service is due every ${policy.serviceEveryDays} days.`,
+            : `${days} days since ${m.lastServiceDate ? `the last service on ${writtenDate(m.lastServiceDate)}` : `it came into use on ${writtenDate(since)} with no service recorded`}; service is due every ${policy.serviceEveryDays} days.`,
       });
     }
     if (m.openFaults > 0) {
