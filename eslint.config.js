@@ -2,6 +2,7 @@
 // architecture as rules: which folder may import which, and where the environment may be read.
 // Rules run without type information so the whole tree lints in seconds; `tsc` does the type checks.
 import js from "@eslint/js";
+import eslintConfigPrettier from "eslint-config-prettier/flat";
 import reactHooks from "eslint-plugin-react-hooks";
 import globals from "globals";
 import tseslint from "typescript-eslint";
@@ -57,4 +58,7 @@ export default tseslint.config(
       "no-restricted-properties": ["error", { object: "process", property: "env", message: "Read settings through server/config.ts." }],
     },
   },
+
+  // layout is Prettier's (`npm run format`); no lint rule may disagree with it
+  eslintConfigPrettier,
 );
