@@ -20,7 +20,10 @@
 // Run: npm run bench -- load
 //   QB_LOAD_SECONDS=15      duration of each phase (baseline, then under import)
 //   QB_LOAD_ROWS=200000     attempt rows in the imported file
-//   QB_LOAD_DB=<file>       an already seeded demo database to copy (default: seed a fresh one)
+//   QB_LOAD_DB=<file>       an already seeded database to copy (default: seed a fresh demo one), e.g. a
+//                           generated large network (tests/fixtures/insight/generateNetwork.ts)
+//   QB_LOAD_QUARTER=2026-Q3 the quarter the pages ask for and the import's class falls in (a large network's
+//                           newest quarter)
 //   QB_LOAD_BASELINE=0      skip the baseline phase
 import { spawn, spawnSync } from "node:child_process";
 import fs from "node:fs";
@@ -37,6 +40,7 @@ import { loadConfig } from "../server/config";
 import { openDatabase } from "../server/db/client";
 import { DEMO_SCENARIO } from "../server/demo/scenario";
 import { createUser } from "../server/users/service";
+import { quarterDates } from "../shared/period";
 
 /** The part of autocannon's API used here (the package ships no types). */
 interface LoadResult {
@@ -65,7 +69,7 @@ const CONNECTIONS = 20;
 /** A hard stop for the whole run, whatever happens. */
 const MAX_RUN_MS = 20 * 60 * 1000;
 const DEMO_TODAY = "2026-09-30";
-const QUARTER = "2026-Q3";
+const QUARTER = process.env.QB_LOAD_QUARTER ?? "2026-Q3";
 /** The server's event-loop delay is sampled this often; a delay beyond it is time the loop was blocked. */
 const LOOP_RESOLUTION_MS = 10;
 /** What each role opens, as the pages ask for it (the period is written into the URL). */
@@ -81,7 +85,8 @@ const EXPORT = `/api/attempts.csv?quarter=${QUARTER}`;
 type Role = "coordinator" | "quality_lead" | "instructor";
 const pagesOf = (role: Role): string[] =>
   role === "instructor" ? [PAGES.overview, PAGES.standing, PAGES.attempts] : [PAGES.overview, PAGES.errors, PAGES.instructors, PAGES.attempts];
-const CLASS_DATE = "2026-09-15";
+/** The imported class's date: the 15th of the quarter's first month. */
+const CLASS_DATE = `${quarterDates(QUARTER).first.slice(0, 8)}15`;
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 const serving = process.argv[2] === "--serve";
@@ -247,9 +252,13 @@ async function signInUsers(base: string, accounts: Reader[]): Promise<{ cookie: 
   return cookies;
 }
 
+/** The mix of readers the demo network has: one coordinator, seven quality leads, the rest instructors. */
+const MIX: Record<Role, number> = { coordinator: 1, quality_lead: 7, instructor: USERS - 8 };
+
 /**
- * `USERS` accounts that may read the overview: the demo's own, then an account for each instructor without
- * one, then quality leads, all with the demo password (in this copy only).
+ * `USERS` accounts that may read the overview, in the demo's mix: the database's own first, then new accounts
+ * (an instructor's for each instructor without one) until each role has its share, all with the demo password
+ * (in this copy only). A generated network without users gets the same mix as the demo.
  */
 async function readers(db: ReturnType<typeof openDatabase>): Promise<Reader[]> {
   const sqlite = db.$client;
@@ -258,17 +267,25 @@ async function readers(db: ReturnType<typeof openDatabase>): Promise<Reader[]> {
     .prepare("SELECT id FROM instructors WHERE active = 1 AND id NOT IN (SELECT instructor_id FROM users WHERE instructor_id IS NOT NULL) ORDER BY id")
     .pluck()
     .all() as number[];
-  for (let n = 1; accounts().length < USERS; n++) {
-    const instructorId = free.shift() ?? null;
-    await createUser(db, {
-      email: `load-reader-${n}@bench.example`,
-      displayName: `Load reader ${n}`,
-      role: instructorId === null ? "quality_lead" : "instructor",
-      instructorId,
-      password: DEMO_SCENARIO.demoPassword,
-    });
+  const chosen: Reader[] = [];
+  let n = 0;
+  for (const role of Object.keys(MIX) as Role[]) {
+    const own = accounts().filter((a) => a.role === role);
+    while (own.length < MIX[role] && (role !== "instructor" || free.length > 0)) {
+      n++;
+      const email = `load-reader-${n}@bench.example`;
+      await createUser(db, {
+        email,
+        displayName: `Load reader ${n}`,
+        role,
+        instructorId: role === "instructor" ? free.shift()! : null,
+        password: DEMO_SCENARIO.demoPassword,
+      });
+      own.push({ email, role });
+    }
+    chosen.push(...own.slice(0, MIX[role]));
   }
-  return accounts().slice(0, USERS);
+  return chosen;
 }
 
 // ---------- load ----------

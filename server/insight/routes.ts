@@ -16,6 +16,7 @@ import { filtersKey, resolveFilters } from "./filters";
 import { filterOptions } from "./options";
 import { sendAnswer } from "../offThread/pool";
 import { viewerKey, viewerOf } from "./viewer";
+import { drainedOrClosed } from "../http/drained";
 
 const rowIdSchema = z.string().trim().min(1, "Give an id").max(100, "An id has at most 100 characters");
 
@@ -104,7 +105,7 @@ export function insightRoutes(db: Db): Router {
     try {
       await writeAttemptsCsv(db.$client.name, filters, search, {
         write: (text) => res.write(text),
-        drained: () => new Promise((resolve) => res.once("drain", resolve).once("close", resolve)),
+        drained: () => drainedOrClosed(res),
         closed: () => res.destroyed,
       });
     } catch (err) {
