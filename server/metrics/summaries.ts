@@ -94,7 +94,8 @@ type ScopedTable = typeof attemptTallies | typeof attemptValues | typeof learner
 
 /** The scope as conditions on any summary table that carries every dimension. */
 export function scopeConditions(table: ScopedTable, scope: SummaryScope): SQL {
-  const parts: SQL[] = [between(table.quarter, scope.from, scope.to)];
+  // one quarter as an equality: the summaries' keys then hand over their rows in key order, with no sort
+  const parts: SQL[] = [scope.from === scope.to ? eq(table.quarter, scope.from) : between(table.quarter, scope.from, scope.to)];
   if (scope.siteId !== null) parts.push(eq(table.siteId, scope.siteId));
   if (scope.profile !== null) parts.push(sql`${table.profile} = ${scope.profile}`);
   if (scope.feedback !== null) parts.push(sql`${table.feedback} = ${scope.feedback}`);
@@ -340,38 +341,34 @@ export type StratumKey = `${string}|${string}`;
  * read of the scope, instead of one read per stratum: keyed by instructor id, then stratum.
  */
 export function valueCountsByInstructorStratum(db: Db, metric: SummaryMetric, scope: SummaryScope): Map<number, Map<StratumKey, ValueCounts>> {
+  // grouped in the primary key's order (instructor, value, then stratum), so within a quarter SQLite reads the
+  // groups off the key without a sort; each stratum's values still arrive in ascending order
   const { sql: text, params } = db
     .select({
       instructorId: attemptValues.instructorId,
+      value: attemptValues.value,
       profile: attemptValues.profile,
       feedback: attemptValues.feedback,
-      value: attemptValues.value,
       count: sql<number>`sum(${attemptValues.count})`,
     })
     .from(attemptValues)
     .where(and(eq(attemptValues.metric, metric), scopeConditions(attemptValues, scope)))
-    .groupBy(attemptValues.instructorId, attemptValues.profile, attemptValues.feedback, attemptValues.value)
-    .orderBy(attemptValues.instructorId, attemptValues.profile, attemptValues.feedback, attemptValues.value)
+    .groupBy(attemptValues.instructorId, attemptValues.value, attemptValues.profile, attemptValues.feedback)
+    .orderBy(attemptValues.instructorId, attemptValues.value, attemptValues.profile, attemptValues.feedback)
     .toSQL();
   const byInstructor = new Map<number, Map<StratumKey, ValueCounts>>();
   let strata = new Map<StratumKey, ValueCounts>();
-  let current: ValueCounts = [];
   let lastInstructor: number | undefined;
-  let lastStratum: StratumKey | undefined;
-  for (const [instructorId, profile, feedback, value, count] of db.$client.prepare(text).raw(true).iterate(...params) as Iterable<[number, string, string, number, number]>) {
+  for (const [instructorId, value, profile, feedback, count] of db.$client.prepare(text).raw(true).iterate(...params) as Iterable<[number, number, string, string, number]>) {
     if (instructorId !== lastInstructor) {
       strata = new Map();
       byInstructor.set(instructorId, strata);
       lastInstructor = instructorId;
-      lastStratum = undefined;
     }
     const stratum: StratumKey = `${profile}|${feedback}`;
-    if (stratum !== lastStratum) {
-      current = [];
-      strata.set(stratum, current);
-      lastStratum = stratum;
-    }
-    current.push({ value, count });
+    let counts = strata.get(stratum);
+    if (!counts) strata.set(stratum, (counts = []));
+    counts.push({ value, count });
   }
   return byInstructor;
 }
@@ -399,15 +396,16 @@ export function quartersWithAttempts(db: Db): string[] {
 /** Attempts and judged attempts (those with an instructor's result) for each combination of `dimensions`, over every quarter. */
 export function countsByGrid(db: Db, dimensions: readonly Dimension[]): { key: (string | number)[]; n: number; judged: number }[] {
   const columns = dimensions.map((dimension) => attemptTallies[dimension]);
-  const keyFields = Object.fromEntries(columns.map((column, i) => [`k${i}`, column]));
-  const rows = db
+  const { sql: text, params } = db
     .select({
-      ...keyFields,
+      ...Object.fromEntries(columns.map((column, i) => [`k${i}`, column])),
       n: sql<number>`sum(${attemptTallies.n})`,
       judged: sql<number>`sum(${attemptTallies.judgedPp} + ${attemptTallies.judgedPf} + ${attemptTallies.judgedFp} + ${attemptTallies.judgedFf})`,
     })
     .from(attemptTallies)
     .groupBy(...columns)
-    .all() as Record<string, unknown>[];
-  return rows.map((row) => ({ key: columns.map((_, i) => row[`k${i}`] as string | number), n: Number(row.n), judged: Number(row.judged) }));
+    .toSQL();
+  // raw rows: tens of thousands of cells at a million attempts, read on every change of the data
+  const rows = db.$client.prepare(text).raw(true).all(...params) as (string | number)[][];
+  return rows.map((row) => ({ key: row.slice(0, columns.length), n: Number(row[columns.length]), judged: Number(row[columns.length + 1]) }));
 }
