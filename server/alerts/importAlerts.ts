@@ -15,7 +15,7 @@ import { alertDeliveries, instructors, sites, users } from "../db/schema";
 import { MailNotConfiguredError, type Mailer } from "../mail/mailer";
 import { logImportAlerts } from "../logging/events";
 import type { Logger } from "../logging/logger";
-import { signalsFor, type Recipient } from "./audience";
+import { chosenKinds, signalsFor, type Recipient } from "./audience";
 import { monthLabel, monthsLabel, scopeLabel, signalLine, signalLink } from "./signalLines";
 import { answerText } from "../offThread/pool";
 import { currentSignals, signalList, signalsOf, type Signals, type TaggedSignal } from "./signals";
@@ -95,7 +95,13 @@ export function digestText(signals: Signals): string {
 }
 
 /** `signals`: those holding now, when the caller worked them out already (off the event loop); else read here. */
+/** Whether any active user would receive a digest: without one, the network-wide checks are not worth running. */
+export function anyoneReceivesAlerts(db: Db): boolean {
+  return recipients(db).some((recipient) => chosenKinds(recipient.role, recipient.alertKinds).length > 0);
+}
+
 export async function sendImportAlerts(db: Db, mailer: Mailer, asOf: string = today(), signals?: Signals): Promise<AlertOutcome> {
+  if (!anyoneReceivesAlerts(db)) return { status: "nothing-new" };
   const list = signalList(signals ?? currentSignals(db, asOf));
   if (list.length === 0) return { status: "nothing-new" };
   const delivered = new Set<string>();
@@ -133,6 +139,7 @@ function recordDeliveries(db: Db, recipient: Recipient, fresh: readonly TaggedSi
 /** Runs the digest without holding up the import it follows; the outcome goes on the log, never an exception. */
 export function alertAfterImport(db: Db, mailer: Mailer, logger: Logger): Promise<void> {
   const asOf = today();
+  if (!anyoneReceivesAlerts(db)) return Promise.resolve();
   // the signals read the whole network: worked out in the answer worker, so the server keeps answering meanwhile
   return Promise.resolve(answerText(db, `signals|${asOf}`, "signals", [asOf]))
     .then((text) => sendImportAlerts(db, mailer, asOf, JSON.parse(text) as Signals))

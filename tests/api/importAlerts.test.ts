@@ -8,9 +8,9 @@ import { jobResponseSchema } from "../../shared/import/api";
 import { createApp } from "../../server/app";
 import { loadConfig } from "../../server/config";
 import { sendImportAlerts } from "../../server/alerts/importAlerts";
-import { currentSignals } from "../../server/alerts/signals";
+import { currentSignals, signalList } from "../../server/alerts/signals";
 import type { Db } from "../../server/db/client";
-import { mailbox } from "../../server/db/schema";
+import { alertDeliveries, mailbox, users } from "../../server/db/schema";
 import { importFiles } from "../../server/imports/service";
 import { startLocalMailService, type LocalMailService } from "../../server/mail/localService";
 import { createMailer } from "../../server/mail/mailer";
@@ -90,6 +90,24 @@ describe("after an import", () => {
     } finally {
       await later.close();
       other.$client.close();
+    }
+  });
+});
+
+describe("when nobody receives alerts", () => {
+  it("sends and records nothing, though signals hold", async () => {
+    const db = makeTestDb();
+    await seedInsightNetwork(db);
+    expect(signalList(currentSignals(db, "2026-07-01")).length).toBeGreaterThan(0);
+    db.update(users).set({ alertKinds: [] }).run();
+    const mail = await startLocalMailService(db, { port: 0 });
+    try {
+      expect(await sendImportAlerts(db, createMailer(mail.url), "2026-07-01")).toEqual({ status: "nothing-new" });
+      expect(received(db)).toEqual([]);
+      expect(db.select().from(alertDeliveries).all()).toEqual([]);
+    } finally {
+      await mail.close();
+      db.$client.close();
     }
   });
 });
