@@ -256,6 +256,11 @@ function cellContent<Row>(column: Column<Row>, row: Row): ReactNode {
   return column.render ? column.render(row) : displayText(column.value(row));
 }
 
+/** A value column left empty ("") for this row: a table shows the blank cell, a card leaves the line out. */
+function notApplicable<Row>(column: Column<Row>, row: Row): boolean {
+  return column.render === undefined && column.value(row) === "";
+}
+
 /** Phones: one card per row, titled by the primary column, the other columns as label–value pairs. */
 function CardList<Row>({ caption, columns, rows, rowKey, emptyText }: { caption: string; columns: readonly Column<Row>[]; rows: readonly Row[]; rowKey: (row: Row) => string | number; emptyText: string }) {
   const primary = columns.find((c) => c.primary) ?? columns[0];
@@ -268,7 +273,7 @@ function CardList<Row>({ caption, columns, rows, rowKey, emptyText }: { caption:
         <li key={rowKey(row)} className="rounded-card border border-line bg-surface p-4 shadow-card">
           <p className="font-semibold">{cellContent(primary, row)}</p>
           <dl className="mt-2 grid grid-cols-[minmax(6rem,auto)_1fr] gap-x-4 gap-y-1 text-small">
-            {details.map((column) => (
+            {details.filter((column) => !notApplicable(column, row)).map((column) => (
               <div key={column.key} className="contents">
                 <dt className="text-muted">{column.header}</dt>
                 <dd className="min-w-0 break-words">{cellContent(column, row)}</dd>

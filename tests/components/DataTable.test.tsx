@@ -120,4 +120,26 @@ describe("the phone's sort choice", () => {
     const options = within(screen.getByLabelText("Sort by")).getAllByRole("option").map((o) => o.textContent);
     expect(options).toEqual(["As listed", "Date, oldest first", "Date, newest first", "Site, A to Z", "Site, Z to A", "Learners, lowest first", "Learners, highest first"]);
   });
+  it("leaves a line that does not apply to a row out of its phone card, and keeps a missing value as a dash", () => {
+    const events = [
+      { id: "e1", event: "Fault", resolved: "No", note: null },
+      { id: "e2", event: "Cleaned", resolved: "", note: null },
+    ];
+    render(
+      <DataTable
+        caption="Log"
+        columns={[
+          { key: "event", header: "Event", value: (r) => r.event },
+          { key: "resolved", header: "Fault resolved", value: (r) => r.resolved },
+          { key: "note", header: "Note", value: (r) => r.note },
+        ]}
+        rows={events}
+        rowKey={(r) => r.id}
+      />,
+    );
+    const [fault, cleaned] = within(screen.getByRole("list", { name: "Log" })).getAllByRole("listitem");
+    expect(within(fault).getByText("Fault resolved")).toBeTruthy();
+    expect(within(cleaned).queryByText("Fault resolved")).toBeNull();
+    expect(within(cleaned).getByText("Note")).toBeTruthy();
+  });
 });
