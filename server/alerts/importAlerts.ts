@@ -136,15 +136,29 @@ function recordDeliveries(db: Db, recipient: Recipient, fresh: readonly TaggedSi
     .run();
 }
 
-/** Runs the digest without holding up the import it follows; the outcome goes on the log, never an exception. */
+/** The digest still running for each database: the next one waits for it (see alertAfterImport). */
+const digestInFlight = new WeakMap<Db, Promise<void>>();
+
+/**
+ * Runs the digest without holding up the import it follows; the outcome goes on the log, never an exception.
+ * Digests of one database run one after another: two imports that finish together would otherwise both find
+ * a signal unsent to someone and both mail it.
+ */
 export function alertAfterImport(db: Db, mailer: Mailer, logger: Logger): Promise<void> {
+  const previous = digestInFlight.get(db) ?? Promise.resolve();
+  const next = previous.then(() => runDigest(db, mailer, logger));
+  digestInFlight.set(db, next);
+  return next;
+}
+
+function runDigest(db: Db, mailer: Mailer, logger: Logger): Promise<void> {
   const asOf = today();
   if (!anyoneReceivesAlerts(db)) return Promise.resolve();
   // the signals read the whole network: worked out in the answer worker, so the server keeps answering meanwhile
   return Promise.resolve(answerText(db, `signals|${asOf}`, "signals", [asOf]))
     .then((text) => sendImportAlerts(db, mailer, asOf, JSON.parse(text) as Signals))
     .then(
-    (outcome) => logImportAlerts(logger, outcome),
-    () => logImportAlerts(logger, { status: "failed" }),
-  );
+      (outcome) => logImportAlerts(logger, outcome),
+      () => logImportAlerts(logger, { status: "failed" }),
+    );
 }

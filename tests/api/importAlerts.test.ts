@@ -7,7 +7,8 @@ import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { jobResponseSchema } from "../../shared/import/api";
 import { createApp } from "../../server/app";
 import { loadConfig } from "../../server/config";
-import { sendImportAlerts } from "../../server/alerts/importAlerts";
+import { alertAfterImport, sendImportAlerts } from "../../server/alerts/importAlerts";
+import { createLogger } from "../../server/logging/logger";
 import { currentSignals, signalList } from "../../server/alerts/signals";
 import type { Db } from "../../server/db/client";
 import { alertDeliveries, mailbox, users } from "../../server/db/schema";
@@ -105,6 +106,25 @@ describe("when nobody receives alerts", () => {
       expect(await sendImportAlerts(db, createMailer(mail.url), "2026-07-01")).toEqual({ status: "nothing-new" });
       expect(received(db)).toEqual([]);
       expect(db.select().from(alertDeliveries).all()).toEqual([]);
+    } finally {
+      await mail.close();
+      db.$client.close();
+    }
+  });
+});
+
+describe("two imports that finish together", () => {
+  it("mail each signal to each user once", async () => {
+    const db = makeTestDb();
+    await seedPeople(db);
+    await importFiles(db, { kind: "classes", inputs: [{ path: fixture("classes-valid.csv") }], source: "cli" });
+    const mail = await startLocalMailService(db, { port: 0 });
+    try {
+      const mailer = createMailer(mail.url);
+      const logger = createLogger({ logLevel: "silent", nodeEnv: "test" });
+      await Promise.all([alertAfterImport(db, mailer, logger), alertAfterImport(db, mailer, logger)]);
+      // the class log's three manikins are due for service: one digest each for the four receiving users
+      expect(received(db).map((m) => m.recipients).sort()).toEqual([["a1@test.example"], ["b1@test.example"], ["coord@test.example"], ["quality@test.example"]]);
     } finally {
       await mail.close();
       db.$client.close();
