@@ -5,6 +5,7 @@
 import { and, between, eq, sql, type SQL } from "drizzle-orm";
 import type { SQLiteColumn } from "drizzle-orm/sqlite-core";
 import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
+import { quartersBetween } from "../../shared/period";
 import type { Db } from "../db/client";
 import { attemptTallies, attemptValues, learnerTallies, networkTallies, networkValues } from "../db/schema";
 
@@ -307,6 +308,23 @@ function groupRows(db: Db, query: { toSQL(): { sql: string; params: unknown[] } 
   return byKey;
 }
 
+/**
+ * A per-instructor read over several quarters, one quarter at a time: within a quarter the summaries' key
+ * hands the rows over by instructor and value, so SQLite groups them without sorting; sorting a range's
+ * rows instead costs seconds at a million attempts. Each key's quarters are merged once, at the end.
+ */
+function quarterByQuarter<K>(scope: SummaryScope, read: (quarter: SummaryScope) => Map<K, ValueCounts>): Map<K, ValueCounts> {
+  const lists = new Map<K, ValueCounts[]>();
+  for (const quarter of quartersBetween(scope.from, scope.to)) {
+    for (const [key, counts] of read({ ...scope, from: quarter, to: quarter })) {
+      const list = lists.get(key);
+      if (list) list.push(counts);
+      else lists.set(key, [counts]);
+    }
+  }
+  return new Map([...lists].map(([key, list]) => [key, list.length === 1 ? list[0] : mergeCounts(...list)]));
+}
+
 /** The distribution of a metric for each value of `dimension`. */
 export function valueCountsBy<K extends string | number>(db: Db, metric: SummaryMetric, scope: SummaryScope, dimension: Exclude<Dimension, "policyVersion">): Map<K, ValueCounts> {
   if (isNetworkWide(scope) && (dimension === "quarter" || dimension === "profile" || dimension === "feedback")) {
@@ -320,6 +338,9 @@ export function valueCountsBy<K extends string | number>(db: Db, metric: Summary
         .groupBy(column, networkValues.value)
         .orderBy(column, networkValues.value),
     ) as Map<K, ValueCounts>;
+  }
+  if (dimension === "instructorId" && scope.from !== scope.to) {
+    return quarterByQuarter(scope, (one) => valueCountsBy<K>(db, metric, one, dimension));
   }
   const column = attemptValues[dimension];
   return groupRows(
