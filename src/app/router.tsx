@@ -3,7 +3,7 @@ import { Navigate, Outlet, type RouteObject } from "react-router";
 import { PageHeader } from "../components/PageHeader";
 import { LoadingState } from "../components/States";
 import { useSession } from "../features/auth/useSession";
-import SignInPage from "../pages/SignInPage";
+import SignInPage from "../features/auth/SignInPage";
 import { AppLayout } from "./AppLayout";
 import { RouteErrorPage } from "./RouteErrorPage";
 import { RouteGuard, useDocumentTitle } from "./RouteGuard";

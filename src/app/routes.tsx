@@ -3,9 +3,10 @@
 // navigation, so a role never sees a link it cannot open.
 //
 // To add a page:
-//   1. Write the page as the default export of src/pages/<Name>Page.tsx.
+//   1. Write the page as the default export of src/features/<feature>/<Name>Page.tsx, beside the feature's
+//      queries and components.
 //   2. Add one line below, in the order it should appear in the navigation, e.g.
-//        { path: "overview", title: "Network overview", group: "quality", permission: "readNetwork", page: lazy(() => import("../pages/OverviewPage")), landing: true },
+//        { path: "overview", title: "Network overview", group: "quality", permission: "readNetwork", page: lazy(() => import("../features/insight/overview/OverviewPage")), landing: true },
 //   Leave out `permission` for a page every signed-in user may open. `needs: "any"` asks for network-wide
 //   reach (a page about everyone's rows). `landing: true` makes the page a candidate for "/": each role
 //   starts on the first landing page (in table order) that it may use. `nav: false` hides the page from the
@@ -42,34 +43,34 @@ export interface AppRoute {
 }
 
 export const appRoutes: readonly AppRoute[] = [
-  { path: "my-standing", title: "My standing", group: "quality", permission: "readOwnStanding", page: lazy(() => import("../pages/MyStandingPage")), landing: true },
-  { path: "overview", title: "Network overview", group: "quality", permission: "readNetwork", page: lazy(() => import("../pages/OverviewPage")), landing: true },
-  { path: "instructors", title: "Instructors", group: "quality", permission: "drillDown", page: lazy(() => import("../pages/InstructorsPage")) },
-  { path: "instructors/:id", title: "Instructor", group: "quality", permission: "drillDown", nav: false, page: lazy(() => import("../pages/InstructorDetailPage")) },
-  { path: "classes/:id", title: "Class", group: "quality", permission: "readAttempts", nav: false, page: lazy(() => import("../pages/ClassDetailPage")) },
-  { path: "retention", title: "Skill retention", group: "quality", permission: "drillDown", page: lazy(() => import("../pages/RetentionPage")) },
-  { path: "calibration", title: "Judgement calibration", group: "quality", permission: "readCalibration", page: lazy(() => import("../pages/CalibrationPage")) },
-  { path: "errors", title: "Error trends", group: "quality", permission: "drillDown", page: lazy(() => import("../pages/ErrorTrendsPage")) },
-  { path: "attempts", title: "Attempts", group: "quality", permission: "readAttempts", page: lazy(() => import("../pages/AttemptsPage")) },
-  { path: "attempts/:id", title: "Attempt", group: "quality", permission: "readAttempts", nav: false, page: lazy(() => import("../pages/AttemptDetailPage")) },
-  { path: "actions", title: "Improvement actions", group: "quality", permission: "readActions", page: lazy(() => import("../pages/ActionsPage")) },
-  { path: "actions/:id", title: "Improvement action", group: "quality", permission: "readActions", nav: false, page: lazy(() => import("../pages/ActionDetailPage")) },
-  { path: "equipment", title: "Equipment", group: "quality", permission: "readEquipment", page: lazy(() => import("../pages/EquipmentPage")) },
-  { path: "equipment/manikins/:assetId", title: "Manikin", group: "quality", permission: "readEquipment", nav: false, page: lazy(() => import("../pages/ManikinPage")) },
-  { path: "report", title: "Funder report", group: "quality", permission: "readReport", page: lazy(() => import("../pages/ReportPage")), landing: true },
-  { path: "imports", title: "Imports", group: "data", permission: "importData", page: lazy(() => import("../pages/ImportsPage")) },
-  { path: "tracker", title: "Quarter tracker", group: "data", permission: "readTracker", page: lazy(() => import("../pages/QuarterTrackerPage")) },
-  { path: "settings", title: "Settings", group: "admin", permission: "readSettings", page: lazy(() => import("../pages/SettingsPage")) },
-  { path: "admin/users", title: "Users", group: "admin", permission: "manageUsers", page: lazy(() => import("../pages/UsersAdminPage")) },
-  { path: "admin/sites", title: "Sites and instructors", group: "admin", permission: "manageSites", page: lazy(() => import("../pages/SitesAdminPage")) },
-  { path: "outbox", title: "Outbox", group: "admin", permission: "sendReport", page: lazy(() => import("../pages/OutboxPage")) },
-  { path: "system", title: "System", group: "admin", permission: "readSystem", page: lazy(() => import("../pages/SystemPage")) },
-  { path: "alerts", title: "Alerts", group: "you", permission: "receiveImportAlerts", page: lazy(() => import("../pages/AlertsPage")) },
-  { path: "methods", title: "Methods", group: "quality", page: lazy(() => import("../pages/MethodsPage")) },
-  { path: "account", title: "My account", group: "you", page: lazy(() => import("../pages/AccountPage")), landing: true },
+  { path: "my-standing", title: "My standing", group: "quality", permission: "readOwnStanding", page: lazy(() => import("../features/insight/standing/MyStandingPage")), landing: true },
+  { path: "overview", title: "Network overview", group: "quality", permission: "readNetwork", page: lazy(() => import("../features/insight/overview/OverviewPage")), landing: true },
+  { path: "instructors", title: "Instructors", group: "quality", permission: "drillDown", page: lazy(() => import("../features/insight/instructors/InstructorsPage")) },
+  { path: "instructors/:id", title: "Instructor", group: "quality", permission: "drillDown", nav: false, page: lazy(() => import("../features/insight/instructors/InstructorDetailPage")) },
+  { path: "classes/:id", title: "Class", group: "quality", permission: "readAttempts", nav: false, page: lazy(() => import("../features/insight/classes/ClassDetailPage")) },
+  { path: "retention", title: "Skill retention", group: "quality", permission: "drillDown", page: lazy(() => import("../features/learners/RetentionPage")) },
+  { path: "calibration", title: "Judgement calibration", group: "quality", permission: "readCalibration", page: lazy(() => import("../features/learners/CalibrationPage")) },
+  { path: "errors", title: "Error trends", group: "quality", permission: "drillDown", page: lazy(() => import("../features/errors/ErrorTrendsPage")) },
+  { path: "attempts", title: "Attempts", group: "quality", permission: "readAttempts", page: lazy(() => import("../features/attempts/AttemptsPage")) },
+  { path: "attempts/:id", title: "Attempt", group: "quality", permission: "readAttempts", nav: false, page: lazy(() => import("../features/attempts/AttemptDetailPage")) },
+  { path: "actions", title: "Improvement actions", group: "quality", permission: "readActions", page: lazy(() => import("../features/actions/ActionsPage")) },
+  { path: "actions/:id", title: "Improvement action", group: "quality", permission: "readActions", nav: false, page: lazy(() => import("../features/actions/ActionDetailPage")) },
+  { path: "equipment", title: "Equipment", group: "quality", permission: "readEquipment", page: lazy(() => import("../features/equipment/EquipmentPage")) },
+  { path: "equipment/manikins/:assetId", title: "Manikin", group: "quality", permission: "readEquipment", nav: false, page: lazy(() => import("../features/equipment/ManikinPage")) },
+  { path: "report", title: "Funder report", group: "quality", permission: "readReport", page: lazy(() => import("../features/report/ReportPage")), landing: true },
+  { path: "imports", title: "Imports", group: "data", permission: "importData", page: lazy(() => import("../features/imports/ImportsPage")) },
+  { path: "tracker", title: "Quarter tracker", group: "data", permission: "readTracker", page: lazy(() => import("../features/tracker/QuarterTrackerPage")) },
+  { path: "settings", title: "Settings", group: "admin", permission: "readSettings", page: lazy(() => import("../features/settings/SettingsPage")) },
+  { path: "admin/users", title: "Users", group: "admin", permission: "manageUsers", page: lazy(() => import("../features/users/UsersAdminPage")) },
+  { path: "admin/sites", title: "Sites and instructors", group: "admin", permission: "manageSites", page: lazy(() => import("../features/sites/SitesAdminPage")) },
+  { path: "outbox", title: "Outbox", group: "admin", permission: "sendReport", page: lazy(() => import("../features/outbox/OutboxPage")) },
+  { path: "system", title: "System", group: "admin", permission: "readSystem", page: lazy(() => import("../features/system/SystemPage")) },
+  { path: "alerts", title: "Alerts", group: "you", permission: "receiveImportAlerts", page: lazy(() => import("../features/alerts/AlertsPage")) },
+  { path: "methods", title: "Methods", group: "quality", page: lazy(() => import("../features/methods/MethodsPage")) },
+  { path: "account", title: "My account", group: "you", page: lazy(() => import("../features/auth/AccountPage")), landing: true },
   // Development builds only: a gallery of the UI kit.
   ...(import.meta.env.DEV
-    ? [{ path: "kit", title: "UI kit", group: "you" as const, nav: false, page: lazy(() => import("../pages/dev/KitPreviewPage")) }]
+    ? [{ path: "kit", title: "UI kit", group: "you" as const, nav: false, page: lazy(() => import("../features/kit/KitPreviewPage")) }]
     : []),
 ];
 

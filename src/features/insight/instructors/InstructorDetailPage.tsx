@@ -2,26 +2,26 @@
 // median score, and the classes of the chosen quarter.
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import { useParams } from "react-router";
-import type { InstructorDetailAnswer, InstructorsAnswer, OverviewAnswer } from "../../shared/schemas/insight";
-import { ApiError } from "../api/http";
-import { BackLink } from "../components/BackLink";
-import { PageHeader } from "../components/PageHeader";
-import { SafetyNote } from "../components/SafetyNote";
-import { EmptyState } from "../components/States";
-import { ClassTable } from "../features/insight/ClassTable";
-import { MedianScoreTrendChart, PassRateTrendChart, type TrendRow } from "../features/insight/charts/InstructorTrendCharts";
-import { useAdjustMode } from "../features/insight/AdjustChoice";
-import { adjustNames } from "../../shared/vocabulary";
-import { PositionText } from "../features/insight/charts/FunnelChart";
-import { formatCount, formatPercent, formatScore } from "../features/insight/format";
-import { quarterLabel } from "../../shared/period";
-import { RateText } from "../features/insight/RateText";
-import { InsightFilters } from "../features/insight/InsightFilters";
-import { InstructorCalibration } from "../features/learners/CalibrationViews";
-import { learnerQueries } from "../features/learners/queries";
-import { QueryStatus } from "../features/insight/QueryStatus";
-import { insightQueries } from "../features/insight/queries";
-import type { InsightFilterState } from "../features/insight/useInsightFilters";
+import type { InstructorDetailAnswer, InstructorsAnswer, OverviewAnswer } from "../../../../shared/schemas/insight";
+import { ApiError } from "../../../api/http";
+import { BackLink } from "../../../components/BackLink";
+import { PageHeader } from "../../../components/PageHeader";
+import { SafetyNote } from "../../../components/SafetyNote";
+import { EmptyState } from "../../../components/States";
+import { ClassTable } from "../ClassTable";
+import { MedianScoreTrendChart, PassRateTrendChart, type TrendRow } from "../charts/InstructorTrendCharts";
+import { useAdjustMode } from "../AdjustChoice";
+import { adjustNames } from "../../../../shared/vocabulary";
+import { PositionText } from "../charts/FunnelChart";
+import { formatCount, formatPercent, formatScore } from "../format";
+import { quarterLabel } from "../../../../shared/period";
+import { RateText } from "../RateText";
+import { InsightFilters } from "../InsightFilters";
+import { InstructorCalibration } from "../../learners/CalibrationViews";
+import { learnerQueries } from "../../learners/queries";
+import { QueryStatus } from "../QueryStatus";
+import { insightQueries } from "../queries";
+import type { InsightFilterState } from "../useInsightFilters";
 
 export default function InstructorDetailPage() {
   const { id = "" } = useParams();

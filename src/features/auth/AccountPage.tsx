@@ -1,21 +1,21 @@
 // My account: who I am, my password, the unit lengths are shown in, and which alerts I am mailed after imports.
 import { useState } from "react";
 import { Link } from "react-router";
-import { lengthUnits, roleLabels } from "../../shared/domain";
-import { changePasswordSchema, type ChangePassword } from "../../shared/schemas/auth";
-import { formatLength, type LengthUnit } from "../../shared/units";
-import { Button } from "../components/Button";
-import { FormField } from "../components/FormField";
-import { FormShell } from "../components/FormShell";
-import { Notice } from "../components/Notice";
-import { PageHeader } from "../components/PageHeader";
-import { errorMessage } from "../components/States";
-import { AlertChoiceSection } from "../features/alerts/AlertChoiceSection";
-import { useChangePassword, useUpdateLengthUnit } from "../features/auth/mutations";
-import { useCan } from "../features/auth/useCan";
-import { useCurrentUser } from "../features/auth/useSession";
-import { lengthUnitNames } from "../lib/useLengthUnit";
-import { showServerError, useSchemaForm } from "../lib/useSchemaForm";
+import { lengthUnits, roleLabels } from "../../../shared/domain";
+import { changePasswordSchema, type ChangePassword } from "../../../shared/schemas/auth";
+import { formatLength, type LengthUnit } from "../../../shared/units";
+import { Button } from "../../components/Button";
+import { FormField } from "../../components/FormField";
+import { FormShell } from "../../components/FormShell";
+import { Notice } from "../../components/Notice";
+import { PageHeader } from "../../components/PageHeader";
+import { errorMessage } from "../../components/States";
+import { AlertChoiceSection } from "../alerts/AlertChoiceSection";
+import { useChangePassword, useUpdateLengthUnit } from "./mutations";
+import { useCan } from "./useCan";
+import { useCurrentUser } from "./useSession";
+import { lengthUnitNames } from "../../lib/useLengthUnit";
+import { showServerError, useSchemaForm } from "../../lib/useSchemaForm";
 
 export default function AccountPage() {
   const user = useCurrentUser();

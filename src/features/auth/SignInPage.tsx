@@ -1,19 +1,19 @@
 import { Navigate, useNavigate, useSearchParams } from "react-router";
-import { signInSchema, type SignIn } from "../../shared/schemas/auth";
-import { ApiError } from "../api/http";
-import { SkipLink } from "../app/AppLayout";
-import { useDocumentTitle } from "../app/RouteGuard";
-import { useRouteTable } from "../app/RouteTable";
-import { Button } from "../components/Button";
-import { FormField } from "../components/FormField";
-import { FormShell } from "../components/FormShell";
-import { Logo } from "../components/Logo";
-import { Notice } from "../components/Notice";
-import { LoadingState } from "../components/States";
-import { useSignIn } from "../features/auth/mutations";
-import { useSession } from "../features/auth/useSession";
-import { safeNextPath } from "../lib/safeNext";
-import { FORM_ERROR, showServerError, useSchemaForm } from "../lib/useSchemaForm";
+import { signInSchema, type SignIn } from "../../../shared/schemas/auth";
+import { ApiError } from "../../api/http";
+import { SkipLink } from "../../app/AppLayout";
+import { useDocumentTitle } from "../../app/RouteGuard";
+import { useRouteTable } from "../../app/RouteTable";
+import { Button } from "../../components/Button";
+import { FormField } from "../../components/FormField";
+import { FormShell } from "../../components/FormShell";
+import { Logo } from "../../components/Logo";
+import { Notice } from "../../components/Notice";
+import { LoadingState } from "../../components/States";
+import { useSignIn } from "./mutations";
+import { useSession } from "./useSession";
+import { safeNextPath } from "../../lib/safeNext";
+import { FORM_ERROR, showServerError, useSchemaForm } from "../../lib/useSchemaForm";
 
 /** One message for every wrong e-mail/password combination, so the form does not reveal which accounts exist. */
 export const wrongCredentialsMessage = "That e-mail address and password do not match an active account. Check both and try again.";

@@ -2,24 +2,24 @@
 // error its trend by quarter and where it happens, down to the attempts themselves.
 import { useQuery } from "@tanstack/react-query";
 import { useCallback } from "react";
-import { manikinPath } from "../features/equipment/links";
+import { manikinPath } from "../equipment/links";
 import { Link, useSearchParams } from "react-router";
-import type { FeedbackMode } from "../../shared/domain";
-import type { PatientType } from "../../shared/scoring/policy";
-import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
-import { Select } from "../components/Field";
-import { FilterBar, type FilterValues } from "../components/FilterBar";
-import { PageHeader } from "../components/PageHeader";
-import { EmptyState, ErrorState, LoadingState } from "../components/States";
-import { BreakdownPanel, type BreakdownRow } from "../features/errors/BreakdownPanel";
-import { ErrorTrendChart } from "../features/errors/ErrorTrendChart";
-import { ActionMarkList } from "../features/actions/ActionMarkList";
-import { ParetoChart } from "../features/errors/ParetoChart";
-import { errorQueries } from "../features/errors/queries";
-import { useActionMarks, type ChartScope } from "../features/actions/useActionMarks";
-import { linkParams, useInsightFilters, type InsightFilterState, type OptionalFilter } from "../features/insight/useInsightFilters";
-import { rangeLabel } from "../../shared/period";
-import { feedbackNames, patientTypeNames } from "../../shared/vocabulary";
+import type { FeedbackMode } from "../../../shared/domain";
+import type { PatientType } from "../../../shared/scoring/policy";
+import { attemptErrorNames, type AttemptError } from "../../../shared/scoring/scoreAttempt";
+import { Select } from "../../components/Field";
+import { FilterBar, type FilterValues } from "../../components/FilterBar";
+import { PageHeader } from "../../components/PageHeader";
+import { EmptyState, ErrorState, LoadingState } from "../../components/States";
+import { BreakdownPanel, type BreakdownRow } from "./BreakdownPanel";
+import { ErrorTrendChart } from "./ErrorTrendChart";
+import { ActionMarkList } from "../actions/ActionMarkList";
+import { ParetoChart } from "./ParetoChart";
+import { errorQueries } from "./queries";
+import { useActionMarks, type ChartScope } from "../actions/useActionMarks";
+import { linkParams, useInsightFilters, type InsightFilterState, type OptionalFilter } from "../insight/useInsightFilters";
+import { rangeLabel } from "../../../shared/period";
+import { feedbackNames, patientTypeNames } from "../../../shared/vocabulary";
 
 const filterKeys: readonly OptionalFilter[] = ["site", "patientType", "feedback", "instructor", "manikin"];
 
@@ -122,7 +122,7 @@ function ErrorTrends({ state }: { state: InsightFilterState }) {
   );
 }
 
-type Selected = NonNullable<import("../../shared/schemas/insight").ErrorsAnswer["selected"]>;
+type Selected = NonNullable<import("../../../shared/schemas/insight").ErrorsAnswer["selected"]>;
 
 function SelectedError({ selected, values, scope }: { selected: Selected; values: FilterValues; scope: ChartScope }) {
   const actions = useActionMarks(scope, selected.trend.map((row) => row.quarter));

@@ -2,21 +2,21 @@
 // consumables per 100 learners, and what is due for attention, judged against the network's thresholds.
 import { useQuery } from "@tanstack/react-query";
 import { Link } from "react-router";
-import type { EquipmentAnswer } from "../../shared/schemas/equipment";
-import { FilterBar } from "../components/FilterBar";
-import { PageHeader } from "../components/PageHeader";
-import { EmptyState, ErrorState, LoadingState } from "../components/States";
-import { formatCount, formatDay } from "../lib/formatting";
-import { useCan } from "../features/auth/useCan";
-import { AttentionList } from "../features/equipment/AttentionList";
-import { ConsumablesCharts } from "../features/equipment/ConsumablesChart";
-import { DriftSection } from "../features/equipment/DriftSection";
-import { FleetTable } from "../features/equipment/FleetTable";
-import { manikinPath } from "../features/equipment/links";
-import { equipmentQueries } from "../features/equipment/queries";
-import { UsageChart } from "../features/equipment/UsageChart";
-import { linkParams, useInsightFilters, type InsightFilterState, type OptionalFilter } from "../features/insight/useInsightFilters";
-import { rangeLabel } from "../../shared/period";
+import type { EquipmentAnswer } from "../../../shared/schemas/equipment";
+import { FilterBar } from "../../components/FilterBar";
+import { PageHeader } from "../../components/PageHeader";
+import { EmptyState, ErrorState, LoadingState } from "../../components/States";
+import { formatCount, formatDay } from "../../lib/formatting";
+import { useCan } from "../auth/useCan";
+import { AttentionList } from "./AttentionList";
+import { ConsumablesCharts } from "./ConsumablesChart";
+import { DriftSection } from "./DriftSection";
+import { FleetTable } from "./FleetTable";
+import { manikinPath } from "./links";
+import { equipmentQueries } from "./queries";
+import { UsageChart } from "./UsageChart";
+import { linkParams, useInsightFilters, type InsightFilterState, type OptionalFilter } from "../insight/useInsightFilters";
+import { rangeLabel } from "../../../shared/period";
 
 // an instructor's view is their own site already: no site filter
 const filterKeys: readonly OptionalFilter[] = ["site", "patientType", "manikin"];

@@ -3,22 +3,22 @@
 // anyone else's as missing.
 import { useQuery } from "@tanstack/react-query";
 import { Link, useLocation, useParams } from "react-router";
-import type { AttemptRow, ClassDetailAnswer } from "../../shared/schemas/insight";
-import { ApiError } from "../api/http";
-import { DataTable, type Column } from "../components/DataTable";
-import { PageHeader } from "../components/PageHeader";
-import { SafetyNote } from "../components/SafetyNote";
-import { EmptyState } from "../components/States";
-import { attemptHref } from "../features/attempts/returnPath";
-import { useCan } from "../features/auth/useCan";
-import { formatCount, formatPercent, formatScore, roundTo } from "../features/insight/format";
-import { formatDay, formatRecordedClock } from "../lib/formatting";
-import { quarterLabel } from "../../shared/period";
-import { QueryStatus } from "../features/insight/QueryStatus";
-import { RateText } from "../features/insight/RateText";
-import { insightQueries } from "../features/insight/queries";
-import { useLengthUnit } from "../lib/useLengthUnit";
-import { courseTypeNames, dimensionNames, errorLabels, errorShortNames, feedbackNames, patientTypeNames } from "../../shared/vocabulary";
+import type { AttemptRow, ClassDetailAnswer } from "../../../../shared/schemas/insight";
+import { ApiError } from "../../../api/http";
+import { DataTable, type Column } from "../../../components/DataTable";
+import { PageHeader } from "../../../components/PageHeader";
+import { SafetyNote } from "../../../components/SafetyNote";
+import { EmptyState } from "../../../components/States";
+import { attemptHref } from "../../attempts/returnPath";
+import { useCan } from "../../auth/useCan";
+import { formatCount, formatPercent, formatScore, roundTo } from "../format";
+import { formatDay, formatRecordedClock } from "../../../lib/formatting";
+import { quarterLabel } from "../../../../shared/period";
+import { QueryStatus } from "../QueryStatus";
+import { RateText } from "../RateText";
+import { insightQueries } from "../queries";
+import { useLengthUnit } from "../../../lib/useLengthUnit";
+import { courseTypeNames, dimensionNames, errorLabels, errorShortNames, feedbackNames, patientTypeNames } from "../../../../shared/vocabulary";
 
 type ClassAttempt = ClassDetailAnswer["attempts"][number];
 type Measured = Pick<AttemptRow["metrics"], "depthMm" | "rateCpm">;

@@ -2,12 +2,12 @@
 // coordinator can switch to every user's, each signal once with how many people it went to (?view=all).
 import { useQuery } from "@tanstack/react-query";
 import { Link, useSearchParams } from "react-router";
-import { Button } from "../components/Button";
-import { PageHeader } from "../components/PageHeader";
-import { ErrorState, LoadingState } from "../components/States";
-import { AlertHistoryTable } from "../features/alerts/AlertHistoryTable";
-import { alertQueries } from "../features/alerts/queries";
-import { useCan } from "../features/auth/useCan";
+import { Button } from "../../components/Button";
+import { PageHeader } from "../../components/PageHeader";
+import { ErrorState, LoadingState } from "../../components/States";
+import { AlertHistoryTable } from "./AlertHistoryTable";
+import { alertQueries } from "./queries";
+import { useCan } from "../auth/useCan";
 
 export default function AlertsPage() {
   const seesAll = useCan("readAllAlerts");

@@ -1,8 +1,8 @@
 // Methods (every signed-in role): how each figure is worked out, in plain words with its source, from the one
 // list in shared/methods.ts that docs/methods.md also gives.
-import { methodNotes } from "../../shared/methods";
-import { PageHeader } from "../components/PageHeader";
-import { SafetyNote } from "../components/SafetyNote";
+import { methodNotes } from "../../../shared/methods";
+import { PageHeader } from "../../components/PageHeader";
+import { SafetyNote } from "../../components/SafetyNote";
 
 export default function MethodsPage() {
   return (

@@ -4,14 +4,14 @@
 import { useQuery } from "@tanstack/react-query";
 import { useEffect, useRef } from "react";
 import { useSearchParams } from "react-router";
-import type { OutboxMessage } from "../../shared/schemas/report";
-import { Button } from "../components/Button";
-import { DataTable, type Column } from "../components/DataTable";
-import { PageHeader } from "../components/PageHeader";
-import { EmptyState, ErrorState, LoadingState } from "../components/States";
-import { formatDateTime } from "../lib/formatting";
-import { MessageView } from "../features/outbox/MessageView";
-import { outboxQueries } from "../features/outbox/queries";
+import type { OutboxMessage } from "../../../shared/schemas/report";
+import { Button } from "../../components/Button";
+import { DataTable, type Column } from "../../components/DataTable";
+import { PageHeader } from "../../components/PageHeader";
+import { EmptyState, ErrorState, LoadingState } from "../../components/States";
+import { formatDateTime } from "../../lib/formatting";
+import { MessageView } from "./MessageView";
+import { outboxQueries } from "./queries";
 
 export default function OutboxPage() {
   const messages = useQuery(outboxQueries.list());

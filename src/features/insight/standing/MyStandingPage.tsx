@@ -1,26 +1,26 @@
 // My standing (instructors): my medians and pass rate beside the network's, where I sit among instructors
 // (others anonymous), my point on the funnel, my errors against the network's and my classes.
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
-import type { StandingAnswer } from "../../shared/schemas/insight";
-import type { AttemptError } from "../../shared/scoring/scoreAttempt";
-import { PageHeader } from "../components/PageHeader";
-import { SafetyNote } from "../components/SafetyNote";
-import { ClassTable } from "../features/insight/ClassTable";
-import { ErrorProfileChart } from "../features/insight/charts/ErrorProfileChart";
-import { FunnelChart, type FunnelUnit } from "../features/insight/charts/FunnelChart";
-import { SpreadChart } from "../features/insight/charts/SpreadChart";
-import { formatCount, funnelPositionText } from "../features/insight/format";
-import { quarterLabel } from "../../shared/period";
-import { AdjustChoice, dispersionSentence, useAdjustMode } from "../features/insight/AdjustChoice";
-import { InsightFilters } from "../features/insight/InsightFilters";
-import { NoDataForFilters } from "../features/insight/NoDataForFilters";
-import { QueryStatus } from "../features/insight/QueryStatus";
-import { RateText } from "../features/insight/RateText";
-import { ErrorAttemptLinks } from "../features/insight/standing/ErrorAttemptLinks";
-import { StandingMetrics } from "../features/insight/standing/StandingMetrics";
-import { Suppressed } from "../features/insight/Suppressed";
-import { insightQueries } from "../features/insight/queries";
-import { linkParams, type InsightFilterState } from "../features/insight/useInsightFilters";
+import type { StandingAnswer } from "../../../../shared/schemas/insight";
+import type { AttemptError } from "../../../../shared/scoring/scoreAttempt";
+import { PageHeader } from "../../../components/PageHeader";
+import { SafetyNote } from "../../../components/SafetyNote";
+import { ClassTable } from "../ClassTable";
+import { ErrorProfileChart } from "../charts/ErrorProfileChart";
+import { FunnelChart, type FunnelUnit } from "../charts/FunnelChart";
+import { SpreadChart } from "../charts/SpreadChart";
+import { formatCount, funnelPositionText } from "../format";
+import { quarterLabel } from "../../../../shared/period";
+import { AdjustChoice, dispersionSentence, useAdjustMode } from "../AdjustChoice";
+import { InsightFilters } from "../InsightFilters";
+import { NoDataForFilters } from "../NoDataForFilters";
+import { QueryStatus } from "../QueryStatus";
+import { RateText } from "../RateText";
+import { ErrorAttemptLinks } from "./ErrorAttemptLinks";
+import { StandingMetrics } from "./StandingMetrics";
+import { Suppressed } from "../Suppressed";
+import { insightQueries } from "../queries";
+import { linkParams, type InsightFilterState } from "../useInsightFilters";
 
 export default function MyStandingPage() {
   return (

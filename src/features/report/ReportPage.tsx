@@ -5,23 +5,23 @@
 import { useQuery } from "@tanstack/react-query";
 import { useState } from "react";
 import { Link, useSearchParams } from "react-router";
-import { periodSchema, type ReportVersion } from "../../shared/schemas/report";
-import { Button } from "../components/Button";
-import { Notice } from "../components/Notice";
-import { PageHeader } from "../components/PageHeader";
-import { EmptyState, ErrorState, LoadingState } from "../components/States";
-import { useCan } from "../features/auth/useCan";
-import { NotesEditor } from "../features/report/NotesEditor";
-import { defaultPeriod, periodIsRunning, periodKindOf, periodLabel } from "../../shared/period";
-import { PeriodPicker } from "../features/report/PeriodPicker";
-import { insightQueries } from "../features/insight/queries";
-import { pdfUrl, reportQueries } from "../features/report/queries";
-import { ReportView } from "../features/report/ReportView";
-import { SendForm } from "../features/report/SendForm";
-import { SendHistory } from "../features/report/SendHistory";
-import { formatKb, VersionsPanel } from "../features/report/VersionsPanel";
-import { formatDateTime } from "../lib/formatting";
-import "../styles/print.css";
+import { periodSchema, type ReportVersion } from "../../../shared/schemas/report";
+import { Button } from "../../components/Button";
+import { Notice } from "../../components/Notice";
+import { PageHeader } from "../../components/PageHeader";
+import { EmptyState, ErrorState, LoadingState } from "../../components/States";
+import { useCan } from "../auth/useCan";
+import { NotesEditor } from "./NotesEditor";
+import { defaultPeriod, periodIsRunning, periodKindOf, periodLabel } from "../../../shared/period";
+import { PeriodPicker } from "./PeriodPicker";
+import { insightQueries } from "../insight/queries";
+import { pdfUrl, reportQueries } from "./queries";
+import { ReportView } from "./ReportView";
+import { SendForm } from "./SendForm";
+import { SendHistory } from "./SendHistory";
+import { formatKb, VersionsPanel } from "./VersionsPanel";
+import { formatDateTime } from "../../lib/formatting";
+import "../../styles/print.css";
 
 export default function ReportPage() {
   // who prepares and sends the report: the text for funders, versions and sending

@@ -3,23 +3,23 @@
 // of saved versions; rescoring past attempts under the version in force.
 import { useQuery } from "@tanstack/react-query";
 import { useState } from "react";
-import type { PolicySettingsAnswer } from "../../shared/schemas/policySettings";
-import { ApiError } from "../api/http";
-import { Notice } from "../components/Notice";
-import { PageHeader } from "../components/PageHeader";
-import { SafetyNote } from "../components/SafetyNote";
-import { ErrorState, LoadingState } from "../components/States";
-import { formatDateTime } from "../lib/formatting";
-import { useInsightOptions } from "../features/insight/useInsightFilters";
-import { useCan } from "../features/auth/useCan";
-import { useSavePolicy } from "../features/settings/mutations";
-import { PolicyForm, shortSourceName } from "../features/settings/PolicyForm";
-import { errorsByPath } from "../features/settings/policyFields";
-import { settingsQueries } from "../features/settings/queries";
-import { RescoreSection } from "../features/settings/RescoreSection";
-import { ChartBaselineSection } from "../features/settings/ChartBaselineSection";
-import { VersionList } from "../features/settings/VersionList";
-import { useLengthUnit } from "../lib/useLengthUnit";
+import type { PolicySettingsAnswer } from "../../../shared/schemas/policySettings";
+import { ApiError } from "../../api/http";
+import { Notice } from "../../components/Notice";
+import { PageHeader } from "../../components/PageHeader";
+import { SafetyNote } from "../../components/SafetyNote";
+import { ErrorState, LoadingState } from "../../components/States";
+import { formatDateTime } from "../../lib/formatting";
+import { useInsightOptions } from "../insight/useInsightFilters";
+import { useCan } from "../auth/useCan";
+import { useSavePolicy } from "./mutations";
+import { PolicyForm, shortSourceName } from "./PolicyForm";
+import { errorsByPath } from "./policyFields";
+import { settingsQueries } from "./queries";
+import { RescoreSection } from "./RescoreSection";
+import { ChartBaselineSection } from "./ChartBaselineSection";
+import { VersionList } from "./VersionList";
+import { useLengthUnit } from "../../lib/useLengthUnit";
 
 export default function SettingsPage() {
   const settings = useQuery(settingsQueries.policy());

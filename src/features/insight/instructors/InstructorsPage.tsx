@@ -3,18 +3,18 @@
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import { useCallback } from "react";
 import { Link, useSearchParams } from "react-router";
-import type { InstructorsAnswer } from "../../shared/schemas/insight";
-import { DataTable, type Column } from "../components/DataTable";
-import { PageHeader } from "../components/PageHeader";
-import { FunnelChart, PositionText, type FunnelUnit } from "../features/insight/charts/FunnelChart";
-import { formatCount, formatFixed, formatInterval, formatPercent, formatScore, funnelPositionText, percentValue, roundTo } from "../features/insight/format";
-import { quarterLabel } from "../../shared/period";
-import { AdjustChoice, dispersionSentence, useAdjustMode } from "../features/insight/AdjustChoice";
-import { InsightFilters } from "../features/insight/InsightFilters";
-import { NoDataForFilters } from "../features/insight/NoDataForFilters";
-import { QueryStatus } from "../features/insight/QueryStatus";
-import { insightQueries } from "../features/insight/queries";
-import type { InsightFilterState } from "../features/insight/useInsightFilters";
+import type { InstructorsAnswer } from "../../../../shared/schemas/insight";
+import { DataTable, type Column } from "../../../components/DataTable";
+import { PageHeader } from "../../../components/PageHeader";
+import { FunnelChart, PositionText, type FunnelUnit } from "../charts/FunnelChart";
+import { formatCount, formatFixed, formatInterval, formatPercent, formatScore, funnelPositionText, percentValue, roundTo } from "../format";
+import { quarterLabel } from "../../../../shared/period";
+import { AdjustChoice, dispersionSentence, useAdjustMode } from "../AdjustChoice";
+import { InsightFilters } from "../InsightFilters";
+import { NoDataForFilters } from "../NoDataForFilters";
+import { QueryStatus } from "../QueryStatus";
+import { insightQueries } from "../queries";
+import type { InsightFilterState } from "../useInsightFilters";
 
 type InstructorRow = InstructorsAnswer["instructors"][number];
 

@@ -1,13 +1,13 @@
 // Calibration: how an instructor's pass/fail agrees with the manikin's measurement. An instructor sees their
 // own, privately; the coordinator and the quality lead see every instructor.
 import { useQuery } from "@tanstack/react-query";
-import { PageHeader } from "../components/PageHeader";
-import { useCan } from "../features/auth/useCan";
-import { InsightFilters } from "../features/insight/InsightFilters";
-import { QueryStatus } from "../features/insight/QueryStatus";
-import type { InsightFilterState } from "../features/insight/useInsightFilters";
-import { AllCalibration, OwnCalibration } from "../features/learners/CalibrationViews";
-import { learnerQueries } from "../features/learners/queries";
+import { PageHeader } from "../../components/PageHeader";
+import { useCan } from "../auth/useCan";
+import { InsightFilters } from "../insight/InsightFilters";
+import { QueryStatus } from "../insight/QueryStatus";
+import type { InsightFilterState } from "../insight/useInsightFilters";
+import { AllCalibration, OwnCalibration } from "./CalibrationViews";
+import { learnerQueries } from "./queries";
 
 export default function CalibrationPage() {
   const seesAll = useCan("readCalibration", "any");

@@ -2,19 +2,19 @@
 // the whole result, with the columns the user chose. Quality leads and coordinators see the network's
 // attempts, instructors their own (the server keeps them to those). Reached from the error trends and from
 // My standing with the error already chosen; each attempt's page leads back here with the same filters.
-import { formatCount } from "../lib/formatting";
+import { formatCount } from "../../lib/formatting";
 import { useQuery } from "@tanstack/react-query";
 import { useEffect, useId, useMemo, useRef } from "react";
 import { useLocation, useSearchParams } from "react-router";
-import type { AttemptSortKey, SortDirection } from "../../shared/filters";
-import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
-import { attemptFieldNames } from "../../shared/vocabulary";
-import { Button } from "../components/Button";
-import { PhoneSortSelect, type Column } from "../components/DataTable";
-import { FilterBar, useFilterValues, type FilterDefinition } from "../components/FilterBar";
-import { PageHeader } from "../components/PageHeader";
-import { EmptyState, ErrorState, LoadingState } from "../components/States";
-import { attemptColumns, type AttemptColumn } from "../features/attempts/attemptColumns";
+import type { AttemptSortKey, SortDirection } from "../../../shared/filters";
+import { attemptErrorNames } from "../../../shared/scoring/scoreAttempt";
+import { attemptFieldNames } from "../../../shared/vocabulary";
+import { Button } from "../../components/Button";
+import { PhoneSortSelect, type Column } from "../../components/DataTable";
+import { FilterBar, useFilterValues, type FilterDefinition } from "../../components/FilterBar";
+import { PageHeader } from "../../components/PageHeader";
+import { EmptyState, ErrorState, LoadingState } from "../../components/States";
+import { attemptColumns, type AttemptColumn } from "./attemptColumns";
 import {
   attemptColumnKeys,
   attemptSearchQuery,
@@ -23,14 +23,14 @@ import {
   PAGE_SIZE,
   readAttemptListState,
   withChanges,
-} from "../features/attempts/attemptListState";
-import { AttemptSearchFields, type SearchValues } from "../features/attempts/AttemptSearchFields";
-import { AttemptsTable } from "../features/attempts/AttemptsTable";
-import { ColumnChooser } from "../features/attempts/ColumnChooser";
-import { attemptQueries, attemptsCsvPath, type AttemptSearchQuery } from "../features/attempts/queries";
-import { useCan } from "../features/auth/useCan";
-import { useInsightFilters, type InsightFilterState, type OptionalFilter } from "../features/insight/useInsightFilters";
-import { useLengthUnit } from "../lib/useLengthUnit";
+} from "./attemptListState";
+import { AttemptSearchFields, type SearchValues } from "./AttemptSearchFields";
+import { AttemptsTable } from "./AttemptsTable";
+import { ColumnChooser } from "./ColumnChooser";
+import { attemptQueries, attemptsCsvPath, type AttemptSearchQuery } from "./queries";
+import { useCan } from "../auth/useCan";
+import { useInsightFilters, type InsightFilterState, type OptionalFilter } from "../insight/useInsightFilters";
+import { useLengthUnit } from "../../lib/useLengthUnit";
 
 const filterKeys: readonly OptionalFilter[] = ["site", "patientType", "feedback", "instructor", "manikin"];
 

@@ -4,21 +4,21 @@
 import { useQuery } from "@tanstack/react-query";
 import type { ReactNode } from "react";
 import { Link, useParams } from "react-router";
-import type { ManikinRecord } from "../../shared/schemas/equipment";
-import { driftFlagNames, equipmentEventNames, patientTypeNames } from "../../shared/vocabulary";
-import { quarterLabel, rangeLabel } from "../../shared/period";
-import { ApiError } from "../api/http";
-import { DataTable, type Column } from "../components/DataTable";
-import { FilterBar } from "../components/FilterBar";
-import { BackLink } from "../components/BackLink";
-import { PageHeader } from "../components/PageHeader";
-import { SafetyNote } from "../components/SafetyNote";
-import { EmptyState, ErrorState, LoadingState } from "../components/States";
-import { formatCount, formatDay } from "../lib/formatting";
-import { AttentionList } from "../features/equipment/AttentionList";
-import { DriftEvidence, formatMm, formatThresholdMm, intervalMm } from "../features/equipment/DriftSection";
-import { equipmentQueries } from "../features/equipment/queries";
-import { linkParams, useInsightFilters, type InsightFilterState } from "../features/insight/useInsightFilters";
+import type { ManikinRecord } from "../../../shared/schemas/equipment";
+import { driftFlagNames, equipmentEventNames, patientTypeNames } from "../../../shared/vocabulary";
+import { quarterLabel, rangeLabel } from "../../../shared/period";
+import { ApiError } from "../../api/http";
+import { DataTable, type Column } from "../../components/DataTable";
+import { FilterBar } from "../../components/FilterBar";
+import { BackLink } from "../../components/BackLink";
+import { PageHeader } from "../../components/PageHeader";
+import { SafetyNote } from "../../components/SafetyNote";
+import { EmptyState, ErrorState, LoadingState } from "../../components/States";
+import { formatCount, formatDay } from "../../lib/formatting";
+import { AttentionList } from "./AttentionList";
+import { DriftEvidence, formatMm, formatThresholdMm, intervalMm } from "./DriftSection";
+import { equipmentQueries } from "./queries";
+import { linkParams, useInsightFilters, type InsightFilterState } from "../insight/useInsightFilters";
 
 export default function ManikinPage() {
   const { assetId = "" } = useParams();

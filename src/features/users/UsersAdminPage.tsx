@@ -1,20 +1,20 @@
 // Users (coordinator): every account, adding one, editing, deactivating and setting temporary passwords.
-import { formatDay } from "../lib/formatting";
+import { formatDay } from "../../lib/formatting";
 import { useQuery } from "@tanstack/react-query";
 import { useCallback, useMemo, useState } from "react";
-import { roleLabels } from "../../shared/domain";
-import type { UserRow } from "../../shared/schemas/users";
-import { ActiveBadge } from "../components/ActiveBadge";
-import { Button } from "../components/Button";
-import { DataTable, type Column } from "../components/DataTable";
-import { Dialog } from "../components/Dialog";
-import { Notice } from "../components/Notice";
-import { PageHeader } from "../components/PageHeader";
-import { ErrorState, LoadingState, errorMessage } from "../components/States";
-import { useCurrentUser } from "../features/auth/useSession";
-import { useUpdateUser } from "../features/users/mutations";
-import { userQueries } from "../features/users/queries";
-import { AddUserForm, EditUserForm, ResetPasswordForm } from "../features/users/UserForms";
+import { roleLabels } from "../../../shared/domain";
+import type { UserRow } from "../../../shared/schemas/users";
+import { ActiveBadge } from "../../components/ActiveBadge";
+import { Button } from "../../components/Button";
+import { DataTable, type Column } from "../../components/DataTable";
+import { Dialog } from "../../components/Dialog";
+import { Notice } from "../../components/Notice";
+import { PageHeader } from "../../components/PageHeader";
+import { ErrorState, LoadingState, errorMessage } from "../../components/States";
+import { useCurrentUser } from "../auth/useSession";
+import { useUpdateUser } from "./mutations";
+import { userQueries } from "./queries";
+import { AddUserForm, EditUserForm, ResetPasswordForm } from "./UserForms";
 
 type OpenDialog = { kind: "add" } | { kind: "edit"; user: UserRow } | { kind: "password"; user: UserRow } | null;
 type Message = { tone: "success" | "error"; text: string } | null;

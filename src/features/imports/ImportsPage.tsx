@@ -1,10 +1,10 @@
 // Imports (coordinators and instructors): bring class logs, attempts, compression streams and equipment
 // events in from CSV files, step by step, and see what every earlier import changed.
 import { useCallback, useState } from "react";
-import { PageHeader } from "../components/PageHeader";
-import { useCan } from "../features/auth/useCan";
-import { ImportHistory } from "../features/imports/ImportHistory";
-import { ImportWizard } from "../features/imports/ImportWizard";
+import { PageHeader } from "../../components/PageHeader";
+import { useCan } from "../auth/useCan";
+import { ImportHistory } from "./ImportHistory";
+import { ImportWizard } from "./ImportWizard";
 
 export default function ImportsPage() {
   const importsForEveryone = useCan("importData", "any");

@@ -2,16 +2,16 @@
 // arrived, when their class log was last imported, and how many refused rows still wait to be fixed.
 import { useQuery } from "@tanstack/react-query";
 import { useSearchParams } from "react-router";
-import { isQuarter, quarterLabel, quarterOfLocalDate, shiftQuarter } from "../../shared/period";
-import type { TrackerRow } from "../../shared/schemas/tracker";
-import { dimensionNames } from "../../shared/vocabulary";
-import { DataTable, type Column } from "../components/DataTable";
-import { Select } from "../components/Field";
-import { Notice } from "../components/Notice";
-import { PageHeader } from "../components/PageHeader";
-import { ErrorState, LoadingState } from "../components/States";
-import { formatDay } from "../lib/formatting";
-import { trackerQueries } from "../features/tracker/queries";
+import { isQuarter, quarterLabel, quarterOfLocalDate, shiftQuarter } from "../../../shared/period";
+import type { TrackerRow } from "../../../shared/schemas/tracker";
+import { dimensionNames } from "../../../shared/vocabulary";
+import { DataTable, type Column } from "../../components/DataTable";
+import { Select } from "../../components/Field";
+import { Notice } from "../../components/Notice";
+import { PageHeader } from "../../components/PageHeader";
+import { ErrorState, LoadingState } from "../../components/States";
+import { formatDay } from "../../lib/formatting";
+import { trackerQueries } from "./queries";
 
 const arrived = (count: number, unit: string) => (count > 0 ? `Arrived (${count} ${unit})` : "Missing");
 

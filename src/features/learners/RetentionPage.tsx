@@ -1,12 +1,12 @@
 // Retention (coordinator, quality lead): whether learners who come back for recertification pass their first
 // attempt, by months since their previous class — the network's own evidence for when refreshers are due.
 import { useQuery } from "@tanstack/react-query";
-import { PageHeader } from "../components/PageHeader";
-import { InsightFilters } from "../features/insight/InsightFilters";
-import { QueryStatus } from "../features/insight/QueryStatus";
-import type { InsightFilterState } from "../features/insight/useInsightFilters";
-import { learnerQueries } from "../features/learners/queries";
-import { RetentionView } from "../features/learners/RetentionView";
+import { PageHeader } from "../../components/PageHeader";
+import { InsightFilters } from "../insight/InsightFilters";
+import { QueryStatus } from "../insight/QueryStatus";
+import type { InsightFilterState } from "../insight/useInsightFilters";
+import { learnerQueries } from "./queries";
+import { RetentionView } from "./RetentionView";
 
 export default function RetentionPage() {
   return (

@@ -1,20 +1,20 @@
 // Sites and instructors (coordinator): the places of the network and the people who teach there.
 import { useQuery } from "@tanstack/react-query";
 import { useMemo, useState } from "react";
-import type { InstructorRow, SiteRow } from "../../shared/schemas/sites";
-import { ActiveBadge } from "../components/ActiveBadge";
-import { Button } from "../components/Button";
-import { DataTable, type Column } from "../components/DataTable";
-import { Dialog } from "../components/Dialog";
-import { Notice } from "../components/Notice";
-import { PageHeader } from "../components/PageHeader";
-import { ErrorState, LoadingState, errorMessage } from "../components/States";
-import { AddInstructorForm, ChangeSiteForm } from "../features/instructors/InstructorForms";
-import { useUpdateInstructor } from "../features/instructors/mutations";
-import { instructorQueries } from "../features/instructors/queries";
-import { AddSiteForm, RenameSiteForm } from "../features/sites/SiteForms";
-import { useUpdateSite } from "../features/sites/mutations";
-import { siteQueries } from "../features/sites/queries";
+import type { InstructorRow, SiteRow } from "../../../shared/schemas/sites";
+import { ActiveBadge } from "../../components/ActiveBadge";
+import { Button } from "../../components/Button";
+import { DataTable, type Column } from "../../components/DataTable";
+import { Dialog } from "../../components/Dialog";
+import { Notice } from "../../components/Notice";
+import { PageHeader } from "../../components/PageHeader";
+import { ErrorState, LoadingState, errorMessage } from "../../components/States";
+import { AddInstructorForm, ChangeSiteForm } from "../instructors/InstructorForms";
+import { useUpdateInstructor } from "../instructors/mutations";
+import { instructorQueries } from "../instructors/queries";
+import { AddSiteForm, RenameSiteForm } from "./SiteForms";
+import { useUpdateSite } from "./mutations";
+import { siteQueries } from "./queries";
 
 type OpenDialog =
   | { kind: "addSite" }

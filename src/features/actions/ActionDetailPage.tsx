@@ -3,19 +3,19 @@
 import { useQuery } from "@tanstack/react-query";
 import { useState } from "react";
 import { Link, useParams } from "react-router";
-import { actionStatusNames, actionWords, aimFigureName } from "../../shared/vocabulary";
-import { Button } from "../components/Button";
-import { Dialog } from "../components/Dialog";
-import { PageHeader } from "../components/PageHeader";
-import { ErrorState, LoadingState } from "../components/States";
-import { ActionEvaluation } from "../features/actions/ActionEvaluation";
-import { MonthlyRunChart } from "../features/actions/MonthlyRunChart";
-import { ActionForm } from "../features/actions/ActionForm";
-import { NoteForm } from "../features/actions/NoteForm";
-import { actionQueries } from "../features/actions/queries";
-import { scopeLabel } from "../../shared/actionScope";
-import { formatPercent } from "../features/insight/format";
-import { formatDay } from "../lib/formatting";
+import { actionStatusNames, actionWords, aimFigureName } from "../../../shared/vocabulary";
+import { Button } from "../../components/Button";
+import { Dialog } from "../../components/Dialog";
+import { PageHeader } from "../../components/PageHeader";
+import { ErrorState, LoadingState } from "../../components/States";
+import { ActionEvaluation } from "./ActionEvaluation";
+import { MonthlyRunChart } from "./MonthlyRunChart";
+import { ActionForm } from "./ActionForm";
+import { NoteForm } from "./NoteForm";
+import { actionQueries } from "./queries";
+import { scopeLabel } from "../../../shared/actionScope";
+import { formatPercent } from "../insight/format";
+import { formatDay } from "../../lib/formatting";
 
 export default function ActionDetailPage() {
   const { id = "" } = useParams();

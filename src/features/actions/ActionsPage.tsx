@@ -3,19 +3,19 @@
 import { useQuery } from "@tanstack/react-query";
 import { useState } from "react";
 import { Link, useNavigate } from "react-router";
-import type { ActionListRow } from "../../shared/schemas/actions";
-import { actionStatusNames, actionVerdictName, actionWords, aimFigureName } from "../../shared/vocabulary";
-import { Button } from "../components/Button";
-import { DataTable, type Column } from "../components/DataTable";
-import { Dialog } from "../components/Dialog";
-import { PageHeader } from "../components/PageHeader";
-import { SafetyNote } from "../components/SafetyNote";
-import { ErrorState, LoadingState } from "../components/States";
-import { ActionForm } from "../features/actions/ActionForm";
-import { actionQueries } from "../features/actions/queries";
-import { scopeLabel } from "../../shared/actionScope";
-import { formatPercent } from "../features/insight/format";
-import { formatDay } from "../lib/formatting";
+import type { ActionListRow } from "../../../shared/schemas/actions";
+import { actionStatusNames, actionVerdictName, actionWords, aimFigureName } from "../../../shared/vocabulary";
+import { Button } from "../../components/Button";
+import { DataTable, type Column } from "../../components/DataTable";
+import { Dialog } from "../../components/Dialog";
+import { PageHeader } from "../../components/PageHeader";
+import { SafetyNote } from "../../components/SafetyNote";
+import { ErrorState, LoadingState } from "../../components/States";
+import { ActionForm } from "./ActionForm";
+import { actionQueries } from "./queries";
+import { scopeLabel } from "../../../shared/actionScope";
+import { formatPercent } from "../insight/format";
+import { formatDay } from "../../lib/formatting";
 
 const columns: Column<ActionListRow>[] = [
   {

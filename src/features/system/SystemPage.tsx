@@ -1,15 +1,15 @@
 // System (coordinator): the installation's state in one place: program and schema, database size and growth,
 // backups with their verification, the last imports and mail. `quarterbeat system` prints the same answer.
 import { useQuery } from "@tanstack/react-query";
-import { Button } from "../components/Button";
-import { Notice } from "../components/Notice";
-import { PageHeader } from "../components/PageHeader";
-import { ErrorState, LoadingState } from "../components/States";
-import { BackupsSection } from "../features/system/BackupsSection";
-import { DatabaseSection } from "../features/system/DatabaseSection";
-import { ImportsSection } from "../features/system/ImportsSection";
-import { MailSection } from "../features/system/MailSection";
-import { systemQueries } from "../features/system/queries";
+import { Button } from "../../components/Button";
+import { Notice } from "../../components/Notice";
+import { PageHeader } from "../../components/PageHeader";
+import { ErrorState, LoadingState } from "../../components/States";
+import { BackupsSection } from "./BackupsSection";
+import { DatabaseSection } from "./DatabaseSection";
+import { ImportsSection } from "./ImportsSection";
+import { MailSection } from "./MailSection";
+import { systemQueries } from "./queries";
 
 export default function SystemPage() {
   const report = useQuery(systemQueries.report());
