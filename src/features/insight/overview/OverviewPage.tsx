@@ -9,7 +9,7 @@ import { SafetyNote } from "../../../components/SafetyNote";
 import { PassRateControlChart } from "../charts/PassRateControlChart";
 import { ChartBaselineCaption } from "../charts/ChartBaselineCaption";
 import { ChartSplitChoice } from "../charts/ChartSplitChoice";
-import { ErrorParetoChart } from "../charts/ErrorParetoChart";
+import { TechniqueErrorParetoChart } from "../charts/TechniqueErrorParetoChart";
 import { FeedbackComparisonChart } from "../charts/FeedbackComparisonChart";
 import { InsightFilters } from "../InsightFilters";
 import { NoDataForFilters } from "../NoDataForFilters";
@@ -115,7 +115,7 @@ export function OverviewContent({
               <NothingToChart title="Which errors matter most" text={`The errors are hidden: ${suppressedText(min)}.`} />
             </div>
           ) : (
-            <ErrorParetoChart rows={answer.errors.rows} attempts={answer.errors.attempts} examineHref={examineHref} />
+            <TechniqueErrorParetoChart rows={answer.errors.rows} attempts={answer.errors.attempts} examineHref={examineHref} />
           )}
           <div className="flex flex-col gap-2">
             <FeedbackComparisonChart groups={answer.feedback} minCount={min} />

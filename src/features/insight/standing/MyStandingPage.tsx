@@ -6,7 +6,7 @@ import type { AttemptError } from "../../../../shared/scoring/scoreAttempt";
 import { PageHeader } from "../../../components/PageHeader";
 import { SafetyNote } from "../../../components/SafetyNote";
 import { ClassTable } from "../ClassTable";
-import { ErrorProfileChart } from "../charts/ErrorProfileChart";
+import { TechniqueErrorProfileChart } from "../charts/TechniqueErrorProfileChart";
 import { FunnelChart, type FunnelUnit } from "../charts/FunnelChart";
 import { SpreadChart } from "../charts/SpreadChart";
 import { formatCount, funnelPositionText } from "../format";
@@ -16,7 +16,7 @@ import { InsightFilters } from "../InsightFilters";
 import { NoDataForFilters } from "../NoDataForFilters";
 import { QueryStatus } from "../QueryStatus";
 import { RateText } from "../RateText";
-import { ErrorAttemptLinks } from "./ErrorAttemptLinks";
+import { TechniqueErrorAttemptLinks } from "./TechniqueErrorAttemptLinks";
 import { StandingMetrics } from "./StandingMetrics";
 import { Suppressed } from "../Suppressed";
 import { insightQueries } from "../queries";
@@ -108,8 +108,8 @@ export function StandingContent({ answer, attemptsHref }: { answer: StandingAnsw
         <h2 id="errors-heading" className="text-title">
           Your errors
         </h2>
-        <ErrorProfileChart rows={answer.errorProfile.rows} networkSuppressed={networkHidden} minCount={min} attemptsHref={attemptsHref} />
-        <ErrorAttemptLinks rows={answer.errorProfile.rows} attemptsHref={attemptsHref} />
+        <TechniqueErrorProfileChart rows={answer.errorProfile.rows} networkSuppressed={networkHidden} minCount={min} attemptsHref={attemptsHref} />
+        <TechniqueErrorAttemptLinks rows={answer.errorProfile.rows} attemptsHref={attemptsHref} />
       </section>
 
       <section aria-labelledby="classes-heading" className="flex flex-col gap-3">

@@ -3,14 +3,14 @@
 import * as Plot from "@observablehq/plot";
 import { useCallback } from "react";
 import { Link } from "react-router";
-import type { ErrorsAnswer } from "../../../shared/schemas/insight";
+import type { TechniqueErrorsAnswer } from "../../../shared/schemas/insight";
 import { Chart, type ChartSize } from "../../components/Chart";
 import type { Column } from "../../components/DataTable";
 import { dusk, marigold } from "../../styles/palette";
 import { percent, percentNumber, wholeNumber } from "../attempts/labels";
 import { errorShortNames } from "../../../shared/vocabulary";
 
-export type ParetoRow = ErrorsAnswer["pareto"]["rows"][number];
+export type ParetoRow = TechniqueErrorsAnswer["pareto"]["rows"][number];
 
 export interface ParetoChartProps {
   rows: readonly ParetoRow[];

@@ -72,7 +72,7 @@ const paretoPlot = (rows: readonly ParetoRow[], { width }: ChartSize, examineHre
 };
 
 /** `examineHref`, for those who may drill down: each bar and table row opens the error's trend and breakdown. */
-export function ErrorParetoChart({ rows, attempts, title = "Which errors matter most", examineHref }: { rows: readonly ParetoRow[]; attempts: number | null; title?: string; examineHref?: (row: ParetoRow) => string }) {
+export function TechniqueErrorParetoChart({ rows, attempts, title = "Which errors matter most", examineHref }: { rows: readonly ParetoRow[]; attempts: number | null; title?: string; examineHref?: (row: ParetoRow) => string }) {
   const plot = useCallback((data: readonly ParetoRow[], size: ChartSize) => paretoPlot(data, size, examineHref), [examineHref]);
   const columns = useMemo<Column<ParetoRow>[]>(
     () =>

@@ -3,14 +3,14 @@
 import * as Plot from "@observablehq/plot";
 import { useCallback, useMemo } from "react";
 import { Link } from "react-router";
-import type { ErrorsAnswer } from "../../../shared/schemas/insight";
+import type { TechniqueErrorsAnswer } from "../../../shared/schemas/insight";
 import { wilsonInterval } from "../../../shared/stats/wilson";
 import { Chart, type ChartSize } from "../../components/Chart";
 import { DataTable, type Column } from "../../components/DataTable";
 import { dusk } from "../../styles/palette";
 import { percent, percentNumber } from "../attempts/labels";
 
-export type BreakdownRow = NonNullable<ErrorsAnswer["selected"]>["byProfile"][number];
+export type BreakdownRow = NonNullable<TechniqueErrorsAnswer["selected"]>["byProfile"][number];
 
 /** The chart shows at most this many groups (those with the most attempts with the error); the table shows all. */
 export const CHART_GROUPS = 15;

@@ -12,10 +12,10 @@ import { FilterBar, type FilterValues } from "../../components/FilterBar";
 import { PageHeader } from "../../components/PageHeader";
 import { EmptyState, ErrorState, LoadingState } from "../../components/States";
 import { BreakdownPanel, type BreakdownRow } from "./BreakdownPanel";
-import { ErrorTrendChart } from "./ErrorTrendChart";
+import { TechniqueErrorTrendChart } from "./TechniqueErrorTrendChart";
 import { ActionMarkList } from "../actions/ActionMarkList";
 import { ParetoChart } from "./ParetoChart";
-import { errorQueries } from "./queries";
+import { techniqueErrorQueries } from "./queries";
 import { useActionMarks, type ChartScope } from "../actions/useActionMarks";
 import { linkParams, useInsightFilters, type InsightFilterState, type OptionalFilter } from "../insight/useInsightFilters";
 import { rangeLabel } from "../../../shared/period";
@@ -23,7 +23,7 @@ import { feedbackNames, patientTypeNames } from "../../../shared/vocabulary";
 
 const filterKeys: readonly OptionalFilter[] = ["site", "patientType", "feedback", "instructor", "manikin"];
 
-export default function ErrorTrendsPage() {
+export default function TechniqueErrorsPage() {
   const { optionsQuery: options, state } = useInsightFilters(filterKeys, { ranges: true });
   return (
     <div>
@@ -38,7 +38,7 @@ export default function ErrorTrendsPage() {
       ) : !state ? (
         <EmptyState title="No attempts yet">Error trends appear once attempts have been imported.</EmptyState>
       ) : (
-        <ErrorTrends state={state} />
+        <TechniqueErrorTrends state={state} />
       )}
     </div>
   );
@@ -48,13 +48,13 @@ function isError(value: string | null): value is AttemptError {
   return value !== null && (attemptErrorNames as readonly string[]).includes(value);
 }
 
-function ErrorTrends({ state }: { state: InsightFilterState }) {
+function TechniqueErrorTrends({ state }: { state: InsightFilterState }) {
   const { options, definitions: filters, values } = state;
   const [params, setParams] = useSearchParams();
   const rawError = params.get("error");
   const error = isError(rawError) ? rawError : null;
   const query = { ...state.api, error: error ?? undefined };
-  const analysis = useQuery(errorQueries.analysis(query));
+  const analysis = useQuery(techniqueErrorQueries.analysis(query));
 
   const examineHref = useCallback(
     (row: { error: AttemptError }) => {
@@ -122,7 +122,7 @@ function ErrorTrends({ state }: { state: InsightFilterState }) {
   );
 }
 
-type Selected = NonNullable<import("../../../shared/schemas/insight").ErrorsAnswer["selected"]>;
+type Selected = NonNullable<import("../../../shared/schemas/insight").TechniqueErrorsAnswer["selected"]>;
 
 function SelectedError({ selected, values, scope }: { selected: Selected; values: FilterValues; scope: ChartScope }) {
   const actions = useActionMarks(scope, selected.trend.map((row) => row.quarter));
@@ -145,7 +145,7 @@ function SelectedError({ selected, values, scope }: { selected: Selected; values
           Only those with a compression stream
         </Link>
       </p>
-      <ErrorTrendChart label={selected.label} trend={selected.trend} actions={actions} quarterHref={quarterHref} />
+      <TechniqueErrorTrendChart label={selected.label} trend={selected.trend} actions={actions} quarterHref={quarterHref} />
       <ActionMarkList marks={actions} quarters={selected.trend.map((row) => row.quarter)} />
       <p className="text-small text-muted">
         With one quarter chosen, the trend shows the eight quarters up to it; with a longer period, each of its quarters. The other filters apply throughout. The groups below cover the chosen period only.

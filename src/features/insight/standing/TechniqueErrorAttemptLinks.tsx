@@ -3,10 +3,10 @@
 import { Link } from "react-router";
 import type { AttemptError } from "../../../../shared/scoring/scoreAttempt";
 import { errorShortNames } from "../../../../shared/vocabulary";
-import type { ErrorProfileRow } from "../charts/ErrorProfileChart";
+import type { TechniqueErrorProfileRow } from "../charts/TechniqueErrorProfileChart";
 import { formatPercent } from "../format";
 
-export function ErrorAttemptLinks({ rows, attemptsHref }: { rows: readonly ErrorProfileRow[]; attemptsHref: (error: AttemptError) => string }) {
+export function TechniqueErrorAttemptLinks({ rows, attemptsHref }: { rows: readonly TechniqueErrorProfileRow[]; attemptsHref: (error: AttemptError) => string }) {
   const mine = [...rows].filter((r) => r.mine !== null).sort((a, b) => (b.mine ?? 0) - (a.mine ?? 0));
   if (mine.length === 0) return null;
   return (

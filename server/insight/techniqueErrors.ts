@@ -1,18 +1,18 @@
-// Drill-down on errors: the Pareto for the filters and, for one chosen error, its quarterly trend and where
-// it happens (patient type, feedback mode, site, instructor, manikin).
-import type { ErrorsAnswer } from "../../shared/schemas/insight";
+// Drill-down on CPR technique errors (too shallow, too fast…): the Pareto for the filters and, for one chosen
+// error, its quarterly trend and where it happens (patient type, feedback mode, site, instructor, manikin).
+import type { TechniqueErrorsAnswer } from "../../shared/schemas/insight";
 import { type AttemptError } from "../../shared/scoring/scoreAttempt";
 import type { Db } from "../db/client";
 import { instructors, manikins, sites } from "../db/schema";
 import { talliesBy, totalTally, type Dimension, type SummaryScope } from "../metrics/summaries";
 import type { ResolvedFilters } from "./filters";
-import { errorPareto } from "./pareto";
+import { techniqueErrorPareto } from "./pareto";
 import { trendQuarters } from "../../shared/period";
 import { rateOf } from "./rates";
 import { scopeOf } from "./sql";
 import { errorLabels } from "../../shared/vocabulary";
 
-type Breakdown = NonNullable<ErrorsAnswer["selected"]>["byProfile"];
+type Breakdown = NonNullable<TechniqueErrorsAnswer["selected"]>["byProfile"];
 
 /** Attempts with `error` among the attempts of each value of `dimension`, most frequent first. */
 function breakdown(db: Db, scope: SummaryScope, dimension: Dimension, error: AttemptError, nameOf: (key: string | number | null) => string): Breakdown {
@@ -29,10 +29,10 @@ function codes(db: Db, table: typeof sites | typeof instructors): Map<number, st
   return new Map(db.select({ id: table.id, code: table.code }).from(table).all().map((row) => [row.id, row.code]));
 }
 
-export function errorAnalysis(db: Db, filters: ResolvedFilters, error: AttemptError | undefined): ErrorsAnswer {
+export function techniqueErrorAnalysis(db: Db, filters: ResolvedFilters, error: AttemptError | undefined): TechniqueErrorsAnswer {
   const scope = scopeOf(filters);
   const totals = totalTally(db, scope);
-  const answer: ErrorsAnswer = { period: filters.period, pareto: errorPareto(totals.errors, totals.n, false), selected: null };
+  const answer: TechniqueErrorsAnswer = { period: filters.period, pareto: techniqueErrorPareto(totals.errors, totals.n, false), selected: null };
   if (!error) return answer;
 
   const trend = trendQuarters(filters.period);

@@ -1,7 +1,7 @@
 import { cleanup, fireEvent, render, screen, within } from "@testing-library/react";
 import { MemoryRouter } from "react-router";
 import { afterEach, describe, expect, it } from "vitest";
-import { ParetoChart, type ParetoRow } from "../../src/features/errors/ParetoChart";
+import { ParetoChart, type ParetoRow } from "../../src/features/techniqueErrors/ParetoChart";
 
 afterEach(cleanup);
 

@@ -11,9 +11,9 @@ import { ink, percentTick, shareAxisTop } from "../chartStyle";
 import { formatPercent, formatPoints, percentValue, roundTo, suppressedText } from "../format";
 import { errorShortNames } from "../../../../shared/vocabulary";
 
-export type ErrorProfileRow = StandingAnswer["errorProfile"]["rows"][number];
+export type TechniqueErrorProfileRow = StandingAnswer["errorProfile"]["rows"][number];
 
-export function describeErrorProfile(rows: readonly ErrorProfileRow[], networkSuppressed: boolean, minCount: number): string {
+export function describeTechniqueErrorProfile(rows: readonly TechniqueErrorProfileRow[], networkSuppressed: boolean, minCount: number): string {
   const mine = rows.filter((r) => r.mine !== null);
   if (mine.length === 0) return "You have no attempts in this period.";
   const top = [...mine].sort((a, b) => (b.mine ?? 0) - (a.mine ?? 0))[0];
@@ -28,7 +28,7 @@ export function describeErrorProfile(rows: readonly ErrorProfileRow[], networkSu
 }
 
 /** `attemptsHref`, when given, makes each error a link to my attempts with it. */
-export function errorProfileColumns(networkSuppressed: boolean, minCount: number, attemptsHref?: (error: AttemptError) => string): Column<ErrorProfileRow>[] {
+export function techniqueErrorProfileColumns(networkSuppressed: boolean, minCount: number, attemptsHref?: (error: AttemptError) => string): Column<TechniqueErrorProfileRow>[] {
   return [
     {
       key: "label",
@@ -62,7 +62,7 @@ export function errorProfileColumns(networkSuppressed: boolean, minCount: number
   ];
 }
 
-const plot = (rows: readonly ErrorProfileRow[], { width }: ChartSize): Plot.PlotOptions => {
+const plot = (rows: readonly TechniqueErrorProfileRow[], { width }: ChartSize): Plot.PlotOptions => {
   const long = rows.flatMap((r) => [
     { name: errorShortNames[r.error], who: "You", share: r.mine },
     { name: errorShortNames[r.error], who: "Network", share: r.network },
@@ -93,13 +93,13 @@ const plot = (rows: readonly ErrorProfileRow[], { width }: ChartSize): Plot.Plot
   };
 };
 
-export function ErrorProfileChart({
+export function TechniqueErrorProfileChart({
   rows,
   networkSuppressed,
   minCount,
   attemptsHref,
 }: {
-  rows: readonly ErrorProfileRow[];
+  rows: readonly TechniqueErrorProfileRow[];
   networkSuppressed: boolean;
   minCount: number;
   attemptsHref?: (error: AttemptError) => string;
@@ -107,9 +107,9 @@ export function ErrorProfileChart({
   return (
     <Chart
       title="Your errors against the network's"
-      description={describeErrorProfile(rows, networkSuppressed, minCount)}
+      description={describeTechniqueErrorProfile(rows, networkSuppressed, minCount)}
       data={rows}
-      columns={errorProfileColumns(networkSuppressed, minCount, attemptsHref)}
+      columns={techniqueErrorProfileColumns(networkSuppressed, minCount, attemptsHref)}
       rowKey={(r) => r.error}
       plot={plot}
       exportFileName="error-profile"

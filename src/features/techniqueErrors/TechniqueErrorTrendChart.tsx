@@ -3,7 +3,7 @@ import * as Plot from "@observablehq/plot";
 import { useCallback } from "react";
 import type { ActionMark } from "../../../shared/schemas/actions";
 import { actionMarkLayers, describeActionMarks } from "../actions/chartMarks";
-import type { ErrorsAnswer } from "../../../shared/schemas/insight";
+import type { TechniqueErrorsAnswer } from "../../../shared/schemas/insight";
 import { Chart, type ChartSize } from "../../components/Chart";
 import type { Column } from "../../components/DataTable";
 import { dusk } from "../../styles/palette";
@@ -11,7 +11,7 @@ import { changeVerdict, proportionDifference } from "../../../shared/stats/diffe
 import { percent, percentNumber } from "../attempts/labels";
 import { quarterLabel } from "../../../shared/period";
 
-type TrendRow = NonNullable<ErrorsAnswer["selected"]>["trend"][number];
+type TrendRow = NonNullable<TechniqueErrorsAnswer["selected"]>["trend"][number];
 
 const columns: Column<TrendRow>[] = [
   { key: "quarter", header: "Quarter", value: (row) => row.quarter },
@@ -50,7 +50,7 @@ function trendPlot(data: readonly TrendRow[], { width }: ChartSize, actions: rea
 
 const noActions: readonly ActionMark[] = [];
 
-export function ErrorTrendChart({ label, trend, actions = noActions, quarterHref }: { label: string; trend: readonly TrendRow[]; actions?: readonly ActionMark[]; quarterHref?: (quarter: string) => string }) {
+export function TechniqueErrorTrendChart({ label, trend, actions = noActions, quarterHref }: { label: string; trend: readonly TrendRow[]; actions?: readonly ActionMark[]; quarterHref?: (quarter: string) => string }) {
   const plot = useCallback((data: readonly TrendRow[], size: ChartSize) => trendPlot(data, size, actions, quarterHref), [actions, quarterHref]);
   const shown = trend.filter((row) => row.share !== null);
   const first = shown[0];
