@@ -10,10 +10,15 @@
 //   Leave out `permission` for a page every signed-in user may open. `needs: "any"` asks for network-wide
 //   reach (a page about everyone's rows). `landing: true` makes the page a candidate for "/": each role
 //   starts on the first landing page (in table order) that it may use. `nav: false` hides the page from the
-//   navigation but still guards it.
+//   navigation but still guards it. `prefetch` starts the page's requests at navigation (the route's loader),
+//   so a page that needs the filter options does not ask for its answer only after they have arrived.
 import { lazy, type ComponentType, type LazyExoticComponent } from "react";
 import { userRoles, type UserRole } from "../../shared/domain";
 import { can, type Permission, type Reach } from "../../shared/permissions";
+import { optionsPrefetch, type PagePrefetch } from "../features/insight/prefetch";
+import { prefetchInstructor, prefetchInstructors, prefetchOverview, prefetchStanding } from "../features/insight/pageRequests";
+import { prefetchCalibration, prefetchRetention } from "../features/learners/pageRequests";
+import { prefetchTechniqueErrors } from "../features/techniqueErrors/pageRequests";
 
 export type NavGroup = "quality" | "data" | "admin" | "you";
 
@@ -40,23 +45,25 @@ export interface AppRoute {
   nav?: boolean;
   /** A page "/" may open for a role. */
   landing?: boolean;
+  /** Starts the page's requests when the router navigates to it, before the page's code has loaded. */
+  prefetch?: PagePrefetch;
 }
 
 export const appRoutes: readonly AppRoute[] = [
-  { path: "my-standing", title: "My standing", group: "quality", permission: "readOwnStanding", page: lazy(() => import("../features/insight/standing/MyStandingPage")), landing: true },
-  { path: "overview", title: "Network overview", group: "quality", permission: "readNetwork", page: lazy(() => import("../features/insight/overview/OverviewPage")), landing: true },
-  { path: "instructors", title: "Instructors", group: "quality", permission: "drillDown", page: lazy(() => import("../features/insight/instructors/InstructorsPage")) },
-  { path: "instructors/:id", title: "Instructor", group: "quality", permission: "drillDown", nav: false, page: lazy(() => import("../features/insight/instructors/InstructorDetailPage")) },
+  { path: "my-standing", title: "My standing", group: "quality", permission: "readOwnStanding", page: lazy(() => import("../features/insight/standing/MyStandingPage")), prefetch: prefetchStanding, landing: true },
+  { path: "overview", title: "Network overview", group: "quality", permission: "readNetwork", page: lazy(() => import("../features/insight/overview/OverviewPage")), prefetch: prefetchOverview, landing: true },
+  { path: "instructors", title: "Instructors", group: "quality", permission: "drillDown", page: lazy(() => import("../features/insight/instructors/InstructorsPage")), prefetch: prefetchInstructors },
+  { path: "instructors/:id", title: "Instructor", group: "quality", permission: "drillDown", nav: false, page: lazy(() => import("../features/insight/instructors/InstructorDetailPage")), prefetch: prefetchInstructor },
   { path: "classes/:id", title: "Class", group: "quality", permission: "readAttempts", nav: false, page: lazy(() => import("../features/insight/classes/ClassDetailPage")) },
-  { path: "retention", title: "Skill retention", group: "quality", permission: "drillDown", page: lazy(() => import("../features/learners/RetentionPage")) },
-  { path: "calibration", title: "Judgement calibration", group: "quality", permission: "readCalibration", page: lazy(() => import("../features/learners/CalibrationPage")) },
-  { path: "errors", title: "Error trends", group: "quality", permission: "drillDown", page: lazy(() => import("../features/techniqueErrors/TechniqueErrorsPage")) },
-  { path: "attempts", title: "Attempts", group: "quality", permission: "readAttempts", page: lazy(() => import("../features/attempts/AttemptsPage")) },
+  { path: "retention", title: "Skill retention", group: "quality", permission: "drillDown", page: lazy(() => import("../features/learners/RetentionPage")), prefetch: prefetchRetention },
+  { path: "calibration", title: "Judgement calibration", group: "quality", permission: "readCalibration", page: lazy(() => import("../features/learners/CalibrationPage")), prefetch: prefetchCalibration },
+  { path: "errors", title: "Error trends", group: "quality", permission: "drillDown", page: lazy(() => import("../features/techniqueErrors/TechniqueErrorsPage")), prefetch: prefetchTechniqueErrors },
+  { path: "attempts", title: "Attempts", group: "quality", permission: "readAttempts", page: lazy(() => import("../features/attempts/AttemptsPage")), prefetch: optionsPrefetch },
   { path: "attempts/:id", title: "Attempt", group: "quality", permission: "readAttempts", nav: false, page: lazy(() => import("../features/attempts/AttemptDetailPage")) },
   { path: "actions", title: "Improvement actions", group: "quality", permission: "readActions", page: lazy(() => import("../features/actions/ActionsPage")) },
   { path: "actions/:id", title: "Improvement action", group: "quality", permission: "readActions", nav: false, page: lazy(() => import("../features/actions/ActionDetailPage")) },
-  { path: "equipment", title: "Equipment", group: "quality", permission: "readEquipment", page: lazy(() => import("../features/equipment/EquipmentPage")) },
-  { path: "equipment/manikins/:assetId", title: "Manikin", group: "quality", permission: "readEquipment", nav: false, page: lazy(() => import("../features/equipment/ManikinPage")) },
+  { path: "equipment", title: "Equipment", group: "quality", permission: "readEquipment", page: lazy(() => import("../features/equipment/EquipmentPage")), prefetch: optionsPrefetch },
+  { path: "equipment/manikins/:assetId", title: "Manikin", group: "quality", permission: "readEquipment", nav: false, page: lazy(() => import("../features/equipment/ManikinPage")), prefetch: optionsPrefetch },
   { path: "report", title: "Funder report", group: "quality", permission: "readReport", page: lazy(() => import("../features/report/ReportPage")), landing: true },
   { path: "imports", title: "Imports", group: "data", permission: "importData", page: lazy(() => import("../features/imports/ImportsPage")) },
   { path: "tracker", title: "Quarter tracker", group: "data", permission: "readTracker", page: lazy(() => import("../features/tracker/QuarterTrackerPage")) },

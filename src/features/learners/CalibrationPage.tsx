@@ -8,6 +8,7 @@ import { QueryStatus } from "../insight/QueryStatus";
 import type { InsightFilterState } from "../insight/useInsightFilters";
 import { AllCalibration, OwnCalibration } from "./CalibrationViews";
 import { learnerQueries } from "./queries";
+import { calibrationFilters } from "./pageRequests";
 
 export default function CalibrationPage() {
   const seesAll = useCan("readCalibration", "any");
@@ -21,7 +22,7 @@ export default function CalibrationPage() {
             : "How your own pass/fail agrees with the manikin's measurement. Other instructors are not named."
         }
       />
-      <InsightFilters optional={[]} ranges label="Choose the period">
+      <InsightFilters optional={calibrationFilters} ranges label="Choose the period">
         {(state) => <Calibration state={state} seesAll={seesAll} />}
       </InsightFilters>
     </div>

@@ -6,6 +6,7 @@ import { InsightFilters } from "../insight/InsightFilters";
 import { QueryStatus } from "../insight/QueryStatus";
 import type { InsightFilterState } from "../insight/useInsightFilters";
 import { learnerQueries } from "./queries";
+import { retentionFilters } from "./pageRequests";
 import { RetentionView } from "./RetentionView";
 
 export default function RetentionPage() {
@@ -15,7 +16,7 @@ export default function RetentionPage() {
         title="Skill retention"
         description="Learners come back for recertification under the same learner code. How often their first attempt in the new class passes, by months since their previous class, shows how fast skills fade. Learners on their first course in the data are shown beside them."
       />
-      <InsightFilters optional={["patientType"]} ranges label="Filter skill retention">
+      <InsightFilters optional={retentionFilters} ranges label="Filter skill retention">
         {(state) => <Retention state={state} />}
       </InsightFilters>
     </div>

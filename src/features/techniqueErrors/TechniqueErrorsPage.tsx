@@ -6,7 +6,7 @@ import { manikinPath } from "../equipment/links";
 import { Link, useSearchParams } from "react-router";
 import type { FeedbackMode } from "../../../shared/domain";
 import type { PatientType } from "../../../shared/scoring/policy";
-import { attemptErrorNames, type AttemptError } from "../../../shared/scoring/scoreAttempt";
+import type { AttemptError } from "../../../shared/scoring/scoreAttempt";
 import { Select } from "../../components/Field";
 import { FilterBar, type FilterValues } from "../../components/FilterBar";
 import { PageHeader } from "../../components/PageHeader";
@@ -15,16 +15,14 @@ import { BreakdownPanel, type BreakdownRow } from "./BreakdownPanel";
 import { TechniqueErrorTrendChart } from "./TechniqueErrorTrendChart";
 import { ActionMarkList } from "../actions/ActionMarkList";
 import { ParetoChart } from "./ParetoChart";
-import { techniqueErrorQueries } from "./queries";
+import { chosenError, techniqueErrorChoices, techniqueErrorFilters, techniqueErrorsQuery } from "./pageRequests";
 import { useActionMarks, type ChartScope } from "../actions/useActionMarks";
-import { linkParams, useInsightFilters, type InsightFilterState, type OptionalFilter } from "../insight/useInsightFilters";
+import { linkParams, useInsightFilters, type InsightFilterState } from "../insight/useInsightFilters";
 import { rangeLabel } from "../../../shared/period";
 import { feedbackNames, patientTypeNames } from "../../../shared/vocabulary";
 
-const filterKeys: readonly OptionalFilter[] = ["site", "patientType", "feedback", "instructor", "manikin"];
-
 export default function TechniqueErrorsPage() {
-  const { optionsQuery: options, state } = useInsightFilters(filterKeys, { ranges: true });
+  const { optionsQuery: options, state } = useInsightFilters(techniqueErrorFilters, techniqueErrorChoices);
   return (
     <div>
       <PageHeader
@@ -44,17 +42,11 @@ export default function TechniqueErrorsPage() {
   );
 }
 
-function isError(value: string | null): value is AttemptError {
-  return value !== null && (attemptErrorNames as readonly string[]).includes(value);
-}
-
 function TechniqueErrorTrends({ state }: { state: InsightFilterState }) {
   const { options, definitions: filters, values } = state;
   const [params, setParams] = useSearchParams();
-  const rawError = params.get("error");
-  const error = isError(rawError) ? rawError : null;
-  const query = { ...state.api, error: error ?? undefined };
-  const analysis = useQuery(techniqueErrorQueries.analysis(query));
+  const error = chosenError(params);
+  const analysis = useQuery(techniqueErrorsQuery(state.api, params));
 
   const examineHref = useCallback(
     (row: { error: AttemptError }) => {

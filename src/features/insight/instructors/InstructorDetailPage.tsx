@@ -17,6 +17,7 @@ import { formatCount, formatPercent, formatScore } from "../format";
 import { quarterLabel } from "../../../../shared/period";
 import { RateText } from "../RateText";
 import { InsightFilters } from "../InsightFilters";
+import { instructorFilters } from "../pageRequests";
 import { InstructorCalibration } from "../../learners/CalibrationViews";
 import { learnerQueries } from "../../learners/queries";
 import { QueryStatus } from "../QueryStatus";
@@ -28,7 +29,7 @@ export default function InstructorDetailPage() {
   return (
     <div>
       <BackLink to="/instructors" label="All instructors" />
-      <InsightFilters optional={["patientType", "feedback"]} label="Filter this instructor's figures" before={(state) => <InstructorHeader id={id} state={state} />}>
+      <InsightFilters optional={instructorFilters} label="Filter this instructor's figures" before={(state) => <InstructorHeader id={id} state={state} />}>
         {(state) => <InstructorBody id={id} state={state} />}
       </InsightFilters>
     </div>

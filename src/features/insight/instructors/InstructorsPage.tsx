@@ -9,11 +9,11 @@ import { PageHeader } from "../../../components/PageHeader";
 import { FunnelChart, PositionText, type FunnelUnit } from "../charts/FunnelChart";
 import { formatCount, formatFixed, formatInterval, formatPercent, formatScore, funnelPositionText, percentValue, roundTo } from "../format";
 import { quarterLabel } from "../../../../shared/period";
-import { AdjustChoice, dispersionSentence, useAdjustMode } from "../AdjustChoice";
+import { AdjustChoice, dispersionSentence } from "../AdjustChoice";
 import { InsightFilters } from "../InsightFilters";
 import { NoDataForFilters } from "../NoDataForFilters";
 import { QueryStatus } from "../QueryStatus";
-import { insightQueries } from "../queries";
+import { instructorsFilters, instructorsQuery } from "../pageRequests";
 import type { InsightFilterState } from "../useInsightFilters";
 
 type InstructorRow = InstructorsAnswer["instructors"][number];
@@ -25,7 +25,7 @@ export default function InstructorsPage() {
         title="Instructors"
         description="Each instructor's measured pass rate, judged against what chance allows for their number of attempts and, by default, for the mix of patient types and feedback displays they teach."
       />
-      <InsightFilters optional={["site", "patientType", "feedback"]} label="Filter the instructors">
+      <InsightFilters optional={instructorsFilters} label="Filter the instructors">
         {(state) => <InstructorsBody state={state} />}
       </InsightFilters>
     </div>
@@ -33,8 +33,8 @@ export default function InstructorsPage() {
 }
 
 function InstructorsBody({ state }: { state: InsightFilterState }) {
-  const adjust = useAdjustMode();
-  const query = useQuery({ ...insightQueries.instructors({ ...state.api, adjust }), placeholderData: keepPreviousData });
+  const [params] = useSearchParams();
+  const query = useQuery({ ...instructorsQuery(state.api, params), placeholderData: keepPreviousData });
   return (
     <QueryStatus query={query} loadingLabel={`Loading the instructors for ${quarterLabel(state.quarter)}…`} errorTitle="The instructors could not be loaded">
       {(answer) => (answer.instructors.length === 0 ? <NoDataForFilters state={state} /> : <InstructorsContent answer={answer} />)}

@@ -20,7 +20,7 @@ import { QueryStatus } from "../QueryStatus";
 import { NothingToChart } from "../charts/NothingToChart";
 import { suppressedText } from "../format";
 import { quarterLabel } from "../../../../shared/period";
-import { insightQueries } from "../queries";
+import { overviewFilters, overviewQuery } from "../pageRequests";
 import { useActionMarks } from "../../actions/useActionMarks";
 import type { ActionMark } from "../../../../shared/schemas/actions";
 import { linkParams, type InsightFilterState } from "../useInsightFilters";
@@ -33,7 +33,7 @@ export default function OverviewPage() {
         title="Network overview"
         description="How many learners' compressions met the targets on the manikin, set beside what instructors recorded in class."
       />
-      <InsightFilters optional={["site", "patientType", "feedback"]} label="Filter the overview">
+      <InsightFilters optional={overviewFilters} label="Filter the overview">
         {(state) => <OverviewBody state={state} />}
       </InsightFilters>
     </div>
@@ -42,9 +42,7 @@ export default function OverviewPage() {
 
 function OverviewBody({ state }: { state: InsightFilterState }) {
   const [params] = useSearchParams();
-  const limits = params.get("limits") === "laney" ? "laney" : undefined;
-  const split = /^\d{4}-\d{2}-\d{2}$/.test(params.get("split") ?? "") ? params.get("split")! : undefined;
-  const query = useQuery({ ...insightQueries.overview({ ...state.api, limits, split }), placeholderData: keepPreviousData });
+  const query = useQuery({ ...overviewQuery(state.api, params), placeholderData: keepPreviousData });
   const actions = useActionMarks(state.api, query.data?.series.points.map((p) => p.quarter) ?? []);
   // those who may drill down open an error's trend and breakdown from its bar or row
   const drillDown = useCan("drillDown");

@@ -11,7 +11,8 @@ import { FunnelChart, type FunnelUnit } from "../charts/FunnelChart";
 import { SpreadChart } from "../charts/SpreadChart";
 import { formatCount, funnelPositionText } from "../format";
 import { quarterLabel } from "../../../../shared/period";
-import { AdjustChoice, dispersionSentence, useAdjustMode } from "../AdjustChoice";
+import { useSearchParams } from "react-router";
+import { AdjustChoice, dispersionSentence } from "../AdjustChoice";
 import { InsightFilters } from "../InsightFilters";
 import { NoDataForFilters } from "../NoDataForFilters";
 import { QueryStatus } from "../QueryStatus";
@@ -19,7 +20,7 @@ import { RateText } from "../RateText";
 import { TechniqueErrorAttemptLinks } from "./TechniqueErrorAttemptLinks";
 import { StandingMetrics } from "./StandingMetrics";
 import { Suppressed } from "../Suppressed";
-import { insightQueries } from "../queries";
+import { standingFilters, standingQuery } from "../pageRequests";
 import { linkParams, type InsightFilterState } from "../useInsightFilters";
 
 export default function MyStandingPage() {
@@ -29,7 +30,7 @@ export default function MyStandingPage() {
         title="My standing"
         description="How your learners' attempts compare with the whole network. Other instructors appear only as anonymous points and network figures."
       />
-      <InsightFilters optional={["patientType", "feedback"]} label="Filter my standing">
+      <InsightFilters optional={standingFilters} label="Filter my standing">
         {(state) => <StandingBody state={state} />}
       </InsightFilters>
     </div>
@@ -37,8 +38,8 @@ export default function MyStandingPage() {
 }
 
 function StandingBody({ state }: { state: InsightFilterState }) {
-  const adjust = useAdjustMode();
-  const query = useQuery({ ...insightQueries.standing({ ...state.api, adjust }), placeholderData: keepPreviousData });
+  const [params] = useSearchParams();
+  const query = useQuery({ ...standingQuery(state.api, params), placeholderData: keepPreviousData });
   // the attempt list keeps an instructor to their own attempts, so the error and the filters are enough
   const attemptsHref = (error: AttemptError) => `/attempts?${linkParams(state.values, { error })}`;
   return (
