@@ -33,8 +33,10 @@ function NotFoundPage() {
 /** The loader of a page with a prefetch. A visitor known to be signed out, or whose role may not open the page, is left to the guard without a request. */
 function prefetchLoader(queryClient: QueryClient, route: AppRoute, prefetch: NonNullable<AppRoute["prefetch"]>) {
   return ({ request, params }: LoaderFunctionArgs) => {
+    // undefined: the session is still being asked for, and the page's requests go out beside it
     const session = queryClient.getQueryData(authQueries.me().queryKey);
-    if (session !== null && !(session && !mayOpen(route, session.user.role))) prefetch(queryClient, { search: new URL(request.url).searchParams, params });
+    const leftToGuard = session === null || (session !== undefined && !mayOpen(route, session.user.role));
+    if (!leftToGuard) prefetch(queryClient, { search: new URL(request.url).searchParams, params });
     return null;
   };
 }
