@@ -7,7 +7,7 @@ import { buildRoutes } from "./app/router";
 import "./styles/app.css";
 
 const queryClient = createQueryClient();
-const router = createBrowserRouter(buildRoutes());
+const router = createBrowserRouter(buildRoutes(queryClient));
 
 createRoot(document.getElementById("root")!).render(
   <StrictMode>

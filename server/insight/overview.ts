@@ -16,7 +16,7 @@ import { addTally, emptyTally, judgedOf, medianOfCounts, mergeCounts, talliesBy,
 import type { ResolvedFilters } from "./filters";
 import { passRateSeries } from "./passRateSeries";
 import { learnerOutcomes } from "../metrics/learnerOutcomes";
-import { errorPareto } from "./pareto";
+import { techniqueErrorPareto } from "./pareto";
 import { previousPeriod, trendQuarters } from "../../shared/period";
 import { rateFor } from "./rates";
 import { classConditions, scopeOf } from "./sql";
@@ -121,7 +121,7 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters, chart
     medianScore: hidden ? null : medianOfCounts(mergeCounts(...feedbackModes.map(scoresOf))),
     // centre and limits from stated baseline quarters, never from the quarters being judged (./passRateSeries)
     series: passRateSeries(db, viewer, filters, { quarters: trend.quarters, byQuarter, hidden: seriesHidden, limits: chart.limits, splitAt: chart.splitAt }),
-    errors: errorPareto(inPeriod.errors, inPeriod.n, hidden),
+    errors: techniqueErrorPareto(inPeriod.errors, inPeriod.n, hidden),
     feedback: feedbackModes.map((mode, i) => {
       const tally = tallyOfMode(mode);
       const groupHidden = feedbackHidden[i];

@@ -7,7 +7,7 @@ import { errorLabels } from "../../shared/vocabulary";
 
 export type ParetoAnswer = z.infer<typeof paretoSchema>;
 
-export function errorPareto(counts: Record<AttemptError, number>, attemptCount: number, hidden: boolean): ParetoAnswer {
+export function techniqueErrorPareto(counts: Record<AttemptError, number>, attemptCount: number, hidden: boolean): ParetoAnswer {
   if (hidden) return { attempts: null, rows: [], suppressed: true };
   return {
     attempts: attemptCount,

@@ -70,7 +70,7 @@ export function insightRoutes(db: Db): Router {
   router.get("/insight/errors", allow("drillDown"), (req, res) => {
     const { error, ...filterQuery } = parseWith(errorsQuerySchema, req.query, "The filters");
     const { filters, key } = context(req, `errors:${error ?? ""}`, filterQuery);
-    return sendAnswer(db, res, key, "errors", [filters, error]);
+    return sendAnswer(db, res, key, "techniqueErrors", [filters, error]);
   });
 
   router.get("/classes/:id", allow("readAttempts"), (req, res) => {

@@ -5,7 +5,7 @@ import type { Db } from "../db/client";
 import { overview } from "../insight/overview";
 import { standing } from "../insight/standing";
 import { instructorDetail, instructorTable } from "../insight/instructors";
-import { errorAnalysis } from "../insight/errors";
+import { techniqueErrorAnalysis } from "../insight/techniqueErrors";
 import { attemptList } from "../insight/attempts";
 import { currentSignals } from "../alerts/signals";
 import { driftAnswer, fleetAnswer, manikinAnswer } from "../equipment/answers";
@@ -15,7 +15,7 @@ export const offThreadAnswers = {
   standing,
   instructors: instructorTable,
   instructor: instructorDetail,
-  errors: errorAnalysis,
+  techniqueErrors: techniqueErrorAnalysis,
   // a page of a large result still counts and sorts the whole result
   attempts: attemptList,
   fleet: fleetAnswer,

@@ -318,7 +318,7 @@ export const breakdownRowSchema = z.object({
   share,
 });
 
-export const errorsAnswerSchema = z.object({
+export const techniqueErrorsAnswerSchema = z.object({
   period: periodSchema,
   pareto: paretoSchema,
   selected: z
@@ -334,7 +334,7 @@ export const errorsAnswerSchema = z.object({
     })
     .nullable(),
 });
-export type ErrorsAnswer = z.infer<typeof errorsAnswerSchema>;
+export type TechniqueErrorsAnswer = z.infer<typeof techniqueErrorsAnswerSchema>;
 
 // ---- GET /api/attempts, /api/attempts/:id, /api/classes/:id --------------------------------------------
 

@@ -8,19 +8,19 @@ import { actionQueries } from "../features/actions/queries";
 import { alertQueries } from "../features/alerts/queries";
 import { attemptQueries } from "../features/attempts/queries";
 import { equipmentQueries } from "../features/equipment/queries";
-import { errorQueries } from "../features/errors/queries";
 import { importQueries } from "../features/imports/queries";
 import { insightQueries } from "../features/insight/queries";
 import { instructorQueries } from "../features/instructors/queries";
 import { learnerQueries } from "../features/learners/queries";
 import { reportQueries } from "../features/report/queries";
 import { systemQueries } from "../features/system/queries";
+import { techniqueErrorQueries } from "../features/techniqueErrors/queries";
 import { trackerQueries } from "../features/tracker/queries";
 
 /** Answers computed from attempts, classes, equipment logs and the scoring policy. */
 export const figureQueryFamilies: readonly QueryKey[] = [
   insightQueries.all(),
-  errorQueries.all(),
+  techniqueErrorQueries.all(),
   attemptQueries.all(),
   equipmentQueries.all(),
   reportQueries.all(),

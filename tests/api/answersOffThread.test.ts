@@ -42,7 +42,7 @@ describe("insight answers off the event loop", () => {
     expect(await pending).toBe(answerJson(db, "overview", [viewer, filters, { limits: "binomial", splitAt: null }]));
     expect(await answerText(db, "test:standing", "standing", [mine, ownFilters, "case-mix"])).toBe(answerJson(db, "standing", [mine, ownFilters, "case-mix"]));
     expect(await answerText(db, "test:instructors", "instructors", [filters, "case-mix"])).toBe(answerJson(db, "instructors", [filters, "case-mix"]));
-    expect(await answerText(db, "test:errors", "errors", [filters, "too_shallow"])).toBe(answerJson(db, "errors", [filters, "too_shallow"]));
+    expect(await answerText(db, "test:techniqueErrors", "techniqueErrors", [filters, "too_shallow"])).toBe(answerJson(db, "techniqueErrors", [filters, "too_shallow"]));
     const search = { error: null, classId: null, stream: null, learner: null, learnerMatch: "exact", sort: "score", dir: "desc", onlyInstructorId: null } as const;
     expect(await answerText(db, "test:attempts", "attempts", [filters, search, { page: 2, pageSize: 50 }])).toBe(answerJson(db, "attempts", [filters, search, { page: 2, pageSize: 50 }]));
     // the equipment answers, whose usage figures follow the viewer's grid

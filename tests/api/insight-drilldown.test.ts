@@ -5,7 +5,7 @@ import {
   attemptDetailAnswerSchema,
   attemptListAnswerSchema,
   classDetailAnswerSchema,
-  errorsAnswerSchema,
+  techniqueErrorsAnswerSchema,
   instructorDetailAnswerSchema,
   instructorsAnswerSchema,
 } from "../../shared/schemas/insight";
@@ -131,13 +131,13 @@ describe("GET /api/insight/instructors/:id", () => {
 
 describe("GET /api/insight/errors", () => {
   it("gives the Pareto without a chosen error", async () => {
-    const body = errorsAnswerSchema.parse((await t.coordinator.get("/api/insight/errors").expect(200)).body);
+    const body = techniqueErrorsAnswerSchema.parse((await t.coordinator.get("/api/insight/errors").expect(200)).body);
     expect(body.pareto.rows[0]).toMatchObject({ error: "too_shallow", count: 8, share: 0.5 });
     expect(body.selected).toBeNull();
   });
 
   it("gives the trend and the breakdowns of a chosen error", async () => {
-    const body = errorsAnswerSchema.parse((await t.coordinator.get("/api/insight/errors?error=too_shallow").expect(200)).body);
+    const body = techniqueErrorsAnswerSchema.parse((await t.coordinator.get("/api/insight/errors?error=too_shallow").expect(200)).body);
     const selected = body.selected!;
     const trend = Object.fromEntries(selected.trend.map((p) => [p.quarter, [p.count, p.attempts]]));
     // 2025-Q3 28 of 29; 2025-Q4 20 of 20; 2026-Q1 9 + 45 + 128 = 182 of 263; 2026-Q2 8 of 44

@@ -1,6 +1,6 @@
 import { cleanup, fireEvent, screen, waitFor } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
-import { wrongCredentialsMessage } from "../../src/pages/SignInPage";
+import { wrongCredentialsMessage } from "../../src/features/auth/SignInPage";
 import { renderApp } from "./renderApp";
 import { fakeServer, signedOut } from "./testServer";
 

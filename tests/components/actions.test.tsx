@@ -234,9 +234,9 @@ describe("action marks on trend charts", () => {
   });
 
   it("names them in the error trend chart's description too", async () => {
-    const { ErrorTrendChart } = await import("../../src/features/errors/ErrorTrendChart");
+    const { TechniqueErrorTrendChart } = await import("../../src/features/techniqueErrors/TechniqueErrorTrendChart");
     const row = (quarter: string, count: number) => ({ quarter, attempts: 20, count, share: count / 20, low: 0.1, high: 0.6 });
-    render(<ErrorTrendChart label="Too shallow" trend={[row("2025-Q4", 8), row("2026-Q1", 6)]} actions={marks} />);
+    render(<TechniqueErrorTrendChart label="Too shallow" trend={[row("2025-Q4", 8), row("2026-Q1", 6)]} actions={marks} />);
     expect(document.body.textContent).toContain(`Improvement actions marked: A1 Infant depth refresher (from ${formatDay("2026-02-15")}, 2026 Q1).`);
   });
 

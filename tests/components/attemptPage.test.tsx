@@ -16,7 +16,7 @@ vi.setConfig({ testTimeout: 30_000 });
 configure({ asyncUtilTimeout: 10_000 });
 
 beforeAll(async () => {
-  await import("../../src/pages/AttemptDetailPage");
+  await import("../../src/features/attempts/AttemptDetailPage");
 }, 120_000);
 
 afterEach(() => {

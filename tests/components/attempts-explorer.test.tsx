@@ -12,8 +12,8 @@ vi.setConfig({ testTimeout: 30_000 });
 configure({ asyncUtilTimeout: 10_000 });
 
 beforeAll(async () => {
-  await import("../../src/pages/AttemptsPage");
-  await import("../../src/pages/AttemptDetailPage");
+  await import("../../src/features/attempts/AttemptsPage");
+  await import("../../src/features/attempts/AttemptDetailPage");
 }, 120_000);
 
 afterEach(() => {

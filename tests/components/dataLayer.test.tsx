@@ -12,7 +12,7 @@ import { createQueryClient } from "../../src/app/queryClient";
 import { attemptQueries } from "../../src/features/attempts/queries";
 import { authQueries } from "../../src/features/auth/queries";
 import { equipmentQueries } from "../../src/features/equipment/queries";
-import { errorQueries } from "../../src/features/errors/queries";
+import { techniqueErrorQueries } from "../../src/features/techniqueErrors/queries";
 import { importQueries } from "../../src/features/imports/queries";
 import { insightQueries } from "../../src/features/insight/queries";
 import { filterState, useInsightFilters } from "../../src/features/insight/useInsightFilters";
@@ -45,7 +45,7 @@ async function failureOf(queryClient: QueryClient, options: Parameters<QueryClie
 
 describe("answers are checked against their shared schemas", () => {
   const checked = [
-    { name: "error analysis", options: errorQueries.analysis({ quarter: "2026-Q3", error: "too_shallow" }), path: "/api/insight/errors?quarter=2026-Q3&error=too_shallow" },
+    { name: "error analysis", options: techniqueErrorQueries.analysis({ quarter: "2026-Q3", error: "too_shallow" }), path: "/api/insight/errors?quarter=2026-Q3&error=too_shallow" },
     { name: "equipment", options: equipmentQueries.report({ from: "2025-Q4", to: "2026-Q3" }), path: "/api/equipment?from=2025-Q4&to=2026-Q3" },
     { name: "attempt list", options: attemptQueries.list({ quarter: "2026-Q3", page: 2, pageSize: 50 }), path: "/api/attempts?quarter=2026-Q3&page=2&pageSize=50" },
     { name: "attempt", options: attemptQueries.detail("A 1"), path: "/api/attempts/A%201" },
@@ -84,7 +84,7 @@ describe("query keys", () => {
     { family: attemptQueries.all(), keys: [attemptQueries.list({}).queryKey, attemptQueries.detail("A1").queryKey] },
     { family: authQueries.all(), keys: [authQueries.me().queryKey] },
     { family: equipmentQueries.all(), keys: [equipmentQueries.report({}).queryKey] },
-    { family: errorQueries.all(), keys: [errorQueries.analysis({}).queryKey] },
+    { family: techniqueErrorQueries.all(), keys: [techniqueErrorQueries.analysis({}).queryKey] },
     { family: importQueries.all(), keys: [importQueries.formats().queryKey, importQueries.presets("classes").queryKey, importQueries.history().queryKey, importQueries.batch(1).queryKey, importQueries.job("j").queryKey] },
     {
       family: insightQueries.all(),

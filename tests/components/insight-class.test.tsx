@@ -10,7 +10,7 @@ vi.setConfig({ testTimeout: 30_000 });
 configure({ asyncUtilTimeout: 10_000 });
 
 beforeAll(async () => {
-  await import("../../src/pages/ClassDetailPage");
+  await import("../../src/features/insight/classes/ClassDetailPage");
 }, 120_000);
 
 afterEach(() => {

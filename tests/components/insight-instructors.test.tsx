@@ -17,8 +17,8 @@ vi.setConfig({ testTimeout: 30_000 });
 configure({ asyncUtilTimeout: 10_000 });
 
 beforeAll(async () => {
-  await import("../../src/pages/InstructorsPage");
-  await import("../../src/pages/InstructorDetailPage");
+  await import("../../src/features/insight/instructors/InstructorsPage");
+  await import("../../src/features/insight/instructors/InstructorDetailPage");
 }, 120_000);
 
 afterEach(() => {

@@ -14,7 +14,7 @@ configure({ asyncUtilTimeout: 10_000 });
 
 // Load the page (and Observable Plot) once up front, so the first test does not pay for it.
 beforeAll(async () => {
-  await import("../../src/pages/OverviewPage");
+  await import("../../src/features/insight/overview/OverviewPage");
 }, 120_000);
 
 afterEach(() => {

@@ -12,7 +12,7 @@ vi.setConfig({ testTimeout: 30_000 });
 configure({ asyncUtilTimeout: 10_000 });
 
 beforeAll(async () => {
-  await import("../../src/pages/MyStandingPage");
+  await import("../../src/features/insight/standing/MyStandingPage");
 }, 120_000);
 
 afterEach(() => {

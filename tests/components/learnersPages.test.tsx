@@ -11,8 +11,8 @@ vi.setConfig({ testTimeout: 30_000 });
 configure({ asyncUtilTimeout: 10_000 });
 
 beforeAll(async () => {
-  await import("../../src/pages/RetentionPage");
-  await import("../../src/pages/CalibrationPage");
+  await import("../../src/features/learners/RetentionPage");
+  await import("../../src/features/learners/CalibrationPage");
 }, 120_000);
 
 afterEach(() => {

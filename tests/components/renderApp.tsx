@@ -13,7 +13,7 @@ configure({ asyncUtilTimeout: 5000 });
 export function renderApp(path: string, routes: readonly AppRoute[] = appRoutes) {
   setCsrfToken(null);
   const queryClient = createQueryClient();
-  const router = createMemoryRouter(buildRoutes(routes), { initialEntries: [path] });
+  const router = createMemoryRouter(buildRoutes(queryClient, routes), { initialEntries: [path] });
   const view = render(
     <QueryClientProvider client={queryClient}>
       <RouterProvider router={router} />

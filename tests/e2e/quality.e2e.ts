@@ -4,7 +4,7 @@
 // checked against the API's answers.
 import type { Locator, Page } from "@playwright/test";
 import type { DriftAnswer, ManikinRecord } from "../../shared/schemas/equipment";
-import type { AttemptDetailAnswer, ErrorsAnswer } from "../../shared/schemas/insight";
+import type { AttemptDetailAnswer, TechniqueErrorsAnswer } from "../../shared/schemas/insight";
 import { DEMO_SCENARIO } from "../../server/demo/scenario";
 import { fromMm, type LengthUnit } from "../../shared/units";
 import { besideThreshold } from "../../src/features/attempts/labels";
@@ -31,7 +31,7 @@ test.describe("quality lead", () => {
     await page.waitForURL((url) => url.pathname === "/errors");
     const pareto = chart(page, "Errors, most frequent first");
     await picture(pareto).waitFor();
-    const errors = await api<ErrorsAnswer>(page, `/api/insight/errors?quarter=${SEED_QUARTER}`);
+    const errors = await api<TechniqueErrorsAnswer>(page, `/api/insight/errors?quarter=${SEED_QUARTER}`);
     expect(errors.status).toBe(200);
     const top = errors.body.pareto.rows[0];
     expect(top.count).toBeGreaterThan(0);
@@ -48,7 +48,7 @@ test.describe("quality lead", () => {
     await firstRow.getByRole("link", { name: `Trend and breakdown of “${top.label}”` }).click();
     await page.waitForURL((url) => url.searchParams.get("error") === top.error);
     await page.getByRole("heading", { name: top.label, level: 2 }).waitFor();
-    const selected = await api<ErrorsAnswer>(page, `/api/insight/errors?quarter=${SEED_QUARTER}&error=${top.error}`);
+    const selected = await api<TechniqueErrorsAnswer>(page, `/api/insight/errors?quarter=${SEED_QUARTER}&error=${top.error}`);
     const withError = selected.body.selected!.byProfile.reduce((sum, row) => sum + row.count, 0);
     await page.getByText(`${withError} of ${selected.body.selected!.byProfile.reduce((sum, row) => sum + row.attempts, 0)} attempts in the period have this error.`).waitFor();
     const breakdown = page.getByRole("table", { name: "Attempts with the error by patient type" });

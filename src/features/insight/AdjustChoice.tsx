@@ -5,6 +5,7 @@ import { useSearchParam } from "../../lib/useSearchParam";
 import { adjustModes, type AdjustMode } from "../../../shared/filters";
 import { adjustNames } from "../../../shared/vocabulary";
 import { formatFixed } from "./format";
+import { adjustModeFrom } from "./pageRequests";
 
 export const adjustExplanations: Record<AdjustMode, string> = {
   "case-mix":
@@ -15,7 +16,7 @@ export const adjustExplanations: Record<AdjustMode, string> = {
 /** The comparison asked for in the URL; case mix unless `adjust=none`. */
 export function useAdjustMode(): AdjustMode {
   const [adjust] = useSearchParam("adjust");
-  return adjust === "none" ? "none" : "case-mix";
+  return adjustModeFrom(adjust);
 }
 
 export function AdjustChoice() {
