@@ -3,7 +3,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import request from "supertest";
 import type { Db } from "../../server/db/client";
-import { componentServer, fakeServer, signedOut } from "../components/testServer";
+import { componentServer, fakeApiOrigin, fakeServer, signedOut } from "../components/testServer";
 import { makeTestApp, makeTestDb, type TestApp } from "../helpers/testApp";
 
 let db: Db;
@@ -20,15 +20,12 @@ afterAll(() => {
   db.$client.close();
 });
 
-// The fake's address: in the component tests the client's "/api/..." resolves against jsdom's page address.
-const fakeOrigin = "http://fake.test";
-
 describe("the component tests' fake server agrees with the server", () => {
   it("answers a signed-out request as the server does, on the session route and on a guarded page", async () => {
     fakeServer({ "GET /api/me": signedOut, "GET /api/insight/overview": signedOut });
     for (const path of ["/api/me", "/api/insight/overview"]) {
       const res = await request(app).get(path);
-      const fake = await fetch(fakeOrigin + path);
+      const fake = await fetch(fakeApiOrigin + path);
       expect(res.status, path).toBe(fake.status);
       const fakeBody = (await fake.json()) as { error: { code: string; message: string } };
       expect(res.body.error.code, path).toBe(fakeBody.error.code);
@@ -39,7 +36,7 @@ describe("the component tests' fake server agrees with the server", () => {
   it("answers a route it does not know with the server's not-found code", async () => {
     const server = await request(app).get("/api/no-such-route");
     fakeServer({});
-    const fake = await fetch(`${fakeOrigin}/api/no-such-route`);
+    const fake = await fetch(`${fakeApiOrigin}/api/no-such-route`);
     expect(fake.status).toBe(server.status);
     expect(((await fake.json()) as { error: { code: string } }).error.code).toBe(server.body.error.code);
   });

@@ -38,8 +38,9 @@ function toResponse(answer: FakeAnswer): Response {
   });
 }
 
-// Any origin: in jsdom the client's "/api/..." resolves against the page's address; in node a test names one.
-const apiPaths = "*/api/*";
+/** The API's address: in jsdom the client's "/api/..." resolves against the page's; a node test has no page. */
+export const fakeApiOrigin = typeof location === "undefined" ? "http://fake.test" : location.origin;
+const apiPaths = `${fakeApiOrigin}/api/*`;
 
 /**
  * The one msw server of the component tests. Its lasting handler answers any API route no test listed the way
