@@ -1,9 +1,9 @@
 // The fake API itself: what it answers, what it records, and that a fixture off the answer schema is refused.
 import { describe, expect, it } from "vitest";
-import { optionsAnswerSchema } from "../../shared/schemas/insight";
+import { optionsAnswerSchema, type OptionsAnswer } from "../../shared/schemas/insight";
 import { answer, fakeServer, unknownRoute } from "./testServer";
 
-const options = { quarters: ["2026-Q3"], sites: [], patientTypes: ["adult"], feedbackModes: ["live"], errors: [], instructors: [], manikins: [] } as const;
+const options: OptionsAnswer = { quarters: ["2026-Q3"], sites: [], patientTypes: ["adult"], feedbackModes: ["live"], errors: [], instructors: [], manikins: [] };
 
 describe("the component tests' fake API", () => {
   it("answers a listed route only for the exact query, and an unlisted one as the server does", async () => {
