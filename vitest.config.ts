@@ -22,6 +22,8 @@ export default defineConfig({
           // rendering charts in jsdom is slow on a busy 2-core machine
           testTimeout: 30_000,
           include: ["tests/components/**/*.test.tsx"],
+          // the msw server that stands in for the API (tests/components/testServer.ts)
+          setupFiles: ["tests/components/setup.ts"],
           deps: { optimizer: { client: { include: ["react-router", "react-router/dom"] } } },
         },
       },

@@ -20,7 +20,7 @@ describe("alerts after each import on my account", () => {
       "GET /api/me": sessionFor("instructor"),
       "GET /api/data-version": version,
       "GET /api/me/alerts": { status: 200, body: { kinds: ["service", "drift"], isDefault: true } },
-      "PUT /api/me/alerts": (init) => ({ status: 200, body: { kinds: (JSON.parse(String(init?.body)) as { kinds: string[] }).kinds, isDefault: false } }),
+      "PUT /api/me/alerts": (request) => ({ status: 200, body: { kinds: (request.body as { kinds: string[] }).kinds, isDefault: false } }),
     });
     renderApp("/account");
     const section = within((await screen.findByRole("heading", { name: "Alerts after each import" })).closest("section")!);

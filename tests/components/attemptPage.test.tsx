@@ -4,13 +4,13 @@
 // per-compression view behind its toggle.
 import { cleanup, configure, fireEvent, screen, within } from "@testing-library/react";
 import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
-import { attemptDetailAnswerSchema } from "../../shared/schemas/insight";
+import { attemptDetailAnswerSchema, type AttemptDetailAnswer } from "../../shared/schemas/insight";
 import { DEFAULT_POLICY } from "../../shared/scoring/policy";
 import { decisiveDecimals, marginWords, ordinal } from "../../src/features/attempts/labels";
 import { compressionSeries } from "../../src/features/attempts/compressionSeries";
 import { distribution, ribbon } from "../../src/features/attempts/compressionDistribution";
 import { renderApp } from "./renderApp";
-import { fakeServer, sessionFor } from "./testServer";
+import { answer, fakeServer, sessionFor } from "./testServer";
 
 vi.setConfig({ testTimeout: 30_000 });
 configure({ asyncUtilTimeout: 10_000 });
@@ -34,8 +34,7 @@ const stream = {
   band: adult,
 };
 
-const answer = (overrides: { placement?: object; stream?: typeof stream | null } = {}) =>
-  attemptDetailAnswerSchema.parse({
+const detailBody = (overrides: { placement?: AttemptDetailAnswer["placement"]; stream?: typeof stream | null } = {}): AttemptDetailAnswer => ({
     attempt: {
       id: "AT-9", classId: "CL-0276", learner: "L-5WVLM", startedAt: "2026-10-17T09:09:00Z", quarter: "2026-Q4", profile: "adult", feedback: "live",
       site: { id: 1, code: "WRM" }, instructor: { id: 3, code: "IN03" }, manikin: null,
@@ -55,8 +54,8 @@ const answer = (overrides: { placement?: object; stream?: typeof stream | null }
     stream: overrides.stream === undefined ? stream : overrides.stream,
   });
 
-function open(body = answer(), role: "quality_lead" | "instructor" | "coordinator" = "quality_lead") {
-  fakeServer({ "GET /api/me": sessionFor(role), "GET /api/attempts/AT-9": { status: 200, body } });
+function open(body = detailBody(), role: "quality_lead" | "instructor" | "coordinator" = "quality_lead") {
+  fakeServer({ "GET /api/me": sessionFor(role), "GET /api/attempts/AT-9": answer(attemptDetailAnswerSchema, body) });
   return renderApp("/attempts/AT-9?from=%2Fattempts%3Fquarter%3D2026-Q4");
 }
 
@@ -123,8 +122,8 @@ describe("the attempt among the network", () => {
   });
 
   it("says why the placement is not shown when the group is hidden from an instructor", async () => {
-    const hidden = { quarter: "2026-Q4", profile: "adult", attempts: null, hidden: true, percentiles: { score: null, depthOkPct: null, rateOkPct: null, recoilOkPct: null, handsOnPct: null } };
-    open(answer({ placement: hidden }), "instructor");
+    const hidden: AttemptDetailAnswer["placement"] = { quarter: "2026-Q4", profile: "adult", attempts: null, hidden: true, percentiles: { score: null, depthOkPct: null, rateOkPct: null, recoilOkPct: null, handsOnPct: null } };
+    open(detailBody({ placement: hidden }), "instructor");
     const section = (await screen.findByRole("heading", { name: "Among the network", level: 2 })).closest("section")!;
     expect(section.textContent).toContain("are not shown");
     expect(section.textContent).not.toContain("percentile of");
@@ -148,7 +147,7 @@ describe("compressions", () => {
   });
 
   it("says so when the manikin sent a summary only", async () => {
-    open(answer({ stream: null }), "coordinator");
+    open(detailBody({ stream: null }), "coordinator");
     expect(await screen.findByText("No compression stream for this attempt")).toBeTruthy();
     expect(screen.queryByRole("button", { name: "Show each compression" })).toBeNull();
   });

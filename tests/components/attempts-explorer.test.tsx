@@ -4,9 +4,9 @@
 // link and class link.
 import { cleanup, configure, fireEvent, screen, waitFor, within } from "@testing-library/react";
 import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
-import { attemptDetailAnswerSchema, attemptListAnswerSchema, optionsAnswerSchema } from "../../shared/schemas/insight";
+import { attemptDetailAnswerSchema, attemptListAnswerSchema, optionsAnswerSchema, type AttemptDetailAnswer, type AttemptListAnswer, type AttemptRow, type OptionsAnswer } from "../../shared/schemas/insight";
 import { renderApp } from "./renderApp";
-import { fakeServer, sessionFor, type FakeAnswer, type FakeRoutes } from "./testServer";
+import { answer, fakeServer, sessionFor, type FakeAnswer, type FakeRoutes } from "./testServer";
 
 vi.setConfig({ testTimeout: 30_000 });
 configure({ asyncUtilTimeout: 10_000 });
@@ -21,7 +21,7 @@ afterEach(() => {
   vi.unstubAllGlobals();
 });
 
-const options = optionsAnswerSchema.parse({
+const options: OptionsAnswer = {
   quarters: ["2026-Q4", "2026-Q3"],
   sites: [{ id: 1, code: "WRM", name: "Wrenmoor Learning Centre" }],
   patientTypes: ["infant", "adult"],
@@ -35,9 +35,9 @@ const options = optionsAnswerSchema.parse({
     { id: 4, code: "IN04", name: "Oren Talby", siteId: 1 },
   ],
   manikins: [],
-});
+};
 
-const row = (id: string, learner: string, score: number, errors: string[]) => ({
+const row = (id: string, learner: string, score: number, errors: AttemptRow["errors"]): AttemptRow => ({
   id, classId: "CL-0276", learner, startedAt: "2026-10-17T09:09:00Z", quarter: "2026-Q4", profile: "adult", feedback: "live",
   site: { id: 1, code: "WRM" }, instructor: { id: 3, code: "IN03" }, manikin: null,
   metrics: {
@@ -47,19 +47,19 @@ const row = (id: string, learner: string, score: number, errors: string[]) => ({
   score, passed: errors.length === 0, instructorResult: null, errors, policyVersion: 1, source: "summary", hasStream: false,
 });
 
-const listAnswer = attemptListAnswerSchema.parse({
+const listAnswer: AttemptListAnswer = {
   page: 2, pageSize: 50, total: 120,
   attempts: [row("AT-1", "L-TBMZV", 91, []), row("AT-2", "L-5WVLM", 70.6, ["too_shallow", "long_pause"])],
-});
+};
 
 /** Answers every attempt-list request with the same page; the requests say what was asked. */
 function serve(role: "quality_lead" | "instructor" = "quality_lead", extra: FakeRoutes = {}) {
   const routes: FakeRoutes = {
     "GET /api/me": sessionFor(role),
-    "GET /api/insight/options": { status: 200, body: options },
+    "GET /api/insight/options": answer(optionsAnswerSchema, options),
     ...extra,
   };
-  const list: FakeAnswer = { status: 200, body: listAnswer };
+  const list: FakeAnswer = answer(attemptListAnswerSchema, listAnswer);
   return fakeServer(new Proxy(routes, { get: (target, key: string) => target[key] ?? (key.startsWith("GET /api/attempts?") ? list : undefined) }));
 }
 
@@ -174,18 +174,18 @@ describe("instructors", () => {
   });
 });
 
-const detail = attemptDetailAnswerSchema.parse({
+const detail: AttemptDetailAnswer = {
   attempt: row("AT-2", "L-5WVLM", 70.6, ["too_shallow"]),
   scoring: null,
   placement: { quarter: "2026-Q4", profile: "adult", attempts: null, hidden: true, percentiles: { score: null, depthOkPct: null, rateOkPct: null, recoilOkPct: null, handsOnPct: null } },
   errorLabels: [],
   scoreHistory: [],
   stream: null,
-});
+};
 
 describe("attempt page back link", () => {
   const open = (path: string, role: "quality_lead" | "instructor" = "quality_lead") => {
-    fakeServer({ "GET /api/me": sessionFor(role), "GET /api/attempts/AT-2": { status: 200, body: detail } });
+    fakeServer({ "GET /api/me": sessionFor(role), "GET /api/attempts/AT-2": answer(attemptDetailAnswerSchema, detail) });
     return renderApp(path);
   };
 

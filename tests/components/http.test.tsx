@@ -23,9 +23,9 @@ describe("http", () => {
     let attempts = 0;
     const server = fakeServer({
       "GET /api/me": sessionFor("coordinator"), // carries csrfToken "token-1"
-      "PATCH /api/sites/3": (init) => {
+      "PATCH /api/sites/3": (request) => {
         attempts += 1;
-        const token = (init?.headers as Record<string, string>)["x-csrf-token"];
+        const token = request.headers["x-csrf-token"];
         return token === "token-1"
           ? { status: 200, body: { site: { id: 3 } } }
           : { status: 403, body: { error: { code: "csrf", message: "Stale token" } } };

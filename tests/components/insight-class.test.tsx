@@ -2,9 +2,9 @@
 // "not found or not yours" answer an instructor gets for another instructor's class.
 import { cleanup, configure, screen, within } from "@testing-library/react";
 import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
-import { attemptListAnswerSchema, classDetailAnswerSchema } from "../../shared/schemas/insight";
+import { attemptListAnswerSchema, classDetailAnswerSchema, type AttemptListAnswer, type AttemptRow, type ClassDetailAnswer } from "../../shared/schemas/insight";
 import { renderApp } from "./renderApp";
-import { fakeServer, sessionFor, type FakeAnswer } from "./testServer";
+import { answer, fakeServer, sessionFor, type FakeAnswer } from "./testServer";
 
 vi.setConfig({ testTimeout: 30_000 });
 configure({ asyncUtilTimeout: 10_000 });
@@ -18,7 +18,7 @@ afterEach(() => {
   vi.unstubAllGlobals();
 });
 
-const detail = classDetailAnswerSchema.parse({
+const detail: ClassDetailAnswer = {
   class: {
     id: "CL-0276", date: "2026-10-17", quarter: "2026-Q4", course: "adult",
     site: { id: 1, code: "WRM" }, instructor: { id: 3, code: "IN03", name: "Ilse Pendrake" },
@@ -29,18 +29,18 @@ const detail = classDetailAnswerSchema.parse({
     { id: "AT-1", learner: "L-TBMZV", startedAt: "2026-10-17T09:09:00Z", profile: "adult", feedback: "live", score: 91.15, passed: true, instructorResult: "pass", errors: [], hasStream: true },
     { id: "AT-2", learner: "L-5WVLM", startedAt: "2026-10-17T09:11:29Z", profile: "adult", feedback: "hidden", score: 70.6667, passed: false, instructorResult: null, errors: ["too_shallow", "long_pause"], hasStream: false },
   ],
-});
+};
 
 const metrics = (depthMm: number, rateCpm: number) => ({
   durationS: 120, compressions: 220, rateCpm, depthMm, depthOkPct: 80, tooShallowPct: 20, tooDeepPct: 0, rateOkPct: 90, tooSlowPct: 5, tooFastPct: 5,
   recoilOkPct: 100, handsOnPct: 95, longestPauseS: 3, pauses: 1, pausesOver10s: 0,
 });
-const row = (id: string, depthMm: number, rateCpm: number) => ({
+const row = (id: string, depthMm: number, rateCpm: number): AttemptRow => ({
   id, classId: "CL-0276", learner: "L", startedAt: "2026-10-17T09:09:00Z", quarter: "2026-Q4", profile: "adult", feedback: "live",
   site: { id: 1, code: "WRM" }, instructor: { id: 3, code: "IN03" }, manikin: null, metrics: metrics(depthMm, rateCpm),
   score: 90, passed: true, instructorResult: "pass", errors: [], policyVersion: 1, source: "summary", hasStream: false,
 });
-const measured = attemptListAnswerSchema.parse({ page: 1, pageSize: 200, total: 2, attempts: [row("AT-1", 52.4, 112.4), row("AT-2", 44.45, 104)] });
+const measured: AttemptListAnswer = { page: 1, pageSize: 200, total: 2, attempts: [row("AT-1", 52.4, 112.4), row("AT-2", 44.45, 104)] };
 
 function sessionIn(unit: "mm" | "cm" | "in"): FakeAnswer {
   const answer = sessionFor("coordinator");
@@ -52,8 +52,8 @@ describe("class page", () => {
   it("shows the class log and every attempt with its result, errors in words and a link to the attempt", async () => {
     fakeServer({
       "GET /api/me": sessionIn("mm"),
-      "GET /api/classes/CL-0276": { status: 200, body: detail },
-      "GET /api/attempts?class=CL-0276&quarter=2026-Q4&pageSize=200": { status: 200, body: measured },
+      "GET /api/classes/CL-0276": answer(classDetailAnswerSchema, detail),
+      "GET /api/attempts?class=CL-0276&quarter=2026-Q4&pageSize=200": answer(attemptListAnswerSchema, measured),
     });
     renderApp("/classes/CL-0276");
     expect(await screen.findByRole("heading", { name: "Class CL-0276", level: 1 })).toBeTruthy();
@@ -77,8 +77,8 @@ describe("class page", () => {
   it("shows depth in the signed-in user's unit", async () => {
     fakeServer({
       "GET /api/me": sessionIn("in"),
-      "GET /api/classes/CL-0276": { status: 200, body: detail },
-      "GET /api/attempts?class=CL-0276&quarter=2026-Q4&pageSize=200": { status: 200, body: measured },
+      "GET /api/classes/CL-0276": answer(classDetailAnswerSchema, detail),
+      "GET /api/attempts?class=CL-0276&quarter=2026-Q4&pageSize=200": answer(attemptListAnswerSchema, measured),
     });
     renderApp("/classes/CL-0276");
     const table = await screen.findByRole("table", { name: "Attempts" });

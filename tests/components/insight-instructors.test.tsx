@@ -7,11 +7,14 @@ import {
   instructorsAnswerSchema,
   optionsAnswerSchema,
   overviewAnswerSchema,
+  type InstructorDetailAnswer,
   type InstructorsAnswer,
+  type OptionsAnswer,
+  type OverviewAnswer,
 } from "../../shared/schemas/insight";
 import { scaledFunnelLimits, wilsonInterval } from "../../shared/stats";
 import { renderApp } from "./renderApp";
-import { fakeServer, sessionFor } from "./testServer";
+import { answer, fakeServer, sessionFor } from "./testServer";
 
 vi.setConfig({ testTimeout: 30_000 });
 configure({ asyncUtilTimeout: 10_000 });
@@ -26,7 +29,7 @@ afterEach(() => {
   vi.unstubAllGlobals();
 });
 
-const options = optionsAnswerSchema.parse({
+const options: OptionsAnswer = {
   quarters: ["2026-Q4", "2026-Q3"],
   sites: [{ id: 2, code: "CLB", name: "Callowby Fire Station Training Room" }],
   patientTypes: ["infant", "child", "adult"],
@@ -37,14 +40,14 @@ const options = optionsAnswerSchema.parse({
     { id: 6, code: "IN06", name: "Desmond Quarrie", siteId: 2 },
   ],
   manikins: [],
-});
+};
 
 function rate(successes: number, n: number) {
   const interval = wilsonInterval(successes, n);
   return { successes, n, rate: n === 0 ? null : successes / n, low: interval?.[0] ?? null, high: interval?.[1] ?? null, suppressed: false };
 }
 
-const instructors: InstructorsAnswer = instructorsAnswerSchema.parse({
+const instructors: InstructorsAnswer = {
   period: { from: "2026-Q4", to: "2026-Q4", quarters: ["2026-Q4"] },
   funnel: {
     networkRate: 0.42,
@@ -64,7 +67,7 @@ const instructors: InstructorsAnswer = instructorsAnswerSchema.parse({
     { id: 6, code: "IN06", name: "Desmond Quarrie", site: { id: 2, code: "CLB" }, classes: 2, attempts: 68, passRate: rate(7, 68), medianScore: 62.8333, expected: 30.1, z: -5.6, adjustedRate: 0.08, effectiveAttempts: 70.4, position: "below998" },
     { id: 8, code: "IN08", name: "Jonah Thistlecombe", site: null, classes: 3, attempts: 117, passRate: rate(63, 117), medianScore: 90, expected: 48.2, z: 2.81, adjustedRate: 0.55, effectiveAttempts: 112.5, position: "above95" },
   ],
-});
+};
 
 // the crude view: points at their measured rates and attempts, limits not widened
 const crude: InstructorsAnswer = {
@@ -89,9 +92,9 @@ describe("instructors", () => {
   function serve() {
     return fakeServer({
       "GET /api/me": sessionFor("quality_lead"),
-      "GET /api/insight/options": { status: 200, body: options },
-      "GET /api/insight/instructors?quarter=2026-Q4&adjust=case-mix": { status: 200, body: instructors },
-      "GET /api/insight/instructors?quarter=2026-Q4&adjust=none": { status: 200, body: crude },
+      "GET /api/insight/options": answer(optionsAnswerSchema, options),
+      "GET /api/insight/instructors?quarter=2026-Q4&adjust=case-mix": answer(instructorsAnswerSchema, instructors),
+      "GET /api/insight/instructors?quarter=2026-Q4&adjust=none": answer(instructorsAnswerSchema, crude),
     });
   }
 
@@ -172,7 +175,7 @@ describe("instructors", () => {
 });
 
 describe("one instructor", () => {
-  const detail = instructorDetailAnswerSchema.parse({
+  const detail: InstructorDetailAnswer = {
     period: { from: "2026-Q4", to: "2026-Q4", quarters: ["2026-Q4"] },
     instructor: { id: 6, code: "IN06", name: "Desmond Quarrie", site: { id: 2, code: "CLB" } },
     trend: [
@@ -181,11 +184,11 @@ describe("one instructor", () => {
       { quarter: "2026-Q4", passRate: rate(7, 68), medianScore: 62.8333 },
     ],
     classes: [{ id: "CL-0283", date: "2026-11-12", course: "adult", learners: 9, passed: 2, attempts: 18, passRate: rate(1, 18) }],
-  });
+  };
   const point = (quarter: string, passed: number, attempts: number) => ({
     quarter, attempts, passed, rate: passed / attempts, low: null, high: null, lcl: null, ucl: null, outside: false, suppressed: false,
   });
-  const network = overviewAnswerSchema.parse({
+  const network: OverviewAnswer = {
     period: detail.period,
     previousPeriod: { from: "2026-Q3", to: "2026-Q3", quarters: ["2026-Q3"] },
     suppressionMinCount: 5, suppressed: false, learners: 10, classes: 2, attempts: 615,
@@ -195,15 +198,15 @@ describe("one instructor", () => {
     agreement: { pairs: 0, table: [[0, 0], [0, 0]], observed: null, expected: null, kappa: null, suppressed: false },
     medianScore: 83, series: { centre: 0.3, baseline: { from: "2025-Q4", to: "2026-Q3", source: "default", attempts: 3200 }, limits: "binomial", sigmaZ: null, runChart: null, split: null, points: [point("2026-Q2", 325, 859), point("2026-Q3", 326, 855), point("2026-Q4", 259, 615)] },
     errors: { attempts: 615, rows: [], suppressed: false }, feedback: [],
-  });
+  };
 
   it("shows the quarterly trend with the same numbers in its table, beside the network's rate, and the classes", async () => {
     fakeServer({
       "GET /api/me": sessionFor("coordinator"),
-      "GET /api/insight/options": { status: 200, body: options },
-      "GET /api/insight/instructors/6?quarter=2026-Q4": { status: 200, body: detail },
-      "GET /api/insight/overview?quarter=2026-Q4": { status: 200, body: network },
-      "GET /api/insight/instructors?quarter=2026-Q4&adjust=case-mix": { status: 200, body: instructors },
+      "GET /api/insight/options": answer(optionsAnswerSchema, options),
+      "GET /api/insight/instructors/6?quarter=2026-Q4": answer(instructorDetailAnswerSchema, detail),
+      "GET /api/insight/overview?quarter=2026-Q4": answer(overviewAnswerSchema, network),
+      "GET /api/insight/instructors?quarter=2026-Q4&adjust=case-mix": answer(instructorsAnswerSchema, instructors),
     });
     renderApp("/instructors/6?quarter=2026-Q4");
     expect(await screen.findByRole("heading", { name: "IN06 · Desmond Quarrie", level: 1 })).toBeTruthy();
@@ -225,9 +228,9 @@ describe("one instructor", () => {
   it("says plainly when no instructor has the id", async () => {
     fakeServer({
       "GET /api/me": sessionFor("coordinator"),
-      "GET /api/insight/options": { status: 200, body: options },
+      "GET /api/insight/options": answer(optionsAnswerSchema, options),
       "GET /api/insight/instructors/99?quarter=2026-Q4": { status: 404, body: { error: { code: "not_found", message: "The instructor was not found." } } },
-      "GET /api/insight/overview?quarter=2026-Q4": { status: 200, body: network },
+      "GET /api/insight/overview?quarter=2026-Q4": answer(overviewAnswerSchema, network),
     });
     renderApp("/instructors/99?quarter=2026-Q4");
     expect(await screen.findByText("No instructor has the id “99”")).toBeTruthy();

@@ -6,7 +6,7 @@ import type { UserRole } from "../../shared/domain";
 import { optionsAnswerSchema, overviewAnswerSchema, type OptionsAnswer, type OverviewAnswer } from "../../shared/schemas/insight";
 import { kappaWords } from "../../src/features/insight/format";
 import { renderApp } from "./renderApp";
-import { fakeServer, sessionFor } from "./testServer";
+import { answer, fakeServer, sessionFor } from "./testServer";
 
 vi.setConfig({ testTimeout: 30_000 });
 // The first render loads the lazy page and Observable Plot; allow for a slow, busy machine.
@@ -22,7 +22,7 @@ afterEach(() => {
   vi.unstubAllGlobals();
 });
 
-const options: OptionsAnswer = optionsAnswerSchema.parse({
+const options: OptionsAnswer = {
   quarters: ["2026-Q3", "2026-Q2", "2026-Q1"],
   sites: [{ id: 1, code: "WRM", name: "Wrenmoor Learning Centre" }],
   patientTypes: ["infant", "child", "adult"],
@@ -30,12 +30,12 @@ const options: OptionsAnswer = optionsAnswerSchema.parse({
   errors: [],
   instructors: [],
   manikins: [],
-});
+};
 
 const rate = (successes: number, n: number, value: number, low: number, high: number) => ({ successes, n, rate: value, low, high, suppressed: false });
 const hiddenRate = { successes: null, n: null, rate: null, low: null, high: null, suppressed: true };
 
-const overview: OverviewAnswer = overviewAnswerSchema.parse({
+const overview: OverviewAnswer = {
   period: { from: "2026-Q3", to: "2026-Q3", quarters: ["2026-Q3"] },
   previousPeriod: { from: "2026-Q2", to: "2026-Q2", quarters: ["2026-Q2"] },
   suppressionMinCount: 5,
@@ -77,13 +77,13 @@ const overview: OverviewAnswer = overviewAnswerSchema.parse({
     { mode: "live", attempts: 812, passRate: rate(421, 812, 0.5185, 0.4841, 0.5527), medianScore: 88, suppressed: false },
     { mode: "hidden", attempts: 580, passRate: rate(170, 580, 0.2931, 0.2574, 0.3316), medianScore: 74.5, suppressed: false },
   ],
-});
+};
 
-function serve(role: UserRole, answer: OverviewAnswer, query = "quarter=2026-Q3") {
+function serve(role: UserRole, overviewBody: OverviewAnswer, query = "quarter=2026-Q3") {
   return fakeServer({
     "GET /api/me": sessionFor(role),
-    "GET /api/insight/options": { status: 200, body: options },
-    [`GET /api/insight/overview?${query}`]: { status: 200, body: answer },
+    "GET /api/insight/options": answer(optionsAnswerSchema, options),
+    [`GET /api/insight/overview?${query}`]: answer(overviewAnswerSchema, overviewBody),
   });
 }
 
@@ -112,11 +112,11 @@ function tableOf(title: string): string[][] {
 describe("network overview", () => {
   it("calls a change whose interval includes zero no clear change, without a colour of better or worse", async () => {
     // 300/1000 against 295/1000: difference +0.5 points, interval −3.5 to +4.5 points (Newcombe's hybrid score)
-    const small = overviewAnswerSchema.parse({
+    const small: OverviewAnswer = {
       ...overview,
       passRate: rate(300, 1000, 0.3, 0.2724, 0.3291),
       passRateChange: { previous: rate(295, 1000, 0.295, 0.2675, 0.324), absolute: 0.005, relative: 0.0169, low: -0.035, high: 0.045, verdict: "no clear change" },
-    });
+    };
     serve("coordinator", small);
     renderApp("/overview?quarter=2026-Q3");
     await screen.findByRole("heading", { name: "2026 Q3 at a glance" });
@@ -234,9 +234,9 @@ describe("network overview", () => {
     laney.series = { ...laney.series, limits: "laney", sigmaZ: 1.84, baseline: { from: "2025-Q4", to: "2026-Q1", source: "setting", attempts: 1205 } };
     fakeServer({
       "GET /api/me": sessionFor("coordinator"),
-      "GET /api/insight/options": { status: 200, body: options },
-      "GET /api/insight/overview?quarter=2026-Q3": { status: 200, body: overview },
-      "GET /api/insight/overview?quarter=2026-Q3&limits=laney": { status: 200, body: laney },
+      "GET /api/insight/options": answer(optionsAnswerSchema, options),
+      "GET /api/insight/overview?quarter=2026-Q3": answer(overviewAnswerSchema, overview),
+      "GET /api/insight/overview?quarter=2026-Q3&limits=laney": answer(overviewAnswerSchema, laney),
     });
     renderApp("/overview?quarter=2026-Q3");
     await screen.findByRole("heading", { name: "Measured pass rate by quarter" });
@@ -332,7 +332,7 @@ describe("network overview", () => {
   it("shows the server's message when the overview cannot be loaded", async () => {
     fakeServer({
       "GET /api/me": sessionFor("coordinator"),
-      "GET /api/insight/options": { status: 200, body: options },
+      "GET /api/insight/options": answer(optionsAnswerSchema, options),
       "GET /api/insight/overview?quarter=2026-Q3": { status: 422, body: { error: { code: "invalid", message: "The filters are not valid." } } },
     });
     renderApp("/overview?quarter=2026-Q3");

@@ -3,10 +3,10 @@
 // the classes; hidden network figures in words.
 import { cleanup, configure, fireEvent, screen, within } from "@testing-library/react";
 import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
-import { optionsAnswerSchema, standingAnswerSchema, type StandingAnswer } from "../../shared/schemas/insight";
+import { optionsAnswerSchema, standingAnswerSchema, type OptionsAnswer, type StandingAnswer } from "../../shared/schemas/insight";
 import { scaledFunnelLimits } from "../../shared/stats";
 import { renderApp } from "./renderApp";
-import { fakeServer, sessionFor } from "./testServer";
+import { answer, fakeServer, sessionFor } from "./testServer";
 
 vi.setConfig({ testTimeout: 30_000 });
 configure({ asyncUtilTimeout: 10_000 });
@@ -20,7 +20,7 @@ afterEach(() => {
   vi.unstubAllGlobals();
 });
 
-const options = optionsAnswerSchema.parse({
+const options: OptionsAnswer = {
   quarters: ["2026-Q4", "2026-Q3"],
   sites: [{ id: 1, code: "WRM", name: "Wrenmoor Learning Centre" }],
   patientTypes: ["infant", "child", "adult"],
@@ -28,9 +28,9 @@ const options = optionsAnswerSchema.parse({
   errors: [],
   instructors: [{ id: 3, code: "IN03", name: "Ilse Pendrake", siteId: 1 }],
   manikins: [],
-});
+};
 
-const standing: StandingAnswer = standingAnswerSchema.parse({
+const standing: StandingAnswer = {
   period: { from: "2026-Q4", to: "2026-Q4", quarters: ["2026-Q4"] },
   me: { instructorId: 3, code: "IN03", name: "Ilse Pendrake" },
   suppressionMinCount: 5,
@@ -85,13 +85,13 @@ const standing: StandingAnswer = standingAnswerSchema.parse({
     { id: "CL-0276", date: "2026-10-17", course: "adult", learners: 6, passed: 5, attempts: 9, passRate: { successes: 6, n: 9, rate: 0.6667, low: 0.3542, high: 0.8794, suppressed: false } },
     { id: "CL-0269", date: "2026-10-08", course: "infant", learners: 14, passed: 13, attempts: 20, passRate: { successes: 9, n: 20, rate: 0.45, low: 0.2582, high: 0.6579, suppressed: false } },
   ],
-});
+};
 
-function serve(answer: StandingAnswer) {
+function serve(standingBody: StandingAnswer) {
   return fakeServer({
     "GET /api/me": sessionFor("instructor"),
-    "GET /api/insight/options": { status: 200, body: options },
-    "GET /api/insight/standing?quarter=2026-Q4&adjust=case-mix": { status: 200, body: answer },
+    "GET /api/insight/options": answer(optionsAnswerSchema, options),
+    "GET /api/insight/standing?quarter=2026-Q4&adjust=case-mix": answer(standingAnswerSchema, standingBody),
   });
 }
 
@@ -172,8 +172,8 @@ describe("my standing", () => {
   it("links each error I made to my own attempts with that error, most common first, keeping the filters", async () => {
     fakeServer({
       "GET /api/me": sessionFor("instructor"),
-      "GET /api/insight/options": { status: 200, body: options },
-      "GET /api/insight/standing?quarter=2026-Q4&feedback=hidden&adjust=case-mix": { status: 200, body: standing },
+      "GET /api/insight/options": answer(optionsAnswerSchema, options),
+      "GET /api/insight/standing?quarter=2026-Q4&feedback=hidden&adjust=case-mix": answer(standingAnswerSchema, standing),
     });
     renderApp("/my-standing?quarter=2026-Q4&feedback=hidden");
     const nav = await screen.findByRole("navigation", { name: "Open your attempts with an error" });

@@ -2,10 +2,10 @@
 // stubbed at the HTTP boundary: what the quality lead and an instructor each see.
 import { cleanup, configure, screen, within } from "@testing-library/react";
 import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
-import { optionsAnswerSchema } from "../../shared/schemas/insight";
-import { calibrationAnswerSchema, retentionAnswerSchema, type CalibrationRow } from "../../shared/schemas/learners";
+import { optionsAnswerSchema, type OptionsAnswer } from "../../shared/schemas/insight";
+import { calibrationAnswerSchema, retentionAnswerSchema, type CalibrationAnswer, type CalibrationRow, type RetentionAnswer, retentionBins } from "../../shared/schemas/learners";
 import { renderApp } from "./renderApp";
-import { fakeServer, sessionFor } from "./testServer";
+import { answer, fakeServer, sessionFor } from "./testServer";
 
 vi.setConfig({ testTimeout: 30_000 });
 configure({ asyncUtilTimeout: 10_000 });
@@ -20,7 +20,7 @@ afterEach(() => {
   vi.unstubAllGlobals();
 });
 
-const options = optionsAnswerSchema.parse({
+const options: OptionsAnswer = {
   quarters: ["2026-Q4", "2026-Q3"],
   sites: [],
   patientTypes: ["infant", "child", "adult"],
@@ -28,17 +28,17 @@ const options = optionsAnswerSchema.parse({
   errors: [],
   instructors: [],
   manikins: [],
-});
+};
 const period = { from: "2026-Q4", to: "2026-Q4", quarters: ["2026-Q4"] };
 
-const retention = retentionAnswerSchema.parse({
+const retention: RetentionAnswer = {
   period,
   profile: null,
   first_time: { learners: 120, passed: 48, rate: 0.4, ci95: [0.3171, 0.4885] },
-  returning: ["0-6", "6-12", "12-18", "18-24", "24+"].map((months) =>
+  returning: retentionBins.map((months) =>
     months === "6-12" ? { months, learners: 30, passed: 18, rate: 0.6, ci95: [0.4232, 0.7541] } : { months, learners: 0, passed: 0, rate: null, ci95: null },
   ),
-});
+};
 
 function row(id: number, code: string, lenient: number, rank: number): CalibrationRow {
   return {
@@ -62,8 +62,8 @@ describe("Skill retention page", () => {
   it("shows the quality lead first-timers and returns by months, asking for the chosen period", async () => {
     const { requests } = fakeServer({
       "GET /api/me": sessionFor("quality_lead"),
-      "GET /api/insight/options": { status: 200, body: options },
-      "GET /api/learners/retention?quarter=2026-Q4": { status: 200, body: retention },
+      "GET /api/insight/options": answer(optionsAnswerSchema, options),
+      "GET /api/learners/retention?quarter=2026-Q4": answer(retentionAnswerSchema, retention),
     });
     renderApp("/retention?quarter=2026-Q4");
     const table = await screen.findByRole("table", { name: /Returning and first-time learners/ });
@@ -75,11 +75,11 @@ describe("Skill retention page", () => {
 
 describe("Judgement calibration page", () => {
   it("shows an instructor their own table and no other instructor's name", async () => {
-    const own = calibrationAnswerSchema.parse({ period, ranked: 3, rows: [row(3, "IN03", 20, 2)], others: [{ lenient_share: 0.9, strict_share: 0.02, kappa: 0.05 }], othersHidden: 1 });
+    const own: CalibrationAnswer = { period, ranked: 3, rows: [row(3, "IN03", 20, 2)], others: [{ lenient_share: 0.9, strict_share: 0.02, kappa: 0.05 }], othersHidden: 1 };
     fakeServer({
       "GET /api/me": sessionFor("instructor"),
-      "GET /api/insight/options": { status: 200, body: options },
-      "GET /api/learners/calibration?quarter=2026-Q4": { status: 200, body: own },
+      "GET /api/insight/options": answer(optionsAnswerSchema, options),
+      "GET /api/learners/calibration?quarter=2026-Q4": answer(calibrationAnswerSchema, own),
     });
     renderApp("/calibration?quarter=2026-Q4");
     await screen.findByText(/Your judgement against the measurement \(100 attempts you marked\)/);
@@ -89,11 +89,11 @@ describe("Judgement calibration page", () => {
   });
 
   it("shows the quality lead every instructor, most lenient first", async () => {
-    const all = calibrationAnswerSchema.parse({ period, ranked: 2, rows: [row(1, "IN01", 10, 2), row(11, "IN11", 50, 1)], others: [], othersHidden: 0 });
+    const all: CalibrationAnswer = { period, ranked: 2, rows: [row(1, "IN01", 10, 2), row(11, "IN11", 50, 1)], others: [], othersHidden: 0 };
     fakeServer({
       "GET /api/me": sessionFor("quality_lead"),
-      "GET /api/insight/options": { status: 200, body: options },
-      "GET /api/learners/calibration?quarter=2026-Q4": { status: 200, body: all },
+      "GET /api/insight/options": answer(optionsAnswerSchema, options),
+      "GET /api/learners/calibration?quarter=2026-Q4": answer(calibrationAnswerSchema, all),
     });
     renderApp("/calibration?quarter=2026-Q4");
     const table = await screen.findByRole("table", { name: /Each instructor's judgement/ });

@@ -34,7 +34,7 @@ describe("settings page", { timeout: 30_000 }, () => {
     const server = fakeServer({
       ...policyPages,
       "GET /api/insight/options": { status: 200, body: { quarters: [], sites: [], patientTypes: [], feedbackModes: [], errors: [], instructors: [], manikins: [] } },
-      "PUT /api/settings/policy": (init) => ({ status: 200, body: { ...version1, version: 2, ...JSON.parse(String(init?.body)) } }),
+      "PUT /api/settings/policy": (request) => ({ status: 200, body: { ...version1, version: 2, ...(request.body as object) } }),
     });
     renderApp("/settings");
     const adult = await screen.findByRole("group", { name: "Adult" }, { timeout: 10_000 });
@@ -63,7 +63,7 @@ describe("settings page", { timeout: 30_000 }, () => {
         status: 200,
         body: { quarters: ["2026-Q2", "2026-Q1", "2025-Q4", "2025-Q3", "2025-Q2", "2025-Q1"], sites: [], patientTypes: [], feedbackModes: [], errors: [], instructors: [], manikins: [] },
       },
-      "PUT /api/settings/chart-baseline": (init) => ({ status: 200, body: { ...JSON.parse(String(init?.body)).baseline, source: "setting" } }),
+      "PUT /api/settings/chart-baseline": (request) => ({ status: 200, body: { ...(request.body as { baseline: object }).baseline, source: "setting" } }),
     });
     renderApp("/settings");
     expect(await screen.findByText("In use: 2025 Q1 to 2025 Q4, the first four quarters with attempts (the default).", {}, { timeout: 10_000 })).toBeTruthy();

@@ -1,9 +1,9 @@
 // The quarter tracker page: missing files are said in words, not only shown in colour.
 import { cleanup, screen } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
-import type { TrackerAnswer } from "../../shared/schemas/tracker";
+import { trackerAnswerSchema, type TrackerAnswer } from "../../shared/schemas/tracker";
 import { renderApp } from "./renderApp";
-import { fakeServer, sessionFor } from "./testServer";
+import { answer, fakeServer, sessionFor } from "./testServer";
 import { formatDay } from "../../src/lib/formatting";
 
 vi.setConfig({ testTimeout: 20_000 });
@@ -13,7 +13,7 @@ afterEach(() => {
   vi.unstubAllGlobals();
 });
 
-const answer: TrackerAnswer = {
+const trackerBody: TrackerAnswer = {
   quarter: "2026-Q2",
   unassignedRejectedRows: 2,
   instructors: [
@@ -24,7 +24,7 @@ const answer: TrackerAnswer = {
 
 describe("quarter tracker page", () => {
   it("says which files are missing and how many refused rows wait", async () => {
-    fakeServer({ "GET /api/me": sessionFor("coordinator"), "GET /api/tracker?quarter=2026-Q2": { status: 200, body: answer } });
+    fakeServer({ "GET /api/me": sessionFor("coordinator"), "GET /api/tracker?quarter=2026-Q2": answer(trackerAnswerSchema, trackerBody) });
     renderApp("/tracker?quarter=2026-Q2");
     expect(await screen.findByText("1 active instructor has files missing for 2026 Q2.")).toBeTruthy();
     const b1 = screen.getAllByRole("row").find((row) => row.textContent?.includes("B1"))!;
