@@ -3,10 +3,9 @@
 // that asked for its answer only after the options had arrived would never get its options.
 import { cleanup, screen, waitFor } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
-import { apiErrorCodes } from "../../shared/errorCodes";
 import { optionsAnswerSchema, techniqueErrorsAnswerSchema } from "../../shared/schemas/insight";
 import { renderApp } from "./renderApp";
-import { sessionFor, signedOut, type FakeAnswer } from "./testServer";
+import { fakeServer, sessionFor, signedOut, type FakeAnswer, type FakeRoutes } from "./testServer";
 
 vi.setConfig({ testTimeout: 30_000 });
 
@@ -15,7 +14,6 @@ const waiting: ReturnType<typeof setInterval>[] = [];
 afterEach(() => {
   waiting.splice(0).forEach(clearInterval);
   cleanup();
-  vi.unstubAllGlobals();
 });
 
 const options = optionsAnswerSchema.parse({
@@ -34,22 +32,16 @@ const noAttempts = techniqueErrorsAnswerSchema.parse({
   selected: null,
 });
 
-const notFound: FakeAnswer = { status: 404, body: { error: { code: apiErrorCodes.notFound, message: "Not found" } } };
-
-/** A fetch stand-in whose answers may wait: each path maps to an answer or to a promise of one. */
+/** The fake server with some answers held back; `paths` lists every API request in the order it was made. */
 function heldServer(answers: Record<string, FakeAnswer | (() => Promise<FakeAnswer>)>) {
-  const paths: string[] = [];
-  vi.stubGlobal(
-    "fetch",
-    vi.fn(async (input: RequestInfo | URL) => {
-      const path = typeof input === "string" ? input : input instanceof URL ? `${input.pathname}${input.search}` : input.url;
-      paths.push(path);
-      const answer = answers[path];
-      const { status, body } = typeof answer === "function" ? await answer() : (answer ?? notFound);
-      return new Response(JSON.stringify(body), { status, headers: { "content-type": "application/json" } });
-    }),
-  );
-  return { paths };
+  // looked up at each request, so a test may add a held answer that refers to the server after starting it
+  const routes = new Proxy({} as FakeRoutes, { get: (_, key) => (typeof key === "string" && key.startsWith("GET ") ? answers[key.slice(4)] : undefined) });
+  const { requests } = fakeServer(routes);
+  return {
+    get paths() {
+      return requests.map((request) => request.path);
+    },
+  };
 }
 
 /** The options answer, sent only once `path` has been asked for. */

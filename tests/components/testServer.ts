@@ -23,7 +23,8 @@ export interface RecordedRequest {
 }
 
 /** Keys are "METHOD /path?query": the query is part of the match, so a test states exactly what is asked. */
-export type FakeRoutes = Record<string, FakeAnswer | ((request: RecordedRequest) => FakeAnswer)>;
+/** A route answers at once, or through a function of the request that may hold its answer back (a promise). */
+export type FakeRoutes = Record<string, FakeAnswer | ((request: RecordedRequest) => FakeAnswer | Promise<FakeAnswer>)>;
 
 /** What the server answers for a route it does not have; tests/api/fakeServerAgreement.test.ts compares. */
 export const unknownRoute: FakeAnswer = { status: 404, body: { error: { code: apiErrorCodes.notFound, message: "Not found" } } };
@@ -75,7 +76,7 @@ export function fakeServer(routes: FakeRoutes) {
       requests.push(recorded);
       const route = routes[`${recorded.method} ${recorded.path}`];
       if (route === undefined) return undefined; // falls through to the not-found handler
-      return toResponse(typeof route === "function" ? route(recorded) : route);
+      return toResponse(typeof route === "function" ? await route(recorded) : route);
     }),
   );
   return { requests };
