@@ -43,7 +43,15 @@ export default defineConfig({
     launchOptions: {
       executablePath: "/usr/bin/chromium",
       // the background services that reach out to the network switched off
-      args: ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
+      args: [
+        "--no-sandbox",
+        "--disable-gpu",
+        "--disable-quic",
+        "--no-first-run",
+        "--disable-background-networking",
+        "--disable-component-update",
+        "--disable-sync",
+      ],
     },
     viewport: { width: 1360, height: 900 },
     acceptDownloads: true,

@@ -124,7 +124,8 @@ async function task(name: string, dir: string): Promise<TaskResult> {
       const start = performance.now();
       const s = await importFile(db, { kind: "attempts", input: { path: path.join(dir, "attempts.csv") }, source: "seed" });
       const seconds = (performance.now() - start) / 1000;
-      if (s.status !== "imported" || s.inserted !== ATTEMPT_ROWS) throw new Error(`attempts not imported: ${JSON.stringify({ ...s, issues: s.issues.slice(0, 3) })}`);
+      if (s.status !== "imported" || s.inserted !== ATTEMPT_ROWS)
+        throw new Error(`attempts not imported: ${JSON.stringify({ ...s, issues: s.issues.slice(0, 3) })}`);
       db.$client.close();
       return { seconds, rows: s.rowsRead, maxRssMb: 0 };
     }
@@ -169,7 +170,8 @@ async function task(name: string, dir: string): Promise<TaskResult> {
       const start = performance.now();
       const s = await importFile(db, { kind: "compressions", input: { path: path.join(dir, "compressions.csv") }, source: "seed" });
       const seconds = (performance.now() - start) / 1000;
-      if (s.status !== "imported" || s.inserted !== STREAM_ATTEMPTS) throw new Error(`streams not imported: ${JSON.stringify({ ...s, issues: s.issues.slice(0, 3) })}`);
+      if (s.status !== "imported" || s.inserted !== STREAM_ATTEMPTS)
+        throw new Error(`streams not imported: ${JSON.stringify({ ...s, issues: s.issues.slice(0, 3) })}`);
       db.$client.close();
       return { seconds, rows: s.rowsRead, maxRssMb: 0 };
     }
@@ -209,11 +211,15 @@ async function main() {
   // QB_BENCH_DIR keeps the generated files (for profiling a single task with --task NAME DIR).
   const keep = process.env.QB_BENCH_DIR;
   const dir = keep ? (fs.mkdirSync(keep, { recursive: true }), keep) : fs.mkdtempSync(path.join(os.tmpdir(), "qb-import-bench-"));
-  console.log(`Import benchmark, scale ${SCALE}: ${ATTEMPT_ROWS.toLocaleString("en")} attempt rows, ${(STREAM_ATTEMPTS * PER_STREAM).toLocaleString("en")} compression rows (${STREAM_ATTEMPTS.toLocaleString("en")} attempts). Files in ${dir}`);
+  console.log(
+    `Import benchmark, scale ${SCALE}: ${ATTEMPT_ROWS.toLocaleString("en")} attempt rows, ${(STREAM_ATTEMPTS * PER_STREAM).toLocaleString("en")} compression rows (${STREAM_ATTEMPTS.toLocaleString("en")} attempts). Files in ${dir}`,
+  );
   const t0 = performance.now();
   generate(dir);
   const size = (f: string) => `${(fs.statSync(path.join(dir, f)).size / 1e6).toFixed(0)} MB`;
-  console.log(`Generated in ${((performance.now() - t0) / 1000).toFixed(1)} s: attempts.csv ${size("attempts.csv")}, compressions.csv ${size("compressions.csv")}\n`);
+  console.log(
+    `Generated in ${((performance.now() - t0) / 1000).toFixed(1)} s: attempts.csv ${size("attempts.csv")}, compressions.csv ${size("compressions.csv")}\n`,
+  );
 
   const hasSqlite3 = spawnSync("sqlite3", ["-version"]).status === 0;
   const results = new Map<string, TaskResult | { skipped: string }>();
@@ -239,7 +245,15 @@ async function main() {
   const table: Record<string, string | number>[] = [];
   for (const [name, r] of results) {
     if ("skipped" in r) table.push({ task: name, rows: "", seconds: "", "rows/s": "", "peak RSS MB": "", note: r.skipped });
-    else table.push({ task: name, rows: fmt(r.rows), seconds: r.seconds.toFixed(2), "rows/s": fmt(rate(r)), "peak RSS MB": r.maxRssMb.toFixed(0), note: r.note ?? "" });
+    else
+      table.push({
+        task: name,
+        rows: fmt(r.rows),
+        seconds: r.seconds.toFixed(2),
+        "rows/s": fmt(rate(r)),
+        "peak RSS MB": r.maxRssMb.toFixed(0),
+        note: r.note ?? "",
+      });
   }
   console.log("");
   console.table(table);
@@ -252,19 +266,39 @@ async function main() {
   const floor = ok("attempts-sqlite3");
   if (qb) {
     goal("attempts: rows/s", fmt(rate(qb)), "≥ 100,000", rate(qb) >= 100_000);
-    goal("attempts: time vs naive loop (b)", naive ? `${(qb.seconds / naive.seconds).toFixed(2)}×` : "n/a", "< 1×", naive ? qb.seconds < naive.seconds : undefined);
-    goal("attempts: time vs sqlite3 .import (a)", floor ? `${(qb.seconds / floor.seconds).toFixed(2)}×` : "n/a", "≤ 3×", floor ? qb.seconds <= 3 * floor.seconds : undefined);
+    goal(
+      "attempts: time vs naive loop (b)",
+      naive ? `${(qb.seconds / naive.seconds).toFixed(2)}×` : "n/a",
+      "< 1×",
+      naive ? qb.seconds < naive.seconds : undefined,
+    );
+    goal(
+      "attempts: time vs sqlite3 .import (a)",
+      floor ? `${(qb.seconds / floor.seconds).toFixed(2)}×` : "n/a",
+      "≤ 3×",
+      floor ? qb.seconds <= 3 * floor.seconds : undefined,
+    );
     goal("attempts: peak RSS", `${qb.maxRssMb.toFixed(0)} MB`, "< 300 MB", qb.maxRssMb < 300);
   }
   const streams = ok("compressions-quarterbeat");
   const parseOnly = ok("compressions-parse-only");
   if (streams) {
     goal("compressions: rows/s", fmt(rate(streams)), "≥ 200,000", rate(streams) >= 200_000);
-    goal("compressions: time vs parse only", parseOnly ? `${(streams.seconds / parseOnly.seconds).toFixed(2)}×` : "n/a", "≤ 1.5×", parseOnly ? streams.seconds <= 1.5 * parseOnly.seconds : undefined);
+    goal(
+      "compressions: time vs parse only",
+      parseOnly ? `${(streams.seconds / parseOnly.seconds).toFixed(2)}×` : "n/a",
+      "≤ 1.5×",
+      parseOnly ? streams.seconds <= 1.5 * parseOnly.seconds : undefined,
+    );
     goal("compressions: peak RSS", `${streams.maxRssMb.toFixed(0)} MB`, "(bounded)", undefined);
   }
   console.table(goals);
-  console.log(`load average while running: ${os.loadavg().map((l) => l.toFixed(1)).join(", ")} on ${os.cpus().length} cores`);
+  console.log(
+    `load average while running: ${os
+      .loadavg()
+      .map((l) => l.toFixed(1))
+      .join(", ")} on ${os.cpus().length} cores`,
+  );
   if (!keep) fs.rmSync(dir, { recursive: true, force: true });
 }
 

@@ -111,7 +111,14 @@ async function buildDatabase(size: Size): Promise<{ file: string; attempts: numb
   const file = path.join(fs.mkdtempSync(path.join(os.tmpdir(), "qb-bench-insight-")), "network.sqlite");
   const started = performance.now();
   const reuse = size.label === "large" ? process.env.QB_BENCH_LARGE_DB : undefined;
-  const { db, attempts } = reuse ? await copyOfNetwork(reuse, file) : generateNetwork(file, { instructors: size.instructors, quarters: 8, classesPerInstructorQuarter: size.classesPerInstructorQuarter, attemptsPerClass: 10 });
+  const { db, attempts } = reuse
+    ? await copyOfNetwork(reuse, file)
+    : generateNetwork(file, {
+        instructors: size.instructors,
+        quarters: 8,
+        classesPerInstructorQuarter: size.classesPerInstructorQuarter,
+        attemptsPerClass: 10,
+      });
   await createUser(db, { email: EMAIL, displayName: "Bench", role: "coordinator", instructorId: null, password: PASSWORD });
   await createUser(db, { email: INSTRUCTOR_EMAIL, displayName: "Bench instructor", role: "instructor", instructorId: 1, password: PASSWORD });
   db.$client.close();
@@ -240,13 +247,20 @@ async function bench() {
   if (!(scale > 0 && scale <= 10) || !(seconds > 0 && seconds <= 120)) {
     throw new Error("QB_BENCH_SCALE must be in (0, 10] and QB_BENCH_DURATION in (0, 120] seconds");
   }
-  console.log(`Machine: ${os.cpus().length} cores; load average before the run ${os.loadavg().map((l) => l.toFixed(2)).join(", ")}`);
+  console.log(
+    `Machine: ${os.cpus().length} cores; load average before the run ${os
+      .loadavg()
+      .map((l) => l.toFixed(2))
+      .join(", ")}`,
+  );
   const small = await measure({ label: "baseline", instructors: 25, classesPerInstructorQuarter: 3 }, seconds);
   const large = await measure({ label: "large", instructors: 500, classesPerInstructorQuarter: Math.max(1, Math.round(25 * scale)) }, seconds);
 
   const ms = (value: number) => value.toFixed(1).padStart(8);
   console.log(`\nAnswer cache off; 10 connections × ${seconds} s per endpoint; times in ms.`);
-  console.log(`${"period".padEnd(15)} ${"endpoint".padEnd(22)} ${"attempts".padStart(10)} ${"cold".padStart(8)} ${"loop".padStart(8)} ${"p50".padStart(8)} ${"p95".padStart(8)} ${"p99".padStart(8)} ${"req".padStart(7)} err`);
+  console.log(
+    `${"period".padEnd(15)} ${"endpoint".padEnd(22)} ${"attempts".padStart(10)} ${"cold".padStart(8)} ${"loop".padStart(8)} ${"p50".padStart(8)} ${"p95".padStart(8)} ${"p99".padStart(8)} ${"req".padStart(7)} err`,
+  );
   for (const period of PERIODS) {
     for (const { name } of ENDPOINTS) {
       for (const m of [small, large]) {
@@ -258,7 +272,12 @@ async function bench() {
     }
   }
   const attemptRatio = large.attempts / small.attempts;
-  console.log(`\nAttempts, large / baseline: ${attemptRatio.toFixed(0)}×; load average after the run ${os.loadavg().map((l) => l.toFixed(2)).join(", ")}`);
+  console.log(
+    `\nAttempts, large / baseline: ${attemptRatio.toFixed(0)}×; load average after the run ${os
+      .loadavg()
+      .map((l) => l.toFixed(2))
+      .join(", ")}`,
+  );
   for (const period of PERIODS) {
     const floor = large.figures[period.name][ENDPOINTS[0].name].load.p95;
     for (const { name } of ENDPOINTS.slice(1)) {

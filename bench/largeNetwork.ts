@@ -18,6 +18,11 @@ if (fs.existsSync(file)) {
   process.exit(2);
 }
 const started = performance.now();
-const { db, attempts } = generateNetwork(file, { instructors: 500, quarters: 8, classesPerInstructorQuarter: Math.max(1, Math.round(25 * scale)), attemptsPerClass: 10 });
+const { db, attempts } = generateNetwork(file, {
+  instructors: 500,
+  quarters: 8,
+  classesPerInstructorQuarter: Math.max(1, Math.round(25 * scale)),
+  attemptsPerClass: 10,
+});
 db.$client.close();
 console.log(`${attempts.toLocaleString("en")} attempts written to ${file} in ${((performance.now() - started) / 1000).toFixed(0)} s`);

@@ -92,7 +92,11 @@ const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 const serving = process.argv[2] === "--serve";
 const work = serving ? "" : fs.mkdtempSync(path.join(os.tmpdir(), "qb-load-bench-"));
 const cli = (db: string, args: string[]) =>
-  spawnSync(process.execPath, ["--import", "tsx", "cli/main.ts", "--db", db, ...args], { cwd: root, encoding: "utf8", env: { ...process.env, QUARTERBEAT_DB: "" } });
+  spawnSync(process.execPath, ["--import", "tsx", "cli/main.ts", "--db", db, ...args], {
+    cwd: root,
+    encoding: "utf8",
+    env: { ...process.env, QUARTERBEAT_DB: "" },
+  });
 
 const watchdog = setTimeout(() => {
   console.error(`load bench: still running after ${MAX_RUN_MS / 60000} min; stopping.`);
@@ -128,7 +132,10 @@ function writeImportFiles(dbFile: string): { classes: string; attempts: string }
     .get() as { instructor: string; site: string };
   db.$client.close();
   const classes = path.join(work, "load-classes.csv");
-  fs.writeFileSync(classes, `class_id,date,site,instructor,course,learners,passed,manikins\nLOAD-C1,${CLASS_DATE},${owner.site},${owner.instructor},adult,24,20,\n`);
+  fs.writeFileSync(
+    classes,
+    `class_id,date,site,instructor,course,learners,passed,manikins\nLOAD-C1,${CLASS_DATE},${owner.site},${owner.instructor},adult,24,20,\n`,
+  );
   const attempts = path.join(work, "load-attempts.csv");
   const fd = fs.openSync(attempts, "w");
   let chunk =
@@ -262,7 +269,8 @@ const MIX: Record<Role, number> = { coordinator: 1, quality_lead: 7, instructor:
  */
 async function readers(db: ReturnType<typeof openDatabase>): Promise<Reader[]> {
   const sqlite = db.$client;
-  const accounts = () => sqlite.prepare("SELECT email, role FROM users WHERE active = 1 AND role IN ('coordinator', 'quality_lead', 'instructor') ORDER BY id").all() as Reader[];
+  const accounts = () =>
+    sqlite.prepare("SELECT email, role FROM users WHERE active = 1 AND role IN ('coordinator', 'quality_lead', 'instructor') ORDER BY id").all() as Reader[];
   const free = sqlite
     .prepare("SELECT id FROM instructors WHERE active = 1 AND id NOT IN (SELECT instructor_id FROM users WHERE instructor_id IS NOT NULL) ORDER BY id")
     .pluck()
@@ -406,7 +414,9 @@ function importInBackground(dbFile: string, file: string) {
 // ---------- run ----------
 
 async function main() {
-  console.log(`Load: ${USERS} users, ${CONNECTIONS} connections, each user's pages in turn (${Object.keys(PAGES).join(", ")}), ${SECONDS} s per phase; import of ${ROWS.toLocaleString("en")} attempt rows`);
+  console.log(
+    `Load: ${USERS} users, ${CONNECTIONS} connections, each user's pages in turn (${Object.keys(PAGES).join(", ")}), ${SECONDS} s per phase; import of ${ROWS.toLocaleString("en")} attempt rows`,
+  );
   const dbFile = prepareDatabase();
   const files = writeImportFiles(dbFile);
 
@@ -453,7 +463,9 @@ async function main() {
     console.log(`(event-loop delay beyond the ${LOOP_RESOLUTION_MS} ms sampling interval, in the server process; goal: max ≤ 100 ms)`);
     if (phases.length === 2) {
       const [base0, during] = phases;
-      console.log(`\nratios during / baseline: req/s ${(during.perSecond / base0.perSecond).toFixed(2)} · p95 ${(during.p95 / base0.p95).toFixed(2)} · p99 ${(during.p99 / base0.p99).toFixed(2)}`);
+      console.log(
+        `\nratios during / baseline: req/s ${(during.perSecond / base0.perSecond).toFixed(2)} · p95 ${(during.p95 / base0.p95).toFixed(2)} · p99 ${(during.p99 / base0.p99).toFixed(2)}`,
+      );
     }
 
     const summary = imported.code === 0 ? JSON.parse(imported.stdout).files[0] : null;
@@ -465,7 +477,8 @@ async function main() {
         `${importWasRunning ? "still running when the load phase ended" : "finished inside the load phase"}`,
     );
     console.log(`rows present afterwards: ${present} of ${ROWS} ${present === ROWS ? "(all)" : "(MISSING ROWS)"}`);
-    const failed = imported.code !== 0 || present !== ROWS || phases.some((f) => f.errors > 0 || f.non2xx > 0 || f.resets > 0) || alone.some((r) => r.status !== 200);
+    const failed =
+      imported.code !== 0 || present !== ROWS || phases.some((f) => f.errors > 0 || f.non2xx > 0 || f.resets > 0) || alone.some((r) => r.status !== 200);
     if (imported.code !== 0) console.log(imported.stderr);
     if (failed) process.exitCode = 1;
   } finally {

@@ -56,4 +56,3 @@ export async function run(argv: string[]): Promise<number> {
     closeContext();
   }
 }
-

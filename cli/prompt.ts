@@ -4,7 +4,9 @@ import readline from "node:readline";
 export async function readPasswordFromStdin(): Promise<string> {
   const chunks: Buffer[] = [];
   for await (const chunk of process.stdin) chunks.push(chunk as Buffer);
-  return Buffer.concat(chunks).toString("utf8").replace(/\r?\n$/, "");
+  return Buffer.concat(chunks)
+    .toString("utf8")
+    .replace(/\r?\n$/, "");
 }
 
 export function promptHidden(question: string): Promise<string> {

@@ -23,7 +23,8 @@ const clientDir = path.join(root, "dist/client");
 async function ensureClientBuilt(production: boolean) {
   if (fs.existsSync(path.join(clientDir, "index.html"))) return;
   // production runs without development tools: the client comes from `npm run build`
-  if (production) throw new AppError("build_missing", 500, `The web client is not built (${clientDir} has no index.html).`, undefined, "Run `npm run build` first.");
+  if (production)
+    throw new AppError("build_missing", 500, `The web client is not built (${clientDir} has no index.html).`, undefined, "Run `npm run build` first.");
   console.log("Building the web client (first start only)…");
   const { build } = await import("vite");
   await build({ root, logLevel: "warn" });
@@ -50,7 +51,9 @@ async function main() {
   const { dir: backupDir, hourUtc, keep } = config.backups;
   const alertMailer = createMailer(localMail?.url ?? config.smtpUrl);
   const onProblem = (problem: BackupProblem) => alertCoordinators(db, alertMailer, logger, problem);
-  const backups = backupDir ? startBackupSchedule({ dbFile: config.dbFile, dir: backupDir, hourUtc, keep, logger, onProblem, record: (entry) => recordBackup(db, entry) }) : null;
+  const backups = backupDir
+    ? startBackupSchedule({ dbFile: config.dbFile, dir: backupDir, hourUtc, keep, logger, onProblem, record: (entry) => recordBackup(db, entry) })
+    : null;
   const server = app.listen(config.port, () => {
     const address = server.address();
     const port = typeof address === "object" && address ? address.port : config.port;
@@ -64,14 +67,15 @@ async function main() {
       for (const account of demoAccounts) console.log(`  ${account.role.padEnd(13)} ${account.email}  ${account.password}`);
     }
   });
-  const stop = () => server.close(async () => {
-    backups?.stop();
-    await backups?.idle();
-    await localMail?.close();
-    db.$client.close();
-    releaseLock();
-    process.exit(0);
-  });
+  const stop = () =>
+    server.close(async () => {
+      backups?.stop();
+      await backups?.idle();
+      await localMail?.close();
+      db.$client.close();
+      releaseLock();
+      process.exit(0);
+    });
   process.on("SIGINT", stop);
   process.on("SIGTERM", stop);
 }

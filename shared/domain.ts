@@ -19,15 +19,7 @@ export type FeedbackMode = (typeof feedbackModes)[number];
 export const importKinds = ["classes", "attempts", "compressions", "equipment"] as const;
 export type ImportKind = (typeof importKinds)[number];
 
-export const equipmentEventTypes = [
-  "commissioned",
-  "lung_replaced",
-  "mouthpiece_cleaned",
-  "battery_replaced",
-  "serviced",
-  "fault",
-  "retired",
-] as const;
+export const equipmentEventTypes = ["commissioned", "lung_replaced", "mouthpiece_cleaned", "battery_replaced", "serviced", "fault", "retired"] as const;
 export type EquipmentEventType = (typeof equipmentEventTypes)[number];
 
 export const lengthUnits = ["mm", "cm", "in"] as const;

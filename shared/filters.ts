@@ -7,10 +7,7 @@ import { isQuarter } from "./period";
 import { patientTypes } from "./scoring/policy";
 import { attemptErrorNames } from "./scoring/scoreAttempt";
 
-export const quarterParamSchema = z
-  .string({ error: "Use a quarter such as 2026-Q3" })
-  .trim()
-  .refine(isQuarter, "Use a quarter such as 2026-Q3");
+export const quarterParamSchema = z.string({ error: "Use a quarter such as 2026-Q3" }).trim().refine(isQuarter, "Use a quarter such as 2026-Q3");
 
 /** A code as written in the import files, or a numeric id; anything else (quotes, spaces, SQL) is refused. */
 export const refParamSchema = z

@@ -165,9 +165,7 @@ export function parsePeriod(text: string): ReportPeriod | null {
   const match = REPORT_PERIOD_RE.exec(text.trim().toUpperCase());
   if (!match) return null;
   const year = Number(match[1]);
-  return match[2]
-    ? { id: `${match[1]}-Q${match[2]}`, kind: "quarter", year, quarter: Number(match[2]) }
-    : { id: match[1], kind: "year", year, quarter: null };
+  return match[2] ? { id: `${match[1]}-Q${match[2]}`, kind: "quarter", year, quarter: Number(match[2]) } : { id: match[1], kind: "year", year, quarter: null };
 }
 
 function quarterPeriod(quarter: string): ReportPeriod {

@@ -97,9 +97,7 @@ export function releaseGrid(cells: readonly GridCell[], levels: readonly (readon
         continue;
       }
       // smallest first; among equal ones the first in cell order, so the same data always pools the same way
-      const complements = group
-        .filter((unit) => unit.safe && unit.attempts > 0)
-        .sort((a, b) => a.attempts - b.attempts || (a.cells[0] < b.cells[0] ? -1 : 1));
+      const complements = group.filter((unit) => unit.safe && unit.attempts > 0).sort((a, b) => a.attempts - b.attempts || (a.cells[0] < b.cells[0] ? -1 : 1));
       const members = [...unsafe];
       let pool = unitOf(members, rule);
       while (!pool.safe && complements.length > 0) {
@@ -177,7 +175,9 @@ const unsafeCount = (count: number, minCount: number) => count > 0 && isSmall(co
  */
 function poolPins(values: readonly number[], minCount: number): boolean {
   const sum = values.reduce((total, value) => total + value, 0);
-  const bounds = values.map((value): [number, number] => (hiddenReasonOf(value, minCount) === "small" ? [1, minCount - 1] : [minCount, Number.POSITIVE_INFINITY]));
+  const bounds = values.map((value): [number, number] =>
+    hiddenReasonOf(value, minCount) === "small" ? [1, minCount - 1] : [minCount, Number.POSITIVE_INFINITY],
+  );
   return bounds.some(([low, high], index) => {
     const others = bounds.filter((_, other) => other !== index);
     const feasibleLow = Math.max(low, sum - others.reduce((total, [, otherHigh]) => total + otherHigh, 0));
@@ -193,7 +193,15 @@ function poolPins(values: readonly number[], minCount: number): boolean {
 function growPool(small: readonly FamilyCell[], candidates: readonly FamilyCell[], minCount: number): FamilyCell[] | null {
   const pool = [...small];
   const rest = [...candidates].sort((a, b) => a.count - b.count);
-  const unsafe = () => unsafeCount(pool.reduce((sum, cell) => sum + cell.count, 0), minCount) || poolPins(pool.map((cell) => cell.count), minCount);
+  const unsafe = () =>
+    unsafeCount(
+      pool.reduce((sum, cell) => sum + cell.count, 0),
+      minCount,
+    ) ||
+    poolPins(
+      pool.map((cell) => cell.count),
+      minCount,
+    );
   while (unsafe()) {
     const next = rest.shift();
     if (next === undefined) return null;
@@ -224,7 +232,11 @@ export function releaseMeasure(cells: MeasureCells, minCount: number): MeasureRe
     for (const [quarter, quarterCells] of byQuarter) {
       const small = quarterCells.filter((cell) => unsafeCount(cell.count, minCount));
       if (small.length === 0 || withheld.has(quarter)) continue;
-      const pool = growPool(small, quarterCells.filter((cell) => cell.count >= minCount), minCount);
+      const pool = growPool(
+        small,
+        quarterCells.filter((cell) => cell.count >= minCount),
+        minCount,
+      );
       // the quarter's total would pin its own small cells: nothing of the quarter can be shown
       if (pool === null) withheld.add(quarter);
       else quarterPools[name].push({ quarter, categories: new Set(pool.map((cell) => cell.category)) });

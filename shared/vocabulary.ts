@@ -41,7 +41,10 @@ export const errorVocabulary: Record<AttemptError, { short: string; label: strin
   long_pause: { short: "Long interruption", label: "An interruption longer than allowed" },
 };
 
-export const errorShortNames = Object.fromEntries(Object.entries(errorVocabulary).map(([error, words]) => [error, words.short])) as Record<AttemptError, string>;
+export const errorShortNames = Object.fromEntries(Object.entries(errorVocabulary).map(([error, words]) => [error, words.short])) as Record<
+  AttemptError,
+  string
+>;
 export const errorLabels = Object.fromEntries(Object.entries(errorVocabulary).map(([error, words]) => [error, words.label])) as Record<AttemptError, string>;
 
 /** The headline figures, named the same on every page, in the report and the CLI. */

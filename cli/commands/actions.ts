@@ -39,7 +39,9 @@ export function registerActions(program: Command) {
       console.log(`${rows.length} improvement action${rows.length === 1 ? "" : "s"}, newest start first`);
       for (const row of rows) {
         console.log(`  #${row.id} ${row.title}`);
-        console.log(`     ${aimFigureName(row.aim)} (target ${row.target} %) · ${scopeLabel(row)} · ${actionStatusNames[row.status]} · from ${row.startDate} · owner ${row.owner}`);
+        console.log(
+          `     ${aimFigureName(row.aim)} (target ${row.target} %) · ${scopeLabel(row)} · ${actionStatusNames[row.status]} · from ${row.startDate} · owner ${row.owner}`,
+        );
         console.log(`     ${actionVerdictName(row.verdict)}`);
       }
     });

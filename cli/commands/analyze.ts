@@ -32,8 +32,15 @@ export function registerAnalyze(program: Command) {
       const mapping = options.map ? readMappingFile(options.map) : undefined;
       const result = await analyzeFile({ path: file }, { profile: options.profile, mapping });
       if (result.issuesTotal > 0) {
-        const details = result.issues.map((i) => ({ message: `${file}, ${i.row === null ? "header" : `row ${i.row}`}${i.column ? `, ${i.column}` : ""}: ${i.reason}` }));
-        throw new AppError("refused", 422, `${file} cannot be analysed (${result.issuesTotal} problem${result.issuesTotal > 1 ? "s" : ""}; row 1 = first data row after the header):`, details);
+        const details = result.issues.map((i) => ({
+          message: `${file}, ${i.row === null ? "header" : `row ${i.row}`}${i.column ? `, ${i.column}` : ""}: ${i.reason}`,
+        }));
+        throw new AppError(
+          "refused",
+          422,
+          `${file} cannot be analysed (${result.issuesTotal} problem${result.issuesTotal > 1 ? "s" : ""}; row 1 = first data row after the header):`,
+          details,
+        );
       }
       if (options.json) {
         const rows = result.attempts.map((a) => {

@@ -27,9 +27,17 @@ export function registerBackup(program: Command) {
       const size = fs.existsSync(target) ? fs.statSync(target).size : 0;
       recordBackup(db, { takenAt, file: target, sizeBytes: size, source: "cli", verified: problem === null, message: problem ?? verifiedMessage(tables) });
       if (problem !== null) {
-        throw new AppError("backup_failed", 422, `The backup ${file} failed its verification: ${problem}`, undefined, "Check the disk and the database, then try again; the failure is recorded on the System page.");
+        throw new AppError(
+          "backup_failed",
+          422,
+          `The backup ${file} failed its verification: ${problem}`,
+          undefined,
+          "Check the disk and the database, then try again; the failure is recorded on the System page.",
+        );
       }
-      console.log(`Backed up ${config.dbFile} to ${file} (${(size / 1024 / 1024).toFixed(1)} MB in ${Date.now() - started} ms), verified: ${verifiedMessage(tables)}`);
+      console.log(
+        `Backed up ${config.dbFile} to ${file} (${(size / 1024 / 1024).toFixed(1)} MB in ${Date.now() - started} ms), verified: ${verifiedMessage(tables)}`,
+      );
       console.log(`To restore: stop the server, then run \`quarterbeat restore ${file} --force\` (or restore into a new file with --db).`);
     });
 }

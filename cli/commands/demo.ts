@@ -23,7 +23,9 @@ export function registerDemo(program: Command) {
       }
       const result = await seedDemo(db, { today: options.today });
       const counts = seedCounts(db);
-      console.log(`Seeded ${result.network.name}: ${counts.sites} sites, ${counts.instructors} instructors, ${counts.classes} classes, ${counts.attempts} attempts (${counts.streams} with compression streams).`);
+      console.log(
+        `Seeded ${result.network.name}: ${counts.sites} sites, ${counts.instructors} instructors, ${counts.classes} classes, ${counts.attempts} attempts (${counts.streams} with compression streams).`,
+      );
       console.log("Demo sign-ins (demo data only):");
       for (const account of result.accounts) console.log(`  ${account.role.padEnd(13)} ${account.email}  ${account.password}`);
     });

@@ -62,7 +62,9 @@ export function registerFunnel(program: Command) {
       const pct = (x: number | null) => (x === null ? "–" : `${(x * 100).toFixed(1)} %`);
       const fixed = (x: number | null, digits: number) => (x === null ? "–" : x.toFixed(digits));
       console.log(`Instructors against the network, ${rangeLabel(resolved)} · ${adjustNames[adjust.data].toLowerCase()}`);
-      console.log(`  network pass rate ${pct(result.network_rate)} · dispersion φ ${fixed(result.phi, 2)} · ${result.overdispersed ? `overdispersed: limits widened by √φ = ${result.limits_scale.toFixed(2)}` : "not overdispersed: plain limits"}`);
+      console.log(
+        `  network pass rate ${pct(result.network_rate)} · dispersion φ ${fixed(result.phi, 2)} · ${result.overdispersed ? `overdispersed: limits widened by √φ = ${result.limits_scale.toFixed(2)}` : "not overdispersed: plain limits"}`,
+      );
       for (const row of result.instructors) {
         console.log(
           `  ${row.instructor.padEnd(8)} ${String(row.attempts).padStart(5)} attempts · ${String(row.passed).padStart(5)} passed · ${fixed(row.expected, 1).padStart(7)} expected · z ${fixed(row.z, 2).padStart(6)} · ${row.flag ?? "–"}`,

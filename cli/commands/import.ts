@@ -121,7 +121,10 @@ async function mailAlerts(config: Config, db: Db, quiet: boolean) {
     if (!config.smtpUrl) local = await startLocalMailService(db);
     const outcome = await sendImportAlerts(db, createMailer(config.smtpUrl ?? local!.url));
     if (quiet) return;
-    if (outcome.status === "sent") console.log(`Mailed ${outcome.signals} new signal${outcome.signals === 1 ? "" : "s"} to ${outcome.recipients} account${outcome.recipients === 1 ? "" : "s"}, each by its own alert choice.`);
+    if (outcome.status === "sent")
+      console.log(
+        `Mailed ${outcome.signals} new signal${outcome.signals === 1 ? "" : "s"} to ${outcome.recipients} account${outcome.recipients === 1 ? "" : "s"}, each by its own alert choice.`,
+      );
     if (outcome.status === "failed") console.log(`The alert digest could not be sent (${outcome.error}); it is tried again after the next import.`);
   } catch (err) {
     // the import itself is done: a digest that cannot be prepared must not turn it into a failure
@@ -169,14 +172,18 @@ function printSummary(s: ImportSummary) {
   if (s.delimiter) console.log(`  columns separated by ${delimiterLabels[s.delimiter]}`);
   const unit = s.unit === "attempts" ? " attempts" : "";
   const attempts = s.attemptsRead !== null ? ` · attempts ${s.attemptsRead}` : "";
-  console.log(`  rows read ${s.rowsRead}${attempts} · inserted ${s.inserted}${unit} · updated ${s.updated} · unchanged ${s.unchanged} · rejected rows ${s.rejected}`);
+  console.log(
+    `  rows read ${s.rowsRead}${attempts} · inserted ${s.inserted}${unit} · updated ${s.updated} · unchanged ${s.unchanged} · rejected rows ${s.rejected}`,
+  );
   const codes = (Object.entries(s.newCodes) as [string, string[]][]).filter(([, list]) => list.length > 0);
   if (codes.length > 0) console.log(`  new codes: ${codes.map(([what, list]) => `${what} ${list.join(", ")}`).join("; ")}`);
   for (const warning of s.warnings.slice(0, 20)) console.log(`  warning: ${warning}`);
   if (s.warnings.length > 20) console.log(`  … and ${s.warnings.length - 20} more warnings`);
   if (s.issuesTotal > 0) {
     const shown = Math.min(s.issues.length, 50);
-    console.log(`  problems (${s.issuesTotal}; row 1 = first data row after the header${shown < s.issuesTotal ? `; first ${shown} shown, --json lists up to 1000` : ""}):`);
+    console.log(
+      `  problems (${s.issuesTotal}; row 1 = first data row after the header${shown < s.issuesTotal ? `; first ${shown} shown, --json lists up to 1000` : ""}):`,
+    );
     for (const issue of s.issues.slice(0, shown)) {
       const where = issue.row === null ? "header" : `row ${issue.row}`;
       console.log(`    ${s.file}, ${where}${issue.column ? `, ${issue.column}` : ""}: ${issue.reason}`);

@@ -21,7 +21,10 @@ const optionsSchema = z.object({
 function positiveNumber(text: string, option: string, whole: boolean): number {
   const value = Number(text);
   if (!Number.isFinite(value) || value <= 0 || (whole && !Number.isInteger(value))) {
-    throw new UsageError(`${option} ${text} is not a ${whole ? "whole number" : "number"} above 0.`, `For example ${option} ${whole ? DRIFT_DEFAULTS.minClasses : DRIFT_DEFAULTS.minOffsetMm}.`);
+    throw new UsageError(
+      `${option} ${text} is not a ${whole ? "whole number" : "number"} above 0.`,
+      `For example ${option} ${whole ? DRIFT_DEFAULTS.minClasses : DRIFT_DEFAULTS.minOffsetMm}.`,
+    );
   }
   return value;
 }
@@ -56,7 +59,9 @@ export function registerManikins(program: Command) {
       for (const r of rows) {
         const interval = r.ci95 ? ` (95 % interval ${mm(r.ci95[0])} to ${mm(r.ci95[1])})` : "";
         const flag = r.flag === "check" ? `CHECK (flagged in round ${r.flagged_in_round})` : r.flag;
-        console.log(`  ${r.manikin.padEnd(10)} ${r.profile.padEnd(7)} ${String(r.classes).padStart(4)} classes · offset ${mm(r.offset_mm)}${interval} · ${flag}`);
+        console.log(
+          `  ${r.manikin.padEnd(10)} ${r.profile.padEnd(7)} ${String(r.classes).padStart(4)} classes · offset ${mm(r.offset_mm)}${interval} · ${flag}`,
+        );
       }
     });
 }

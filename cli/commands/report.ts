@@ -24,7 +24,13 @@ const optionsSchema = z.object({
   includeActions: z.boolean().optional(),
 });
 
-const collect = (value: string, previous: string[] = []) => [...previous, ...value.split(",").map((v) => v.trim()).filter(Boolean)];
+const collect = (value: string, previous: string[] = []) => [
+  ...previous,
+  ...value
+    .split(",")
+    .map((v) => v.trim())
+    .filter(Boolean),
+];
 
 export function registerReport(program: Command) {
   program

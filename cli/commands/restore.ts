@@ -13,8 +13,12 @@ export function registerRestore(program: Command) {
       const config = loadConfig(undefined, globals.db ? { dbFile: globals.db } : {});
       const result = await restoreDatabase({ backupFile: file, targetFile: config.dbFile, force: options.force });
       const rows = Object.values(result.tables).reduce((sum, n) => sum + n, 0);
-      console.log(`${result.replaced ? "Replaced" : "Created"} ${config.dbFile} from ${file}: ${Object.keys(result.tables).length} tables, ${rows} rows, ${result.tables.attempts ?? 0} attempts.`);
-      console.log(`Schema at migration ${result.migration.applied}${result.migration.current ? "" : ` (the next start applies the newer ones up to ${result.migration.latest})`}.`);
+      console.log(
+        `${result.replaced ? "Replaced" : "Created"} ${config.dbFile} from ${file}: ${Object.keys(result.tables).length} tables, ${rows} rows, ${result.tables.attempts ?? 0} attempts.`,
+      );
+      console.log(
+        `Schema at migration ${result.migration.applied}${result.migration.current ? "" : ` (the next start applies the newer ones up to ${result.migration.latest})`}.`,
+      );
       console.log(`Start the server on it with QUARTERBEAT_DB=${config.dbFile}.`);
     });
 }

@@ -22,7 +22,9 @@ export function registerRetention(program: Command) {
       if (options.json) return console.log(JSON.stringify(answer, null, 2));
       const pct = (x: number | null) => (x === null ? "–" : `${(x * 100).toFixed(1)} %`);
       const line = (label: string, g: { learners: number; passed: number; rate: number | null; ci95: [number, number] | null }, noun: string) =>
-        console.log(`  ${label.padEnd(24)} ${String(g.learners).padStart(6)} ${noun} · first attempt passed ${pct(g.rate)}${g.ci95 ? ` (95 % interval ${pct(g.ci95[0])} – ${pct(g.ci95[1])})` : ""}`);
+        console.log(
+          `  ${label.padEnd(24)} ${String(g.learners).padStart(6)} ${noun} · first attempt passed ${pct(g.rate)}${g.ci95 ? ` (95 % interval ${pct(g.ci95[0])} – ${pct(g.ci95[1])})` : ""}`,
+        );
       console.log(`Classes from ${options.from} to ${options.to}`);
       line("first time", answer.first_time, "learners");
       for (const bin of answer.returning) line(`back after ${bin.months} months`, bin, "returns ");

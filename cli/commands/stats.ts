@@ -29,7 +29,9 @@ export function registerStats(program: Command) {
       console.log(`  attempts ${s.attempts} · passed ${s.passed} · ${figureNames.passRate.toLowerCase()} ${pct(s.pass_rate)}${ci}`);
       if (s.change) {
         const points = (x: number) => `${x >= 0 ? "+" : "−"}${Math.abs(x * 100).toFixed(1)}`;
-        console.log(`  against ${s.change.from}: ${points(s.change.difference)} points (95 % interval ${points(s.change.ci95[0])} to ${points(s.change.ci95[1])}): ${s.change.verdict}`);
+        console.log(
+          `  against ${s.change.from}: ${points(s.change.difference)} points (95 % interval ${points(s.change.ci95[0])} to ${points(s.change.ci95[1])}): ${s.change.verdict}`,
+        );
       }
       console.log(
         `  learners measured ${s.learners_measured} · passed on their first attempt ${pct(s.first_attempt_pass_rate)} · passed at least once ${pct(s.ever_passed_rate)} · ${num(s.attempts_per_learner)} attempts each`,
@@ -39,7 +41,9 @@ export function registerStats(program: Command) {
         `  medians: score ${num(s.median.score)} · depth ok ${num(s.median.depth_ok_pct)} % · rate ok ${num(s.median.rate_ok_pct)} % · recoil ok ${num(s.median.recoil_ok_pct)} % · hands-on ${num(s.median.hands_on_pct)} %`,
       );
       for (const [column, figures] of Object.entries(s.at_ceiling)) {
-        console.log(`  ${column.replace(/_/g, " ")}: median at 100 %, so: ${pct(figures.share_at_100)} of attempts at 100 %, 10th percentile ${num(figures.p10)} %`);
+        console.log(
+          `  ${column.replace(/_/g, " ")}: median at 100 %, so: ${pct(figures.share_at_100)} of attempts at 100 %, 10th percentile ${num(figures.p10)} %`,
+        );
       }
       console.log(`  errors: ${attemptErrorNames.map((name) => `${errorShortNames[name].toLowerCase()} ${s.errors[name]}`).join(" · ")}`);
       console.log(
@@ -47,7 +51,9 @@ export function registerStats(program: Command) {
       );
       const a = s.agreement;
       const kappaCi = a.kappa_ci95 ? ` (95 % interval ${a.kappa_ci95[0].toFixed(3)} – ${a.kappa_ci95[1].toFixed(3)})` : "";
-      console.log(`  ${figureNames.agreement.toLowerCase()}: ${a.attempts} attempts judged by both, kappa ${a.kappa === null ? "–" : a.kappa.toFixed(3)}${kappaCi}`);
+      console.log(
+        `  ${figureNames.agreement.toLowerCase()}: ${a.attempts} attempts judged by both, kappa ${a.kappa === null ? "–" : a.kappa.toFixed(3)}${kappaCi}`,
+      );
       console.log(
         `    instructors passed ${a.table.instructor_pass_measured_fail} the measurement failed and failed ${a.table.instructor_fail_measured_pass} it passed (McNemar p ${a.mcnemar_p.toFixed(4)}); ${a.unjudged} attempts have no instructor judgement`,
       );

@@ -24,7 +24,8 @@ const optionsSchema = z.object({
 
 function profileOf(text: string | undefined): PatientType | null {
   if (text === undefined) return null;
-  if (!(patientTypes as readonly string[]).includes(text)) throw new UsageError(`--profile ${text} is not a patient type.`, `Use one of ${patientTypes.join(", ")}.`);
+  if (!(patientTypes as readonly string[]).includes(text))
+    throw new UsageError(`--profile ${text} is not a patient type.`, `Use one of ${patientTypes.join(", ")}.`);
   return text as PatientType;
 }
 
@@ -41,13 +42,15 @@ export function registerTrend(program: Command) {
     .option("--json", "print JSON")
     .action((raw: unknown, command: Command) => {
       const options = optionsSchema.parse(raw);
-      if (options.by !== "month") throw new UsageError(`--by ${options.by} is not supported.`, "Use --by month (quarters are on the Overview page and in `quarterbeat stats`).");
+      if (options.by !== "month")
+        throw new UsageError(`--by ${options.by} is not supported.`, "Use --by month (quarters are on the Overview page and in `quarterbeat stats`).");
       checkQuarterRange(options.from, options.to);
       const profile = profileOf(options.profile);
       const baselineTo = options.baselineTo;
       if (baselineTo !== undefined) {
         if (!isQuarter(baselineTo)) throw new UsageError(`--baseline-to "${baselineTo}" is not a quarter.`, "Use the form 2026-Q3.");
-        if (baselineTo < options.from || baselineTo > options.to) throw new UsageError(`--baseline-to ${baselineTo} lies outside ${options.from} to ${options.to}.`, "Name a quarter of the range.");
+        if (baselineTo < options.from || baselineTo > options.to)
+          throw new UsageError(`--baseline-to ${baselineTo} lies outside ${options.from} to ${options.to}.`, "Name a quarter of the range.");
       }
       const { db } = context(command);
       const siteId = siteIdOfCode(db, options.site);
@@ -79,11 +82,15 @@ export function registerTrend(program: Command) {
       if (answer.points.length === 0) return console.log("  No month of this range has attempts.");
       for (const point of answer.points) {
         const side = answer.median === null || point.rate === answer.median ? "on the median" : point.rate > answer.median ? "above" : "below";
-        console.log(`  ${point.period}  ${String(point.n).padStart(6)} attempts · ${String(point.passed).padStart(6)} passed · ${pct(point.rate).padStart(7)} · ${side}`);
+        console.log(
+          `  ${point.period}  ${String(point.n).padStart(6)} attempts · ${String(point.passed).padStart(6)} passed · ${pct(point.rate).padStart(7)} · ${side}`,
+        );
       }
       console.log(`  median ${pct(answer.median)}${baselineTo ? ` (months up to ${baselineTo})` : ""} · ${answer.useful} points off the median`);
       const limit = (x: number | null) => (x === null ? "–" : String(x));
-      console.log(`  longest run ${answer.longest_run} (a shift needs more than ${limit(answer.longest_run_limit)}) · crossings ${answer.crossings} (a shift needs fewer than ${limit(answer.crossings_limit)})`);
+      console.log(
+        `  longest run ${answer.longest_run} (a shift needs more than ${limit(answer.longest_run_limit)}) · crossings ${answer.crossings} (a shift needs fewer than ${limit(answer.crossings_limit)})`,
+      );
       console.log(answer.signal ? "  Signal: the months show a non-random shift." : "  No signal: the months vary around the median as chance would.");
     });
 }

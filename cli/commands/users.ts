@@ -32,7 +32,14 @@ export function registerUsers(program: Command) {
       let instructorId: number | null = null;
       if (options.instructor) {
         const found = listInstructors(db).find((i) => i.code === options.instructor);
-        if (!found) throw new AppError("not_found", 404, `No instructor with the code ${options.instructor}.`, undefined, "List instructors in the web app under Sites, or import a class log that names them.");
+        if (!found)
+          throw new AppError(
+            "not_found",
+            404,
+            `No instructor with the code ${options.instructor}.`,
+            undefined,
+            "List instructors in the web app under Sites, or import a class log that names them.",
+          );
         instructorId = found.id;
       }
       const password = options.passwordStdin ? await readPasswordFromStdin() : await promptHidden("Password for the new user: ");

@@ -66,7 +66,13 @@ export function evaluateAction(db: Db, action: ActionRow): ActionEvaluation {
   const difference = before && after ? proportionDifference(after.x, after.n, before.x, before.n) : null;
   const target = action.target / 100;
   const baselineMedian = median(points.filter((point) => point.phase === "before").map((point) => point.rate!));
-  const signals = baselineMedian === null ? null : runChartSignals(points.map((point) => point.rate!), baselineMedian);
+  const signals =
+    baselineMedian === null
+      ? null
+      : runChartSignals(
+          points.map((point) => point.rate!),
+          baselineMedian,
+        );
   return {
     resolution: "quarter",
     startQuarter,

@@ -12,5 +12,9 @@ export function actionMonthlyChart(db: Db, viewer: Viewer, action: ActionRow): M
   const ownScope = viewer.ownInstructorId !== null && action.instructorId === viewer.ownInstructorId;
   if (!viewer.seesEveryone && !ownScope) return null;
   const { from, to } = evaluationWindow(db, action.startDate);
-  return monthlyRunChart(db, { from, to, siteId: action.siteId, instructorId: action.instructorId, profile: action.profile, aim: action.aim }, { splitAt: action.startDate });
+  return monthlyRunChart(
+    db,
+    { from, to, siteId: action.siteId, instructorId: action.instructorId, profile: action.profile, aim: action.aim },
+    { splitAt: action.startDate },
+  );
 }

@@ -118,12 +118,19 @@ export function listNotes(db: Db, actionId: number): ActionNote[] {
 
 export function addNote(db: Db, user: CurrentUser, actionId: number, note: NewActionNote): ActionNote {
   getAction(db, user, actionId);
-  const { id } = db.insert(actionNotes).values({ ...note, actionId, createdBy: user.id }).returning({ id: actionNotes.id }).get();
+  const { id } = db
+    .insert(actionNotes)
+    .values({ ...note, actionId, createdBy: user.id })
+    .returning({ id: actionNotes.id })
+    .get();
   return listNotes(db, actionId).find((row) => row.id === id)!;
 }
 
 export function deleteNote(db: Db, user: CurrentUser, actionId: number, noteId: number): void {
   getAction(db, user, actionId);
-  const removed = db.delete(actionNotes).where(and(eq(actionNotes.id, noteId), eq(actionNotes.actionId, actionId))).run();
+  const removed = db
+    .delete(actionNotes)
+    .where(and(eq(actionNotes.id, noteId), eq(actionNotes.actionId, actionId)))
+    .run();
   if (removed.changes === 0) throw notFound("The note");
 }

@@ -49,7 +49,15 @@ export function allAlerts(db: Db): AllAlertsAnswer {
     const link = can(role, "receiveImportAlerts", "any") ? linkOf(delivery) : null;
     const signal = bySignal.get(delivery.key);
     if (!signal) {
-      bySignal.set(delivery.key, { key: delivery.key, kind: delivery.kind, summary: delivery.summary, sentAt: delivery.sentAt, link, recipients: 0, people: new Set([delivery.userId]) });
+      bySignal.set(delivery.key, {
+        key: delivery.key,
+        kind: delivery.kind,
+        summary: delivery.summary,
+        sentAt: delivery.sentAt,
+        link,
+        recipients: 0,
+        people: new Set([delivery.userId]),
+      });
     } else {
       signal.people.add(delivery.userId);
       signal.link ??= link;

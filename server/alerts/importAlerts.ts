@@ -23,10 +23,7 @@ import { currentSignals, signalList, signalsOf, type Signals, type TaggedSignal 
 const today = () => new Date().toISOString().slice(0, 10);
 
 export type AlertOutcome =
-  | { status: "nothing-new" }
-  | { status: "sent"; recipients: number; signals: number }
-  | { status: "not-configured" }
-  | { status: "failed"; error: string };
+  { status: "nothing-new" } | { status: "sent"; recipients: number; signals: number } | { status: "not-configured" } | { status: "failed"; error: string };
 
 function recipients(db: Db): Recipient[] {
   return db
@@ -63,9 +60,13 @@ export function digestText(signals: Signals): string {
     lines.push("");
   }
   if (signals.shift.length > 0) {
-    lines.push("Monthly measured pass rate running on one side of its median up to the newest month (a reason to look at what changed, not proof of its cause):");
+    lines.push(
+      "Monthly measured pass rate running on one side of its median up to the newest month (a reason to look at what changed, not proof of its cause):",
+    );
     for (const s of signals.shift) {
-      lines.push(`  - ${scopeLabel(s.siteCode)}: ${s.direction} its median in ${monthsLabel(s.months)} from ${monthLabel(s.since)} to ${monthLabel(s.through)}; a run of more than ${monthsLabel(s.runLimit)}, or so few crossings of the median, is unlikely by chance.`);
+      lines.push(
+        `  - ${scopeLabel(s.siteCode)}: ${s.direction} its median in ${monthsLabel(s.months)} from ${monthLabel(s.since)} to ${monthLabel(s.through)}; a run of more than ${monthsLabel(s.runLimit)}, or so few crossings of the median, is unlikely by chance.`,
+      );
     }
     lines.push("");
   }
@@ -78,12 +79,16 @@ export function digestText(signals: Signals): string {
     const { from, to } = signals.drift[0];
     lines.push(`Manikins whose depth readings differ from their peers' in the same classes, ${quarterLabel(from)} to ${quarterLabel(to)}:`);
     for (const s of signals.drift) {
-      lines.push(`  - ${s.assetId}${s.siteCode ? ` (${s.siteCode})` : ""}: reads ${mm(s.offsetMm)} against its peers over ${s.classes} shared classes (95 % interval ${mm(s.ci95[0])} to ${mm(s.ci95[1])}); check the depth sensor before drawing conclusions about learners or instructors.`);
+      lines.push(
+        `  - ${s.assetId}${s.siteCode ? ` (${s.siteCode})` : ""}: reads ${mm(s.offsetMm)} against its peers over ${s.classes} shared classes (95 % interval ${mm(s.ci95[0])} to ${mm(s.ci95[1])}); check the depth sensor before drawing conclusions about learners or instructors.`,
+      );
     }
     lines.push("");
   }
   if (signals.noData.length > 0) {
-    lines.push(`Sites with no attempts or class logs in ${quarterLabel(signals.noData[0].quarter)} so far, after some in ${quarterLabel(signals.noData[0].previous)}:`);
+    lines.push(
+      `Sites with no attempts or class logs in ${quarterLabel(signals.noData[0].quarter)} so far, after some in ${quarterLabel(signals.noData[0].previous)}:`,
+    );
     for (const s of signals.noData) lines.push(`  - ${s.siteCode}: check whether its files are still to come.`);
     lines.push("");
   }
@@ -129,7 +134,14 @@ function recordDeliveries(db: Db, recipient: Recipient, fresh: readonly TaggedSi
     .values(
       fresh.map((item) => {
         const link = signalLink(recipient.role, item);
-        return { userId: recipient.id, key: item.signal.key, kind: item.kind, summary: signalLine(item), linkPath: link?.path ?? null, linkLabel: link?.label ?? null };
+        return {
+          userId: recipient.id,
+          key: item.signal.key,
+          kind: item.kind,
+          summary: signalLine(item),
+          linkPath: link?.path ?? null,
+          linkLabel: link?.label ?? null,
+        };
       }),
     )
     .onConflictDoNothing()

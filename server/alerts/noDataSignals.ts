@@ -16,8 +16,14 @@ export interface NoDataSignal {
 
 /** The newest quarter any attempt or class log falls in, or null before any import (both columns are indexed). */
 export function newestQuarterWithData(db: Db): string | null {
-  const [{ attempt }] = db.select({ attempt: max(attempts.quarter) }).from(attempts).all();
-  const [{ classLog }] = db.select({ classLog: max(classes.quarter) }).from(classes).all();
+  const [{ attempt }] = db
+    .select({ attempt: max(attempts.quarter) })
+    .from(attempts)
+    .all();
+  const [{ classLog }] = db
+    .select({ classLog: max(classes.quarter) })
+    .from(classes)
+    .all();
   if (attempt === null || classLog === null) return attempt ?? classLog;
   return attempt > classLog ? attempt : classLog;
 }

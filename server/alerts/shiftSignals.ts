@@ -64,7 +64,10 @@ export function shownMonths(rows: readonly Pick<MonthlyRow, "period" | "instruct
 /** The shift that reaches the newest month of a series, or null. */
 export function shiftAtEnd(points: readonly MonthRate[]): Omit<ShiftSignal, "key" | "siteCode"> | null {
   const centre = median(points.map((point) => point.rate));
-  const rules = runChartRules(points.map((point) => point.rate), centre);
+  const rules = runChartRules(
+    points.map((point) => point.rate),
+    centre,
+  );
   if (!rules.signal || centre === null || rules.longestRunLimit === null) return null;
   const useful = points.filter((point) => point.rate !== centre);
   const last = useful[useful.length - 1];
@@ -76,7 +79,13 @@ export function shiftAtEnd(points: readonly MonthRate[]): Omit<ShiftSignal, "key
   const longRun = months > rules.longestRunLimit;
   const fewCrossings = rules.crossingsLimit !== null && rules.crossings < rules.crossingsLimit;
   if (!longRun && !fewCrossings) return null;
-  return { direction: side(last) ? "above" : "below", since: useful[start].period, through: points[points.length - 1].period, months, runLimit: rules.longestRunLimit };
+  return {
+    direction: side(last) ? "above" : "below",
+    since: useful[start].period,
+    through: points[points.length - 1].period,
+    months,
+    runLimit: rules.longestRunLimit,
+  };
 }
 
 /** `quarters`: those with attempts, newest first. */
@@ -88,7 +97,9 @@ export function shiftSignals(db: Db, quarters: readonly string[]): ShiftSignal[]
   const rule: ReleaseRule = { minCount: suppressionMinCount, minInstructors: suppressionMinInstructors };
   const scopes: { siteId: number | null; siteCode: string | null }[] = [
     { siteId: null, siteCode: null },
-    ...listSites(db).filter((site) => site.active).map((site) => ({ siteId: site.id, siteCode: site.code })),
+    ...listSites(db)
+      .filter((site) => site.active)
+      .map((site) => ({ siteId: site.id, siteCode: site.code })),
   ];
   // one read of the window serves the network's series and every site's
   const rows = monthlyCountsBySiteAndInstructor(db, { from: window[window.length - 1], to: newest, siteId: null, instructorId: null, profile: null });

@@ -48,7 +48,9 @@ export function signalLink(role: UserRole, item: TaggedSignal): { label: string;
       return overview(item.signal.siteCode);
     case "service":
     case "drift":
-      return can(role, "readEquipment") ? { label: `Manikin ${item.signal.assetId}`, path: `/equipment/manikins/${encodeURIComponent(item.signal.assetId)}` } : null;
+      return can(role, "readEquipment")
+        ? { label: `Manikin ${item.signal.assetId}`, path: `/equipment/manikins/${encodeURIComponent(item.signal.assetId)}` }
+        : null;
     case "noData":
       return can(role, "readTracker") ? { label: "Quarter tracker", path: "/tracker" } : overview(item.signal.siteCode);
   }

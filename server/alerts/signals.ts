@@ -105,7 +105,18 @@ export function currentSignals(db: Db, asOf: string): Signals {
   const funnel = instructorTable(db, wholeNetwork(quarter)).instructors.flatMap((row): FunnelSignal[] => {
     if (row.position !== "above998" && row.position !== "below998") return [];
     const side = row.position === "above998" ? "above" : "below";
-    return [{ key: `funnel:${quarter}:${row.code}:${side}`, quarter, instructorCode: row.code, instructorId: row.id, siteCode: row.site?.code ?? null, side, passed: row.passRate.successes ?? 0, attempts: row.attempts }];
+    return [
+      {
+        key: `funnel:${quarter}:${row.code}:${side}`,
+        quarter,
+        instructorCode: row.code,
+        instructorId: row.id,
+        siteCode: row.site?.code ?? null,
+        side,
+        passed: row.passRate.successes ?? 0,
+        attempts: row.attempts,
+      },
+    ];
   });
   const policy = currentPolicy(db).policy.equipment;
   const equipment = equipmentReport(db, policy, { filters: wholeNetwork(quarter), onlyInstructorId: null, asOf });
@@ -114,7 +125,9 @@ export function currentSignals(db: Db, asOf: string): Signals {
     if ((item.kind !== "service_by_compressions" && item.kind !== "service_by_days") || !item.manikin) return [];
     // a new service starts a new interval, and with it a new signal once that one runs out
     const since = lastService.get(item.manikin.id) ?? "never";
-    return [{ key: `service:${item.manikin.assetId}:${item.kind}:${since}`, assetId: item.manikin.assetId, siteCode: item.site?.code ?? null, reason: item.reason }];
+    return [
+      { key: `service:${item.manikin.assetId}:${item.kind}:${since}`, assetId: item.manikin.assetId, siteCode: item.site?.code ?? null, reason: item.reason },
+    ];
   });
   return {
     funnel,
@@ -133,6 +146,8 @@ function driftSignals(db: Db, quarters: readonly string[], rule: ReturnType<type
   return manikinDriftReport(db, { from, to, siteId: null, options: rule }).flatMap((m): DriftSignal[] => {
     if (m.flag !== "check" || m.offset_mm === null || m.ci95 === null) return [];
     const direction = m.offset_mm > 0 ? "deeper" : "shallower";
-    return [{ key: `drift:${m.manikin}:${direction}`, assetId: m.manikin, siteCode: m.site, from, to, classes: m.classes, offsetMm: m.offset_mm, ci95: m.ci95 }];
+    return [
+      { key: `drift:${m.manikin}:${direction}`, assetId: m.manikin, siteCode: m.site, from, to, classes: m.classes, offsetMm: m.offset_mm, ci95: m.ci95 },
+    ];
   });
 }

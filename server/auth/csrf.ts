@@ -24,5 +24,4 @@ export function createCsrf(secret: string, production: boolean) {
   });
 }
 
-export const csrfRefused = () =>
-  new AppError(apiErrorCodes.csrf, 403, "The form's security token is missing or out of date. Reload the page and try again.");
+export const csrfRefused = () => new AppError(apiErrorCodes.csrf, 403, "The form's security token is missing or out of date. Reload the page and try again.");

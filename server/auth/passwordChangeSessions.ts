@@ -15,10 +15,7 @@ export function logIn(req: Request, user: CurrentUser): Promise<void> {
  */
 export type EndSessionsAfterPasswordChange = (req: Request, res: Response, userId: number) => Promise<SessionAnswer | null>;
 
-export function endSessionsAfterPasswordChange(
-  store: SqliteSessionStore,
-  csrfToken: (req: Request, res: Response) => string,
-): EndSessionsAfterPasswordChange {
+export function endSessionsAfterPasswordChange(store: SqliteSessionStore, csrfToken: (req: Request, res: Response) => string): EndSessionsAfterPasswordChange {
   return async (req, res, userId) => {
     const own = req.user?.id === userId ? req.user : undefined;
     await store.endSessionsOfUser(userId, own ? req.session.id : undefined);

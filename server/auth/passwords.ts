@@ -6,9 +6,7 @@ const PARAMS = { N: 16384, r: 8, p: 1 };
 
 function scrypt(password: string, salt: Buffer, params: ScryptOptions): Promise<Buffer> {
   return new Promise((resolve, reject) =>
-    scryptCallback(password, salt, KEY_LENGTH, { ...params, maxmem: 64 * 1024 * 1024 }, (err, key) =>
-      err ? reject(err) : resolve(key),
-    ),
+    scryptCallback(password, salt, KEY_LENGTH, { ...params, maxmem: 64 * 1024 * 1024 }, (err, key) => (err ? reject(err) : resolve(key))),
   );
 }
 

@@ -75,9 +75,7 @@ export function authRoutes({ db, passport, csrfToken, csrfCookie, endSessionsAft
     const account = findUserForSignIn(db, user.email);
     if (!account || !(await verifyPassword(input.currentPassword, account.passwordHash))) {
       countAsGuess(res);
-      throw new AppError("invalid", 422, "The current password is not right.", [
-        { path: "currentPassword", message: "Not your current password" },
-      ]);
+      throw new AppError("invalid", 422, "The current password is not right.", [{ path: "currentPassword", message: "Not your current password" }]);
     }
     await setPassword(db, user.id, input.newPassword);
     res.json(await endSessionsAfterPasswordChange(req, res, user.id));

@@ -59,6 +59,12 @@ export function passwordGuessLimits(options: SignInLimit, accountOf: AccountOf):
   return [
     limiter("address", windowMs, options.addressLimit ?? limit * 10, addressOf, `Too many sign-in attempts from here. ${wait}`),
     limiter("account", windowMs, options.accountLimit ?? limit * 3, accountOf, `Too many sign-in attempts for this account. ${wait}`),
-    limiter("address-account", windowMs, limit, (req) => `${addressOf(req)} ${accountOf(req)}`, `Too many sign-in attempts for this account from here. ${wait}`),
+    limiter(
+      "address-account",
+      windowMs,
+      limit,
+      (req) => `${addressOf(req)} ${accountOf(req)}`,
+      `Too many sign-in attempts for this account from here. ${wait}`,
+    ),
   ];
 }

@@ -11,15 +11,7 @@ import { sql } from "drizzle-orm";
 import { blob, index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
 import type { AlertKind } from "../../shared/alertKinds";
 import type { AimFigure } from "../../shared/vocabulary";
-import {
-  actionStatuses,
-  courseTypes,
-  equipmentEventTypes,
-  feedbackModes,
-  importKinds,
-  lengthUnits,
-  userRoles,
-} from "../../shared/domain";
+import { actionStatuses, courseTypes, equipmentEventTypes, feedbackModes, importKinds, lengthUnits, userRoles } from "../../shared/domain";
 import { jobStatuses, uploadEndReasons } from "../../shared/import/api";
 
 const patientTypes = ["infant", "child", "adult"] as const;
@@ -74,9 +66,7 @@ export const users = sqliteTable("users", {
   role: text({ enum: userRoles }).notNull(),
   instructorId: integer().references(() => instructors.id),
   active: integer({ mode: "boolean" }).notNull().default(true),
-  lengthUnit: text({ enum: lengthUnits })
-    .notNull()
-    .default("mm"),
+  lengthUnit: text({ enum: lengthUnits }).notNull().default("mm"),
   /** The alert kinds chosen on the account page; null until chosen, when the role's defaults apply (shared/alertKinds.ts). */
   alertKinds: text({ mode: "json" }).$type<AlertKind[]>(),
   createdAt: createdAt(),
@@ -563,7 +553,10 @@ export const reportSends = sqliteTable("report_sends", {
   sentBy: integer().references(() => users.id),
   recipients: text({ mode: "json" }).$type<string[]>().notNull(),
   /** Each recipient gets a message of their own; a retry sends only to those not yet reached. */
-  delivered: text({ mode: "json" }).$type<string[]>().notNull().default(sql`'[]'`),
+  delivered: text({ mode: "json" })
+    .$type<string[]>()
+    .notNull()
+    .default(sql`'[]'`),
   coverNote: text().notNull().default(""),
   status: text({ enum: ["sent", "failed"] }).notNull(),
   error: text(),

@@ -39,18 +39,11 @@ export interface ClassOutcome {
   attempts: AttemptRecord[];
 }
 
-export function runClasses(
-  classes: PlannedClass[],
-  scenario: DemoScenario,
-  timeline: Timeline,
-  random: Random,
-): ClassOutcome[] {
+export function runClasses(classes: PlannedClass[], scenario: DemoScenario, timeline: Timeline, random: Random): ClassOutcome[] {
   const usedCodes = new Set<string>();
   let attemptNumber = 0;
   const nextAttemptId = () => `AT-${String(++attemptNumber).padStart(6, "0")}`;
-  return classes.map((plannedClass) =>
-    runClass(plannedClass, scenario, timeline, random, usedCodes, nextAttemptId),
-  );
+  return classes.map((plannedClass) => runClass(plannedClass, scenario, timeline, random, usedCodes, nextAttemptId));
 }
 
 /** Skill the whole network gains from its refresher: a little while it runs, clearly afterwards. */
@@ -100,12 +93,7 @@ function runClass(
         const stations = plannedClass.stations[profile] as Manikin[];
         const manikin = stations[learner.index % stations.length];
         const live = random.chance(scenario.attempts.liveFeedbackShare);
-        const skill =
-          classSkill +
-          learner.ability +
-          random.normal(0, perf.attemptSpread) +
-          (live ? perf.liveFeedbackBoost : 0) +
-          perf.practiceBoost * round;
+        const skill = classSkill + learner.ability + random.normal(0, perf.attemptSpread) + (live ? perf.liveFeedbackBoost : 0) + perf.practiceBoost * round;
         const plan = planStrokes(profile, skill, live, scenario, random);
         // a drifting sensor reads every compression deeper than the learner pressed; the learner is the same
         if (manikin.assetId === drift.manikin && plannedClass.date >= driftFrom) plan.depthMeanMm += drift.depthMm;

@@ -20,12 +20,7 @@ export interface ClassConsumables {
   batteries: ManikinQuantity[];
 }
 
-export function classConsumables(
-  plannedClass: PlannedClass,
-  scenario: DemoScenario,
-  timeline: Timeline,
-  random: Random,
-): ClassConsumables {
+export function classConsumables(plannedClass: PlannedClass, scenario: DemoScenario, timeline: Timeline, random: Random): ClassConsumables {
   const c = scenario.consumables;
   const manikins = Object.values(plannedClass.stations)
     .flat()
@@ -35,8 +30,7 @@ export function classConsumables(
   const batteryCount = random.chance(c.batteryChance) ? 1 : 0;
 
   const gap = c.cleaningGap;
-  const inGap =
-    plannedClass.site === gap.site && quarterIndex(quarterOf(plannedClass.date)) <= timeline.shiftQuarter(gap.untilQuarter);
+  const inGap = plannedClass.site === gap.site && quarterIndex(quarterOf(plannedClass.date)) <= timeline.shiftQuarter(gap.untilQuarter);
   const [low, high] = inGap ? gap.perLearner : c.mouthpiecesPerLearner;
   const cleaned = Math.max(1, Math.round(plannedClass.learners * random.uniform(low, high)));
 
@@ -60,7 +54,5 @@ function oneEach(manikins: string[]): ManikinQuantity[] {
 function spread(count: number, manikins: string[]): ManikinQuantity[] {
   const base = Math.floor(count / manikins.length);
   const extra = count % manikins.length;
-  return manikins
-    .map((manikin, i) => ({ manikin, quantity: base + (i < extra ? 1 : 0) }))
-    .filter((item) => item.quantity > 0);
+  return manikins.map((manikin, i) => ({ manikin, quantity: base + (i < extra ? 1 : 0) })).filter((item) => item.quantity > 0);
 }

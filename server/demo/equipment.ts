@@ -16,10 +16,7 @@ export interface EquipmentEvent {
   note: string;
 }
 
-export function equipmentLog(
-  fleet: Manikin[],
-  classes: { plannedClass: PlannedClass; consumables: ClassConsumables }[],
-): EquipmentEvent[] {
+export function equipmentLog(fleet: Manikin[], classes: { plannedClass: PlannedClass; consumables: ClassConsumables }[]): EquipmentEvent[] {
   const events: EquipmentEvent[] = [];
   const siteOf = new Map(fleet.map((m) => [m.assetId, m.site]));
   const add = (date: string, manikin: string, event: EquipmentEventType, quantity: number, note: string) =>
@@ -54,10 +51,7 @@ export function equipmentLog(
   }
 
   return mergeSameDay(events).sort(
-    (a, b) =>
-      a.date.localeCompare(b.date) ||
-      a.manikin.localeCompare(b.manikin) ||
-      equipmentEventTypes.indexOf(a.event) - equipmentEventTypes.indexOf(b.event),
+    (a, b) => a.date.localeCompare(b.date) || a.manikin.localeCompare(b.manikin) || equipmentEventTypes.indexOf(a.event) - equipmentEventTypes.indexOf(b.event),
   );
 }
 

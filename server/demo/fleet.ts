@@ -59,9 +59,7 @@ export function buildFleet(scenario: DemoScenario, timeline: Timeline, random: R
     const manikin = byId.get(incident.manikin);
     if (!manikin) throw new Error(`Scenario incident names an unknown manikin ${incident.manikin}`);
     const fault = timeline.shiftDate(incident.fault);
-    const repaired = incident.repaired
-      ? { date: timeline.shiftDate(incident.repaired), note: incident.repairNote ?? "Repaired" }
-      : null;
+    const repaired = incident.repaired ? { date: timeline.shiftDate(incident.repaired), note: incident.repairNote ?? "Repaired" } : null;
     manikin.faults.push({ date: fault, note: incident.faultNote, repaired });
     if (incident.retired) {
       manikin.retired = { date: timeline.shiftDate(incident.retired), note: incident.retiredNote ?? "Retired" };

@@ -17,14 +17,7 @@ export interface Judgement {
   recorded: "pass" | "fail" | "";
 }
 
-export function judgeAttempt(
-  summary: AttemptSummary,
-  profile: PatientType,
-  live: boolean,
-  scenario: DemoScenario,
-  random: Random,
-  lenient = false,
-): Judgement {
+export function judgeAttempt(summary: AttemptSummary, profile: PatientType, live: boolean, scenario: DemoScenario, random: Random, lenient = false): Judgement {
   const odds = lenient ? { ...scenario.judgement, ...scenario.lenientInstructor } : scenario.judgement;
   const measured = scoreAttempt(summary, profile, DEFAULT_POLICY);
   const chanceOfPass = measured.passed

@@ -28,13 +28,7 @@ export function faultFactor(skill: number): number {
   return Math.min(2.5, Math.max(0.2, Math.exp(-0.5 * skill)));
 }
 
-export function planStrokes(
-  profile: PatientType,
-  skill: number,
-  live: boolean,
-  scenario: DemoScenario,
-  random: Random,
-): StrokePlan {
+export function planStrokes(profile: PatientType, skill: number, live: boolean, scenario: DemoScenario, random: Random): StrokePlan {
   const tendency = scenario.performance.profiles[profile];
   const band = DEFAULT_POLICY.bands[profile];
   const fault = faultFactor(skill);

@@ -35,7 +35,9 @@ export function plantReturningLearners(outcomes: ClassOutcome[], scenario: DemoS
     const newCode = new Map<string, string>();
     for (const [learner, first] of firstAttempt) {
       if (!random.chance(plan.share)) continue;
-      const due = [...lastClass].filter(([code, last]) => !takenHere.has(code) && (day - last) / DAYS_PER_MONTH >= fewest && (day - last) / DAYS_PER_MONTH <= most);
+      const due = [...lastClass].filter(
+        ([code, last]) => !takenHere.has(code) && (day - last) / DAYS_PER_MONTH >= fewest && (day - last) / DAYS_PER_MONTH <= most,
+      );
       if (due.length === 0) continue;
       const [code, last] = random.pick(due);
       const months = (day - last) / DAYS_PER_MONTH;

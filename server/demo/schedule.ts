@@ -32,12 +32,7 @@ export const profilesOfCourse: Record<CourseType, PatientType[]> = {
 
 const START_MINUTES = [9 * 60, 13 * 60 + 30, 18 * 60];
 
-export function planClasses(
-  scenario: DemoScenario,
-  timeline: Timeline,
-  fleet: Manikin[],
-  random: Random,
-): PlannedClass[] {
+export function planClasses(scenario: DemoScenario, timeline: Timeline, fleet: Manikin[], random: Random): PlannedClass[] {
   const taken = new Set<string>(); // site|date
   const planned: Omit<PlannedClass, "id">[] = [];
   timeline.quarters.forEach((quarter, k) => {
@@ -50,9 +45,7 @@ export function planClasses(
     const count = Math.round((perFullQuarter * days.length) / fullDays);
     for (let i = 0; i < count; i++) {
       const instructor = random.weighted(scenario.instructors, (x) => x.workload);
-      const site = random.chance(scenario.classes.homeSiteShare)
-        ? instructor.site
-        : random.pick(scenario.sites.filter((s) => s.code !== instructor.site)).code;
+      const site = random.chance(scenario.classes.homeSiteShare) ? instructor.site : random.pick(scenario.sites.filter((s) => s.code !== instructor.site)).code;
       const date = freeDay(days, site, taken, random);
       if (!date) continue; // every day of the quarter is already taken at this site
       taken.add(`${site}|${date}`);

@@ -3,16 +3,8 @@
 import type { AttemptRecord } from "./attempts";
 import type { Random } from "./random";
 
-export function splitStreamAttempts(
-  attempts: AttemptRecord[],
-  streamCount: number,
-  random: Random,
-): { summaries: AttemptRecord[]; streams: AttemptRecord[] } {
-  const chosen = new Set(
-    random
-      .shuffled(attempts.map((a) => a.id))
-      .slice(0, Math.min(streamCount, attempts.length)),
-  );
+export function splitStreamAttempts(attempts: AttemptRecord[], streamCount: number, random: Random): { summaries: AttemptRecord[]; streams: AttemptRecord[] } {
+  const chosen = new Set(random.shuffled(attempts.map((a) => a.id)).slice(0, Math.min(streamCount, attempts.length)));
   return {
     summaries: attempts.filter((a) => !chosen.has(a.id)),
     streams: attempts.filter((a) => chosen.has(a.id)),

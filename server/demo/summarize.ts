@@ -22,15 +22,7 @@ export interface AttemptSummary {
 }
 
 export function summarizeStream(stream: CompressionStream, profile: PatientType): AttemptSummary {
-  const m = analyzeSorted(
-    stream.t,
-    stream.depth,
-    stream.release,
-    0,
-    stream.t.length,
-    DEFAULT_POLICY.bands[profile],
-    DEFAULT_POLICY,
-  );
+  const m = analyzeSorted(stream.t, stream.depth, stream.release, 0, stream.t.length, DEFAULT_POLICY.bands[profile], DEFAULT_POLICY);
   const [depthOk, shallow, deep] = wholePercentages([m.depth_ok_pct, m.too_shallow_pct, m.too_deep_pct]);
   const [rateOk, slow, fast] = wholePercentages([m.rate_ok_pct, m.too_slow_pct, m.too_fast_pct]);
   return {
@@ -57,9 +49,7 @@ export function summarizeStream(stream: CompressionStream, profile: PatientType)
 export function wholePercentages(shares: readonly number[]): number[] {
   const floors = shares.map((s) => Math.floor(s + 1e-9));
   let missing = Math.round(shares.reduce((a, b) => a + b, 0)) - floors.reduce((a, b) => a + b, 0);
-  const order = shares
-    .map((s, i) => ({ i, remainder: s - floors[i] }))
-    .sort((a, b) => b.remainder - a.remainder || a.i - b.i);
+  const order = shares.map((s, i) => ({ i, remainder: s - floors[i] })).sort((a, b) => b.remainder - a.remainder || a.i - b.i);
   for (const { i } of order) {
     if (missing <= 0) break;
     floors[i]++;

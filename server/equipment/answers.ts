@@ -16,7 +16,8 @@ import { equipmentReport } from "./service";
 
 /** A manikin's use in a quarter is a figure over others' attempts: shown as the insight pages' grid allows. */
 function usageShownTo(db: Db, viewer: Viewer) {
-  return (manikinId: number, quarter: string) => mayShow(db, viewer, { from: quarter, to: quarter, siteId: null, profile: null, feedback: null, instructorId: null, manikinId });
+  return (manikinId: number, quarter: string) =>
+    mayShow(db, viewer, { from: quarter, to: quarter, siteId: null, profile: null, feedback: null, instructorId: null, manikinId });
 }
 
 export function fleetAnswer(db: Db, viewer: Viewer, filters: ResolvedFilters, asOf: string) {
@@ -32,7 +33,10 @@ export function fleetAnswer(db: Db, viewer: Viewer, filters: ResolvedFilters, as
 export function driftAnswer(db: Db, viewer: Viewer, filters: ResolvedFilters) {
   const rule = driftRule(currentPolicy(db).policy.equipment);
   const showClasses = can(viewer.user, "readEquipment", "any");
-  const onlyManikin = filters.manikinId === null ? null : (db.select({ assetId: manikins.assetId }).from(manikins).where(eq(manikins.id, filters.manikinId)).get()?.assetId ?? null);
+  const onlyManikin =
+    filters.manikinId === null
+      ? null
+      : (db.select({ assetId: manikins.assetId }).from(manikins).where(eq(manikins.id, filters.manikinId)).get()?.assetId ?? null);
   return {
     period: filters.period,
     rule,
@@ -47,8 +51,14 @@ export function driftAnswer(db: Db, viewer: Viewer, filters: ResolvedFilters) {
 export function manikinAnswer(db: Db, viewer: Viewer, filters: ResolvedFilters, assetId: string, asOf: string) {
   const onlyInstructorId = rowScope(viewer.user, "readEquipment").instructorId;
   const seesFleet = can(viewer.user, "readEquipment", "any");
-  return manikinRecord(db, currentPolicy(db).policy.equipment, assetId, { filters, onlyInstructorId, asOf, usageShown: usageShownTo(db, viewer) }, {
-    onlySiteId: seesFleet ? null : filters.siteId,
-    showClasses: seesFleet,
-  });
+  return manikinRecord(
+    db,
+    currentPolicy(db).policy.equipment,
+    assetId,
+    { filters, onlyInstructorId, asOf, usageShown: usageShownTo(db, viewer) },
+    {
+      onlySiteId: seesFleet ? null : filters.siteId,
+      showClasses: seesFleet,
+    },
+  );
 }

@@ -29,9 +29,17 @@ export function manikinRecord(db: Db, policy: EquipmentPolicy, assetId: string, 
   const [record] = fleetRecords(db, { ...scope, filters });
   const rule = driftRule(policy);
   const drift =
-    manikinDriftReport(db, { from: filters.period.from, to: filters.period.to, siteId: manikin.siteId, options: rule }).find((row) => row.manikin === assetId) ?? null;
+    manikinDriftReport(db, { from: filters.period.from, to: filters.period.to, siteId: manikin.siteId, options: rule }).find(
+      (row) => row.manikin === assetId,
+    ) ?? null;
   const log = db
-    .select({ date: equipmentEvents.date, event: equipmentEvents.event, quantity: equipmentEvents.quantity, note: equipmentEvents.note, resolved: equipmentEvents.resolved })
+    .select({
+      date: equipmentEvents.date,
+      event: equipmentEvents.event,
+      quantity: equipmentEvents.quantity,
+      note: equipmentEvents.note,
+      resolved: equipmentEvents.resolved,
+    })
     .from(equipmentEvents)
     .where(eq(equipmentEvents.manikinId, manikin.id))
     .orderBy(desc(equipmentEvents.date), desc(equipmentEvents.id))

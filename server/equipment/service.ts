@@ -185,7 +185,13 @@ function consumablesBySiteQuarter(db: Db, filters: ResolvedFilters): EquipmentAn
     .groupBy(eventSite, eventQuarter)
     .all();
 
-  const siteCodes = new Map(db.select({ id: sites.id, code: sites.code }).from(sites).all().map((row) => [row.id, row.code]));
+  const siteCodes = new Map(
+    db
+      .select({ id: sites.id, code: sites.code })
+      .from(sites)
+      .all()
+      .map((row) => [row.id, row.code]),
+  );
   const cells = new Map<string, { siteId: number; quarter: string; learners: number; logs: [number, number, number]; events: [number, number, number] }>();
   const cell = (siteId: number, quarter: string) => {
     const key = `${siteId}|${quarter}`;
@@ -200,7 +206,9 @@ function consumablesBySiteQuarter(db: Db, filters: ResolvedFilters): EquipmentAn
   for (const row of fromEvents) cell(row.siteId, row.quarter).events = [row.lungs, row.mouthpieces, row.batteries];
   return [...cells.values()]
     .filter((c) => siteCodes.has(c.siteId))
-    .sort((a, b) => (siteCodes.get(a.siteId)! < siteCodes.get(b.siteId)! ? -1 : siteCodes.get(a.siteId)! > siteCodes.get(b.siteId)! ? 1 : a.quarter < b.quarter ? -1 : 1))
+    .sort((a, b) =>
+      siteCodes.get(a.siteId)! < siteCodes.get(b.siteId)! ? -1 : siteCodes.get(a.siteId)! > siteCodes.get(b.siteId)! ? 1 : a.quarter < b.quarter ? -1 : 1,
+    )
     .map((c) => ({
       site: { id: c.siteId, code: siteCodes.get(c.siteId)! },
       quarter: c.quarter,
@@ -253,7 +261,14 @@ function mouthpieceAttention(db: Db, policy: EquipmentPolicy, scope: EquipmentSc
   if (filters.siteId !== null) conditions.push(eq(classes.siteId, filters.siteId));
   if (scope.onlyInstructorId !== null) conditions.push(eq(classes.instructorId, scope.onlyInstructorId));
   return db
-    .select({ id: classes.id, date: classes.date, siteId: classes.siteId, siteCode: sites.code, learners: classes.learners, cleaned: classes.mouthpiecesCleaned })
+    .select({
+      id: classes.id,
+      date: classes.date,
+      siteId: classes.siteId,
+      siteCode: sites.code,
+      learners: classes.learners,
+      cleaned: classes.mouthpiecesCleaned,
+    })
     .from(classes)
     .innerJoin(sites, eq(classes.siteId, sites.id))
     .where(and(...conditions))

@@ -10,9 +10,6 @@ export function parseWith<T>(schema: ZodType<T>, value: unknown, what?: string):
 
 export function parseId(value: unknown): number {
   const id = Number(value);
-  if (!Number.isInteger(id) || id <= 0) throw validationError(
-    { issues: [{ path: ["id"], message: "Expected a positive whole number" }] } as never,
-    "The id",
-  );
+  if (!Number.isInteger(id) || id <= 0) throw validationError({ issues: [{ path: ["id"], message: "Expected a positive whole number" }] } as never, "The id");
   return id;
 }

@@ -45,10 +45,11 @@ const SOURCE = ATTEMPT_COLUMNS.indexOf("source");
 const INSTRUCTOR = ATTEMPT_COLUMNS.indexOf("instructor_id");
 
 /** Metrics as stored: a summary has no pause count (null), a stream has. */
-export type StoredMetrics = ScoringInput & Pick<AttemptMetrics, "duration_s" | "rate_cpm" | "depth_mm"> & {
-  pauses: number | null;
-  pauses_over_10s: number | null;
-};
+export type StoredMetrics = ScoringInput &
+  Pick<AttemptMetrics, "duration_s" | "rate_cpm" | "depth_mm"> & {
+    pauses: number | null;
+    pauses_over_10s: number | null;
+  };
 
 export class AttemptStore {
   private readonly store: RowStore;
@@ -117,39 +118,42 @@ export class AttemptStore {
     const { policy, version } = run.policy;
     const scored = scoreAttempt(metrics, identity.profile, policy);
     const manikinId = identity.manikin === null ? null : run.codes.manikin(identity.manikin, cls.siteId);
-    this.store.queue([
-      identity.id,
-      identity.classId,
-      identity.learner,
-      manikinId,
-      identity.profile,
-      identity.feedback,
-      identity.startedAt,
-      cls.quarter,
-      cls.siteId,
-      cls.instructorId,
-      metrics.duration_s,
-      metrics.compressions,
-      metrics.rate_cpm,
-      metrics.depth_mm,
-      metrics.depth_ok_pct,
-      metrics.too_shallow_pct,
-      metrics.too_deep_pct,
-      metrics.rate_ok_pct,
-      metrics.too_slow_pct,
-      metrics.too_fast_pct,
-      metrics.recoil_ok_pct,
-      metrics.hands_on_pct,
-      metrics.longest_pause_s,
-      metrics.pauses,
-      metrics.pauses_over_10s,
-      identity.instructorResult,
-      this.source,
-      scored.score,
-      scored.passed ? 1 : 0,
-      errorsToMask(scored.errors),
-      version,
-      run.batchId,
-    ], done);
+    this.store.queue(
+      [
+        identity.id,
+        identity.classId,
+        identity.learner,
+        manikinId,
+        identity.profile,
+        identity.feedback,
+        identity.startedAt,
+        cls.quarter,
+        cls.siteId,
+        cls.instructorId,
+        metrics.duration_s,
+        metrics.compressions,
+        metrics.rate_cpm,
+        metrics.depth_mm,
+        metrics.depth_ok_pct,
+        metrics.too_shallow_pct,
+        metrics.too_deep_pct,
+        metrics.rate_ok_pct,
+        metrics.too_slow_pct,
+        metrics.too_fast_pct,
+        metrics.recoil_ok_pct,
+        metrics.hands_on_pct,
+        metrics.longest_pause_s,
+        metrics.pauses,
+        metrics.pauses_over_10s,
+        identity.instructorResult,
+        this.source,
+        scored.score,
+        scored.passed ? 1 : 0,
+        errorsToMask(scored.errors),
+        version,
+        run.batchId,
+      ],
+      done,
+    );
   }
 }

@@ -11,7 +11,11 @@ import type { KindImporter } from "./kind";
 import { RowStore, type WriteOutcome } from "./rowStore";
 import type { ClassInfo, ImportRun } from "./run";
 
-export function compressionsImporter(run: ImportRun, reader: RowReader, bufferRows?: number): KindImporter & { attemptsRead(): number; attemptsRejected(): number } {
+export function compressionsImporter(
+  run: ImportRun,
+  reader: RowReader,
+  bufferRows?: number,
+): KindImporter & { attemptsRead(): number; attemptsRejected(): number } {
   const attempts = new AttemptStore(run, "stream");
   const streams = new RowStore(run.sqlite, {
     table: "compression_streams",

@@ -23,8 +23,7 @@ export function equipmentImporter(run: ImportRun, reader: RowReader): KindImport
   /** Applies what an event says about its manikin; the previous values go to batch_changes. */
   function applyToManikin(manikinId: number, change: { patientType?: string | null; siteId?: number | null; inServiceSince?: string; retiredOn?: string }) {
     const current = manikinRow.get(manikinId) as
-      | { id: number; patient_type: string | null; site_id: number | null; in_service_since: string | null; retired_on: string | null }
-      | undefined;
+      { id: number; patient_type: string | null; site_id: number | null; in_service_since: string | null; retired_on: string | null } | undefined;
     if (!current) return;
     const next = {
       patient_type: change.patientType !== undefined ? change.patientType : current.patient_type,

@@ -73,7 +73,10 @@ export function listBatches(db: Db, query: BatchQuery): { batches: ImportBatch[]
     params.push(query.kind);
   }
   const clause = where.length ? ` WHERE ${where.join(" AND ")}` : "";
-  const total = sqlite.prepare(`SELECT count(*) FROM import_batches b${clause}`).pluck().get(...params) as number;
+  const total = sqlite
+    .prepare(`SELECT count(*) FROM import_batches b${clause}`)
+    .pluck()
+    .get(...params) as number;
   const rows = sqlite.prepare(`${SELECT}${clause} ORDER BY b.id DESC LIMIT ? OFFSET ?`).all(...params, query.limit, query.offset) as BatchRow[];
   return { batches: rows.map(toBatch), total };
 }
@@ -106,7 +109,9 @@ export function rejectedRows(db: Db, batchId: number, limit = 1000): { rows: Rej
 /** Every rejected row of a batch as CSV lines: row, column, reason, then the file's own columns. */
 export function* rejectedRowsCsv(db: Db, batchId: number): Generator<string> {
   const sqlite = db.$client;
-  const rows = sqlite.prepare("SELECT row_number, column, reason, raw FROM rejected_rows WHERE batch_id = ? ORDER BY row_number, id").iterate(batchId) as IterableIterator<{
+  const rows = sqlite
+    .prepare("SELECT row_number, column, reason, raw FROM rejected_rows WHERE batch_id = ? ORDER BY row_number, id")
+    .iterate(batchId) as IterableIterator<{
     row_number: number | null;
     column: string | null;
     reason: string;

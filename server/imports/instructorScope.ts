@@ -48,6 +48,9 @@ export class InstructorScope {
   /** A manikin the network does not have yet: only the coordinator adds manikins. */
   manikinIssue(column: string, assetId: string): RowProblem | null {
     if (this.codes.find("manikins", assetId) !== undefined) return null;
-    return { column, reason: `manikin ${assetId} is not registered in the network; instructors may name only existing manikins (the coordinator adds new ones)` };
+    return {
+      column,
+      reason: `manikin ${assetId} is not registered in the network; instructors may name only existing manikins (the coordinator adds new ones)`,
+    };
   }
 }

@@ -93,11 +93,16 @@ export class ImportJobs {
   rejectedCsv(id: string, user: { id: number; role: UserRole }): string {
     const job = this.jobs.get(id);
     if (job && mayUseImport(job.userId, user)) {
-      if (job.status !== "done" || !job.rejectedCsvUrl || !fs.existsSync(job.rejectedPath)) throw new AppError(apiErrorCodes.notFound, 404, "This job has no refused rows to download.");
+      if (job.status !== "done" || !job.rejectedCsvUrl || !fs.existsSync(job.rejectedPath))
+        throw new AppError(apiErrorCodes.notFound, 404, "This job has no refused rows to download.");
       return job.rejectedPath;
     }
     this.get(id, user); // 404 unless the user's job is on record
-    throw new AppError(apiErrorCodes.notFound, 404, "The refused rows of this job were removed with its upload. An import keeps its refused rows in the import history.");
+    throw new AppError(
+      apiErrorCodes.notFound,
+      404,
+      "The refused rows of this job were removed with its upload. An import keeps its refused rows in the import history.",
+    );
   }
 
   /** Resolves when every job started so far has finished (tests, shutdown). */

@@ -16,7 +16,14 @@ interface PresetRow {
 }
 
 function toPreset(row: PresetRow): ImportPreset {
-  return { id: row.id, name: row.name, kind: row.kind, mapping: importMappingSchema.parse(JSON.parse(row.mapping)), createdBy: row.created_by, createdAt: row.created_at };
+  return {
+    id: row.id,
+    name: row.name,
+    kind: row.kind,
+    mapping: importMappingSchema.parse(JSON.parse(row.mapping)),
+    createdBy: row.created_by,
+    createdAt: row.created_at,
+  };
 }
 
 export function listPresets(db: Db, kind?: ImportKind): ImportPreset[] {
@@ -37,7 +44,12 @@ export function getPreset(db: Db, id: number): ImportPreset {
 export function createPreset(db: Db, input: { name: string; kind: ImportKind; mapping: ImportMapping }, userId: number | null): ImportPreset {
   const unknown = unknownMappingColumns(input.kind, input.mapping);
   if (unknown.length > 0) {
-    throw new AppError("invalid", 422, "The mapping is not valid.", unknown.map((name) => ({ path: "mapping", message: `${name} is not a column of ${input.kind} files` })));
+    throw new AppError(
+      "invalid",
+      422,
+      "The mapping is not valid.",
+      unknown.map((name) => ({ path: "mapping", message: `${name} is not a column of ${input.kind} files` })),
+    );
   }
   if (db.$client.prepare("SELECT 1 FROM import_presets WHERE name = ?").get(input.name)) {
     throw conflict(`A preset named ${input.name} already exists.`, [{ path: "name", message: "Already in use" }]);

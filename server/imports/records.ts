@@ -97,7 +97,9 @@ export class ImportRecords {
   saveJob(job: JobRecord): void {
     const row = { ...job, rowsRead: job.rows };
     const { id: _id, ...changes } = row;
-    this.write(`job:${job.id}`, () => this.housekeeping(this.db.insert(importJobs).values(row).onConflictDoUpdate({ target: importJobs.id, set: changes }).run()));
+    this.write(`job:${job.id}`, () =>
+      this.housekeeping(this.db.insert(importJobs).values(row).onConflictDoUpdate({ target: importJobs.id, set: changes }).run()),
+    );
   }
 
   findUpload(id: string): UploadRecord | null {
@@ -119,7 +121,11 @@ export class ImportRecords {
    * uploads and jobs, ends its uploads and marks its unfinished jobs interrupted, and forgets old records.
    */
   endStoppedServerWork(now = new Date()): void {
-    const openUploads = this.db.select({ path: importUploads.path }).from(importUploads).where(sql`${importUploads.endedAt} IS NULL`).all();
+    const openUploads = this.db
+      .select({ path: importUploads.path })
+      .from(importUploads)
+      .where(sql`${importUploads.endedAt} IS NULL`)
+      .all();
     const jobFiles = this.db
       .select({ path: importJobs.rejectedPath })
       .from(importJobs)
@@ -132,7 +138,11 @@ export class ImportRecords {
     this.write("start-up", () => {
       this.db.transaction((tx) => {
         const changed = [
-          tx.update(importUploads).set({ endedAt: at, endReason: "restarted" }).where(sql`${importUploads.endedAt} IS NULL`).run(),
+          tx
+            .update(importUploads)
+            .set({ endedAt: at, endReason: "restarted" })
+            .where(sql`${importUploads.endedAt} IS NULL`)
+            .run(),
           tx
             .update(importJobs)
             .set({
@@ -143,7 +153,10 @@ export class ImportRecords {
             .where(notInArray(importJobs.status, [...finishedJobStatuses]))
             .run(),
           tx.update(importJobs).set({ rejectedKept: false }).where(eq(importJobs.rejectedKept, true)).run(),
-          tx.delete(importUploads).where(and(isNotNull(importUploads.endedAt), lt(importUploads.endedAt, forgetBefore))).run(),
+          tx
+            .delete(importUploads)
+            .where(and(isNotNull(importUploads.endedAt), lt(importUploads.endedAt, forgetBefore)))
+            .run(),
           tx
             .delete(importJobs)
             .where(and(inArray(importJobs.status, [...finishedJobStatuses]), lt(importJobs.finishedAt, forgetBefore)))
@@ -241,7 +254,8 @@ export function jobFromRecord(record: JobRecord): ImportJob {
     progress: { bytesRead: status === "done" ? (record.totalBytes ?? 0) : 0, totalBytes: record.totalBytes, rows: record.rows },
     summary: record.summary,
     error: cutShort ? interruptedMessage(record.mode) : record.error,
-    rejectedCsvUrl: status === "done" && record.rejectedKept && record.summary && record.summary.issuesTotal > 0 ? `/api/imports/jobs/${record.id}/rejected.csv` : null,
+    rejectedCsvUrl:
+      status === "done" && record.rejectedKept && record.summary && record.summary.issuesTotal > 0 ? `/api/imports/jobs/${record.id}/rejected.csv` : null,
     createdAt: record.createdAt,
   };
 }

@@ -77,17 +77,28 @@ export function importRoutes(db: Db, options: ImportRouteOptions = {}): Router {
     upload.single("file")(req, res, (err?: unknown) => {
       if (!err || err instanceof AppError) return next(err);
       if (err instanceof multer.MulterError && err.code === "LIMIT_FILE_SIZE") {
-        return next(new AppError("too_large", 413, `The file is larger than ${maxMb} MB, the most a web upload may be. Split it into smaller files, or import it with the command line (quarterbeat import).`));
+        return next(
+          new AppError(
+            "too_large",
+            413,
+            `The file is larger than ${maxMb} MB, the most a web upload may be. Split it into smaller files, or import it with the command line (quarterbeat import).`,
+          ),
+        );
       }
       // a form the client got wrong (extra files or fields, cut off, no boundary) is a 400, not a server fault
-      if (err instanceof multer.MulterError) return next(badRequest(`The upload form was not as expected (${err.message.toLowerCase()}): send one CSV file in the field named file, and the kind.`));
-      if (err instanceof Error && !("syscall" in err)) return next(badRequest("The upload could not be read: the form was cut off or is not a multipart form. Try again."));
+      if (err instanceof multer.MulterError)
+        return next(badRequest(`The upload form was not as expected (${err.message.toLowerCase()}): send one CSV file in the field named file, and the kind.`));
+      if (err instanceof Error && !("syscall" in err))
+        return next(badRequest("The upload could not be read: the form was cut off or is not a multipart form. Try again."));
       next(err);
     });
 
   router.get("/imports/formats", (_req, res) => {
     const formats = Object.fromEntries(
-      Object.entries(importColumns).map(([kind, columns]) => [kind, columns.map((c) => ({ name: c.name, required: c.required, description: c.description, unit: c.unit ?? null }))]),
+      Object.entries(importColumns).map(([kind, columns]) => [
+        kind,
+        columns.map((c) => ({ name: c.name, required: c.required, description: c.description, unit: c.unit ?? null })),
+      ]),
     );
     res.json({ formats });
   });
@@ -230,4 +241,3 @@ async function preview(stored: StoredUpload, mapping: ImportMapping | undefined)
     suggestedMapping: suggestion.mapping,
   };
 }
-

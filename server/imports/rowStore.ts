@@ -61,7 +61,10 @@ export class RowStore {
     const marks = columns.map(() => "?").join(", ");
     this.insert = sqlite.prepare(`INSERT INTO ${table} (${columns.join(", ")}) VALUES (${marks}) ON CONFLICT(${key}) DO NOTHING`);
     this.select = sqlite.prepare(`SELECT ${columns.join(", ")} FROM ${table} WHERE ${key} = ?`).raw();
-    const sets = columns.slice(1).map((c) => `${c} = ?`).join(", ");
+    const sets = columns
+      .slice(1)
+      .map((c) => `${c} = ?`)
+      .join(", ");
     this.update = sqlite.prepare(`UPDATE ${table} SET ${sets} WHERE ${key} = ?`);
     this.seen = new SeenKeys(sqlite, `qb_seen_${table}`);
     this.batchIndex = columns.indexOf("batch_id");

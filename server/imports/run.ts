@@ -107,7 +107,8 @@ export class ImportRun {
     for (const issue of issues) {
       this.addIssue(issue);
       if (this.keepsRejected) this.insertRejected.run(this.batchId, issue.row, issue.column, issue.reason, this.rawJson(fields));
-      if (this.rejectedCsv !== null) fs.writeSync(this.rejectedCsv, csvLine([String(issue.row ?? ""), issue.column ?? "", issue.reason, ...fields], SPREADSHEET_CSV));
+      if (this.rejectedCsv !== null)
+        fs.writeSync(this.rejectedCsv, csvLine([String(issue.row ?? ""), issue.column ?? "", issue.reason, ...fields], SPREADSHEET_CSV));
     }
   }
 

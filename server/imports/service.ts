@@ -55,7 +55,10 @@ const IMPORT_CACHE_KIB = 64 * 1024;
 
 /** Only the last part of a name, so a file name can never act as a path. */
 export function safeFileName(name: string): string {
-  const base = path.basename(name.replace(/\\/g, "/")).replace(/[^\w.\- ()]/g, "_").slice(0, 200);
+  const base = path
+    .basename(name.replace(/\\/g, "/"))
+    .replace(/[^\w.\- ()]/g, "_")
+    .slice(0, 200);
   return base === "" || base === "." || base === ".." ? "upload.csv" : base;
 }
 
@@ -140,7 +143,8 @@ export async function importFile(db: Db, options: ImportFileOptions): Promise<Im
           }
           headerLength = fields.length;
           current.setHeader(fields);
-          if (resolved.extra.length > 0) current.warnings.push(`Ignored column${resolved.extra.length > 1 ? "s" : ""} not used by ${kind} files: ${resolved.extra.join(", ")}`);
+          if (resolved.extra.length > 0)
+            current.warnings.push(`Ignored column${resolved.extra.length > 1 ? "s" : ""} not used by ${kind} files: ${resolved.extra.join(", ")}`);
           const reader = new RowReader(kind, resolved, mapping, options.now);
           importer = makeImporter(current, reader, options.streamBufferRows);
           return true;
@@ -203,7 +207,17 @@ export async function importFile(db: Db, options: ImportFileOptions): Promise<Im
       .prepare(
         "UPDATE import_batches SET sha256 = ?, rows_read = ?, inserted = ?, updated = ?, unchanged = ?, rejected = ?, new_codes = ?, warnings = ? WHERE id = ?",
       )
-      .run(summary.sha256, summary.rowsRead, summary.inserted, summary.updated, summary.unchanged, summary.rejected, JSON.stringify(summary.newCodes), JSON.stringify(summary.warnings), batchId);
+      .run(
+        summary.sha256,
+        summary.rowsRead,
+        summary.inserted,
+        summary.updated,
+        summary.unchanged,
+        summary.rejected,
+        JSON.stringify(summary.newCodes),
+        JSON.stringify(summary.warnings),
+        batchId,
+      );
     addPendingAttempts(sqlite);
     sqlite.exec("COMMIT");
     return summary;

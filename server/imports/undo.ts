@@ -24,8 +24,7 @@ const BATCH_TABLES = ["compression_streams", "attempts", "equipment_events", "cl
 export function undoBatch(db: Db, batchId: number, userId: number | null): UndoResult {
   const sqlite: Database.Database = db.$client;
   const batch = sqlite.prepare("SELECT id, kind, status, new_codes FROM import_batches WHERE id = ?").get(batchId) as
-    | { id: number; kind: string; status: string; new_codes: string | null }
-    | undefined;
+    { id: number; kind: string; status: string; new_codes: string | null } | undefined;
   if (!batch) throw notFound(`Import batch ${batchId}`);
   if (batch.status === "undone") throw conflict(`Import batch ${batchId} has already been undone.`);
 
@@ -87,7 +86,9 @@ export function undoBatch(db: Db, batchId: number, userId: number | null): UndoR
         const value = previous[c];
         return value && typeof value === "object" && "$base64" in value ? Buffer.from(String((value as { $base64: string }).$base64), "base64") : value;
       });
-      restored += sqlite.prepare(`UPDATE ${change.table_name} SET ${columns.map((c) => `${c} = ?`).join(", ")} WHERE ${key} = ?`).run(...values, previous[key] ?? change.row_key).changes;
+      restored += sqlite
+        .prepare(`UPDATE ${change.table_name} SET ${columns.map((c) => `${c} = ?`).join(", ")} WHERE ${key} = ?`)
+        .run(...values, previous[key] ?? change.row_key).changes;
       if (change.table_name === "classes") restoredClasses.push(change.row_key);
     }
     // Attempts copy their class's quarter, site and instructor.

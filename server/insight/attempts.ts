@@ -98,7 +98,11 @@ export function toRow({ attempt: a, siteCode, instructorCode, manikinAssetId, ha
 /** One page of the attempts the filters and search select, in the search's order, with their total. */
 export function attemptList(db: Db, filters: ResolvedFilters, search: AttemptSearch, { page, pageSize }: AttemptPage): AttemptListAnswer {
   const where = attemptSearchConditions(filters, search);
-  const total = db.select({ n: sql<number>`count(*)` }).from(attempts).where(where).get()!.n;
+  const total = db
+    .select({ n: sql<number>`count(*)` })
+    .from(attempts)
+    .where(where)
+    .get()!.n;
   const rows = selectRows(db, where)
     .orderBy(...attemptOrder(search))
     .limit(pageSize)

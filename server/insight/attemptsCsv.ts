@@ -80,7 +80,11 @@ export async function writeAttemptsCsv(dbFile: string, filters: ResolvedFilters,
     let written = 0;
     while (written < ids.length && !sink.closed()) {
       const chunk = ids.slice(written, written + CHUNK_ROWS);
-      const byId = new Map(selectRows(reader, inArray(attempts.id, chunk)).all().map((row) => [row.attempt.id, toRow(row)]));
+      const byId = new Map(
+        selectRows(reader, inArray(attempts.id, chunk))
+          .all()
+          .map((row) => [row.attempt.id, toRow(row)]),
+      );
       const text = chunk.map((id) => line(columns.map(([, value]) => value(byId.get(id)!)))).join("");
       written += chunk.length;
       if (!sink.write(text)) await sink.drained();

@@ -35,7 +35,6 @@ function storeFor(db: Db): Store {
   return store;
 }
 
-
 /**
  * An opaque token for the database's present state, as the cache sees it. Clients compare it with the one
  * they saw last: when it differs, figures may have changed (an import from the CLI, say) and they refetch.

@@ -21,7 +21,12 @@ export function classRows(db: Db, where: SQL, limit = 500): ClassRow[] {
     db
       .select({ classId: attempts.classId, n: sql<number>`count(*)`, passed: sql<number>`sum(${attempts.passed})` })
       .from(attempts)
-      .where(inArray(attempts.classId, logs.map((log) => log.id)))
+      .where(
+        inArray(
+          attempts.classId,
+          logs.map((log) => log.id),
+        ),
+      )
       .groupBy(attempts.classId)
       .all()
       .map((row) => [row.classId, row]),
@@ -77,7 +82,10 @@ export function classDetail(db: Db, id: string, instructorId: number | null): Cl
       instructor: { id: c.instructorId, code: log.instructorCode, name: log.instructorName },
       learners: c.learners,
       passed: c.passed,
-      manikins: c.manikins.split(";").map((m) => m.trim()).filter(Boolean),
+      manikins: c.manikins
+        .split(";")
+        .map((m) => m.trim())
+        .filter(Boolean),
       lungsReplaced: c.lungsReplaced,
       mouthpiecesCleaned: c.mouthpiecesCleaned,
       batteriesReplaced: c.batteriesReplaced,

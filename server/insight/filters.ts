@@ -40,7 +40,11 @@ function resolveRef(db: Db, table: RefTable, codeColumn: SQLiteColumn, ref: stri
   const byCode = db.select({ id: table.id }).from(table).where(eq(codeColumn, ref)).get();
   if (byCode) return byCode.id;
   if (/^\d{1,9}$/.test(ref)) {
-    const byId = db.select({ id: table.id }).from(table).where(eq(table.id, Number(ref))).get();
+    const byId = db
+      .select({ id: table.id })
+      .from(table)
+      .where(eq(table.id, Number(ref)))
+      .get();
     if (byId) return byId.id;
   }
   throw invalid(field, `Nothing has the code or id "${ref}"`);

@@ -24,10 +24,7 @@ function instructorDirectory(db: Db, id?: number) {
       .leftJoin(sites, eq(instructors.siteId, sites.id))
       .where(id === undefined ? undefined : eq(instructors.id, id))
       .all()
-      .map(({ siteId, siteCode, ...person }) => [
-        person.id,
-        { ...person, site: siteId !== null && siteCode !== null ? { id: siteId, code: siteCode } : null },
-      ]),
+      .map(({ siteId, siteCode, ...person }) => [person.id, { ...person, site: siteId !== null && siteCode !== null ? { id: siteId, code: siteCode } : null }]),
   );
 }
 

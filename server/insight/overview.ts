@@ -23,7 +23,12 @@ import { classConditions, scopeOf } from "./sql";
 import { mayShow } from "./release";
 import { hidesGroup, type Viewer } from "./viewer";
 
-export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters, chart: OverviewChartOptions = { limits: "binomial", splitAt: null }): OverviewAnswer {
+export function overview(
+  db: Db,
+  viewer: Viewer,
+  filters: ResolvedFilters,
+  chart: OverviewChartOptions = { limits: "binomial", splitAt: null },
+): OverviewAnswer {
   const period = filters.period;
   const before = previousPeriod(period);
   const trend = trendQuarters(period);
@@ -55,8 +60,7 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters, chart
   const measuredHidden = hidden || hidesGroup(viewer, measured.learners - ownMeasured);
 
   // the same test of change as the funder report: called only when its 95 % interval excludes zero
-  const difference =
-    passRate.suppressed || previousRate.suppressed ? null : proportionDifference(inPeriod.passed, inPeriod.n, inPrevious.passed, inPrevious.n);
+  const difference = passRate.suppressed || previousRate.suppressed ? null : proportionDifference(inPeriod.passed, inPeriod.n, inPrevious.passed, inPrevious.n);
 
   // each feedback display and each quarter of the trend is a figure of its own, judged by the same grid
   // (a display the filters leave out holds nothing, and nothing is shown as nothing)
@@ -64,12 +68,22 @@ export function overview(db: Db, viewer: Viewer, filters: ResolvedFilters, chart
   const seriesHidden = trend.quarters.map((quarter) => !mayShow(db, viewer, scopeOf(filters, { from: quarter, to: quarter })));
 
   const logs = db
-    .select({ classes: sql<number>`count(*)`, learners: sql<number>`coalesce(sum(${classes.learners}), 0)`, passed: sql<number>`coalesce(sum(${classes.passed}), 0)` })
+    .select({
+      classes: sql<number>`count(*)`,
+      learners: sql<number>`coalesce(sum(${classes.learners}), 0)`,
+      passed: sql<number>`coalesce(sum(${classes.passed}), 0)`,
+    })
     .from(classes)
     .where(classConditions(filters))
     .get()!;
   const ownLearners =
-    me === null ? 0 : db.select({ learners: sql<number>`coalesce(sum(${classes.learners}), 0)` }).from(classes).where(classConditions({ ...filters, instructorId: me })).get()!.learners;
+    me === null
+      ? 0
+      : db
+          .select({ learners: sql<number>`coalesce(sum(${classes.learners}), 0)` })
+          .from(classes)
+          .where(classConditions({ ...filters, instructorId: me }))
+          .get()!.learners;
 
   const pairs = judgedOf(inPeriod);
   const pairsHidden = hidden || !mayShow(db, viewer, scopeOf(filters), "judged");

@@ -60,9 +60,16 @@ function phaseBaseline(db: Db, viewer: Viewer, filters: ResolvedFilters, from: s
 }
 
 /** Before a split, the stated baseline cut at the split; when nothing of it lies before, the first quarters that do. */
-function baselineBefore(db: Db, viewer: Viewer, filters: ResolvedFilters, stated: ChartBaseline, splitQuarter: string | null): { from: string | null; to: string | null; samples: PChartSample[] } {
+function baselineBefore(
+  db: Db,
+  viewer: Viewer,
+  filters: ResolvedFilters,
+  stated: ChartBaseline,
+  splitQuarter: string | null,
+): { from: string | null; to: string | null; samples: PChartSample[] } {
   if (stated.from === null || stated.to === null) return { from: null, to: null, samples: [] };
-  if (splitQuarter === null || stated.to < splitQuarter) return { from: stated.from, to: stated.to, samples: baselineSamples(db, viewer, filters, stated.from, stated.to) };
+  if (splitQuarter === null || stated.to < splitQuarter)
+    return { from: stated.from, to: stated.to, samples: baselineSamples(db, viewer, filters, stated.from, stated.to) };
   const lastBefore = previousQuarter(splitQuarter);
   if (stated.from <= lastBefore) return { from: stated.from, to: lastBefore, samples: baselineSamples(db, viewer, filters, stated.from, lastBefore) };
   const before = [...quartersWithData(db)].reverse().filter((quarter) => quarter < splitQuarter);
@@ -83,7 +90,9 @@ export function passRateSeries(db: Db, viewer: Viewer, filters: ResolvedFilters,
   const after = found !== null && found.samples.length > 0 ? found : null;
   const laney = limits === "laney";
 
-  const samples = quarters.map((quarter, i): PChartSample => (hidden[i] ? { n: 0, count: 0 } : { n: byQuarter.get(quarter)!.n, count: byQuarter.get(quarter)!.passed }));
+  const samples = quarters.map((quarter, i): PChartSample =>
+    hidden[i] ? { n: 0, count: 0 } : { n: byQuarter.get(quarter)!.n, count: byQuarter.get(quarter)!.passed },
+  );
   const isAfter = (quarter: string) => splitQuarter !== null && quarter >= splitQuarter;
   const beforeChart = pChart(samples, { baseline: before.samples, laney });
   const afterChart = after === null ? null : pChart(samples, { baseline: after.samples, laney });
@@ -111,10 +120,22 @@ export function passRateSeries(db: Db, viewer: Viewer, filters: ResolvedFilters,
           },
     runChart: runChartSignals(shownRates, runMedian),
     points: quarters.map((quarter, i) => {
-      if (hidden[i]) return { quarter, attempts: null, passed: null, rate: null, low: null, high: null, lcl: null, ucl: null, outside: false, suppressed: true };
+      if (hidden[i])
+        return { quarter, attempts: null, passed: null, rate: null, low: null, high: null, lcl: null, ucl: null, outside: false, suppressed: true };
       const point = chartPoints[i];
       const rate = rateOf(point.count, point.n);
-      return { quarter, attempts: point.n, passed: point.count, rate: point.p, low: rate.low, high: rate.high, lcl: point.lcl, ucl: point.ucl, outside: point.outside, suppressed: false };
+      return {
+        quarter,
+        attempts: point.n,
+        passed: point.count,
+        rate: point.p,
+        low: rate.low,
+        high: rate.high,
+        lcl: point.lcl,
+        ucl: point.ucl,
+        outside: point.outside,
+        suppressed: false,
+      };
     }),
   };
 }

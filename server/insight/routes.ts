@@ -2,7 +2,14 @@
 // answers that can take long on a large network are computed off the event loop (./offThread).
 import { Router, type Request } from "express";
 import { z } from "zod";
-import { adjustQuerySchema, attemptExportQuerySchema, attemptListQuerySchema, errorsQuerySchema, insightFiltersSchema, insightFilterShape } from "../../shared/filters";
+import {
+  adjustQuerySchema,
+  attemptExportQuerySchema,
+  attemptListQuerySchema,
+  errorsQuerySchema,
+  insightFiltersSchema,
+  insightFilterShape,
+} from "../../shared/filters";
 import { overviewChartQuerySchema } from "../../shared/schemas/chartSettings";
 import type { Db } from "../db/client";
 import { allow, rowScope, signedInUser } from "../auth/guard";
@@ -97,11 +104,7 @@ export function insightRoutes(db: Db): Router {
     const query = parseWith(attemptExportQuerySchema, req.query, "The filters");
     const search = attemptSearchOf(query, rowScope(signedInUser(req), "readAttempts").instructorId);
     const { filters } = context(req, "attempts.csv", filterPart(query));
-    res
-      .status(200)
-      .attachment(attemptsCsvFileName(filters))
-      .type("text/csv; charset=utf-8")
-      .set("Cache-Control", "no-store");
+    res.status(200).attachment(attemptsCsvFileName(filters)).type("text/csv; charset=utf-8").set("Cache-Control", "no-store");
     try {
       await writeAttemptsCsv(db.$client.name, filters, search, {
         write: (text) => res.write(text),

@@ -67,7 +67,12 @@ function networkFigures(db: Db, network: ResolvedFilters, adjust: AdjustMode): N
     // one grouped read per metric gives every instructor's distribution in every stratum; an instructor's whole
     // distribution is the merge of their strata (reading each stratum apart would scan the scope once per stratum)
     const byStratum = byMetric((key) => valueCountsByInstructorStratum(db, key, scope));
-    const byInstructor = byMetric((key) => new Map([...byStratum[key]].map(([id, strata]): [number, ValueCounts] => [id, strata.size === 1 ? [...strata.values()][0] : mergeCounts(...strata.values())])));
+    const byInstructor = byMetric(
+      (key) =>
+        new Map(
+          [...byStratum[key]].map(([id, strata]): [number, ValueCounts] => [id, strata.size === 1 ? [...strata.values()][0] : mergeCounts(...strata.values())]),
+        ),
+    );
     const strata: NetworkFigures["strata"] = [];
     if (adjust === "case-mix") {
       for (const feedback of network.feedback === null ? feedbackModes : [network.feedback]) {
@@ -110,10 +115,12 @@ function rankAmong(distributions: Distributions, figure: RankedFigure, me: numbe
   const mine = distributions.get(me);
   const myValue = mine ? figure(mine) : null;
   if (myValue === null) return null;
-  const others = [...distributions].filter(([id]) => shownIds.has(id)).flatMap(([, counts]) => {
-    const value = figure(counts);
-    return value === null ? [] : [value];
-  });
+  const others = [...distributions]
+    .filter(([id]) => shownIds.has(id))
+    .flatMap(([, counts]) => {
+      const value = figure(counts);
+      return value === null ? [] : [value];
+    });
   return percentileRank(others, myValue);
 }
 
@@ -177,7 +184,6 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters, adjus
   const points = shown
     .map((row) => ({ medianScore: medianOfCounts(byInstructor.score.get(row.instructorId)!)!, passRate: row.passed / row.n, isMe: row.instructorId === me }))
     .sort((a, b) => a.medianScore - b.medianScore || a.passRate - b.passRate);
-
 
   const myErrors = tallies.get(me)?.errors ?? emptyTally().errors;
   const networkErrors = networkHidden ? null : networkErrorCounts;

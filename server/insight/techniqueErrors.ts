@@ -20,13 +20,25 @@ function breakdown(db: Db, scope: SummaryScope, dimension: Dimension, error: Att
     .map(([stored, tally]) => {
       // a manikin key of 0 stands for attempts that name no manikin
       const key = dimension === "manikinId" && stored === 0 ? null : stored;
-      return { key: nameOf(key), id: typeof key === "number" ? key : null, count: tally.errors[error], attempts: tally.n, share: tally.errors[error] / tally.n };
+      return {
+        key: nameOf(key),
+        id: typeof key === "number" ? key : null,
+        count: tally.errors[error],
+        attempts: tally.n,
+        share: tally.errors[error] / tally.n,
+      };
     })
     .sort((a, b) => b.count - a.count || b.share - a.share || (a.key < b.key ? -1 : 1));
 }
 
 function codes(db: Db, table: typeof sites | typeof instructors): Map<number, string> {
-  return new Map(db.select({ id: table.id, code: table.code }).from(table).all().map((row) => [row.id, row.code]));
+  return new Map(
+    db
+      .select({ id: table.id, code: table.code })
+      .from(table)
+      .all()
+      .map((row) => [row.id, row.code]),
+  );
 }
 
 export function techniqueErrorAnalysis(db: Db, filters: ResolvedFilters, error: AttemptError | undefined): TechniqueErrorsAnswer {
@@ -39,7 +51,13 @@ export function techniqueErrorAnalysis(db: Db, filters: ResolvedFilters, error: 
   const byQuarter = talliesBy<string>(db, scopeOf(filters, trend), "quarter");
   const siteCodes = codes(db, sites);
   const instructorCodes = codes(db, instructors);
-  const assetIds = new Map(db.select({ id: manikins.id, assetId: manikins.assetId }).from(manikins).all().map((row) => [row.id, row.assetId]));
+  const assetIds = new Map(
+    db
+      .select({ id: manikins.id, assetId: manikins.assetId })
+      .from(manikins)
+      .all()
+      .map((row) => [row.id, row.assetId]),
+  );
   const named = (names: Map<number, string>) => (key: string | number | null) => (key === null ? "(none)" : (names.get(key as number) ?? `#${key}`));
 
   answer.selected = {
@@ -59,4 +77,3 @@ export function techniqueErrorAnalysis(db: Db, filters: ResolvedFilters, error: 
   };
   return answer;
 }
-

@@ -30,11 +30,8 @@ export async function storeReceivedMail(db: Db, raw: Buffer, envelope: { from: s
     // unreadable MIME: the raw bytes are still stored and can be downloaded
     subject = "(message could not be read)";
   }
-  return db
-    .insert(mailbox)
-    .values({ mailFrom: envelope.from, recipients: envelope.to, subject, text, attachments, raw })
-    .returning({ id: mailbox.id })
-    .get().id;
+  return db.insert(mailbox).values({ mailFrom: envelope.from, recipients: envelope.to, subject, text, attachments, raw }).returning({ id: mailbox.id }).get()
+    .id;
 }
 
 export function startLocalMailService(db: Db, options: { port?: number } = {}): Promise<LocalMailService> {

@@ -19,11 +19,7 @@ export function outboxRoutes(db: Db): Router {
     // only types the report itself sends keep their type; anything else downloads as plain bytes
     const safeType = ["application/pdf", "text/csv"].includes(attachment.contentType) ? attachment.contentType : "application/octet-stream";
     // attachment() also sets a type from the name's extension; the safe type set after it wins
-    res
-      .attachment(attachment.filename)
-      .type(safeType)
-      .set("X-Content-Type-Options", "nosniff")
-      .send(attachment.content);
+    res.attachment(attachment.filename).type(safeType).set("X-Content-Type-Options", "nosniff").send(attachment.content);
   });
 
   return router;

@@ -4,7 +4,15 @@
 // (Spiegelhalter 2005) and each instructor's position against limits widened by √φ when overdispersed.
 import { feedbackModes } from "../../shared/domain";
 import type { AdjustMode } from "../../shared/filters";
-import { dispersionOf, indirectStandardisation, positionOfZ, type Dispersion, type FunnelPosition, type StandardisedUnit, type StratumCount } from "../../shared/stats";
+import {
+  dispersionOf,
+  indirectStandardisation,
+  positionOfZ,
+  type Dispersion,
+  type FunnelPosition,
+  type StandardisedUnit,
+  type StratumCount,
+} from "../../shared/stats";
 import type { Db } from "../db/client";
 import { talliesByPair, type SummaryScope } from "./summaries";
 

@@ -44,7 +44,6 @@ export interface PairedDifference {
   peer_attempts: number;
 }
 
-
 export interface ManikinDrift {
   manikin: string;
   profile: PatientType;
@@ -93,7 +92,13 @@ function compareRound(groups: ClassGroups, flagged: ReadonlySet<string>, options
       const peers = { sum: total.sum - cell.sum, n: total.n - cell.n };
       const key = `${manikin}|${group.profile}`;
       const entry = differences.get(key) ?? { manikin, profile: group.profile, list: [] };
-      entry.list.push({ classId: group.classId, date: group.date, difference_mm: cell.sum / cell.n - peers.sum / peers.n, attempts: cell.n, peer_attempts: peers.n });
+      entry.list.push({
+        classId: group.classId,
+        date: group.date,
+        difference_mm: cell.sum / cell.n - peers.sum / peers.n,
+        attempts: cell.n,
+        peer_attempts: peers.n,
+      });
       differences.set(key, entry);
     }
   }

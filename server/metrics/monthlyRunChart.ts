@@ -59,7 +59,10 @@ export function monthlyCounts(db: Db, scope: MonthlyScope): { period: string; n:
  * The same counts split by site and instructor, for readers who must not learn about a small group of others'
  * attempts: one grouped query serves the network's series and every site's.
  */
-export function monthlyCountsBySiteAndInstructor(db: Db, scope: MonthlyScope): { period: string; siteId: number; instructorId: number; n: number; x: number }[] {
+export function monthlyCountsBySiteAndInstructor(
+  db: Db,
+  scope: MonthlyScope,
+): { period: string; siteId: number; instructorId: number; n: number; x: number }[] {
   return db
     .select({ period: classMonth, siteId: attempts.siteId, instructorId: attempts.instructorId, n: sql<number>`count(*)`, x: countedOf(scope) })
     .from(attempts)
@@ -89,7 +92,15 @@ export function runChartRules(rates: readonly number[], centre: number | null): 
   // fewer than two useful points: one run of at most one point and no crossing, which signals nothing
   const useful = rates.filter((rate) => rate !== centre).length;
   const limits = useful > 0 ? runChartLimits(useful) : null;
-  return { median: centre, useful, longestRun: useful, longestRunLimit: limits?.longestRun ?? null, crossings: 0, crossingsLimit: limits?.fewestCrossings ?? null, signal: false };
+  return {
+    median: centre,
+    useful,
+    longestRun: useful,
+    longestRunLimit: limits?.longestRun ?? null,
+    crossings: 0,
+    crossingsLimit: limits?.fewestCrossings ?? null,
+    signal: false,
+  };
 }
 
 function monthOf(date: string): string {
@@ -108,7 +119,16 @@ function centreOf(phase: PhaseCentre["phase"], points: readonly MonthPoint[]): P
   const own = points.filter((point) => point.phase === phase);
   if (own.length === 0) return null;
   const centre = median(own.map((point) => point.rate));
-  return { phase, from: own[0].period, to: own[own.length - 1].period, median: centre, rules: runChartRules(own.map((point) => point.rate), centre) };
+  return {
+    phase,
+    from: own[0].period,
+    to: own[own.length - 1].period,
+    median: centre,
+    rules: runChartRules(
+      own.map((point) => point.rate),
+      centre,
+    ),
+  };
 }
 
 export interface MonthlyRunChartOptions {
@@ -128,11 +148,12 @@ export function monthlyRunChart(db: Db, scope: MonthlyScope, options: MonthlyRun
     phase: options.splitAt === undefined ? null : phaseOfMonth(row.period, options.splitAt),
   }));
   const baselineTo = options.baselineTo;
-  const baseline = options.splitAt !== undefined
-    ? points.filter((point) => point.phase === "before")
-    : baselineTo !== undefined
-      ? points.filter((point) => quarterOf(`${point.period}-01`) <= baselineTo)
-      : points;
+  const baseline =
+    options.splitAt !== undefined
+      ? points.filter((point) => point.phase === "before")
+      : baselineTo !== undefined
+        ? points.filter((point) => quarterOf(`${point.period}-01`) <= baselineTo)
+        : points;
   const centre = median(baseline.map((point) => point.rate));
   const phases = options.splitAt === undefined ? [] : [centreOf("before", points), centreOf("after", points)].flatMap((phase) => (phase ? [phase] : []));
   // split at a start, the question is whether the months after it left the level of the months before
@@ -141,7 +162,10 @@ export function monthlyRunChart(db: Db, scope: MonthlyScope, options: MonthlyRun
     aim: scope.aim ?? "passRate",
     baseline: baseline.length === 0 ? null : { from: baseline[0].period, to: baseline[baseline.length - 1].period, months: baseline.length },
     points,
-    ...runChartRules(judged.map((point) => point.rate), centre),
+    ...runChartRules(
+      judged.map((point) => point.rate),
+      centre,
+    ),
     phases,
   };
 }

@@ -297,7 +297,10 @@ function groupRows(db: Db, query: { toSQL(): { sql: string; params: unknown[] } 
   const byKey = new Map<string | number, ValueCounts>();
   let currentKey: string | number | undefined;
   let current: ValueCounts = [];
-  for (const [key, value, count] of db.$client.prepare(text).raw(true).iterate(...params) as Iterable<[string | number, number, number]>) {
+  for (const [key, value, count] of db.$client
+    .prepare(text)
+    .raw(true)
+    .iterate(...params) as Iterable<[string | number, number, number]>) {
     if (key !== currentKey) {
       current = [];
       byKey.set(key, current);
@@ -326,7 +329,12 @@ function quarterByQuarter<K>(scope: SummaryScope, read: (quarter: SummaryScope) 
 }
 
 /** The distribution of a metric for each value of `dimension`. */
-export function valueCountsBy<K extends string | number>(db: Db, metric: SummaryMetric, scope: SummaryScope, dimension: Exclude<Dimension, "policyVersion">): Map<K, ValueCounts> {
+export function valueCountsBy<K extends string | number>(
+  db: Db,
+  metric: SummaryMetric,
+  scope: SummaryScope,
+  dimension: Exclude<Dimension, "policyVersion">,
+): Map<K, ValueCounts> {
   if (isNetworkWide(scope) && (dimension === "quarter" || dimension === "profile" || dimension === "feedback")) {
     const column = networkValues[dimension];
     return groupRows(
@@ -380,7 +388,10 @@ export function valueCountsByInstructorStratum(db: Db, metric: SummaryMetric, sc
   const byInstructor = new Map<number, Map<StratumKey, ValueCounts>>();
   let strata = new Map<StratumKey, ValueCounts>();
   let lastInstructor: number | undefined;
-  for (const [instructorId, value, profile, feedback, count] of db.$client.prepare(text).raw(true).iterate(...params) as Iterable<[number, number, string, string, number]>) {
+  for (const [instructorId, value, profile, feedback, count] of db.$client
+    .prepare(text)
+    .raw(true)
+    .iterate(...params) as Iterable<[number, number, string, string, number]>) {
     if (instructorId !== lastInstructor) {
       strata = new Map();
       byInstructor.set(instructorId, strata);
@@ -400,7 +411,12 @@ export function medianIn(db: Db, metric: SummaryMetric, scope: SummaryScope): nu
 }
 
 /** The median of a metric for each value of `dimension`. */
-export function mediansBy<K extends string | number>(db: Db, metric: SummaryMetric, scope: SummaryScope, dimension: Exclude<Dimension, "policyVersion">): Map<K, number> {
+export function mediansBy<K extends string | number>(
+  db: Db,
+  metric: SummaryMetric,
+  scope: SummaryScope,
+  dimension: Exclude<Dimension, "policyVersion">,
+): Map<K, number> {
   return new Map([...valueCountsBy<K>(db, metric, scope, dimension)].map(([key, counts]) => [key, medianOfCounts(counts)!]));
 }
 
@@ -427,6 +443,9 @@ export function countsByGrid(db: Db, dimensions: readonly Dimension[]): { key: (
     .groupBy(...columns)
     .toSQL();
   // raw rows: tens of thousands of cells at a million attempts, read on every change of the data
-  const rows = db.$client.prepare(text).raw(true).all(...params) as (string | number)[][];
+  const rows = db.$client
+    .prepare(text)
+    .raw(true)
+    .all(...params) as (string | number)[][];
   return rows.map((row) => ({ key: row.slice(0, columns.length), n: Number(row[columns.length]), judged: Number(row[columns.length + 1]) }));
 }

@@ -6,9 +6,7 @@ import type { Logger } from "../logging/logger";
 import type { Mailer, OutgoingMail } from "../mail/mailer";
 import { activeAddresses } from "../users/service";
 
-export type BackupProblem =
-  | { kind: "failed"; file: string; at: string; problem: string }
-  | { kind: "missed"; lastBackupAt: string; at: string };
+export type BackupProblem = { kind: "failed"; file: string; at: string; problem: string } | { kind: "missed"; lastBackupAt: string; at: string };
 
 export function backupAlertMessage(problem: BackupProblem, to: string[]): OutgoingMail {
   const text =

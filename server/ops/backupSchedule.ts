@@ -89,7 +89,13 @@ export function startBackupSchedule(options: BackupScheduleOptions): BackupSched
       try {
         const result = await takeScheduledBackup(options.dbFile, options.dir, options.keep, at);
         logResult(result, Date.now() - started);
-        record({ takenAt: result.takenAt, file: result.file, sizeBytes: result.sizeBytes, verified: result.ok, message: result.problem ?? verifiedMessage(result.tables) });
+        record({
+          takenAt: result.takenAt,
+          file: result.file,
+          sizeBytes: result.sizeBytes,
+          verified: result.ok,
+          message: result.problem ?? verifiedMessage(result.tables),
+        });
         if (!result.ok) await options.onProblem?.({ kind: "failed", file: result.file, at: result.takenAt, problem: result.problem ?? "unknown" });
       } catch (err) {
         // e.g. the backup folder cannot be written: the schedule goes on, and the next run tries again

@@ -63,17 +63,26 @@ export function checkQuarterbeatDatabase(file: string): Promise<DatabaseCheck> {
     }
     const names = new Set(tableNames(conn));
     if (!names.has(MIGRATIONS_TABLE)) {
-      throw refused(`${file} is an SQLite database but not a Quarterbeat one: it has no ${MIGRATIONS_TABLE} table.`, "Give the path of a file written by `quarterbeat backup`.");
+      throw refused(
+        `${file} is an SQLite database but not a Quarterbeat one: it has no ${MIGRATIONS_TABLE} table.`,
+        "Give the path of a file written by `quarterbeat backup`.",
+      );
     }
     const missing = CORE_TABLES.filter((name) => !names.has(name));
     if (missing.length > 0) {
-      throw refused(`${file} is not a Quarterbeat database: it lacks the table(s) ${missing.join(", ")}.`, "Give the path of a file written by `quarterbeat backup`.");
+      throw refused(
+        `${file} is not a Quarterbeat database: it lacks the table(s) ${missing.join(", ")}.`,
+        "Give the path of a file written by `quarterbeat backup`.",
+      );
     }
     const migration = migrationLevel(conn);
     if (migration.applied === null) throw refused(`${file} has no applied migrations.`, "Give the path of a file written by `quarterbeat backup`.");
     const known = new Set(shippedMigrations().map((entry) => entry.tag));
     if (!known.has(migration.applied)) {
-      throw refused(`${file} was written by a newer Quarterbeat (migration ${migration.applied} is unknown to this version).`, "Restore it with the Quarterbeat version that made it, or upgrade this one first.");
+      throw refused(
+        `${file} was written by a newer Quarterbeat (migration ${migration.applied} is unknown to this version).`,
+        "Restore it with the Quarterbeat version that made it, or upgrade this one first.",
+      );
     }
     return { migration, tables: tableCounts(conn) };
   });

@@ -13,7 +13,10 @@ export function healthRoutes(db: Db, startedAt = Date.now()): Router {
   router.get("/health/ready", (_req, res) => {
     const health = readHealth(db, startedAt);
     const { ready, reason } = readiness(health);
-    res.set("cache-control", "no-store").status(ready ? 200 : 503).json({ ready, reason, ...health });
+    res
+      .set("cache-control", "no-store")
+      .status(ready ? 200 : 503)
+      .json({ ready, reason, ...health });
   });
   return router;
 }

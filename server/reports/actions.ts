@@ -17,15 +17,17 @@ function funderScope(action: ActionRow): string {
 export function reportActions(db: Db, period: ReportPeriod): ReportAction[] {
   const quarters = quartersOf(period);
   const lastDay = quarterDates(quarters[quarters.length - 1]).last;
-  return allActions(db)
-    .filter((action) => action.instructorId === null && action.startDate <= lastDay)
-    // oldest start first, as a story of what was done
-    .reverse()
-    .map((action) => ({
-      title: action.title,
-      aim: aimFigureName(action.aim),
-      scope: funderScope(action),
-      startDate: action.startDate,
-      status: actionStatusNames[action.status],
-    }));
+  return (
+    allActions(db)
+      .filter((action) => action.instructorId === null && action.startDate <= lastDay)
+      // oldest start first, as a story of what was done
+      .reverse()
+      .map((action) => ({
+        title: action.title,
+        aim: aimFigureName(action.aim),
+        scope: funderScope(action),
+        startDate: action.startDate,
+        status: actionStatusNames[action.status],
+      }))
+  );
 }

@@ -24,7 +24,10 @@ export function reportCsv(data: ReportData): string {
     count("reach", "measured attempts", data.reach.attempts),
     count("reach", "instructors", data.reach.instructors),
     count("reach", "sites", data.reach.sites),
-    ...data.reach.byCourse.flatMap((c) => [count("reach by course", `${c.label}: classes`, c.classes), count("reach by course", `${c.label}: learners`, c.learners)]),
+    ...data.reach.byCourse.flatMap((c) => [
+      count("reach by course", `${c.label}: classes`, c.classes),
+      count("reach by course", `${c.label}: learners`, c.learners),
+    ]),
     rate("pass rate", `measured pass rate ${data.period}`, data.passRate),
     ...data.comparisons.map((c) => rate("pass rate", `${c.label} (${c.period})`, c.passRate)),
     ...data.trend.points.map((p) => rate("trend", p.quarter, p.passRate)),

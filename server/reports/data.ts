@@ -30,7 +30,6 @@ import { retention } from "../metrics/retention";
 export const TREND_QUARTERS = 8;
 export const DEFAULT_NETWORK_NAME = "Quarterbeat training network";
 
-
 export function networkName(db: Db): string {
   return getSetting(db, "network_name") ?? DEFAULT_NETWORK_NAME;
 }
@@ -57,7 +56,11 @@ function addTallies(tallies: PassTally[]): PassTally {
  * rests on what came after it. A quarter the report family hides stays out, so the centre cannot be used to
  * work it out; without a baseline quarter before the period ends, there is no centre and no limits.
  */
-function reportBaseline(db: Db, family: FamilyRelease, lastQuarter: string): { samples: { n: number; count: number }[]; range: { from: string; to: string } | null } {
+function reportBaseline(
+  db: Db,
+  family: FamilyRelease,
+  lastQuarter: string,
+): { samples: { n: number; count: number }[]; range: { from: string; to: string } | null } {
   const stated = chartBaseline(db);
   if (stated.from === null || stated.to === null || stated.from > lastQuarter) return { samples: [], range: null };
   const to = stated.to < lastQuarter ? stated.to : lastQuarter;
@@ -288,13 +291,7 @@ export function buildReportData(db: Db, periodText: string, options: BuildOption
   return data;
 }
 
-function comparisonText(
-  label: string,
-  current: RateFigure,
-  earlier: RateFigure,
-  verdict: ReportComparison["verdict"],
-  points: number | null,
-): string {
+function comparisonText(label: string, current: RateFigure, earlier: RateFigure, verdict: ReportComparison["verdict"], points: number | null): string {
   if (current.value === null) return `Too few attempts in this period to compare with ${label}.`;
   if (earlier.value === null) return `Too few attempts in ${label} to compare with.`;
   if (verdict === "no clear change" || verdict === null || points === null) return `No clear change from ${label} (${earlier.text}).`;

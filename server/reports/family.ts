@@ -98,9 +98,10 @@ export interface FamilyRelease {
 }
 
 export function decideFamily(cells: FamilyCells, minCount: number): FamilyRelease {
-  const releases = Object.fromEntries(
-    Object.entries(cells).map(([measure, measureCells]) => [measure, releaseMeasure(measureCells, minCount)]),
-  ) as Record<FamilyMeasure, MeasureRelease>;
+  const releases = Object.fromEntries(Object.entries(cells).map(([measure, measureCells]) => [measure, releaseMeasure(measureCells, minCount)])) as Record<
+    FamilyMeasure,
+    MeasureRelease
+  >;
   return {
     hidden(measure, quarters, value, breakdown = FAMILY_MEASURES[measure][0], category = null) {
       // an empty count holds no one, and no pool counts on an empty cell, so "no data" never gives anything away

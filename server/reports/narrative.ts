@@ -36,21 +36,16 @@ export function writeNarrative(data: ReportData): string[] {
 
   const rate = data.passRate;
   if (rate.value !== null) {
-    sentences.push(
-      `${formatPercent(rate.value)} of measured attempts met the network's pass rule (95 % interval ${rate.intervalText}).`,
-    );
+    sentences.push(`${formatPercent(rate.value)} of measured attempts met the network's pass rule (95 % interval ${rate.intervalText}).`);
     for (const comparison of data.comparisons) {
       const earlier = comparison.passRate;
       if (comparison.verdict === null || earlier.value === null || comparison.changePoints === null) continue;
       if (comparison.verdict === "no clear change") {
-        sentences.push(
-          `That is no clear change from ${comparison.label} (${earlier.text}): the 95 % interval of the difference includes no change.`,
-        );
+        sentences.push(`That is no clear change from ${comparison.label} (${earlier.text}): the 95 % interval of the difference includes no change.`);
       } else {
         const direction = comparison.verdict === "up" ? "rose" : "fell";
         sentences.push(
-          `Compared with ${comparison.label}, the pass rate ${direction} from ${earlier.text} to ${rate.text} ` +
-            `(${formatPoints(comparison.changePoints)}).`,
+          `Compared with ${comparison.label}, the pass rate ${direction} from ${earlier.text} to ${rate.text} ` + `(${formatPoints(comparison.changePoints)}).`,
         );
       }
     }
@@ -68,15 +63,8 @@ export function writeNarrative(data: ReportData): string[] {
 
   const { live, hidden, verdict } = data.feedback;
   if (live.passRate.value !== null && hidden.passRate.value !== null && verdict) {
-    const comparison =
-      verdict === "no clear change"
-        ? "not clearly different from"
-        : verdict === "up"
-          ? "higher than"
-          : "lower than";
-    sentences.push(
-      `With the live display shown, ${live.passRate.text} of attempts passed: ${comparison} the ${hidden.passRate.text} with the display hidden.`,
-    );
+    const comparison = verdict === "no clear change" ? "not clearly different from" : verdict === "up" ? "higher than" : "lower than";
+    sentences.push(`With the live display shown, ${live.passRate.text} of attempts passed: ${comparison} the ${hidden.passRate.text} with the display hidden.`);
   }
 
   const agreement = data.agreement;

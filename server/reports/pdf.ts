@@ -18,7 +18,6 @@ const PAGE = { width: 595.28, height: 841.89 };
 const MARGIN = { left: 48, right: 48, top: 48, bottom: 60 };
 const CONTENT_WIDTH = PAGE.width - MARGIN.left - MARGIN.right;
 
-
 export function renderReportPdf(data: ReportData, meta: PdfMeta): Promise<Buffer> {
   const doc = new PDFDocument({
     size: "A4",
@@ -83,7 +82,11 @@ class PageFlow {
     this.ensure(26 + blockHeight);
     const { doc } = this;
     doc.rect(MARGIN.left, this.y + 1, 3, 13).fill(colours.accent);
-    doc.font(FONT).fontSize(12.5).fillColor(colours.brand).text(text, MARGIN.left + 10, this.y, { lineBreak: false });
+    doc
+      .font(FONT)
+      .fontSize(12.5)
+      .fillColor(colours.brand)
+      .text(text, MARGIN.left + 10, this.y, { lineBreak: false });
     this.y += 22;
   }
 
@@ -123,7 +126,11 @@ function writeRuns(doc: Doc, text: string, x: number, y: number, options: { widt
 function drawHeader(doc: Doc, data: ReportData, meta: PdfMeta) {
   doc.rect(0, 0, PAGE.width, 84).fill(colours.brandDark);
   drawLogoMark(doc, MARGIN.left, 24, 34);
-  doc.font(FONT).fontSize(17).fillColor("#FFFFFF").text("Quarterbeat", MARGIN.left + 44, 25, { lineBreak: false });
+  doc
+    .font(FONT)
+    .fontSize(17)
+    .fillColor("#FFFFFF")
+    .text("Quarterbeat", MARGIN.left + 44, 25, { lineBreak: false });
   writeRuns(doc, data.networkName, MARGIN.left + 44, 47, { width: 260, size: 9, colour: "#C6C2EA" });
   const right = { width: 220, align: "right" as const, lineBreak: false };
   const rightX = PAGE.width - MARGIN.right - 220;
@@ -138,12 +145,15 @@ function drawTitle(page: PageFlow, data: ReportData, meta: PdfMeta) {
   page.y += 28;
   const versions = data.methods.scoredUnderVersions;
   const scored = versions.length ? ` · scored under policy version ${versions.join(", ")}` : "";
-  doc.fontSize(8.5).fillColor(colours.muted).text(
-    `Period ${data.kind === "year" ? `${data.period} (${data.quarters.join(", ")})` : data.period} · generated ${writtenDate(meta.createdAt)}${scored}`,
-    MARGIN.left,
-    page.y,
-    { width: CONTENT_WIDTH },
-  );
+  doc
+    .fontSize(8.5)
+    .fillColor(colours.muted)
+    .text(
+      `Period ${data.kind === "year" ? `${data.period} (${data.quarters.join(", ")})` : data.period} · generated ${writtenDate(meta.createdAt)}${scored}`,
+      MARGIN.left,
+      page.y,
+      { width: CONTENT_WIDTH },
+    );
   page.y += 22;
 }
 
@@ -162,11 +172,18 @@ function drawKeyFigures(page: PageFlow, data: ReportData) {
     const x = MARGIN.left + i * (width + gap);
     doc.roundedRect(x, page.y, width, 50, 4).fill(colours.paper);
     const size = figure.hidden ? 10.5 : 19;
-    doc.font(FONT).fontSize(size).fillColor(figure.hidden ? colours.muted : colours.brand).text(figure.text, x + 9, page.y + (figure.hidden ? 14 : 8), {
-      width: width - 14,
-      lineBreak: false,
-    });
-    doc.fontSize(8).fillColor(colours.muted).text(name, x + 9, page.y + 34, { width: width - 14, lineBreak: false });
+    doc
+      .font(FONT)
+      .fontSize(size)
+      .fillColor(figure.hidden ? colours.muted : colours.brand)
+      .text(figure.text, x + 9, page.y + (figure.hidden ? 14 : 8), {
+        width: width - 14,
+        lineBreak: false,
+      });
+    doc
+      .fontSize(8)
+      .fillColor(colours.muted)
+      .text(name, x + 9, page.y + 34, { width: width - 14, lineBreak: false });
   });
   page.y += 64;
 }
@@ -178,15 +195,31 @@ function drawPassRatePanel(page: PageFlow, data: ReportData) {
   doc.rect(MARGIN.left, top, CONTENT_WIDTH, height).fill(colours.tint);
   doc.rect(MARGIN.left, top, 4, height).fill(colours.brand);
   const rate = data.passRate;
-  doc.font(FONT).fontSize(9).fillColor(colours.muted).text(figureNames.passRate, MARGIN.left + 16, top + 10, { lineBreak: false });
-  doc.fontSize(rate.value === null ? 16 : 32).fillColor(colours.ink).text(rate.text, MARGIN.left + 16, top + 24, { lineBreak: false });
+  doc
+    .font(FONT)
+    .fontSize(9)
+    .fillColor(colours.muted)
+    .text(figureNames.passRate, MARGIN.left + 16, top + 10, { lineBreak: false });
+  doc
+    .fontSize(rate.value === null ? 16 : 32)
+    .fillColor(colours.ink)
+    .text(rate.text, MARGIN.left + 16, top + 24, { lineBreak: false });
   const sub = rate.hidden ? "hidden to protect a small group" : rate.value === null ? "no measured attempts" : `95 % interval ${rate.intervalText}`;
-  doc.fontSize(9).fillColor(colours.ink).text(sub, MARGIN.left + 16, top + 62, { lineBreak: false });
-  doc.fontSize(7.5).fillColor(colours.muted).text(`of ${data.reach.attempts.text} measured attempts`, MARGIN.left + 16, top + 75, { lineBreak: false });
+  doc
+    .fontSize(9)
+    .fillColor(colours.ink)
+    .text(sub, MARGIN.left + 16, top + 62, { lineBreak: false });
+  doc
+    .fontSize(7.5)
+    .fillColor(colours.muted)
+    .text(`of ${data.reach.attempts.text} measured attempts`, MARGIN.left + 16, top + 75, { lineBreak: false });
 
   const x = MARGIN.left + 200;
   const width = CONTENT_WIDTH - 212;
-  doc.fontSize(9).fillColor(colours.muted).text("Compared with earlier periods", x, top + 10, { lineBreak: false });
+  doc
+    .fontSize(9)
+    .fillColor(colours.muted)
+    .text("Compared with earlier periods", x, top + 10, { lineBreak: false });
   let y = top + 26;
   for (const comparison of data.comparisons) {
     doc.fontSize(9.5).fillColor(colours.ink);
@@ -219,10 +252,11 @@ function drawErrors(page: PageFlow, data: ReportData) {
   page.heading("Most common errors", 14 + rows.length * 17);
   const used = drawErrorBars(page.doc, { x: MARGIN.left, y: page.y, width: CONTENT_WIDTH, height: 0 }, rows);
   page.y += used + 4;
-  page.paragraph(
-    `An attempt can show several errors. ${data.errors.attemptsWithErrors.text} attempts showed at least one.`,
-    { size: 7.5, colour: colours.muted, gapAfter: 10 },
-  );
+  page.paragraph(`An attempt can show several errors. ${data.errors.attemptsWithErrors.text} attempts showed at least one.`, {
+    size: 7.5,
+    colour: colours.muted,
+    gapAfter: 10,
+  });
 
   const note = data.errors.actions.trim() || "The coordinator has not yet written what the network is doing about these errors.";
   const { doc } = page;
@@ -233,7 +267,11 @@ function drawErrors(page: PageFlow, data: ReportData) {
   const top = page.y;
   doc.rect(MARGIN.left, top, CONTENT_WIDTH, textHeight + 30).fill(colours.highlight);
   doc.rect(MARGIN.left, top, 4, textHeight + 30).fill(colours.accent);
-  doc.font(FONT).fontSize(8).fillColor(colours.accentDark).text("What the network is doing about it", MARGIN.left + 14, top + 8, { lineBreak: false });
+  doc
+    .font(FONT)
+    .fontSize(8)
+    .fillColor(colours.accentDark)
+    .text("What the network is doing about it", MARGIN.left + 14, top + 8, { lineBreak: false });
   writeRuns(doc, note, MARGIN.left + 14, top + 21, { width, size: 9.5, colour: colours.ink });
   page.y = top + textHeight + 30 + 18;
 }
@@ -312,7 +350,14 @@ function drawTable(page: PageFlow, columns: Column[], rows: string[][]) {
     columnStyles: filled.map((column) => ({ width: column.width, align: { x: column.align ?? "left", y: "top" } })),
     rowStyles: (i: number) =>
       i === 0
-        ? { minHeight: TABLE_ROW_HEIGHT, font: { size: 7.5 }, textColor: colours.muted, padding: [3, 4, 2.5, 4], border: [0, 0, 0.6, 0], borderColor: colours.line }
+        ? {
+            minHeight: TABLE_ROW_HEIGHT,
+            font: { size: 7.5 },
+            textColor: colours.muted,
+            padding: [3, 4, 2.5, 4],
+            border: [0, 0, 0.6, 0],
+            borderColor: colours.line,
+          }
         : { minHeight: TABLE_ROW_HEIGHT, backgroundColor: i % 2 === 0 ? colours.paper : undefined },
     data: [filled.map((column) => column.title), ...cells],
   });
@@ -342,10 +387,7 @@ function drawCourses(page: PageFlow, data: ReportData) {
       { title: "Classes", width: 110, align: "right" },
       { title: "Learners", width: 100, align: "right" },
     ],
-    [
-      ...data.reach.byCourse.map((c) => [c.label, c.classes.text, c.learners.text]),
-      ["All courses", data.reach.classes.text, data.reach.learners.text],
-    ],
+    [...data.reach.byCourse.map((c) => [c.label, c.classes.text, c.learners.text]), ["All courses", data.reach.classes.text, data.reach.learners.text]],
   );
 }
 
@@ -429,7 +471,7 @@ function drawMethods(page: PageFlow, data: ReportData) {
       text:
         "Pass rates carry a Wilson 95 % score interval. A change between periods, and the gap between live and hidden display, " +
         "is called up or down only when the 95 % interval of the difference (Newcombe's hybrid score method) excludes zero; " +
-        "otherwise it reads \"no clear change\". Quarterly control limits are those of a p-chart (3 sigma).",
+        'otherwise it reads "no clear change". Quarterly control limits are those of a p-chart (3 sigma).',
       size: 8.5,
     },
     { title: "Small numbers", text: m.suppressionNote, size: 8.5 },
@@ -444,11 +486,22 @@ function drawMethods(page: PageFlow, data: ReportData) {
   page.ensure(total + 10);
   const top = page.y;
   doc.roundedRect(MARGIN.left, top, CONTENT_WIDTH, total, 6).lineWidth(0.8).fillAndStroke(colours.tint, "#C6C2EA");
-  doc.font(FONT).fontSize(12).fillColor(colours.brand).text("How these figures are made", MARGIN.left + 14, top + 12, { lineBreak: false });
+  doc
+    .font(FONT)
+    .fontSize(12)
+    .fillColor(colours.brand)
+    .text("How these figures are made", MARGIN.left + 14, top + 12, { lineBreak: false });
   let y = top + 34;
   blocks.forEach((block, i) => {
-    doc.font(FONT).fontSize(7.5).fillColor(colours.accentDark).text(block.title.toUpperCase(), MARGIN.left + 14, y, { lineBreak: false, characterSpacing: 0.6 });
-    doc.fontSize(block.size).fillColor(colours.ink).text(block.text, MARGIN.left + 14, y + 12, { width: inner, lineGap: 1.5 });
+    doc
+      .font(FONT)
+      .fontSize(7.5)
+      .fillColor(colours.accentDark)
+      .text(block.title.toUpperCase(), MARGIN.left + 14, y, { lineBreak: false, characterSpacing: 0.6 });
+    doc
+      .fontSize(block.size)
+      .fillColor(colours.ink)
+      .text(block.text, MARGIN.left + 14, y + 12, { width: inner, lineGap: 1.5 });
     y += heights[i];
   });
   page.y = top + total + 12;
@@ -462,14 +515,17 @@ function drawFooters(doc: Doc, data: ReportData, meta: PdfMeta) {
     const bottom = doc.page.margins.bottom;
     doc.page.margins.bottom = 0;
     const y = PAGE.height - 40;
-    doc.moveTo(MARGIN.left, y - 6).lineTo(PAGE.width - MARGIN.right, y - 6).lineWidth(0.5).strokeColor(colours.line).stroke();
+    doc
+      .moveTo(MARGIN.left, y - 6)
+      .lineTo(PAGE.width - MARGIN.right, y - 6)
+      .lineWidth(0.5)
+      .strokeColor(colours.line)
+      .stroke();
     doc.font(FONT).fontSize(7.5).fillColor(colours.muted);
-    doc.text(
-      `Quarterbeat · report for funders · ${data.period} · version ${meta.version} · generated ${writtenDate(meta.createdAt)}`,
-      MARGIN.left,
-      y,
-      { width: CONTENT_WIDTH - 80, lineBreak: false },
-    );
+    doc.text(`Quarterbeat · report for funders · ${data.period} · version ${meta.version} · generated ${writtenDate(meta.createdAt)}`, MARGIN.left, y, {
+      width: CONTENT_WIDTH - 80,
+      lineBreak: false,
+    });
     doc.text(`Page ${i - range.start + 1} of ${range.count}`, PAGE.width - MARGIN.right - 80, y, { width: 80, align: "right", lineBreak: false });
     doc.page.margins.bottom = bottom;
   }

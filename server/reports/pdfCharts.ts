@@ -15,7 +15,11 @@ export interface Box {
 
 function label(doc: Doc, text: string, x: number, y: number, options: TextOptions & { size?: number; colour?: string } = {}) {
   const { size = 7.5, colour = colours.muted, ...rest } = options;
-  doc.font(FONT).fontSize(size).fillColor(colour).text(text, x, y, { lineBreak: false, ...rest });
+  doc
+    .font(FONT)
+    .fontSize(size)
+    .fillColor(colour)
+    .text(text, x, y, { lineBreak: false, ...rest });
 }
 
 /**
@@ -35,7 +39,12 @@ export function drawTrendChart(doc: Doc, box: Box, points: TrendPoint[], centre:
 
   // grid and axis labels
   for (const share of [0, 0.25, 0.5, 0.75, 1]) {
-    doc.moveTo(plot.x, yAt(share)).lineTo(plot.x + plot.width, yAt(share)).lineWidth(0.4).strokeColor(colours.line).stroke();
+    doc
+      .moveTo(plot.x, yAt(share))
+      .lineTo(plot.x + plot.width, yAt(share))
+      .lineWidth(0.4)
+      .strokeColor(colours.line)
+      .stroke();
     label(doc, `${share * 100} %`, box.x, yAt(share) - 3.5, { width: 28, align: "right" });
   }
   points.forEach((point, i) => {
@@ -68,12 +77,26 @@ export function drawTrendChart(doc: Doc, box: Box, points: TrendPoint[], centre:
   }
 
   if (centre !== null) {
-    doc.moveTo(plot.x, yAt(centre)).lineTo(plot.x + plot.width, yAt(centre)).lineWidth(0.7).dash(1.5, { space: 2 }).strokeColor(colours.muted).stroke().undash();
+    doc
+      .moveTo(plot.x, yAt(centre))
+      .lineTo(plot.x + plot.width, yAt(centre))
+      .lineWidth(0.7)
+      .dash(1.5, { space: 2 })
+      .strokeColor(colours.muted)
+      .stroke()
+      .undash();
   }
   points.forEach((point, i) => {
     if (point.lcl === null || point.ucl === null) return;
     for (const limit of [point.lcl, point.ucl]) {
-      doc.moveTo(xAt(i) - step * 0.32, yAt(limit)).lineTo(xAt(i) + step * 0.32, yAt(limit)).lineWidth(0.8).dash(3, { space: 2 }).strokeColor(colours.limit).stroke().undash();
+      doc
+        .moveTo(xAt(i) - step * 0.32, yAt(limit))
+        .lineTo(xAt(i) + step * 0.32, yAt(limit))
+        .lineWidth(0.8)
+        .dash(3, { space: 2 })
+        .strokeColor(colours.limit)
+        .stroke()
+        .undash();
     }
   });
 
@@ -91,16 +114,35 @@ export function drawTrendChart(doc: Doc, box: Box, points: TrendPoint[], centre:
   // legend
   const legendY = box.y + box.height - 12;
   let x = plot.x;
-  doc.moveTo(x, legendY + 3).lineTo(x + 14, legendY + 3).lineWidth(1.6).strokeColor(colours.brand).stroke();
+  doc
+    .moveTo(x, legendY + 3)
+    .lineTo(x + 14, legendY + 3)
+    .lineWidth(1.6)
+    .strokeColor(colours.brand)
+    .stroke();
   label(doc, "pass rate", x + 18, legendY);
   x += 62;
   doc.rect(x, legendY - 1, 14, 8).fill(colours.band);
   label(doc, "95 % interval", x + 18, legendY);
   x += 76;
-  doc.moveTo(x, legendY + 3).lineTo(x + 14, legendY + 3).lineWidth(0.8).dash(3, { space: 2 }).strokeColor(colours.limit).stroke().undash();
+  doc
+    .moveTo(x, legendY + 3)
+    .lineTo(x + 14, legendY + 3)
+    .lineWidth(0.8)
+    .dash(3, { space: 2 })
+    .strokeColor(colours.limit)
+    .stroke()
+    .undash();
   label(doc, "control limits (3 sigma)", x + 18, legendY);
   x += 110;
-  doc.moveTo(x, legendY + 3).lineTo(x + 14, legendY + 3).lineWidth(0.7).dash(1.5, { space: 2 }).strokeColor(colours.muted).stroke().undash();
+  doc
+    .moveTo(x, legendY + 3)
+    .lineTo(x + 14, legendY + 3)
+    .lineWidth(0.7)
+    .dash(1.5, { space: 2 })
+    .strokeColor(colours.muted)
+    .stroke()
+    .undash();
   label(doc, "eight-quarter average", x + 18, legendY);
   x += 100;
   doc.rect(x, legendY - 1, 14, 8).fill(colours.highlight);
@@ -124,7 +166,13 @@ export function drawErrorBars(doc: Doc, box: Box, rows: ErrorRow[]): number {
       doc.rect(barX, y + 2, length, rowHeight - 6).fill(colours.brandSoft);
       label(doc, row.count.text, barX + length + 4, y + 3, { size: 8, colour: colours.ink });
     } else {
-      doc.rect(barX, y + 2, barWidth, rowHeight - 6).lineWidth(0.5).dash(2, { space: 2 }).strokeColor(colours.line).stroke().undash();
+      doc
+        .rect(barX, y + 2, barWidth, rowHeight - 6)
+        .lineWidth(0.5)
+        .dash(2, { space: 2 })
+        .strokeColor(colours.line)
+        .stroke()
+        .undash();
       label(doc, row.count.text, barX + 4, y + 3, { size: 7.5 });
     }
     const share = row.share === null ? "–" : formatPercent(row.share);
@@ -154,7 +202,12 @@ export function drawRateBars(doc: Doc, box: Box, bars: RateBar[]): number {
   }
   y += 10;
   for (const share of [0, 0.5, 1]) {
-    doc.moveTo(xAt(share), y).lineTo(xAt(share), y + bars.length * rowHeight).lineWidth(0.4).strokeColor(colours.line).stroke();
+    doc
+      .moveTo(xAt(share), y)
+      .lineTo(xAt(share), y + bars.length * rowHeight)
+      .lineWidth(0.4)
+      .strokeColor(colours.line)
+      .stroke();
   }
   for (const bar of bars) {
     label(doc, bar.label, box.x, y + 6, { size: 8, colour: colours.ink, width: labelWidth, ellipsis: true });
@@ -163,7 +216,11 @@ export function drawRateBars(doc: Doc, box: Box, bars: RateBar[]): number {
       doc.rect(scaleX, y + 4, Math.max(0.5, rate.value * scaleWidth), rowHeight - 8).fill(bar.colour ?? colours.brandSoft);
       const mid = y + rowHeight / 2;
       doc.moveTo(xAt(rate.low), mid).lineTo(xAt(rate.high), mid).lineWidth(1).strokeColor(colours.ink).stroke();
-      for (const end of [rate.low, rate.high]) doc.moveTo(xAt(end), mid - 4).lineTo(xAt(end), mid + 4).stroke();
+      for (const end of [rate.low, rate.high])
+        doc
+          .moveTo(xAt(end), mid - 4)
+          .lineTo(xAt(end), mid + 4)
+          .stroke();
       label(doc, `${rate.text}  (${rate.intervalText})`, scaleX + scaleWidth + 10, y + 6, { size: 8, colour: colours.ink });
     } else {
       label(doc, rate.text, scaleX + scaleWidth + 10, y + 6, { size: 8 });

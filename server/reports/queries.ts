@@ -151,7 +151,11 @@ export function passTallyByQuarter(db: Db, quarters: readonly string[]): Map<str
 
 /** True when the period has at least one class or attempt. */
 export function periodHasData(db: Db, quarters: readonly string[]): boolean {
-  const classRow = db.select({ n: count() }).from(classes).where(inArray(classes.quarter, [...quarters])).get();
+  const classRow = db
+    .select({ n: count() })
+    .from(classes)
+    .where(inArray(classes.quarter, [...quarters]))
+    .get();
   if ((classRow?.n ?? 0) > 0) return true;
   return totalTally(db, reportScope(quarters)).n > 0;
 }

@@ -85,7 +85,8 @@ export async function sendReport(
 ): Promise<ReportSendRow> {
   const report = findReport(db, reportId);
   const coverNote = options.coverNote.trim();
-  if (!coverNote) throw new AppError("invalid", 422, "Write a cover note for the funders.", [{ path: "coverNote", message: "Write a cover note for the funders" }]);
+  if (!coverNote)
+    throw new AppError("invalid", 422, "Write a cover note for the funders.", [{ path: "coverNote", message: "Write a cover note for the funders" }]);
   const recipients = [...new Set([...funderAddresses(db), ...(options.extraRecipients ?? []).map((a) => a.trim().toLowerCase())])];
   if (recipients.length === 0) {
     throw new AppError(

@@ -62,7 +62,11 @@ export async function generateReport(
   if (!data.hasData) throw noDataError(period.id);
 
   for (let tries = 0; ; tries++) {
-    const latest = db.select({ version: max(reports.version) }).from(reports).where(eq(reports.period, period.id)).get();
+    const latest = db
+      .select({ version: max(reports.version) })
+      .from(reports)
+      .where(eq(reports.period, period.id))
+      .get();
     const version = (latest?.version ?? 0) + 1;
     const pdf = await renderReportPdf(data, { version, createdAt });
     try {

@@ -57,7 +57,24 @@ export function rescoreAttempts(db: Db, fromQuarter?: string): RescoreResult {
     const blob = streamOf.get(row.id) as Buffer | undefined;
     if (!blob) return row;
     const m = measureStream(blob, row.profile, policy, measured);
-    updateMetrics.run(m.duration_s, m.compressions, m.rate_cpm, m.depth_mm, m.depth_ok_pct, m.too_shallow_pct, m.too_deep_pct, m.rate_ok_pct, m.too_slow_pct, m.too_fast_pct, m.recoil_ok_pct, m.hands_on_pct, m.pauses, m.longest_pause_s, m.pauses_over_10s, row.rowid);
+    updateMetrics.run(
+      m.duration_s,
+      m.compressions,
+      m.rate_cpm,
+      m.depth_mm,
+      m.depth_ok_pct,
+      m.too_shallow_pct,
+      m.too_deep_pct,
+      m.rate_ok_pct,
+      m.too_slow_pct,
+      m.too_fast_pct,
+      m.recoil_ok_pct,
+      m.hands_on_pct,
+      m.pauses,
+      m.longest_pause_s,
+      m.pauses_over_10s,
+      row.rowid,
+    );
     return { ...row, ...m };
   };
 
@@ -88,5 +105,14 @@ export function rescoreAttempts(db: Db, fromQuarter?: string): RescoreResult {
 
 function measureStream(blob: Buffer, profile: PatientType, policy: NetworkPolicy, out: AttemptMetrics): AttemptMetrics {
   const stream = decodeStream(blob);
-  return analyzeSorted(stream.tMs, tenthsToMm(stream.depthTenths), tenthsToMm(stream.releaseTenths), 0, stream.tMs.length, bandFor(policy, profile), policy, out);
+  return analyzeSorted(
+    stream.tMs,
+    tenthsToMm(stream.depthTenths),
+    tenthsToMm(stream.releaseTenths),
+    0,
+    stream.tMs.length,
+    bandFor(policy, profile),
+    policy,
+    out,
+  );
 }

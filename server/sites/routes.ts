@@ -1,10 +1,5 @@
 import { Router } from "express";
-import {
-  newInstructorSchema,
-  newSiteSchema,
-  updateInstructorSchema,
-  updateSiteSchema,
-} from "../../shared/schemas/sites";
+import { newInstructorSchema, newSiteSchema, updateInstructorSchema, updateSiteSchema } from "../../shared/schemas/sites";
 import type { Db } from "../db/client";
 import { allow } from "../auth/guard";
 import { parseId, parseWith } from "../http/validate";

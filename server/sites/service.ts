@@ -67,11 +67,7 @@ export function createInstructor(db: Db, input: { code: string; name: string; si
   return listInstructors(db).find((i) => i.id === id)!;
 }
 
-export function updateInstructor(
-  db: Db,
-  id: number,
-  changes: { name?: string; siteId?: number | null; active?: boolean },
-): InstructorRow {
+export function updateInstructor(db: Db, id: number, changes: { name?: string; siteId?: number | null; active?: boolean }): InstructorRow {
   assertSiteExists(db, changes.siteId);
   if (Object.keys(changes).length > 0) db.update(instructors).set(changes).where(eq(instructors.id, id)).run();
   const instructor = listInstructors(db).find((i) => i.id === id);

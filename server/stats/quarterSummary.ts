@@ -143,7 +143,16 @@ export function quarterSummary(db: Db, quarter: string, filter: SummaryFilter = 
     first_attempt_pass_rate: rate(learners.firstPassed, learners.learners),
     ever_passed_rate: rate(learners.everPassed, learners.learners),
     attempts_per_learner: rate(attempts, learners.learners),
-    ...(difference ? { change: { from: before, difference: difference.difference, ci95: [difference.low, difference.high] as [number, number], verdict: changeVerdict(difference) } } : {}),
+    ...(difference
+      ? {
+          change: {
+            from: before,
+            difference: difference.difference,
+            ci95: [difference.low, difference.high] as [number, number],
+            verdict: changeVerdict(difference),
+          },
+        }
+      : {}),
     median: medians,
     at_ceiling: atCeiling,
     errors,

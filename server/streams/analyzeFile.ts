@@ -130,7 +130,15 @@ export async function analyzeFile(input: ImportInput, options: AnalyzeOptions = 
       const profile = profiles[stream.idx];
       const metrics = analyzeSorted(stream.tMs, depth, release, 0, n, bandFor(policy, profile), policy);
       const scored = scoreAttempt(metrics, profile, policy);
-      attempts.push({ attempt_id: ids[stream.idx], profile, metrics, score: scored.score, passed: scored.passed, errors: scored.errors, reason: scored.reason });
+      attempts.push({
+        attempt_id: ids[stream.idx],
+        profile,
+        metrics,
+        score: scored.score,
+        passed: scored.passed,
+        errors: scored.errors,
+        reason: scored.reason,
+      });
     }
     return { rowsRead, attempts: issuesTotal > 0 ? [] : attempts, issues, issuesTotal };
   } catch (err) {

@@ -37,18 +37,13 @@ export class StreamCodecError extends Error {
  * Encodes entries from..to-1 of arrays sorted by time (times whole ms, 0 ≤ t < 2^31; depths whole tenths of
  * a millimetre, 0–65535). Throws StreamCodecError for anything it could not decode back exactly.
  */
-export function encodeStream(
-  tMs: ArrayLike<number>,
-  depthTenths: ArrayLike<number>,
-  releaseTenths: ArrayLike<number>,
-  from = 0,
-  to = tMs.length,
-): Buffer {
+export function encodeStream(tMs: ArrayLike<number>, depthTenths: ArrayLike<number>, releaseTenths: ArrayLike<number>, from = 0, to = tMs.length): Buffer {
   const n = to - from;
   let wide = false;
   for (let i = from; i < to; i++) {
     const t = tMs[i];
-    if (!Number.isInteger(t) || t < 0 || t > 0x7fffffff) throw new StreamCodecError(`time ${t} ms at entry ${i - from} is not a whole number of ms from 0 to 2^31-1`);
+    if (!Number.isInteger(t) || t < 0 || t > 0x7fffffff)
+      throw new StreamCodecError(`time ${t} ms at entry ${i - from} is not a whole number of ms from 0 to 2^31-1`);
     if (i > from) {
       const step = t - tMs[i - 1];
       if (step <= 0) throw new StreamCodecError(`times must strictly increase; entry ${i - from} (${t} ms) follows ${tMs[i - 1]} ms`);

@@ -124,13 +124,16 @@ export class StreamCollector {
         attempt.issueRows++;
         const first = stream.rows[duplicateAt - 1];
         const second = stream.rows[duplicateAt];
-        this.hooks.reject([], [
-          {
-            row: second,
-            column: "t_ms",
-            reason: `t_ms ${t[duplicateAt]} appears on rows ${first} and ${second} of attempt ${attempt.id}; each compression needs its own time`,
-          },
-        ]);
+        this.hooks.reject(
+          [],
+          [
+            {
+              row: second,
+              column: "t_ms",
+              reason: `t_ms ${t[duplicateAt]} appears on rows ${first} and ${second} of attempt ${attempt.id}; each compression needs its own time`,
+            },
+          ],
+        );
         continue;
       }
       yield { attempt, stream };

@@ -13,7 +13,9 @@ function countsBy(rows: { instructorId: number | null; n: number }[]): Map<numbe
 
 export function quarterTracker(db: Db, quarter: string): TrackerAnswer {
   const classes = countsBy(
-    db.all<{ instructorId: number; n: number }>(sql`SELECT instructor_id AS instructorId, count(*) AS n FROM classes WHERE quarter = ${quarter} GROUP BY instructor_id`),
+    db.all<{ instructorId: number; n: number }>(
+      sql`SELECT instructor_id AS instructorId, count(*) AS n FROM classes WHERE quarter = ${quarter} GROUP BY instructor_id`,
+    ),
   );
   const attempts = talliesBy<number>(db, networkScope(quarter, quarter), "instructorId");
   const lastImport = new Map(

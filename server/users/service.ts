@@ -104,7 +104,10 @@ export function updateUser(db: Db, id: number, changes: UpdateUser): UserRow {
 
 export async function setPassword(db: Db, id: number, password: string): Promise<void> {
   userRow(db, id);
-  db.update(users).set({ passwordHash: await hashPassword(password) }).where(eq(users.id, id)).run();
+  db.update(users)
+    .set({ passwordHash: await hashPassword(password) })
+    .where(eq(users.id, id))
+    .run();
 }
 
 export function setLengthUnit(db: Db, id: number, lengthUnit: CurrentUser["lengthUnit"]): void {

@@ -48,6 +48,9 @@ export function resolveHeader(header: readonly string[], kind: ImportKind, mappi
   for (const known of Object.keys(mapping.columns)) {
     if (!Object.hasOwn(index, known)) problems.push({ column: known, reason: `the mapping names "${known}", which is not a column of ${kind} files` });
   }
-  const extra = header.map((name, i) => ({ name: name.trim(), i })).filter(({ name, i }) => name !== "" && !used.has(i)).map(({ name }) => name);
+  const extra = header
+    .map((name, i) => ({ name: name.trim(), i }))
+    .filter(({ name, i }) => name !== "" && !used.has(i))
+    .map(({ name }) => name);
   return { index, problems, extra };
 }

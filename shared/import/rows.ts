@@ -300,7 +300,10 @@ export class RowReader {
       const c = value.charCodeAt(i);
       if (isIdChar(c)) continue;
       if (c === 32 || c === 9 || c === 160) {
-        return this.fail(column, `${quoted(value)} looks like a personal name (it contains a space); learners are recorded only as pseudonymous codes such as L-0042, never by name`);
+        return this.fail(
+          column,
+          `${quoted(value)} looks like a personal name (it contains a space); learners are recorded only as pseudonymous codes such as L-0042, never by name`,
+        );
       }
       if (c === 64) {
         return this.fail(column, `${quoted(value)} looks like an e-mail address; learners are recorded only as pseudonymous codes such as L-0042`);

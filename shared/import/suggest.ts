@@ -45,7 +45,10 @@ const SYNONYMS: Record<string, string[]> = {
 const UNIT_SUFFIX = /(mm|cm|in|inch|inches|ms|sec|secs|seconds|s|pct|percent|perc|fraction|frac|cpm|permin|min)$/;
 
 function key(name: string): string {
-  return name.toLowerCase().replace(/\(.*?\)|\[.*?\]/g, "").replace(/[^a-z0-9]/g, "");
+  return name
+    .toLowerCase()
+    .replace(/\(.*?\)|\[.*?\]/g, "")
+    .replace(/[^a-z0-9]/g, "");
 }
 
 function bareKey(name: string): string {

@@ -7,10 +7,7 @@ export const emailSchema = z
   .toLowerCase()
   .pipe(z.email({ message: "Enter an e-mail address such as name@example.org" }));
 
-export const newPasswordSchema = z
-  .string()
-  .min(10, "Use at least 10 characters")
-  .max(200, "Use at most 200 characters");
+export const newPasswordSchema = z.string().min(10, "Use at least 10 characters").max(200, "Use at most 200 characters");
 
 export const signInSchema = z.object({
   email: emailSchema,

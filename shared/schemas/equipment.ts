@@ -93,9 +93,7 @@ export const manikinDriftSchema = z.object({
   flag: z.enum(driftFlags),
   flagged_in_round: z.number().int().min(1).nullable(),
   /** The paired differences, oldest class first; the class id only for those who see every site's classes. */
-  differences: z.array(
-    z.object({ classId: z.string().nullable(), date: z.string(), difference_mm: z.number(), attempts: count, peer_attempts: count }),
-  ),
+  differences: z.array(z.object({ classId: z.string().nullable(), date: z.string(), difference_mm: z.number(), attempts: count, peer_attempts: count })),
 });
 export type ManikinDriftRow = z.infer<typeof manikinDriftSchema>;
 

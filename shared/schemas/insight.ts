@@ -102,9 +102,7 @@ export const optionsAnswerSchema = z.object({
   /** Drill-down roles: every instructor; an instructor: only themselves; a funder: none. */
   instructors: z.array(z.object({ id: z.number(), code: z.string(), name: z.string(), siteId: z.number().nullable() })),
   /** Drill-down roles: every manikin; an instructor: the manikins of their site; a funder: none. */
-  manikins: z.array(
-    z.object({ id: z.number(), assetId: z.string(), patientType: z.enum(patientTypes).nullable(), siteId: z.number().nullable() }),
-  ),
+  manikins: z.array(z.object({ id: z.number(), assetId: z.string(), patientType: z.enum(patientTypes).nullable(), siteId: z.number().nullable() })),
 });
 export type OptionsAnswer = z.infer<typeof optionsAnswerSchema>;
 
@@ -153,9 +151,7 @@ export const passRateSeriesSchema = z.object({
    * run on one side and the crossings, with their limits; null for fewer than two quarters off the median.
    * With a split, the median is that of the quarters before it, carried on (a shift after it signals).
    */
-  runChart: z
-    .object({ median: share, useful: count, run: count, longestRun: count, crossings: count, fewestCrossings: count, shift: z.boolean() })
-    .nullable(),
+  runChart: z.object({ median: share, useful: count, run: count, longestRun: count, crossings: count, fewestCrossings: count, shift: z.boolean() }).nullable(),
 });
 
 export const agreementSchema = z.object({
@@ -281,16 +277,18 @@ export type StandingAnswer = z.infer<typeof standingAnswerSchema>;
 
 // ---- GET /api/insight/instructors and /api/insight/instructors/:id -------------------------------------
 
-export const instructorRowSchema = z.object({
-  id: z.number(),
-  code: z.string(),
-  name: z.string(),
-  site: z.object({ id: z.number(), code: z.string() }).nullable(),
-  classes: count,
-  attempts: count,
-  passRate: rateSchema,
-  medianScore: z.number().nullable(),
-}).merge(funnelComparisonSchema);
+export const instructorRowSchema = z
+  .object({
+    id: z.number(),
+    code: z.string(),
+    name: z.string(),
+    site: z.object({ id: z.number(), code: z.string() }).nullable(),
+    classes: count,
+    attempts: count,
+    passRate: rateSchema,
+    medianScore: z.number().nullable(),
+  })
+  .merge(funnelComparisonSchema);
 
 export const instructorsAnswerSchema = z.object({
   period: periodSchema,

@@ -6,11 +6,7 @@ import { emailSchema } from "./auth";
 import type { ChangeVerdict } from "../stats/difference";
 
 /** A quarter such as 2026-Q3, or a whole year such as 2026. */
-export const periodSchema = z
-  .string()
-  .trim()
-  .toUpperCase()
-  .regex(REPORT_PERIOD_RE, "Use a quarter such as 2026-Q3 or a year such as 2026");
+export const periodSchema = z.string().trim().toUpperCase().regex(REPORT_PERIOD_RE, "Use a quarter such as 2026-Q3 or a year such as 2026");
 export type Period = z.infer<typeof periodSchema>;
 
 export const quarterNotesSchema = z.object({
@@ -68,7 +64,6 @@ export interface PerHundredFigure {
   hidden: HiddenReason | null;
   text: string;
 }
-
 
 export type { ChangeVerdict };
 

@@ -2,12 +2,7 @@
 // the importer runs over millions of compressions: one pass, no allocation per compression. analyzeStream is
 // the convenient front door for row objects: it validates, sorts and then calls the core.
 import type { Band, NetworkPolicy } from "./policy";
-import {
-  DuplicateTimestampError,
-  InvalidStreamValueError,
-  UnsortedTimestampError,
-  type StreamField,
-} from "./streamErrors";
+import { DuplicateTimestampError, InvalidStreamValueError, UnsortedTimestampError, type StreamField } from "./streamErrors";
 
 /** One compression: time since attempt start, peak depth, residual depth at the top of the following recoil. */
 export interface CompressionRow {
@@ -235,13 +230,7 @@ function throwOrderError(t: TimeArray, from: number, to: number): never {
   throw new Error("Compression times do not increase, but no offending pair was found"); // unreachable
 }
 
-function throwFirstNonFinite(
-  t: TimeArray,
-  depth: LengthArray,
-  release: LengthArray,
-  from: number,
-  to: number,
-): never {
+function throwFirstNonFinite(t: TimeArray, depth: LengthArray, release: LengthArray, from: number, to: number): never {
   const columns: [StreamField, TimeArray | LengthArray][] = [
     ["t_ms", t],
     ["depth_mm", depth],
@@ -262,11 +251,7 @@ function throwFirstNonFinite(
  * Analyse rows in any order. Checks every value (finite numbers; depth and release not negative), sorts by
  * time and rejects two rows with the same t_ms. Error indexes refer to positions in `rows`.
  */
-export function analyzeStream(
-  rows: readonly CompressionRow[],
-  band: Band,
-  pause: PauseSettings,
-): AttemptMetrics {
+export function analyzeStream(rows: readonly CompressionRow[], band: Band, pause: PauseSettings): AttemptMetrics {
   const n = rows.length;
   const t = new Float64Array(n);
   const depth = new Float64Array(n);

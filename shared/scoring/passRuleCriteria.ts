@@ -22,7 +22,13 @@ export interface PassCriterion {
   split: { low: number; high: number } | null;
 }
 
-function share(key: CriterionKey, value: number, threshold: number, split: { low: number; high: number } | null, errors: [AttemptError, AttemptError]): PassCriterion {
+function share(
+  key: CriterionKey,
+  value: number,
+  threshold: number,
+  split: { low: number; high: number } | null,
+  errors: [AttemptError, AttemptError],
+): PassCriterion {
   const met = value >= threshold;
   // ties go to the first way, as scoreAttempt decides them
   const error = met ? null : split === null || split.low >= split.high ? errors[0] : errors[1];

@@ -7,18 +7,11 @@ import { z } from "zod";
 export const patientTypes = ["infant", "child", "adult"] as const;
 export type PatientType = (typeof patientTypes)[number];
 
-const positive = (what: string) =>
-  z
-    .number({ error: `${what} must be a finite number` })
-    .positive(`${what} must be greater than 0`);
+const positive = (what: string) => z.number({ error: `${what} must be a finite number` }).positive(`${what} must be greater than 0`);
 
-const nonNegative = (what: string) =>
-  z
-    .number({ error: `${what} must be a finite number` })
-    .min(0, `${what} must not be negative`);
+const nonNegative = (what: string) => z.number({ error: `${what} must be a finite number` }).min(0, `${what} must not be negative`);
 
-const percentage = (what: string) =>
-  nonNegative(what).max(100, `${what} is a percentage and must be at most 100`);
+const percentage = (what: string) => nonNegative(what).max(100, `${what} is a percentage and must be at most 100`);
 
 const wholePositive = (what: string) => positive(what).int(`${what} must be a whole number`);
 
@@ -150,8 +143,7 @@ export const GUIDELINE_SOURCES: readonly GuidelineSource[] = [
   {
     id: "erc-2021-bls",
     citation:
-      "Olasveengen TM, Semeraro F, Ristagno G, et al. European Resuscitation Council Guidelines 2021: Basic Life " +
-      "Support. Resuscitation. 2021;161:98–114.",
+      "Olasveengen TM, Semeraro F, Ristagno G, et al. European Resuscitation Council Guidelines 2021: Basic Life " + "Support. Resuscitation. 2021;161:98–114.",
   },
 ];
 

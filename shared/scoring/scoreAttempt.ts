@@ -4,15 +4,7 @@ import type { AttemptMetrics } from "./analyzeStream";
 import { patientTypes, type NetworkPolicy, type PatientType } from "./policy";
 
 /** Order matters: bit i of an error mask stands for attemptErrorNames[i]. Append only, never reorder. */
-export const attemptErrorNames = [
-  "too_shallow",
-  "too_deep",
-  "too_slow",
-  "too_fast",
-  "incomplete_recoil",
-  "low_hands_on",
-  "long_pause",
-] as const;
+export const attemptErrorNames = ["too_shallow", "too_deep", "too_slow", "too_fast", "incomplete_recoil", "low_hands_on", "long_pause"] as const;
 export type AttemptError = (typeof attemptErrorNames)[number];
 
 /** What scoring reads; device summaries carry these even when they have no pause count. */
@@ -68,11 +60,7 @@ const percentFields = [
  * performed on; the default pass rule is the same for all three, but the type is checked so an attempt with
  * an unknown profile is never scored silently.
  */
-export function scoreAttempt(
-  metrics: ScoringInput,
-  profile: PatientType,
-  policy: Pick<NetworkPolicy, "passRule">,
-): AttemptScore {
+export function scoreAttempt(metrics: ScoringInput, profile: PatientType, policy: Pick<NetworkPolicy, "passRule">): AttemptScore {
   if (!patientTypes.includes(profile)) {
     throw new RangeError(`Unknown patient type ${JSON.stringify(profile)}; expected one of ${patientTypes.join(", ")}`);
   }
@@ -85,10 +73,7 @@ export function scoreAttempt(
       score,
       passed: false,
       errors: [],
-      reason:
-        metrics.compressions === 0
-          ? "No compressions were recorded"
-          : "Only one compression was recorded; at least two are needed to judge the rate",
+      reason: metrics.compressions === 0 ? "No compressions were recorded" : "Only one compression was recorded; at least two are needed to judge the rate",
     };
   }
 

@@ -19,8 +19,7 @@ export class DuplicateTimestampError extends StreamDataError {
   readonly otherIndex: number;
   constructor(tMs: number, firstIndex: number, secondIndex: number) {
     super(
-      `Two compressions have the same time t_ms = ${tMs} (entries ${firstIndex} and ${secondIndex}, counting from 0); ` +
-        "each compression needs its own time",
+      `Two compressions have the same time t_ms = ${tMs} (entries ${firstIndex} and ${secondIndex}, counting from 0); ` + "each compression needs its own time",
       secondIndex,
     );
     this.name = "DuplicateTimestampError";
@@ -34,10 +33,7 @@ export class UnsortedTimestampError extends StreamDataError {
   readonly tMs: number;
   readonly previousTMs: number;
   constructor(tMs: number, previousTMs: number, index: number) {
-    super(
-      `Compression times must increase: t_ms = ${tMs} at entry ${index} (counting from 0) follows t_ms = ${previousTMs}`,
-      index,
-    );
+    super(`Compression times must increase: t_ms = ${tMs} at entry ${index} (counting from 0) follows t_ms = ${previousTMs}`, index);
     this.name = "UnsortedTimestampError";
     this.tMs = tMs;
     this.previousTMs = previousTMs;

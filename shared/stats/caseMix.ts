@@ -38,7 +38,9 @@ export interface Standardisation<K> {
 
 function checkCount(cell: StratumCount, where: string) {
   if (!Number.isInteger(cell.n) || cell.n < 0 || !Number.isInteger(cell.passed) || cell.passed < 0 || cell.passed > cell.n) {
-    throw new RangeError(`indirectStandardisation: ${where}, stratum "${cell.stratum}" has ${cell.passed} of ${cell.n}; both must be whole numbers with 0 ≤ passed ≤ n`);
+    throw new RangeError(
+      `indirectStandardisation: ${where}, stratum "${cell.stratum}" has ${cell.passed} of ${cell.n}; both must be whole numbers with 0 ≤ passed ≤ n`,
+    );
   }
 }
 

@@ -77,11 +77,7 @@ function interpolatedBinomialLimit(p: number, n: number, theta0: number): number
  * Points for drawing a funnel from n = 1 to nMax: `points` sizes spaced evenly on a log scale
  * (the funnel bends most at small n), rounded to whole numbers, duplicates dropped.
  */
-export function funnelCurve(
-  theta0: number,
-  nMax: number,
-  options: FunnelOptions & { points?: number },
-): FunnelPoint[] {
+export function funnelCurve(theta0: number, nMax: number, options: FunnelOptions & { points?: number }): FunnelPoint[] {
   if (!Number.isInteger(nMax) || nMax < 0) {
     throw new RangeError(`funnelCurve: nMax must be a whole number ≥ 0 (got ${nMax})`);
   }
@@ -95,9 +91,7 @@ export function funnelCurve(
   for (let i = 0; i < pointCount; i += 1) {
     sizes.add(Math.round(Math.pow(nMax, i / (pointCount - 1))));
   }
-  return [...sizes]
-    .sort((a, b) => a - b)
-    .map((n) => ({ n, ...funnelLimits(theta0, n, options) }));
+  return [...sizes].sort((a, b) => a - b).map((n) => ({ n, ...funnelLimits(theta0, n, options) }));
 }
 
 /**
@@ -108,17 +102,10 @@ export function funnelCurve(
 export type FunnelPosition = "inside" | "above95" | "below95" | "above998" | "below998";
 
 /** Position of successes/n against the funnel around theta0; null when n is 0 (nothing to place). */
-export function classifyAgainstFunnel(
-  successes: number,
-  n: number,
-  theta0: number,
-  method: FunnelMethod = "exact",
-): FunnelPosition | null {
+export function classifyAgainstFunnel(successes: number, n: number, theta0: number, method: FunnelMethod = "exact"): FunnelPosition | null {
   assertBinomialParameters(n, theta0, "classifyAgainstFunnel");
   if (!Number.isInteger(successes) || successes < 0 || successes > n) {
-    throw new RangeError(
-      `classifyAgainstFunnel: successes must be a whole number from 0 to n = ${n} (got ${successes})`,
-    );
+    throw new RangeError(`classifyAgainstFunnel: successes must be a whole number from 0 to n = ${n} (got ${successes})`);
   }
   if (n === 0) return null;
   const proportion = successes / n;

@@ -136,9 +136,7 @@ function MainNav() {
                     className={({ isActive }) =>
                       clsx(
                         "flex min-h-11 items-center rounded-control border-l-4 px-3 font-medium",
-                        isActive
-                          ? "border-marigold-500 bg-dusk-100 text-dusk-900"
-                          : "border-transparent text-ink hover:bg-dusk-50 hover:text-dusk-800",
+                        isActive ? "border-marigold-500 bg-dusk-100 text-dusk-900" : "border-transparent text-ink hover:bg-dusk-50 hover:text-dusk-800",
                       )
                     }
                   >

@@ -54,8 +54,11 @@ function NotAvailable({ route }: { route: AppRoute }) {
       <div className="flex max-w-2xl flex-col gap-3 rounded-card border border-line bg-surface p-6 shadow-card">
         <p>
           <strong>{route.title}</strong> is open to{" "}
-          {rolesFor(route).map((r) => roleLabels[r]).join(", ").replace(/, ([^,]*)$/, " and $1")} accounts. You are signed in as{" "}
-          {role ? roleLabels[role].toLowerCase() : "another role"}.
+          {rolesFor(route)
+            .map((r) => roleLabels[r])
+            .join(", ")
+            .replace(/, ([^,]*)$/, " and $1")}{" "}
+          accounts. You are signed in as {role ? roleLabels[role].toLowerCase() : "another role"}.
         </p>
         <p className="text-muted">If you need this page for your work, ask your regional coordinator to change your role.</p>
         <Link to="/" className="self-start font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">

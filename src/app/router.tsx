@@ -45,7 +45,11 @@ function pageRoute(queryClient: QueryClient, route: AppRoute): RouteObject {
   const page: RouteObject = { path: route.path, element: <RouteGuard route={route} /> };
   if (!route.prefetch) return page;
   // shown while the loader runs on the first load, as the guard's own fallback would be
-  return { ...page, loader: prefetchLoader(queryClient, route, route.prefetch), hydrateFallbackElement: <LoadingState label={`Opening ${route.title.toLowerCase()}…`} /> };
+  return {
+    ...page,
+    loader: prefetchLoader(queryClient, route, route.prefetch),
+    hydrateFallbackElement: <LoadingState label={`Opening ${route.title.toLowerCase()}…`} />,
+  };
 }
 
 export function buildRoutes(queryClient: QueryClient, routes: readonly AppRoute[] = appRoutes): RouteObject[] {

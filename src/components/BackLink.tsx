@@ -6,7 +6,10 @@ export function BackLink({ to, label }: { to: string; label: string }) {
   const [params] = useSearchParams();
   const search = params.toString() ? `?${params.toString()}` : "";
   return (
-    <Link to={`${to}${search}`} className="mb-3 inline-flex min-h-9 items-center gap-1 font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+    <Link
+      to={`${to}${search}`}
+      className="mb-3 inline-flex min-h-9 items-center gap-1 font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900"
+    >
       <span aria-hidden="true">←</span> {label}
     </Link>
   );

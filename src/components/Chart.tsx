@@ -72,7 +72,13 @@ export function Chart<Row>({ title, description, data, columns, rowKey, plot, ex
       width,
       ariaLabel: null,
       ariaDescription: null,
-      style: { fontFamily: "inherit", fontSize: "12px", background: "transparent", overflow: "visible", ...(typeof options.style === "object" ? options.style : {}) },
+      style: {
+        fontFamily: "inherit",
+        fontSize: "12px",
+        background: "transparent",
+        overflow: "visible",
+        ...(typeof options.style === "object" ? options.style : {}),
+      },
     });
     // Plot names each mark's <g> ("bar", "rule"); inside role="img" those names are not allowed and say nothing.
     figure.querySelectorAll("g[aria-label]").forEach((mark) => mark.removeAttribute("aria-label"));
@@ -117,7 +123,16 @@ export function Chart<Row>({ title, description, data, columns, rowKey, plot, ex
       </figcaption>
       <div ref={frameRef} className="min-w-0">
         {showTable ? (
-          <DataTable caption={title} captionHidden columns={columns} rows={data} rowKey={rowKey} filterable={false} exportFileName={exportFileName} phoneLayout="scroll" />
+          <DataTable
+            caption={title}
+            captionHidden
+            columns={columns}
+            rows={data}
+            rowKey={rowKey}
+            filterable={false}
+            exportFileName={exportFileName}
+            phoneLayout="scroll"
+          />
         ) : (
           <>
             {legend && <div className="mb-2">{legend}</div>}

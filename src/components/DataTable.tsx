@@ -127,9 +127,7 @@ export function DataTable<Row>({
   const shown = useMemo(() => sortRows(filterRows(rows, columns, filter), columns, sort), [rows, columns, filter, sort]);
 
   function toggleSort(key: string) {
-    setSort((current) =>
-      current?.key === key ? { key, direction: current.direction === "asc" ? "desc" : "asc" } : { key, direction: "asc" },
-    );
+    setSort((current) => (current?.key === key ? { key, direction: current.direction === "asc" ? "desc" : "asc" } : { key, direction: "asc" }));
   }
 
   const showToolbar = filterable || exportFileName || toolbar || cards;
@@ -165,7 +163,14 @@ export function DataTable<Row>({
               className="inline-flex min-h-11 items-center gap-2 rounded-control border border-line-strong bg-surface px-4 font-medium text-dusk-800 hover:bg-dusk-50 disabled:opacity-60"
             >
               <svg viewBox="0 0 20 20" className="size-4" aria-hidden="true">
-                <path d="M10 3v9m0 0-3.5-3.5M10 12l3.5-3.5M4 14v2.5h12V14" fill="none" stroke="currentColor" strokeWidth="1.8" strokeLinecap="round" strokeLinejoin="round" />
+                <path
+                  d="M10 3v9m0 0-3.5-3.5M10 12l3.5-3.5M4 14v2.5h12V14"
+                  fill="none"
+                  stroke="currentColor"
+                  strokeWidth="1.8"
+                  strokeLinecap="round"
+                  strokeLinejoin="round"
+                />
               </svg>
               Export CSV
             </button>
@@ -183,9 +188,7 @@ export function DataTable<Row>({
         tabIndex={0}
       >
         <table className="w-full border-collapse text-left text-small">
-          <caption className={clsx("px-4 pt-3 text-left text-body font-semibold", captionHidden && "sr-only")}>
-            {caption}
-          </caption>
+          <caption className={clsx("px-4 pt-3 text-left text-body font-semibold", captionHidden && "sr-only")}>{caption}</caption>
           <thead>
             <tr className="border-b border-line-strong">
               {columns.map((column) => {
@@ -196,7 +199,11 @@ export function DataTable<Row>({
                     key={column.key}
                     scope="col"
                     aria-sort={active ? (sort.direction === "asc" ? "ascending" : "descending") : sortable ? "none" : undefined}
-                    className={clsx("px-3 py-2 font-semibold text-muted first:pl-4 last:pr-4", column.headerWrap ? "min-w-20" : "whitespace-nowrap", column.align === "right" && "text-right")}
+                    className={clsx(
+                      "px-3 py-2 font-semibold text-muted first:pl-4 last:pr-4",
+                      column.headerWrap ? "min-w-20" : "whitespace-nowrap",
+                      column.align === "right" && "text-right",
+                    )}
                   >
                     {sortable ? (
                       <button
@@ -262,7 +269,19 @@ function notApplicable<Row>(column: Column<Row>, row: Row): boolean {
 }
 
 /** Phones: one card per row, titled by the primary column, the other columns as label–value pairs. */
-function CardList<Row>({ caption, columns, rows, rowKey, emptyText }: { caption: string; columns: readonly Column<Row>[]; rows: readonly Row[]; rowKey: (row: Row) => string | number; emptyText: string }) {
+function CardList<Row>({
+  caption,
+  columns,
+  rows,
+  rowKey,
+  emptyText,
+}: {
+  caption: string;
+  columns: readonly Column<Row>[];
+  rows: readonly Row[];
+  rowKey: (row: Row) => string | number;
+  emptyText: string;
+}) {
   const primary = columns.find((c) => c.primary) ?? columns[0];
   const footer = columns.filter((c) => c !== primary && c.exportable === false);
   const details = columns.filter((c) => c !== primary && c.exportable !== false);
@@ -273,12 +292,14 @@ function CardList<Row>({ caption, columns, rows, rowKey, emptyText }: { caption:
         <li key={rowKey(row)} className="rounded-card border border-line bg-surface p-4 shadow-card">
           <p className="font-semibold">{cellContent(primary, row)}</p>
           <dl className="mt-2 grid grid-cols-[minmax(6rem,auto)_1fr] gap-x-4 gap-y-1 text-small">
-            {details.filter((column) => !notApplicable(column, row)).map((column) => (
-              <div key={column.key} className="contents">
-                <dt className="text-muted">{column.header}</dt>
-                <dd className="min-w-0 break-words">{cellContent(column, row)}</dd>
-              </div>
-            ))}
+            {details
+              .filter((column) => !notApplicable(column, row))
+              .map((column) => (
+                <div key={column.key} className="contents">
+                  <dt className="text-muted">{column.header}</dt>
+                  <dd className="min-w-0 break-words">{cellContent(column, row)}</dd>
+                </div>
+              ))}
           </dl>
           {footer.map((column) => (
             <div key={column.key} className="mt-3 border-t border-line pt-3">

@@ -42,12 +42,7 @@ export function Dialog({ open, title, onClose, children }: DialogProps) {
             <h2 id={titleId} className="text-title">
               {title}
             </h2>
-            <button
-              type="button"
-              onClick={onClose}
-              className="-m-1 rounded-control p-1 text-muted hover:bg-dusk-50 hover:text-ink"
-              aria-label="Close"
-            >
+            <button type="button" onClick={onClose} className="-m-1 rounded-control p-1 text-muted hover:bg-dusk-50 hover:text-ink" aria-label="Close">
               <svg viewBox="0 0 20 20" className="size-5" aria-hidden="true">
                 <path d="M5 5l10 10M15 5 5 15" stroke="currentColor" strokeWidth="2" strokeLinecap="round" />
               </svg>

@@ -74,13 +74,7 @@ export function Input({ label, hint, error, optional, className, inputClassName,
   return (
     <Field label={label} hint={hint} error={error} optional={optional} className={className}>
       {({ id, describedBy, invalid }) => (
-        <input
-          id={id}
-          aria-describedby={describedBy}
-          aria-invalid={invalid || undefined}
-          className={clsx(controlClass(invalid), inputClassName)}
-          {...input}
-        />
+        <input id={id} aria-describedby={describedBy} aria-invalid={invalid || undefined} className={clsx(controlClass(invalid), inputClassName)} {...input} />
       )}
     </Field>
   );
@@ -103,13 +97,7 @@ export function Select({ label, hint, error, optional, className, options, place
   return (
     <Field label={label} hint={hint} error={error} optional={optional} className={className}>
       {({ id, describedBy, invalid }) => (
-        <select
-          id={id}
-          aria-describedby={describedBy}
-          aria-invalid={invalid || undefined}
-          className={clsx(controlClass(invalid), "pr-8")}
-          {...select}
-        >
+        <select id={id} aria-describedby={describedBy} aria-invalid={invalid || undefined} className={clsx(controlClass(invalid), "pr-8")} {...select}>
           {placeholder !== undefined && <option value="">{placeholder}</option>}
           {options.map((option) => (
             <option key={option.value} value={option.value} disabled={option.disabled}>

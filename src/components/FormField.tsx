@@ -43,7 +43,5 @@ export function FormField(props: TextFieldProps | ChoiceFieldProps) {
       />
     );
   }
-  return (
-    <Input {...props} ref={ref} value={value ?? ""} onBlur={onBlur} onChange={(event) => onChange(event.target.value)} error={error} />
-  );
+  return <Input {...props} ref={ref} value={value ?? ""} onBlur={onBlur} onChange={(event) => onChange(event.target.value)} error={error} />;
 }

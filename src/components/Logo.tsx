@@ -23,9 +23,7 @@ export function Logo({ className, tone = "onDark", size = "md" }: { className?: 
   return (
     <span className={clsx("inline-flex items-center", size === "lg" ? "gap-3" : "gap-2", className)}>
       <LogoMark tone={tone} className={size === "lg" ? "size-11" : undefined} />
-      <span
-        className={clsx("font-bold tracking-tight", size === "lg" ? "text-headline" : "text-lead", tone === "onDark" ? "text-white" : "text-ink")}
-      >
+      <span className={clsx("font-bold tracking-tight", size === "lg" ? "text-headline" : "text-lead", tone === "onDark" ? "text-white" : "text-ink")}>
         Quarter<span className={tone === "onDark" ? "text-marigold-300" : "text-dusk-700"}>beat</span>
       </span>
     </span>

@@ -59,8 +59,7 @@ export function StatCard({ label, value, unit, interval, change, status, statusL
 
 function ChangeLine({ change }: { change: StatChange }) {
   const direction = change.value > 0 ? "up" : change.value < 0 ? "down" : "flat";
-  const verdict =
-    change.clear === false ? "no clear change" : direction === "flat" || !change.better ? null : direction === change.better ? "better" : "worse";
+  const verdict = change.clear === false ? "no clear change" : direction === "flat" || !change.better ? null : direction === change.better ? "better" : "worse";
   return (
     <p
       className={clsx(

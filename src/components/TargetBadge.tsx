@@ -35,13 +35,7 @@ export interface TargetBadgeProps {
 
 export function TargetBadge({ status, label, className }: TargetBadgeProps) {
   return (
-    <span
-      className={clsx(
-        "inline-flex items-center gap-1.5 rounded-full border px-2 py-0.5 text-caption font-semibold",
-        styles[status],
-        className,
-      )}
-    >
+    <span className={clsx("inline-flex items-center gap-1.5 rounded-full border px-2 py-0.5 text-caption font-semibold", styles[status], className)}>
       <TargetMark status={status} />
       {label ?? targetStatusLabels[status]}
     </span>

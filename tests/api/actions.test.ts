@@ -41,14 +41,30 @@ describe("recording actions", () => {
 
   it("answers 422 naming each invalid field", async () => {
     const res = await t.quality
-      .post("/api/actions", { title: "", aim: "louder", target: 140, siteId: null, instructorId: null, profile: "elderly", startDate: "2026-02-30", owner: "", status: "maybe" })
+      .post("/api/actions", {
+        title: "",
+        aim: "louder",
+        target: 140,
+        siteId: null,
+        instructorId: null,
+        profile: "elderly",
+        startDate: "2026-02-30",
+        owner: "",
+        status: "maybe",
+      })
       .expect(422);
     const paths = res.body.error.details.map((d: { path: string }) => d.path);
     expect(paths).toEqual(expect.arrayContaining(["title", "aim", "target", "profile", "startDate", "owner", "status"]));
   });
 
   it("refuses a scope naming both a site and an instructor, or one that does not exist", async () => {
-    const both = await t.quality.post("/api/actions", { ...base, title: "x", startDate: "2026-01-01", siteId: t.net.sites.north.id, instructorId: t.net.instructors.a1.id });
+    const both = await t.quality.post("/api/actions", {
+      ...base,
+      title: "x",
+      startDate: "2026-01-01",
+      siteId: t.net.sites.north.id,
+      instructorId: t.net.instructors.a1.id,
+    });
     expect(both.status).toBe(422);
     expect(both.body.error.details[0].path).toBe("instructorId");
     const missing = await t.quality.post("/api/actions", { ...base, title: "x", startDate: "2026-01-01", siteId: 9999 });
@@ -142,7 +158,13 @@ describe("monthly run chart", () => {
   it("splits the aim's months at the start, each side with its own median, and judges the months after around the one before", async () => {
     // SOUTH, too shallow, by class month: 2025-11 B1 20 of 20 (before); 2026-02 D1 182 of 263 (the start's
     // month, started on the 15th: neither side); 2026-05 B1 4 of 10 and 2026-06 D1 0 of 20 (after).
-    const action = await record({ title: "South depth clinic by month", aim: "too_shallow", target: 20, siteId: t.net.sites.south.id, startDate: "2026-02-15" });
+    const action = await record({
+      title: "South depth clinic by month",
+      aim: "too_shallow",
+      target: 20,
+      siteId: t.net.sites.south.id,
+      startDate: "2026-02-15",
+    });
     const { chart } = actionMonthlyAnswerSchema.parse((await t.quality.get(`/api/actions/${action.id}/monthly`).expect(200)).body);
     expect(chart!.points.map((p) => [p.period, p.phase, p.x, p.n])).toEqual([
       ["2025-11", "before", 20, 20],

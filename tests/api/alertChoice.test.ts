@@ -21,7 +21,11 @@ import { makeTestApp, makeTestDb, signIn, type Agent, type TestApp } from "../he
 const AS_OF = "2026-07-01";
 
 function mailTo(db: Db, email: string) {
-  return db.select({ recipients: mailbox.recipients, subject: mailbox.subject, text: mailbox.text }).from(mailbox).all().filter((m) => m.recipients.includes(email));
+  return db
+    .select({ recipients: mailbox.recipients, subject: mailbox.subject, text: mailbox.text })
+    .from(mailbox)
+    .all()
+    .filter((m) => m.recipients.includes(email));
 }
 
 describe("alerts per user", () => {
@@ -136,7 +140,12 @@ describe("alerts per user", () => {
   it("lists each user's own deliveries, newest first, with links they may open", async () => {
     const north = myAlertsAnswerSchema.parse((await northInstructor.get("/api/alerts").expect(200)).body).deliveries;
     expect(north.map((d) => d.key)).toContain("shift:NORTH:below:2025-11");
-    expect(north.map((d) => d.sentAt)).toEqual(north.map((d) => d.sentAt).sort().reverse());
+    expect(north.map((d) => d.sentAt)).toEqual(
+      north
+        .map((d) => d.sentAt)
+        .sort()
+        .reverse(),
+    );
     expect(north.every((d) => !d.key.includes("SOUTH") && !d.key.includes("network"))).toBe(true);
     expect(north.find((d) => d.kind === "shift")!.link).toEqual({ label: "Network overview", path: "/overview?site=NORTH" });
     const south = myAlertsAnswerSchema.parse((await southInstructor.get("/api/alerts").expect(200)).body).deliveries;
@@ -170,7 +179,9 @@ describe("alerts per user", () => {
     const coordinatorId = db.select({ id: users.id }).from(users).where(eq(users.role, "coordinator")).get()!.id;
     const stamp = (i: number) => `2027-01-01T00:${String(Math.floor(i / 60)).padStart(2, "0")}:${String(i % 60).padStart(2, "0")}.000Z`;
     db.insert(alertDeliveries)
-      .values(Array.from({ length: 510 }, (_, i) => ({ userId: coordinatorId, key: `test:${i}`, kind: "noData" as const, summary: `signal ${i}`, sentAt: stamp(i) })))
+      .values(
+        Array.from({ length: 510 }, (_, i) => ({ userId: coordinatorId, key: `test:${i}`, kind: "noData" as const, summary: `signal ${i}`, sentAt: stamp(i) })),
+      )
       .run();
     const signals = allAlerts(db).signals;
     expect(signals).toHaveLength(500);

@@ -42,9 +42,22 @@ describe("insight answers off the event loop", () => {
     expect(await pending).toBe(answerJson(db, "overview", [viewer, filters, { limits: "binomial", splitAt: null }]));
     expect(await answerText(db, "test:standing", "standing", [mine, ownFilters, "case-mix"])).toBe(answerJson(db, "standing", [mine, ownFilters, "case-mix"]));
     expect(await answerText(db, "test:instructors", "instructors", [filters, "case-mix"])).toBe(answerJson(db, "instructors", [filters, "case-mix"]));
-    expect(await answerText(db, "test:techniqueErrors", "techniqueErrors", [filters, "too_shallow"])).toBe(answerJson(db, "techniqueErrors", [filters, "too_shallow"]));
-    const search = { error: null, classId: null, stream: null, learner: null, learnerMatch: "exact", sort: "score", dir: "desc", onlyInstructorId: null } as const;
-    expect(await answerText(db, "test:attempts", "attempts", [filters, search, { page: 2, pageSize: 50 }])).toBe(answerJson(db, "attempts", [filters, search, { page: 2, pageSize: 50 }]));
+    expect(await answerText(db, "test:techniqueErrors", "techniqueErrors", [filters, "too_shallow"])).toBe(
+      answerJson(db, "techniqueErrors", [filters, "too_shallow"]),
+    );
+    const search = {
+      error: null,
+      classId: null,
+      stream: null,
+      learner: null,
+      learnerMatch: "exact",
+      sort: "score",
+      dir: "desc",
+      onlyInstructorId: null,
+    } as const;
+    expect(await answerText(db, "test:attempts", "attempts", [filters, search, { page: 2, pageSize: 50 }])).toBe(
+      answerJson(db, "attempts", [filters, search, { page: 2, pageSize: 50 }]),
+    );
     // the equipment answers, whose usage figures follow the viewer's grid
     expect(await answerText(db, "test:fleet", "fleet", [viewer, filters, "2025-12-31"])).toBe(answerJson(db, "fleet", [viewer, filters, "2025-12-31"]));
     expect(await answerText(db, "test:drift", "drift", [viewer, filters])).toBe(answerJson(db, "drift", [viewer, filters]));
@@ -65,7 +78,9 @@ describe("insight answers off the event loop", () => {
     const memory = openDatabase(":memory:");
     try {
       const viewer = viewerOf(memory, coordinator);
-      expect(typeof answerText(memory, "test:memory", "overview", [viewer, resolveFilters(memory, {}, viewer), { limits: "binomial", splitAt: null }])).toBe("string");
+      expect(typeof answerText(memory, "test:memory", "overview", [viewer, resolveFilters(memory, {}, viewer), { limits: "binomial", splitAt: null }])).toBe(
+        "string",
+      );
     } finally {
       memory.$client.close();
     }

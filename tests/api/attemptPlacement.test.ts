@@ -9,9 +9,13 @@ let t: InsightTestContext;
 beforeAll(async () => {
   t = await startInsightApp();
   // 2025-Q3 holds A1's 29 adult attempts only; add one of B1's, so the group has a single attempt of someone else
-  const columns = (t.db.$client.prepare("PRAGMA table_info(attempts)").all() as { name: string }[]).map((c) => c.name).filter((name) => name !== "id" && name !== "quarter");
+  const columns = (t.db.$client.prepare("PRAGMA table_info(attempts)").all() as { name: string }[])
+    .map((c) => c.name)
+    .filter((name) => name !== "id" && name !== "quarter");
   t.db.$client
-    .prepare(`INSERT INTO attempts (id, quarter, ${columns.join(", ")}) SELECT 'B1-2511-EXTRA', '2025-Q3', ${columns.join(", ")} FROM attempts WHERE id = 'B1-2511-001'`)
+    .prepare(
+      `INSERT INTO attempts (id, quarter, ${columns.join(", ")}) SELECT 'B1-2511-EXTRA', '2025-Q3', ${columns.join(", ")} FROM attempts WHERE id = 'B1-2511-001'`,
+    )
     .run();
 });
 afterAll(() => t.db.$client.close());

@@ -25,7 +25,16 @@ afterAll(() => {
   fs.rmSync(path.dirname(file), { recursive: true, force: true });
 });
 
-const search: AttemptSearch = { error: null, classId: null, stream: null, learner: null, learnerMatch: "exact", sort: "score", dir: "desc", onlyInstructorId: null };
+const search: AttemptSearch = {
+  error: null,
+  classId: null,
+  stream: null,
+  learner: null,
+  learnerMatch: "exact",
+  sort: "score",
+  dir: "desc",
+  onlyInstructorId: null,
+};
 
 describe("attempts CSV export", () => {
   it("writes in chunks, waits for a slow reader, and keeps the state of the data it started with", async () => {

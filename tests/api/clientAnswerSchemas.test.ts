@@ -3,7 +3,13 @@
 // page reading it would show an error instead of its data.
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
-import { batchDetailResponseSchema, batchListResponseSchema, formatsResponseSchema, jobResponseSchema, presetListResponseSchema } from "../../shared/import/api";
+import {
+  batchDetailResponseSchema,
+  batchListResponseSchema,
+  formatsResponseSchema,
+  jobResponseSchema,
+  presetListResponseSchema,
+} from "../../shared/import/api";
 import { sessionAnswerSchema } from "../../shared/schemas/auth";
 import { dataVersionAnswerSchema } from "../../shared/schemas/dataVersion";
 import { optionsAnswerSchema } from "../../shared/schemas/insight";
@@ -31,7 +37,12 @@ afterAll(() => db.$client.close());
 
 async function importedJob(agent: Agent) {
   const file = path.resolve("tests/fixtures/import/classes-valid.csv");
-  const uploaded = await agent.agent.post("/api/imports/uploads").set("x-csrf-token", agent.csrfToken).field("kind", "classes").attach("file", file, { contentType: "text/csv" }).expect(201);
+  const uploaded = await agent.agent
+    .post("/api/imports/uploads")
+    .set("x-csrf-token", agent.csrfToken)
+    .field("kind", "classes")
+    .attach("file", file, { contentType: "text/csv" })
+    .expect(201);
   const started = await agent.post(`/api/imports/uploads/${uploaded.body.upload.id}/import`, {}).expect(202);
   for (let i = 0; i < 600; i++) {
     const job = jobResponseSchema.parse((await agent.get(`/api/imports/jobs/${started.body.job.id}`).expect(200)).body).job;
@@ -59,7 +70,9 @@ describe("answers fit the schemas the client parses them with", () => {
     expect(formats.classes.some((column) => column.required)).toBe(true);
     const mapping = { columns: {}, units: {} };
     await coordinator.post("/api/imports/presets", { name: "As exported", kind: "classes", mapping }).expect(201);
-    expect(presetListResponseSchema.parse((await coordinator.get("/api/imports/presets?kind=classes").expect(200)).body).presets.map((p) => p.name)).toEqual(["As exported"]);
+    expect(presetListResponseSchema.parse((await coordinator.get("/api/imports/presets?kind=classes").expect(200)).body).presets.map((p) => p.name)).toEqual([
+      "As exported",
+    ]);
 
     const job = await importedJob(coordinator);
     expect(job.status).toBe("done");

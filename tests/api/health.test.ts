@@ -64,7 +64,11 @@ describe("/api/health/ready", () => {
     const app = makeTestApp(db);
     db.$client.exec("DELETE FROM __drizzle_migrations WHERE created_at = (SELECT max(created_at) FROM __drizzle_migrations)");
     const res = await request(app).get("/api/health/ready").expect(503);
-    expect(res.body).toMatchObject({ ready: false, reason: "Database migrations have not all been applied.", database: { migration: { current: false, latest: latestTag } } });
+    expect(res.body).toMatchObject({
+      ready: false,
+      reason: "Database migrations have not all been applied.",
+      database: { migration: { current: false, latest: latestTag } },
+    });
     expect(res.body.database.migration.applied).toBe(journal[journal.length - 2].tag);
   });
 });

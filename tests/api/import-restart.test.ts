@@ -30,7 +30,11 @@ afterAll(() => {
 });
 
 function upload(agent: Agent, file: string) {
-  return agent.agent.post("/api/imports/uploads").set("x-csrf-token", agent.csrfToken).field("kind", "classes").attach("file", file, { contentType: "text/csv" });
+  return agent.agent
+    .post("/api/imports/uploads")
+    .set("x-csrf-token", agent.csrfToken)
+    .field("kind", "classes")
+    .attach("file", file, { contentType: "text/csv" });
 }
 
 async function finished(agent: Agent, jobId: string): Promise<ImportJob> {
@@ -44,7 +48,10 @@ async function finished(agent: Agent, jobId: string): Promise<ImportJob> {
 
 /** Every file under the folder, at any depth. */
 function filesUnder(dir: string): string[] {
-  return fs.readdirSync(dir, { recursive: true, withFileTypes: true }).filter((entry) => entry.isFile()).map((entry) => path.join(entry.parentPath, entry.name));
+  return fs
+    .readdirSync(dir, { recursive: true, withFileTypes: true })
+    .filter((entry) => entry.isFile())
+    .map((entry) => path.join(entry.parentPath, entry.name));
 }
 
 describe("uploads and import jobs across a restart", () => {

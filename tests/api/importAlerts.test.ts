@@ -124,7 +124,11 @@ describe("two imports that finish together", () => {
       const logger = createLogger({ logLevel: "silent", nodeEnv: "test" });
       await Promise.all([alertAfterImport(db, mailer, logger), alertAfterImport(db, mailer, logger)]);
       // the class log's three manikins are due for service: one digest each for the four receiving users
-      expect(received(db).map((m) => m.recipients).sort()).toEqual([["a1@test.example"], ["b1@test.example"], ["coord@test.example"], ["quality@test.example"]]);
+      expect(
+        received(db)
+          .map((m) => m.recipients)
+          .sort(),
+      ).toEqual([["a1@test.example"], ["b1@test.example"], ["coord@test.example"], ["quality@test.example"]]);
     } finally {
       await mail.close();
       db.$client.close();
@@ -151,7 +155,8 @@ describe("after a web import", () => {
       let status = "queued";
       let messages = received(db);
       for (let i = 0; i < 2400 && (status !== "done" || messages.length < 4); i++) {
-        if (status !== "done") status = jobResponseSchema.parse((await coordinator.get(`/api/imports/jobs/${started.body.job.id}`).expect(200)).body).job.status;
+        if (status !== "done")
+          status = jobResponseSchema.parse((await coordinator.get(`/api/imports/jobs/${started.body.job.id}`).expect(200)).body).job.status;
         await new Promise((resolve) => setTimeout(resolve, 50));
         messages = received(db);
         if (status === "failed") break;

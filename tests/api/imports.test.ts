@@ -150,7 +150,9 @@ describe("roles and row scope", () => {
       .field("kind", "classes")
       .attach(
         "file",
-        Buffer.from("class_id,date,site,instructor,course,learners,passed,manikins\nC-A1-20,2026-09-01,EVILSITE,A1,adult,4,4,\nC-A1-21,2026-09-01,SOUTH,A1,adult,4,4,\nC-A1-22,2026-09-01,NORTH,A1,adult,4,4,EVIL-M1\n"),
+        Buffer.from(
+          "class_id,date,site,instructor,course,learners,passed,manikins\nC-A1-20,2026-09-01,EVILSITE,A1,adult,4,4,\nC-A1-21,2026-09-01,SOUTH,A1,adult,4,4,\nC-A1-22,2026-09-01,NORTH,A1,adult,4,4,EVIL-M1\n",
+        ),
         { filename: "evil.csv", contentType: "text/csv" },
       )
       .expect(201);
@@ -222,7 +224,10 @@ describe("undo and history", () => {
     // the classes exist from an earlier test: this batch updated C-001 (passed 8 → 9)
     expect(classJob.summary).toMatchObject({ status: "imported", updated: 1, unchanged: 2 });
     const attempts = await upload(coordinator, "attempts", fixture("attempts-valid.csv")).expect(201);
-    const attemptJob = await finished(coordinator, (await coordinator.post(`/api/imports/uploads/${attempts.body.upload.id}/import`, {}).expect(202)).body.job.id);
+    const attemptJob = await finished(
+      coordinator,
+      (await coordinator.post(`/api/imports/uploads/${attempts.body.upload.id}/import`, {}).expect(202)).body.job.id,
+    );
     expect(attemptJob.summary).toMatchObject({ status: "imported", inserted: 4 });
 
     // the first classes batch inserted the classes; the attempts batch now depends on it
@@ -238,7 +243,10 @@ describe("undo and history", () => {
 
 describe("mapping presets", () => {
   it("creates, lists, uses and deletes a preset", async () => {
-    const mapping = { columns: { attempt_id: "Run", t_ms: "Time (s)", depth_mm: "Depth (cm)", release_mm: "Residual (cm)" }, units: { depth: "cm", time: "s" } };
+    const mapping = {
+      columns: { attempt_id: "Run", t_ms: "Time (s)", depth_mm: "Depth (cm)", release_mm: "Residual (cm)" },
+      units: { depth: "cm", time: "s" },
+    };
     const created = await instructor.post("/api/imports/presets", { name: "Pulse-trainer export", kind: "compressions", mapping }).expect(201);
     expect(created.body.preset.mapping.units).toEqual({ depth: "cm", time: "s", shares: "percent" });
     await instructor.post("/api/imports/presets", { name: "Pulse-trainer export", kind: "compressions", mapping }).expect(409);
@@ -258,7 +266,8 @@ describe("mapping presets", () => {
 
 describe("the server stays responsive during an import", () => {
   it("answers reads and writes of other requests while a worker imports a file", async () => {
-    const header = "attempt_id,class_id,learner,manikin,profile,feedback,started_at,duration_s,compressions,rate_cpm,depth_mm,depth_ok_pct,too_shallow_pct,too_deep_pct,rate_ok_pct,too_slow_pct,too_fast_pct,recoil_ok_pct,hands_on_pct,longest_pause_s,instructor_result";
+    const header =
+      "attempt_id,class_id,learner,manikin,profile,feedback,started_at,duration_s,compressions,rate_cpm,depth_mm,depth_ok_pct,too_shallow_pct,too_deep_pct,rate_ok_pct,too_slow_pct,too_fast_pct,recoil_ok_pct,hands_on_pct,longest_pause_s,instructor_result";
     const lines = [header];
     for (let i = 0; i < 10_000; i++) lines.push(`W-${i},C-001,L-${i},MK-1,adult,live,2026-07-14T09:30:00Z,120,230,112,54,85,10,5,80,12,8,90,85,4,`);
     const res = await coordinator.agent

@@ -109,9 +109,7 @@ describe("GET /api/insight/instructors", () => {
 
 describe("GET /api/insight/instructors/:id", () => {
   it("gives the quarterly trend and the classes of one instructor", async () => {
-    const body = instructorDetailAnswerSchema.parse(
-      (await t.coordinator.get(`/api/insight/instructors/${t.net.instructors.a1.id}`).expect(200)).body,
-    );
+    const body = instructorDetailAnswerSchema.parse((await t.coordinator.get(`/api/insight/instructors/${t.net.instructors.a1.id}`).expect(200)).body);
     expect(body.instructor).toMatchObject({ code: "A1", site: { code: "NORTH" } });
     expect(body.trend).toHaveLength(8);
     const q = (quarter: string) => body.trend.find((p) => p.quarter === quarter)!;
@@ -147,12 +145,30 @@ describe("GET /api/insight/errors", () => {
     expect([q2.low, q2.high]).toEqual(wilsonInterval(8, 44));
     const pairs = (rows: typeof selected.byProfile) => rows.map((r) => [r.key, r.count, r.attempts]);
     // 2026-Q2 shallow attempts: A1 2 (hidden), B1 4 (2 live, 2 hidden), C1 2 (infant, hidden)
-    expect(pairs(selected.byProfile)).toEqual([["adult", 6, 40], ["infant", 2, 4]]);
-    expect(pairs(selected.byFeedback)).toEqual([["hidden", 6, 24], ["live", 2, 20]]);
-    expect(pairs(selected.bySite)).toEqual([["NORTH", 4, 14], ["SOUTH", 4, 30]]);
+    expect(pairs(selected.byProfile)).toEqual([
+      ["adult", 6, 40],
+      ["infant", 2, 4],
+    ]);
+    expect(pairs(selected.byFeedback)).toEqual([
+      ["hidden", 6, 24],
+      ["live", 2, 20],
+    ]);
+    expect(pairs(selected.bySite)).toEqual([
+      ["NORTH", 4, 14],
+      ["SOUTH", 4, 30],
+    ]);
     // equal counts: the larger share first (C1 2/4 before A1 2/10)
-    expect(pairs(selected.byInstructor)).toEqual([["B1", 4, 10], ["C1", 2, 4], ["A1", 2, 10], ["D1", 0, 20]]);
-    expect(pairs(selected.byManikin)).toEqual([["MK-S1", 4, 30], ["MK-N2", 2, 4], ["MK-N1", 2, 10]]);
+    expect(pairs(selected.byInstructor)).toEqual([
+      ["B1", 4, 10],
+      ["C1", 2, 4],
+      ["A1", 2, 10],
+      ["D1", 0, 20],
+    ]);
+    expect(pairs(selected.byManikin)).toEqual([
+      ["MK-S1", 4, 30],
+      ["MK-N2", 2, 4],
+      ["MK-N1", 2, 10],
+    ]);
     expect(selected.byInstructor[0].share).toBeCloseTo(0.4, 12);
   });
 

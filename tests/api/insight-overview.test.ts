@@ -68,9 +68,7 @@ describe("overview of the latest quarter (2026-Q2), seen by the coordinator", ()
   });
 
   it("charts the last eight quarters with p-chart limits and flags the quarters outside them", () => {
-    expect(o.series.points.map((p) => p.quarter)).toEqual([
-      "2024-Q3", "2024-Q4", "2025-Q1", "2025-Q2", "2025-Q3", "2025-Q4", "2026-Q1", "2026-Q2",
-    ]);
+    expect(o.series.points.map((p) => p.quarter)).toEqual(["2024-Q3", "2024-Q4", "2025-Q1", "2025-Q2", "2025-Q3", "2025-Q4", "2026-Q1", "2026-Q2"]);
     // centre p̄ = (1 + 0 + 81 + 28) / (29 + 20 + 263 + 44) = 110 / 356 (Montgomery p-chart)
     expect(o.series.centre).toBeCloseTo(110 / 356, 12);
     const point = (q: string) => o.series.points.find((p) => p.quarter === q)!;
@@ -337,7 +335,13 @@ describe("the control chart split at an improvement action's start", () => {
   it("gives the phase after the split a centre of its own from its first four quarters", async () => {
     // split at the first day of 2025-Q3: nothing before it, and the four quarters 2025-Q3 … 2026-Q2 after it
     const o = await get("/api/insight/overview?split=2025-07-01");
-    expect(o.series.split).toEqual({ date: "2025-07-01", quarter: "2025-Q3", centre: 110 / 356, baseline: { from: "2025-Q3", to: "2026-Q2", attempts: 356 }, sigmaZ: null });
+    expect(o.series.split).toEqual({
+      date: "2025-07-01",
+      quarter: "2025-Q3",
+      centre: 110 / 356,
+      baseline: { from: "2025-Q3", to: "2026-Q2", attempts: 356 },
+      sigmaZ: null,
+    });
     expect(o.series.centre).toBeNull();
     // the same limits as the unsplit chart, whose baseline is those same four quarters
     const whole = await get("/api/insight/overview");

@@ -142,7 +142,13 @@ describe("sending a report", () => {
     const filename = `Bericht-Ärztekammer-${"Qualität-".repeat(8)}2026.csv`;
     const subject = "Ünïcödé ".repeat(12).trim();
     const transport = nodemailer.createTransport({ streamTransport: true, buffer: true, newline: "windows" });
-    const built = await transport.sendMail({ from: "a@example.org", to: "coord@test.example", subject, text: "line one\nline two", attachments: [{ filename, content: "a,b\r\n1,2\r\n", contentType: "text/csv" }] });
+    const built = await transport.sendMail({
+      from: "a@example.org",
+      to: "coord@test.example",
+      subject,
+      text: "line one\nline two",
+      attachments: [{ filename, content: "a,b\r\n1,2\r\n", contentType: "text/csv" }],
+    });
     const raw = built.message as Buffer;
     // nodemailer splits the name as RFC 2231 asks, so the reader has to join it again
     expect(raw.toString("latin1")).toContain("filename*0*=");

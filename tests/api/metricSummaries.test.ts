@@ -60,16 +60,41 @@ beforeAll(async () => {
   })();
   db.$client.transaction(() => {
     // an undo: a block of attempts deleted
-    db.delete(attempts).where(inArray(attempts.id, Array.from({ length: 400 }, (_, i) => `EXTRA-${i}`))).run();
+    db.delete(attempts)
+      .where(
+        inArray(
+          attempts.id,
+          Array.from({ length: 400 }, (_, i) => `EXTRA-${i}`),
+        ),
+      )
+      .run();
     // a rescore: new scores and results for some attempts, unchanged values for others
-    db.update(attempts).set({ score: sql`round(${attempts.score} * 0.9, 2)`, passed: sql`NOT ${attempts.passed}`, policyVersion: 1 }).where(sql`${attempts.id} LIKE 'EXTRA-1%'`).run();
-    db.update(attempts).set({ score: sql`${attempts.score}` }).where(sql`${attempts.id} LIKE 'EXTRA-2%'`).run();
+    db.update(attempts)
+      .set({ score: sql`round(${attempts.score} * 0.9, 2)`, passed: sql`NOT ${attempts.passed}`, policyVersion: 1 })
+      .where(sql`${attempts.id} LIKE 'EXTRA-1%'`)
+      .run();
+    db.update(attempts)
+      .set({ score: sql`${attempts.score}` })
+      .where(sql`${attempts.id} LIKE 'EXTRA-2%'`)
+      .run();
     // a class moved to another quarter, and a judgement corrected
-    db.update(attempts).set({ quarter: "2025-Q4" }).where(sql`${attempts.id} LIKE 'EXTRA-9%'`).run();
-    db.update(attempts).set({ instructorResult: "pass" }).where(sql`${attempts.id} LIKE 'EXTRA-8%'`).run();
+    db.update(attempts)
+      .set({ quarter: "2025-Q4" })
+      .where(sql`${attempts.id} LIKE 'EXTRA-9%'`)
+      .run();
+    db.update(attempts)
+      .set({ instructorResult: "pass" })
+      .where(sql`${attempts.id} LIKE 'EXTRA-8%'`)
+      .run();
     // learners who return: the same code on attempts of other groups, some started earlier
-    db.update(attempts).set({ learner: sql`'RETURNING-' || (cast(substr(${attempts.id}, 7) AS integer) % 40)` }).where(sql`${attempts.id} LIKE 'EXTRA-5%'`).run();
-    db.update(attempts).set({ startedAt: sql`substr(${attempts.startedAt}, 1, 10) || 'T06:00:00Z'` }).where(sql`${attempts.id} LIKE 'EXTRA-55%'`).run();
+    db.update(attempts)
+      .set({ learner: sql`'RETURNING-' || (cast(substr(${attempts.id}, 7) AS integer) % 40)` })
+      .where(sql`${attempts.id} LIKE 'EXTRA-5%'`)
+      .run();
+    db.update(attempts)
+      .set({ startedAt: sql`substr(${attempts.startedAt}, 1, 10) || 'T06:00:00Z'` })
+      .where(sql`${attempts.id} LIKE 'EXTRA-55%'`)
+      .run();
   })();
   // a bulk import: triggers deferred, rows added set-wise before the commit — including rows changed or deleted
   // while still pending, and a change to an attempt summarised earlier in the same transaction
@@ -93,9 +118,17 @@ beforeAll(async () => {
         })
         .run();
     }
-    db.update(attempts).set({ score: 12.5, passed: true }).where(sql`${attempts.id} LIKE 'BULK-1%'`).run();
-    db.delete(attempts).where(sql`${attempts.id} LIKE 'BULK-2%'`).run();
-    db.update(attempts).set({ passed: sql`NOT ${attempts.passed}` }).where(sql`${attempts.id} LIKE 'EXTRA-7%'`).run();
+    db.update(attempts)
+      .set({ score: 12.5, passed: true })
+      .where(sql`${attempts.id} LIKE 'BULK-1%'`)
+      .run();
+    db.delete(attempts)
+      .where(sql`${attempts.id} LIKE 'BULK-2%'`)
+      .run();
+    db.update(attempts)
+      .set({ passed: sql`NOT ${attempts.passed}` })
+      .where(sql`${attempts.id} LIKE 'EXTRA-7%'`)
+      .run();
     addPendingAttempts(db.$client);
   })();
 });
@@ -223,7 +256,9 @@ describe("deferred summaries in a bulk import", () => {
     expect(() =>
       db.$client.transaction(() => {
         deferSummaries(db.$client);
-        db.insert(attempts).values({ ...db.select().from(attempts).limit(1).get()!, id: "ROLLED-BACK" }).run();
+        db.insert(attempts)
+          .values({ ...db.select().from(attempts).limit(1).get()!, id: "ROLLED-BACK" })
+          .run();
         throw new Error("refused file");
       })(),
     ).toThrow("refused file");
@@ -231,7 +266,9 @@ describe("deferred summaries in a bulk import", () => {
     expect(db.$client.prepare("SELECT count(*) FROM summary_deferral").pluck().get()).toBe(0);
     expect(totalTally(db, everything)).toEqual(before);
     // outside an import, a new attempt is summarised at once
-    db.insert(attempts).values({ ...db.select().from(attempts).limit(1).get()!, id: "ONE-MORE" }).run();
+    db.insert(attempts)
+      .values({ ...db.select().from(attempts).limit(1).get()!, id: "ONE-MORE" })
+      .run();
     expect(totalTally(db, everything).n).toBe(before.n + 1);
     db.delete(attempts).where(eq(attempts.id, "ONE-MORE")).run();
     expect(totalTally(db, everything)).toEqual(before);
@@ -259,7 +296,18 @@ describe("quantiles of a distribution kept as value counts", () => {
   });
 
   it("merges distributions into the distribution of both", () => {
-    expect(mergeCounts([{ value: 1, count: 2 }, { value: 3, count: 1 }], [{ value: 2, count: 1 }, { value: 3, count: 4 }])).toEqual([
+    expect(
+      mergeCounts(
+        [
+          { value: 1, count: 2 },
+          { value: 3, count: 1 },
+        ],
+        [
+          { value: 2, count: 1 },
+          { value: 3, count: 4 },
+        ],
+      ),
+    ).toEqual([
       { value: 1, count: 2 },
       { value: 2, count: 1 },
       { value: 3, count: 5 },

@@ -171,7 +171,9 @@ describe("stored versions", () => {
     expect((await coordinator.get(`/api/reports/${plain.body.report.id}/data`).expect(200)).body.data.improvementActions).toBeUndefined();
     const withActions = await coordinator.post("/api/reports/2026-Q3", { includeActions: true }).expect(201);
     const data = (await coordinator.get(`/api/reports/${withActions.body.report.id}/data`).expect(200)).body.data;
-    expect(data.improvementActions).toEqual([{ title: "Rate metronome in every class", aim: "Measured pass rate", scope: "Whole network", startDate: "2026-07-06", status: "Under way" }]);
+    expect(data.improvementActions).toEqual([
+      { title: "Rate metronome in every class", aim: "Measured pass rate", scope: "Whole network", startDate: "2026-07-06", status: "Under way" },
+    ]);
     const refused = await coordinator.post("/api/reports/2026-Q3", { includeActions: "yes" }).expect(422);
     expect(refused.body.error.details[0].path).toBe("includeActions");
   });

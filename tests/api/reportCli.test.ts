@@ -99,7 +99,12 @@ describe("quarterbeat report", () => {
   });
 
   it("lists the improvement actions with --include-actions, without their owner", async () => {
-    readDb((db) => db.insert(improvementActions).values({ title: "Rate metronome in every class", aim: "passRate", target: 70, startDate: "2026-07-06", owner: "Robin Owner", status: "under_way" }).run());
+    readDb((db) =>
+      db
+        .insert(improvementActions)
+        .values({ title: "Rate metronome in every class", aim: "passRate", target: 70, startDate: "2026-07-06", owner: "Robin Owner", status: "under_way" })
+        .run(),
+    );
     const res = cli(["report", "--quarter", "2026-Q3", "--out", "with-actions.pdf", "--include-actions"]);
     expect(res.code, res.stderr).toBe(0);
     const parser = new PDFParse({ data: new Uint8Array(fs.readFileSync(path.join(outDir, "with-actions.pdf"))) });

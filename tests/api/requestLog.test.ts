@@ -85,7 +85,16 @@ describe("request log", () => {
       }
     });
     const event = parsed.find((entry) => entry.event === "import");
-    expect(event).toMatchObject({ msg: "import finished", kind: "classes", mode: "import", status: "imported", rowsRead: 3, inserted: 3, rejected: 0, userId: coordinatorId });
+    expect(event).toMatchObject({
+      msg: "import finished",
+      kind: "classes",
+      mode: "import",
+      status: "imported",
+      rowsRead: 3,
+      inserted: 3,
+      rejected: 0,
+      userId: coordinatorId,
+    });
     expect(event?.durationMs).toEqual(expect.any(Number));
     expect(parsed.filter((entry) => entry.msg === "request").map((entry) => entry.route)).toContain("/api/imports/jobs/:id");
     expect(raw.join("\n")).not.toMatch(/classes-valid/);
@@ -93,7 +102,9 @@ describe("request log", () => {
 
   it("logs a report send as an event with the number of recipients, not their addresses", async () => {
     const generated = await coordinator.post("/api/reports/2026-Q3", {}).expect(201);
-    const { raw, parsed } = await logged(() => coordinator.post(`/api/reports/${generated.body.report.id}/send`, { coverNote: "Our quarter.", extraRecipients: ["board@test.example"] }).expect(201));
+    const { raw, parsed } = await logged(() =>
+      coordinator.post(`/api/reports/${generated.body.report.id}/send`, { coverNote: "Our quarter.", extraRecipients: ["board@test.example"] }).expect(201),
+    );
     // no mail service in this test: the send is recorded as failed, and logged as such
     const event = parsed.find((entry) => entry.event === "report_send");
     expect(event).toMatchObject({ msg: "report send failed", level: 40, period: "2026-Q3", recipients: 2, status: "failed", userId: coordinatorId });

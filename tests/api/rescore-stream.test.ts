@@ -15,7 +15,10 @@ beforeAll(async () => {
   db = makeTestDb();
   await seedPeople(db);
   const now = new Date("2026-11-30T12:00:00Z");
-  for (const [kind, file] of [["classes", "classes-valid.csv"], ["compressions", "compressions-valid.csv"]] as const) {
+  for (const [kind, file] of [
+    ["classes", "classes-valid.csv"],
+    ["compressions", "compressions-valid.csv"],
+  ] as const) {
     const summary = await importFile(db, { kind, input: { path: path.join(fixtures, file) }, source: "cli", now });
     expect(summary.status).toBe("imported");
   }

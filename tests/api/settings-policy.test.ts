@@ -24,8 +24,7 @@ describe("GET /api/settings/policy", () => {
     expect(body.defaults).toEqual(DEFAULT_POLICY);
     expect(body.safetyNote).toMatch(/not a medical device/);
     // every default has a stated source, and every source named is one of the cited guidelines
-    const covered = (path: string) =>
-      body.fieldSources.some((f) => new RegExp(`^${f.path.replace(/\./g, "\\.").replace("*", "[a-z]+")}$`).test(path));
+    const covered = (path: string) => body.fieldSources.some((f) => new RegExp(`^${f.path.replace(/\./g, "\\.").replace("*", "[a-z]+")}$`).test(path));
     expect(leafPaths(DEFAULT_POLICY).filter((path) => !covered(path))).toEqual([]);
     const known = new Set(GUIDELINE_SOURCES.map((s) => s.id));
     expect(body.fieldSources.flatMap((f) => f.sources).filter((id) => !known.has(id))).toEqual([]);
@@ -78,9 +77,7 @@ describe("POST /api/settings/rescore", () => {
 
     const detail = attemptDetailAnswerSchema.parse((await t.coordinator.get("/api/attempts/C1-2605-003").expect(200)).body);
     expect(detail.attempt).toMatchObject({ passed: true, errors: [], policyVersion: 2, score: 78 });
-    expect(detail.scoreHistory).toEqual([
-      { policyVersion: 1, score: 78, passed: false, errors: ["too_shallow"], replacedAt: expect.any(String) },
-    ]);
+    expect(detail.scoreHistory).toEqual([{ policyVersion: 1, score: 78, passed: false, errors: ["too_shallow"], replacedAt: expect.any(String) }]);
     // an unchanged attempt moves to the new version without a history row
     const unchanged = attemptDetailAnswerSchema.parse((await t.coordinator.get("/api/attempts/A1-2604-002").expect(200)).body);
     expect(unchanged.attempt.policyVersion).toBe(2);

@@ -19,11 +19,7 @@ const limitedApp = (signInLimit: SignInLimit) => makeTestApp(db, { signInLimit, 
 
 async function attempt(app: TestApp, from: string, email: string, password: string): Promise<number> {
   const anon = await anonymousAgent(app);
-  const res = await anon.agent
-    .post("/api/auth/login")
-    .set("X-Forwarded-For", from)
-    .set("x-csrf-token", anon.csrfToken)
-    .send({ email, password });
+  const res = await anon.agent.post("/api/auth/login").set("X-Forwarded-For", from).set("x-csrf-token", anon.csrfToken).send({ email, password });
   return res.status;
 }
 

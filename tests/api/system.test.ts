@@ -20,17 +20,48 @@ beforeAll(async () => {
   await seedPeople(db);
   const now = new Date("2026-11-30T12:00:00Z");
   // three classes of 2026-Q3, and two attempts of that quarter with their compression streams
-  for (const [kind, file] of [["classes", "classes-valid.csv"], ["compressions", "compressions-valid.csv"]] as const) {
+  for (const [kind, file] of [
+    ["classes", "classes-valid.csv"],
+    ["compressions", "compressions-valid.csv"],
+  ] as const) {
     expect((await importFile(db, { kind, input: { path: path.join(fixtures, file) }, source: "cli", now })).status).toBe("imported");
   }
-  recordBackup(db, { takenAt: "2026-11-29T03:00:00.000Z", file: "/backups/quarterbeat-2026-11-29T030000Z.sqlite", sizeBytes: 4096, source: "scheduled", verified: true, message: "Integrity check passed." });
-  recordBackup(db, { takenAt: "2026-11-30T03:00:00.000Z", file: "/backups/quarterbeat-2026-11-30T030000Z.sqlite", sizeBytes: 0, source: "scheduled", verified: false, message: "disk full" });
-  const report = db.insert(reports).values({ period: "2026-Q3", version: 1, data: {}, pdf: Buffer.from("%PDF") }).returning().get();
-  db.insert(reportSends).values([
-    { reportId: report.id, recipients: ["a@example.org"], status: "sent", createdAt: "2026-10-02T09:00:00.000Z" },
-    { reportId: report.id, recipients: ["b@example.org"], status: "failed", error: "ECONNREFUSED: connection refused", createdAt: "2026-10-03T09:00:00.000Z" },
-  ]).run();
-  db.insert(mailbox).values({ mailFrom: "quarterbeat@localhost", recipients: ["a@example.org"], subject: "Report", text: "", attachments: [], raw: Buffer.from("") }).run();
+  recordBackup(db, {
+    takenAt: "2026-11-29T03:00:00.000Z",
+    file: "/backups/quarterbeat-2026-11-29T030000Z.sqlite",
+    sizeBytes: 4096,
+    source: "scheduled",
+    verified: true,
+    message: "Integrity check passed.",
+  });
+  recordBackup(db, {
+    takenAt: "2026-11-30T03:00:00.000Z",
+    file: "/backups/quarterbeat-2026-11-30T030000Z.sqlite",
+    sizeBytes: 0,
+    source: "scheduled",
+    verified: false,
+    message: "disk full",
+  });
+  const report = db
+    .insert(reports)
+    .values({ period: "2026-Q3", version: 1, data: {}, pdf: Buffer.from("%PDF") })
+    .returning()
+    .get();
+  db.insert(reportSends)
+    .values([
+      { reportId: report.id, recipients: ["a@example.org"], status: "sent", createdAt: "2026-10-02T09:00:00.000Z" },
+      {
+        reportId: report.id,
+        recipients: ["b@example.org"],
+        status: "failed",
+        error: "ECONNREFUSED: connection refused",
+        createdAt: "2026-10-03T09:00:00.000Z",
+      },
+    ])
+    .run();
+  db.insert(mailbox)
+    .values({ mailFrom: "quarterbeat@localhost", recipients: ["a@example.org"], subject: "Report", text: "", attachments: [], raw: Buffer.from("") })
+    .run();
   app = makeTestApp(db);
 });
 afterAll(() => db.$client.close());

@@ -25,14 +25,16 @@ describe("quarterbeat funnel", () => {
     expect(answer.phi).toBe(page.funnel.phi);
     expect(answer.overdispersed).toBe(true);
     expect(answer.instructors).toEqual(
-      page.instructors.map((row: { code: string; attempts: number; passRate: { successes: number }; expected: number; z: number | null; position: string }) => ({
-        instructor: row.code,
-        attempts: row.attempts,
-        passed: row.passRate.successes,
-        expected: row.expected,
-        z: row.z,
-        flag: row.position,
-      })),
+      page.instructors.map(
+        (row: { code: string; attempts: number; passRate: { successes: number }; expected: number; z: number | null; position: string }) => ({
+          instructor: row.code,
+          attempts: row.attempts,
+          passed: row.passRate.successes,
+          expected: row.expected,
+          z: row.z,
+          flag: row.position,
+        }),
+      ),
     );
     // A1: 6 passed of 10, 7 expected from 5 adult·live and 5 adult·hidden attempts (rates 0.85 and 0.55)
     expect(answer.instructors[0]).toMatchObject({ instructor: "A1", attempts: 10, passed: 6, flag: "inside" });

@@ -72,12 +72,30 @@ describe("quarterbeat import", () => {
     const unknownUser = cli(["--db", db, "import", "classes", csv, "--map", map, "--as", "nobody@example.org"]);
     expect(unknownUser.code).toBe(2);
     expect(unknownUser.stderr).toContain("No user with the e-mail nobody@example.org");
-    const added = spawnSync(process.execPath, ["--import", "tsx", path.join(root, "cli/main.ts"), "--db", db, "users", "add", "coord@example.org", "--name", "Coordinator", "--role", "coordinator", "--password-stdin"], {
-      cwd: root,
-      input: "a-long-enough-password\n",
-      encoding: "utf8",
-      env: { ...process.env, QUARTERBEAT_DB: "" },
-    });
+    const added = spawnSync(
+      process.execPath,
+      [
+        "--import",
+        "tsx",
+        path.join(root, "cli/main.ts"),
+        "--db",
+        db,
+        "users",
+        "add",
+        "coord@example.org",
+        "--name",
+        "Coordinator",
+        "--role",
+        "coordinator",
+        "--password-stdin",
+      ],
+      {
+        cwd: root,
+        input: "a-long-enough-password\n",
+        encoding: "utf8",
+        env: { ...process.env, QUARTERBEAT_DB: "" },
+      },
+    );
     expect(added.status).toBe(0);
     const res = cli(["--db", db, "import", "classes", csv, "--map", map, "--as", "coord@example.org", "--json"]);
     expect(res.code).toBe(0);
@@ -108,7 +126,17 @@ describe("quarterbeat analyze", () => {
     // S-002 (child band 45–55 mm, rate 100–120/min; AHA 2020 Part 4 via DEFAULT_POLICY): depths 40, 40, 40
     // → all too shallow; intervals 600 ms = 100/min exactly → on target; releases 2 mm ≤ 4 → full recoil.
     // Score = (0 + 100 + 100) / 3 = 66.666… at full precision.
-    expect(rows[1]).toMatchObject({ compressions: 3, duration_s: 1.2, rate_cpm: 100, depth_ok_pct: 0, too_shallow_pct: 100, rate_ok_pct: 100, recoil_ok_pct: 100, passed: false, errors: ["too_shallow"] });
+    expect(rows[1]).toMatchObject({
+      compressions: 3,
+      duration_s: 1.2,
+      rate_cpm: 100,
+      depth_ok_pct: 0,
+      too_shallow_pct: 100,
+      rate_ok_pct: 100,
+      recoil_ok_pct: 100,
+      passed: false,
+      errors: ["too_shallow"],
+    });
     expect(rows[1].score).toBe(200 / 3);
   });
 
@@ -136,7 +164,11 @@ describe("quarterbeat analyze", () => {
 describe("quarterbeat stats", () => {
   it("summarises a quarter of the fixture files, every number worked out by hand", SLOW, () => {
     const db = tempDbFile("qb-cli-stats");
-    for (const [kind, file] of [["classes", "classes-valid.csv"], ["attempts", "attempts-valid.csv"], ["compressions", "compressions-valid.csv"]]) {
+    for (const [kind, file] of [
+      ["classes", "classes-valid.csv"],
+      ["attempts", "attempts-valid.csv"],
+      ["compressions", "compressions-valid.csv"],
+    ]) {
       expect(cli(["--db", db, "import", kind, fixture(file)]).code).toBe(0);
     }
     const res = cli(["--db", db, "stats", "--quarter", "2026-Q3", "--json"]);
@@ -186,7 +218,8 @@ describe("quarterbeat stats", () => {
     // [[40, 9], [6, 45]] (instructor pass/fail × Quarterbeat pass/fail).
     const dir = fs.mkdtempSync(path.join(os.tmpdir(), "qb-cli-refs-"));
     fs.writeFileSync(path.join(dir, "classes.csv"), "class_id,date,site,instructor,course,learners,passed,manikins\nR-1,2025-05-10,NORTH,A1,adult,263,81,\n");
-    const header = "attempt_id,class_id,learner,manikin,profile,feedback,started_at,duration_s,compressions,rate_cpm,depth_mm,depth_ok_pct,too_shallow_pct,too_deep_pct,rate_ok_pct,too_slow_pct,too_fast_pct,recoil_ok_pct,hands_on_pct,longest_pause_s,instructor_result";
+    const header =
+      "attempt_id,class_id,learner,manikin,profile,feedback,started_at,duration_s,compressions,rate_cpm,depth_mm,depth_ok_pct,too_shallow_pct,too_deep_pct,rate_ok_pct,too_slow_pct,too_fast_pct,recoil_ok_pct,hands_on_pct,longest_pause_s,instructor_result";
     const good = "120,230,110,54,85,10,5,85,10,5,90,85,3"; // passes the default rule
     const poor = "120,230,110,44,40,55,5,85,10,5,90,85,3"; // depth on target 40 % < 70 % → fails
     const lines = [header];

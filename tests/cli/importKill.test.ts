@@ -19,12 +19,16 @@ describe("kill -9 in the middle of an import", () => {
     const db = tempDbFile("qb-cli-kill");
     const dir = fs.mkdtempSync(path.join(os.tmpdir(), "qb-cli-kill-"));
     const classes = path.join(root, "tests/fixtures/import/classes-valid.csv");
-    const cli = (args: string[]) => spawnSync("npx", ["tsx", "cli/main.ts", "--db", db, ...args], { cwd: root, encoding: "utf8", env: { ...process.env, QUARTERBEAT_DB: "" } });
+    const cli = (args: string[]) =>
+      spawnSync("npx", ["tsx", "cli/main.ts", "--db", db, ...args], { cwd: root, encoding: "utf8", env: { ...process.env, QUARTERBEAT_DB: "" } });
     expect(cli(["import", "classes", classes]).status).toBe(0);
 
     const big = path.join(dir, "attempts-big.csv");
     const fd = fs.openSync(big, "w");
-    fs.writeSync(fd, "attempt_id,class_id,learner,manikin,profile,feedback,started_at,duration_s,compressions,rate_cpm,depth_mm,depth_ok_pct,too_shallow_pct,too_deep_pct,rate_ok_pct,too_slow_pct,too_fast_pct,recoil_ok_pct,hands_on_pct,longest_pause_s,instructor_result\n");
+    fs.writeSync(
+      fd,
+      "attempt_id,class_id,learner,manikin,profile,feedback,started_at,duration_s,compressions,rate_cpm,depth_mm,depth_ok_pct,too_shallow_pct,too_deep_pct,rate_ok_pct,too_slow_pct,too_fast_pct,recoil_ok_pct,hands_on_pct,longest_pause_s,instructor_result\n",
+    );
     let chunk = "";
     for (let i = 0; i < ROWS; i++) {
       chunk += `K-${i},C-001,L-${i % 5000},MK-1,adult,live,2026-07-14T10:00:00Z,120,230,112,54,85,10,5,80,12,8,90,85,4,\n`;

@@ -12,7 +12,6 @@ import { tempDbFile } from "../helpers/testApp";
 // Each CLI run starts Node and tsx afresh: seconds each on a busy machine.
 const SLOW = { timeout: 180_000 };
 
-
 const siteCodes = (file: string) => {
   const conn = new Database(file, { readonly: true });
   try {

@@ -27,9 +27,7 @@ describe("quarterbeat system", () => {
     expect(system.migration.current).toBe(true);
     expect(system.growth).toEqual([]);
     expect(system.backups.dir).toBe(path.join(path.dirname(db), "backups"));
-    expect(system.backups.recent).toEqual([
-      expect.objectContaining({ file: copy, source: "cli", verified: true, sizeBytes: fs.statSync(copy).size }),
-    ]);
+    expect(system.backups.recent).toEqual([expect.objectContaining({ file: copy, source: "cli", verified: true, sizeBytes: fs.statSync(copy).size })]);
     expect(system.backups.lastVerified?.file).toBe(copy);
     expect(system.mail).toMatchObject({ delivery: "outbox", server: null, reportSends: { sent: 0, failed: 0 } });
   });

@@ -25,7 +25,9 @@ interface Point {
 function countByMonth(where: (row: { date: string; site: string; profile: string }) => boolean): Map<string, { n: number; passed: number }> {
   const sqlite = new Database(db, { readonly: true });
   const rows = sqlite
-    .prepare("SELECT c.date AS date, s.code AS site, a.profile AS profile, a.passed AS passed FROM attempts a JOIN classes c ON c.id = a.class_id JOIN sites s ON s.id = a.site_id")
+    .prepare(
+      "SELECT c.date AS date, s.code AS site, a.profile AS profile, a.passed AS passed FROM attempts a JOIN classes c ON c.id = a.class_id JOIN sites s ON s.id = a.site_id",
+    )
     .all() as { date: string; site: string; profile: string; passed: number }[];
   sqlite.close();
   const months = new Map<string, { n: number; passed: number }>();
@@ -65,7 +67,16 @@ describe("quarterbeat trend", () => {
     const res = cli(["--db", db, "trend", "--from", "2025-Q1", "--to", "2026-Q4", "--by", "month", "--json"]);
     expect(res.stderr).toBe("");
     expect(res.code).toBe(0);
-    const answer = JSON.parse(res.stdout) as { points: Point[]; median: number; useful: number; longest_run: number; longest_run_limit: number; crossings: number; crossings_limit: number; signal: boolean };
+    const answer = JSON.parse(res.stdout) as {
+      points: Point[];
+      median: number;
+      useful: number;
+      longest_run: number;
+      longest_run_limit: number;
+      crossings: number;
+      crossings_limit: number;
+      signal: boolean;
+    };
     const expected = countByMonth(() => true);
     expect(answer.points.map((p) => p.period)).toEqual([...expected.keys()].sort());
     expect(answer.points.length).toBe(23); // January 2025 to November 2026: the demo's "today" is 2026-12-01
@@ -95,7 +106,10 @@ describe("quarterbeat trend", () => {
     const baseline = answer.points.filter((p) => p.period <= "2025-12").map((p) => p.rate);
     expect(baseline.length).toBeGreaterThan(6);
     expect(answer.median).toBeCloseTo(medianOf(baseline), 12);
-    const runs = runsAround(answer.points.map((p) => p.rate), answer.median);
+    const runs = runsAround(
+      answer.points.map((p) => p.rate),
+      answer.median,
+    );
     expect(answer).toMatchObject({ useful: runs.useful, longest_run: runs.longest, crossings: runs.crossings });
   });
 

@@ -6,7 +6,10 @@ describe("quarterbeat users", () => {
   const db = tempDbFile("qb-cli-users");
 
   it("adds a user with the password from standard input, lists and deactivates it", () => {
-    const added = cli(["--db", db, "users", "add", "Lead@Example.org", "--name", "Quality Lead", "--role", "quality_lead", "--password-stdin"], "a-long-enough-password\n");
+    const added = cli(
+      ["--db", db, "users", "add", "Lead@Example.org", "--name", "Quality Lead", "--role", "quality_lead", "--password-stdin"],
+      "a-long-enough-password\n",
+    );
     expect(added.stderr).toBe("");
     expect(added.code).toBe(0);
     expect(added.stdout).toContain("lead@example.org");

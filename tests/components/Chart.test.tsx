@@ -57,7 +57,13 @@ describe("Chart", () => {
 
     const table = screen.getByRole("table");
     const bodyRows = within(table).getAllByRole("row").slice(1);
-    expect(bodyRows.map((row) => within(row).getAllByRole("cell").map((cell) => cell.textContent))).toEqual([
+    expect(
+      bodyRows.map((row) =>
+        within(row)
+          .getAllByRole("cell")
+          .map((cell) => cell.textContent),
+      ),
+    ).toEqual([
       ["2025-Q1", "0.58"],
       ["2025-Q2", "0.64"],
       ["2025-Q3", "0.71"],
@@ -71,7 +77,9 @@ describe("Chart", () => {
 });
 
 describe("chart marks that open the rows behind them", () => {
-  const linkedPlot = (rows: readonly QuarterShare[]) => ({ marks: [Plot.barY(rows as QuarterShare[], { x: "quarter", y: "share", href: (r: QuarterShare) => `/attempts?quarter=${r.quarter}` })] });
+  const linkedPlot = (rows: readonly QuarterShare[]) => ({
+    marks: [Plot.barY(rows as QuarterShare[], { x: "quarter", y: "share", href: (r: QuarterShare) => `/attempts?quarter=${r.quarter}` })],
+  });
 
   function Where() {
     const location = useLocation();
@@ -86,7 +94,14 @@ describe("chart marks that open the rows behind them", () => {
             path="*"
             element={
               <>
-                <Chart title="Linked bars" description="Each bar opens its quarter's attempts." data={data} columns={columns} rowKey={(r) => r.quarter} plot={linkedPlot} />
+                <Chart
+                  title="Linked bars"
+                  description="Each bar opens its quarter's attempts."
+                  data={data}
+                  columns={columns}
+                  rowKey={(r) => r.quarter}
+                  plot={linkedPlot}
+                />
                 <Where />
               </>
             }

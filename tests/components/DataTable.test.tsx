@@ -13,7 +13,7 @@ interface Row {
 
 const rows: Row[] = [
   { code: "SITE-10", name: "Harbour Hall", share: 0.62 },
-  { code: "SITE-2", name: "=HYPERLINK(\"http://x.example\")", share: null },
+  { code: "SITE-2", name: '=HYPERLINK("http://x.example")', share: null },
   { code: "SITE-1", name: "Millbrook Centre", share: 0.81 },
 ];
 
@@ -117,8 +117,18 @@ describe("the phone's sort choice", () => {
       { key: "n", header: "Learners", value: (r) => r.n, align: "right" },
     ];
     render(<PhoneSortSelect id="sort" columns={dated} sort={null} onChange={() => {}} rows={[{ date: "2026-07-14", site: "North", n: 8 }]} />);
-    const options = within(screen.getByLabelText("Sort by")).getAllByRole("option").map((o) => o.textContent);
-    expect(options).toEqual(["As listed", "Date, oldest first", "Date, newest first", "Site, A to Z", "Site, Z to A", "Learners, lowest first", "Learners, highest first"]);
+    const options = within(screen.getByLabelText("Sort by"))
+      .getAllByRole("option")
+      .map((o) => o.textContent);
+    expect(options).toEqual([
+      "As listed",
+      "Date, oldest first",
+      "Date, newest first",
+      "Site, A to Z",
+      "Site, Z to A",
+      "Learners, lowest first",
+      "Learners, highest first",
+    ]);
   });
   it("leaves a line that does not apply to a row out of its phone card, and keeps a missing value as a dash", () => {
     const events = [

@@ -9,9 +9,28 @@ vi.setConfig({ testTimeout: 20_000 });
 afterEach(cleanup);
 
 const filters: FilterDefinition[] = [
-  { key: "quarter", options: [{ value: "2025-Q1", label: "2025 Q1" }, { value: "2025-Q2", label: "2025 Q2" }], allLabel: null },
-  { key: "site", options: [{ value: "NORTH-1", label: "Northfield" }, { value: "RIVER-2", label: "Riverside" }] },
-  { key: "patientType", options: [{ value: "adult", label: "Adult" }, { value: "infant", label: "Infant" }] },
+  {
+    key: "quarter",
+    options: [
+      { value: "2025-Q1", label: "2025 Q1" },
+      { value: "2025-Q2", label: "2025 Q2" },
+    ],
+    allLabel: null,
+  },
+  {
+    key: "site",
+    options: [
+      { value: "NORTH-1", label: "Northfield" },
+      { value: "RIVER-2", label: "Riverside" },
+    ],
+  },
+  {
+    key: "patientType",
+    options: [
+      { value: "adult", label: "Adult" },
+      { value: "infant", label: "Infant" },
+    ],
+  },
   feedbackFilter,
 ];
 
@@ -20,7 +39,20 @@ function Values() {
 }
 
 function renderAt(url: string) {
-  const router = createMemoryRouter([{ path: "/overview", element: (<><FilterBar filters={filters} /><Values /></>) }], { initialEntries: [url] });
+  const router = createMemoryRouter(
+    [
+      {
+        path: "/overview",
+        element: (
+          <>
+            <FilterBar filters={filters} />
+            <Values />
+          </>
+        ),
+      },
+    ],
+    { initialEntries: [url] },
+  );
   render(<RouterProvider router={router} />);
   return router;
 }

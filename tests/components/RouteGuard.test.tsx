@@ -18,7 +18,14 @@ function TestReportPage() {
 }
 
 const testRoutes: AppRoute[] = [
-  { path: "report", title: "Quarterly report", group: "quality", permission: "readReport", page: lazy(async () => ({ default: TestReportPage })), landing: true },
+  {
+    path: "report",
+    title: "Quarterly report",
+    group: "quality",
+    permission: "readReport",
+    page: lazy(async () => ({ default: TestReportPage })),
+    landing: true,
+  },
   { path: "account", title: "My account", group: "you", page: lazy(async () => ({ default: () => <h1>Account page</h1> })), landing: true },
 ];
 
@@ -46,10 +53,21 @@ describe("route guard", () => {
     renderApp("/account", [
       ...testRoutes,
       { path: "admin/users", title: "Users", group: "admin", permission: "manageUsers", page: lazy(async () => ({ default: () => <h1>Users</h1> })) },
-      { path: "report/:id", title: "One report", group: "quality", permission: "readReport", nav: false, page: lazy(async () => ({ default: () => <h1>One</h1> })) },
+      {
+        path: "report/:id",
+        title: "One report",
+        group: "quality",
+        permission: "readReport",
+        nav: false,
+        page: lazy(async () => ({ default: () => <h1>One</h1> })),
+      },
     ]);
     const nav = await screen.findByRole("navigation", { name: "Main" });
-    expect(within(nav).getAllByRole("link").map((link) => link.textContent)).toEqual(["Quarterly report", "My account"]);
+    expect(
+      within(nav)
+        .getAllByRole("link")
+        .map((link) => link.textContent),
+    ).toEqual(["Quarterly report", "My account"]);
     expect(within(nav).getByRole("heading", { name: "Quality" })).toBeTruthy();
     expect(within(nav).queryByRole("heading", { name: "Administration" })).toBeNull();
   });

@@ -73,7 +73,10 @@ describe("user forms", () => {
   it("shows the server's field message beside the field", async () => {
     fakeServer({
       "GET /api/instructors": instructors,
-      "POST /api/users": { status: 409, body: { error: { code: "conflict", message: "That e-mail is already in use.", details: [{ path: "email", message: "Already in use" }] } } },
+      "POST /api/users": {
+        status: 409,
+        body: { error: { code: "conflict", message: "That e-mail is already in use.", details: [{ path: "email", message: "Already in use" }] } },
+      },
     });
     renderWithClient(<AddUserForm onDone={() => {}} onCancel={() => {}} />);
     fireEvent.change(screen.getByLabelText("E-mail address"), { target: { value: "sam@example.org" } });

@@ -159,7 +159,11 @@ describe("the action page", () => {
       crossingsLimit: 1,
       signal: true,
     };
-    fakeServer({ "GET /api/me": sessionFor("quality_lead"), "GET /api/actions/3": { status: 200, body: detail }, "GET /api/actions/3/monthly": { status: 200, body: { chart } } });
+    fakeServer({
+      "GET /api/me": sessionFor("quality_lead"),
+      "GET /api/actions/3": { status: 200, body: detail },
+      "GET /api/actions/3/monthly": { status: 200, body: { chart } },
+    });
     renderApp("/actions/3");
     const signal = await screen.findByTestId("monthly-signal");
     expect(signal.textContent).toBe(
@@ -169,7 +173,11 @@ describe("the action page", () => {
   });
 
   it("tells an instructor why the months of another scope are not shown", async () => {
-    fakeServer({ "GET /api/me": sessionFor("instructor"), "GET /api/actions/3": { status: 200, body: detail }, "GET /api/actions/3/monthly": { status: 200, body: { chart: null } } });
+    fakeServer({
+      "GET /api/me": sessionFor("instructor"),
+      "GET /api/actions/3": { status: 200, body: detail },
+      "GET /api/actions/3/monthly": { status: 200, body: { chart: null } },
+    });
     renderApp("/actions/3");
     expect(await screen.findByText(/the monthly chart is shown for your own actions only/)).toBeTruthy();
   });
@@ -187,7 +195,18 @@ describe("action marks on trend charts", () => {
 
   it("names each action starting in the chart's quarters in the pass-rate chart's description", async () => {
     const { PassRateControlChart } = await import("../../src/features/insight/charts/PassRateControlChart");
-    const point = (quarter: string, passed: number) => ({ quarter, attempts: 20, passed, rate: passed / 20, low: 0.2, high: 0.8, lcl: 0.1, ucl: 0.9, outside: false, suppressed: false });
+    const point = (quarter: string, passed: number) => ({
+      quarter,
+      attempts: 20,
+      passed,
+      rate: passed / 20,
+      low: 0.2,
+      high: 0.8,
+      lcl: 0.1,
+      ucl: 0.9,
+      outside: false,
+      suppressed: false,
+    });
     const series = {
       centre: 0.5,
       baseline: { from: "2025-Q4", to: "2026-Q2", source: "default" as const, attempts: 60 },
@@ -197,7 +216,9 @@ describe("action marks on trend charts", () => {
       runChart: null,
       split: null,
     };
-    render(<PassRateControlChart series={series} minCount={5} actions={[...marks, { id: 4, title: "Too early", startDate: "2024-01-10", quarter: "2024-Q1" }]} />);
+    render(
+      <PassRateControlChart series={series} minCount={5} actions={[...marks, { id: 4, title: "Too early", startDate: "2024-01-10", quarter: "2024-Q1" }]} />,
+    );
     const text = document.body.textContent ?? "";
     expect(text).toContain(`Improvement actions marked: A1 Infant depth refresher (from ${formatDay("2026-02-15")}, 2026 Q1).`);
     // an action outside the chart's quarters has no place on its axis
@@ -206,7 +227,18 @@ describe("action marks on trend charts", () => {
 
   it("steps the pass-rate chart's centre line at a split and says where the new phase's centre comes from", async () => {
     const { PassRateControlChart } = await import("../../src/features/insight/charts/PassRateControlChart");
-    const point = (quarter: string, passed: number) => ({ quarter, attempts: 20, passed, rate: passed / 20, low: 0.2, high: 0.8, lcl: 0.1, ucl: 0.9, outside: false, suppressed: false });
+    const point = (quarter: string, passed: number) => ({
+      quarter,
+      attempts: 20,
+      passed,
+      rate: passed / 20,
+      low: 0.2,
+      high: 0.8,
+      lcl: 0.1,
+      ucl: 0.9,
+      outside: false,
+      suppressed: false,
+    });
     const series = {
       centre: 0.4,
       baseline: { from: "2025-Q1", to: "2025-Q4", source: "default" as const, attempts: 80 },

@@ -44,7 +44,16 @@ describe("alerts after each import on my account", () => {
   });
 
   it("shows the server's refusal and no success", async () => {
-    const refused: FakeAnswer = { status: 422, body: { error: { code: "validation_failed", message: "The alert choice is not valid.", details: [{ path: "kinds.0", message: "Choose from funnel, shift, service, drift, noData" }] } } };
+    const refused: FakeAnswer = {
+      status: 422,
+      body: {
+        error: {
+          code: "validation_failed",
+          message: "The alert choice is not valid.",
+          details: [{ path: "kinds.0", message: "Choose from funnel, shift, service, drift, noData" }],
+        },
+      },
+    };
     fakeServer({
       "GET /api/me": sessionFor("coordinator"),
       "GET /api/data-version": version,
@@ -79,7 +88,11 @@ const delivery = {
 
 describe("the Alerts page", () => {
   it("lists the reader's alerts with a link to the page behind each", async () => {
-    fakeServer({ "GET /api/me": sessionFor("instructor"), "GET /api/data-version": version, "GET /api/alerts": { status: 200, body: { deliveries: [delivery] } } });
+    fakeServer({
+      "GET /api/me": sessionFor("instructor"),
+      "GET /api/data-version": version,
+      "GET /api/alerts": { status: 200, body: { deliveries: [delivery] } },
+    });
     renderApp("/alerts");
     // the table and, for phones, its cards
     const links = await screen.findAllByRole("link", { name: "Manikin MK-7" });

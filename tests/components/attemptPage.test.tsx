@@ -35,24 +35,54 @@ const stream = {
 };
 
 const detailBody = (overrides: { placement?: AttemptDetailAnswer["placement"]; stream?: typeof stream | null } = {}): AttemptDetailAnswer => ({
-    attempt: {
-      id: "AT-9", classId: "CL-0276", learner: "L-5WVLM", startedAt: "2026-10-17T09:09:00Z", quarter: "2026-Q4", profile: "adult", feedback: "live",
-      site: { id: 1, code: "WRM" }, instructor: { id: 3, code: "IN03" }, manikin: null,
-      metrics: {
-        durationS: 120, compressions: 230, rateCpm: 119.4, depthMm: 52, depthOkPct: 69.6, tooShallowPct: 26.1, tooDeepPct: 4.3,
-        rateOkPct: 56, tooSlowPct: 2, tooFastPct: 42, recoilOkPct: 70, handsOnPct: 78, longestPauseS: 10.4, pauses: 2, pausesOver10s: 1,
-      },
-      score: 65.2, passed: false, instructorResult: "pass", errors: ["too_shallow", "too_fast", "long_pause"], policyVersion: 1, source: "stream", hasStream: true,
+  attempt: {
+    id: "AT-9",
+    classId: "CL-0276",
+    learner: "L-5WVLM",
+    startedAt: "2026-10-17T09:09:00Z",
+    quarter: "2026-Q4",
+    profile: "adult",
+    feedback: "live",
+    site: { id: 1, code: "WRM" },
+    instructor: { id: 3, code: "IN03" },
+    manikin: null,
+    metrics: {
+      durationS: 120,
+      compressions: 230,
+      rateCpm: 119.4,
+      depthMm: 52,
+      depthOkPct: 69.6,
+      tooShallowPct: 26.1,
+      tooDeepPct: 4.3,
+      rateOkPct: 56,
+      tooSlowPct: 2,
+      tooFastPct: 42,
+      recoilOkPct: 70,
+      handsOnPct: 78,
+      longestPauseS: 10.4,
+      pauses: 2,
+      pausesOver10s: 1,
     },
-    scoring: { passRule: DEFAULT_POLICY.passRule, band: adult, pauseThresholdS: 2, longPauseLimitS: 10 },
-    placement: overrides.placement ?? {
-      quarter: "2026-Q4", profile: "adult", attempts: 236, hidden: false,
-      percentiles: { score: 23.4, depthOkPct: 31.25, rateOkPct: 12, recoilOkPct: 40.5, handsOnPct: 61 },
-    },
-    errorLabels: [],
-    scoreHistory: [],
-    stream: overrides.stream === undefined ? stream : overrides.stream,
-  });
+    score: 65.2,
+    passed: false,
+    instructorResult: "pass",
+    errors: ["too_shallow", "too_fast", "long_pause"],
+    policyVersion: 1,
+    source: "stream",
+    hasStream: true,
+  },
+  scoring: { passRule: DEFAULT_POLICY.passRule, band: adult, pauseThresholdS: 2, longPauseLimitS: 10 },
+  placement: overrides.placement ?? {
+    quarter: "2026-Q4",
+    profile: "adult",
+    attempts: 236,
+    hidden: false,
+    percentiles: { score: 23.4, depthOkPct: 31.25, rateOkPct: 12, recoilOkPct: 40.5, handsOnPct: 61 },
+  },
+  errorLabels: [],
+  scoreHistory: [],
+  stream: overrides.stream === undefined ? stream : overrides.stream,
+});
 
 function open(body = detailBody(), role: "quality_lead" | "instructor" | "coordinator" = "quality_lead") {
   fakeServer({ "GET /api/me": sessionFor(role), "GET /api/attempts/AT-9": answer(attemptDetailAnswerSchema, body) });
@@ -122,7 +152,13 @@ describe("the attempt among the network", () => {
   });
 
   it("says why the placement is not shown when the group is hidden from an instructor", async () => {
-    const hidden: AttemptDetailAnswer["placement"] = { quarter: "2026-Q4", profile: "adult", attempts: null, hidden: true, percentiles: { score: null, depthOkPct: null, rateOkPct: null, recoilOkPct: null, handsOnPct: null } };
+    const hidden: AttemptDetailAnswer["placement"] = {
+      quarter: "2026-Q4",
+      profile: "adult",
+      attempts: null,
+      hidden: true,
+      percentiles: { score: null, depthOkPct: null, rateOkPct: null, recoilOkPct: null, handsOnPct: null },
+    };
     open(detailBody({ placement: hidden }), "instructor");
     const section = (await screen.findByRole("heading", { name: "Among the network", level: 2 })).closest("section")!;
     expect(section.textContent).toContain("are not shown");
@@ -174,7 +210,12 @@ describe("compression distribution and time in the band", () => {
   const series = compressionSeries(stream, adult, 2, 10);
 
   it("bins depths with edges on the band's limits", () => {
-    const bins = distribution(series.points.map((p) => ({ value: p.depthMm, cls: p.depthClass === "too_shallow" ? "low" : p.depthClass === "too_deep" ? "high" : "on" })), 1, 0, Infinity);
+    const bins = distribution(
+      series.points.map((p) => ({ value: p.depthMm, cls: p.depthClass === "too_shallow" ? "low" : p.depthClass === "too_deep" ? "high" : "on" })),
+      1,
+      0,
+      Infinity,
+    );
     expect(bins[0]).toMatchObject({ from: 47, to: 48, low: 1 });
     // 60 mm is on target (limits on target) and 61 mm too deep: each in its own bin
     expect(bins.find((b) => b.from === 60)).toMatchObject({ on: 1, high: 0 });

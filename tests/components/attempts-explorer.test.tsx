@@ -4,7 +4,15 @@
 // link and class link.
 import { cleanup, configure, fireEvent, screen, waitFor, within } from "@testing-library/react";
 import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
-import { attemptDetailAnswerSchema, attemptListAnswerSchema, optionsAnswerSchema, type AttemptDetailAnswer, type AttemptListAnswer, type AttemptRow, type OptionsAnswer } from "../../shared/schemas/insight";
+import {
+  attemptDetailAnswerSchema,
+  attemptListAnswerSchema,
+  optionsAnswerSchema,
+  type AttemptDetailAnswer,
+  type AttemptListAnswer,
+  type AttemptRow,
+  type OptionsAnswer,
+} from "../../shared/schemas/insight";
 import { renderApp } from "./renderApp";
 import { answer, fakeServer, sessionFor, type FakeAnswer, type FakeRoutes } from "./testServer";
 
@@ -38,17 +46,46 @@ const options: OptionsAnswer = {
 };
 
 const row = (id: string, learner: string, score: number, errors: AttemptRow["errors"]): AttemptRow => ({
-  id, classId: "CL-0276", learner, startedAt: "2026-10-17T09:09:00Z", quarter: "2026-Q4", profile: "adult", feedback: "live",
-  site: { id: 1, code: "WRM" }, instructor: { id: 3, code: "IN03" }, manikin: null,
+  id,
+  classId: "CL-0276",
+  learner,
+  startedAt: "2026-10-17T09:09:00Z",
+  quarter: "2026-Q4",
+  profile: "adult",
+  feedback: "live",
+  site: { id: 1, code: "WRM" },
+  instructor: { id: 3, code: "IN03" },
+  manikin: null,
   metrics: {
-    durationS: 120, compressions: 220, rateCpm: 112, depthMm: 52, depthOkPct: 81.4, tooShallowPct: 18.6, tooDeepPct: 0, rateOkPct: 90, tooSlowPct: 5,
-    tooFastPct: 5, recoilOkPct: 100, handsOnPct: 95, longestPauseS: 3, pauses: 1, pausesOver10s: 0,
+    durationS: 120,
+    compressions: 220,
+    rateCpm: 112,
+    depthMm: 52,
+    depthOkPct: 81.4,
+    tooShallowPct: 18.6,
+    tooDeepPct: 0,
+    rateOkPct: 90,
+    tooSlowPct: 5,
+    tooFastPct: 5,
+    recoilOkPct: 100,
+    handsOnPct: 95,
+    longestPauseS: 3,
+    pauses: 1,
+    pausesOver10s: 0,
   },
-  score, passed: errors.length === 0, instructorResult: null, errors, policyVersion: 1, source: "summary", hasStream: false,
+  score,
+  passed: errors.length === 0,
+  instructorResult: null,
+  errors,
+  policyVersion: 1,
+  source: "summary",
+  hasStream: false,
 });
 
 const listAnswer: AttemptListAnswer = {
-  page: 2, pageSize: 50, total: 120,
+  page: 2,
+  pageSize: 50,
+  total: 120,
   attempts: [row("AT-1", "L-TBMZV", 91, []), row("AT-2", "L-5WVLM", 70.6, ["too_shallow", "long_pause"])],
 };
 
@@ -68,7 +105,10 @@ function lastListQuery(requests: { path: string }[]): URLSearchParams {
   return new URLSearchParams(paths.at(-1)!.split("?")[1]);
 }
 
-const headers = (table: HTMLElement) => within(table).getAllByRole("columnheader").map((th) => th.textContent);
+const headers = (table: HTMLElement) =>
+  within(table)
+    .getAllByRole("columnheader")
+    .map((th) => th.textContent);
 
 describe("attempt list state in the URL", () => {
   it("asks the server for the filters, search, order and page in the address", async () => {
@@ -77,8 +117,16 @@ describe("attempt list state in the URL", () => {
     const table = await screen.findByRole("table", { name: "Attempts" });
     const query = lastListQuery(requests);
     expect(Object.fromEntries(query)).toEqual({
-      quarter: "2026-Q4", error: "too_shallow", stream: "no", class: "CL-0276", learner: "L-5", learnerMatch: "prefix",
-      sort: "score", dir: "desc", page: "2", pageSize: "50",
+      quarter: "2026-Q4",
+      error: "too_shallow",
+      stream: "no",
+      class: "CL-0276",
+      learner: "L-5",
+      learnerMatch: "prefix",
+      sort: "score",
+      dir: "desc",
+      page: "2",
+      pageSize: "50",
     });
     expect(screen.getByText("Attempts 51–100 of 120, sorted by score, highest first")).toBeTruthy();
     expect(within(table).getByRole("columnheader", { name: "Score" }).getAttribute("aria-sort")).toBe("descending");
@@ -131,8 +179,14 @@ describe("attempt list state in the URL", () => {
     const csv = screen.getByRole("link", { name: /Export CSV of all 120 attempts/ });
     expect(csv.getAttribute("href")).toBe("/api/attempts.csv?quarter=2026-Q4&error=too_shallow&sort=score&dir=asc");
     // the errors in short words, their full labels on hover; the first column is the attempt, a row header
-    expect(within(table).getByText("Too shallow, Long interruption").getAttribute("title")).toBe("Compressions mostly not deep enough; An interruption longer than allowed");
-    expect(within(table).getAllByRole("rowheader").map((th) => th.textContent)).toEqual(["AT-1", "AT-2"]);
+    expect(within(table).getByText("Too shallow, Long interruption").getAttribute("title")).toBe(
+      "Compressions mostly not deep enough; An interruption longer than allowed",
+    );
+    expect(
+      within(table)
+        .getAllByRole("rowheader")
+        .map((th) => th.textContent),
+    ).toEqual(["AT-1", "AT-2"]);
   });
 });
 
@@ -177,7 +231,13 @@ describe("instructors", () => {
 const detail: AttemptDetailAnswer = {
   attempt: row("AT-2", "L-5WVLM", 70.6, ["too_shallow"]),
   scoring: null,
-  placement: { quarter: "2026-Q4", profile: "adult", attempts: null, hidden: true, percentiles: { score: null, depthOkPct: null, rateOkPct: null, recoilOkPct: null, handsOnPct: null } },
+  placement: {
+    quarter: "2026-Q4",
+    profile: "adult",
+    attempts: null,
+    hidden: true,
+    percentiles: { score: null, depthOkPct: null, rateOkPct: null, recoilOkPct: null, handsOnPct: null },
+  },
   errorLabels: [],
   scoreHistory: [],
   stream: null,

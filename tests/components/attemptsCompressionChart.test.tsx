@@ -25,11 +25,17 @@ function tableOf(chartTitle: string) {
   const figure = screen.getByRole("heading", { name: chartTitle }).closest("figure")!;
   fireEvent.click(within(figure).getByRole("button", { name: "Show as table" }));
   const table = within(figure).getByRole("table");
-  const header = within(table).getAllByRole("columnheader").map((cell) => cell.textContent?.trim());
+  const header = within(table)
+    .getAllByRole("columnheader")
+    .map((cell) => cell.textContent?.trim());
   const rows = within(table)
     .getAllByRole("row")
     .slice(1)
-    .map((row) => within(row).getAllByRole("cell").map((cell) => cell.textContent?.trim() ?? ""));
+    .map((row) =>
+      within(row)
+        .getAllByRole("cell")
+        .map((cell) => cell.textContent?.trim() ?? ""),
+    );
   return { header, rows };
 }
 
@@ -85,7 +91,15 @@ describe("compression charts, table view", { timeout: 30_000 }, () => {
     renderCharts();
     const { rows } = tableOf("Recoil after each compression");
     expect(rows.map((r) => r[3])).toEqual(["Full", "Full", "Incomplete", "Full", "Full", "Full", "Full"]);
-    const pauses = within(screen.getByRole("table", { name: "Pauses" })).getAllByRole("row").slice(1);
-    expect(pauses.map((row) => within(row).getAllByRole("cell").map((c) => c.textContent))).toEqual([["1.65", "4.65", "3", "5", "No"]]);
+    const pauses = within(screen.getByRole("table", { name: "Pauses" }))
+      .getAllByRole("row")
+      .slice(1);
+    expect(
+      pauses.map((row) =>
+        within(row)
+          .getAllByRole("cell")
+          .map((c) => c.textContent),
+      ),
+    ).toEqual([["1.65", "4.65", "3", "5", "No"]]);
   });
 });

@@ -45,9 +45,17 @@ async function failureOf(queryClient: QueryClient, options: Parameters<QueryClie
 
 describe("answers are checked against their shared schemas", () => {
   const checked = [
-    { name: "error analysis", options: techniqueErrorQueries.analysis({ quarter: "2026-Q3", error: "too_shallow" }), path: "/api/insight/errors?quarter=2026-Q3&error=too_shallow" },
+    {
+      name: "error analysis",
+      options: techniqueErrorQueries.analysis({ quarter: "2026-Q3", error: "too_shallow" }),
+      path: "/api/insight/errors?quarter=2026-Q3&error=too_shallow",
+    },
     { name: "equipment", options: equipmentQueries.report({ from: "2025-Q4", to: "2026-Q3" }), path: "/api/equipment?from=2025-Q4&to=2026-Q3" },
-    { name: "attempt list", options: attemptQueries.list({ quarter: "2026-Q3", page: 2, pageSize: 50 }), path: "/api/attempts?quarter=2026-Q3&page=2&pageSize=50" },
+    {
+      name: "attempt list",
+      options: attemptQueries.list({ quarter: "2026-Q3", page: 2, pageSize: 50 }),
+      path: "/api/attempts?quarter=2026-Q3&page=2&pageSize=50",
+    },
     { name: "attempt", options: attemptQueries.detail("A 1"), path: "/api/attempts/A%201" },
     { name: "policy settings", options: settingsQueries.policy(), path: "/api/settings/policy" },
     { name: "policy versions", options: settingsQueries.versions(), path: "/api/settings/policy/versions" },
@@ -85,7 +93,16 @@ describe("query keys", () => {
     { family: authQueries.all(), keys: [authQueries.me().queryKey] },
     { family: equipmentQueries.all(), keys: [equipmentQueries.report({}).queryKey] },
     { family: techniqueErrorQueries.all(), keys: [techniqueErrorQueries.analysis({}).queryKey] },
-    { family: importQueries.all(), keys: [importQueries.formats().queryKey, importQueries.presets("classes").queryKey, importQueries.history().queryKey, importQueries.batch(1).queryKey, importQueries.job("j").queryKey] },
+    {
+      family: importQueries.all(),
+      keys: [
+        importQueries.formats().queryKey,
+        importQueries.presets("classes").queryKey,
+        importQueries.history().queryKey,
+        importQueries.batch(1).queryKey,
+        importQueries.job("j").queryKey,
+      ],
+    },
     {
       family: insightQueries.all(),
       keys: [
@@ -102,7 +119,14 @@ describe("query keys", () => {
     { family: outboxQueries.all(), keys: [outboxQueries.list().queryKey] },
     {
       family: reportQueries.all(),
-      keys: [reportQueries.preview("2026-Q3").queryKey, reportQueries.versions("2026").queryKey, reportQueries.versionData(1).queryKey, reportQueries.notes("2026-Q3").queryKey, reportQueries.sends().queryKey, reportQueries.funders().queryKey],
+      keys: [
+        reportQueries.preview("2026-Q3").queryKey,
+        reportQueries.versions("2026").queryKey,
+        reportQueries.versionData(1).queryKey,
+        reportQueries.notes("2026-Q3").queryKey,
+        reportQueries.sends().queryKey,
+        reportQueries.funders().queryKey,
+      ],
     },
     { family: settingsQueries.all(), keys: [settingsQueries.policy().queryKey, settingsQueries.versions().queryKey] },
     { family: siteQueries.all(), keys: [siteQueries.list().queryKey] },
@@ -122,7 +146,20 @@ describe("query keys", () => {
   });
 
   it("invalidates the families whose answers a write of figures changes", () => {
-    expect(figureQueryFamilies.map((key) => key[0])).toEqual(["insight", "errors", "attempts", "equipment", "report", "learners", "imports", "instructors", "system", "actions", "tracker", "alerts"]);
+    expect(figureQueryFamilies.map((key) => key[0])).toEqual([
+      "insight",
+      "errors",
+      "attempts",
+      "equipment",
+      "report",
+      "learners",
+      "imports",
+      "instructors",
+      "system",
+      "actions",
+      "tracker",
+      "alerts",
+    ]);
   });
 });
 
@@ -150,7 +187,12 @@ describe("one filter module for single quarters and ranges", () => {
 
   // Quarters arrive newest first: "last 4" runs from the fourth newest to the newest, "all" from the oldest.
   it("turns the ranges into from/to on pages that offer them", () => {
-    expect(state("quarter=last-4", true)).toMatchObject({ period: "last-4", quarter: "2026-Q3", unknownQuarter: null, api: { from: "2025-Q4", to: "2026-Q3" } });
+    expect(state("quarter=last-4", true)).toMatchObject({
+      period: "last-4",
+      quarter: "2026-Q3",
+      unknownQuarter: null,
+      api: { from: "2025-Q4", to: "2026-Q3" },
+    });
     expect(state("quarter=all", true).api).toEqual({ from: "2025-Q3", to: "2026-Q3" });
     expect(state("", true).definitions[0].options.map((o) => o.value)).toEqual([...options.quarters, "last-4", "all"]);
   });
@@ -186,7 +228,9 @@ describe("one filter module for single quarters and ranges", () => {
       };
     const latest = renderHook(() => ({ filters: useInsightFilters(["site"], { ranges: true }), location: useLocation() }), { wrapper: at("/errors?site=WRM") });
     await waitFor(() => expect(latest.result.current.location.search).toBe("?site=WRM&quarter=2026-Q3"));
-    const range = renderHook(() => ({ filters: useInsightFilters(["site"], { ranges: true }), location: useLocation() }), { wrapper: at("/errors?quarter=all") });
+    const range = renderHook(() => ({ filters: useInsightFilters(["site"], { ranges: true }), location: useLocation() }), {
+      wrapper: at("/errors?quarter=all"),
+    });
     await waitFor(() => expect(range.result.current.filters.state?.api).toEqual({ from: "2025-Q3", to: "2026-Q3" }));
     expect(range.result.current.location.search).toBe("?quarter=all");
   });

@@ -11,7 +11,15 @@ const item = (fromClassLogs: number, fromEvents: number, learners: number) => ({
   total: fromClassLogs,
   per100Learners: learners ? (100 * fromClassLogs) / learners : null,
 });
-const row = (site: string, id: number, quarter: string, learners: number, lungs: [number, number], mouthpieces: [number, number], batteries: [number, number]) => ({
+const row = (
+  site: string,
+  id: number,
+  quarter: string,
+  learners: number,
+  lungs: [number, number],
+  mouthpieces: [number, number],
+  batteries: [number, number],
+) => ({
   site: { id, code: site },
   quarter,
   learners,
@@ -46,7 +54,11 @@ describe("consumables per 100 learners", { timeout: 30_000 }, () => {
     const cells = within(within(figure).getByRole("table"))
       .getAllByRole("row")
       .slice(1)
-      .map((r) => within(r).getAllByRole("cell").map((c) => c.textContent));
+      .map((r) =>
+        within(r)
+          .getAllByRole("cell")
+          .map((c) => c.textContent),
+      );
     expect(cells).toEqual([
       ["NTH", "100", "3", "3"],
       ["RIV", "30", "2", "6.7"],

@@ -9,15 +9,54 @@ import { DriftView } from "../../src/features/equipment/DriftSection";
 afterEach(cleanup);
 
 const period = { from: "2026-Q1", to: "2026-Q4", quarters: ["2026-Q1", "2026-Q2", "2026-Q3", "2026-Q4"] };
-const differences = [4.5, 3.5, 4.25, 3.75, 4].map((difference_mm, i) => ({ classId: `CL-${i + 1}`, date: `2026-0${i + 1}-10`, difference_mm, attempts: 3, peer_attempts: 6 }));
+const differences = [4.5, 3.5, 4.25, 3.75, 4].map((difference_mm, i) => ({
+  classId: `CL-${i + 1}`,
+  date: `2026-0${i + 1}-10`,
+  difference_mm,
+  attempts: 3,
+  peer_attempts: 6,
+}));
 
 const answer: DriftAnswer = {
   period,
   rule: { minClasses: 5, minOffsetMm: 3 },
   manikins: [
-    { manikin: "NTH-A01", site: "NTH", profile: "adult", classes: 5, offset_mm: -0.4, se_mm: 0.3, ci95: [-0.99, 0.19], flag: "ok", flagged_in_round: null, differences: [] },
-    { manikin: "NTH-A02", site: "NTH", profile: "adult", classes: 5, offset_mm: 4, se_mm: 0.1768, ci95: [3.65, 4.35], flag: "check", flagged_in_round: 1, differences },
-    { manikin: "NTH-I01", site: "NTH", profile: "infant", classes: 2, offset_mm: 1, se_mm: 0.5, ci95: [0.02, 1.98], flag: "too few classes", flagged_in_round: null, differences: [] },
+    {
+      manikin: "NTH-A01",
+      site: "NTH",
+      profile: "adult",
+      classes: 5,
+      offset_mm: -0.4,
+      se_mm: 0.3,
+      ci95: [-0.99, 0.19],
+      flag: "ok",
+      flagged_in_round: null,
+      differences: [],
+    },
+    {
+      manikin: "NTH-A02",
+      site: "NTH",
+      profile: "adult",
+      classes: 5,
+      offset_mm: 4,
+      se_mm: 0.1768,
+      ci95: [3.65, 4.35],
+      flag: "check",
+      flagged_in_round: 1,
+      differences,
+    },
+    {
+      manikin: "NTH-I01",
+      site: "NTH",
+      profile: "infant",
+      classes: 2,
+      offset_mm: 1,
+      se_mm: 0.5,
+      ci95: [0.02, 1.98],
+      flag: "too few classes",
+      flagged_in_round: null,
+      differences: [],
+    },
   ],
 };
 
@@ -52,7 +91,14 @@ describe("DriftView", { timeout: 30_000 }, () => {
   it("lists every manikin with its judgement, flagged first", () => {
     renderView(answer);
     const table = screen.getByRole("table", { name: /Manikins against their peers/ });
-    const rows = within(table).getAllByRole("row").slice(1).map((r) => within(r).getAllByRole("cell").map((c) => c.textContent));
+    const rows = within(table)
+      .getAllByRole("row")
+      .slice(1)
+      .map((r) =>
+        within(r)
+          .getAllByRole("cell")
+          .map((c) => c.textContent),
+      );
     expect(rows.map((r) => [r[0], r[4], r[6]])).toEqual([
       ["NTH-A02", "+4.0 mm", "Check the depth sensor"],
       ["NTH-A01", "−0.4 mm", "In line with its peers"],

@@ -87,7 +87,15 @@ describe("writes made on this page", () => {
   });
 
   it("creating a report version invalidates the report answers only", async () => {
-    const version = { id: 4, period: "2026-Q3", version: 1, createdAt: "2026-10-02T09:00:00.000Z", createdBy: "Robin Example", pdfBytes: 20_480, lastSend: null };
+    const version = {
+      id: 4,
+      period: "2026-Q3",
+      version: 1,
+      createdAt: "2026-10-02T09:00:00.000Z",
+      createdBy: "Robin Example",
+      pdfBytes: 20_480,
+      lastSend: null,
+    };
     fakeServer({ "POST /api/reports/2026-Q3": { status: 201, body: { report: version } } });
     const queryClient = createQueryClient();
     seedAnswers(queryClient);
@@ -113,7 +121,10 @@ describe("the imports page", () => {
       [historyPath]: { status: 200, body: { batches: [batch], total: 1 } },
       "GET /api/imports/formats": { status: 200, body: { formats: { attempts: [] } } },
       "GET /api/data-version": { status: 200, body: { version: "run:1:0" } },
-      "POST /api/imports/batches/3/undo": { status: 200, body: { batch: { ...batch, status: "undone", undoneAt: "2026-10-02T09:00:00.000Z" }, deleted: 12, restored: 0 } },
+      "POST /api/imports/batches/3/undo": {
+        status: 200,
+        body: { batch: { ...batch, status: "undone", undoneAt: "2026-10-02T09:00:00.000Z" }, deleted: 12, restored: 0 },
+      },
     });
     const { queryClient } = renderApp("/imports");
     const overviewKey = [...insightQueries.all(), "overview", { quarter: "2026-Q3" }];
@@ -132,7 +143,15 @@ describe("the imports page", () => {
     // Uploads go through XMLHttpRequest (for progress); this stand-in answers with the scripted upload.
     const header = importColumns.classes.map((column) => column.name);
     const upload: Upload = { id: "u1", fileName: "classes.csv", kind: "classes", size: 256, uploadedAt: "2026-10-01T09:00:00.000Z" };
-    const preview: Preview = { delimiter: "comma", header, rows: [], columns: [], extra: [], problems: [], suggestedMapping: { columns: {}, units: { depth: "mm", time: "ms", shares: "percent" }, values: {} } };
+    const preview: Preview = {
+      delimiter: "comma",
+      header,
+      rows: [],
+      columns: [],
+      extra: [],
+      problems: [],
+      suggestedMapping: { columns: {}, units: { depth: "mm", time: "ms", shares: "percent" }, values: {} },
+    };
     class UploadXhr {
       status = 201;
       responseText = JSON.stringify({ upload, preview });
@@ -148,13 +167,37 @@ describe("the imports page", () => {
     }
     vi.stubGlobal("XMLHttpRequest", UploadXhr);
     const summary = (dryRun: boolean) => ({
-      file: "classes.csv", kind: "classes" as const, dryRun, status: dryRun ? ("validated" as const) : ("imported" as const), batchId: dryRun ? null : 9, sha256: null,
-      unit: "rows" as const, delimiter: "comma" as const, rowsRead: 1, inserted: 1, updated: 0, unchanged: 0, rejected: 0, attemptsRead: null, attemptsRejected: null,
-      newCodes: { sites: [], instructors: [], manikins: [] }, warnings: [], issues: [], issuesTotal: 0, durationMs: 3,
+      file: "classes.csv",
+      kind: "classes" as const,
+      dryRun,
+      status: dryRun ? ("validated" as const) : ("imported" as const),
+      batchId: dryRun ? null : 9,
+      sha256: null,
+      unit: "rows" as const,
+      delimiter: "comma" as const,
+      rowsRead: 1,
+      inserted: 1,
+      updated: 0,
+      unchanged: 0,
+      rejected: 0,
+      attemptsRead: null,
+      attemptsRejected: null,
+      newCodes: { sites: [], instructors: [], manikins: [] },
+      warnings: [],
+      issues: [],
+      issuesTotal: 0,
+      durationMs: 3,
     });
     const job = (id: string, mode: "validate" | "import"): ImportJob => ({
-      id, uploadId: "u1", mode, status: "done", progress: { bytesRead: 256, totalBytes: 256, rows: 1 }, summary: summary(mode === "validate"),
-      error: null, rejectedCsvUrl: null, createdAt: "2026-10-01T09:00:01.000Z",
+      id,
+      uploadId: "u1",
+      mode,
+      status: "done",
+      progress: { bytesRead: 256, totalBytes: 256, rows: 1 },
+      summary: summary(mode === "validate"),
+      error: null,
+      rejectedCsvUrl: null,
+      createdAt: "2026-10-01T09:00:01.000Z",
     });
     fakeServer({
       "GET /api/me": sessionFor("coordinator"),

@@ -8,7 +8,17 @@ import { afterEach, describe, expect, it, vi } from "vitest";
 import type { ReportVersion } from "../../shared/schemas/report";
 import { createQueryClient } from "../../src/app/queryClient";
 import { VersionsPanel } from "../../src/features/report/VersionsPanel";
-import { formatCount, formatDateTime, formatDay, formatDecimal, formatLocale, formatMonth, formatRecordedClock, formatRecordedDateTime, setFormatLocale } from "../../src/lib/formatting";
+import {
+  formatCount,
+  formatDateTime,
+  formatDay,
+  formatDecimal,
+  formatLocale,
+  formatMonth,
+  formatRecordedClock,
+  formatRecordedDateTime,
+  setFormatLocale,
+} from "../../src/lib/formatting";
 import { appliedBatch } from "./importBatch";
 import { renderApp } from "./renderApp";
 import { fakeServer, sessionFor } from "./testServer";
@@ -95,7 +105,16 @@ describe("pages", () => {
     const imported = within(table).getByText(/^Dec 2, 2026/);
     cleanup();
 
-    const version: ReportVersion = { id: 1, period: "2026-Q3", version: 1, createdAt: "2026-12-02T12:00:00.000Z", createdBy: "Robin", pdfBytes: 2048, lastSend: null, releasedAt: null };
+    const version: ReportVersion = {
+      id: 1,
+      period: "2026-Q3",
+      version: 1,
+      createdAt: "2026-12-02T12:00:00.000Z",
+      createdBy: "Robin",
+      pdfBytes: 2048,
+      lastSend: null,
+      releasedAt: null,
+    };
     render(
       <QueryClientProvider client={createQueryClient()}>
         <VersionsPanel period="2026-Q3" versions={[version]} onCreated={() => undefined} />

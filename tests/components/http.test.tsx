@@ -26,9 +26,7 @@ describe("http", () => {
       "PATCH /api/sites/3": (request) => {
         attempts += 1;
         const token = request.headers["x-csrf-token"];
-        return token === "token-1"
-          ? { status: 200, body: { site: { id: 3 } } }
-          : { status: 403, body: { error: { code: "csrf", message: "Stale token" } } };
+        return token === "token-1" ? { status: 200, body: { site: { id: 3 } } } : { status: 403, body: { error: { code: "csrf", message: "Stale token" } } };
       },
     });
     setCsrfToken("stale");

@@ -56,7 +56,29 @@ afterEach(() => {
 
 // An attempt summary export from another tool: two columns carry other names, depths are in inches.
 const header = importColumns.attempts.map((c) => (c.name === "learner" ? "Learner Code" : c.name === "depth_mm" ? "Depth (in)" : c.name));
-const firstRow = ["A-1", "C-1", "L-0001", "MK-1", "adult", "live", "2026-07-14T09:30:00Z", "120", "230", "112", "2.1", "85", "10", "5", "80", "12", "8", "90", "85", "4", "pass"];
+const firstRow = [
+  "A-1",
+  "C-1",
+  "L-0001",
+  "MK-1",
+  "adult",
+  "live",
+  "2026-07-14T09:30:00Z",
+  "120",
+  "230",
+  "112",
+  "2.1",
+  "85",
+  "10",
+  "5",
+  "80",
+  "12",
+  "8",
+  "90",
+  "85",
+  "4",
+  "pass",
+];
 
 const upload: Upload = { id: "u1", fileName: "export.csv", kind: "attempts", size: 512, uploadedAt: "2026-07-20T10:00:00.000Z" };
 const preview: Preview = {
@@ -164,7 +186,13 @@ describe("a job the server's restart cut short", () => {
     const message = "The server restarted before this check finished. Nothing was written. Upload the file again to check it.";
     const interrupted: ImportJob = { ...doneJob, status: "interrupted", progress: { bytesRead: 0, totalBytes: 512, rows: 0 }, summary: null, error: message };
     const server = fakeImportServer(interrupted);
-    ScriptedXhr.answers.push({ status: 201, body: { upload, preview: { ...preview, suggestedMapping: { ...preview.suggestedMapping, columns: { learner: "Learner Code", depth_mm: "Depth (in)" } } } } });
+    ScriptedXhr.answers.push({
+      status: 201,
+      body: {
+        upload,
+        preview: { ...preview, suggestedMapping: { ...preview.suggestedMapping, columns: { learner: "Learner Code", depth_mm: "Depth (in)" } } },
+      },
+    });
 
     await uploadOnPage();
     fireEvent.click(screen.getByRole("button", { name: "Validate the file" }));

@@ -27,7 +27,7 @@ function refusedSummary(): ImportSummary {
     newCodes: { sites: ["NORTH"], instructors: [], manikins: ["MK-1"] },
     warnings: ['column "room" is not a column of classes files and is ignored'],
     issues: [
-      { row: null, column: "room", reason: "the header names the column \"room\" twice" },
+      { row: null, column: "room", reason: 'the header names the column "room" twice' },
       { row: 2, column: "class_id", reason: "\"C 102\" may contain only letters, digits, '.', '_' and '-'" },
       { row: 5, column: "course", reason: '"adults" is not allowed; use one of infant, child, adult, all-ages' },
       { row: 9, column: null, reason: "the row has 7 fields; the header has 8" },
@@ -45,7 +45,11 @@ describe("validation report", () => {
     const table = screen.getByRole("table");
     const rows = within(table).getAllByRole("row").slice(1); // skip the header row
     expect(rows).toHaveLength(summary.issues.length);
-    const cells = rows.map((row) => within(row).getAllByRole("cell").map((cell) => cell.textContent));
+    const cells = rows.map((row) =>
+      within(row)
+        .getAllByRole("cell")
+        .map((cell) => cell.textContent),
+    );
     expect(cells).toEqual([
       ["Header", "room", 'the header names the column "room" twice'],
       ["2", "class_id", "\"C 102\" may contain only letters, digits, '.', '_' and '-'"],

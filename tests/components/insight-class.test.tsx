@@ -2,7 +2,13 @@
 // "not found or not yours" answer an instructor gets for another instructor's class.
 import { cleanup, configure, screen, within } from "@testing-library/react";
 import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
-import { attemptListAnswerSchema, classDetailAnswerSchema, type AttemptListAnswer, type AttemptRow, type ClassDetailAnswer } from "../../shared/schemas/insight";
+import {
+  attemptListAnswerSchema,
+  classDetailAnswerSchema,
+  type AttemptListAnswer,
+  type AttemptRow,
+  type ClassDetailAnswer,
+} from "../../shared/schemas/insight";
 import { renderApp } from "./renderApp";
 import { answer, fakeServer, sessionFor, type FakeAnswer } from "./testServer";
 
@@ -20,25 +26,84 @@ afterEach(() => {
 
 const detail: ClassDetailAnswer = {
   class: {
-    id: "CL-0276", date: "2026-10-17", quarter: "2026-Q4", course: "adult",
-    site: { id: 1, code: "WRM" }, instructor: { id: 3, code: "IN03", name: "Ilse Pendrake" },
-    learners: 6, passed: 5, manikins: ["WRM-A01", "WRM-A03"], lungsReplaced: 0, mouthpiecesCleaned: 6, batteriesReplaced: null,
+    id: "CL-0276",
+    date: "2026-10-17",
+    quarter: "2026-Q4",
+    course: "adult",
+    site: { id: 1, code: "WRM" },
+    instructor: { id: 3, code: "IN03", name: "Ilse Pendrake" },
+    learners: 6,
+    passed: 5,
+    manikins: ["WRM-A01", "WRM-A03"],
+    lungsReplaced: 0,
+    mouthpiecesCleaned: 6,
+    batteriesReplaced: null,
   },
   passRate: { successes: 1, n: 2, rate: 0.5, low: 0.0945, high: 0.9055, suppressed: false },
   attempts: [
-    { id: "AT-1", learner: "L-TBMZV", startedAt: "2026-10-17T09:09:00Z", profile: "adult", feedback: "live", score: 91.15, passed: true, instructorResult: "pass", errors: [], hasStream: true },
-    { id: "AT-2", learner: "L-5WVLM", startedAt: "2026-10-17T09:11:29Z", profile: "adult", feedback: "hidden", score: 70.6667, passed: false, instructorResult: null, errors: ["too_shallow", "long_pause"], hasStream: false },
+    {
+      id: "AT-1",
+      learner: "L-TBMZV",
+      startedAt: "2026-10-17T09:09:00Z",
+      profile: "adult",
+      feedback: "live",
+      score: 91.15,
+      passed: true,
+      instructorResult: "pass",
+      errors: [],
+      hasStream: true,
+    },
+    {
+      id: "AT-2",
+      learner: "L-5WVLM",
+      startedAt: "2026-10-17T09:11:29Z",
+      profile: "adult",
+      feedback: "hidden",
+      score: 70.6667,
+      passed: false,
+      instructorResult: null,
+      errors: ["too_shallow", "long_pause"],
+      hasStream: false,
+    },
   ],
 };
 
 const metrics = (depthMm: number, rateCpm: number) => ({
-  durationS: 120, compressions: 220, rateCpm, depthMm, depthOkPct: 80, tooShallowPct: 20, tooDeepPct: 0, rateOkPct: 90, tooSlowPct: 5, tooFastPct: 5,
-  recoilOkPct: 100, handsOnPct: 95, longestPauseS: 3, pauses: 1, pausesOver10s: 0,
+  durationS: 120,
+  compressions: 220,
+  rateCpm,
+  depthMm,
+  depthOkPct: 80,
+  tooShallowPct: 20,
+  tooDeepPct: 0,
+  rateOkPct: 90,
+  tooSlowPct: 5,
+  tooFastPct: 5,
+  recoilOkPct: 100,
+  handsOnPct: 95,
+  longestPauseS: 3,
+  pauses: 1,
+  pausesOver10s: 0,
 });
 const row = (id: string, depthMm: number, rateCpm: number): AttemptRow => ({
-  id, classId: "CL-0276", learner: "L", startedAt: "2026-10-17T09:09:00Z", quarter: "2026-Q4", profile: "adult", feedback: "live",
-  site: { id: 1, code: "WRM" }, instructor: { id: 3, code: "IN03" }, manikin: null, metrics: metrics(depthMm, rateCpm),
-  score: 90, passed: true, instructorResult: "pass", errors: [], policyVersion: 1, source: "summary", hasStream: false,
+  id,
+  classId: "CL-0276",
+  learner: "L",
+  startedAt: "2026-10-17T09:09:00Z",
+  quarter: "2026-Q4",
+  profile: "adult",
+  feedback: "live",
+  site: { id: 1, code: "WRM" },
+  instructor: { id: 3, code: "IN03" },
+  manikin: null,
+  metrics: metrics(depthMm, rateCpm),
+  score: 90,
+  passed: true,
+  instructorResult: "pass",
+  errors: [],
+  policyVersion: 1,
+  source: "summary",
+  hasStream: false,
 });
 const measured: AttemptListAnswer = { page: 1, pageSize: 200, total: 2, attempts: [row("AT-1", 52.4, 112.4), row("AT-2", 44.45, 104)] };
 
@@ -66,7 +131,9 @@ describe("class page", () => {
     const table = screen.getByRole("table", { name: "Attempts" });
     // the attempt's back link returns to this class
     expect(within(table).getByRole("link", { name: "AT-1" }).getAttribute("href")).toBe("/attempts/AT-1?from=%2Fclasses%2FCL-0276");
-    expect(screen.getByRole("link", { name: "Open this class’s attempts in the attempts list" }).getAttribute("href")).toBe("/attempts?quarter=2026-Q4&class=CL-0276");
+    expect(screen.getByRole("link", { name: "Open this class’s attempts in the attempts list" }).getAttribute("href")).toBe(
+      "/attempts?quarter=2026-Q4&class=CL-0276",
+    );
     const second = within(table).getByRole("link", { name: "AT-2" }).closest("tr")!;
     expect(second.textContent).toContain("Not passed");
     expect(second.textContent).toContain("not recorded");

@@ -63,9 +63,51 @@ const instructors: InstructorsAnswer = {
     ],
   },
   instructors: [
-    { id: 4, code: "IN04", name: "Callum Ferrowin", site: { id: 2, code: "CLB" }, classes: 2, attempts: 30, passRate: rate(12, 30), medianScore: 83.5, expected: 12.9, z: -0.33, adjustedRate: 0.39, effectiveAttempts: 31.2, position: "inside" },
-    { id: 6, code: "IN06", name: "Desmond Quarrie", site: { id: 2, code: "CLB" }, classes: 2, attempts: 68, passRate: rate(7, 68), medianScore: 62.8333, expected: 30.1, z: -5.6, adjustedRate: 0.08, effectiveAttempts: 70.4, position: "below998" },
-    { id: 8, code: "IN08", name: "Jonah Thistlecombe", site: null, classes: 3, attempts: 117, passRate: rate(63, 117), medianScore: 90, expected: 48.2, z: 2.81, adjustedRate: 0.55, effectiveAttempts: 112.5, position: "above95" },
+    {
+      id: 4,
+      code: "IN04",
+      name: "Callum Ferrowin",
+      site: { id: 2, code: "CLB" },
+      classes: 2,
+      attempts: 30,
+      passRate: rate(12, 30),
+      medianScore: 83.5,
+      expected: 12.9,
+      z: -0.33,
+      adjustedRate: 0.39,
+      effectiveAttempts: 31.2,
+      position: "inside",
+    },
+    {
+      id: 6,
+      code: "IN06",
+      name: "Desmond Quarrie",
+      site: { id: 2, code: "CLB" },
+      classes: 2,
+      attempts: 68,
+      passRate: rate(7, 68),
+      medianScore: 62.8333,
+      expected: 30.1,
+      z: -5.6,
+      adjustedRate: 0.08,
+      effectiveAttempts: 70.4,
+      position: "below998",
+    },
+    {
+      id: 8,
+      code: "IN08",
+      name: "Jonah Thistlecombe",
+      site: null,
+      classes: 3,
+      attempts: 117,
+      passRate: rate(63, 117),
+      medianScore: 90,
+      expected: 48.2,
+      z: 2.81,
+      adjustedRate: 0.55,
+      effectiveAttempts: 112.5,
+      position: "above95",
+    },
   ],
 };
 
@@ -85,7 +127,11 @@ function tableOf(title: string): string[][] {
   return within(within(frame).getByRole("table"))
     .getAllByRole("row")
     .slice(1)
-    .map((row) => within(row).getAllByRole("cell").map((cell) => cell.textContent ?? ""));
+    .map((row) =>
+      within(row)
+        .getAllByRole("cell")
+        .map((cell) => cell.textContent ?? ""),
+    );
 }
 
 describe("instructors", () => {
@@ -164,8 +210,27 @@ describe("instructors", () => {
     serve();
     renderApp("/instructors?quarter=2026-Q4");
     const table = await screen.findByRole("table", { name: "Instructors" });
-    const rows = within(table).getAllByRole("row").slice(1).map((row) => within(row).getAllByRole("cell").map((c) => c.textContent));
-    expect(rows[1]).toEqual(["IN06", "Desmond Quarrie", "CLB", "2", "68", "10.3 %", range(rate(7, 68).low!, rate(7, 68).high!), "62.8", "30.1", "-5.60", "Well below (99.8 % limit)"]);
+    const rows = within(table)
+      .getAllByRole("row")
+      .slice(1)
+      .map((row) =>
+        within(row)
+          .getAllByRole("cell")
+          .map((c) => c.textContent),
+      );
+    expect(rows[1]).toEqual([
+      "IN06",
+      "Desmond Quarrie",
+      "CLB",
+      "2",
+      "68",
+      "10.3 %",
+      range(rate(7, 68).low!, rate(7, 68).high!),
+      "62.8",
+      "30.1",
+      "-5.60",
+      "Well below (99.8 % limit)",
+    ]);
     expect(within(table).getByRole("link", { name: "IN04" }).getAttribute("href")).toBe("/instructors/4?quarter=2026-Q4");
     // sortable: attempts, largest first after two clicks
     fireEvent.click(within(table).getByRole("button", { name: "Attempts" }));
@@ -186,18 +251,52 @@ describe("one instructor", () => {
     classes: [{ id: "CL-0283", date: "2026-11-12", course: "adult", learners: 9, passed: 2, attempts: 18, passRate: rate(1, 18) }],
   };
   const point = (quarter: string, passed: number, attempts: number) => ({
-    quarter, attempts, passed, rate: passed / attempts, low: null, high: null, lcl: null, ucl: null, outside: false, suppressed: false,
+    quarter,
+    attempts,
+    passed,
+    rate: passed / attempts,
+    low: null,
+    high: null,
+    lcl: null,
+    ucl: null,
+    outside: false,
+    suppressed: false,
   });
   const network: OverviewAnswer = {
     period: detail.period,
     previousPeriod: { from: "2026-Q3", to: "2026-Q3", quarters: ["2026-Q3"] },
-    suppressionMinCount: 5, suppressed: false, learners: 10, classes: 2, attempts: 615,
-    passRate: rate(259, 615), passRateChange: { previous: rate(326, 855), absolute: 0.04, relative: 0.1, low: null, high: null, verdict: null },
+    suppressionMinCount: 5,
+    suppressed: false,
+    learners: 10,
+    classes: 2,
+    attempts: 615,
+    passRate: rate(259, 615),
+    passRateChange: { previous: rate(326, 855), absolute: 0.04, relative: 0.1, low: null, high: null, verdict: null },
     learnerOutcomes: { measured: 600, firstAttempt: rate(240, 600), everPassed: rate(250, 600) },
     recordedCompletion: rate(158, 262),
-    agreement: { pairs: 0, table: [[0, 0], [0, 0]], observed: null, expected: null, kappa: null, suppressed: false },
-    medianScore: 83, series: { centre: 0.3, baseline: { from: "2025-Q4", to: "2026-Q3", source: "default", attempts: 3200 }, limits: "binomial", sigmaZ: null, runChart: null, split: null, points: [point("2026-Q2", 325, 859), point("2026-Q3", 326, 855), point("2026-Q4", 259, 615)] },
-    errors: { attempts: 615, rows: [], suppressed: false }, feedback: [],
+    agreement: {
+      pairs: 0,
+      table: [
+        [0, 0],
+        [0, 0],
+      ],
+      observed: null,
+      expected: null,
+      kappa: null,
+      suppressed: false,
+    },
+    medianScore: 83,
+    series: {
+      centre: 0.3,
+      baseline: { from: "2025-Q4", to: "2026-Q3", source: "default", attempts: 3200 },
+      limits: "binomial",
+      sigmaZ: null,
+      runChart: null,
+      split: null,
+      points: [point("2026-Q2", 325, 859), point("2026-Q3", 326, 855), point("2026-Q4", 259, 615)],
+    },
+    errors: { attempts: 615, rows: [], suppressed: false },
+    feedback: [],
   };
 
   it("shows the quarterly trend with the same numbers in its table, beside the network's rate, and the classes", async () => {

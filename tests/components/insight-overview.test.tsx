@@ -48,7 +48,17 @@ const overview: OverviewAnswer = {
   passRateChange: { previous: rate(240, 941, 0.2551, 0.2283, 0.2838), absolute: 0.0402, relative: 0.1576, low: 0.0031, high: 0.0765, verdict: "up" },
   learnerOutcomes: { measured: 1180, firstAttempt: rate(380, 1180, 0.322, 0.296, 0.3492), everPassed: rate(566, 1180, 0.4797, 0.4513, 0.5082) },
   recordedCompletion: rate(761, 1262, 0.603, 0.5757, 0.6297),
-  agreement: { pairs: 537, table: [[212, 165], [12, 148]], observed: 0.6704, expected: 0.4665, kappa: 0.3822, suppressed: false },
+  agreement: {
+    pairs: 537,
+    table: [
+      [212, 165],
+      [12, 148],
+    ],
+    observed: 0.6704,
+    expected: 0.4665,
+    kappa: 0.3822,
+    suppressed: false,
+  },
   medianScore: 83.3333,
   series: {
     centre: 0.2719,
@@ -106,7 +116,11 @@ function tableOf(title: string): string[][] {
   return within(table)
     .getAllByRole("row")
     .slice(1)
-    .map((row) => within(row).getAllByRole("cell").map((cell) => cell.textContent ?? ""));
+    .map((row) =>
+      within(row)
+        .getAllByRole("cell")
+        .map((cell) => cell.textContent ?? ""),
+    );
 }
 
 describe("network overview", () => {
@@ -115,7 +129,14 @@ describe("network overview", () => {
     const small: OverviewAnswer = {
       ...overview,
       passRate: rate(300, 1000, 0.3, 0.2724, 0.3291),
-      passRateChange: { previous: rate(295, 1000, 0.295, 0.2675, 0.324), absolute: 0.005, relative: 0.0169, low: -0.035, high: 0.045, verdict: "no clear change" },
+      passRateChange: {
+        previous: rate(295, 1000, 0.295, 0.2675, 0.324),
+        absolute: 0.005,
+        relative: 0.0169,
+        low: -0.035,
+        high: 0.045,
+        verdict: "no clear change",
+      },
     };
     serve("coordinator", small);
     renderApp("/overview?quarter=2026-Q3");
@@ -139,7 +160,9 @@ describe("network overview", () => {
     expect(measured.textContent).toContain("411 of 1,392 manikin attempts");
     expect(measured.textContent).toContain("The change's 95 % interval runs from +0.3 points to +7.7 points.");
     const trend = screen.getByRole("heading", { name: "Measured pass rate by quarter" }).closest("figure")!;
-    expect(trend.textContent).toContain("The run-chart rules find no shift: the longest run on one side of the median 25.7 % is 1 (a shift needs more than 4) and the series crosses it 1 time.");
+    expect(trend.textContent).toContain(
+      "The run-chart rules find no shift: the longest run on one side of the median 25.7 % is 1 (a shift needs more than 4) and the series crosses it 1 time.",
+    );
 
     const recorded = card("Instructor-recorded completion");
     expect(within(recorded).getByText("60.3 %")).toBeTruthy();
@@ -159,12 +182,21 @@ describe("network overview", () => {
     serve("quality_lead", overview);
     renderApp("/overview?quarter=2026-Q3");
     // like with like: learners recorded as completed against learners who passed at least once (60.3 − 48.0)
-    const callout = await screen.findByText("Instructors recorded 60.3 % of learners as completed, but only 48.0 % of measured learners passed on the manikin at least once: a gap of 12.3 points.");
+    const callout = await screen.findByText(
+      "Instructors recorded 60.3 % of learners as completed, but only 48.0 % of measured learners passed on the manikin at least once: a gap of 12.3 points.",
+    );
     expect(callout.tagName).toBe("P");
     expect(screen.getByText(/Why it matters:/).parentElement?.textContent).toMatch(/leaves believing their CPR would work/);
     // the 2×2 table of the same attempts under both results
     const agreement = screen.getByRole("table", { name: "Instructor's result against the measured result" });
-    const rows = within(agreement).getAllByRole("row").slice(1).map((row) => within(row).getAllByRole("cell").map((c) => c.textContent));
+    const rows = within(agreement)
+      .getAllByRole("row")
+      .slice(1)
+      .map((row) =>
+        within(row)
+          .getAllByRole("cell")
+          .map((c) => c.textContent),
+      );
     expect(rows).toEqual([
       ["Recorded as passed", "212", "165", "377"],
       ["Recorded as not passed", "12", "148", "160"],

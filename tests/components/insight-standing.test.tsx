@@ -40,11 +40,17 @@ const standing: StandingAnswer = {
     { key: "depth_ok_pct", mine: 80, network: 82, percentileRank: 37.5, ceiling: null },
     { key: "rate_ok_pct", mine: 91, network: 85.2814, percentileRank: 87.5, ceiling: null },
     {
-      key: "recoil_ok_pct", mine: 100, network: 100, percentileRank: 62.5,
+      key: "recoil_ok_pct",
+      mine: 100,
+      network: 100,
+      percentileRank: 62.5,
       ceiling: { mine: { shareAtCeiling: 0.7297, p10: 88 }, network: { shareAtCeiling: 0.6812, p10: 84.5 } },
     },
     {
-      key: "hands_on_pct", mine: 100, network: 100, percentileRank: 54.1667,
+      key: "hands_on_pct",
+      mine: 100,
+      network: 100,
+      percentileRank: 54.1667,
       ceiling: { mine: { shareAtCeiling: 0.6486, p10: 90 }, network: { shareAtCeiling: 0.6705, p10: 91 } },
     },
   ],
@@ -70,7 +76,19 @@ const standing: StandingAnswer = {
       { n: 40, low95: 0.275, high95: 0.575, low998: 0.2, high998: 0.65 },
       { n: 117, low95: 0.33, high95: 0.51, low998: 0.28, high998: 0.56 },
     ],
-    me: { successes: 20, n: 37, rate: 20 / 37, low: 0.3838, high: 0.6896, suppressed: false, expected: 16.1, z: 1.32, adjustedRate: 0.5265, effectiveAttempts: 38.4, position: "inside" },
+    me: {
+      successes: 20,
+      n: 37,
+      rate: 20 / 37,
+      low: 0.3838,
+      high: 0.6896,
+      suppressed: false,
+      expected: 16.1,
+      z: 1.32,
+      adjustedRate: 0.5265,
+      effectiveAttempts: 38.4,
+      position: "inside",
+    },
   },
   errorProfile: {
     networkSuppressed: false,
@@ -82,8 +100,24 @@ const standing: StandingAnswer = {
     ],
   },
   classes: [
-    { id: "CL-0276", date: "2026-10-17", course: "adult", learners: 6, passed: 5, attempts: 9, passRate: { successes: 6, n: 9, rate: 0.6667, low: 0.3542, high: 0.8794, suppressed: false } },
-    { id: "CL-0269", date: "2026-10-08", course: "infant", learners: 14, passed: 13, attempts: 20, passRate: { successes: 9, n: 20, rate: 0.45, low: 0.2582, high: 0.6579, suppressed: false } },
+    {
+      id: "CL-0276",
+      date: "2026-10-17",
+      course: "adult",
+      learners: 6,
+      passed: 5,
+      attempts: 9,
+      passRate: { successes: 6, n: 9, rate: 0.6667, low: 0.3542, high: 0.8794, suppressed: false },
+    },
+    {
+      id: "CL-0269",
+      date: "2026-10-08",
+      course: "infant",
+      learners: 14,
+      passed: 13,
+      attempts: 20,
+      passRate: { successes: 9, n: 20, rate: 0.45, low: 0.2582, high: 0.6579, suppressed: false },
+    },
   ],
 };
 
@@ -103,7 +137,11 @@ function tableOf(title: string): string[][] {
   return within(within(frame).getByRole("table"))
     .getAllByRole("row")
     .slice(1)
-    .map((row) => within(row).getAllByRole("cell").map((cell) => cell.textContent ?? ""));
+    .map((row) =>
+      within(row)
+        .getAllByRole("cell")
+        .map((cell) => cell.textContent ?? ""),
+    );
 }
 
 function metricCard(label: string): HTMLElement {

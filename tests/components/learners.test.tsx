@@ -40,7 +40,11 @@ describe("RetentionView", { timeout: 30_000 }, () => {
     expect(screen.getByText(/back after 6–12 months 50\.0 % of 50; back after 12–18 months 30\.0 % of 20; first course 30\.0 % of 200/)).toBeTruthy();
     const table = screen.getByRole("table", { name: /Returning and first-time learners/ });
     const second = within(table).getAllByRole("row")[3];
-    expect(within(second).getAllByRole("cell").map((c) => c.textContent)).toEqual(["Back after 6–12 months", "50", "25", "50.0 %", "36.6–63.4 %"]);
+    expect(
+      within(second)
+        .getAllByRole("cell")
+        .map((c) => c.textContent),
+    ).toEqual(["Back after 6–12 months", "50", "25", "50.0 %", "36.6–63.4 %"]);
   });
 });
 
@@ -78,7 +82,11 @@ describe("OwnCalibration", { timeout: 30_000 }, () => {
   it("shows the instructor's 2×2 table and their figures in words, naming nobody else", () => {
     render(<OwnCalibration answer={own} />);
     const table = screen.getByRole("table");
-    expect(within(table).getAllByRole("row").map((r) => r.textContent)).toEqual(["Measured passMeasured fail", "You passed409", "You failed645"]);
+    expect(
+      within(table)
+        .getAllByRole("row")
+        .map((r) => r.textContent),
+    ).toEqual(["Measured passMeasured fail", "You passed409", "You failed645"]);
     // 9 of the 54 measured failures passed; 6 of the 46 measured passes failed
     expect(screen.getByText(/Of 54 attempts the manikin measured as failing, you passed 9/)).toBeTruthy();
     expect(screen.getByText(/Of 46 attempts measured as passing, you failed 6/)).toBeTruthy();
@@ -106,7 +114,9 @@ describe("AllCalibration", { timeout: 30_000 }, () => {
       .map((r) => within(r).getAllByRole("cell")[0].textContent);
     expect(names).toEqual(["IN11 · Instructor IN11", "IN01 · Instructor IN01"]);
     // the 2×2 cells of the lenient instructor: 40 both pass, 45 passed measured failures, 1, 5
-    const cells = within(within(table).getAllByRole("row")[1]).getAllByRole("cell").map((c) => c.textContent);
+    const cells = within(within(table).getAllByRole("row")[1])
+      .getAllByRole("cell")
+      .map((c) => c.textContent);
     expect(cells.slice(1, 6)).toEqual(["91", "40", "45", "1", "5"]);
   });
 });

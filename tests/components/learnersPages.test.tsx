@@ -3,7 +3,14 @@
 import { cleanup, configure, screen, within } from "@testing-library/react";
 import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
 import { optionsAnswerSchema, type OptionsAnswer } from "../../shared/schemas/insight";
-import { calibrationAnswerSchema, retentionAnswerSchema, type CalibrationAnswer, type CalibrationRow, type RetentionAnswer, retentionBins } from "../../shared/schemas/learners";
+import {
+  calibrationAnswerSchema,
+  retentionAnswerSchema,
+  type CalibrationAnswer,
+  type CalibrationRow,
+  type RetentionAnswer,
+  retentionBins,
+} from "../../shared/schemas/learners";
 import { renderApp } from "./renderApp";
 import { answer, fakeServer, sessionFor } from "./testServer";
 
@@ -67,7 +74,10 @@ describe("Skill retention page", () => {
     });
     renderApp("/retention?quarter=2026-Q4");
     const table = await screen.findByRole("table", { name: /Returning and first-time learners/ });
-    const cells = within(table).getAllByRole("row").slice(1).map((r) => within(r).getAllByRole("cell")[0].textContent);
+    const cells = within(table)
+      .getAllByRole("row")
+      .slice(1)
+      .map((r) => within(r).getAllByRole("cell")[0].textContent);
     expect(cells.slice(0, 3)).toEqual(["First course in the data", "Back within 6 months", "Back after 6–12 months"]);
     expect(requests.some((r) => r.path === "/api/learners/retention?quarter=2026-Q4")).toBe(true);
   });
@@ -75,7 +85,13 @@ describe("Skill retention page", () => {
 
 describe("Judgement calibration page", () => {
   it("shows an instructor their own table and no other instructor's name", async () => {
-    const own: CalibrationAnswer = { period, ranked: 3, rows: [row(3, "IN03", 20, 2)], others: [{ lenient_share: 0.9, strict_share: 0.02, kappa: 0.05 }], othersHidden: 1 };
+    const own: CalibrationAnswer = {
+      period,
+      ranked: 3,
+      rows: [row(3, "IN03", 20, 2)],
+      others: [{ lenient_share: 0.9, strict_share: 0.02, kappa: 0.05 }],
+      othersHidden: 1,
+    };
     fakeServer({
       "GET /api/me": sessionFor("instructor"),
       "GET /api/insight/options": answer(optionsAnswerSchema, options),
@@ -97,7 +113,10 @@ describe("Judgement calibration page", () => {
     });
     renderApp("/calibration?quarter=2026-Q4");
     const table = await screen.findByRole("table", { name: /Each instructor's judgement/ });
-    const first = within(table).getAllByRole("row").slice(1).map((r) => within(r).getAllByRole("cell")[0].textContent);
+    const first = within(table)
+      .getAllByRole("row")
+      .slice(1)
+      .map((r) => within(r).getAllByRole("cell")[0].textContent);
     expect(first).toEqual(["IN11 · Name of IN11", "IN01 · Name of IN01"]);
     expect(screen.getByText(/Most lenient in 2026 Q4:/).textContent).toContain("IN11 passed 90.9 % of measured failures");
   });

@@ -22,7 +22,11 @@ describe("methods page", () => {
     expect(funnel.textContent).toContain("widened by the square root of φ");
     expect(within(funnel).getByText(/Handling over-dispersion of performance indicators/)).toBeTruthy();
     const main = screen.getByRole("main");
-    expect(within(main).getAllByRole("heading", { level: 2 }).map((h) => h.textContent)).toEqual(methodNotes.map((note) => note.title));
+    expect(
+      within(main)
+        .getAllByRole("heading", { level: 2 })
+        .map((h) => h.textContent),
+    ).toEqual(methodNotes.map((note) => note.title));
     expect(screen.getByRole("link", { name: "Control chart of the pass rate by quarter" }).getAttribute("href")).toBe("#control-chart");
     expect(within(main).getByRole("complementary", { name: "About these targets" }).textContent).toContain("training-quality tool, not a medical device");
     // in the navigation of a funder

@@ -47,7 +47,10 @@ describe("outbox", () => {
     renderApp("/outbox");
     expect(await screen.findByText("The outbox is empty")).toBeTruthy();
     cleanup();
-    fakeServer({ "GET /api/me": sessionFor("coordinator"), "GET /api/outbox": { status: 403, body: { error: { code: "forbidden", message: "Your role does not allow this." } } } });
+    fakeServer({
+      "GET /api/me": sessionFor("coordinator"),
+      "GET /api/outbox": { status: 403, body: { error: { code: "forbidden", message: "Your role does not allow this." } } },
+    });
     renderApp("/outbox");
     expect(await screen.findByText("The outbox could not be loaded")).toBeTruthy();
     expect(screen.getByText("Your role does not allow this.")).toBeTruthy();

@@ -77,7 +77,9 @@ describe("useCan", () => {
     const queryClient = createQueryClient();
     const wrapper = ({ children }: { children: ReactNode }) => <QueryClientProvider client={queryClient}>{children}</QueryClientProvider>;
     // one hook call per permission and reach, in a fixed order
-    const { result } = renderHook(() => permissions.map((permission) => ({ permission, own: useCan(permission), any: useCan(permission, "any") })), { wrapper });
+    const { result } = renderHook(() => permissions.map((permission) => ({ permission, own: useCan(permission), any: useCan(permission, "any") })), {
+      wrapper,
+    });
     // every role may read the filter options: once that is true, the session has arrived
     await waitFor(() => expect(result.current.find((row) => row.permission === "readInsightOptions")?.own).toBe(true));
     const expected = permissions.map((permission) => ({ permission, own: serverAllows(role, permission), any: serverReachesEveryRow(role, permission) }));

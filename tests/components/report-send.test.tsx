@@ -31,8 +31,26 @@ const users = {
   status: 200,
   body: {
     users: [
-      { id: 2, email: "funder@example.org", displayName: "Fran Funder", role: "funder", instructorId: null, instructorCode: null, active: true, createdAt: "2026-01-01" },
-      { id: 3, email: "old-funder@example.org", displayName: "Old Funder", role: "funder", instructorId: null, instructorCode: null, active: false, createdAt: "2026-01-01" },
+      {
+        id: 2,
+        email: "funder@example.org",
+        displayName: "Fran Funder",
+        role: "funder",
+        instructorId: null,
+        instructorCode: null,
+        active: true,
+        createdAt: "2026-01-01",
+      },
+      {
+        id: 3,
+        email: "old-funder@example.org",
+        displayName: "Old Funder",
+        role: "funder",
+        instructorId: null,
+        instructorCode: null,
+        active: false,
+        createdAt: "2026-01-01",
+      },
     ],
   },
 };

@@ -107,10 +107,13 @@ function reportData(): ReportData {
       bands: [{ key: "adult", label: "Adult", depth: "50–60 mm", rate: "100–120 per minute", recoil: "released to within 5 mm" }],
       passRule: ["at least 70 % of compressions at the target depth"],
       passRuleNote: "The pass rule is network policy (version 1), not a guideline value.",
-      sources: ["Olasveengen TM, Semeraro F, Ristagno G, et al. European Resuscitation Council Guidelines 2021: Basic Life Support. Resuscitation. 2021;161:98–114."],
+      sources: [
+        "Olasveengen TM, Semeraro F, Ristagno G, et al. European Resuscitation Council Guidelines 2021: Basic Life Support. Resuscitation. 2021;161:98–114.",
+      ],
       safetyNote:
         "Quarterbeat is a training-quality tool, not a medical device. Learners follow current resuscitation guidelines, their training organisation and local protocols.",
-      suppressionNote: 'To protect learners and instructors, a count of people or their activity below 5 reads "fewer than 5", and a period or group with none reads "no data".',
+      suppressionNote:
+        'To protect learners and instructors, a count of people or their activity below 5 reads "fewer than 5", and a period or group with none reads "no data".',
     },
     narrative: ["In July–September 2026, 12 instructors at 4 sites ran 41 classes for 417 learners."],
   };
@@ -128,11 +131,19 @@ describe("funder report page", () => {
     expect(statValue("Faults reported")).toBe("2");
     const courses = screen.getByRole("table", { name: "Classes and learners by course" });
     const child = within(courses).getByRole("rowheader", { name: "Child CPR" }).closest("tr")!;
-    expect(within(child).getAllByRole("cell").map((c) => c.textContent)).toEqual(["fewer than 5", "not shown"]);
+    expect(
+      within(child)
+        .getAllByRole("cell")
+        .map((c) => c.textContent),
+    ).toEqual(["fewer than 5", "not shown"]);
     // A hidden rate reads "hidden", never as a count, and shows no interval at all.
     const byType = screen.getByRole("table", { name: "Pass rate by patient type" });
     const childType = within(byType).getByRole("rowheader", { name: "Child" }).closest("tr")!;
-    expect(within(childType).getAllByRole("cell").map((c) => c.textContent)).toEqual(["fewer than 5", "hidden", ""]);
+    expect(
+      within(childType)
+        .getAllByRole("cell")
+        .map((c) => c.textContent),
+    ).toEqual(["fewer than 5", "hidden", ""]);
     // And the reason is said under the table that has one.
     expect(screen.getByText(/“fewer than 5”: hidden because it comes from too few people or events/)).toBeTruthy();
   });
@@ -153,7 +164,11 @@ describe("funder report page", () => {
     expect(rateWithInterval(hiddenRate)).toBe("hidden");
     const byType = screen.getByRole("table", { name: "Pass rate by patient type" });
     const infant = within(byType).getByRole("rowheader", { name: "Infant" }).closest("tr")!;
-    expect(within(infant).getAllByRole("cell").map((c) => c.textContent)).toEqual(["299", "38.5 %", "33.1–44.1 %"]);
+    expect(
+      within(infant)
+        .getAllByRole("cell")
+        .map((c) => c.textContent),
+    ).toEqual(["299", "38.5 %", "33.1–44.1 %"]);
   });
 
   it("reads the comparisons, the coordinator's text, the feedback difference and the caution", () => {

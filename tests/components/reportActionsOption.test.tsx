@@ -13,7 +13,16 @@ afterEach(() => {
   vi.unstubAllGlobals();
 });
 
-const version = { id: 4, period: "2026-Q3", version: 1, createdAt: "2026-10-02T09:00:00.000Z", createdBy: "Robin Example", pdfBytes: 20_480, lastSend: null, releasedAt: null };
+const version = {
+  id: 4,
+  period: "2026-Q3",
+  version: 1,
+  createdAt: "2026-10-02T09:00:00.000Z",
+  createdBy: "Robin Example",
+  pdfBytes: 20_480,
+  lastSend: null,
+  releasedAt: null,
+};
 
 function renderPanel() {
   const server = fakeServer({ "POST /api/reports/2026-Q3": { status: 201, body: { report: version } } });

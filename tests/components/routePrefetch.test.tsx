@@ -71,7 +71,10 @@ describe("requests started at navigation", () => {
 
   it("shows the technique errors from the answer asked for at navigation, without asking again", async () => {
     const errorsPath = "/api/insight/errors?quarter=2026-Q3&site=WRM";
-    const answers: Record<string, FakeAnswer | (() => Promise<FakeAnswer>)> = { "/api/me": sessionFor("coordinator"), [errorsPath]: { status: 200, body: noAttempts } };
+    const answers: Record<string, FakeAnswer | (() => Promise<FakeAnswer>)> = {
+      "/api/me": sessionFor("coordinator"),
+      [errorsPath]: { status: 200, body: noAttempts },
+    };
     const server = heldServer(answers);
     answers["/api/insight/options"] = optionsAfter(server, errorsPath);
     renderApp("/errors?quarter=2026-Q3&site=WRM");

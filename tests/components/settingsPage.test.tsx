@@ -33,7 +33,10 @@ describe("settings page", { timeout: 30_000 }, () => {
   it("saves depths typed in inches as millimetres, as a new version", async () => {
     const server = fakeServer({
       ...policyPages,
-      "GET /api/insight/options": { status: 200, body: { quarters: [], sites: [], patientTypes: [], feedbackModes: [], errors: [], instructors: [], manikins: [] } },
+      "GET /api/insight/options": {
+        status: 200,
+        body: { quarters: [], sites: [], patientTypes: [], feedbackModes: [], errors: [], instructors: [], manikins: [] },
+      },
       "PUT /api/settings/policy": (request) => ({ status: 200, body: { ...version1, version: 2, ...(request.body as object) } }),
     });
     renderApp("/settings");
@@ -61,7 +64,15 @@ describe("settings page", { timeout: 30_000 }, () => {
       "GET /api/settings/chart-baseline": { status: 200, body: { from: "2025-Q1", to: "2025-Q4", source: "default" } },
       "GET /api/insight/options": {
         status: 200,
-        body: { quarters: ["2026-Q2", "2026-Q1", "2025-Q4", "2025-Q3", "2025-Q2", "2025-Q1"], sites: [], patientTypes: [], feedbackModes: [], errors: [], instructors: [], manikins: [] },
+        body: {
+          quarters: ["2026-Q2", "2026-Q1", "2025-Q4", "2025-Q3", "2025-Q2", "2025-Q1"],
+          sites: [],
+          patientTypes: [],
+          feedbackModes: [],
+          errors: [],
+          instructors: [],
+          manikins: [],
+        },
       },
       "PUT /api/settings/chart-baseline": (request) => ({ status: 200, body: { ...(request.body as { baseline: object }).baseline, source: "setting" } }),
     });

@@ -8,7 +8,14 @@ afterEach(cleanup);
 
 function renderForm(unit: "mm" | "in", onSave = vi.fn()) {
   render(
-    <PolicyForm current={{ version: 3, policy: DEFAULT_POLICY }} defaults={DEFAULT_POLICY} fieldSources={POLICY_FIELD_SOURCES} unit={unit} canEdit onSave={onSave} />,
+    <PolicyForm
+      current={{ version: 3, policy: DEFAULT_POLICY }}
+      defaults={DEFAULT_POLICY}
+      fieldSources={POLICY_FIELD_SOURCES}
+      unit={unit}
+      canEdit
+      onSave={onSave}
+    />,
   );
   return onSave;
 }

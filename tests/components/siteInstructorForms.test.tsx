@@ -25,7 +25,10 @@ function renderWithClient(ui: React.ReactNode) {
 describe("site and instructor forms", () => {
   it("checks a site with the shared schema, then shows the server's message beside the code", async () => {
     const server = fakeServer({
-      "POST /api/sites": { status: 409, body: { error: { code: "conflict", message: "A site with the code NORTH-1 already exists.", details: [{ path: "code", message: "Already in use" }] } } },
+      "POST /api/sites": {
+        status: 409,
+        body: { error: { code: "conflict", message: "A site with the code NORTH-1 already exists.", details: [{ path: "code", message: "Already in use" }] } },
+      },
     });
     renderWithClient(<AddSiteForm onDone={() => {}} onCancel={() => {}} />);
     fireEvent.change(screen.getByLabelText("Site code"), { target: { value: "north 1" } });

@@ -23,19 +23,61 @@ const report: SystemReport = systemReportSchema.parse({
     dir: "/srv/quarterbeat/backups",
     filesInDir: 9,
     bytesInDir: 31_000_000,
-    lastVerified: { takenAt: "2026-11-29T03:00:00.000Z", file: "/srv/quarterbeat/backups/quarterbeat-2026-11-29T030000Z.sqlite", sizeBytes: 3_400_000, source: "scheduled", verified: true, message: "Integrity check passed; 8464 rows in 22 tables, each table's count equal to the database's." },
+    lastVerified: {
+      takenAt: "2026-11-29T03:00:00.000Z",
+      file: "/srv/quarterbeat/backups/quarterbeat-2026-11-29T030000Z.sqlite",
+      sizeBytes: 3_400_000,
+      source: "scheduled",
+      verified: true,
+      message: "Integrity check passed; 8464 rows in 22 tables, each table's count equal to the database's.",
+    },
     recent: [
-      { takenAt: "2026-11-30T03:00:00.000Z", file: "/srv/quarterbeat/backups", sizeBytes: 0, source: "scheduled", verified: false, message: "ENOSPC: no space left on device" },
-      { takenAt: "2026-11-29T03:00:00.000Z", file: "/srv/quarterbeat/backups/quarterbeat-2026-11-29T030000Z.sqlite", sizeBytes: 3_400_000, source: "scheduled", verified: true, message: "Integrity check passed; 8464 rows in 22 tables, each table's count equal to the database's." },
+      {
+        takenAt: "2026-11-30T03:00:00.000Z",
+        file: "/srv/quarterbeat/backups",
+        sizeBytes: 0,
+        source: "scheduled",
+        verified: false,
+        message: "ENOSPC: no space left on device",
+      },
+      {
+        takenAt: "2026-11-29T03:00:00.000Z",
+        file: "/srv/quarterbeat/backups/quarterbeat-2026-11-29T030000Z.sqlite",
+        sizeBytes: 3_400_000,
+        source: "scheduled",
+        verified: true,
+        message: "Integrity check passed; 8464 rows in 22 tables, each table's count equal to the database's.",
+      },
     ],
   },
   imports: [
     {
-      id: 12, kind: "attempts", fileName: "wrenmoor-2026-q3-attempts.csv", sha256: "ab", source: "web", status: "applied", userId: 3, userEmail: "coordinator@network.example",
-      rowsRead: 412, inserted: 410, updated: 0, unchanged: 0, rejected: 2, newCodes: null, warnings: null, createdAt: "2026-10-04T10:00:00.000Z", undoneAt: null,
+      id: 12,
+      kind: "attempts",
+      fileName: "wrenmoor-2026-q3-attempts.csv",
+      sha256: "ab",
+      source: "web",
+      status: "applied",
+      userId: 3,
+      userEmail: "coordinator@network.example",
+      rowsRead: 412,
+      inserted: 410,
+      updated: 0,
+      unchanged: 0,
+      rejected: 2,
+      newCodes: null,
+      warnings: null,
+      createdAt: "2026-10-04T10:00:00.000Z",
+      undoneAt: null,
     },
   ],
-  mail: { delivery: "smtp", server: "smtp://mail.network.example:587", reportSends: { sent: 7, failed: 1 }, lastFailure: { at: "2026-10-03T09:00:00.000Z", error: "ECONNREFUSED: connection refused" }, outboxMessages: 0 },
+  mail: {
+    delivery: "smtp",
+    server: "smtp://mail.network.example:587",
+    reportSends: { sent: 7, failed: 1 },
+    lastFailure: { at: "2026-10-03T09:00:00.000Z", error: "ECONNREFUSED: connection refused" },
+    outboxMessages: 0,
+  },
 });
 
 describe("system page", () => {
@@ -48,7 +90,14 @@ describe("system page", () => {
     expect(screen.getByText("3.3 MB")).toBeTruthy();
 
     const growth = screen.getByRole("table", { name: "Stored data per quarter" });
-    const rows = within(growth).getAllByRole("row").slice(1).map((row) => within(row).getAllByRole("cell").map((cell) => cell.textContent));
+    const rows = within(growth)
+      .getAllByRole("row")
+      .slice(1)
+      .map((row) =>
+        within(row)
+          .getAllByRole("cell")
+          .map((cell) => cell.textContent),
+      );
     expect(rows).toEqual([
       ["2026 Q3", "41", "855", "35"],
       ["2026 Q2", "40", "859", "52"],

@@ -25,10 +25,19 @@ describe("error Pareto", { timeout: 30_000 }, () => {
     expect(screen.getByText(/100 errors in 160 attempts/)).toBeTruthy();
     fireEvent.click(screen.getByRole("button", { name: "Show as table" }));
     const table = screen.getByRole("table");
-    const header = within(table).getAllByRole("columnheader").map((c) => c.textContent?.trim());
+    const header = within(table)
+      .getAllByRole("columnheader")
+      .map((c) => c.textContent?.trim());
     const column = header.indexOf("Cumulative share (%)");
     const countColumn = header.indexOf("Attempts with it");
-    const body = within(table).getAllByRole("row").slice(1).map((row) => within(row).getAllByRole("cell").map((c) => c.textContent ?? ""));
+    const body = within(table)
+      .getAllByRole("row")
+      .slice(1)
+      .map((row) =>
+        within(row)
+          .getAllByRole("cell")
+          .map((c) => c.textContent ?? ""),
+      );
 
     expect(body.map((cells) => cells[column])).toEqual(["50.0 %", "80.0 %", "95.0 %", "100.0 %"]);
 

@@ -3,7 +3,15 @@ import { describe, expect, it } from "vitest";
 import { optionsAnswerSchema, type OptionsAnswer } from "../../shared/schemas/insight";
 import { answer, fakeServer, unknownRoute } from "./testServer";
 
-const options: OptionsAnswer = { quarters: ["2026-Q3"], sites: [], patientTypes: ["adult"], feedbackModes: ["live"], errors: [], instructors: [], manikins: [] };
+const options: OptionsAnswer = {
+  quarters: ["2026-Q3"],
+  sites: [],
+  patientTypes: ["adult"],
+  feedbackModes: ["live"],
+  errors: [],
+  instructors: [],
+  manikins: [],
+};
 
 describe("the component tests' fake API", () => {
   it("answers a listed route only for the exact query, and an unlisted one as the server does", async () => {
@@ -18,7 +26,11 @@ describe("the component tests' fake API", () => {
 
   it("records method, path with query, lower-case headers and the JSON body", async () => {
     const server = fakeServer({ "PUT /api/me/alerts": (request) => ({ status: 200, body: request.body }) });
-    const res = await fetch("/api/me/alerts?x=1", { method: "PUT", headers: { "Content-Type": "application/json", "X-CSRF-Token": "t" }, body: JSON.stringify({ kinds: ["drift"] }) });
+    const res = await fetch("/api/me/alerts?x=1", {
+      method: "PUT",
+      headers: { "Content-Type": "application/json", "X-CSRF-Token": "t" },
+      body: JSON.stringify({ kinds: ["drift"] }),
+    });
     expect(res.status).toBe(404); // the query is part of the route
     await fetch("/api/me/alerts", { method: "PUT", headers: { "content-type": "application/json" }, body: JSON.stringify({ kinds: ["shift"] }) });
     expect(server.requests).toEqual([

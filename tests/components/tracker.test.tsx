@@ -17,8 +17,28 @@ const trackerBody: TrackerAnswer = {
   quarter: "2026-Q2",
   unassignedRejectedRows: 2,
   instructors: [
-    { instructorId: 1, code: "A1", name: "Instructor A1", siteCode: "NORTH", active: true, classes: 2, attempts: 18, lastImportAt: "2026-05-03T10:00:00.000Z", rejectedRows: 0 },
-    { instructorId: 2, code: "B1", name: "Instructor B1", siteCode: "SOUTH", active: true, classes: 1, attempts: 0, lastImportAt: "2026-04-20T10:00:00.000Z", rejectedRows: 3 },
+    {
+      instructorId: 1,
+      code: "A1",
+      name: "Instructor A1",
+      siteCode: "NORTH",
+      active: true,
+      classes: 2,
+      attempts: 18,
+      lastImportAt: "2026-05-03T10:00:00.000Z",
+      rejectedRows: 0,
+    },
+    {
+      instructorId: 2,
+      code: "B1",
+      name: "Instructor B1",
+      siteCode: "SOUTH",
+      active: true,
+      classes: 1,
+      attempts: 0,
+      lastImportAt: "2026-04-20T10:00:00.000Z",
+      rejectedRows: 3,
+    },
   ],
 };
 

@@ -77,7 +77,11 @@ describe("upload", () => {
   it("turns a 413 into an ApiError with the server's message", async () => {
     setCsrfToken("token-a");
     ScriptedXhr.answers.push({ status: 413, body: { error: { code: "too_large", message: "The upload is larger than the server accepts." } } });
-    await expect(upload("/api/imports", form())).rejects.toMatchObject({ status: 413, code: "too_large", message: "The upload is larger than the server accepts." });
+    await expect(upload("/api/imports", form())).rejects.toMatchObject({
+      status: 413,
+      code: "too_large",
+      message: "The upload is larger than the server accepts.",
+    });
   });
 
   it("refuses at once when already cancelled", async () => {

@@ -188,7 +188,9 @@ test.describe("coordinator", () => {
     const problems = page.getByRole("table", { name: "Problems found" });
     const problemRows = problems.locator("tbody tr");
     await expect.poll(() => problemRows.count()).toBe(2);
-    const shown = await problemRows.evaluateAll((rows) => rows.map((row) => Array.from(row.querySelectorAll("th, td"), (cell) => (cell.textContent ?? "").trim())));
+    const shown = await problemRows.evaluateAll((rows) =>
+      rows.map((row) => Array.from(row.querySelectorAll("th, td"), (cell) => (cell.textContent ?? "").trim())),
+    );
     expect(shown.map((cells) => cells.slice(0, 2))).toEqual([
       ["3", "rate_cpm"],
       ["7", "learner"],
@@ -242,7 +244,10 @@ test.describe("coordinator", () => {
 
   test("signs in and imports a class log with the keyboard alone", async ({ page, journey }) => {
     // one column under another name, matched with the keyboard
-    const keyboardLog = ["class_id,date,site,instructor,Programme,learners,passed,manikins", `E2E-K-C1,${CLASSES[0].date},${instructor.site},${instructor.code},child,4,3,`].join("\n");
+    const keyboardLog = [
+      "class_id,date,site,instructor,Programme,learners,passed,manikins",
+      `E2E-K-C1,${CLASSES[0].date},${instructor.site},${instructor.code},child,4,3,`,
+    ].join("\n");
 
     await page.goto("/sign-in");
     await tabTo(page, page.getByLabel("E-mail address"));
@@ -299,7 +304,10 @@ test.describe("coordinator", () => {
 
     await tabTo(page, page.getByRole("button", { name: "Validate the file" }));
     await page.keyboard.press("Enter");
-    await page.getByText("All 1 rows can be imported. Nothing has been written yet.").or(page.getByText("All 1 row can be imported. Nothing has been written yet.")).waitFor();
+    await page
+      .getByText("All 1 rows can be imported. Nothing has been written yet.")
+      .or(page.getByText("All 1 row can be imported. Nothing has been written yet."))
+      .waitFor();
     const importButton = page.getByRole("button", { name: "Import 1 row" });
     await tabTo(page, importButton);
     await page.keyboard.press("Enter");
@@ -310,7 +318,11 @@ test.describe("coordinator", () => {
     expect(batches.body.batches[0]).toMatchObject({ fileName: "keyboard-classes.csv", inserted: 1, source: "web" });
   });
 
-  test("previews the report as its PDF, writes a cover note, confirms period and recipients, and sends", async ({ coordinatorPage: page, journey, database }) => {
+  test("previews the report as its PDF, writes a cover note, confirms period and recipients, and sends", async ({
+    coordinatorPage: page,
+    journey,
+    database,
+  }) => {
     const options = await api<{ quarters: string[] }>(page, "/api/insight/options");
     const period = defaultPeriod(options.body.quarters)!;
     await page.goto(`/report?period=${period}`);
@@ -352,7 +364,10 @@ test.describe("coordinator", () => {
     await send.getByText(/was sent to/).waitFor();
     const sends = await api<{ sends: { reportId: number; coverNote: string; recipients: string[]; status: string }[] }>(page, "/api/report-sends");
     expect(sends.body.sends[0]).toMatchObject({ reportId: latest.id, coverNote, recipients: funders, status: "sent" });
-    const messages = database.prepare("SELECT recipients, attachments FROM mailbox WHERE text LIKE ?").all(`%${coverNote.slice(0, 40)}%`) as { recipients: string; attachments: string }[];
+    const messages = database.prepare("SELECT recipients, attachments FROM mailbox WHERE text LIKE ?").all(`%${coverNote.slice(0, 40)}%`) as {
+      recipients: string;
+      attachments: string;
+    }[];
     expect(messages.map((m) => JSON.parse(m.recipients) as string[]).sort()).toEqual(funders.map((f) => [f]).sort());
     for (const m of messages) expect((JSON.parse(m.attachments) as { contentType: string }[]).map((a) => a.contentType)).toContain("application/pdf");
     await journey.visited(page, "report-sent");

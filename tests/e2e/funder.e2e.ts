@@ -42,11 +42,17 @@ test.beforeAll(async ({ browser }) => {
 });
 
 test.describe("funder", () => {
-  test("follows the release notice to the quarter's released report, downloads its PDF, and is refused drafts and every drill-down", async ({ funderPage: page, journey, database }) => {
+  test("follows the release notice to the quarter's released report, downloads its PDF, and is refused drafts and every drill-down", async ({
+    funderPage: page,
+    journey,
+    database,
+  }) => {
     // the release notice: one message to this funder alone, with the report's address
-    const notices = database
-      .prepare("SELECT recipients, subject, text FROM mailbox WHERE subject LIKE '%released' ORDER BY id")
-      .all() as { recipients: string; subject: string; text: string }[];
+    const notices = database.prepare("SELECT recipients, subject, text FROM mailbox WHERE subject LIKE '%released' ORDER BY id").all() as {
+      recipients: string;
+      subject: string;
+      text: string;
+    }[];
     const addressed = (m: { recipients: string }) => (JSON.parse(m.recipients) as string[]).map((a) => a.toLowerCase());
     const mine = notices.filter((m) => addressed(m).includes(funder.email.toLowerCase()));
     expect(mine).toHaveLength(1);
@@ -84,7 +90,11 @@ test.describe("funder", () => {
     }
 
     // a class and an attempt of the network, typed into the address bar
-    const anAttempt = database.prepare("SELECT id, class_id AS classId, learner FROM attempts ORDER BY id LIMIT 1").get() as { id: string; classId: string; learner: string };
+    const anAttempt = database.prepare("SELECT id, class_id AS classId, learner FROM attempts ORDER BY id LIMIT 1").get() as {
+      id: string;
+      classId: string;
+      learner: string;
+    };
     const pages = ["/instructors", "/errors", "/attempts", `/attempts/${anAttempt.id}`, `/classes/${anAttempt.classId}`];
     for (const [i, path] of pages.entries()) {
       await page.goto(path);
@@ -97,7 +107,14 @@ test.describe("funder", () => {
     }
 
     // the API behind those pages refuses the funder too
-    const apiPaths = ["/api/insight/instructors", "/api/insight/errors", "/api/attempts", `/api/attempts/${anAttempt.id}`, `/api/classes/${anAttempt.classId}`, "/api/insight/overview"];
+    const apiPaths = [
+      "/api/insight/instructors",
+      "/api/insight/errors",
+      "/api/attempts",
+      `/api/attempts/${anAttempt.id}`,
+      `/api/classes/${anAttempt.classId}`,
+      "/api/insight/overview",
+    ];
     const statuses = Object.fromEntries(await Promise.all(apiPaths.map(async (path) => [path, (await api(page, path)).status] as const)));
     expect(statuses).toEqual(Object.fromEntries(apiPaths.map((path) => [path, 403])));
     // while the released report's own PDF is open to them; the draft and today's figures are not

@@ -20,8 +20,11 @@ interface OtherClass {
 }
 
 test.describe("instructor", () => {
-  test("finds their medians and percentile against the network, opens their attempts with their commonest error, and cannot open another instructor's class", async ({ instructorPage: page, journey, database }) => {
-
+  test("finds their medians and percentile against the network, opens their attempts with their commonest error, and cannot open another instructor's class", async ({
+    instructorPage: page,
+    journey,
+    database,
+  }) => {
     // My standing is the instructor's start page, on the latest quarter
     await page.waitForURL((url) => url.pathname === "/my-standing" && url.searchParams.get("quarter") === SEED_QUARTER);
     const answer = await api<StandingAnswer>(page, `/api/insight/standing?quarter=${SEED_QUARTER}`);
@@ -46,7 +49,14 @@ test.describe("instructor", () => {
       // mine, the network's median and my percentile among the instructors, as the API reports them
       expect(await textOf(card.locator("p").nth(1).locator("span").first())).toBe(formatMetric(metric.key, metric.mine));
       expect(await textOf(card.locator("p strong"))).toBe(formatMetric(metric.key, metric.network));
-      expect(await textOf(card.locator("p").last())).toBe(percentileSentence(metric.percentileRank, instructors, metric.mine !== null && metric.network !== null ? metric.mine - metric.network : null, standing.funnel.adjust === "case-mix"));
+      expect(await textOf(card.locator("p").last())).toBe(
+        percentileSentence(
+          metric.percentileRank,
+          instructors,
+          metric.mine !== null && metric.network !== null ? metric.mine - metric.network : null,
+          standing.funnel.adjust === "case-mix",
+        ),
+      );
     }
     // the heading names the instructor and the quarter
     await page.getByRole("heading", { name: new RegExp(`^${standing.me.code} · ${standing.me.name}, ${SEED_QUARTER.replace("-", " ")}$`) }).waitFor();
@@ -55,8 +65,13 @@ test.describe("instructor", () => {
     // my most common error, to my own attempts with it, and back
     const commonest = [...standing.errorProfile.rows].filter((r) => r.mine !== null && r.mine > 0).sort((a, b) => b.mine! - a.mine!)[0];
     expect(commonest).toBeDefined();
-    await page.getByRole("navigation", { name: "Open your attempts with an error" }).getByRole("link", { name: errorShortNames[commonest.error], exact: true }).click();
-    await page.waitForURL((url) => url.pathname === "/attempts" && url.searchParams.get("error") === commonest.error && url.searchParams.get("quarter") === SEED_QUARTER);
+    await page
+      .getByRole("navigation", { name: "Open your attempts with an error" })
+      .getByRole("link", { name: errorShortNames[commonest.error], exact: true })
+      .click();
+    await page.waitForURL(
+      (url) => url.pathname === "/attempts" && url.searchParams.get("error") === commonest.error && url.searchParams.get("quarter") === SEED_QUARTER,
+    );
     const mine = await api<AttemptListAnswer>(page, `/api/attempts?quarter=${SEED_QUARTER}&error=${commonest.error}&pageSize=200`);
     expect(mine.status).toBe(200);
     expect(mine.body.total).toBeGreaterThan(0);
@@ -74,7 +89,10 @@ test.describe("instructor", () => {
       )
       .get(instructor.instructor, SEED_QUARTER) as OtherClass;
     expect(other).toBeDefined();
-    const theirAttempts = database.prepare("SELECT id, learner FROM attempts WHERE class_id = ? ORDER BY id").all(other.id) as { id: string; learner: string }[];
+    const theirAttempts = database.prepare("SELECT id, learner FROM attempts WHERE class_id = ? ORDER BY id").all(other.id) as {
+      id: string;
+      learner: string;
+    }[];
     expect(theirAttempts.length).toBeGreaterThan(0);
     // (the instructor's own class table links none of them)
     expect(await page.locator(`a[href^="/classes/${encodeURIComponent(other.id)}"]`).count()).toBe(0);

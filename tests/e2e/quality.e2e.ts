@@ -24,7 +24,10 @@ function picture(figure: Locator): Locator {
 }
 
 test.describe("quality lead", () => {
-  test("goes from the error Pareto to an attempt with a compression stream in three clicks, and back to the same list", async ({ qualityLeadPage: page, journey }) => {
+  test("goes from the error Pareto to an attempt with a compression stream in three clicks, and back to the same list", async ({
+    qualityLeadPage: page,
+    journey,
+  }) => {
     await page.waitForURL((url) => url.pathname === "/overview");
 
     await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Error trends" }).click();
@@ -50,14 +53,18 @@ test.describe("quality lead", () => {
     await page.getByRole("heading", { name: top.label, level: 2 }).waitFor();
     const selected = await api<TechniqueErrorsAnswer>(page, `/api/insight/errors?quarter=${SEED_QUARTER}&error=${top.error}`);
     const withError = selected.body.selected!.byProfile.reduce((sum, row) => sum + row.count, 0);
-    await page.getByText(`${withError} of ${selected.body.selected!.byProfile.reduce((sum, row) => sum + row.attempts, 0)} attempts in the period have this error.`).waitFor();
+    await page
+      .getByText(`${withError} of ${selected.body.selected!.byProfile.reduce((sum, row) => sum + row.attempts, 0)} attempts in the period have this error.`)
+      .waitFor();
     const breakdown = page.getByRole("table", { name: "Attempts with the error by patient type" });
     await breakdown.waitFor();
     await journey.visited(page, "error-breakdown");
 
     // the breakdown's groups lead to their attempts
     const biggest = [...selected.body.selected!.byProfile].sort((a, b) => b.count - a.count)[0];
-    expect(await breakdown.getByRole("link", { name: new RegExp(`^${biggest.count} attempts? with this error, patient type`) }).getAttribute("href")).toContain(`error=${top.error}`);
+    expect(await breakdown.getByRole("link", { name: new RegExp(`^${biggest.count} attempts? with this error, patient type`) }).getAttribute("href")).toContain(
+      `error=${top.error}`,
+    );
 
     // click 2: straight to the attempts with this error that hold a compression stream
     await page.getByRole("link", { name: "Only those with a compression stream" }).click();
@@ -82,14 +89,18 @@ test.describe("quality lead", () => {
     const { attempt, stream } = detail.body;
     expect(stream).not.toBeNull();
     expect(attempt.errors).toContain(top.error);
-    const unit = ((await api<{ user: { lengthUnit: LengthUnit } }>(page, "/api/me")).body.user.lengthUnit);
+    const unit = (await api<{ user: { lengthUnit: LengthUnit } }>(page, "/api/me")).body.user.lengthUnit;
 
     // the pass rule as a checklist: each criterion's value as the API gives it, never rounded onto its pass mark
     const m = attempt.metrics;
     const rule = detail.body.scoring!.passRule;
     const criteria = page.getByRole("list", { name: "Criteria of the pass rule" });
     const criterionFigure = (name: string, label: string) =>
-      criteria.getByRole("listitem").filter({ has: page.getByRole("heading", { name, level: 3 }) }).locator("dt", { hasText: label }).locator("xpath=following-sibling::dd[1]");
+      criteria
+        .getByRole("listitem")
+        .filter({ has: page.getByRole("heading", { name, level: 3 }) })
+        .locator("dt", { hasText: label })
+        .locator("xpath=following-sibling::dd[1]");
     await criteria.waitFor();
     expect(await textOf(criterionFigure("Depth on target", "This attempt"))).toBe(`${besideThreshold(m.depthOkPct, rule.minDepthOkPct)} %`);
     expect(await textOf(criterionFigure("Rate on target", "This attempt"))).toBe(`${besideThreshold(m.rateOkPct, rule.minRateOkPct)} %`);
@@ -98,7 +109,9 @@ test.describe("quality lead", () => {
     expect(await textOf(criterionFigure("Longest pause", "This attempt"))).toBe(`${besideThreshold(m.longestPauseS, rule.maxLongestPauseS, 1)} s`);
     expect(await textOf(criterionFigure("Depth on target", "Pass mark"))).toBe(`at least ${rule.minDepthOkPct} %`);
     // as many criteria missed as the attempt has errors; the composite score only in its modest place
-    expect(await textOf(page.locator("#rule-verdict"))).toBe(attempt.passed ? "Passed: every criterion met" : `Not passed: ${attempt.errors.length} of 5 criteria missed`);
+    expect(await textOf(page.locator("#rule-verdict"))).toBe(
+      attempt.passed ? "Passed: every criterion met" : `Not passed: ${attempt.errors.length} of 5 criteria missed`,
+    );
     expect(await textOf(page.getByRole("region", { name: "Among the network" }))).toContain(`Composite score ${Math.round(attempt.score)} of 100`);
 
     // the compressions: time in the band and the distributions, each compression on demand, each a labelled picture
@@ -111,7 +124,9 @@ test.describe("quality lead", () => {
     await page.getByRole("button", { name: "Show each compression" }).click();
     const depth = chart(page, "Depth of each compression");
     await picture(depth).waitFor();
-    expect(await depth.locator('div[role="img"]').getAttribute("aria-labelledby")).toBe(await depth.getByRole("heading", { name: "Depth of each compression" }).getAttribute("id"));
+    expect(await depth.locator('div[role="img"]').getAttribute("aria-labelledby")).toBe(
+      await depth.getByRole("heading", { name: "Depth of each compression" }).getAttribute("id"),
+    );
     expect(await textOf(depth.locator("p").first())).toContain(`${stream!.compressions} compressions`);
     expect(m.compressions).toBe(stream!.compressions);
     await journey.visited(page, "attempt-each-compression");
@@ -159,7 +174,12 @@ test.describe("quality lead", () => {
     const offset = record.body.drift!.offset_mm!;
     expect(record.body.drift!.flag).toBe("check");
     // the verdict in words with the API's classes and offset, and the class-by-class evidence as a labelled picture
-    await page.getByText(`Check the depth sensor: over ${record.body.drift!.classes} shared classes, ${assetId} reads +${offset.toFixed(1)} mm (deeper) against its peers`, { exact: false }).waitFor();
+    await page
+      .getByText(
+        `Check the depth sensor: over ${record.body.drift!.classes} shared classes, ${assetId} reads +${offset.toFixed(1)} mm (deeper) against its peers`,
+        { exact: false },
+      )
+      .waitFor();
     const evidence = chart(page, `${assetId}: depth against its peers, class by class`);
     await picture(evidence).waitFor();
     await evidence.getByRole("button", { name: "Show as table" }).click();

@@ -70,7 +70,10 @@ export async function waitFor(check: () => boolean, timeoutMs: number, everyMs =
 export function countRows(file: string, sql: string, ...params: unknown[]): number {
   const db = new Database(file, { readonly: true });
   try {
-    return db.prepare(sql).pluck().get(...params) as number;
+    return db
+      .prepare(sql)
+      .pluck()
+      .get(...params) as number;
   } finally {
     db.close();
   }

@@ -88,7 +88,9 @@ describe("restore drill", () => {
 
     // nothing lost: every table, and every attempt column by column
     const counts = tableCounts(backup, []);
-    expect(Object.keys(counts)).toEqual(expect.arrayContaining(["attempts", "classes", "compression_streams", "equipment_events", "users", "__drizzle_migrations"]));
+    expect(Object.keys(counts)).toEqual(
+      expect.arrayContaining(["attempts", "classes", "compression_streams", "equipment_events", "users", "__drizzle_migrations"]),
+    );
     expect(tableCounts(restored, [])).toEqual(counts);
     const checksum = attemptsChecksum(backup);
     expect(checksum.rows).toBe(attemptsBefore + copiedImport);

@@ -62,9 +62,21 @@ function wrap(agent: ReturnType<typeof request.agent>, csrfToken: string): Agent
     agent,
     csrfToken,
     get: (url) => agent.get(url),
-    post: (url, body) => agent.post(url).set("x-csrf-token", self.csrfToken).send(body ?? {}),
-    patch: (url, body) => agent.patch(url).set("x-csrf-token", self.csrfToken).send(body ?? {}),
-    put: (url, body) => agent.put(url).set("x-csrf-token", self.csrfToken).send(body ?? {}),
+    post: (url, body) =>
+      agent
+        .post(url)
+        .set("x-csrf-token", self.csrfToken)
+        .send(body ?? {}),
+    patch: (url, body) =>
+      agent
+        .patch(url)
+        .set("x-csrf-token", self.csrfToken)
+        .send(body ?? {}),
+    put: (url, body) =>
+      agent
+        .put(url)
+        .set("x-csrf-token", self.csrfToken)
+        .send(body ?? {}),
     delete: (url) => agent.delete(url).set("x-csrf-token", self.csrfToken),
   };
   return self;

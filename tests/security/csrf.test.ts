@@ -100,9 +100,7 @@ describe("a request with another session's token", () => {
     const before = rowCounts(db);
     for (const route of routes) {
       const url = fillParams(route.path);
-      const res = await send(
-        request(app)[route.method](url).set("Cookie", `qb.sid=${sid}; qb.csrf=${otherCsrfCookie}`).set("x-csrf-token", other.csrfToken),
-      );
+      const res = await send(request(app)[route.method](url).set("Cookie", `qb.sid=${sid}; qb.csrf=${otherCsrfCookie}`).set("x-csrf-token", other.csrfToken));
       expect(res.status, `${route.method} ${url}`).toBe(403);
       expect(res.body.error?.code, `${route.method} ${url}`).toBe("csrf");
     }

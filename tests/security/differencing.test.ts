@@ -62,7 +62,14 @@ interface Scope {
   manikinId: number | null;
 }
 
-const scopeOfFilters = (f: ResolvedFilters, range: { from: string; to: string } = f.period): Scope => ({ from: range.from, to: range.to, siteId: f.siteId, profile: f.profile, feedback: f.feedback, manikinId: f.manikinId });
+const scopeOfFilters = (f: ResolvedFilters, range: { from: string; to: string } = f.period): Scope => ({
+  from: range.from,
+  to: range.to,
+  siteId: f.siteId,
+  profile: f.profile,
+  feedback: f.feedback,
+  manikinId: f.manikinId,
+});
 
 function cellsIn(truth: Truth, scope: Scope) {
   return truth.cells.filter(
@@ -100,7 +107,13 @@ function figuresOfOverview(answer: OverviewAnswer, f: ResolvedFilters, where: st
     shown.push({ measure: "n", scope: { ...scopeOfFilters(f), feedback: group.mode }, value: group.attempts, where: `${where} feedback=${group.mode}` });
   }
   for (const point of answer.series.points) {
-    if (!point.suppressed) shown.push({ measure: "n", scope: scopeOfFilters(f, { from: point.quarter, to: point.quarter }), value: point.attempts, where: `${where} series ${point.quarter}` });
+    if (!point.suppressed)
+      shown.push({
+        measure: "n",
+        scope: scopeOfFilters(f, { from: point.quarter, to: point.quarter }),
+        value: point.attempts,
+        where: `${where} series ${point.quarter}`,
+      });
   }
   if (!answer.agreement.suppressed) shown.push({ measure: "judged", scope: scopeOfFilters(f), value: answer.agreement.pairs, where: `${where} agreement` });
   return shown;
@@ -147,7 +160,8 @@ function enumerate(db: Db, viewer: Viewer, withStanding: boolean): Enumeration {
     for (const site of sites) for (const profile of profiles) for (const feedback of feedbacks) ask({ ...period, site, profile, feedback });
   }
   for (const manikin of options.manikins) {
-    for (const quarter of options.quarters) for (const profile of profiles) for (const feedback of feedbacks) ask({ quarter, manikin: manikin.assetId, profile, feedback });
+    for (const quarter of options.quarters)
+      for (const profile of profiles) for (const feedback of feedbacks) ask({ quarter, manikin: manikin.assetId, profile, feedback });
   }
   return { figures, questions };
 }
@@ -177,7 +191,12 @@ async function equipmentFigures(agent: Agent, quarters: readonly string[]): Prom
     for (const m of answer.fleet) {
       for (const u of m.usage) {
         if (u.attempts === null) continue;
-        figures.push({ measure: "n", scope: { from: u.quarter, to: u.quarter, siteId: null, profile: null, feedback: null, manikinId: m.id }, value: u.attempts, where: `equipment ${m.assetId} ${u.quarter}` });
+        figures.push({
+          measure: "n",
+          scope: { from: u.quarter, to: u.quarter, siteId: null, profile: null, feedback: null, manikinId: m.id },
+          value: u.attempts,
+          where: `equipment ${m.assetId} ${u.quarter}`,
+        });
       }
     }
   }
@@ -196,7 +215,9 @@ function ruleOf(db: Db): SafetyRule {
 function truthCellsFor(truth: Truth, viewer: Viewer, measure: Measure): TruthCell[] {
   return truth.cells.map((cell) => ({
     key: cell.key,
-    others: new Map([...cell.byInstructor].filter(([id, counts]) => id !== viewer.ownInstructorId && counts[measure] > 0).map(([id, counts]) => [id, counts[measure]])),
+    others: new Map(
+      [...cell.byInstructor].filter(([id, counts]) => id !== viewer.ownInstructorId && counts[measure] > 0).map(([id, counts]) => [id, counts[measure]]),
+    ),
   }));
 }
 
@@ -238,24 +259,52 @@ async function plantNetwork(): Promise<Planted> {
   const { north } = net.sites;
   const { a1, b1, c1, d1 } = net.instructors;
   const manikin = (assetId: string, siteId: number) =>
-    db.$client.prepare("INSERT INTO manikins (asset_id, patient_type, site_id, in_service_since) VALUES (?, 'child', ?, '2024-01-01') RETURNING id").get(assetId, siteId) as { id: number };
+    db.$client
+      .prepare("INSERT INTO manikins (asset_id, patient_type, site_id, in_service_since) VALUES (?, 'child', ?, '2024-01-01') RETURNING id")
+      .get(assetId, siteId) as { id: number };
   const mkN3 = manikin("MK-N3", north.id).id;
   const mkN4 = manikin("MK-N4", north.id).id;
   const q = "2026-Q2";
   const pass: Spec = ["pass", 85];
   const shallow: Spec = ["shallow", 70];
   const klass = (id: string, instructorId: number, manikinId: number, specs: { spec: Spec; feedback: "live" | "hidden" }[]) =>
-    insertClass(db, { id, date: "2026-05-25", quarter: q, siteId: north.id, instructorId, course: "child", profile: "child", learners: specs.length, passed: 0, manikinId, attempts: specs });
+    insertClass(db, {
+      id,
+      date: "2026-05-25",
+      quarter: q,
+      siteId: north.id,
+      instructorId,
+      course: "child",
+      profile: "child",
+      learners: specs.length,
+      passed: 0,
+      manikinId,
+      attempts: specs,
+    });
   const live = (specs: Spec[]) => specs.map((spec) => ({ spec, feedback: "live" as const }));
   // NORTH child, live: A1 4, B1 5, D1 4 (13 attempts, 7 passed); hidden: C1 alone, 3 attempts, 2 passed
   klass("P-A1", a1.id, mkN3, live([pass, pass, shallow, shallow]));
   klass("P-B1", b1.id, mkN3, live([pass, pass, pass, shallow, shallow]));
   klass("P-D1", d1.id, mkN3, live([pass, pass, shallow, shallow]));
-  klass("P-C1", c1.id, mkN3, [pass, pass, shallow].map((spec) => ({ spec, feedback: "hidden" as const })));
+  klass(
+    "P-C1",
+    c1.id,
+    mkN3,
+    [pass, pass, shallow].map((spec) => ({ spec, feedback: "hidden" as const })),
+  );
   // MK-N4: eleven attempts, all C1's, in 2025-Q4 (a "network" of one colleague)
   insertClass(db, {
-    id: "P-C1-N4", date: "2025-11-20", quarter: "2025-Q4", siteId: north.id, instructorId: c1.id, course: "child", profile: "child",
-    learners: 11, passed: 0, manikinId: mkN4, attempts: live(Array.from({ length: 11 }, () => shallow)),
+    id: "P-C1-N4",
+    date: "2025-11-20",
+    quarter: "2025-Q4",
+    siteId: north.id,
+    instructorId: c1.id,
+    course: "child",
+    profile: "child",
+    learners: 11,
+    passed: 0,
+    manikinId: mkN4,
+    attempts: live(Array.from({ length: 11 }, () => shallow)),
   });
   const app = makeTestApp(db);
   return {
@@ -263,7 +312,11 @@ async function plantNetwork(): Promise<Planted> {
     net,
     mkN3,
     mkN4,
-    agents: { instructor: await signIn(app, "a1@test.example"), coordinator: await signIn(app, "coord@test.example"), funder: await signIn(app, "funder@test.example") },
+    agents: {
+      instructor: await signIn(app, "a1@test.example"),
+      coordinator: await signIn(app, "coord@test.example"),
+      funder: await signIn(app, "funder@test.example"),
+    },
   };
 }
 
@@ -278,7 +331,8 @@ describe("the planted small cells", () => {
     const { db } = planted;
     const truth = truthOf(db);
     const viewer = viewerFor(db, planted.net.users.instructor.id);
-    const others = (scope: Scope) => cellsIn(truth, scope).reduce((sum, c) => sum + [...c.byInstructor].filter(([id]) => id !== viewer.ownInstructorId).reduce((s, [, v]) => s + v.n, 0), 0);
+    const others = (scope: Scope) =>
+      cellsIn(truth, scope).reduce((sum, c) => sum + [...c.byInstructor].filter(([id]) => id !== viewer.ownInstructorId).reduce((s, [, v]) => s + v.n, 0), 0);
     const north = planted.net.sites.north.id;
     const asked: Scope[] = [
       { from: "2026-Q2", to: "2026-Q2", siteId: north, profile: "child", feedback: null, manikinId: null },
@@ -309,14 +363,16 @@ describe("the planted small cells", () => {
   });
 
   it("hides the child figures at NORTH that subtraction used to reveal, and keeps the site whole", async () => {
-    const get = async (query: string) => (await planted.agents.instructor.get(`/api/insight/overview?quarter=2026-Q2&site=NORTH&${query}`).expect(200)).body as OverviewAnswer;
+    const get = async (query: string) =>
+      (await planted.agents.instructor.get(`/api/insight/overview?quarter=2026-Q2&site=NORTH&${query}`).expect(200)).body as OverviewAnswer;
     const child = await get("profile=child");
     const childLive = await get("profile=child&feedback=live");
     // never both: one of them minus the other would be C1's 3 hidden-display attempts
     expect(child.suppressed && childLive.suppressed).toBe(true);
     expect(childLive.passRate).toEqual({ successes: null, n: null, rate: null, low: null, high: null, suppressed: true });
     // the coordinator sees both
-    const coordinator = (await planted.agents.coordinator.get("/api/insight/overview?quarter=2026-Q2&site=NORTH&profile=child&feedback=live").expect(200)).body as OverviewAnswer;
+    const coordinator = (await planted.agents.coordinator.get("/api/insight/overview?quarter=2026-Q2&site=NORTH&profile=child&feedback=live").expect(200))
+      .body as OverviewAnswer;
     expect(coordinator).toMatchObject({ suppressed: false, attempts: 13, passRate: { successes: 7 } });
   });
 });
@@ -327,7 +383,10 @@ describe("a group of one colleague", () => {
     expect(res.body).toMatchObject({ suppressed: true, attempts: null, medianScore: null });
     expect(res.body.agreement).toMatchObject({ suppressed: true, table: null });
     // 11 attempts: the count rule alone would show them; the coordinator does see them
-    expect((await planted.agents.coordinator.get("/api/insight/overview?quarter=2025-Q4&manikin=MK-N4").expect(200)).body).toMatchObject({ suppressed: false, attempts: 11 });
+    expect((await planted.agents.coordinator.get("/api/insight/overview?quarter=2025-Q4&manikin=MK-N4").expect(200)).body).toMatchObject({
+      suppressed: false,
+      attempts: 11,
+    });
   });
 
   it("shows no standing point that is one colleague", async () => {
@@ -380,7 +439,10 @@ describe("the manikin filter", () => {
 describe("the demo network", () => {
   let db: Db;
   let truth: Truth;
-  const instructorsOf = (count: number) => buildDirectory(DEMO_SCENARIO).accounts.filter((a) => a.role === "instructor").slice(0, count);
+  const instructorsOf = (count: number) =>
+    buildDirectory(DEMO_SCENARIO)
+      .accounts.filter((a) => a.role === "instructor")
+      .slice(0, count);
 
   beforeAll(async () => {
     db = openDatabase(tempDbFile("qb-differencing"));
@@ -389,7 +451,12 @@ describe("the demo network", () => {
   }, 180_000);
   afterAll(() => db.$client.close());
 
-  const idOf = (email: string) => db.select({ id: users.id }).from(users).where(sql`${users.email} = ${email}`).get()!.id;
+  const idOf = (email: string) =>
+    db
+      .select({ id: users.id })
+      .from(users)
+      .where(sql`${users.email} = ${email}`)
+      .get()!.id;
 
   it("gives two demo instructors nothing to solve for over every overview and equipment question", async () => {
     const app = makeTestApp(db);
@@ -414,4 +481,3 @@ describe("the demo network", () => {
     expect(attack(db, truth, viewer, figures)).toEqual([]);
   }, 300_000);
 });
-

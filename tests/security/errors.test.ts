@@ -91,8 +91,18 @@ describe("odd multipart forms", () => {
   const post = () => coordinator.agent.post("/api/imports/uploads").set("x-csrf-token", coordinator.csrfToken);
 
   it.each([
-    { label: "two files", send: () => post().field("kind", "classes").attach("file", csv, { filename: "a.csv", contentType: "text/csv" }).attach("file", csv, { filename: "b.csv", contentType: "text/csv" }) },
-    { label: "a file under another field name", send: () => post().field("kind", "classes").attach("upload", csv, { filename: "a.csv", contentType: "text/csv" }) },
+    {
+      label: "two files",
+      send: () =>
+        post()
+          .field("kind", "classes")
+          .attach("file", csv, { filename: "a.csv", contentType: "text/csv" })
+          .attach("file", csv, { filename: "b.csv", contentType: "text/csv" }),
+    },
+    {
+      label: "a file under another field name",
+      send: () => post().field("kind", "classes").attach("upload", csv, { filename: "a.csv", contentType: "text/csv" }),
+    },
     {
       label: "too many fields",
       send: () => {
@@ -103,7 +113,12 @@ describe("odd multipart forms", () => {
     },
     {
       label: "a form cut off in the middle",
-      send: () => post().set("content-type", "multipart/form-data; boundary=XYZ").send('--XYZ\r\nContent-Disposition: form-data; name="kind"\r\n\r\nclasses\r\n--XYZ\r\nContent-Disposition: form-data; name="file"; filename="a.csv"\r\nContent-Type: text/csv\r\n\r\nclass_id,da'),
+      send: () =>
+        post()
+          .set("content-type", "multipart/form-data; boundary=XYZ")
+          .send(
+            '--XYZ\r\nContent-Disposition: form-data; name="kind"\r\n\r\nclasses\r\n--XYZ\r\nContent-Disposition: form-data; name="file"; filename="a.csv"\r\nContent-Type: text/csv\r\n\r\nclass_id,da',
+          ),
     },
     { label: "a multipart type without a boundary", send: () => post().set("content-type", "multipart/form-data").send("garbage") },
     { label: "no form at all", send: () => post().send({ kind: "classes" }) },
@@ -132,7 +147,13 @@ describe("a failure inside the server", () => {
       // the server's log has what the answer leaves out: SQLite's own message, at level error (the failure comes
       // while the session is read, before any route matched)
       expect(logged).toHaveLength(1);
-      expect(JSON.parse(logged[0])).toMatchObject({ level: 50, method: "GET", route: null, status: 500, err: { message: expect.stringMatching(/no such table: instructors/) } });
+      expect(JSON.parse(logged[0])).toMatchObject({
+        level: 50,
+        method: "GET",
+        route: null,
+        status: 500,
+        err: { message: expect.stringMatching(/no such table: instructors/) },
+      });
     } finally {
       broken.$client.close();
     }

@@ -105,7 +105,10 @@ function expectNoLeak(text: string, label: string) {
 
 describe("the injection table", () => {
   it("names the query parameters of every GET route the routers serve", () => {
-    const gets = routes.filter((r) => r.method === "get").map((r) => r.path).sort();
+    const gets = routes
+      .filter((r) => r.method === "get")
+      .map((r) => r.path)
+      .sort();
     expect(gets).toEqual(Object.keys(QUERY_KEYS).sort());
   });
 });

@@ -107,7 +107,9 @@ describe("formulas in CSV downloads", () => {
     `class_id,date,site,instructor,course,learners,passed,manikins\n${classId},2026-05-04,${site},A1,${course},6,5,\n`;
 
   it("neutralises formula cells in a job's refused-rows CSV", async () => {
-    const text = classLog("C-FORM-1", `"${FORMULA.replaceAll('"', '""')}"`) + `C-FORM-2,2026-05-04,+NORTH,A1,adult,6,5,\nC-FORM-3,2026-05-04,@SUM(A1),A1,adult,6,5,\nC-FORM-4,2026-05-04,NORTH,A1,adult,-6,5,\n`;
+    const text =
+      classLog("C-FORM-1", `"${FORMULA.replaceAll('"', '""')}"`) +
+      `C-FORM-2,2026-05-04,+NORTH,A1,adult,6,5,\nC-FORM-3,2026-05-04,@SUM(A1),A1,adult,6,5,\nC-FORM-4,2026-05-04,NORTH,A1,adult,-6,5,\n`;
     const up = await uploadText("classes", text);
     const job = await runJob(up.body.upload.id, "validate");
     expect(job.summary.status).toBe("refused");
@@ -135,14 +137,18 @@ describe("formulas in CSV downloads", () => {
   });
 
   it("neutralises formula text in the report CSV writer (shared/csv.ts)", () => {
-    const text = toCsv(["section", "item", "value"], [
-      ["errors", FORMULA, 3],
-      ["errors", "+1 call", -2],
-      ["errors", "-2 cmd|' /C calc'!A0", null],
-      ["errors", "@SUM(A1:A2)", 0],
-      ["errors", "\t=1+1", 1],
-      ["errors", MARKUP, 1],
-    ], SPREADSHEET_CSV);
+    const text = toCsv(
+      ["section", "item", "value"],
+      [
+        ["errors", FORMULA, 3],
+        ["errors", "+1 call", -2],
+        ["errors", "-2 cmd|' /C calc'!A0", null],
+        ["errors", "@SUM(A1:A2)", 0],
+        ["errors", "\t=1+1", 1],
+        ["errors", MARKUP, 1],
+      ],
+      SPREADSHEET_CSV,
+    );
     const rows = parseCsv(text);
     expectNoFormulaCells(rows.map((r) => r.slice(0, 2)));
     expect(rows[1][1]).toBe(`'${FORMULA}`);
@@ -162,11 +168,14 @@ describe("the report", () => {
     expect(preview.body.report.errors.actions).toBe(note);
 
     const generated = await coordinator.post("/api/reports/2026-Q2").expect(201);
-    const pdf = await coordinator.get(`/api/reports/${generated.body.report.id}/pdf`).buffer(true).parse((res, done) => {
-      const chunks: Buffer[] = [];
-      res.on("data", (c: Buffer) => chunks.push(c));
-      res.on("end", () => done(null, Buffer.concat(chunks)));
-    });
+    const pdf = await coordinator
+      .get(`/api/reports/${generated.body.report.id}/pdf`)
+      .buffer(true)
+      .parse((res, done) => {
+        const chunks: Buffer[] = [];
+        res.on("data", (c: Buffer) => chunks.push(c));
+        res.on("end", () => done(null, Buffer.concat(chunks)));
+      });
     expect(pdf.status).toBe(200);
     expect(pdf.headers["content-type"]).toMatch(/^application\/pdf/);
     expect(pdf.headers["content-disposition"]).toMatch(/^attachment/);

@@ -37,7 +37,9 @@ function truthOf(db: Db): Truth {
   const truth: Truth = new Map();
   const add = (key: string, n: number) => truth.set(key, (truth.get(key) ?? 0) + n);
   const attemptRows = db.$client
-    .prepare("SELECT quarter, profile, feedback, error_mask AS mask, instructor_result IS NOT NULL AS judged, count(*) AS n FROM attempts GROUP BY 1, 2, 3, 4, 5")
+    .prepare(
+      "SELECT quarter, profile, feedback, error_mask AS mask, instructor_result IS NOT NULL AS judged, count(*) AS n FROM attempts GROUP BY 1, 2, 3, 4, 5",
+    )
     .all() as { quarter: string; profile: string; feedback: string; mask: number; judged: number; n: number }[];
   for (const row of attemptRows) {
     add(`attempts|${row.quarter}|${row.profile}|${row.feedback}`, row.n);
@@ -108,7 +110,13 @@ function figuresOf(data: ReportData, truth: Truth): Shown[] {
   // a share of all errors gives that total away: count ÷ share
   const withShare = data.errors.rows.find((row) => row.share !== null && row.share > 0 && row.count.value !== null);
   if (withShare) {
-    shown.push({ measure: "errors", cells: cellsOf(truth, "errors", q), value: Math.round(withShare.count.value! / withShare.share!), hidden: null, where: `${data.period} errors total` });
+    shown.push({
+      measure: "errors",
+      cells: cellsOf(truth, "errors", q),
+      value: Math.round(withShare.count.value! / withShare.share!),
+      hidden: null,
+      where: `${data.period} errors total`,
+    });
   }
   put(data.errors.attemptsWithErrors, "withErrors", q, "attempts with errors");
   put(data.reach.classes, "classes", q, "classes");
@@ -168,7 +176,9 @@ function attack(truth: Truth, figures: readonly Shown[], smallFrom = 1) {
 
 /** Every period the family releases: each quarter with classes or attempts, and each of their years. */
 function familyPeriods(db: Db): string[] {
-  const quarters = (db.$client.prepare("SELECT quarter FROM classes UNION SELECT quarter FROM attempts ORDER BY 1").all() as { quarter: string }[]).map((r) => r.quarter);
+  const quarters = (db.$client.prepare("SELECT quarter FROM classes UNION SELECT quarter FROM attempts ORDER BY 1").all() as { quarter: string }[]).map(
+    (r) => r.quarter,
+  );
   return [...quarters, ...new Set(quarters.map((quarter) => quarter.slice(0, 4)))];
 }
 
@@ -260,7 +270,12 @@ async function plantNetwork() {
   klass("2026-Q1", "2026-02-11", "child", [pass, pass, shallow, shallow, pass, shallow]);
   klass("2026-Q3", "2026-08-12", "child", [pass, shallow, shallow, pass]);
   klass("2026-Q3", "2026-08-13", "infant", [pass, pass, shallow, shallow, pass, shallow]);
-  klass("2026-Q3", "2026-08-14", "adult", Array.from({ length: 30 }, (_, i) => (i % 3 ? pass : shallow)));
+  klass(
+    "2026-Q3",
+    "2026-08-14",
+    "adult",
+    Array.from({ length: 30 }, (_, i) => (i % 3 ? pass : shallow)),
+  );
   const app = makeTestApp(db);
   /** More class logs without attempts, as a later import brings them. */
   const addClasses = (quarter: string, date: string, course: "child" | "adult", count: number) => {

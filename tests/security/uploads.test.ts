@@ -18,7 +18,10 @@ let uploadDir: string;
 let workDir: string;
 
 function listFiles(dir: string): string[] {
-  return fs.readdirSync(dir, { recursive: true, withFileTypes: true }).filter((e) => e.isFile()).map((e) => path.join(e.parentPath, e.name));
+  return fs
+    .readdirSync(dir, { recursive: true, withFileTypes: true })
+    .filter((e) => e.isFile())
+    .map((e) => path.join(e.parentPath, e.name));
 }
 
 beforeAll(async () => {

@@ -65,7 +65,16 @@ describe("csvField", () => {
 
 describe("records and documents", () => {
   it("ends every record with CRLF (RFC 4180), the last one included", () => {
-    expect(toCsv(["Code", "Share"], [["N-1", 0.5], ["=evil()", -1]], SPREADSHEET_CSV)).toBe("Code,Share\r\nN-1,0.5\r\n'=evil(),-1\r\n");
+    expect(
+      toCsv(
+        ["Code", "Share"],
+        [
+          ["N-1", 0.5],
+          ["=evil()", -1],
+        ],
+        SPREADSHEET_CSV,
+      ),
+    ).toBe("Code,Share\r\nN-1,0.5\r\n'=evil(),-1\r\n");
     expect(csvLine(["=cmd()", "-0.5", "a,b", 'say "hi"', "@x", " pad", "ok"], SPREADSHEET_CSV)).toBe(`'=cmd(),-0.5,"a,b","say ""hi""",'@x," pad",ok\r\n`);
     expect(csvRecord(["a", 1, null], IMPORT_FILE_CSV)).toBe("a,1,");
   });

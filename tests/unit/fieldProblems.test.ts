@@ -13,7 +13,12 @@ describe("fieldProblems", () => {
   });
 
   it("files nested paths under their top-level field and path-less problems under 'form'", () => {
-    expect(fieldProblems([{ path: "address.street", message: "Too long" }, { path: "", message: "Whole form" }])).toEqual({
+    expect(
+      fieldProblems([
+        { path: "address.street", message: "Too long" },
+        { path: "", message: "Whole form" },
+      ]),
+    ).toEqual({
       address: "Too long",
       form: "Whole form",
     });

@@ -43,7 +43,14 @@ describe("quarters", () => {
 
   it("puts each month in its calendar quarter, at both edges of every quarter", () => {
     expect(["2026-01-01", "2026-03-31", "2026-04-01", "2026-06-30", "2026-07-01", "2026-09-30", "2026-10-01", "2026-12-31"].map(quarterOf)).toEqual([
-      "2026-Q1", "2026-Q1", "2026-Q2", "2026-Q2", "2026-Q3", "2026-Q3", "2026-Q4", "2026-Q4",
+      "2026-Q1",
+      "2026-Q1",
+      "2026-Q2",
+      "2026-Q2",
+      "2026-Q3",
+      "2026-Q3",
+      "2026-Q4",
+      "2026-Q4",
     ]);
     expect(() => quarterOf("2026-13-01")).toThrow(/no month 13/);
     expect(() => quarterOf("1 July 2026")).toThrow(/use the form 2026-07-14/);

@@ -35,7 +35,13 @@ export default function ActionDetailPage() {
           <PageHeader
             title={detail.data.action.title}
             description={`${aimFigureName(detail.data.action.aim)} · ${scopeLabel(detail.data.action)}`}
-            actions={detail.data.mayManage ? <Button variant="secondary" onClick={() => setEditing(true)}>Change</Button> : undefined}
+            actions={
+              detail.data.mayManage ? (
+                <Button variant="secondary" onClick={() => setEditing(true)}>
+                  Change
+                </Button>
+              ) : undefined
+            }
           />
           <dl className="mb-8 grid gap-3 sm:grid-cols-3">
             {[

@@ -102,7 +102,9 @@ function RunChart({ action, evaluation }: { action: ActionRow; evaluation: Evalu
 
 export function ActionEvaluation({ action, evaluation }: { action: ActionRow; evaluation: Evaluation | null }) {
   if (!evaluation) {
-    return <p className="text-small text-muted">The figures of this scope include small groups of other instructors' attempts, so they are not shown to you.</p>;
+    return (
+      <p className="text-small text-muted">The figures of this scope include small groups of other instructors' attempts, so they are not shown to you.</p>
+    );
   }
   const wanted = aimGoesUp(action.aim) ? "at or above" : "at or below";
   return (
@@ -129,8 +131,8 @@ export function ActionEvaluation({ action, evaluation }: { action: ActionRow; ev
         </div>
       </dl>
       <p className="text-small text-muted">
-        Quarters are the finest period the figures are kept for. The start falls in {quarterLabel(evaluation.startQuarter)}; that quarter counts on
-        neither side unless the action starts on its first day. The baseline is up to four quarters before it.
+        Quarters are the finest period the figures are kept for. The start falls in {quarterLabel(evaluation.startQuarter)}; that quarter counts on neither side
+        unless the action starts on its first day. The baseline is up to four quarters before it.
       </p>
       <p className="text-small">{runChartText(evaluation)}</p>
       <RunChart action={action} evaluation={evaluation} />

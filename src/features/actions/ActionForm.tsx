@@ -59,7 +59,9 @@ export function ActionForm({ action, onDone, onCancel, today = new Date().toISOS
   const form = useSchemaForm<NewAction, Values>(newActionSchema, valuesOf(action, today));
   const values = form.watch();
   const fieldErrors = form.formState.errors;
-  const errors = Object.fromEntries(Object.entries(fieldErrors).map(([name, error]) => [name, error?.message as string | undefined])) as Partial<Record<keyof Values, string>>;
+  const errors = Object.fromEntries(Object.entries(fieldErrors).map(([name, error]) => [name, error?.message as string | undefined])) as Partial<
+    Record<keyof Values, string>
+  >;
   const formError = fieldErrors.root?.server?.message ?? null;
   const setValue = <K extends keyof Values & string>(name: K, value: Values[K]): void =>
     form.setValue(name, value as never, { shouldValidate: form.formState.isSubmitted, shouldDirty: true });
@@ -74,7 +76,9 @@ export function ActionForm({ action, onDone, onCancel, today = new Date().toISOS
     else create.mutate(values, done);
   });
 
-  const siteOptions = (sites.data ?? []).filter((site) => site.active || site.id === values.siteId).map((site) => ({ value: String(site.id), label: `${site.code} · ${site.name}` }));
+  const siteOptions = (sites.data ?? [])
+    .filter((site) => site.active || site.id === values.siteId)
+    .map((site) => ({ value: String(site.id), label: `${site.code} · ${site.name}` }));
   const aim = values.aim;
 
   return (
@@ -107,7 +111,13 @@ export function ActionForm({ action, onDone, onCancel, today = new Date().toISOS
         min={0}
         max={100}
         step="any"
-        hint={aim === "" ? "A percentage from 0 to 100." : aimGoesUp(aim) ? "Reached when the figure is at or above this." : "Reached when the figure is at or below this."}
+        hint={
+          aim === ""
+            ? "A percentage from 0 to 100."
+            : aimGoesUp(aim)
+              ? "Reached when the figure is at or above this."
+              : "Reached when the figure is at or below this."
+        }
         value={values.target === null ? "" : String(values.target)}
         onChange={(event) => setValue("target", event.target.value === "" ? null : Number(event.target.value))}
         error={errors.target}

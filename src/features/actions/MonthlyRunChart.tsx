@@ -79,7 +79,12 @@ function MonthlyPlot({ action, chart }: { action: ActionRow; chart: Answer }) {
         },
         y: { domain: [0, shareAxisTop(points.map((p) => p.rate))], tickFormat: percentTick, label: aimFigureName(action.aim), grid: true },
         marks: [
-          Plot.tickY(centres, { x: "period", y: "median", stroke: (c: (typeof centres)[number]) => (c.phase === "after" ? ink.accentDark : ink.main), strokeWidth: 2 }),
+          Plot.tickY(centres, {
+            x: "period",
+            y: "median",
+            stroke: (c: (typeof centres)[number]) => (c.phase === "after" ? ink.accentDark : ink.main),
+            strokeWidth: 2,
+          }),
           points.some((p) => p.period === startMonth) ? Plot.ruleX([startMonth], { stroke: ink.limit, strokeDasharray: "4 3" }) : null,
           Plot.line(points, { x: "period", y: "rate", stroke: ink.soft, strokeWidth: 1.5 }),
           Plot.dot(points, {
@@ -89,7 +94,8 @@ function MonthlyPlot({ action, chart }: { action: ActionRow; chart: Answer }) {
             symbol: (p: MonthPoint) => (p.phase === "after" ? "diamond" : p.phase === "transition" ? "square" : "circle"),
             fill: (p: MonthPoint) => (p.phase === "after" ? ink.accent : ink.main),
             stroke: ink.text,
-            title: (p: MonthPoint) => `${formatMonth(p.period)} (${p.phase ? phaseNames[p.phase] : ""}): ${formatPercent(p.rate)}, ${formatCount(p.x)} of ${formatCount(p.n)}`,
+            title: (p: MonthPoint) =>
+              `${formatMonth(p.period)} (${p.phase ? phaseNames[p.phase] : ""}): ${formatPercent(p.rate)}, ${formatCount(p.x)} of ${formatCount(p.n)}`,
           }),
         ],
       };
@@ -126,7 +132,11 @@ export function MonthlyRunChart({ action }: { action: ActionRow }) {
   if (monthly.isError) return <ErrorState error={monthly.error} title="The months could not be loaded" onRetry={() => monthly.refetch()} />;
   const chart = monthly.data;
   if (!chart) {
-    return <p className="text-small text-muted">Months are finer than the figures shared with instructors, so the monthly chart is shown for your own actions only.</p>;
+    return (
+      <p className="text-small text-muted">
+        Months are finer than the figures shared with instructors, so the monthly chart is shown for your own actions only.
+      </p>
+    );
   }
   if (chart.points.length === 0) return <p className="text-small text-muted">No month of this scope has attempts yet.</p>;
   return (
@@ -136,9 +146,9 @@ export function MonthlyRunChart({ action }: { action: ActionRow }) {
       </p>
       <MonthlyPlot action={action} chart={chart} />
       <p className="text-small text-muted">
-        One point per calendar month of the class date. The line through each part is the median of that part alone: the months before the start and
-        the months after it are summarised separately, so a change of level shows as a step. The start&apos;s own month counts on neither side unless the
-        action starts on its first day. The run-chart rules (Anhøj &amp; Olesen, 2014) judge the months after the start against the median before it.
+        One point per calendar month of the class date. The line through each part is the median of that part alone: the months before the start and the months
+        after it are summarised separately, so a change of level shows as a step. The start&apos;s own month counts on neither side unless the action starts on
+        its first day. The run-chart rules (Anhøj &amp; Olesen, 2014) judge the months after the start against the median before it.
       </p>
     </div>
   );

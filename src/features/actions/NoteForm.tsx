@@ -14,14 +14,23 @@ export function NoteForm({ actionId, today = new Date().toISOString().slice(0, 1
   const values = form.watch();
   const errors = { date: form.formState.errors.date?.message, text: form.formState.errors.text?.message };
   const formError = form.formState.errors.root?.server?.message ?? null;
-  const setValue = (name: "date" | "text", value: string): void => form.setValue(name, value, { shouldValidate: form.formState.isSubmitted, shouldDirty: true });
+  const setValue = (name: "date" | "text", value: string): void =>
+    form.setValue(name, value, { shouldValidate: form.formState.isSubmitted, shouldDirty: true });
   const submit = form.handleSubmit((note) =>
     add.mutate({ actionId, note }, { onSuccess: () => form.reset({ date: note.date, text: "" }), onError: (error) => showServerError(form, error) }),
   );
   return (
     <form noValidate onSubmit={submit} className="flex flex-col gap-3">
       {formError && <Notice tone="error">{formError}</Notice>}
-      <Input label="Date" name="date" type="date" value={values.date} onChange={(event) => setValue("date", event.target.value)} error={errors.date} className="max-w-xs" />
+      <Input
+        label="Date"
+        name="date"
+        type="date"
+        value={values.date}
+        onChange={(event) => setValue("date", event.target.value)}
+        error={errors.date}
+        className="max-w-xs"
+      />
       <div className="flex flex-col gap-1">
         <label htmlFor={id} className="text-small font-semibold text-ink">
           Note

@@ -59,8 +59,18 @@ function AlertChoiceForm({ initial, isDefault }: { initial: AlertChoice["kinds"]
         {!seesEveryone && <p className="mb-1 text-small text-muted">Only signals about you and your own site reach you.</p>}
         {isDefault && <p className="mb-1 text-small text-muted">These are your role's usual alerts until you save a choice.</p>}
         {alertKinds.map((kind) => (
-          <label key={kind} className="flex min-h-11 cursor-pointer items-start gap-3 rounded-control border border-line px-3 py-2 has-checked:border-dusk-600 has-checked:bg-dusk-50">
-            <input type="checkbox" value={kind} {...form.register("kinds")} aria-labelledby={`alert-kind-${kind}-label`} aria-describedby={`alert-kind-${kind}`} className="mt-1 size-4 accent-dusk-700" />
+          <label
+            key={kind}
+            className="flex min-h-11 cursor-pointer items-start gap-3 rounded-control border border-line px-3 py-2 has-checked:border-dusk-600 has-checked:bg-dusk-50"
+          >
+            <input
+              type="checkbox"
+              value={kind}
+              {...form.register("kinds")}
+              aria-labelledby={`alert-kind-${kind}-label`}
+              aria-describedby={`alert-kind-${kind}`}
+              className="mt-1 size-4 accent-dusk-700"
+            />
             <span className="flex flex-col">
               <span id={`alert-kind-${kind}-label`} className="font-medium">
                 {alertKindLabels[kind]}

@@ -13,7 +13,17 @@ export function AlertHistoryTable({ rows, caption, showRecipients }: { rows: rea
     { key: "sent", header: "Sent", value: (r) => r.sentAt, render: (r) => formatDateTime(r.sentAt), sortLabels: { asc: "oldest first", desc: "newest first" } },
     { key: "kind", header: "Kind", value: (r) => alertKindLabels[r.kind], wrap: true },
     { key: "summary", header: "What it said", value: (r) => r.summary, primary: true, wrap: true },
-    ...(showRecipients ? [{ key: "recipients", header: "People", align: "right" as const, value: (r: Row) => r.recipients ?? 0, render: (r: Row) => formatCount(r.recipients ?? 0) }] : []),
+    ...(showRecipients
+      ? [
+          {
+            key: "recipients",
+            header: "People",
+            align: "right" as const,
+            value: (r: Row) => r.recipients ?? 0,
+            render: (r: Row) => formatCount(r.recipients ?? 0),
+          },
+        ]
+      : []),
     {
       key: "link",
       header: "Page",

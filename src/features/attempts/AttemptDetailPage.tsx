@@ -112,7 +112,9 @@ function AttemptView({ answer }: { answer: AttemptDetailAnswer }) {
       "Instructor’s result",
       <>
         {attempt.instructorResult === null ? "Not recorded" : attempt.instructorResult === "pass" ? "Pass" : "Fail"}
-        {attempt.instructorResult !== null && (attempt.instructorResult === "pass") !== attempt.passed && <span className="font-normal text-muted"> (differs from the measurement)</span>}
+        {attempt.instructorResult !== null && (attempt.instructorResult === "pass") !== attempt.passed && (
+          <span className="font-normal text-muted"> (differs from the measurement)</span>
+        )}
       </>,
     ],
   ];
@@ -147,14 +149,17 @@ function AttemptView({ answer }: { answer: AttemptDetailAnswer }) {
           <SafetyNote compact />
           {!judged && (
             <p>
-              {m.compressions === 0 ? "No compressions were recorded" : "Only one compression was recorded; at least two are needed to judge the rate"}, so the attempt cannot pass whatever its shares.
+              {m.compressions === 0 ? "No compressions were recorded" : "Only one compression was recorded; at least two are needed to judge the rate"}, so the
+              attempt cannot pass whatever its shares.
             </p>
           )}
           {scoring ? (
             <PassRuleChecklist attempt={attempt} rule={scoring.passRule} band={band} placement={placement} unit={unit} />
           ) : (
             <>
-              <Notice tone="info">Policy version {attempt.policyVersion}, which scored this attempt, is no longer stored, so its pass marks cannot be shown. The errors it found:</Notice>
+              <Notice tone="info">
+                Policy version {attempt.policyVersion}, which scored this attempt, is no longer stored, so its pass marks cannot be shown. The errors it found:
+              </Notice>
               <ul className="list-disc pl-5">
                 {answer.errorLabels.length === 0 ? <li>None</li> : answer.errorLabels.map((e) => <li key={e.error}>{e.label}</li>)}
               </ul>
@@ -194,7 +199,8 @@ function AttemptView({ answer }: { answer: AttemptDetailAnswer }) {
           </h2>
           {stream && series && !agreesWithStored(series, attempt.metrics) && (
             <Notice tone="info">
-              The pass rule above reads the figures measured when the attempt was imported; these charts class each compression against the band of policy version {attempt.policyVersion}, which scored it later. Where the two bands differ, the counts here differ from the figures above.
+              The pass rule above reads the figures measured when the attempt was imported; these charts class each compression against the band of policy
+              version {attempt.policyVersion}, which scored it later. Where the two bands differ, the counts here differ from the figures above.
             </Notice>
           )}
           {stream && series ? (
@@ -204,7 +210,11 @@ function AttemptView({ answer }: { answer: AttemptDetailAnswer }) {
               unit={unit}
               pauseThresholdS={pauseLimits.pauseThresholdS}
               longPauseLimitS={pauseLimits.longPauseLimitS}
-              pauseNote={scoring ? `Both limits are those of policy version ${attempt.policyVersion}.` : "Policy version " + attempt.policyVersion + " is no longer stored; the project defaults are used here."}
+              pauseNote={
+                scoring
+                  ? `Both limits are those of policy version ${attempt.policyVersion}.`
+                  : "Policy version " + attempt.policyVersion + " is no longer stored; the project defaults are used here."
+              }
             />
           ) : (
             <EmptyState title="No compression stream for this attempt">
@@ -222,9 +232,18 @@ function AttemptView({ answer }: { answer: AttemptDetailAnswer }) {
           ) : (
             <>
               <p className="text-small text-muted">
-                Now: version {attempt.policyVersion}, score {Math.round(attempt.score)}, {attempt.passed ? "passed" : "not passed"}. Earlier scores, kept when the attempt was scored again under a newer policy:
+                Now: version {attempt.policyVersion}, score {Math.round(attempt.score)}, {attempt.passed ? "passed" : "not passed"}. Earlier scores, kept when
+                the attempt was scored again under a newer policy:
               </p>
-              <DataTable caption="Earlier scores" captionHidden columns={historyColumns} rows={answer.scoreHistory} rowKey={(h) => h.policyVersion} filterable={false} exportFileName={`attempt-${attempt.id}-score-history`} />
+              <DataTable
+                caption="Earlier scores"
+                captionHidden
+                columns={historyColumns}
+                rows={answer.scoreHistory}
+                rowKey={(h) => h.policyVersion}
+                filterable={false}
+                exportFileName={`attempt-${attempt.id}-score-history`}
+              />
             </>
           )}
         </section>

@@ -50,12 +50,25 @@ export function AttemptSearchFields({ values, onSearch }: { values: SearchValues
           onChange={(event) => setDraft({ ...draft, learner: event.target.value })}
         />
         <label className="inline-flex min-h-8 items-center gap-2 text-small">
-          <input type="checkbox" className="size-4" checked={draft.learnerPrefix} onChange={(event) => setDraft({ ...draft, learnerPrefix: event.target.checked })} />
+          <input
+            type="checkbox"
+            className="size-4"
+            checked={draft.learnerPrefix}
+            onChange={(event) => setDraft({ ...draft, learnerPrefix: event.target.checked })}
+          />
           Codes that start with this
         </label>
       </div>
       <div className="flex min-w-[min(100%,12rem)] flex-col gap-1 self-start">
-        <Input label="Class" optional value={draft.classId} error={errors.classId} autoComplete="off" spellCheck={false} onChange={(event) => setDraft({ ...draft, classId: event.target.value })} />
+        <Input
+          label="Class"
+          optional
+          value={draft.classId}
+          error={errors.classId}
+          autoComplete="off"
+          spellCheck={false}
+          onChange={(event) => setDraft({ ...draft, classId: event.target.value })}
+        />
       </div>
       {/* the label's height, so the buttons line up with the boxes */}
       <div className="flex gap-2 sm:pt-7">

@@ -15,15 +15,7 @@ import { FilterBar, useFilterValues, type FilterDefinition } from "../../compone
 import { PageHeader } from "../../components/PageHeader";
 import { EmptyState, ErrorState, LoadingState } from "../../components/States";
 import { attemptColumns, type AttemptColumn } from "./attemptColumns";
-import {
-  attemptColumnKeys,
-  attemptSearchQuery,
-  columnsParam,
-  nextSort,
-  PAGE_SIZE,
-  readAttemptListState,
-  withChanges,
-} from "./attemptListState";
+import { attemptColumnKeys, attemptSearchQuery, columnsParam, nextSort, PAGE_SIZE, readAttemptListState, withChanges } from "./attemptListState";
 import { AttemptSearchFields, type SearchValues } from "./AttemptSearchFields";
 import { AttemptsTable } from "./AttemptsTable";
 import { ColumnChooser } from "./ColumnChooser";
@@ -115,7 +107,8 @@ function AttemptList({ state }: { state: InsightFilterState }) {
 
   const update = (changes: Record<string, string | null>) => setParams((previous) => withChanges(previous, changes));
   const sortBy = (key: AttemptSortKey) => update(nextSort(list, key));
-  const searchFor = (next: SearchValues) => update({ learner: next.learner, learnerMatch: next.learner && next.learnerPrefix ? "prefix" : null, class: next.classId });
+  const searchFor = (next: SearchValues) =>
+    update({ learner: next.learner, learnerMatch: next.learner && next.learnerPrefix ? "prefix" : null, class: next.classId });
   function goTo(page: number) {
     update({ page: page <= 1 ? null : String(page) });
     window.scrollTo?.({ top: 0 });
@@ -162,7 +155,14 @@ function AttemptList({ state }: { state: InsightFilterState }) {
             className="inline-flex min-h-11 items-center gap-2 rounded-control border border-line-strong bg-surface px-4 font-medium text-dusk-800 hover:bg-dusk-50"
           >
             <svg viewBox="0 0 20 20" className="size-4" aria-hidden="true">
-              <path d="M10 3v9m0 0-3.5-3.5M10 12l3.5-3.5M4 14v2.5h12V14" fill="none" stroke="currentColor" strokeWidth="1.8" strokeLinecap="round" strokeLinejoin="round" />
+              <path
+                d="M10 3v9m0 0-3.5-3.5M10 12l3.5-3.5M4 14v2.5h12V14"
+                fill="none"
+                stroke="currentColor"
+                strokeWidth="1.8"
+                strokeLinecap="round"
+                strokeLinejoin="round"
+              />
             </svg>
             Export CSV of all {formatCount(total)} attempts
           </a>
@@ -175,7 +175,14 @@ function AttemptList({ state }: { state: InsightFilterState }) {
       ) : total === 0 ? (
         <EmptyState title="No attempts match these filters">Choose another period, clear a filter or change the search.</EmptyState>
       ) : list.page > pages ? (
-        <EmptyState title={`There is no page ${list.page}`} action={<Button variant="secondary" onClick={() => goTo(1)}>Go to the first page</Button>}>
+        <EmptyState
+          title={`There is no page ${list.page}`}
+          action={
+            <Button variant="secondary" onClick={() => goTo(1)}>
+              Go to the first page
+            </Button>
+          }
+        >
           These filters give {total} attempts on {pages} page{pages === 1 ? "" : "s"}.
         </EmptyState>
       ) : (
@@ -196,7 +203,8 @@ function AttemptList({ state }: { state: InsightFilterState }) {
             caption="Attempts"
           />
           <p className="text-caption text-muted">
-            Sorting, the filters and the CSV cover every matching attempt, not only this page. Depth is in {unit} as set on your account page; the CSV gives it in mm.
+            Sorting, the filters and the CSV cover every matching attempt, not only this page. Depth is in {unit} as set on your account page; the CSV gives it
+            in mm.
           </p>
           {pages > 1 && <div className="flex justify-end">{pager("below the list")}</div>}
         </div>

@@ -40,7 +40,12 @@ function WideTable({ rows, columns, sort, dir, onSort, from, caption }: Attempts
   const idActive = sort === "id";
   const stickyCell = "sticky left-0 z-10 bg-surface pl-4 pr-3 shadow-[1px_0_0_rgba(0,0,0,0.1)]";
   return (
-    <div className="relative hidden overflow-x-auto rounded-card border border-line bg-surface shadow-card sm:block" role="region" aria-label={caption} tabIndex={0}>
+    <div
+      className="relative hidden overflow-x-auto rounded-card border border-line bg-surface shadow-card sm:block"
+      role="region"
+      aria-label={caption}
+      tabIndex={0}
+    >
       <table className="w-full border-collapse text-left text-small">
         <caption className="sr-only">{caption}</caption>
         <thead>
@@ -51,7 +56,12 @@ function WideTable({ rows, columns, sort, dir, onSort, from, caption }: Attempts
             {columns.map((column) => {
               const active = sort === column.key;
               return (
-                <th key={column.key} scope="col" aria-sort={ariaSort(active, dir)} className={clsx("px-3 py-2 font-semibold text-muted last:pr-4", column.numeric && "text-right")}>
+                <th
+                  key={column.key}
+                  scope="col"
+                  aria-sort={ariaSort(active, dir)}
+                  className={clsx("px-3 py-2 font-semibold text-muted last:pr-4", column.numeric && "text-right")}
+                >
                   <SortButton label={column.header} active={active} dir={dir} numeric={column.numeric} onClick={() => onSort(column.key)} />
                 </th>
               );
@@ -67,7 +77,13 @@ function WideTable({ rows, columns, sort, dir, onSort, from, caption }: Attempts
                 </Link>
               </th>
               {columns.map((column) => (
-                <td key={column.key} className={clsx("px-3 py-2 align-middle last:pr-4 group-hover:bg-paper", column.numeric ? "text-right tabular-nums whitespace-nowrap" : column.key === "errors" ? "min-w-32" : "whitespace-nowrap")}>
+                <td
+                  key={column.key}
+                  className={clsx(
+                    "px-3 py-2 align-middle last:pr-4 group-hover:bg-paper",
+                    column.numeric ? "text-right tabular-nums whitespace-nowrap" : column.key === "errors" ? "min-w-32" : "whitespace-nowrap",
+                  )}
+                >
                   {column.cell(a)}
                 </td>
               ))}
@@ -81,7 +97,11 @@ function WideTable({ rows, columns, sort, dir, onSort, from, caption }: Attempts
 
 function SortButton({ label, active, dir, numeric, onClick }: { label: string; active: boolean; dir: SortDirection; numeric?: boolean; onClick: () => void }) {
   return (
-    <button type="button" onClick={onClick} className={clsx("inline-flex items-end gap-1 rounded-sm text-balance hover:text-ink", active && "text-ink", numeric && "flex-row-reverse text-right")}>
+    <button
+      type="button"
+      onClick={onClick}
+      className={clsx("inline-flex items-end gap-1 rounded-sm text-balance hover:text-ink", active && "text-ink", numeric && "flex-row-reverse text-right")}
+    >
       {label}
       <svg viewBox="0 0 10 14" className="mb-0.5 h-3.5 w-2.5 shrink-0" aria-hidden="true">
         <path d="M5 1 9 5.5H1z" fill="currentColor" opacity={active && dir === "asc" ? 1 : 0.3} />

@@ -19,7 +19,11 @@ const depthStatus: Record<DepthClass, TargetStatus> = { too_shallow: "too_low", 
 const rateStatus: Record<RateClass, TargetStatus> = { too_slow: "too_low", on_target: "on_target", too_fast: "too_high" };
 
 const statusDomain: TargetStatus[] = ["too_low", "on_target", "too_high"];
-const colour = { type: "categorical" as const, domain: statusDomain, range: [statusColours.tooLow.mark, statusColours.onTarget.mark, statusColours.tooHigh.mark] };
+const colour = {
+  type: "categorical" as const,
+  domain: statusDomain,
+  range: [statusColours.tooLow.mark, statusColours.onTarget.mark, statusColours.tooHigh.mark],
+};
 const symbol = { domain: statusDomain, range: ["triangle", "circle", "triangle"] };
 const rotateFor = (s: TargetStatus) => (s === "too_low" ? 180 : 0);
 
@@ -192,7 +196,8 @@ export function CompressionCharts({ series, band, unit, pauseThresholdS, longPau
             r: width < 500 ? 2.6 : 3.4,
             stroke: "white",
             strokeWidth: 0.5,
-            title: (p: CompressionPoint) => `#${p.index} at ${seconds(p.t)}: ${len(p.releaseMm)} still pressed, ${p.recoilFull ? "full recoil" : "incomplete recoil"}`,
+            title: (p: CompressionPoint) =>
+              `#${p.index} at ${seconds(p.t)}: ${len(p.releaseMm)} still pressed, ${p.recoilFull ? "full recoil" : "incomplete recoil"}`,
           }),
         ],
       };
@@ -205,7 +210,12 @@ export function CompressionCharts({ series, band, unit, pauseThresholdS, longPau
       { key: "index", header: "Compression", value: (p) => p.index, align: "right" },
       { key: "t", header: "Time (s)", value: (p) => Number(p.t.toFixed(2)), align: "right" },
       { key: "depth", header: `Depth (${unit})`, value: (p) => Number(fromMm(p.depthMm, unit).toFixed(unit === "in" ? 2 : 1)), align: "right" },
-      { key: "class", header: "Depth class", value: (p) => depthClassLabels[p.depthClass], render: (p) => <ClassCell status={depthStatus[p.depthClass]} label={depthClassLabels[p.depthClass]} /> },
+      {
+        key: "class",
+        header: "Depth class",
+        value: (p) => depthClassLabels[p.depthClass],
+        render: (p) => <ClassCell status={depthStatus[p.depthClass]} label={depthClassLabels[p.depthClass]} />,
+      },
     ],
     [unit],
   );
@@ -214,13 +224,23 @@ export function CompressionCharts({ series, band, unit, pauseThresholdS, longPau
     { key: "t", header: "Time (s)", value: (p) => Number(p.t.toFixed(2)), align: "right" },
     { key: "interval", header: "Interval (ms)", value: (p) => p.intervalMs, align: "right" },
     { key: "rate", header: "Rate (per minute)", value: (p) => (p.rate === null ? null : Math.round(p.rate)), align: "right" },
-    { key: "class", header: "Rate class", value: (p) => rateClassLabels[p.rateClass!], render: (p) => <ClassCell status={rateStatus[p.rateClass!]} label={rateClassLabels[p.rateClass!]} /> },
+    {
+      key: "class",
+      header: "Rate class",
+      value: (p) => rateClassLabels[p.rateClass!],
+      render: (p) => <ClassCell status={rateStatus[p.rateClass!]} label={rateClassLabels[p.rateClass!]} />,
+    },
   ];
   const recoilColumns: Column<CompressionPoint>[] = [
     { key: "index", header: "Compression", value: (p) => p.index, align: "right" },
     { key: "t", header: "Time (s)", value: (p) => Number(p.t.toFixed(2)), align: "right" },
     { key: "release", header: `Still pressed (${unit})`, value: (p) => Number(fromMm(p.releaseMm, unit).toFixed(unit === "in" ? 2 : 1)), align: "right" },
-    { key: "recoil", header: "Recoil", value: (p) => (p.recoilFull ? "Full" : "Incomplete"), render: (p) => <ClassCell status={p.recoilFull ? "on_target" : "too_high"} label={p.recoilFull ? "Full" : "Incomplete"} /> },
+    {
+      key: "recoil",
+      header: "Recoil",
+      value: (p) => (p.recoilFull ? "Full" : "Incomplete"),
+      render: (p) => <ClassCell status={p.recoilFull ? "on_target" : "too_high"} label={p.recoilFull ? "Full" : "Incomplete"} />,
+    },
   ];
   const pauseColumns: Column<PauseSpan>[] = [
     { key: "start", header: "From (s)", value: (p) => Number(p.start.toFixed(2)), align: "right" },
@@ -306,7 +326,16 @@ export function CompressionCharts({ series, band, unit, pauseThresholdS, longPau
         {pauses.length === 0 ? (
           <p>No pauses in this attempt.</p>
         ) : (
-          <DataTable caption="Pauses" captionHidden columns={pauseColumns} rows={pauses} rowKey={(p) => p.before} filterable={false} exportFileName="compression-pauses" phoneLayout="scroll" />
+          <DataTable
+            caption="Pauses"
+            captionHidden
+            columns={pauseColumns}
+            rows={pauses}
+            rowKey={(p) => p.before}
+            filterable={false}
+            exportFileName="compression-pauses"
+            phoneLayout="scroll"
+          />
         )}
       </section>
     </div>

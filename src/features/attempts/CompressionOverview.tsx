@@ -76,14 +76,22 @@ export function CompressionOverview({ series, band, unit, pauseThresholdS, longP
   const { segments, shares } = useMemo(() => ribbon(series), [series]);
 
   const depthBins = useMemo(
-    () => distribution(points.map((p) => ({ value: p.depthMm, cls: p.depthClass === "too_shallow" ? "low" : p.depthClass === "too_deep" ? "high" : "on" })), 1, 0, Number.POSITIVE_INFINITY),
+    () =>
+      distribution(
+        points.map((p) => ({ value: p.depthMm, cls: p.depthClass === "too_shallow" ? "low" : p.depthClass === "too_deep" ? "high" : "on" })),
+        1,
+        0,
+        Number.POSITIVE_INFINITY,
+      ),
     [points],
   );
   // rates beyond 40–220 per minute (a stray double tap) go into the outermost bins, so the band stays readable
   const rateBins = useMemo(
     () =>
       distribution(
-        points.filter((p) => p.rate !== null).map((p) => ({ value: p.rate!, cls: p.rateClass === "too_slow" ? "low" : p.rateClass === "too_fast" ? "high" : "on" })),
+        points
+          .filter((p) => p.rate !== null)
+          .map((p) => ({ value: p.rate!, cls: p.rateClass === "too_slow" ? "low" : p.rateClass === "too_fast" ? "high" : "on" })),
         5,
         40,
         220,
@@ -121,7 +129,10 @@ export function CompressionOverview({ series, band, unit, pauseThresholdS, longP
             fill: (s: RibbonSegment) => fills[s.cls],
             title: (s: RibbonSegment) => `#${s.index}: ${laneNames[s.lane].toLowerCase()} ${classWords[s.lane][s.cls]}`,
           }),
-          Plot.ruleY([0, 1, 2].map((row) => row + laneHeight / 2), { stroke: "white", strokeOpacity: 0.6, strokeWidth: 0.5 }),
+          Plot.ruleY(
+            [0, 1, 2].map((row) => row + laneHeight / 2),
+            { stroke: "white", strokeOpacity: 0.6, strokeWidth: 0.5 },
+          ),
           Plot.text(pauses, {
             x: (p: (typeof pauses)[number]) => (p.start + p.end) / 2,
             y: 2 + laneHeight,
@@ -140,7 +151,9 @@ export function CompressionOverview({ series, band, unit, pauseThresholdS, longP
   const histogram = useCallback(
     (toAxis: (v: number) => number, bandLow: number, bandHigh: number, label: string, height: number) =>
       (bins: readonly DistributionBin[]): Plot.PlotOptions => {
-        const stacked = bins.flatMap((b) => (["low", "on", "high"] as const).filter((cls) => b[cls] > 0).map((cls) => ({ x1: toAxis(b.from), x2: toAxis(b.to), cls, count: b[cls] })));
+        const stacked = bins.flatMap((b) =>
+          (["low", "on", "high"] as const).filter((cls) => b[cls] > 0).map((cls) => ({ x1: toAxis(b.from), x2: toAxis(b.to), cls, count: b[cls] })),
+        );
         return {
           height,
           marginTop: Y_TITLE_MARGIN_TOP,
@@ -149,7 +162,13 @@ export function CompressionOverview({ series, band, unit, pauseThresholdS, longP
           x: { label, ...X_TITLE_BELOW },
           y: { label: "Compressions", grid: true },
           marks: [
-            Plot.rect([0], { x1: toAxis(bandLow), x2: toAxis(bandHigh), y1: 0, y2: Math.max(1, ...bins.map((b) => b.low + b.on + b.high)), fill: statusColours.onTarget.tint }),
+            Plot.rect([0], {
+              x1: toAxis(bandLow),
+              x2: toAxis(bandHigh),
+              y1: 0,
+              y2: Math.max(1, ...bins.map((b) => b.low + b.on + b.high)),
+              fill: statusColours.onTarget.tint,
+            }),
             Plot.rectY(stacked, { x1: "x1", x2: "x2", y: "count", fill: (d: (typeof stacked)[number]) => fills[d.cls], inset: 0.5 }),
             Plot.ruleX([toAxis(bandLow), toAxis(bandHigh)], { stroke: statusColours.onTarget.text, strokeWidth: 1.5, strokeDasharray: "4 3" }),
             Plot.ruleY([0]),
@@ -238,7 +257,14 @@ export function CompressionOverview({ series, band, unit, pauseThresholdS, longP
         </button>
         <div id={eachId} hidden={!eachShown}>
           {eachShown && (
-            <CompressionCharts series={series} band={band} unit={unit} pauseThresholdS={pauseThresholdS} longPauseLimitS={longPauseLimitS} pauseNote={pauseNote} />
+            <CompressionCharts
+              series={series}
+              band={band}
+              unit={unit}
+              pauseThresholdS={pauseThresholdS}
+              longPauseLimitS={longPauseLimitS}
+              pauseNote={pauseNote}
+            />
           )}
         </div>
       </div>
@@ -247,5 +273,9 @@ export function CompressionOverview({ series, band, unit, pauseThresholdS, longP
 }
 
 function BarLegend({ words }: { words: Record<BandClass, string> }) {
-  return <ChartLegend items={[{ label: "Target band", swatch: bandSwatch }, ...(["low", "on", "high"] as const).map((cls) => ({ label: words[cls], swatch: laneSwatch(cls) }))]} />;
+  return (
+    <ChartLegend
+      items={[{ label: "Target band", swatch: bandSwatch }, ...(["low", "on", "high"] as const).map((cls) => ({ label: words[cls], swatch: laneSwatch(cls) }))]}
+    />
+  );
 }

@@ -35,8 +35,8 @@ export function NetworkPlacement({ placement, score }: NetworkPlacementProps) {
       ) : (
         <>
           <p>
-            Its score is at the <strong className="tabular-nums">{ordinal(Math.round(p))} percentile</strong> of the network’s{" "}
-            {formatCount(placement.attempts)} {group}: higher than {p.toFixed(1)} % of them, ties counted half.
+            Its score is at the <strong className="tabular-nums">{ordinal(Math.round(p))} percentile</strong> of the network’s {formatCount(placement.attempts)}{" "}
+            {group}: higher than {p.toFixed(1)} % of them, ties counted half.
           </p>
           <PercentileTrack percentile={p} />
           <p className="flex justify-between text-caption text-muted" aria-hidden="true">

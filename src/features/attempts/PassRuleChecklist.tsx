@@ -33,7 +33,9 @@ const splitWords: Partial<Record<CriterionKey, [string, string]>> = {
 function whatItCounts(key: CriterionKey, band: Band | null, unit: LengthUnit): string {
   switch (key) {
     case "depth":
-      return band ? `Share of compressions ${formatLength(band.depthMinMm, unit)} to ${formatLength(band.depthMaxMm, unit)} deep` : "Share of compressions in the depth band";
+      return band
+        ? `Share of compressions ${formatLength(band.depthMinMm, unit)} to ${formatLength(band.depthMaxMm, unit)} deep`
+        : "Share of compressions in the depth band";
     case "rate":
       return band ? `Share of compressions at ${band.rateMin}–${band.rateMax} per minute` : "Share of compressions in the rate band";
     case "recoil":

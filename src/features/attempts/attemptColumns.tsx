@@ -35,7 +35,12 @@ export function ErrorNames({ errors, none = "None" }: { errors: AttemptRow["erro
 export function attemptColumns(unit: LengthUnit, formatLength: (mm: number) => string): Record<AttemptColumnKey, AttemptColumn> {
   const words = attemptFieldNames;
   return {
-    startedAt: { key: "startedAt", header: words.startedAt, cell: (a) => formatRecordedDateTime(a.startedAt), sortLabels: { asc: "oldest first", desc: "newest first" } },
+    startedAt: {
+      key: "startedAt",
+      header: words.startedAt,
+      cell: (a) => formatRecordedDateTime(a.startedAt),
+      sortLabels: { asc: "oldest first", desc: "newest first" },
+    },
     learner: { key: "learner", header: words.learner, cell: (a) => <span className="font-mono">{a.learner}</span> },
     class: {
       key: "class",
@@ -51,14 +56,24 @@ export function attemptColumns(unit: LengthUnit, formatLength: (mm: number) => s
     manikin: { key: "manikin", header: words.manikin, cell: (a) => a.manikin?.assetId ?? muted("not recorded") },
     profile: { key: "profile", header: words.profile, cell: (a) => patientTypeNames[a.profile] },
     feedback: { key: "feedback", header: words.feedback, cell: (a) => feedbackNames[a.feedback] },
-    passed: { key: "passed", header: words.passed, cell: (a) => <ResultBadge passed={a.passed} />, sortLabels: { asc: "not passed first", desc: "passed first" } },
+    passed: {
+      key: "passed",
+      header: words.passed,
+      cell: (a) => <ResultBadge passed={a.passed} />,
+      sortLabels: { asc: "not passed first", desc: "passed first" },
+    },
     instructorResult: {
       key: "instructorResult",
       header: words.instructorResult,
       cell: (a) => (a.instructorResult === null ? muted("not recorded") : a.instructorResult === "pass" ? resultNames.passed : resultNames.notPassed),
       sortLabels: { asc: "not passed first", desc: "passed first" },
     },
-    errors: { key: "errors", header: words.errors, cell: (a) => <ErrorNames errors={a.errors} />, sortLabels: { asc: "none first", desc: "by first error, none last" } },
+    errors: {
+      key: "errors",
+      header: words.errors,
+      cell: (a) => <ErrorNames errors={a.errors} />,
+      sortLabels: { asc: "none first", desc: "by first error, none last" },
+    },
     score: { key: "score", header: words.score, cell: (a) => whole(a.score), numeric: true },
     stream: { key: "stream", header: words.stream, cell: (a) => (a.hasStream ? "Yes" : muted("No")), sortLabels: { asc: "without first", desc: "with first" } },
     depth: { key: "depth", header: `${words.depth} (${unit})`, cell: (a) => formatLength(a.metrics.depthMm), numeric: true },

@@ -32,7 +32,11 @@ export function readAttemptListState(params: URLSearchParams): AttemptListState 
   const sortParam = params.get("sort");
   const sort = isSortKey(sortParam) ? sortParam : "startedAt";
   const dirParam = params.get("dir");
-  const dir: SortDirection = (sortDirections as readonly string[]).includes(dirParam ?? "") ? (dirParam as SortDirection) : isSortKey(sortParam) ? "asc" : "desc";
+  const dir: SortDirection = (sortDirections as readonly string[]).includes(dirParam ?? "")
+    ? (dirParam as SortDirection)
+    : isSortKey(sortParam)
+      ? "asc"
+      : "desc";
   const page = Number.parseInt(params.get("page") ?? "1", 10);
   const chosen = params.get("cols");
   const named = chosen === null ? null : new Set(chosen.split(",").filter(isColumnKey));

@@ -65,7 +65,10 @@ function laneClass(p: CompressionPoint, lane: Lane): BandClass | null {
 
 /** The median interval between compressions outside pauses, in seconds (0.55 s, about 110/min, if none). */
 function typicalInterval(points: readonly CompressionPoint[]): number {
-  const intervals = points.filter((p) => p.rate !== null).map((p) => p.intervalMs! / 1000).sort((a, b) => a - b);
+  const intervals = points
+    .filter((p) => p.rate !== null)
+    .map((p) => p.intervalMs! / 1000)
+    .sort((a, b) => a - b);
   return intervals.length === 0 ? 0.55 : intervals[Math.floor(intervals.length / 2)];
 }
 

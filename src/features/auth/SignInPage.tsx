@@ -77,13 +77,9 @@ export default function SignInPage() {
               {signIn.isPending ? "Signing in…" : "Sign in"}
             </Button>
           </FormShell>
-          <p className="mt-6 text-small text-muted">
-            Forgotten your password? Ask your regional coordinator to set a temporary one.
-          </p>
+          <p className="mt-6 text-small text-muted">Forgotten your password? Ask your regional coordinator to set a temporary one.</p>
         </div>
-        <p className="mt-6 text-center text-caption text-muted">
-          Quarterbeat is a training-quality tool, not a medical device.
-        </p>
+        <p className="mt-6 text-center text-caption text-muted">Quarterbeat is a training-quality tool, not a medical device.</p>
       </main>
     </div>
   );

@@ -13,7 +13,15 @@ export const attentionKindLabels: Record<Item["kind"], string> = {
   mouthpiece_cleaning: "Too few mouthpiece cleans",
 };
 
-export function AttentionList({ items, linkClasses, manikinHref }: { items: readonly Item[]; linkClasses: boolean; manikinHref?: (assetId: string) => string }) {
+export function AttentionList({
+  items,
+  linkClasses,
+  manikinHref,
+}: {
+  items: readonly Item[];
+  linkClasses: boolean;
+  manikinHref?: (assetId: string) => string;
+}) {
   const columns: Column<Item & { key: string }>[] = [
     { key: "kind", header: "What", value: (i) => attentionKindLabels[i.kind], primary: true },
     {
@@ -41,5 +49,14 @@ export function AttentionList({ items, linkClasses, manikinHref }: { items: read
     { key: "reason", header: "Reason", value: (i) => i.reason, wrap: true },
   ];
   const rows = items.map((item, index) => ({ ...item, key: `${item.kind}|${item.manikin?.id ?? item.classId ?? index}|${index}` }));
-  return <DataTable caption="Due for attention" columns={columns} rows={rows} rowKey={(i) => i.key} exportFileName="equipment-attention" emptyMessage="Nothing needs attention." />;
+  return (
+    <DataTable
+      caption="Due for attention"
+      columns={columns}
+      rows={rows}
+      rowKey={(i) => i.key}
+      exportFileName="equipment-attention"
+      emptyMessage="Nothing needs attention."
+    />
+  );
 }

@@ -26,7 +26,13 @@ export function intervalMm(ci: [number, number] | null): string {
 }
 
 const columns = (manikinHref: ((assetId: string) => string) | null): Column<ManikinDriftRow>[] => [
-  { key: "manikin", header: "Asset id", value: (m) => m.manikin, primary: true, render: (m) => <ManikinLink assetId={m.manikin} href={manikinHref?.(m.manikin) ?? null} /> },
+  {
+    key: "manikin",
+    header: "Asset id",
+    value: (m) => m.manikin,
+    primary: true,
+    render: (m) => <ManikinLink assetId={m.manikin} href={manikinHref?.(m.manikin) ?? null} />,
+  },
   { key: "profile", header: "Patient type", value: (m) => patientTypeNames[m.profile] },
   { key: "site", header: "Site", value: (m) => m.site },
   { key: "classes", header: "Shared classes", value: (m) => m.classes, align: "right" },
@@ -55,7 +61,13 @@ function differencesPlot(offset: number | null) {
     marks: [
       Plot.ruleY([0], { stroke: ink.text }),
       ...(offset === null ? [] : [Plot.ruleY([offset], { stroke: ink.main, strokeDasharray: "4 3" })]),
-      Plot.dot(data as Difference[], { x: (d: Difference) => new Date(`${d.date}T00:00:00Z`), y: "difference_mm", fill: ink.main, r: 3.5, title: (d: Difference) => `${formatDay(d.date)}: ${formatMm(d.difference_mm)}` }),
+      Plot.dot(data as Difference[], {
+        x: (d: Difference) => new Date(`${d.date}T00:00:00Z`),
+        y: "difference_mm",
+        fill: ink.main,
+        r: 3.5,
+        title: (d: Difference) => `${formatDay(d.date)}: ${formatMm(d.difference_mm)}`,
+      }),
     ],
   });
 }
@@ -121,10 +133,10 @@ export function DriftView({ answer, links }: { answer: DriftAnswer; links: Drift
   return (
     <div className="flex flex-col gap-4">
       <p className="text-small text-muted">
-        For each class where a manikin and at least one other manikin of its patient type were used, the difference of their mean depths (mm). A manikin is flagged when it
-        shared at least {answer.rule.minClasses} classes, its mean difference is at least {formatThresholdMm(answer.rule.minOffsetMm)} either way and the 95 % interval (mean ±
-        1.96 standard errors, Bland and Altman 1986) excludes zero. A drifting manikin pulls its peers the other way, so manikins are flagged one at a time and the rest compared
-        again without it. {rangeLabel(answer.period)}.
+        For each class where a manikin and at least one other manikin of its patient type were used, the difference of their mean depths (mm). A manikin is
+        flagged when it shared at least {answer.rule.minClasses} classes, its mean difference is at least {formatThresholdMm(answer.rule.minOffsetMm)} either
+        way and the 95 % interval (mean ± 1.96 standard errors, Bland and Altman 1986) excludes zero. A drifting manikin pulls its peers the other way, so
+        manikins are flagged one at a time and the rest compared again without it. {rangeLabel(answer.period)}.
       </p>
       {flagged.length === 0 ? (
         <p>No manikin reads clearly deeper or shallower than its peers in this period.</p>
@@ -133,7 +145,8 @@ export function DriftView({ answer, links }: { answer: DriftAnswer; links: Drift
           <strong>
             {flagged.length === 1 ? (
               <>
-                <ManikinLink assetId={flagged[0].manikin} href={links.manikin?.(flagged[0].manikin) ?? null} /> reads {formatMm(flagged[0].offset_mm)} against its peers
+                <ManikinLink assetId={flagged[0].manikin} href={links.manikin?.(flagged[0].manikin) ?? null} /> reads {formatMm(flagged[0].offset_mm)} against
+                its peers
               </>
             ) : (
               `${flagged.length} manikins differ from their peers`

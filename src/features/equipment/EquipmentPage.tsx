@@ -58,7 +58,11 @@ function Equipment({ state, ownSite }: { state: InsightFilterState | null; ownSi
       ) : report.isError ? (
         <ErrorState error={report.error} onRetry={() => report.refetch()} />
       ) : (
-        <EquipmentView answer={report.data} ownSite={ownSite} manikinHref={(assetId) => manikinPath(assetId, state ? linkParams(state.values, { manikin: null }) : "")} />
+        <EquipmentView
+          answer={report.data}
+          ownSite={ownSite}
+          manikinHref={(assetId) => manikinPath(assetId, state ? linkParams(state.values, { manikin: null }) : "")}
+        />
       )}
       {state && (
         <section aria-labelledby="drift-heading" className="mt-8 flex flex-col gap-3">
@@ -90,7 +94,9 @@ function Thresholds({ answer, ownSite }: { answer: EquipmentAnswer; ownSite: boo
         {t.minMouthpieceCleansPerLearner.value === 1 ? "" : "s"} per learner{was(t.minMouthpieceCleansPerLearner)}.
       </p>
       <p className="mt-1 text-muted">
-        {changed ? "The network has changed some of these from the project defaults. " : "These are project defaults: network policy, not a guideline or a manufacturer’s figure. "}
+        {changed
+          ? "The network has changed some of these from the project defaults. "
+          : "These are project defaults: network policy, not a guideline or a manufacturer’s figure. "}
         They are set in{" "}
         {ownSite ? (
           "the scoring policy settings by the regional coordinator"
@@ -129,7 +135,8 @@ function EquipmentView({ answer, ownSite, manikinHref }: { answer: EquipmentAnsw
         ) : (
           <>
             <p className="text-small text-muted">
-              {answer.fleet.length} manikins{retired > 0 ? `, ${retired} of them retired` : ""}. Attempts and compressions are for {rangeLabel(answer.period)}; compressions since service count every attempt since the last service (or since the manikin came into use).
+              {answer.fleet.length} manikins{retired > 0 ? `, ${retired} of them retired` : ""}. Attempts and compressions are for {rangeLabel(answer.period)};
+              compressions since service count every attempt since the last service (or since the manikin came into use).
             </p>
             <FleetTable answer={answer} manikinHref={manikinHref} />
             <UsageChart fleet={answer.fleet} />
@@ -141,7 +148,9 @@ function EquipmentView({ answer, ownSite, manikinHref }: { answer: EquipmentAnsw
         <h2 id="consumables-heading" className="text-title">
           Consumables
         </h2>
-        <p className="text-small text-muted">From the class logs, per 100 learners at each site. The equipment log records the same work per manikin, so it is not added again.</p>
+        <p className="text-small text-muted">
+          From the class logs, per 100 learners at each site. The equipment log records the same work per manikin, so it is not added again.
+        </p>
         <ConsumablesCharts rows={answer.consumables} period={rangeLabel(answer.period)} />
       </section>
     </div>

@@ -81,10 +81,37 @@ export function FleetTable({ answer, manikinHref }: { answer: EquipmentAnswer; m
           </span>
         ),
     },
-    { key: "periodAttempts", header: `Attempts, ${periodLabel}`, headerWrap: true, value: (m) => m.periodAttempts, render: (m) => hiddenOr(m.periodAttempts), align: "right" },
-    { key: "periodCompressions", header: `Compressions, ${periodLabel}`, headerWrap: true, value: (m) => m.periodCompressions, render: (m) => hiddenOr(m.periodCompressions), align: "right" },
-    { key: "sinceService", header: "Compressions since service", headerWrap: true, value: (m) => m.compressionsSinceService, render: (m) => number(m.compressionsSinceService), align: "right" },
-    { key: "lastService", header: "Last service", headerWrap: true, value: (m) => m.lastServiceDate, render: (m) => (m.lastServiceDate ? formatDay(m.lastServiceDate) : <span className="text-muted">None recorded</span>) },
+    {
+      key: "periodAttempts",
+      header: `Attempts, ${periodLabel}`,
+      headerWrap: true,
+      value: (m) => m.periodAttempts,
+      render: (m) => hiddenOr(m.periodAttempts),
+      align: "right",
+    },
+    {
+      key: "periodCompressions",
+      header: `Compressions, ${periodLabel}`,
+      headerWrap: true,
+      value: (m) => m.periodCompressions,
+      render: (m) => hiddenOr(m.periodCompressions),
+      align: "right",
+    },
+    {
+      key: "sinceService",
+      header: "Compressions since service",
+      headerWrap: true,
+      value: (m) => m.compressionsSinceService,
+      render: (m) => number(m.compressionsSinceService),
+      align: "right",
+    },
+    {
+      key: "lastService",
+      header: "Last service",
+      headerWrap: true,
+      value: (m) => m.lastServiceDate,
+      render: (m) => (m.lastServiceDate ? formatDay(m.lastServiceDate) : <span className="text-muted">None recorded</span>),
+    },
     { key: "openFaults", header: "Open faults", headerWrap: true, value: (m) => m.openFaults, align: "right" },
     // last: the least asked-for column, where a narrow screen cuts the table
     {

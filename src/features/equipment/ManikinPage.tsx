@@ -26,7 +26,10 @@ export default function ManikinPage() {
   return (
     <div>
       <BackLink to="/equipment" label="Equipment" />
-      <PageHeader title={`Manikin ${assetId}`} description="Its service state and what is due, its depth readings against the other manikins of its patient type in the same classes, its use and its equipment log." />
+      <PageHeader
+        title={`Manikin ${assetId}`}
+        description="Its service state and what is due, its depth readings against the other manikins of its patient type in the same classes, its use and its equipment log."
+      />
       {optionsQuery.isPending ? (
         <LoadingState label="Loading the filters…" />
       ) : optionsQuery.isError ? (
@@ -48,7 +51,11 @@ function ManikinBody({ assetId, state }: { assetId: string; state: InsightFilter
     if (query.error instanceof ApiError && query.error.status === 404) {
       return (
         <EmptyState title={`No manikin ${assetId} here`}>
-          The link may be old or mistyped, or the manikin belongs to another site. <Link to="/equipment" className="font-semibold text-dusk-700 underline underline-offset-2">Go to the fleet</Link>.
+          The link may be old or mistyped, or the manikin belongs to another site.{" "}
+          <Link to="/equipment" className="font-semibold text-dusk-700 underline underline-offset-2">
+            Go to the fleet
+          </Link>
+          .
         </EmptyState>
       );
     }
@@ -81,10 +88,14 @@ export function ManikinView({ record, attemptsHref }: { record: ManikinRecord; a
           Due for attention
         </h2>
         <p className="text-small text-muted">
-          Service every {formatCount(record.thresholds.serviceEveryCompressions.value)} compressions or every {formatCount(record.thresholds.serviceEveryDays.value)} days (network policy), counted to{" "}
-          {formatDay(record.asOf)}.
+          Service every {formatCount(record.thresholds.serviceEveryCompressions.value)} compressions or every{" "}
+          {formatCount(record.thresholds.serviceEveryDays.value)} days (network policy), counted to {formatDay(record.asOf)}.
         </p>
-        {record.attention.length === 0 ? <p>Nothing is due for {m.assetId}: no service is due and no fault is open.</p> : <AttentionList items={record.attention} linkClasses={false} />}
+        {record.attention.length === 0 ? (
+          <p>Nothing is due for {m.assetId}: no service is due and no fault is open.</p>
+        ) : (
+          <AttentionList items={record.attention} linkClasses={false} />
+        )}
       </section>
 
       <section aria-labelledby="manikin-drift" className="flex flex-col gap-3">
@@ -100,7 +111,14 @@ export function ManikinView({ record, attemptsHref }: { record: ManikinRecord; a
         <h2 id="manikin-use" className="text-title">
           Use by quarter
         </h2>
-        <DataTable caption={`Use of ${m.assetId} by quarter`} columns={usageColumns} rows={m.usage} rowKey={(u) => u.quarter} exportFileName={`manikin-use-${m.assetId}`} emptyMessage="No quarter in this window." />
+        <DataTable
+          caption={`Use of ${m.assetId} by quarter`}
+          columns={usageColumns}
+          rows={m.usage}
+          rowKey={(u) => u.quarter}
+          exportFileName={`manikin-use-${m.assetId}`}
+          emptyMessage="No quarter in this window."
+        />
         <Link to={attemptsHref(m.assetId)} className="text-small font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
           Attempts on {m.assetId}
         </Link>
@@ -118,7 +136,13 @@ export function ManikinView({ record, attemptsHref }: { record: ManikinRecord; a
               : `${formatCount(record.logTotal)} line${record.logTotal === 1 ? "" : "s"}, newest first.`}
         </p>
         {record.log.length > 0 && (
-          <DataTable caption={`Equipment log of ${m.assetId}`} columns={logColumns} rows={record.log.map((line, index) => ({ ...line, index }))} rowKey={(line) => line.index} exportFileName={`equipment-log-${m.assetId}`} />
+          <DataTable
+            caption={`Equipment log of ${m.assetId}`}
+            columns={logColumns}
+            rows={record.log.map((line, index) => ({ ...line, index }))}
+            rowKey={(line) => line.index}
+            exportFileName={`equipment-log-${m.assetId}`}
+          />
         )}
       </section>
     </div>
@@ -140,7 +164,8 @@ function DriftSummary({ record }: { record: ManikinRecord }) {
   if (!d) {
     return (
       <p>
-        {record.manikin.assetId} shared no class with another manikin of its patient type in this period, so its readings cannot be compared. Choose a longer period. {rule}
+        {record.manikin.assetId} shared no class with another manikin of its patient type in this period, so its readings cannot be compared. Choose a longer
+        period. {rule}
       </p>
     );
   }
@@ -150,11 +175,13 @@ function DriftSummary({ record }: { record: ManikinRecord }) {
       <p>
         {d.flag === "check" ? (
           <strong className="text-too-high-text">
-            Check the depth sensor: over {d.classes} shared classes, {record.manikin.assetId} reads {formatMm(d.offset_mm)} ({direction}) against its peers, 95 % interval {intervalMm(d.ci95)}.
+            Check the depth sensor: over {d.classes} shared classes, {record.manikin.assetId} reads {formatMm(d.offset_mm)} ({direction}) against its peers, 95
+            % interval {intervalMm(d.ci95)}.
           </strong>
         ) : d.flag === "ok" ? (
           <>
-            Over {d.classes} shared classes, {record.manikin.assetId} reads {formatMm(d.offset_mm)} against its peers (95 % interval {intervalMm(d.ci95)}): in line with them.
+            Over {d.classes} shared classes, {record.manikin.assetId} reads {formatMm(d.offset_mm)} against its peers (95 % interval {intervalMm(d.ci95)}): in
+            line with them.
           </>
         ) : (
           <>
@@ -164,7 +191,9 @@ function DriftSummary({ record }: { record: ManikinRecord }) {
       </p>
       <p className="text-small text-muted">
         {rule}
-        {d.flag === "check" ? " Learners on this manikin may have been judged too deep or too shallow because of the device; check it before drawing conclusions about them or their instructor." : ""}
+        {d.flag === "check"
+          ? " Learners on this manikin may have been judged too deep or too shallow because of the device; check it before drawing conclusions about them or their instructor."
+          : ""}
       </p>
     </div>
   );
@@ -181,7 +210,13 @@ const hidden = (
 const usageColumns: Column<UsageRow>[] = [
   { key: "quarter", header: "Quarter", value: (u) => u.quarter, render: (u) => quarterLabel(u.quarter), primary: true },
   { key: "attempts", header: "Attempts", value: (u) => u.attempts, render: (u) => (u.attempts === null ? hidden : formatCount(u.attempts)), align: "right" },
-  { key: "compressions", header: "Compressions", value: (u) => u.compressions, render: (u) => (u.compressions === null ? hidden : formatCount(u.compressions)), align: "right" },
+  {
+    key: "compressions",
+    header: "Compressions",
+    value: (u) => u.compressions,
+    render: (u) => (u.compressions === null ? hidden : formatCount(u.compressions)),
+    align: "right",
+  },
 ];
 
 type LogRow = ManikinRecord["log"][number] & { index: number };

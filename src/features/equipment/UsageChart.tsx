@@ -46,7 +46,16 @@ export function UsageChart({ fleet }: { fleet: EquipmentAnswer["fleet"] }) {
         m.usage.flatMap((u) =>
           u.attempts === null || u.compressions === null
             ? []
-            : [{ key: `${m.id}|${u.quarter}`, assetId: m.assetId, site: m.site?.code ?? "No site", quarter: u.quarter, attempts: u.attempts, compressions: u.compressions }],
+            : [
+                {
+                  key: `${m.id}|${u.quarter}`,
+                  assetId: m.assetId,
+                  site: m.site?.code ?? "No site",
+                  quarter: u.quarter,
+                  attempts: u.attempts,
+                  compressions: u.compressions,
+                },
+              ],
         ),
       ),
     [fleet],
@@ -60,5 +69,15 @@ export function UsageChart({ fleet }: { fleet: EquipmentAnswer["fleet"] }) {
     quarters.length === 0
       ? "No use recorded."
       : `Compressions on these manikins per quarter, stacked by site: ${formatCount(byQuarter.get(first) ?? 0)} in ${quarterLabel(first)}, ${formatCount(byQuarter.get(last) ?? 0)} in ${quarterLabel(last)}. The table lists each manikin per quarter.`;
-  return <Chart title="Use per quarter" description={description} data={rows} columns={columns} rowKey={(r) => r.key} plot={usagePlot} exportFileName="manikin-use-per-quarter" />;
+  return (
+    <Chart
+      title="Use per quarter"
+      description={description}
+      data={rows}
+      columns={columns}
+      rowKey={(r) => r.key}
+      plot={usagePlot}
+      exportFileName="manikin-use-per-quarter"
+    />
+  );
 }

@@ -40,7 +40,8 @@ export function ChooseFileStep({ initialKind, onUploaded }: ChooseFileStepProps)
     if (!kind) found.kind = "Choose what the file holds.";
     if (!file) found.file = "Choose a CSV file.";
     else if (!file.name.toLowerCase().endsWith(".csv")) found.file = `${file.name} is not a .csv file. Save it from the spreadsheet as CSV first.`;
-    else if (file.size > MAX_UPLOAD_BYTES) found.file = `${file.name} is ${formatBytes(file.size)}; the largest file Quarterbeat accepts is ${formatBytes(MAX_UPLOAD_BYTES)}. Split it into smaller files.`;
+    else if (file.size > MAX_UPLOAD_BYTES)
+      found.file = `${file.name} is ${formatBytes(file.size)}; the largest file Quarterbeat accepts is ${formatBytes(MAX_UPLOAD_BYTES)}. Split it into smaller files.`;
     else if (file.size === 0) found.file = `${file.name} is empty.`;
     setErrors(found);
     if (found.kind || found.file || !kind || !file) {
@@ -105,13 +106,19 @@ export function ChooseFileStep({ initialKind, onUploaded }: ChooseFileStepProps)
           </p>
         )}
         {importsOwnOnly && (
-          <p className="text-small text-muted">You can import your own classes and the attempts measured in them. Rows for another instructor's classes are refused.</p>
+          <p className="text-small text-muted">
+            You can import your own classes and the attempts measured in them. Rows for another instructor's classes are refused.
+          </p>
         )}
       </fieldset>
 
       {kind && <FormatHelp kind={kind} />}
 
-      <Field label="CSV file" hint={`A .csv file with a header row, its columns separated by commas, semicolons or tabs, up to ${formatBytes(MAX_UPLOAD_BYTES)}.`} error={errors.file}>
+      <Field
+        label="CSV file"
+        hint={`A .csv file with a header row, its columns separated by commas, semicolons or tabs, up to ${formatBytes(MAX_UPLOAD_BYTES)}.`}
+        error={errors.file}
+      >
         {({ id, describedBy, invalid }) => (
           <input
             id={id}
@@ -129,7 +136,11 @@ export function ChooseFileStep({ initialKind, onUploaded }: ChooseFileStepProps)
           />
         )}
       </Field>
-      {file && !errors.file && <p className="-mt-3 text-small text-muted">Chosen: {file.name}, {formatBytes(file.size)}</p>}
+      {file && !errors.file && (
+        <p className="-mt-3 text-small text-muted">
+          Chosen: {file.name}, {formatBytes(file.size)}
+        </p>
+      )}
 
       {progress && (
         <ProgressBar

@@ -209,13 +209,32 @@ function RejectedRowsPanel({ batch, onClose }: { batch: ImportBatch; onClose: ()
   const rows: RejectedRowWithKey[] = useMemo(() => detail.data?.rejectedRows.map((row, key) => ({ ...row, key })) ?? [], [detail.data]);
   const columns: Column<RejectedRowWithKey>[] = [
     { key: "row", header: "Row", value: (r) => r.rowNumber, render: (r) => (r.rowNumber === null ? "Header" : formatCount(r.rowNumber)), align: "right" },
-    { key: "column", header: "Column", value: (r) => r.column ?? "", render: (r) => (r.column ? <span className="font-mono">{r.column}</span> : <span className="text-muted">whole row</span>) },
+    {
+      key: "column",
+      header: "Column",
+      value: (r) => r.column ?? "",
+      render: (r) => (r.column ? <span className="font-mono">{r.column}</span> : <span className="text-muted">whole row</span>),
+    },
     { key: "reason", header: "Reason", value: (r) => r.reason, wrap: true, primary: true },
     {
       key: "values",
       header: "Values in the file",
-      value: (r) => (r.raw ? Object.entries(r.raw).map(([k, v]) => `${k}=${v}`).join("; ") : ""),
-      render: (r) => (r.raw ? <span className="font-mono text-caption">{Object.entries(r.raw).map(([k, v]) => `${k}=${v}`).join("; ")}</span> : ""),
+      value: (r) =>
+        r.raw
+          ? Object.entries(r.raw)
+              .map(([k, v]) => `${k}=${v}`)
+              .join("; ")
+          : "",
+      render: (r) =>
+        r.raw ? (
+          <span className="font-mono text-caption">
+            {Object.entries(r.raw)
+              .map(([k, v]) => `${k}=${v}`)
+              .join("; ")}
+          </span>
+        ) : (
+          ""
+        ),
       wrap: true,
       sortable: false,
     },
@@ -288,14 +307,20 @@ function UndoDialog({ batch, onClose, onDone }: { batch: ImportBatch | null; onC
           <p>Undo takes this import back out of Quarterbeat:</p>
           <ul className="list-disc pl-5 text-small">
             {batch.inserted > 0 && <li>the {plural(batch.inserted, batch.kind === "compressions" ? "attempt" : "row")} it added are deleted;</li>}
-            {batch.updated > 0 && <li>the {plural(batch.updated, batch.kind === "compressions" ? "attempt" : "row")} it changed get back the values they had before;</li>}
+            {batch.updated > 0 && (
+              <li>the {plural(batch.updated, batch.kind === "compressions" ? "attempt" : "row")} it changed get back the values they had before;</li>
+            )}
             <li>sites, instructors and manikins it created are removed if nothing else uses them.</li>
           </ul>
           <p className="text-small text-muted">
-            The batch stays in the history, marked undone. Undo is refused if a later import changed the same rows (undo that one first) or, for class logs, while attempts
-            from other imports belong to its classes. The file can be imported again afterwards.
+            The batch stays in the history, marked undone. Undo is refused if a later import changed the same rows (undo that one first) or, for class logs,
+            while attempts from other imports belong to its classes. The file can be imported again afterwards.
           </p>
-          {undo.isError && <Notice tone="error">Batch {batch.id} was not undone: {errorMessage(undo.error)}</Notice>}
+          {undo.isError && (
+            <Notice tone="error">
+              Batch {batch.id} was not undone: {errorMessage(undo.error)}
+            </Notice>
+          )}
           <div className="flex flex-wrap justify-end gap-2">
             <Button variant="secondary" onClick={close}>
               Keep the import
@@ -307,7 +332,9 @@ function UndoDialog({ batch, onClose, onDone }: { batch: ImportBatch | null; onC
                 undo.mutate(batch.id, {
                   onSuccess: (result) => {
                     undo.reset();
-                    onDone(`Batch ${batch.id} (${batch.fileName}) is undone: ${plural(result.deleted, "row")} deleted, ${plural(result.restored, "row")} restored to earlier values.`);
+                    onDone(
+                      `Batch ${batch.id} (${batch.fileName}) is undone: ${plural(result.deleted, "row")} deleted, ${plural(result.restored, "row")} restored to earlier values.`,
+                    );
                   },
                 })
               }

@@ -186,7 +186,13 @@ export function ImportWizard({ onImported }: { onImported?: (batchId: number | n
         )}
 
         {step === "import" && loaded && (
-          <ImportStep job={importJob.data} pollError={importJob.error} fileName={loaded.upload.fileName} onNewFile={startOver} onBackToMapping={() => setStep("map")} />
+          <ImportStep
+            job={importJob.data}
+            pollError={importJob.error}
+            fileName={loaded.upload.fileName}
+            onNewFile={startOver}
+            onBackToMapping={() => setStep("map")}
+          />
         )}
       </div>
     </section>
@@ -207,7 +213,19 @@ interface ValidateStepProps {
   onNewFile: () => void;
 }
 
-function ValidateStep({ job, pollError, fileName, kind, skipInvalid, onSkipInvalidChange, onImport, importing, startError, onBackToMapping, onNewFile }: ValidateStepProps) {
+function ValidateStep({
+  job,
+  pollError,
+  fileName,
+  kind,
+  skipInvalid,
+  onSkipInvalidChange,
+  onImport,
+  importing,
+  startError,
+  onBackToMapping,
+  onNewFile,
+}: ValidateStepProps) {
   const back = (
     <>
       <Button variant="secondary" onClick={onBackToMapping}>
@@ -267,7 +285,12 @@ function ValidateStep({ job, pollError, fileName, kind, skipInvalid, onSkipInval
         {startError && <Notice tone="error">The import could not start: {startError}</Notice>}
         <div className="flex flex-wrap gap-2">
           {good > 0 && (
-            <Button onClick={onImport} disabled={!canImport} busy={importing} aria-describedby={needsChoice && !skipInvalid ? "import-needs-choice" : undefined}>
+            <Button
+              onClick={onImport}
+              disabled={!canImport}
+              busy={importing}
+              aria-describedby={needsChoice && !skipInvalid ? "import-needs-choice" : undefined}
+            >
               Import {formatCount(good)} {good === 1 ? things : `${things}s`}
             </Button>
           )}
@@ -283,7 +306,19 @@ function ValidateStep({ job, pollError, fileName, kind, skipInvalid, onSkipInval
   );
 }
 
-function ImportStep({ job, pollError, fileName, onNewFile, onBackToMapping }: { job: ImportJob | undefined; pollError: unknown; fileName: string; onNewFile: () => void; onBackToMapping: () => void }) {
+function ImportStep({
+  job,
+  pollError,
+  fileName,
+  onNewFile,
+  onBackToMapping,
+}: {
+  job: ImportJob | undefined;
+  pollError: unknown;
+  fileName: string;
+  onNewFile: () => void;
+  onBackToMapping: () => void;
+}) {
   const again = (
     <Button variant="secondary" onClick={onNewFile}>
       Import another file
@@ -291,7 +326,8 @@ function ImportStep({ job, pollError, fileName, onNewFile, onBackToMapping }: { 
   );
   if (pollError && !job) return <JobError message={errorMessage(pollError)} actions={again} />;
   if (!job || job.status === "queued" || job.status === "running") return <JobProgress job={job} fileName={fileName} />;
-  if (job.status !== "done" || !job.summary) return <JobError message={job.error ?? "The import stopped without a result. Nothing was written."} actions={again} />;
+  if (job.status !== "done" || !job.summary)
+    return <JobError message={job.error ?? "The import stopped without a result. Nothing was written."} actions={again} />;
   const summary = job.summary;
   return (
     <div className="flex flex-col gap-4">
@@ -303,7 +339,9 @@ function ImportStep({ job, pollError, fileName, onNewFile, onBackToMapping }: { 
       ) : summary.status === "unchanged" ? (
         <Notice tone="info">Nothing changed: every row of {fileName} is already stored as it is in the file, so no batch was recorded.</Notice>
       ) : (
-        <Notice tone="error">The import was refused and nothing was written: the file or the data changed since it was validated. See the problems below.</Notice>
+        <Notice tone="error">
+          The import was refused and nothing was written: the file or the data changed since it was validated. See the problems below.
+        </Notice>
       )}
       <ValidationReport summary={summary} rejectedCsvUrl={job.rejectedCsvUrl} />
       <div className="flex flex-wrap gap-2">

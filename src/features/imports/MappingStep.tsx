@@ -79,7 +79,12 @@ export function MappingStep({ kind, upload, preview, draft, onDraftChange, onBac
         {preview.rows.length === 0 ? (
           <p className="text-muted">The file has a header row but no data rows.</p>
         ) : (
-          <div role="region" aria-labelledby="preview-heading" tabIndex={0} className="relative overflow-x-auto rounded-card border border-line bg-surface shadow-card">
+          <div
+            role="region"
+            aria-labelledby="preview-heading"
+            tabIndex={0}
+            className="relative overflow-x-auto rounded-card border border-line bg-surface shadow-card"
+          >
             <table className="w-full border-collapse text-left text-small">
               <caption className="sr-only">
                 The first {Math.min(PREVIEW_ROWS, preview.rows.length)} data rows; under each file column, the Quarterbeat column that reads it.
@@ -95,7 +100,13 @@ export function MappingStep({ kind, upload, preview, draft, onDraftChange, onBac
                       <th key={i} scope="col" className="px-3 py-2 align-bottom whitespace-nowrap">
                         <span className="block font-semibold">{name || <span className="text-muted">(no name)</span>}</span>
                         <span className={`block text-caption font-normal ${reader ? "text-dusk-700" : "text-muted"}`}>
-                          {reader ? <>read as <span className="font-mono">{reader}</span></> : "not read"}
+                          {reader ? (
+                            <>
+                              read as <span className="font-mono">{reader}</span>
+                            </>
+                          ) : (
+                            "not read"
+                          )}
                         </span>
                       </th>
                     );
@@ -149,7 +160,12 @@ export function MappingStep({ kind, upload, preview, draft, onDraftChange, onBac
                   <span className="ml-2 text-caption text-muted">{spec.required ? "required" : "optional"}</span>
                   <p id={`${selectId}-hint`} className="text-small text-muted">
                     {spec.description}
-                    {sample !== null && <> · first value: <span className="font-mono text-ink">{sample}</span></>}
+                    {sample !== null && (
+                      <>
+                        {" "}
+                        · first value: <span className="font-mono text-ink">{sample}</span>
+                      </>
+                    )}
                   </p>
                   {problem && (
                     <p id={`${selectId}-error`} className="text-small font-medium text-danger-text">
@@ -178,11 +194,7 @@ export function MappingStep({ kind, upload, preview, draft, onDraftChange, onBac
             );
           })}
         </ul>
-        {ignored.length > 0 && (
-          <p className="text-small text-muted">
-            Not read (ignored): {ignored.join(", ")}.
-          </p>
-        )}
+        {ignored.length > 0 && <p className="text-small text-muted">Not read (ignored): {ignored.join(", ")}.</p>}
       </section>
 
       {unitGroupsOf(kind).length > 0 && (
@@ -262,4 +274,3 @@ export function MappingStep({ kind, upload, preview, draft, onDraftChange, onBac
     </div>
   );
 }
-

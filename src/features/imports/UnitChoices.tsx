@@ -42,7 +42,9 @@ export function UnitChoices({ kind, units, onChange, sample }: UnitChoicesProps)
         <h3 id="units-heading" className="text-lead font-semibold">
           Units in the file
         </h3>
-        <p className="text-small text-muted">Quarterbeat keeps depths in millimetres, times in milliseconds and shares as percentages; it converts from the units you choose.</p>
+        <p className="text-small text-muted">
+          Quarterbeat keeps depths in millimetres, times in milliseconds and shares as percentages; it converts from the units you choose.
+        </p>
       </div>
       <div className="grid gap-4 sm:grid-cols-2">
         {groups.map((group) => {

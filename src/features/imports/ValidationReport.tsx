@@ -17,7 +17,12 @@ const issueColumns: Column<Issue>[] = [
     align: "right",
     sortLabels: { asc: "first rows first", desc: "last rows first" },
   },
-  { key: "column", header: "Column", value: (issue) => issue.column ?? "", render: (issue) => (issue.column ? <span className="font-mono">{issue.column}</span> : <span className="text-muted">whole row</span>) },
+  {
+    key: "column",
+    header: "Column",
+    value: (issue) => issue.column ?? "",
+    render: (issue) => (issue.column ? <span className="font-mono">{issue.column}</span> : <span className="text-muted">whole row</span>),
+  },
   { key: "reason", header: "Reason", value: (issue) => issue.reason, wrap: true, primary: true },
 ];
 
@@ -88,8 +93,8 @@ export function ValidationReport({ summary, rejectedCsvUrl }: ValidationReportPr
 
       {newCodes.length > 0 && (
         <Notice tone="info">
-          {dry ? "These codes are not known yet and would be created" : "These codes were new and have been created"}: {newCodes.join(", ")}. A typing slip in a code creates a
-          new site, instructor or manikin, so check them.
+          {dry ? "These codes are not known yet and would be created" : "These codes were new and have been created"}: {newCodes.join(", ")}. A typing slip in a
+          code creates a new site, instructor or manikin, so check them.
         </Notice>
       )}
 
@@ -122,7 +127,14 @@ export function ValidationReport({ summary, rejectedCsvUrl }: ValidationReportPr
                 className="inline-flex min-h-11 items-center gap-2 rounded-control border border-line-strong bg-surface px-4 font-medium text-dusk-800 hover:bg-dusk-50"
               >
                 <svg viewBox="0 0 20 20" className="size-4" aria-hidden="true">
-                  <path d="M10 3v9m0 0-3.5-3.5M10 12l3.5-3.5M4 14v2.5h12V14" fill="none" stroke="currentColor" strokeWidth="1.8" strokeLinecap="round" strokeLinejoin="round" />
+                  <path
+                    d="M10 3v9m0 0-3.5-3.5M10 12l3.5-3.5M4 14v2.5h12V14"
+                    fill="none"
+                    stroke="currentColor"
+                    strokeWidth="1.8"
+                    strokeLinecap="round"
+                    strokeLinejoin="round"
+                  />
                 </svg>
                 Download the refused rows (CSV)
               </a>

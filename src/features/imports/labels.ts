@@ -29,7 +29,6 @@ export const unitLabels = {
   shares: { percent: "percentages, 0–100", fraction: "fractions, 0–1" },
 } as const;
 
-
 export function plural(count: number, one: string, many: string = `${one}s`): string {
   return `${formatCount(count)} ${count === 1 ? one : many}`;
 }

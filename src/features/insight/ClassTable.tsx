@@ -30,8 +30,20 @@ export const classColumns: Column<ClassRow>[] = [
     align: "right",
   },
   { key: "attempts", header: "Attempts", value: (c) => c.attempts, align: "right" },
-  { key: "rate", header: "Measured pass rate (%)", value: (c) => percentValue(c.passRate.rate), render: (c) => (c.passRate.rate === null ? "no attempts" : formatPercent(c.passRate.rate)), align: "right" },
-  { key: "interval", header: "95 % interval", value: (c) => (c.passRate.low === null ? null : formatInterval(c.passRate.low, c.passRate.high)), sortable: false, align: "right" },
+  {
+    key: "rate",
+    header: "Measured pass rate (%)",
+    value: (c) => percentValue(c.passRate.rate),
+    render: (c) => (c.passRate.rate === null ? "no attempts" : formatPercent(c.passRate.rate)),
+    align: "right",
+  },
+  {
+    key: "interval",
+    header: "95 % interval",
+    value: (c) => (c.passRate.low === null ? null : formatInterval(c.passRate.low, c.passRate.high)),
+    sortable: false,
+    align: "right",
+  },
 ];
 
 export function ClassTable({ classes, caption, exportFileName }: { classes: readonly ClassRow[]; caption: string; exportFileName: string }) {

@@ -23,11 +23,7 @@ export function InsightFilters({ optional, label, ranges = false, before, childr
   if (optionsQuery.isPending) return <LoadingState label="Loading the filters…" />;
   if (optionsQuery.isError) return <ErrorState error={optionsQuery.error} title="The filters could not be loaded" onRetry={() => optionsQuery.refetch()} />;
   if (!state) {
-    return (
-      <EmptyState title="No attempts have been imported yet">
-        Figures appear here once class logs and manikin files have been imported.
-      </EmptyState>
-    );
+    return <EmptyState title="No attempts have been imported yet">Figures appear here once class logs and manikin files have been imported.</EmptyState>;
   }
   return (
     <>
@@ -35,8 +31,7 @@ export function InsightFilters({ optional, label, ranges = false, before, childr
       <FilterBar filters={state.definitions} label={label} />
       {state.unknownQuarter && (
         <Notice tone="info" className="mb-4">
-          The link asked for {quarterLabel(state.unknownQuarter)}, which has no attempts. Showing {quarterLabel(state.quarter)}, the latest quarter
-          with data.
+          The link asked for {quarterLabel(state.unknownQuarter)}, which has no attempts. Showing {quarterLabel(state.quarter)}, the latest quarter with data.
         </Notice>
       )}
       {children(state)}

@@ -124,4 +124,3 @@ export const funnelPositionShort: Record<FunnelPosition, string> = {
 export function funnelPositionText(position: FunnelPosition | null | undefined): string {
   return position ? funnelPositionWords[position] : "No attempts to place";
 }
-

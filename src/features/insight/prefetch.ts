@@ -25,7 +25,12 @@ export type AnswerFor<T, K extends QueryKey> = (filters: ApiFilters, address: Pa
  * when it names one quarter (a range needs the list of quarters, and without a quarter the page picks the
  * latest with data). A value the options turn out not to offer only costs one unused request.
  */
-export function expectedFilters(options: OptionsAnswer | undefined, search: URLSearchParams, optional: readonly OptionalFilter[], choices: FilterChoices = {}): ApiFilters | null {
+export function expectedFilters(
+  options: OptionsAnswer | undefined,
+  search: URLSearchParams,
+  optional: readonly OptionalFilter[],
+  choices: FilterChoices = {},
+): ApiFilters | null {
   if (options) return filterState(options, search, optional, choices)?.api ?? null;
   const quarter = search.get(filterParamName("quarter"));
   if (!quarter || quarter === LAST_FOUR || quarter === ALL_QUARTERS) return null;
@@ -34,7 +39,11 @@ export function expectedFilters(options: OptionsAnswer | undefined, search: URLS
 }
 
 /** The prefetch of a page that shows the insight filters: the options, and the page's answer when it can be known. */
-export function filteredPagePrefetch<T, K extends QueryKey>(optional: readonly OptionalFilter[], choices: FilterChoices, answerFor?: AnswerFor<T, K>): PagePrefetch {
+export function filteredPagePrefetch<T, K extends QueryKey>(
+  optional: readonly OptionalFilter[],
+  choices: FilterChoices,
+  answerFor?: AnswerFor<T, K>,
+): PagePrefetch {
   return (queryClient, address) => {
     const options = insightQueries.options();
     void queryClient.ensureQueryData(options).catch(() => undefined);

@@ -58,8 +58,7 @@ export const insightQueries = {
   instructor: (id: string, filters: ApiFilters) =>
     queryOptions({
       queryKey: [...insightQueries.all(), "instructor", id, filters] as const,
-      queryFn: ({ signal }) =>
-        getParsed(instructorDetailAnswerSchema, withQuery(`/api/insight/instructors/${encodeURIComponent(id)}`, filters), signal),
+      queryFn: ({ signal }) => getParsed(instructorDetailAnswerSchema, withQuery(`/api/insight/instructors/${encodeURIComponent(id)}`, filters), signal),
     }),
   classDetail: (id: string) =>
     queryOptions({
@@ -70,7 +69,6 @@ export const insightQueries = {
   classAttempts: (id: string, quarter: string) =>
     queryOptions({
       queryKey: [...insightQueries.all(), "class", id, "attempts", quarter] as const,
-      queryFn: ({ signal }) =>
-        getParsed(attemptListAnswerSchema, withQuery("/api/attempts", { class: id, quarter, pageSize: 200 }), signal),
+      queryFn: ({ signal }) => getParsed(attemptListAnswerSchema, withQuery("/api/attempts", { class: id, quarter, pageSize: 200 }), signal),
     }),
 };

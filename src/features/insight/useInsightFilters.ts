@@ -41,7 +41,12 @@ export function filterDefinitions(options: OptionsAnswer, optional: readonly Opt
       definitions.push({ key, options: options.sites.map((s) => ({ value: s.code, label: `${s.code} · ${s.name}` })), allLabel: "All sites" });
     }
     if (key === "patientType" && options.patientTypes.length > 0) {
-      definitions.push({ key, label: dimensionNames.patientType, options: options.patientTypes.map((p) => ({ value: p, label: patientTypeNames[p] })), allLabel: "All types" });
+      definitions.push({
+        key,
+        label: dimensionNames.patientType,
+        options: options.patientTypes.map((p) => ({ value: p, label: patientTypeNames[p] })),
+        allLabel: "All types",
+      });
     }
     if (key === "feedback" && options.feedbackModes.length > 0) {
       definitions.push({ ...feedbackFilter, label: dimensionNames.feedback });
@@ -107,7 +112,12 @@ export interface InsightFilterState {
 }
 
 /** The filter state of a page once the options are known; null while none have arrived or nothing has been imported. */
-export function filterState(options: OptionsAnswer | undefined, params: URLSearchParams, optional: readonly OptionalFilter[], choices: FilterChoices = {}): InsightFilterState | null {
+export function filterState(
+  options: OptionsAnswer | undefined,
+  params: URLSearchParams,
+  optional: readonly OptionalFilter[],
+  choices: FilterChoices = {},
+): InsightFilterState | null {
   if (!options || options.quarters.length === 0) return null;
   const definitions = filterDefinitions(options, optional, choices);
   const values = readFilterValues(params, definitions);

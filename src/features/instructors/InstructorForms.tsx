@@ -42,7 +42,13 @@ export function AddInstructorForm({ onDone, onCancel }: { onDone: (instructor: I
         create.mutate(instructor, { onSuccess: ({ instructor: created }) => onDone(created), onError: (error) => showServerError(form, error) })
       }
     >
-      <FormField label="Instructor code" name="code" autoComplete="off" spellCheck={false} hint="The code used in class logs and manikin files, e.g. NORTH-07." />
+      <FormField
+        label="Instructor code"
+        name="code"
+        autoComplete="off"
+        spellCheck={false}
+        hint="The code used in class logs and manikin files, e.g. NORTH-07."
+      />
       <FormField label="Name" name="name" autoComplete="off" />
       <SiteField label="Site" />
       <FormActions submitLabel="Add instructor" busy={create.isPending} onCancel={onCancel} />
@@ -52,7 +58,15 @@ export function AddInstructorForm({ onDone, onCancel }: { onDone: (instructor: I
 
 const moveSchema = z.object({ siteId: newInstructorSchema.shape.siteId });
 
-export function ChangeSiteForm({ instructor, onDone, onCancel }: { instructor: InstructorRow; onDone: (instructor: InstructorRow) => void; onCancel: () => void }) {
+export function ChangeSiteForm({
+  instructor,
+  onDone,
+  onCancel,
+}: {
+  instructor: InstructorRow;
+  onDone: (instructor: InstructorRow) => void;
+  onCancel: () => void;
+}) {
   const update = useUpdateInstructor();
   const form = useSchemaForm(moveSchema, { siteId: instructor.siteId });
   return (

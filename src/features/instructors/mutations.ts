@@ -21,8 +21,7 @@ function useInvalidateInstructors() {
 export function useCreateInstructor() {
   const invalidate = useInvalidateInstructors();
   return useMutation({
-    mutationFn: (instructor: z.infer<typeof newInstructorSchema>) =>
-      http.post<{ instructor: InstructorRow }>("/api/instructors", instructor),
+    mutationFn: (instructor: z.infer<typeof newInstructorSchema>) => http.post<{ instructor: InstructorRow }>("/api/instructors", instructor),
     onSuccess: invalidate,
   });
 }

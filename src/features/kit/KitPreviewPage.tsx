@@ -21,7 +21,13 @@ import { quarterLabel } from "../../../shared/period";
 
 const filters: FilterDefinition[] = [
   { key: "quarter", options: ["2025-Q1", "2025-Q2", "2025-Q3"].map((q) => ({ value: q, label: quarterLabel(q) })), allLabel: null },
-  { key: "site", options: [{ value: "NORTH-1", label: "Northfield Community Hall" }, { value: "RIVER-2", label: "Riverside Sports Centre" }] },
+  {
+    key: "site",
+    options: [
+      { value: "NORTH-1", label: "Northfield Community Hall" },
+      { value: "RIVER-2", label: "Riverside Sports Centre" },
+    ],
+  },
   { key: "patientType", options: courseTypes.map((t) => ({ value: t, label: t })) },
   feedbackFilter,
 ];
@@ -68,7 +74,16 @@ const attemptPlot = (data: readonly Attempt[], { width }: ChartSize) => ({
   symbol: targetStatusSymbolScale,
   marks: [
     Plot.rectY([{ x1: 100, x2: 120, y1: 50, y2: 60 }], { x1: "x1", x2: "x2", y1: "y1", y2: "y2", fill: "#E3F4EC" }),
-    Plot.dot(data as Attempt[], { x: "rate", y: "depthMm", fill: "status", symbol: "status", rotate: (d: Attempt) => targetStatusRotate(d.status), r: 6, tip: true, title: (d: Attempt) => `${d.code}: ${targetStatusLabels[d.status]}` }),
+    Plot.dot(data as Attempt[], {
+      x: "rate",
+      y: "depthMm",
+      fill: "status",
+      symbol: "status",
+      rotate: (d: Attempt) => targetStatusRotate(d.status),
+      r: 6,
+      tip: true,
+      title: (d: Attempt) => `${d.code}: ${targetStatusLabels[d.status]}`,
+    }),
   ],
 });
 
@@ -95,8 +110,20 @@ export default function KitPreviewPage() {
       <section className="flex flex-col gap-3">
         <h2 className="text-title">StatCard and TargetBadge</h2>
         <div className="grid gap-4 sm:grid-cols-2 xl:grid-cols-4">
-          <StatCard label="Attempts passed" value="71" unit="%" interval={{ low: "65 %", high: "76 %" }} change={{ value: 7, text: "+7 points", comparedWith: "since Q2", better: "up" }} footnote="n = 263 attempts" />
-          <StatCard label="Mean depth" value={formatLength(52.4)} change={{ value: -1.1, text: formatLength(1.1) + " shallower", comparedWith: "since Q2" }} status="on_target" />
+          <StatCard
+            label="Attempts passed"
+            value="71"
+            unit="%"
+            interval={{ low: "65 %", high: "76 %" }}
+            change={{ value: 7, text: "+7 points", comparedWith: "since Q2", better: "up" }}
+            footnote="n = 263 attempts"
+          />
+          <StatCard
+            label="Mean depth"
+            value={formatLength(52.4)}
+            change={{ value: -1.1, text: formatLength(1.1) + " shallower", comparedWith: "since Q2" }}
+            status="on_target"
+          />
           <StatCard label="Mean rate" value="124" unit="per min" status="too_high" />
           <StatCard label="Classes this quarter" value="38" change={{ value: 0, text: "" }} />
         </div>
@@ -113,14 +140,37 @@ export default function KitPreviewPage() {
         <h2 className="text-title">Chart</h2>
         <SafetyNote />
         <div className="grid gap-4 xl:grid-cols-2">
-          <Chart title="Compressions in the target range" description="Share of all compressions in the target depth and rate range, per quarter: it rose from 55 % to 71 % over the year." data={shares} columns={shareColumns} rowKey={(r) => r.quarter} plot={sharePlot} exportFileName="target-share" />
-          <Chart title="Depth and rate per attempt" description="Each mark is one attempt; the shaded box is the target range. Two attempts were too shallow, one too deep." data={attempts} columns={attemptColumns} rowKey={(a) => a.code} plot={attemptPlot} legend={<TargetLegend />} />
+          <Chart
+            title="Compressions in the target range"
+            description="Share of all compressions in the target depth and rate range, per quarter: it rose from 55 % to 71 % over the year."
+            data={shares}
+            columns={shareColumns}
+            rowKey={(r) => r.quarter}
+            plot={sharePlot}
+            exportFileName="target-share"
+          />
+          <Chart
+            title="Depth and rate per attempt"
+            description="Each mark is one attempt; the shaded box is the target range. Two attempts were too shallow, one too deep."
+            data={attempts}
+            columns={attemptColumns}
+            rowKey={(a) => a.code}
+            plot={attemptPlot}
+            legend={<TargetLegend />}
+          />
         </div>
       </section>
 
       <section className="flex flex-col gap-3">
         <h2 className="text-title">DataTable</h2>
-        <DataTable caption="Attempts" columns={attemptColumns} rows={attempts} rowKey={(a) => a.code} exportFileName="attempts" initialSort={{ key: "depth", direction: "asc" }} />
+        <DataTable
+          caption="Attempts"
+          columns={attemptColumns}
+          rows={attempts}
+          rowKey={(a) => a.code}
+          exportFileName="attempts"
+          initialSort={{ key: "depth", direction: "asc" }}
+        />
       </section>
 
       <section className="grid gap-4 lg:grid-cols-2">
@@ -140,7 +190,14 @@ export default function KitPreviewPage() {
         <div className="flex flex-col gap-3">
           <h2 className="text-title">States and notices</h2>
           <LoadingState label="Loading attempts…" />
-          <EmptyState title="No attempts this quarter" action={<Button variant="secondary" size="sm">Go to imports</Button>}>
+          <EmptyState
+            title="No attempts this quarter"
+            action={
+              <Button variant="secondary" size="sm">
+                Go to imports
+              </Button>
+            }
+          >
             Import a class log and its manikin files to see attempts here.
           </EmptyState>
           <ErrorState error={new ApiError(500, "internal", "Something went wrong on the server.")} onRetry={() => {}} />

@@ -34,7 +34,8 @@ function Calibration({ state, seesAll }: { state: InsightFilterState; seesAll: b
   return (
     <div className="flex flex-col gap-4">
       <p className="text-small text-muted">
-        Only attempts the instructor marked pass or fail count. The measurement is Quarterbeat's score under the network's pass rule; kappa's words follow Landis and Koch (1977).
+        Only attempts the instructor marked pass or fail count. The measurement is Quarterbeat's score under the network's pass rule; kappa's words follow
+        Landis and Koch (1977).
       </p>
       <QueryStatus query={query} loadingLabel="Loading calibration…" errorTitle="Calibration could not be loaded">
         {(answer) => (seesAll ? <AllCalibration answer={answer} /> : <OwnCalibration answer={answer} />)}

@@ -35,7 +35,8 @@ export function CalibrationTable({ row, subject = YOU }: { row: CalibrationRow; 
   return (
     <table className="border-collapse text-small">
       <caption className="mb-1 text-left font-semibold">
-        {subject.you ? "Your" : `${subject.code}'s`} judgement against the measurement ({formatCount(row.judged)} attempts {subject.you ? "you" : "they"} marked)
+        {subject.you ? "Your" : `${subject.code}'s`} judgement against the measurement ({formatCount(row.judged)} attempts {subject.you ? "you" : "they"}{" "}
+        marked)
       </caption>
       <thead>
         <tr>
@@ -88,7 +89,8 @@ export function CalibrationWords({ row, ranked, subject = YOU }: { row: Calibrat
       </li>
       {row.lenient_rank !== null && (
         <li>
-          Among {ranked} instructors {who} {subject.you ? "pass" : "passes"} the {row.lenient_rank === 1 ? "largest" : `${ordinal(row.lenient_rank)} largest`} share of measured failures.
+          Among {ranked} instructors {who} {subject.you ? "pass" : "passes"} the {row.lenient_rank === 1 ? "largest" : `${ordinal(row.lenient_rank)} largest`}{" "}
+          share of measured failures.
         </li>
       )}
     </ul>
@@ -109,8 +111,8 @@ export function OwnCalibration({ answer }: { answer: CalibrationAnswer }) {
         {others.length > 0
           ? `Other instructors (not named) passed between ${formatPercent(Math.min(...others))} and ${formatPercent(Math.max(...others))} of the measured failures they judged.`
           : "No other instructor's figures can be shown for this period."}
-        {answer.othersHidden > 0 ? ` ${answer.othersHidden} instructor${answer.othersHidden === 1 ? "" : "s"} judged too few attempts to be shown.` : ""} Only you and the network's quality lead
-        and coordinator see this page's figures for you.
+        {answer.othersHidden > 0 ? ` ${answer.othersHidden} instructor${answer.othersHidden === 1 ? "" : "s"} judged too few attempts to be shown.` : ""} Only
+        you and the network's quality lead and coordinator see this page's figures for you.
       </p>
     </div>
   );
@@ -123,9 +125,23 @@ const allColumns: Column<CalibrationRow>[] = [
   { key: "pass_fail", header: "Passed, measured fail", headerWrap: true, value: (r) => r.instructor_pass_measured_fail, align: "right" },
   { key: "fail_pass", header: "Failed, measured pass", headerWrap: true, value: (r) => r.instructor_fail_measured_pass, align: "right" },
   { key: "both_fail", header: "Both fail", headerWrap: true, value: (r) => r.both_fail, align: "right" },
-  { key: "lenient", header: calibrationNames.lenient, headerWrap: true, value: (r) => percentValue(r.lenient_share), render: (r) => formatPercent(r.lenient_share), align: "right" },
+  {
+    key: "lenient",
+    header: calibrationNames.lenient,
+    headerWrap: true,
+    value: (r) => percentValue(r.lenient_share),
+    render: (r) => formatPercent(r.lenient_share),
+    align: "right",
+  },
   { key: "lenient_ci", header: "95 % interval", headerWrap: true, value: (r) => formatInterval(r.lenient_ci95?.[0], r.lenient_ci95?.[1]), align: "right" },
-  { key: "strict", header: calibrationNames.strict, headerWrap: true, value: (r) => percentValue(r.strict_share), render: (r) => formatPercent(r.strict_share), align: "right" },
+  {
+    key: "strict",
+    header: calibrationNames.strict,
+    headerWrap: true,
+    value: (r) => percentValue(r.strict_share),
+    render: (r) => formatPercent(r.strict_share),
+    align: "right",
+  },
   { key: "strict_ci", header: "95 % interval ", headerWrap: true, value: (r) => formatInterval(r.strict_ci95?.[0], r.strict_ci95?.[1]), align: "right" },
   { key: "kappa", header: calibrationNames.kappa, value: (r) => r.kappa, render: (r) => formatKappa(r.kappa, r.kappa_ci95), align: "right" },
   { key: "kappa_words", header: "In words", value: (r) => kappaWords(r.kappa) },
@@ -138,8 +154,8 @@ export function AllCalibration({ answer }: { answer: CalibrationAnswer }) {
     <div className="flex flex-col gap-3">
       {most && (
         <p>
-          Most lenient in {rangeLabel(answer.period)}: <strong>{most.instructor.code}</strong> passed {formatPercent(most.lenient_share)} of measured failures (95 % interval{" "}
-          {formatInterval(most.lenient_ci95?.[0], most.lenient_ci95?.[1])}).
+          Most lenient in {rangeLabel(answer.period)}: <strong>{most.instructor.code}</strong> passed {formatPercent(most.lenient_share)} of measured failures
+          (95 % interval {formatInterval(most.lenient_ci95?.[0], most.lenient_ci95?.[1])}).
         </p>
       )}
       <DataTable

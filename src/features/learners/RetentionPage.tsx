@@ -28,8 +28,8 @@ function Retention({ state }: { state: InsightFilterState }) {
   return (
     <div className="flex flex-col gap-4">
       <p className="text-small text-muted">
-        The period picks the returning (or first) class by its date; the previous class may be earlier. Months are days ÷ 30.4375. Choose a longer period (last 4 quarters, all
-        quarters) for more returns per group.
+        The period picks the returning (or first) class by its date; the previous class may be earlier. Months are days ÷ 30.4375. Choose a longer period (last
+        4 quarters, all quarters) for more returns per group.
       </p>
       <QueryStatus query={query} loadingLabel="Loading returning learners…" errorTitle="Skill retention could not be loaded">
         {(answer) => <RetentionView answer={answer} />}

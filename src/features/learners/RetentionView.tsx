@@ -28,7 +28,10 @@ export function retentionRows(answer: RetentionAnswer): RetentionRow[] {
     low: g.ci95?.[0] ?? null,
     high: g.ci95?.[1] ?? null,
   });
-  return [row("first_time", retentionGroupNames.first_time, answer.first_time), ...answer.returning.map((b) => row(b.months, retentionGroupNames[b.months], b))];
+  return [
+    row("first_time", retentionGroupNames.first_time, answer.first_time),
+    ...answer.returning.map((b) => row(b.months, retentionGroupNames[b.months], b)),
+  ];
 }
 
 // On a phone the full group names do not fit beside the bars.
@@ -52,7 +55,9 @@ const columns: Column<RetentionRow>[] = [
 export function RetentionView({ answer }: { answer: RetentionAnswer }) {
   const rows = retentionRows(answer);
   const returning = rows.slice(1).filter((r) => r.learners > 0);
-  const bars: IntervalBar[] = rows.filter((r) => r.learners > 0).map((r) => ({ label: r.group, shortLabel: shortGroupLabels[r.key], rate: r.rate, low: r.low, high: r.high }));
+  const bars: IntervalBar[] = rows
+    .filter((r) => r.learners > 0)
+    .map((r) => ({ label: r.group, shortLabel: shortGroupLabels[r.key], rate: r.rate, low: r.low, high: r.high }));
   const about = answer.profile ? ` on ${patientTypeNames[answer.profile].toLowerCase()} attempts` : "";
   const description =
     returning.length === 0
@@ -60,7 +65,15 @@ export function RetentionView({ answer }: { answer: RetentionAnswer }) {
       : `${retentionFigureName}${about}, ${rangeLabel(answer.period)}: ${returning.map((r) => `${r.group.toLowerCase()} ${formatPercent(r.rate)} of ${formatCount(r.learners)}`).join("; ")}; first course ${formatPercent(answer.first_time.rate)} of ${formatCount(answer.first_time.learners)}. Bars show the rate, whiskers its 95 % interval.`;
   return (
     <div className="flex flex-col gap-6">
-      <Chart title={`${retentionFigureName} by time since the previous class`} description={description} data={bars} columns={barColumns} rowKey={(b) => b.label} plot={(data, size) => intervalBarsPlot(data, size, 200)} exportFileName="retention-chart" />
+      <Chart
+        title={`${retentionFigureName} by time since the previous class`}
+        description={description}
+        data={bars}
+        columns={barColumns}
+        rowKey={(b) => b.label}
+        plot={(data, size) => intervalBarsPlot(data, size, 200)}
+        exportFileName="retention-chart"
+      />
       <DataTable caption="Returning and first-time learners" columns={columns} rows={rows} rowKey={(r) => r.key} exportFileName="retention" />
     </div>
   );

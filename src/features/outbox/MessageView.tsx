@@ -13,7 +13,10 @@ export interface MessageViewProps {
 
 export const MessageView = forwardRef<HTMLHeadingElement, MessageViewProps>(function MessageView({ message, onClose }, headingRef) {
   return (
-    <article aria-labelledby={`message-${message.id}-subject`} className="flex flex-col gap-4 rounded-card border border-line-strong bg-surface p-4 shadow-card sm:p-6">
+    <article
+      aria-labelledby={`message-${message.id}-subject`}
+      className="flex flex-col gap-4 rounded-card border border-line-strong bg-surface p-4 shadow-card sm:p-6"
+    >
       <div className="flex flex-wrap items-start justify-between gap-3">
         <h2 id={`message-${message.id}-subject`} ref={headingRef} tabIndex={-1} className="min-w-0 scroll-mt-24 text-title break-words outline-none">
           {message.subject || "(no subject)"}
@@ -54,7 +57,14 @@ export const MessageView = forwardRef<HTMLHeadingElement, MessageViewProps>(func
                   className="inline-flex min-h-11 items-center gap-2 rounded-control border border-line-strong bg-surface px-4 font-medium text-dusk-800 hover:bg-dusk-50"
                 >
                   <svg viewBox="0 0 20 20" className="size-4" aria-hidden="true">
-                    <path d="M10 3v9m0 0-3.5-3.5M10 12l3.5-3.5M4 14v2.5h12V14" fill="none" stroke="currentColor" strokeWidth="1.8" strokeLinecap="round" strokeLinejoin="round" />
+                    <path
+                      d="M10 3v9m0 0-3.5-3.5M10 12l3.5-3.5M4 14v2.5h12V14"
+                      fill="none"
+                      stroke="currentColor"
+                      strokeWidth="1.8"
+                      strokeLinecap="round"
+                      strokeLinejoin="round"
+                    />
                   </svg>
                   Download {attachment.filename}
                 </a>

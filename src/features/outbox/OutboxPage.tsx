@@ -98,15 +98,10 @@ export default function OutboxPage() {
         </EmptyState>
       ) : (
         <>
-          <DataTable
-            caption="Received messages"
-            captionHidden
-            columns={columns}
-            rows={messages.data}
-            rowKey={(m) => m.id}
-            emptyMessage="No messages."
-          />
-          {params.get("message") && !open && <p className="text-muted">Message {params.get("message")} is not in the outbox (it may be older than the 200 newest).</p>}
+          <DataTable caption="Received messages" captionHidden columns={columns} rows={messages.data} rowKey={(m) => m.id} emptyMessage="No messages." />
+          {params.get("message") && !open && (
+            <p className="text-muted">Message {params.get("message")} is not in the outbox (it may be older than the 200 newest).</p>
+          )}
           {open && <MessageView ref={headingRef} message={open} onClose={() => show(null)} />}
         </>
       )}

@@ -7,7 +7,10 @@ export function MethodsBox({ data }: { data: ReportData }) {
   const { methods } = data;
   const versions = methods.scoredUnderVersions;
   return (
-    <section aria-labelledby="report-methods" className="flex flex-col gap-4 rounded-card border border-line-strong bg-paper p-4 sm:p-6 print:break-before-page">
+    <section
+      aria-labelledby="report-methods"
+      className="flex flex-col gap-4 rounded-card border border-line-strong bg-paper p-4 sm:p-6 print:break-before-page"
+    >
       <h3 id="report-methods" className="text-title">
         How these figures are made
       </h3>
@@ -23,7 +26,8 @@ export function MethodsBox({ data }: { data: ReportData }) {
         <p className="text-small text-muted">{methods.passRuleNote}</p>
         {versions.length > 0 && (
           <p className="text-small text-muted">
-            This period's attempts were scored under policy version{versions.length === 1 ? "" : "s"} {versions.join(", ")}; the targets below are from version {data.policyVersion}.
+            This period's attempts were scored under policy version{versions.length === 1 ? "" : "s"} {versions.join(", ")}; the targets below are from version{" "}
+            {data.policyVersion}.
           </p>
         )}
       </div>
@@ -55,7 +59,9 @@ export function MethodsBox({ data }: { data: ReportData }) {
       <div className="flex flex-col gap-2">
         <h4 className="font-semibold">Small numbers</h4>
         <p className="text-small">{methods.suppressionNote}</p>
-        <p className="text-small text-muted">Intervals are 95 % Wilson score intervals: the range the true rate most likely lies in, given how many attempts were measured.</p>
+        <p className="text-small text-muted">
+          Intervals are 95 % Wilson score intervals: the range the true rate most likely lies in, given how many attempts were measured.
+        </p>
       </div>
 
       <aside aria-label="Caution" className="flex items-start gap-2 rounded-control border border-marigold-300 bg-marigold-100 px-4 py-3 text-small text-ink">

@@ -133,12 +133,13 @@ function ReportForPeriod({ period, coordinator }: { period: string; coordinator:
     </p>
   ) : latest ? (
     <p>
-      You are reading <strong>today's figures</strong>. The latest stored version is {latest.version}, created {formatDateTime(latest.createdAt)}; imports since then may
-      have changed some figures.
+      You are reading <strong>today's figures</strong>. The latest stored version is {latest.version}, created {formatDateTime(latest.createdAt)}; imports since
+      then may have changed some figures.
     </p>
   ) : (
     <p>
-      You are reading <strong>today's figures</strong>. {coordinator ? "No version has been stored yet: create one below to make the PDF." : "No PDF has been made for this period yet."}
+      You are reading <strong>today's figures</strong>.{" "}
+      {coordinator ? "No version has been stored yet: create one below to make the PDF." : "No PDF has been made for this period yet."}
     </p>
   );
 
@@ -153,7 +154,14 @@ function ReportForPeriod({ period, coordinator }: { period: string; coordinator:
               className="inline-flex min-h-11 items-center gap-2 rounded-control border border-dusk-700 bg-dusk-700 px-4 font-medium text-white hover:bg-dusk-800"
             >
               <svg viewBox="0 0 20 20" className="size-4" aria-hidden="true">
-                <path d="M10 3v9m0 0-3.5-3.5M10 12l3.5-3.5M4 14v2.5h12V14" fill="none" stroke="currentColor" strokeWidth="1.8" strokeLinecap="round" strokeLinejoin="round" />
+                <path
+                  d="M10 3v9m0 0-3.5-3.5M10 12l3.5-3.5M4 14v2.5h12V14"
+                  fill="none"
+                  stroke="currentColor"
+                  strokeWidth="1.8"
+                  strokeLinecap="round"
+                  strokeLinejoin="round"
+                />
               </svg>
               Download PDF
               <span className="font-normal">
@@ -162,7 +170,8 @@ function ReportForPeriod({ period, coordinator }: { period: string; coordinator:
             </a>
           ) : (
             <p className="text-small text-muted">
-              No PDF yet for {periodLabel(period)}: {coordinator ? "create a report version below." : "the coordinator has not created a report version for this period."}
+              No PDF yet for {periodLabel(period)}:{" "}
+              {coordinator ? "create a report version below." : "the coordinator has not created a report version for this period."}
             </p>
           )}
           <Button variant="secondary" onClick={() => window.print()}>
@@ -186,25 +195,26 @@ function ReportForPeriod({ period, coordinator }: { period: string; coordinator:
               ] as const
             ).map(([value, label]) => (
               <label key={value} className="flex min-h-9 cursor-pointer items-center gap-2">
-                <input type="radio" name="report-source" value={value} checked={source === value} onChange={() => setChosen(value)} className="size-4 accent-dusk-700" />
+                <input
+                  type="radio"
+                  name="report-source"
+                  value={value}
+                  checked={source === value}
+                  onChange={() => setChosen(value)}
+                  className="size-4 accent-dusk-700"
+                />
                 {label}
               </label>
             ))}
           </div>
         )}
-        {running && (
-          <Notice tone="info">{periodLabel(period)} has not ended yet: its figures will change as more classes and attempts are imported.</Notice>
-        )}
+        {running && <Notice tone="info">{periodLabel(period)} has not ended yet: its figures will change as more classes and attempts are imported.</Notice>}
       </div>
 
       {loading ? (
         <LoadingState label={`Loading the report for ${periodLabel(period)}…`} />
       ) : error || !data ? (
-        <ErrorState
-          error={error}
-          title="The report could not be loaded"
-          onRetry={() => (showVersion ? stored.refetch() : preview.refetch())}
-        />
+        <ErrorState error={error} title="The report could not be loaded" onRetry={() => (showVersion ? stored.refetch() : preview.refetch())} />
       ) : (
         <ReportView data={data} source={sourceNote} actionsSlot={coordinator && !showVersion ? <NotesEditor period={period} /> : undefined} />
       )}
@@ -215,9 +225,7 @@ function ReportForPeriod({ period, coordinator }: { period: string; coordinator:
             <h2 id="prepare-heading" tabIndex={-1} className="scroll-mt-24 text-headline outline-none">
               Prepare and send
             </h2>
-            <p className="text-muted">
-              Only coordinators see this part. Funders read the latest version you released or sent, and download its PDF.
-            </p>
+            <p className="text-muted">Only coordinators see this part. Funders read the latest version you released or sent, and download its PDF.</p>
           </div>
           <VersionsPanel period={period} versions={versions.data} onCreated={() => undefined} />
           <section aria-labelledby="send-heading" className="flex flex-col gap-3">

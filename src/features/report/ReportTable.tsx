@@ -10,9 +10,24 @@ export interface ReportColumn<Row> {
   align?: "left" | "right";
 }
 
-export function ReportTable<Row>({ caption, columns, rows, rowKey }: { caption: string; columns: readonly ReportColumn<Row>[]; rows: readonly Row[]; rowKey: (row: Row) => string }) {
+export function ReportTable<Row>({
+  caption,
+  columns,
+  rows,
+  rowKey,
+}: {
+  caption: string;
+  columns: readonly ReportColumn<Row>[];
+  rows: readonly Row[];
+  rowKey: (row: Row) => string;
+}) {
   return (
-    <div role="region" aria-label={caption} tabIndex={0} className="relative overflow-x-auto rounded-card border border-line bg-surface print:overflow-visible print:border-line-strong">
+    <div
+      role="region"
+      aria-label={caption}
+      tabIndex={0}
+      className="relative overflow-x-auto rounded-card border border-line bg-surface print:overflow-visible print:border-line-strong"
+    >
       <table className="w-full border-collapse text-left text-small">
         <caption className="sr-only">{caption}</caption>
         <thead>

@@ -19,7 +19,6 @@ export interface ReportViewProps {
   actionsSlot?: ReactNode;
 }
 
-
 function Section({ id, title, children, className }: { id: string; title: string; children: ReactNode; className?: string }) {
   return (
     <section aria-labelledby={id} className={clsx("flex flex-col gap-3 break-inside-avoid-page", className)}>
@@ -85,8 +84,7 @@ export function ReportView({ data, source, actionsSlot }: ReportViewProps) {
           Training quality report, {data.periodLabel}
         </h2>
         <p className="text-small text-muted">
-          Period {data.period} · figures as of {formatDateTime(data.generatedAt)} · scoring policy version{" "}
-          {data.policyVersion}
+          Period {data.period} · figures as of {formatDateTime(data.generatedAt)} · scoring policy version {data.policyVersion}
         </p>
         {source && <div className="mt-1 text-small">{source}</div>}
       </header>
@@ -181,7 +179,9 @@ function ReportSections({ data, actionsSlot }: { data: ReportData; actionsSlot?:
             </ul>
           )}
         </div>
-        {data.byPatientType.length > 0 && <ReportTable caption="Pass rate by patient type" rows={data.byPatientType} rowKey={(g) => g.key} columns={groupColumns("Patient type")} />}
+        {data.byPatientType.length > 0 && (
+          <ReportTable caption="Pass rate by patient type" rows={data.byPatientType} rowKey={(g) => g.key} columns={groupColumns("Patient type")} />
+        )}
       </Section>
 
       <Section id="report-trend" title="Quarter by quarter">
@@ -248,8 +248,15 @@ function ReportSections({ data, actionsSlot }: { data: ReportData; actionsSlot?:
       )}
 
       <Section id="report-feedback" title="Live or hidden feedback display">
-        <p className="text-small text-muted">Some attempts are made with the manikin's live display shown to the learner, others with it hidden, as in a real emergency.</p>
-        <ReportTable caption="Pass rate with the display shown and hidden" rows={[data.feedback.live, data.feedback.hidden]} rowKey={(g) => g.key} columns={groupColumns("Display")} />
+        <p className="text-small text-muted">
+          Some attempts are made with the manikin's live display shown to the learner, others with it hidden, as in a real emergency.
+        </p>
+        <ReportTable
+          caption="Pass rate with the display shown and hidden"
+          rows={[data.feedback.live, data.feedback.hidden]}
+          rowKey={(g) => g.key}
+          columns={groupColumns("Display")}
+        />
         {data.feedback.differencePoints !== null && <p>{feedbackSentence(data.feedback.differencePoints, data.feedback.verdict)}</p>}
       </Section>
 

@@ -35,9 +35,7 @@ export function SendConfirmation({ version, coverNote, recipients, busy, onConfi
         Check before sending: {period}, version {version.version}
       </h4>
       <div className="flex flex-col gap-1">
-        <p className="font-semibold">
-          Goes to {count}, each in a message of their own (no one sees the other addresses):
-        </p>
+        <p className="font-semibold">Goes to {count}, each in a message of their own (no one sees the other addresses):</p>
         <ul aria-label="Recipients" className="flex flex-wrap gap-x-4 gap-y-1 text-small break-all">
           {recipients.map((address) => (
             <li key={address}>{address}</li>
@@ -46,8 +44,8 @@ export function SendConfirmation({ version, coverNote, recipients, busy, onConfi
       </div>
       {noActionsText && (
         <Notice tone="info">
-          This version was stored before you wrote what the network is doing about the errors, so its PDF says that you have not written it yet. To
-          send your text, write it above the report, create a new version and send that one.
+          This version was stored before you wrote what the network is doing about the errors, so its PDF says that you have not written it yet. To send your
+          text, write it above the report, create a new version and send that one.
         </Notice>
       )}
       <div className="flex flex-col gap-1">

@@ -103,9 +103,15 @@ export function SendForm({ period, versions, onSent }: SendFormProps) {
           if (row.status === "sent") {
             setExtra("");
             setCoverNote("");
-            setResult({ tone: "success", text: `Version ${row.version} of ${periodLabel(row.period)} was sent to ${row.recipients.join(", ")}, one message each.` });
+            setResult({
+              tone: "success",
+              text: `Version ${row.version} of ${periodLabel(row.period)} was sent to ${row.recipients.join(", ")}, one message each.`,
+            });
           } else {
-            setResult({ tone: "error", text: `Sending failed: ${row.error ?? "the mail server did not accept it"}. It is listed below; retry once the mail server is reachable.` });
+            setResult({
+              tone: "error",
+              text: `Sending failed: ${row.error ?? "the mail server did not accept it"}. It is listed below; retry once the mail server is reachable.`,
+            });
           }
         },
         onError: (error) => {
@@ -143,7 +149,11 @@ export function SendForm({ period, versions, onSent }: SendFormProps) {
         onChange={(event) => setVersionId(event.target.value)}
       />
       <div id={`${formId}-note`}>
-        <Field label="Cover note" hint="Your words above the report in every message: why you send it and what is new. Up to 2000 characters." error={coverError}>
+        <Field
+          label="Cover note"
+          hint="Your words above the report in every message: why you send it and what is new. Up to 2000 characters."
+          error={coverError}
+        >
           {({ id, describedBy, invalid }) => (
             <textarea
               id={id}

@@ -46,8 +46,20 @@ export function SendHistory() {
   }
 
   const columns: Column<ReportSendRow>[] = [
-    { key: "when", header: "When", value: (s) => s.createdAt, render: (s) => formatDateTime(s.createdAt), sortLabels: { asc: "oldest first", desc: "newest first" } },
-    { key: "report", header: "Report", value: (s) => `${s.period} v${s.version}`, render: (s) => `${periodLabel(s.period)}, version ${s.version}`, primary: true },
+    {
+      key: "when",
+      header: "When",
+      value: (s) => s.createdAt,
+      render: (s) => formatDateTime(s.createdAt),
+      sortLabels: { asc: "oldest first", desc: "newest first" },
+    },
+    {
+      key: "report",
+      header: "Report",
+      value: (s) => `${s.period} v${s.version}`,
+      render: (s) => `${periodLabel(s.period)}, version ${s.version}`,
+      primary: true,
+    },
     { key: "to", header: "To", value: (s) => s.recipients.join(", "), wrap: true },
     { key: "by", header: "Sent by", value: (s) => s.sentBy ?? "" },
     {
@@ -70,7 +82,11 @@ export function SendHistory() {
       render: (s) =>
         s.status === "failed" ? (
           <Button size="sm" variant="secondary" onClick={() => runRetry(s)} busy={retry.isPending && retry.variables === s.id}>
-            Retry<span className="sr-only"> sending {periodLabel(s.period)} version {s.version}</span>
+            Retry
+            <span className="sr-only">
+              {" "}
+              sending {periodLabel(s.period)} version {s.version}
+            </span>
           </Button>
         ) : null,
     },

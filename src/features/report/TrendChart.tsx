@@ -36,7 +36,11 @@ export function describeTrend(trend: Trend): string {
   const last = shown[shown.length - 1];
   const parts = [
     `Share of measured attempts that met the pass rule, from ${first.passRate.text} in ${quarterLabel(first.quarter)} to ${last.passRate.text} in ${quarterLabel(last.quarter)}` +
-      (trend.centre === null ? "." : trend.baseline === undefined ? `, around an average of ${formatShare(trend.centre)}.` : `, around a centre line of ${formatShare(trend.centre)}.`),
+      (trend.centre === null
+        ? "."
+        : trend.baseline === undefined
+          ? `, around an average of ${formatShare(trend.centre)}.`
+          : `, around a centre line of ${formatShare(trend.centre)}.`),
   ];
   const baseline = trendBaselineText(trend);
   if (baseline) parts.push(baseline);
@@ -92,7 +96,14 @@ export function TrendChart({ trend }: { trend: Trend }) {
           centre === null ? null : Plot.ruleY([centre], { stroke: ink.main, strokeWidth: 1.5 }),
           narrow || centre === null
             ? null
-            : Plot.text([centre], { x: points[points.length - 1].quarter, y: (c: number) => c, text: () => `${trend.baseline === undefined ? "average" : "centre"} ${formatShare(centre)}`, dx: 10, textAnchor: "start", fill: ink.text }),
+            : Plot.text([centre], {
+                x: points[points.length - 1].quarter,
+                y: (c: number) => c,
+                text: () => `${trend.baseline === undefined ? "average" : "centre"} ${formatShare(centre)}`,
+                dx: 10,
+                textAnchor: "start",
+                fill: ink.text,
+              }),
           Plot.line(shown, { x: "quarter", y: "ucl", curve: "step", stroke: ink.limit, strokeDasharray: "5 4" }),
           Plot.line(shown, { x: "quarter", y: "lcl", curve: "step", stroke: ink.limit, strokeDasharray: "5 4" }),
           Plot.ruleX(shown, { x: "quarter", y1: "low", y2: "high", stroke: ink.soft, strokeWidth: 3 }),

@@ -49,7 +49,10 @@ export function VersionsPanel({ period, versions, onCreated }: VersionsPanelProp
     setMessage(null);
     create.mutate(undefined, {
       onSuccess: (version) => {
-        setMessage({ tone: "success", text: `Version ${version.version} of ${periodLabel(period)} is stored (PDF, ${formatKb(version.pdfBytes)}). Funders see it once you release or send it.` });
+        setMessage({
+          tone: "success",
+          text: `Version ${version.version} of ${periodLabel(period)} is stored (PDF, ${formatKb(version.pdfBytes)}). Funders see it once you release or send it.`,
+        });
         onCreated(version);
       },
       onError: (error) => setMessage({ tone: "error", text: `No version was created: ${errorMessage(error)}` }),
@@ -64,8 +67,8 @@ export function VersionsPanel({ period, versions, onCreated }: VersionsPanelProp
             Report versions for {periodLabel(period)}
           </h3>
           <p className="text-small text-muted">
-            Creating a version stores today's figures, your text and the PDF. Funders see a version once you release it or send it to them, and read the latest one
-            released; earlier ones stay here unchanged.
+            Creating a version stores today's figures, your text and the PDF. Funders see a version once you release it or send it to them, and read the latest
+            one released; earlier ones stay here unchanged.
           </p>
         </div>
         {/* on a phone this block falls under the heading: there it lines up on the left like the rest */}
@@ -74,7 +77,9 @@ export function VersionsPanel({ period, versions, onCreated }: VersionsPanelProp
             <input type="checkbox" className="mt-1" checked={includeActions} onChange={(event) => setIncludeActions(event.target.checked)} />
             <span>
               Include the improvement actions
-              <span className="block text-caption text-muted">Title, aim, start and status of those started by the period&apos;s end; never the owner, and none aimed at one instructor.</span>
+              <span className="block text-caption text-muted">
+                Title, aim, start and status of those started by the period&apos;s end; never the owner, and none aimed at one instructor.
+              </span>
             </span>
           </label>
           <Button onClick={run} busy={create.isPending}>
@@ -84,7 +89,9 @@ export function VersionsPanel({ period, versions, onCreated }: VersionsPanelProp
       </div>
       {message && <Notice tone={message.tone}>{message.text}</Notice>}
       {versions.length === 0 ? (
-        <p className="rounded-card border border-dashed border-line-strong bg-surface p-4 text-muted">No version has been created for {periodLabel(period)} yet.</p>
+        <p className="rounded-card border border-dashed border-line-strong bg-surface p-4 text-muted">
+          No version has been created for {periodLabel(period)} yet.
+        </p>
       ) : (
         <ReportTable
           caption={`Report versions for ${periodLabel(period)}`}
@@ -106,7 +113,10 @@ export function VersionsPanel({ period, versions, onCreated }: VersionsPanelProp
                   </Button>
                 ),
             },
-            { header: "Last sent", cell: (v) => (v.lastSend ? `${v.lastSend.status === "sent" ? "Sent" : "Failed"} ${formatDateTime(v.lastSend.createdAt)}` : "Not sent") },
+            {
+              header: "Last sent",
+              cell: (v) => (v.lastSend ? `${v.lastSend.status === "sent" ? "Sent" : "Failed"} ${formatDateTime(v.lastSend.createdAt)}` : "Not sent"),
+            },
             {
               header: "Downloads",
               cell: (v) => (

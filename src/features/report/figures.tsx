@@ -26,7 +26,6 @@ export function rateWithInterval(rate: RateFigure): string {
   return `${rate.text} (95 % interval ${rate.intervalText})`;
 }
 
-
 /** A share 0–1 as "36.7 %"; "–" when missing. */
 export function formatShare(share: number | null): string {
   return share === null ? "–" : `${formatDecimal(share * 100, 1)} %`;

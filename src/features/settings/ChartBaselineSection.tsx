@@ -20,8 +20,8 @@ export function ChartBaselineSection({ quarters, canEdit }: { quarters: readonly
         Control chart baseline
       </h2>
       <p className="max-w-3xl">
-        The overview's quarter-by-quarter chart draws its centre line and control limits from these quarters. Quarters after them are judged
-        against that line and never move it, so a quarter's verdict does not change when newer quarters arrive.
+        The overview's quarter-by-quarter chart draws its centre line and control limits from these quarters. Quarters after them are judged against that line
+        and never move it, so a quarter's verdict does not change when newer quarters arrive.
       </p>
       {baseline.isPending ? (
         <LoadingState label="Loading the baseline…" />

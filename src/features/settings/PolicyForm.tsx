@@ -7,7 +7,18 @@ import type { LengthUnit } from "../../../shared/units";
 import { Button } from "../../components/Button";
 import { Field, controlClass } from "../../components/Field";
 import { Notice } from "../../components/Notice";
-import { allFields, displayValue, errorsByPath, fieldGroups, formValuesOf, policyFromValues, readPath, unitWord, type FormValues, type PolicyField } from "./policyFields";
+import {
+  allFields,
+  displayValue,
+  errorsByPath,
+  fieldGroups,
+  formValuesOf,
+  policyFromValues,
+  readPath,
+  unitWord,
+  type FormValues,
+  type PolicyField,
+} from "./policyFields";
 import { patientTypeNames } from "../../../shared/vocabulary";
 
 export interface PolicyFormProps {
@@ -85,7 +96,9 @@ export function PolicyForm({ current, defaults, fieldSources, unit, canEdit, sav
     const source = sourceFor(field.path, fieldSources);
     const defaultText = displayValue(field, readPath(defaults, field.path), unit);
     const word = unitWord(field.kind, unit);
-    const sourceWords = source ? `${sourceKindLabels[source.kind]}${source.sources.length ? `: ${source.sources.map(shortSourceName).join(", ")}` : ""}` : "project default";
+    const sourceWords = source
+      ? `${sourceKindLabels[source.kind]}${source.sources.length ? `: ${source.sources.map(shortSourceName).join(", ")}` : ""}`
+      : "project default";
     return (
       <Field
         key={field.path}
@@ -95,7 +108,9 @@ export function PolicyForm({ current, defaults, fieldSources, unit, canEdit, sav
             Default {defaultText}
             {word ? ` ${word}` : ""} — {sourceWords}
             {source?.note ? `. ${source.note}` : ""}
-            {readPath(current.policy, field.path) !== readPath(defaults, field.path) && <strong className="font-semibold text-ink"> In force: changed from the default.</strong>}
+            {readPath(current.policy, field.path) !== readPath(defaults, field.path) && (
+              <strong className="font-semibold text-ink"> In force: changed from the default.</strong>
+            )}
           </>
         }
         error={shown[field.path]}
@@ -137,7 +152,8 @@ export function PolicyForm({ current, defaults, fieldSources, unit, canEdit, sav
       )}
       <h3 className="text-title">Targets per patient type</h3>
       <p className="-mt-3 text-small text-muted">
-        Depths in {unit === "mm" ? "millimetres" : unit === "cm" ? "centimetres" : "inches"} (your unit, set on your account page); they are stored in millimetres.
+        Depths in {unit === "mm" ? "millimetres" : unit === "cm" ? "centimetres" : "inches"} (your unit, set on your account page); they are stored in
+        millimetres.
       </p>
       <div className="grid gap-4 xl:grid-cols-3">{patientTypes.map((type) => fieldset(patientTypeNames[type], fieldGroups.bands[type]))}</div>
       {fieldset("Pauses", fieldGroups.pauses)}
@@ -145,14 +161,28 @@ export function PolicyForm({ current, defaults, fieldSources, unit, canEdit, sav
         "Pass rule",
         fieldGroups.passRule,
         <p>
-          <strong className="text-ink">The pass rule is network policy, not a guideline.</strong> No resuscitation guideline publishes a pass mark in percent of compressions; the targets it counts against come from the guidelines.
+          <strong className="text-ink">The pass rule is network policy, not a guideline.</strong> No resuscitation guideline publishes a pass mark in percent of
+          compressions; the targets it counts against come from the guidelines.
         </p>,
       )}
-      {fieldset("Privacy", fieldGroups.privacy, "Groups with fewer attempts, or with the attempts of fewer other instructors, are hidden from funders and from instructors looking at others, to protect learners and colleagues.")}
-      {fieldset("Equipment", fieldGroups.equipment, "When a manikin is due for service and how many mouthpiece cleans a class should log. Network policy, not a manufacturer’s figure.")}
+      {fieldset(
+        "Privacy",
+        fieldGroups.privacy,
+        "Groups with fewer attempts, or with the attempts of fewer other instructors, are hidden from funders and from instructors looking at others, to protect learners and colleagues.",
+      )}
+      {fieldset(
+        "Equipment",
+        fieldGroups.equipment,
+        "When a manikin is due for service and how many mouthpiece cleans a class should log. Network policy, not a manufacturer’s figure.",
+      )}
       {canEdit && (
         <div className="flex flex-col gap-3 rounded-card border border-line bg-surface p-4 shadow-card">
-          <Field label="Note for this version" optional hint="Why the policy changes, for the version list (at most 500 characters)." error={note.length > 500 ? `Use at most 500 characters (now ${note.length})` : undefined}>
+          <Field
+            label="Note for this version"
+            optional
+            hint="Why the policy changes, for the version list (at most 500 characters)."
+            error={note.length > 500 ? `Use at most 500 characters (now ${note.length})` : undefined}
+          >
             {({ id, describedBy, invalid }) => (
               <textarea
                 id={id}

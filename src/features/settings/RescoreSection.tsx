@@ -32,15 +32,24 @@ export function RescoreSection({ version, quarters, canEdit }: { version: number
         Rescore past attempts
       </h2>
       <p className="max-w-3xl">
-        Attempts keep the score of the policy version in force when they were imported. Rescoring applies the pass rule of version {version} to every attempt scored under an older version; target bands and the pause threshold affect attempts imported from now on.
+        Attempts keep the score of the policy version in force when they were imported. Rescoring applies the pass rule of version {version} to every attempt
+        scored under an older version; target bands and the pause threshold affect attempts imported from now on.
       </p>
       {result && (
         <Notice tone="success">
-          Rescored under version {result.version}: {formatCount(result.examined)} attempts examined, {formatCount(result.changed)} changed score, result or errors. Their earlier scores are in each attempt’s history.
+          Rescored under version {result.version}: {formatCount(result.examined)} attempts examined, {formatCount(result.changed)} changed score, result or
+          errors. Their earlier scores are in each attempt’s history.
         </Notice>
       )}
       {canEdit ? (
-        <Button variant="secondary" className="self-start" onClick={() => { rescore.reset(); setOpen(true); }}>
+        <Button
+          variant="secondary"
+          className="self-start"
+          onClick={() => {
+            rescore.reset();
+            setOpen(true);
+          }}
+        >
           Rescore past attempts under version {version}…
         </Button>
       ) : (
@@ -55,9 +64,17 @@ export function RescoreSection({ version, quarters, canEdit }: { version: number
             <li>Pass rates and error counts on every page follow the new scores.</li>
           </ul>
           <p className="text-small text-muted">
-            Rescoring applies the pass rule to the figures stored with each attempt (shares on target, hands-on time, longest pause). Those figures were measured against the target bands and the pause threshold in force when the attempt was imported; changed bands apply to attempts imported from now on.
+            Rescoring applies the pass rule to the figures stored with each attempt (shares on target, hands-on time, longest pause). Those figures were
+            measured against the target bands and the pause threshold in force when the attempt was imported; changed bands apply to attempts imported from now
+            on.
           </p>
-          <Select label="Attempts from" value={fromQuarter} onChange={(event) => setFromQuarter(event.target.value)} placeholder="Every quarter" options={quarters.map((q) => ({ value: q, label: `${quarterLabel(q)} on` }))} />
+          <Select
+            label="Attempts from"
+            value={fromQuarter}
+            onChange={(event) => setFromQuarter(event.target.value)}
+            placeholder="Every quarter"
+            options={quarters.map((q) => ({ value: q, label: `${quarterLabel(q)} on` }))}
+          />
           {rescore.isError && <Notice tone="error">{errorMessage(rescore.error)}</Notice>}
           <div className="flex flex-wrap justify-end gap-2">
             <Button variant="secondary" onClick={() => setOpen(false)} disabled={rescore.isPending}>

@@ -47,7 +47,12 @@ function Settings({ answer }: { answer: PolicySettingsAnswer }) {
   const options = useInsightOptions();
   const save = useSavePolicy();
   const [saved, setSaved] = useState<number | null>(null);
-  const serverErrors = save.error instanceof ApiError ? serverFieldErrors(save.error) : save.error ? { form: "The policy could not be saved. Check the connection and try again." } : {};
+  const serverErrors =
+    save.error instanceof ApiError
+      ? serverFieldErrors(save.error)
+      : save.error
+        ? { form: "The policy could not be saved. Check the connection and try again." }
+        : {};
   const { current } = answer;
 
   return (
@@ -65,9 +70,7 @@ function Settings({ answer }: { answer: PolicySettingsAnswer }) {
         </p>
       </div>
       {saved !== null && (
-        <Notice tone="success">
-          Saved as version {saved}. New imports are scored under it; stored scores keep their version until you rescore below.
-        </Notice>
+        <Notice tone="success">Saved as version {saved}. New imports are scored under it; stored scores keep their version until you rescore below.</Notice>
       )}
       <PolicyForm
         key={`${current.version}|${unit}`}

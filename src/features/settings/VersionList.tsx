@@ -20,16 +20,39 @@ export function VersionList({ versions, unit, inForce }: { versions: readonly Po
       return `${displayValue(field, readPath(policy, path), unit)}${word ? ` ${word}` : ""}`;
     };
     const describe = (field: (typeof fields)[number]) => {
-      const where = field.path.startsWith("bands.") ? `${field.path.split(".")[1]} ` : field.path.startsWith("passRule.") ? "pass rule: " : field.path.startsWith("equipment.") ? "equipment: " : "";
+      const where = field.path.startsWith("bands.")
+        ? `${field.path.split(".")[1]} `
+        : field.path.startsWith("passRule.")
+          ? "pass rule: "
+          : field.path.startsWith("equipment.")
+            ? "equipment: "
+            : "";
       return `${where}${field.label.toLowerCase()} ${show(field.path, field, previous.policy)} → ${show(field.path, field, v.policy)}`;
     };
     return { ...v, changes: fields.length === 0 ? "No value changed" : fields.map(describe).join("; ") };
   });
   const columns: Column<VersionRow>[] = [
-    { key: "version", header: "Version", value: (v) => v.version, align: "right", render: (v) => (v.version === inForce ? <span className="font-semibold">{v.version} (in force)</span> : v.version), primary: true },
+    {
+      key: "version",
+      header: "Version",
+      value: (v) => v.version,
+      align: "right",
+      render: (v) => (v.version === inForce ? <span className="font-semibold">{v.version} (in force)</span> : v.version),
+      primary: true,
+    },
     { key: "createdAt", header: "Saved", value: (v) => v.createdAt, render: (v) => formatDateTime(v.createdAt) },
     { key: "note", header: "Note", value: (v) => v.note || null, wrap: true, render: (v) => v.note || <span className="text-muted">No note</span> },
     { key: "changes", header: "Changes from the version before", value: (v) => v.changes, wrap: true },
   ];
-  return <DataTable caption="Policy versions" columns={columns} rows={rows} rowKey={(v) => v.version} initialSort={{ key: "version", direction: "desc" }} exportFileName="policy-versions" filterable={rows.length > 8} />;
+  return (
+    <DataTable
+      caption="Policy versions"
+      columns={columns}
+      rows={rows}
+      rowKey={(v) => v.version}
+      initialSort={{ key: "version", direction: "desc" }}
+      exportFileName="policy-versions"
+      filterable={rows.length > 8}
+    />
+  );
 }

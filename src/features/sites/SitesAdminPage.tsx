@@ -16,12 +16,7 @@ import { AddSiteForm, RenameSiteForm } from "./SiteForms";
 import { useUpdateSite } from "./mutations";
 import { siteQueries } from "./queries";
 
-type OpenDialog =
-  | { kind: "addSite" }
-  | { kind: "rename"; site: SiteRow }
-  | { kind: "addInstructor" }
-  | { kind: "move"; instructor: InstructorRow }
-  | null;
+type OpenDialog = { kind: "addSite" } | { kind: "rename"; site: SiteRow } | { kind: "addInstructor" } | { kind: "move"; instructor: InstructorRow } | null;
 type Message = { tone: "success" | "error"; text: string } | null;
 
 export default function SitesAdminPage() {
@@ -35,7 +30,10 @@ export default function SitesAdminPage() {
 
   return (
     <div>
-      <PageHeader title="Sites and instructors" description="The training sites of the network and the instructors who teach at them. Codes match the ones in import files." />
+      <PageHeader
+        title="Sites and instructors"
+        description="The training sites of the network and the instructors who teach at them. Codes match the ones in import files."
+      />
       {message && (
         <Notice tone={message.tone} className="mb-4">
           {message.text}
@@ -48,7 +46,9 @@ export default function SitesAdminPage() {
         <AddSiteForm onCancel={close} onDone={(site) => done(`Site ${site.code} · ${site.name} added.`)} />
       </Dialog>
       <Dialog open={dialog?.kind === "rename"} title="Rename site" onClose={close}>
-        {dialog?.kind === "rename" && <RenameSiteForm site={dialog.site} onCancel={close} onDone={(site) => done(`Site ${site.code} is now called ${site.name}.`)} />}
+        {dialog?.kind === "rename" && (
+          <RenameSiteForm site={dialog.site} onCancel={close} onDone={(site) => done(`Site ${site.code} is now called ${site.name}.`)} />
+        )}
       </Dialog>
       <Dialog open={dialog?.kind === "addInstructor"} title="Add instructor" onClose={close}>
         <AddInstructorForm onCancel={close} onDone={(instructor) => done(`Instructor ${instructor.code} · ${instructor.name} added.`)} />
@@ -168,8 +168,7 @@ function InstructorsSection({ onOpen, onMessage }: SectionProps) {
       update.mutate(
         { id: instructor.id, changes: { active } },
         {
-          onSuccess: () =>
-            onMessage({ tone: "success", text: active ? `${instructor.name} is active again.` : `${instructor.name} is deactivated.` }),
+          onSuccess: () => onMessage({ tone: "success", text: active ? `${instructor.name} is active again.` : `${instructor.name} is deactivated.` }),
           onError: (error) => onMessage({ tone: "error", text: `${instructor.name} was not changed: ${errorMessage(error)}` }),
         },
       );

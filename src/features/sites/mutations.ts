@@ -10,10 +10,7 @@ import { siteQueries } from "./queries";
 export function useInvalidateSitesAndInstructors() {
   const queryClient = useQueryClient();
   return () =>
-    Promise.all([
-      queryClient.invalidateQueries({ queryKey: siteQueries.all() }),
-      queryClient.invalidateQueries({ queryKey: instructorQueries.all() }),
-    ]);
+    Promise.all([queryClient.invalidateQueries({ queryKey: siteQueries.all() }), queryClient.invalidateQueries({ queryKey: instructorQueries.all() })]);
 }
 
 export function useCreateSite() {
@@ -27,8 +24,7 @@ export function useCreateSite() {
 export function useUpdateSite() {
   const invalidate = useInvalidateSitesAndInstructors();
   return useMutation({
-    mutationFn: ({ id, changes }: { id: number; changes: z.infer<typeof updateSiteSchema> }) =>
-      http.patch<{ site: SiteRow }>(`/api/sites/${id}`, changes),
+    mutationFn: ({ id, changes }: { id: number; changes: z.infer<typeof updateSiteSchema> }) => http.patch<{ site: SiteRow }>(`/api/sites/${id}`, changes),
     onSuccess: invalidate,
   });
 }

@@ -7,8 +7,20 @@ import { formatBytes, formatDateTime, plural } from "../imports/labels";
 const sourceLabels: Record<BackupLogEntry["source"], string> = { scheduled: "Scheduled", cli: "Command line" };
 
 const columns: Column<BackupLogEntry>[] = [
-  { key: "taken", header: "Taken", value: (b) => b.takenAt, render: (b) => formatDateTime(b.takenAt), sortLabels: { asc: "oldest first", desc: "newest first" } },
-  { key: "result", header: "Verification", primary: true, value: (b) => (b.verified ? "Verified" : "Failed"), render: (b) => (b.verified ? "Verified" : <strong className="text-danger-text">Failed</strong>) },
+  {
+    key: "taken",
+    header: "Taken",
+    value: (b) => b.takenAt,
+    render: (b) => formatDateTime(b.takenAt),
+    sortLabels: { asc: "oldest first", desc: "newest first" },
+  },
+  {
+    key: "result",
+    header: "Verification",
+    primary: true,
+    value: (b) => (b.verified ? "Verified" : "Failed"),
+    render: (b) => (b.verified ? "Verified" : <strong className="text-danger-text">Failed</strong>),
+  },
   { key: "source", header: "Taken by", value: (b) => sourceLabels[b.source] },
   { key: "size", header: "Size", value: (b) => b.sizeBytes, render: (b) => formatBytes(b.sizeBytes), align: "right" },
   { key: "file", header: "File", value: (b) => b.file, wrap: true },
@@ -27,7 +39,11 @@ export function BackupsSection({ backups }: { backups: SystemReport["backups"] }
           ? `Scheduled backups: ${plural(backups.filesInDir, "copy", "copies")} (${formatBytes(backups.bytesInDir)}) in ${backups.dir}. Keep a copy of this folder on another machine.`
           : "Scheduled backups are off: copies are taken by hand from the command line."}
       </p>
-      {newest && !newest.verified && <Notice tone="error">The newest backup ({formatDateTime(newest.takenAt)}) failed its verification: {newest.message}</Notice>}
+      {newest && !newest.verified && (
+        <Notice tone="error">
+          The newest backup ({formatDateTime(newest.takenAt)}) failed its verification: {newest.message}
+        </Notice>
+      )}
       <p>
         Last verified backup:{" "}
         {backups.lastVerified ? (

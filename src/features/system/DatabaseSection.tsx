@@ -9,7 +9,14 @@ const growthColumns: Column<QuarterGrowth>[] = [
   { key: "quarter", header: "Quarter", value: (q) => q.quarter, render: (q) => quarterLabel(q.quarter), primary: true },
   { key: "classes", header: "Classes", value: (q) => q.classes, render: (q) => formatCount(q.classes), align: "right" },
   { key: "attempts", header: "Attempts", value: (q) => q.attempts, render: (q) => formatCount(q.attempts), align: "right" },
-  { key: "streams", header: "Compression streams", headerWrap: true, value: (q) => q.compressionStreams, render: (q) => formatCount(q.compressionStreams), align: "right" },
+  {
+    key: "streams",
+    header: "Compression streams",
+    headerWrap: true,
+    value: (q) => q.compressionStreams,
+    render: (q) => formatCount(q.compressionStreams),
+    align: "right",
+  },
 ];
 
 export function DatabaseSection({ report }: { report: SystemReport }) {

@@ -4,7 +4,13 @@ import { DataTable, type Column } from "../../components/DataTable";
 import { formatCount, formatDateTime, importedBy, kindLabels } from "../imports/labels";
 
 const columns: Column<ImportBatch>[] = [
-  { key: "when", header: "Imported", value: (b) => b.createdAt, render: (b) => formatDateTime(b.createdAt), sortLabels: { asc: "oldest first", desc: "newest first" } },
+  {
+    key: "when",
+    header: "Imported",
+    value: (b) => b.createdAt,
+    render: (b) => formatDateTime(b.createdAt),
+    sortLabels: { asc: "oldest first", desc: "newest first" },
+  },
   { key: "file", header: "File", value: (b) => b.fileName, primary: true, wrap: true },
   { key: "kind", header: "Kind", value: (b) => kindLabels[b.kind] },
   { key: "by", header: "By", value: (b) => importedBy(b) },

@@ -41,7 +41,13 @@ function breakdownPlot(data: readonly ShownRow[], { width }: ChartSize, attempts
     height: Math.max(100, rows.length * 24 + 50),
     marginLeft: Math.min(width / 3, 14 + longest * 7),
     marginRight: 44,
-    x: { domain: [0, Math.min(1, Math.max(0.1, ...rows.map((row) => row.high ?? row.share)) * 1.1)], tickFormat: (v: number) => `${Math.round(v * 100)} %`, label: "Share of attempts with the error", grid: true, ticks: width < 400 ? 3 : 5 },
+    x: {
+      domain: [0, Math.min(1, Math.max(0.1, ...rows.map((row) => row.high ?? row.share)) * 1.1)],
+      tickFormat: (v: number) => `${Math.round(v * 100)} %`,
+      label: "Share of attempts with the error",
+      grid: true,
+      ticks: width < 400 ? 3 : 5,
+    },
     y: { domain: rows.map((row) => row.name), label: null },
     marks: [
       // a bar opens the group's attempts with the error, as the table's links do
@@ -123,11 +129,21 @@ export function BreakdownPanel({ dimension, rows, nameOf, attemptsHref, recordHr
       : charted.length === 1
         ? `All attempts are in ${top.name}: ${percent(top.share)} have the error.`
         : `Share of attempts with “${errorLabel.toLowerCase()}” by ${dimension}, with 95 % intervals. Highest ${top.name} (${percent(top.share)} of ${top.attempts}), lowest ${bottom.name} (${percent(bottom.share)} of ${bottom.attempts}).` +
-          (groups > charted.length ? ` The chart shows the ${charted.length} ${dimension}s with the most attempts with the error; the table lists all ${groups}.` : "");
+          (groups > charted.length
+            ? ` The chart shows the ${charted.length} ${dimension}s with the most attempts with the error; the table lists all ${groups}.`
+            : "");
 
   return (
     <div className="flex min-w-0 flex-col gap-4">
-      <Chart title={`By ${dimension}`} description={description} data={charted} columns={columns.filter((c) => c.key !== "attemptsLink")} rowKey={(row) => row.key} plot={plot} exportFileName={`error-by-${dimension.replace(/\s+/g, "-")}-chart`} />
+      <Chart
+        title={`By ${dimension}`}
+        description={description}
+        data={charted}
+        columns={columns.filter((c) => c.key !== "attemptsLink")}
+        rowKey={(row) => row.key}
+        plot={plot}
+        exportFileName={`error-by-${dimension.replace(/\s+/g, "-")}-chart`}
+      />
       <DataTable
         caption={`Attempts with the error by ${dimension}`}
         columns={columns}

@@ -35,11 +35,29 @@ function paretoPlot(data: readonly ParetoRow[], { width }: ChartSize, examineHre
     marks: [
       Plot.barY(rows, { x: "error", y: "count", fill: dusk[600], title: (row: ParetoRow) => `${errorShortNames[row.error]}: ${row.count}`, href: examineHref }),
       // counts sit inside tall bars (the first bar's top is also the first point of the line) and above short ones
-      Plot.text(rows, { x: "error", y: "count", text: (row: ParetoRow) => String(row.count), dy: 10, fill: "white", fontWeight: 600, filter: (row: ParetoRow) => row.count >= total * 0.08 }),
-      Plot.text(rows, { x: "error", y: "count", text: (row: ParetoRow) => String(row.count), dy: -7, fill: "#1C1B2E", filter: (row: ParetoRow) => row.count < total * 0.08 }),
+      Plot.text(rows, {
+        x: "error",
+        y: "count",
+        text: (row: ParetoRow) => String(row.count),
+        dy: 10,
+        fill: "white",
+        fontWeight: 600,
+        filter: (row: ParetoRow) => row.count >= total * 0.08,
+      }),
+      Plot.text(rows, {
+        x: "error",
+        y: "count",
+        text: (row: ParetoRow) => String(row.count),
+        dy: -7,
+        fill: "#1C1B2E",
+        filter: (row: ParetoRow) => row.count < total * 0.08,
+      }),
       Plot.line(rows, { x: "error", y: (row: ParetoRow) => row.cumulativeShare * total, stroke: marigold[700], strokeWidth: 2, marker: "circle" }),
       Plot.axisY({ anchor: "left", label: "Attempts with the error" }),
-      Plot.axisY(shareTicks.map((s) => s * total), { anchor: "right", tickFormat: (v: number) => `${Math.round((v / total) * 100)} %`, label: "Cumulative share of errors", labelAnchor: "top" }),
+      Plot.axisY(
+        shareTicks.map((s) => s * total),
+        { anchor: "right", tickFormat: (v: number) => `${Math.round((v / total) * 100)} %`, label: "Cumulative share of errors", labelAnchor: "top" },
+      ),
       Plot.ruleY([0]),
     ],
   };
@@ -61,9 +79,21 @@ export function ParetoChart({ rows, attempts, examineHref, selected }: ParetoCha
   const columns: Column<ParetoRow>[] = [
     { key: "error", header: "Error", value: (row) => row.label, wrap: true, primary: true },
     { key: "count", header: "Attempts with it", value: (row) => row.count, align: "right" },
-    { key: "attemptShare", header: "Share of attempts (%)", value: (row) => percentNumber(row.attemptShare), render: (row) => percent(row.attemptShare), align: "right" },
+    {
+      key: "attemptShare",
+      header: "Share of attempts (%)",
+      value: (row) => percentNumber(row.attemptShare),
+      render: (row) => percent(row.attemptShare),
+      align: "right",
+    },
     { key: "share", header: "Share of errors (%)", value: (row) => percentNumber(row.share), render: (row) => percent(row.share), align: "right" },
-    { key: "cumulativeShare", header: "Cumulative share (%)", value: (row) => percentNumber(row.cumulativeShare), render: (row) => percent(row.cumulativeShare), align: "right" },
+    {
+      key: "cumulativeShare",
+      header: "Cumulative share (%)",
+      value: (row) => percentNumber(row.cumulativeShare),
+      render: (row) => percent(row.cumulativeShare),
+      align: "right",
+    },
     {
       key: "examine",
       header: "Examine",
@@ -74,7 +104,11 @@ export function ParetoChart({ rows, attempts, examineHref, selected }: ParetoCha
         row.error === selected ? (
           <span className="text-small font-semibold text-muted">Shown below</span>
         ) : (
-          <Link to={examineHref(row)} aria-label={`Trend and breakdown of “${row.label}”`} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+          <Link
+            to={examineHref(row)}
+            aria-label={`Trend and breakdown of “${row.label}”`}
+            className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900"
+          >
             Trend and breakdown
           </Link>
         ),

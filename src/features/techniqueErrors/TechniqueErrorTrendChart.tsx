@@ -22,7 +22,12 @@ const columns: Column<TrendRow>[] = [
   { key: "high", header: "95 % interval to (%)", value: (row) => percentNumber(row.high), render: (row) => percent(row.high), align: "right" },
 ];
 
-function trendPlot(data: readonly TrendRow[], { width }: ChartSize, actions: readonly ActionMark[], quarterHref?: (quarter: string) => string): Plot.PlotOptions {
+function trendPlot(
+  data: readonly TrendRow[],
+  { width }: ChartSize,
+  actions: readonly ActionMark[],
+  quarterHref?: (quarter: string) => string,
+): Plot.PlotOptions {
   const rows = (data as TrendRow[]).filter((row) => row.share !== null);
   const top = Math.min(1, Math.max(0.1, ...rows.map((row) => row.high ?? 0)) * 1.15);
   return {
@@ -43,14 +48,27 @@ function trendPlot(data: readonly TrendRow[], { width }: ChartSize, actions: rea
         ...(quarterHref ? { href: (row: TrendRow) => (row.count > 0 ? quarterHref(row.quarter) : null) } : {}),
       }),
       Plot.ruleY([0]),
-      ...actionMarkLayers(actions, (data as TrendRow[]).map((row) => row.quarter)),
+      ...actionMarkLayers(
+        actions,
+        (data as TrendRow[]).map((row) => row.quarter),
+      ),
     ],
   };
 }
 
 const noActions: readonly ActionMark[] = [];
 
-export function TechniqueErrorTrendChart({ label, trend, actions = noActions, quarterHref }: { label: string; trend: readonly TrendRow[]; actions?: readonly ActionMark[]; quarterHref?: (quarter: string) => string }) {
+export function TechniqueErrorTrendChart({
+  label,
+  trend,
+  actions = noActions,
+  quarterHref,
+}: {
+  label: string;
+  trend: readonly TrendRow[];
+  actions?: readonly ActionMark[];
+  quarterHref?: (quarter: string) => string;
+}) {
   const plot = useCallback((data: readonly TrendRow[], size: ChartSize) => trendPlot(data, size, actions, quarterHref), [actions, quarterHref]);
   const shown = trend.filter((row) => row.share !== null);
   const first = shown[0];
@@ -65,6 +83,21 @@ export function TechniqueErrorTrendChart({ label, trend, actions = noActions, qu
         ? `${percent(first.share)} of attempts in ${quarterLabel(first.quarter)}. Bars show the 95 % interval.`
         : `Share of attempts with “${label.toLowerCase()}” per quarter, from ${percent(first.share)} in ${quarterLabel(first.quarter)} to ${percent(last.share)} in ${quarterLabel(last.quarter)}. ` +
           `Bars show the 95 % interval; ${clear ? "the change from first to last is clear of chance (the 95 % interval of the difference excludes zero)" : "the change from first to last may be chance (the 95 % interval of the difference includes zero)"}.`;
-  const marked = description + describeActionMarks(actions, trend.map((row) => row.quarter));
-  return <Chart title="Trend by quarter" description={marked} data={trend} columns={columns} rowKey={(row) => row.quarter} plot={plot} exportFileName="error-trend" />;
+  const marked =
+    description +
+    describeActionMarks(
+      actions,
+      trend.map((row) => row.quarter),
+    );
+  return (
+    <Chart
+      title="Trend by quarter"
+      description={marked}
+      data={trend}
+      columns={columns}
+      rowKey={(row) => row.quarter}
+      plot={plot}
+      exportFileName="error-trend"
+    />
+  );
 }

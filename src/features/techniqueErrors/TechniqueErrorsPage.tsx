@@ -103,7 +103,9 @@ function TechniqueErrorTrends({ state }: { state: InsightFilterState }) {
                 {analysis.data.selected ? (
                   <SelectedError selected={analysis.data.selected} values={values} scope={state.api} />
                 ) : (
-                  <EmptyState title="No error chosen">Choose an error above, or “Trend and breakdown” in the table view of the chart, to see its trend by quarter and where it happens.</EmptyState>
+                  <EmptyState title="No error chosen">
+                    Choose an error above, or “Trend and breakdown” in the table view of the chart, to see its trend by quarter and where it happens.
+                  </EmptyState>
                 )}
               </section>
             </div>
@@ -117,12 +119,18 @@ function TechniqueErrorTrends({ state }: { state: InsightFilterState }) {
 type Selected = NonNullable<import("../../../shared/schemas/insight").TechniqueErrorsAnswer["selected"]>;
 
 function SelectedError({ selected, values, scope }: { selected: Selected; values: FilterValues; scope: ChartScope }) {
-  const actions = useActionMarks(scope, selected.trend.map((row) => row.quarter));
+  const actions = useActionMarks(
+    scope,
+    selected.trend.map((row) => row.quarter),
+  );
   const attemptsLink = (extra: Record<string, string | null>) => `/attempts?${linkParams(values, { error: selected.error, ...extra })}`;
   const withError = selected.byProfile.reduce((sum, row) => sum + row.count, 0);
   const valuesKey = JSON.stringify(values);
   // stable while the filters stay, so the chart is not redrawn on every render
-  const quarterHref = useCallback((quarter: string) => `/attempts?${linkParams(JSON.parse(valuesKey) as FilterValues, { error: selected.error, quarter })}`, [valuesKey, selected.error]);
+  const quarterHref = useCallback(
+    (quarter: string) => `/attempts?${linkParams(JSON.parse(valuesKey) as FilterValues, { error: selected.error, quarter })}`,
+    [valuesKey, selected.error],
+  );
   return (
     <div className="flex flex-col gap-6">
       <p className="flex flex-wrap items-center gap-x-4 gap-y-2">
@@ -140,7 +148,8 @@ function SelectedError({ selected, values, scope }: { selected: Selected; values
       <TechniqueErrorTrendChart label={selected.label} trend={selected.trend} actions={actions} quarterHref={quarterHref} />
       <ActionMarkList marks={actions} quarters={selected.trend.map((row) => row.quarter)} />
       <p className="text-small text-muted">
-        With one quarter chosen, the trend shows the eight quarters up to it; with a longer period, each of its quarters. The other filters apply throughout. The groups below cover the chosen period only.
+        With one quarter chosen, the trend shows the eight quarters up to it; with a longer period, each of its quarters. The other filters apply throughout.
+        The groups below cover the chosen period only.
       </p>
       <Breakdowns selected={selected} attemptsLink={attemptsLink} />
     </div>
@@ -192,9 +201,23 @@ function Breakdowns({ selected, attemptsLink }: { selected: Selected; attemptsLi
         errorLabel={selected.label}
       />
     ),
-    site: <BreakdownPanel dimension="site" rows={selected.bySite} nameOf={named} attemptsHref={(row) => (recorded(row.key) ? attemptsLink({ site: row.key }) : null)} errorLabel={selected.label} />,
+    site: (
+      <BreakdownPanel
+        dimension="site"
+        rows={selected.bySite}
+        nameOf={named}
+        attemptsHref={(row) => (recorded(row.key) ? attemptsLink({ site: row.key }) : null)}
+        errorLabel={selected.label}
+      />
+    ),
     instructor: (
-      <BreakdownPanel dimension="instructor" rows={selected.byInstructor} nameOf={named} attemptsHref={(row) => (recorded(row.key) ? attemptsLink({ instructor: row.key }) : null)} errorLabel={selected.label} />
+      <BreakdownPanel
+        dimension="instructor"
+        rows={selected.byInstructor}
+        nameOf={named}
+        attemptsHref={(row) => (recorded(row.key) ? attemptsLink({ instructor: row.key }) : null)}
+        errorLabel={selected.label}
+      />
     ),
     manikin: (
       <BreakdownPanel

@@ -19,4 +19,6 @@ export function techniqueErrorsQuery(filters: ApiFilters, search: URLSearchParam
   return techniqueErrorQueries.analysis({ ...filters, error: chosenError(search) ?? undefined });
 }
 
-export const prefetchTechniqueErrors = filteredPagePrefetch(techniqueErrorFilters, techniqueErrorChoices, (filters, { search }) => techniqueErrorsQuery(filters, search));
+export const prefetchTechniqueErrors = filteredPagePrefetch(techniqueErrorFilters, techniqueErrorChoices, (filters, { search }) =>
+  techniqueErrorsQuery(filters, search),
+);

@@ -16,12 +16,33 @@ import { trackerQueries } from "./queries";
 const arrived = (count: number, unit: string) => (count > 0 ? `Arrived (${count} ${unit})` : "Missing");
 
 const columns: Column<TrackerRow>[] = [
-  { key: "code", header: dimensionNames.instructor, value: (r) => r.code, render: (r) => <span className="font-mono text-small">{r.code}</span>, primary: true },
+  {
+    key: "code",
+    header: dimensionNames.instructor,
+    value: (r) => r.code,
+    render: (r) => <span className="font-mono text-small">{r.code}</span>,
+    primary: true,
+  },
   { key: "name", header: "Name", value: (r) => r.name },
   { key: "site", header: dimensionNames.site, value: (r) => r.siteCode ?? "" },
-  { key: "classes", header: "Class log", value: (r) => arrived(r.classes, r.classes === 1 ? "class" : "classes"), render: (r) => <Status count={r.classes} text={arrived(r.classes, r.classes === 1 ? "class" : "classes")} /> },
-  { key: "attempts", header: "Attempts", value: (r) => arrived(r.attempts, "measured"), render: (r) => <Status count={r.attempts} text={arrived(r.attempts, "measured")} /> },
-  { key: "lastImportAt", header: "Class log last imported", value: (r) => r.lastImportAt, render: (r) => (r.lastImportAt ? formatDay(r.lastImportAt) : "Never") },
+  {
+    key: "classes",
+    header: "Class log",
+    value: (r) => arrived(r.classes, r.classes === 1 ? "class" : "classes"),
+    render: (r) => <Status count={r.classes} text={arrived(r.classes, r.classes === 1 ? "class" : "classes")} />,
+  },
+  {
+    key: "attempts",
+    header: "Attempts",
+    value: (r) => arrived(r.attempts, "measured"),
+    render: (r) => <Status count={r.attempts} text={arrived(r.attempts, "measured")} />,
+  },
+  {
+    key: "lastImportAt",
+    header: "Class log last imported",
+    value: (r) => r.lastImportAt,
+    render: (r) => (r.lastImportAt ? formatDay(r.lastImportAt) : "Never"),
+  },
   { key: "rejectedRows", header: "Refused rows to fix", value: (r) => r.rejectedRows, align: "right" },
 ];
 
@@ -39,7 +60,10 @@ export default function QuarterTrackerPage() {
   const missing = tracker.data?.instructors.filter((r) => r.active && (r.classes === 0 || r.attempts === 0)).length ?? 0;
   return (
     <div>
-      <PageHeader title="Quarter tracker" description="Which instructors' class logs and attempt files have arrived for the quarter, and the refused rows still waiting to be fixed." />
+      <PageHeader
+        title="Quarter tracker"
+        description="Which instructors' class logs and attempt files have arrived for the quarter, and the refused rows still waiting to be fixed."
+      />
       <Select
         label="Quarter"
         name="quarter"
@@ -55,11 +79,14 @@ export default function QuarterTrackerPage() {
       ) : (
         <div className="flex flex-col gap-4">
           <p>
-            {missing === 0 ? `Every active instructor's files for ${quarterLabel(quarter)} have arrived.` : `${missing} active instructor${missing === 1 ? " has" : "s have"} files missing for ${quarterLabel(quarter)}.`}
+            {missing === 0
+              ? `Every active instructor's files for ${quarterLabel(quarter)} have arrived.`
+              : `${missing} active instructor${missing === 1 ? " has" : "s have"} files missing for ${quarterLabel(quarter)}.`}
           </p>
           {tracker.data.unassignedRejectedRows > 0 && (
             <Notice tone="info">
-              {tracker.data.unassignedRejectedRows} refused row{tracker.data.unassignedRejectedRows === 1 ? "" : "s"} name no known instructor or class (for example from files whose columns were renamed); find them in the import history.
+              {tracker.data.unassignedRejectedRows} refused row{tracker.data.unassignedRejectedRows === 1 ? "" : "s"} name no known instructor or class (for
+              example from files whose columns were renamed); find them in the import history.
             </Notice>
           )}
           <DataTable

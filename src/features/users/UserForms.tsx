@@ -107,9 +107,7 @@ export function EditUserForm({ user, isSelf, onDone, onCancel }: { user: UserRow
   });
   const submit = (values: UpdateUser) => {
     // Send only what changed, so an unchanged role is never re-submitted.
-    const changes = Object.fromEntries(
-      Object.entries(values).filter(([key, value]) => value !== undefined && value !== user[key as keyof UserRow]),
-    );
+    const changes = Object.fromEntries(Object.entries(values).filter(([key, value]) => value !== undefined && value !== user[key as keyof UserRow]));
     if (Object.keys(changes).length === 0) return onDone(user);
     update.mutate({ id: user.id, changes }, { onSuccess: ({ user: saved }) => onDone(saved), onError: (error) => showServerError(form, error) });
   };

@@ -19,7 +19,6 @@ import { AddUserForm, EditUserForm, ResetPasswordForm } from "./UserForms";
 type OpenDialog = { kind: "add" } | { kind: "edit"; user: UserRow } | { kind: "password"; user: UserRow } | null;
 type Message = { tone: "success" | "error"; text: string } | null;
 
-
 export default function UsersAdminPage() {
   const me = useCurrentUser();
   const users = useQuery(userQueries.list());
@@ -28,20 +27,23 @@ export default function UsersAdminPage() {
   const [message, setMessage] = useState<Message>(null);
 
   const { mutate: saveUser } = update;
-  const setActive = useCallback((user: UserRow, active: boolean) => {
-    setMessage(null);
-    saveUser(
-      { id: user.id, changes: { active } },
-      {
-        onSuccess: () =>
-          setMessage({
-            tone: "success",
-            text: active ? `${user.displayName} can sign in again.` : `${user.displayName} is deactivated and can no longer sign in.`,
-          }),
-        onError: (error) => setMessage({ tone: "error", text: `${user.displayName} was not changed: ${errorMessage(error)}` }),
-      },
-    );
-  }, [saveUser]);
+  const setActive = useCallback(
+    (user: UserRow, active: boolean) => {
+      setMessage(null);
+      saveUser(
+        { id: user.id, changes: { active } },
+        {
+          onSuccess: () =>
+            setMessage({
+              tone: "success",
+              text: active ? `${user.displayName} can sign in again.` : `${user.displayName} is deactivated and can no longer sign in.`,
+            }),
+          onError: (error) => setMessage({ tone: "error", text: `${user.displayName} was not changed: ${errorMessage(error)}` }),
+        },
+      );
+    },
+    [saveUser],
+  );
 
   const columns = useMemo<Column<UserRow>[]>(
     () => [
@@ -58,7 +60,12 @@ export default function UsersAdminPage() {
       },
       { key: "email", header: "E-mail", value: (u) => u.email, render: (u) => <EmailAddress email={u.email} />, wrap: true },
       { key: "role", header: "Role", value: (u) => roleLabels[u.role], wrap: true },
-      { key: "instructor", header: "Instructor", value: (u) => u.instructorCode ?? "", render: (u) => u.instructorCode ?? <span className="text-muted">—</span> },
+      {
+        key: "instructor",
+        header: "Instructor",
+        value: (u) => u.instructorCode ?? "",
+        render: (u) => u.instructorCode ?? <span className="text-muted">—</span>,
+      },
       { key: "active", header: "Status", value: (u) => (u.active ? "Active" : "Deactivated"), render: (u) => <ActiveBadge active={u.active} /> },
       {
         key: "created",

@@ -21,16 +21,14 @@ export function useCreateUser() {
 export function useUpdateUser() {
   const invalidate = useInvalidateUsers();
   return useMutation({
-    mutationFn: ({ id, changes }: { id: number; changes: UpdateUser }) =>
-      http.patch<{ user: UserRow }>(`/api/users/${id}`, changes),
+    mutationFn: ({ id, changes }: { id: number; changes: UpdateUser }) => http.patch<{ user: UserRow }>(`/api/users/${id}`, changes),
     onSuccess: invalidate,
   });
 }
 
 export function useResetUserPassword() {
   return useMutation({
-    mutationFn: ({ id, password }: { id: number; password: string }) =>
-      http.post<SessionAnswer | undefined>(`/api/users/${id}/password`, { password }),
+    mutationFn: ({ id, password }: { id: number; password: string }) => http.post<SessionAnswer | undefined>(`/api/users/${id}/password`, { password }),
     // resetting one's own password gives this session a new id, and with it a new token
     onSuccess: (answer) => {
       if (answer) setCsrfToken(answer.csrfToken);

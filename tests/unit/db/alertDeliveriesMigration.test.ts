@@ -39,7 +39,9 @@ describe("migration 0009: alert choice and deliveries", () => {
 
     migrate(db, { migrationsFolder: path.join(projectRoot, "drizzle") });
     const rows = sqlite
-      .prepare("SELECT users.email AS email, key, kind, sent_at AS sentAt FROM alert_deliveries JOIN users ON users.id = alert_deliveries.user_id ORDER BY email, key")
+      .prepare(
+        "SELECT users.email AS email, key, kind, sent_at AS sentAt FROM alert_deliveries JOIN users ON users.id = alert_deliveries.user_id ORDER BY email, key",
+      )
       .all();
     expect(rows).toEqual([
       { email: "coord@test.example", key: "funnel:2026-Q1:A1:below", kind: "funnel", sentAt: "2026-04-01T08:00:00.000Z" },

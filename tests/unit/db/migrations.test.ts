@@ -10,7 +10,20 @@ describe("database set-up", () => {
       .prepare("SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%' AND name NOT LIKE '__drizzle%'")
       .pluck()
       .all() as string[];
-    for (const table of ["users", "sessions", "sites", "instructors", "classes", "attempts", "compression_streams", "manikins", "equipment_events", "import_batches", "rejected_rows", "policy_versions"]) {
+    for (const table of [
+      "users",
+      "sessions",
+      "sites",
+      "instructors",
+      "classes",
+      "attempts",
+      "compression_streams",
+      "manikins",
+      "equipment_events",
+      "import_batches",
+      "rejected_rows",
+      "policy_versions",
+    ]) {
       expect(tables).toContain(table);
     }
     expect(sqlite.pragma("journal_mode", { simple: true })).toBe("wal");
@@ -31,9 +44,7 @@ describe("database set-up", () => {
 
   it("refuses a row that breaks a foreign key", () => {
     const db = openDatabase(tempDbFile());
-    expect(() =>
-      db.$client.prepare("INSERT INTO instructors (code, name, site_id) VALUES ('X', 'X', 999)").run(),
-    ).toThrow(/FOREIGN KEY/);
+    expect(() => db.$client.prepare("INSERT INTO instructors (code, name, site_id) VALUES ('X', 'X', 999)").run()).toThrow(/FOREIGN KEY/);
     db.$client.close();
   });
 });

@@ -19,8 +19,7 @@ beforeAll(() => {
 /** One row per attempt of the compressions file (the identity columns; the stream test checks the rest). */
 const firstRows = () => [...streams.values()].map((rows) => rows[0]);
 
-const typeOfAsset = (assetId: string): PatientType =>
-  ({ A: "adult", C: "child", I: "infant" })[assetId.split("-")[1][0]] as PatientType;
+const typeOfAsset = (assetId: string): PatientType => ({ A: "adult", C: "child", I: "infant" })[assetId.split("-")[1][0]] as PatientType;
 
 describe("demo network: determinism", () => {
   it("gives byte-identical output for the same seed and today", () => {
@@ -46,21 +45,55 @@ describe("demo network: determinism", () => {
 describe("demo network: file formats", () => {
   it("writes the import formats' columns in order", () => {
     expect(headerOf(network.files.classes)).toEqual([
-      "class_id", "date", "site", "instructor", "course", "learners", "passed", "manikins",
-      "lungs_replaced", "mouthpieces_cleaned", "batteries_replaced",
+      "class_id",
+      "date",
+      "site",
+      "instructor",
+      "course",
+      "learners",
+      "passed",
+      "manikins",
+      "lungs_replaced",
+      "mouthpieces_cleaned",
+      "batteries_replaced",
     ]);
     expect(headerOf(network.files.attempts)).toEqual([
-      "attempt_id", "class_id", "learner", "manikin", "profile", "feedback", "started_at", "duration_s",
-      "compressions", "rate_cpm", "depth_mm", "depth_ok_pct", "too_shallow_pct", "too_deep_pct", "rate_ok_pct",
-      "too_slow_pct", "too_fast_pct", "recoil_ok_pct", "hands_on_pct", "longest_pause_s", "instructor_result",
+      "attempt_id",
+      "class_id",
+      "learner",
+      "manikin",
+      "profile",
+      "feedback",
+      "started_at",
+      "duration_s",
+      "compressions",
+      "rate_cpm",
+      "depth_mm",
+      "depth_ok_pct",
+      "too_shallow_pct",
+      "too_deep_pct",
+      "rate_ok_pct",
+      "too_slow_pct",
+      "too_fast_pct",
+      "recoil_ok_pct",
+      "hands_on_pct",
+      "longest_pause_s",
+      "instructor_result",
     ]);
     expect(headerOf(network.files.compressions)).toEqual([
-      "attempt_id", "class_id", "learner", "manikin", "profile", "feedback", "started_at", "instructor_result",
-      "t_ms", "depth_mm", "release_mm",
+      "attempt_id",
+      "class_id",
+      "learner",
+      "manikin",
+      "profile",
+      "feedback",
+      "started_at",
+      "instructor_result",
+      "t_ms",
+      "depth_mm",
+      "release_mm",
     ]);
-    expect(headerOf(network.files.equipment)).toEqual([
-      "date", "manikin", "site", "event", "quantity", "patient_type", "note",
-    ]);
+    expect(headerOf(network.files.equipment)).toEqual(["date", "manikin", "site", "event", "quantity", "patient_type", "note"]);
   });
 
   it("ends every file with a line end and uses the allowed values", () => {
@@ -312,9 +345,7 @@ describe("demo network: equipment", () => {
 
   it("has patient types on commissioning rows only, and no duplicate rows", () => {
     const bad = files.equipment.filter((e) =>
-      e.event === "commissioned"
-        ? !["infant", "child", "adult"].includes(e.patient_type)
-        : e.patient_type !== "" || !(Number(e.quantity) >= 1),
+      e.event === "commissioned" ? !["infant", "child", "adult"].includes(e.patient_type) : e.patient_type !== "" || !(Number(e.quantity) >= 1),
     );
     expect(bad).toEqual([]);
     const keys = files.equipment.map((e) => `${e.date}|${e.manikin}|${e.event}`);
@@ -323,18 +354,13 @@ describe("demo network: equipment", () => {
 
   it("records every kind of event, one retirement and two open faults", () => {
     const kinds = new Set(files.equipment.map((e) => e.event));
-    expect([...kinds].sort()).toEqual(
-      ["battery_replaced", "commissioned", "fault", "lung_replaced", "mouthpiece_cleaned", "retired", "serviced"].sort(),
-    );
+    expect([...kinds].sort()).toEqual(["battery_replaced", "commissioned", "fault", "lung_replaced", "mouthpiece_cleaned", "retired", "serviced"].sort());
     expect(files.equipment.filter((e) => e.event === "retired")).toHaveLength(1);
     const faults = files.equipment.filter((e) => e.event === "fault");
     expect(faults.length).toBeGreaterThanOrEqual(4);
     // Open: no service or retirement of that manikin on or after the fault.
     const open = faults.filter(
-      (f) =>
-        !lifeEvents().some(
-          (e) => e.manikin === f.manikin && (e.event === "serviced" || e.event === "retired") && e.date >= f.date,
-        ),
+      (f) => !lifeEvents().some((e) => e.manikin === f.manikin && (e.event === "serviced" || e.event === "retired") && e.date >= f.date),
     );
     expect(open).toHaveLength(2);
   });

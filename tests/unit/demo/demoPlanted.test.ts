@@ -122,7 +122,10 @@ describe("demo story: improvement actions and the alert digest", () => {
     const coordinator = findUserByEmail(db, "rowan.ellery@harrowmere-cpr.example")!;
     const { deliveries } = myAlerts(db, coordinator.id);
     expect(deliveries.map((d) => d.kind).sort()).toEqual(["drift", "funnel", "service", "shift"]);
-    expect(deliveries.find((d) => d.kind === "drift")!.link).toEqual({ label: `Manikin ${DEMO_SCENARIO.driftingSensor.manikin}`, path: `/equipment/manikins/${DEMO_SCENARIO.driftingSensor.manikin}` });
+    expect(deliveries.find((d) => d.kind === "drift")!.link).toEqual({
+      label: `Manikin ${DEMO_SCENARIO.driftingSensor.manikin}`,
+      path: `/equipment/manikins/${DEMO_SCENARIO.driftingSensor.manikin}`,
+    });
     expect(allAlerts(db).signals.every((s) => s.recipients === 2)).toBe(true);
   });
 });

@@ -86,10 +86,7 @@ describe("demo story: instructors", () => {
     // Funnel limits for a proportion: Spiegelhalter, Stat Med 2005;24:1185–1202 (shared/stats, exact method).
     const network = passRate(attempts);
     const positions = Object.fromEntries(
-      [...byInstructor()].map(([code, list]) => [
-        code,
-        classifyAgainstFunnel(list.filter((a) => a.score.passed).length, list.length, network),
-      ]),
+      [...byInstructor()].map(([code, list]) => [code, classifyAgainstFunnel(list.filter((a) => a.score.passed).length, list.length, network)]),
     );
     expect(positions[LOW_OUTLIER]).toBe("below998");
     expect(positions[HIGH_OUTLIER]).toBe("above998");

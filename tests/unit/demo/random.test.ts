@@ -9,9 +9,7 @@ describe("seeded random numbers", () => {
     // written from memory): state += 0x6D2B79F5; z = (z ^ z >> 15) * (z | 1); z ^= z + (z ^ z >> 7) * (z | 61);
     // return z ^ z >> 14.
     const random = new Random(99);
-    expect([1, 2, 3, 4, 5].map(() => random.nextUint32())).toEqual([
-      1118692146, 3456687457, 2323025554, 2964572940, 4890715,
-    ]);
+    expect([1, 2, 3, 4, 5].map(() => random.nextUint32())).toEqual([1118692146, 3456687457, 2323025554, 2964572940, 4890715]);
     const other = new Random(20261201);
     expect([1, 2, 3].map(() => other.nextUint32())).toEqual([1214187109, 1007508439, 461233435]);
   });

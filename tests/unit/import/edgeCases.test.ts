@@ -26,7 +26,12 @@ describe("value mappings", () => {
 
   it("refuses a file value named like a built-in property (toString, __proto__) as an ordinary unknown value", async () => {
     const db = await withClass();
-    const csv = [ATTEMPT_HEADER, attempt("A-1", { feedback: "toString" }), attempt("A-2", { feedback: "__proto__" }), attempt("A-3", { feedback: "hasOwnProperty" })].join("\n");
+    const csv = [
+      ATTEMPT_HEADER,
+      attempt("A-1", { feedback: "toString" }),
+      attempt("A-2", { feedback: "__proto__" }),
+      attempt("A-3", { feedback: "hasOwnProperty" }),
+    ].join("\n");
     const s = await load(db, "attempts", csv, { mapping });
     expect(s.status).toBe("refused");
     expect(s.issues).toEqual([
@@ -38,7 +43,12 @@ describe("value mappings", () => {
 
   it("translates a mapping key named like a built-in property as any other key, and keeps unmapped values as they are", async () => {
     const db = await withClass();
-    const csv = [ATTEMPT_HEADER, attempt("A-1", { feedback: "constructor" }), attempt("A-2", { feedback: "on", manikin: "toString" }), attempt("A-3", { manikin: "old-1" })].join("\n");
+    const csv = [
+      ATTEMPT_HEADER,
+      attempt("A-1", { feedback: "constructor" }),
+      attempt("A-2", { feedback: "on", manikin: "toString" }),
+      attempt("A-3", { manikin: "old-1" }),
+    ].join("\n");
     const s = await load(db, "attempts", csv, { mapping });
     expect(s).toMatchObject({ status: "imported", inserted: 3 });
     const stored = db.$client.prepare("SELECT a.id, a.feedback, m.asset_id FROM attempts a JOIN manikins m ON m.id = a.manikin_id ORDER BY a.id").all();
@@ -120,7 +130,9 @@ describe("a re-import that changes nothing", () => {
 describe("upper bounds", () => {
   it("takes a duration of up to an hour and refuses a longer one, naming row and column", async () => {
     const db = await withClass();
-    const csv = [ATTEMPT_HEADER, attempt("A-1", { duration: "3600" }), attempt("A-2", { duration: "3600.5" }), attempt("A-3", { duration: "1e308" })].join("\n");
+    const csv = [ATTEMPT_HEADER, attempt("A-1", { duration: "3600" }), attempt("A-2", { duration: "3600.5" }), attempt("A-3", { duration: "1e308" })].join(
+      "\n",
+    );
     const s = await load(db, "attempts", csv);
     expect(s.issues).toEqual([
       { row: 2, column: "duration_s", reason: "must be at most 3600 seconds; got 3600.5" },

@@ -53,7 +53,11 @@ describe("an instructor's class log", () => {
 
   it("refuses the same rows in a validation (dry run), so the preview says what the import would", async () => {
     const { db, instructor } = await networkWithManikins();
-    const s = await load(db, "classes", `${CLASS_HEADER}\nC-A1-3,2026-07-21,EVILSITE,A1,adult,4,4,EVIL-M1\n`, { actor: instructor, source: "web", dryRun: true });
+    const s = await load(db, "classes", `${CLASS_HEADER}\nC-A1-3,2026-07-21,EVILSITE,A1,adult,4,4,EVIL-M1\n`, {
+      actor: instructor,
+      source: "web",
+      dryRun: true,
+    });
     expect(s.status).toBe("refused");
     expect(s.issues.map((i) => i.column)).toEqual(["site"]);
   });
@@ -71,7 +75,9 @@ describe("an instructor's class log", () => {
     const { db, people, instructor } = await networkWithManikins();
     db.$client.prepare("UPDATE instructors SET site_id = NULL WHERE id = ?").run(people.instructors.a1.id);
     const s = await load(db, "classes", `${CLASS_HEADER}\nC-A1-2,2026-07-20,NORTH,A1,child,5,4,\n`, { actor: instructor, source: "web" });
-    expect(s.issues).toEqual([{ row: 1, column: "site", reason: "your instructor record has no site; ask the coordinator to set it before importing classes" }]);
+    expect(s.issues).toEqual([
+      { row: 1, column: "site", reason: "your instructor record has no site; ask the coordinator to set it before importing classes" },
+    ]);
   });
 });
 
@@ -80,7 +86,10 @@ describe("an instructor's attempts and streams", () => {
 
   it("refuses an attempt on a manikin the network does not have, and takes one on a registered manikin", async () => {
     const { db, instructor } = await networkWithManikins();
-    const refused = await load(db, "attempts", [ATTEMPT_HEADER, attempt("A-1", "MK-1"), attempt("A-2", "EVIL-M1")].join("\n"), { actor: instructor, source: "web" });
+    const refused = await load(db, "attempts", [ATTEMPT_HEADER, attempt("A-1", "MK-1"), attempt("A-2", "EVIL-M1")].join("\n"), {
+      actor: instructor,
+      source: "web",
+    });
     expect(refused.status).toBe("refused");
     expect(refused.issues).toEqual([
       {

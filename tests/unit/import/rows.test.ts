@@ -16,7 +16,15 @@ describe("numbers and times", () => {
     for (const good of ["2026-07-14T09:30Z", "2026-07-14T09:30:00+02:00", "2026-07-14T23:59:59.123456-05:30", "2024-02-29T00:00:00Z"]) {
       expect(isOffsetDateTime(good), good).toBe(true);
     }
-    for (const bad of ["2026-07-14T09:30:00", "2026-07-14 09:30:00Z", "2026-02-29T10:00Z", "2026-07-14T24:00Z", "2026-07-14T09:60Z", "2026-07-14T09:30:00+0200", "2026-07-14T09:30:00.Z"]) {
+    for (const bad of [
+      "2026-07-14T09:30:00",
+      "2026-07-14 09:30:00Z",
+      "2026-02-29T10:00Z",
+      "2026-07-14T24:00Z",
+      "2026-07-14T09:60Z",
+      "2026-07-14T09:30:00+0200",
+      "2026-07-14T09:30:00.Z",
+    ]) {
       expect(isOffsetDateTime(bad), bad).toBe(false);
     }
   });
@@ -51,7 +59,14 @@ describe("mapping", () => {
   it("suggests a mapping for an invented device's export", () => {
     const header = ["Run", "Class", "Trainee", "Unit", "Patient", "Mode", "Begin", "Verdict", "Time (s)", "Depth (cm)", "Residual (cm)"];
     const { mapping, matches } = suggestMapping("compressions", header);
-    expect(matches).toMatchObject({ attempt_id: "Run", class_id: "Class", learner: "Trainee", t_ms: "Time (s)", depth_mm: "Depth (cm)", release_mm: "Residual (cm)" });
+    expect(matches).toMatchObject({
+      attempt_id: "Run",
+      class_id: "Class",
+      learner: "Trainee",
+      t_ms: "Time (s)",
+      depth_mm: "Depth (cm)",
+      release_mm: "Residual (cm)",
+    });
     expect(mapping.units).toEqual({ depth: "cm", time: "s", shares: "percent" });
     const shares = suggestMapping("attempts", ["attempt_id", "depth_ok_pct", "too_shallow_pct"], [["A", "0.8", "0.2"]]);
     expect(shares.mapping.units.shares).toBe("fraction");

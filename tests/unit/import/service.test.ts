@@ -14,7 +14,16 @@ describe("class logs", () => {
     expect(s.newCodes).toEqual({ sites: ["EAST"], instructors: ["Z9"], manikins: ["MK-1", "MK-2", "MK-3"] });
     expect(s.warnings).toEqual(["Ignored column not used by classes files: room"]);
     const c1 = db.$client.prepare("SELECT * FROM classes WHERE id = 'C-001'").get() as Record<string, unknown>;
-    expect(c1).toMatchObject({ date: "2026-07-14", quarter: "2026-Q3", course: "adult", learners: 10, passed: 8, manikins: "MK-1;MK-2", lungs_replaced: 1, batch_id: s.batchId });
+    expect(c1).toMatchObject({
+      date: "2026-07-14",
+      quarter: "2026-Q3",
+      course: "adult",
+      learners: 10,
+      passed: 8,
+      manikins: "MK-1;MK-2",
+      lungs_replaced: 1,
+      batch_id: s.batchId,
+    });
     const z9 = db.$client.prepare("SELECT i.name, s.code AS site FROM instructors i JOIN sites s ON s.id = i.site_id WHERE i.code = 'Z9'").get();
     expect(z9).toEqual({ name: "Z9", site: "EAST" }); // named by the code until someone renames them
     const batch = db.$client.prepare("SELECT kind, file_name, source, rows_read, inserted, sha256 FROM import_batches WHERE id = ?").get(s.batchId);
@@ -164,7 +173,16 @@ describe("attempt summaries", () => {
     const a2 = db.$client.prepare("SELECT * FROM attempts WHERE id = 'A-002'").get() as Record<string, unknown>;
     // Score = mean of depth, rate and recoil shares on target: (40 + 50 + 95) / 3 (shared/scoring/scoreAttempt).
     expect(a2.score).toBeCloseTo(185 / 3, 12);
-    expect(a2).toMatchObject({ passed: 0, error_mask: 0b101, source: "summary", pauses: null, pauses_over10s: null, quarter: "2026-Q3", instructor_result: "fail", policy_version: 1 });
+    expect(a2).toMatchObject({
+      passed: 0,
+      error_mask: 0b101,
+      source: "summary",
+      pauses: null,
+      pauses_over10s: null,
+      quarter: "2026-Q3",
+      instructor_result: "fail",
+      policy_version: 1,
+    });
     const a4 = db.$client.prepare("SELECT manikin_id, quarter, instructor_result FROM attempts WHERE id = 'A-004'").get();
     expect(a4).toEqual({ manikin_id: null, quarter: "2026-Q3", instructor_result: "fail" });
     expect(await load(db, "attempts", "attempts-valid.csv")).toMatchObject({ inserted: 0, unchanged: 4 });
@@ -176,7 +194,11 @@ describe("attempt summaries", () => {
     const s = await load(db, "attempts", "attempts-bad.csv");
     expect(s.status).toBe("refused");
     expect(s.issues).toEqual([
-      { row: 2, column: "learner", reason: `"Jane Doe" looks like a personal name (it contains a space); learners are recorded only as pseudonymous codes such as L-0042, never by name` },
+      {
+        row: 2,
+        column: "learner",
+        reason: `"Jane Doe" looks like a personal name (it contains a space); learners are recorded only as pseudonymous codes such as L-0042, never by name`,
+      },
       { row: 3, column: "class_id", reason: "class C-999 is not in the database or in an earlier file of this import; import its class log first" },
       { row: 4, column: "rate_cpm", reason: "350 is outside 20–300 compressions per minute" },
       { row: 5, column: "depth_mm", reason: "120 is outside 0–100 mm" },
@@ -208,7 +230,11 @@ describe("attempt summaries", () => {
 
   it("stops a command at the first refused file", async () => {
     const { db } = await freshDb();
-    const result = await importFiles(db, { kind: "classes", inputs: [{ path: fixture("classes-bad.csv") }, { path: fixture("classes-valid.csv") }], source: "cli" });
+    const result = await importFiles(db, {
+      kind: "classes",
+      inputs: [{ path: fixture("classes-bad.csv") }, { path: fixture("classes-valid.csv") }],
+      source: "cli",
+    });
     expect(result.summaries.map((s) => s.status)).toEqual(["refused"]);
     expect(result.notImported).toEqual(["classes-valid.csv"]);
   });
@@ -241,17 +267,36 @@ describe("attempt summaries", () => {
     ].join("\n");
     const mapping = {
       columns: {
-        attempt_id: "Run", class_id: "Class", learner: "Trainee", manikin: "Unit", profile: "Patient", feedback: "Mode", started_at: "Begin",
-        duration_s: "Seconds", compressions: "Count", rate_cpm: "Rate", depth_mm: "Depth (in)", depth_ok_pct: "Good depth", too_shallow_pct: "Shallow",
-        too_deep_pct: "Deep", rate_ok_pct: "Good rate", too_slow_pct: "Slow", too_fast_pct: "Fast", recoil_ok_pct: "Full release", hands_on_pct: "CCF",
-        longest_pause_s: "Max pause", instructor_result: "Verdict",
+        attempt_id: "Run",
+        class_id: "Class",
+        learner: "Trainee",
+        manikin: "Unit",
+        profile: "Patient",
+        feedback: "Mode",
+        started_at: "Begin",
+        duration_s: "Seconds",
+        compressions: "Count",
+        rate_cpm: "Rate",
+        depth_mm: "Depth (in)",
+        depth_ok_pct: "Good depth",
+        too_shallow_pct: "Shallow",
+        too_deep_pct: "Deep",
+        rate_ok_pct: "Good rate",
+        too_slow_pct: "Slow",
+        too_fast_pct: "Fast",
+        recoil_ok_pct: "Full release",
+        hands_on_pct: "CCF",
+        longest_pause_s: "Max pause",
+        instructor_result: "Verdict",
       },
       units: { depth: "in" as const, time: "ms" as const, shares: "fraction" as const },
       values: { feedback: { on: "live", off: "hidden" }, instructor_result: { ok: "pass", "not ok": "fail" } },
     };
     const s = await load(db, "attempts", csv, { mapping });
     expect(s.issues).toEqual([]);
-    const row = db.$client.prepare("SELECT depth_mm, depth_ok_pct, too_shallow_pct, hands_on_pct, feedback, instructor_result FROM attempts WHERE id = 'X-1'").get() as Record<string, number>;
+    const row = db.$client
+      .prepare("SELECT depth_mm, depth_ok_pct, too_shallow_pct, hands_on_pct, feedback, instructor_result FROM attempts WHERE id = 'X-1'")
+      .get() as Record<string, number>;
     expect(row.depth_mm).toBeCloseTo(53.34, 10);
     expect(row).toMatchObject({ feedback: "live", instructor_result: "pass", depth_ok_pct: 80, hands_on_pct: 82 });
     expect(row.too_shallow_pct).toBeCloseTo(15, 10);
@@ -259,7 +304,9 @@ describe("attempt summaries", () => {
 
   it("refuses a mapping naming a column the format does not have", async () => {
     const { db } = await freshDb();
-    const s = await load(db, "classes", "classes-valid.csv", { mapping: { columns: { depth_mm: "Depth" }, units: { depth: "mm", time: "ms", shares: "percent" }, values: {} } });
+    const s = await load(db, "classes", "classes-valid.csv", {
+      mapping: { columns: { depth_mm: "Depth" }, units: { depth: "mm", time: "ms", shares: "percent" }, values: {} },
+    });
     expect(s.status).toBe("refused");
     expect(s.issues[0]).toEqual({ row: null, column: "depth_mm", reason: `the mapping names "depth_mm", which is not a column of classes files` });
   });
@@ -268,7 +315,11 @@ describe("attempt summaries", () => {
     const { db } = await freshDb();
     await load(db, "classes", "classes-valid.csv");
     await load(db, "compressions", "compressions-valid.csv");
-    const s = await load(db, "attempts", `${ATTEMPT_HEADER}\nS-001,C-001,L-0201,MK-1,adult,live,2026-07-14T11:00:00+02:00,2,5,120,55,60,20,20,100,0,0,80,100,0,pass\n`);
+    const s = await load(
+      db,
+      "attempts",
+      `${ATTEMPT_HEADER}\nS-001,C-001,L-0201,MK-1,adult,live,2026-07-14T11:00:00+02:00,2,5,120,55,60,20,20,100,0,0,80,100,0,pass\n`,
+    );
     expect(s.issues[0]).toMatchObject({ row: 1, column: "attempt_id" });
     expect(s.issues[0].reason).toMatch(/imported from its compression stream/);
   });
@@ -281,15 +332,23 @@ describe("equipment logs", () => {
     const s = await load(db, "equipment", "equipment-valid.csv");
     expect(s).toMatchObject({ status: "imported", inserted: 4 });
     expect(s.newCodes.manikins).toEqual(["MK-9"]);
-    const mk1 = db.$client.prepare("SELECT m.patient_type, m.in_service_since, s.code AS site FROM manikins m JOIN sites s ON s.id = m.site_id WHERE asset_id = 'MK-1'").get();
+    const mk1 = db.$client
+      .prepare("SELECT m.patient_type, m.in_service_since, s.code AS site FROM manikins m JOIN sites s ON s.id = m.site_id WHERE asset_id = 'MK-1'")
+      .get();
     expect(mk1).toEqual({ patient_type: "adult", in_service_since: "2026-06-01", site: "NORTH" });
     expect(db.$client.prepare("SELECT retired_on FROM manikins WHERE asset_id = 'MK-9'").pluck().get()).toBe("2026-11-30");
-    expect(db.$client.prepare("SELECT quantity, note FROM equipment_events WHERE event = 'fault'").get()).toEqual({ quantity: 1, note: "clicker sticks, sent for repair" });
+    expect(db.$client.prepare("SELECT quantity, note FROM equipment_events WHERE event = 'fault'").get()).toEqual({
+      quantity: 1,
+      note: "clicker sticks, sent for repair",
+    });
     expect(await load(db, "equipment", "equipment-valid.csv")).toMatchObject({ inserted: 0, unchanged: 4 });
 
     undoBatch(db, s.batchId!, null);
     expect(count(db, "equipment_events")).toBe(0);
-    expect(db.$client.prepare("SELECT patient_type, in_service_since FROM manikins WHERE asset_id = 'MK-1'").get()).toEqual({ patient_type: null, in_service_since: null });
+    expect(db.$client.prepare("SELECT patient_type, in_service_since FROM manikins WHERE asset_id = 'MK-1'").get()).toEqual({
+      patient_type: null,
+      in_service_since: null,
+    });
     expect(count(db, "manikins", "asset_id = 'MK-9'")).toBe(0);
   });
 
@@ -299,7 +358,11 @@ describe("equipment logs", () => {
     expect(s.issues).toEqual([
       { row: 1, column: "patient_type", reason: "is required when the event is commissioned (infant, child or adult)" },
       { row: 3, column: null, reason: "the same event as row 2; give one row with a quantity instead of repeating it" },
-      { row: 4, column: "event", reason: `"exploded" is not allowed; use one of commissioned, lung_replaced, mouthpiece_cleaned, battery_replaced, serviced, fault, retired` },
+      {
+        row: 4,
+        column: "event",
+        reason: `"exploded" is not allowed; use one of commissioned, lung_replaced, mouthpiece_cleaned, battery_replaced, serviced, fault, retired`,
+      },
       { row: 5, column: "quantity", reason: "must be a whole number from 1 to 10000; got 0" },
     ]);
   });

@@ -65,7 +65,10 @@ describe("stream grouper", () => {
     // rows of three attempts, shuffled: (attempt, time)
     const rows: [number, number][] = [];
     for (let a = 0; a < 3; a++) for (let k = 0; k < 7; k++) rows.push([a, k * 500]);
-    const shuffled = rows.map((r, i) => ({ r, key: (i * 7919) % 21 })).sort((x, y) => x.key - y.key).map((x) => x.r);
+    const shuffled = rows
+      .map((r, i) => ({ r, key: (i * 7919) % 21 }))
+      .sort((x, y) => x.key - y.key)
+      .map((x) => x.r);
     const results = [1 << 20, 4].map((capacity) => {
       const scratch = new Database("");
       const grouper = new StreamGrouper(scratch, capacity);
@@ -95,11 +98,29 @@ describe("importing compression streams", () => {
     // releases 0, 0, 0, 0, 6 → 4 of 5 full recoil = 80 %; duration 2 s, no pauses → hands-on 100 %.
     // Score = (60 + 100 + 80) / 3 = 80; depth share below 70 % → too_shallow (shallow ≥ deep) → not passed.
     expect(a).toMatchObject({
-      source: "stream", compressions: 5, duration_s: 2, rate_cpm: 120, depth_mm: 55, depth_ok_pct: 60, too_shallow_pct: 20, too_deep_pct: 20,
-      rate_ok_pct: 100, recoil_ok_pct: 80, hands_on_pct: 100, pauses: 0, pauses_over10s: 0, longest_pause_s: 0, score: 80, passed: 0, error_mask: 1,
+      source: "stream",
+      compressions: 5,
+      duration_s: 2,
+      rate_cpm: 120,
+      depth_mm: 55,
+      depth_ok_pct: 60,
+      too_shallow_pct: 20,
+      too_deep_pct: 20,
+      rate_ok_pct: 100,
+      recoil_ok_pct: 80,
+      hands_on_pct: 100,
+      pauses: 0,
+      pauses_over10s: 0,
+      longest_pause_s: 0,
+      score: 80,
+      passed: 0,
+      error_mask: 1,
       instructor_result: "pass",
     });
-    const blob = db.$client.prepare("SELECT data, compressions FROM compression_streams WHERE attempt_id = 'S-001'").get() as { data: Buffer; compressions: number };
+    const blob = db.$client.prepare("SELECT data, compressions FROM compression_streams WHERE attempt_id = 'S-001'").get() as {
+      data: Buffer;
+      compressions: number;
+    };
     const stream = decodeStream(blob.data);
     expect(blob.compressions).toBe(5);
     expect(Array.from(stream.tMs)).toEqual([0, 500, 1000, 1500, 2000]);
@@ -118,18 +139,32 @@ describe("importing compression streams", () => {
     const lines: string[] = [];
     for (let a = 0; a < 6; a++) {
       for (let k = 0; k < 40; k++) {
-        const t = k * 520 + (k > 20 ? 3000 : 0) + (a * 7) % 13;
-        lines.push(`Q-${a},C-001,L-${a},MK-1,adult,${a % 2 ? "live" : "hidden"},2026-07-14T10:00:00Z,,${t},${(48 + ((a * 31 + k * 17) % 150) / 10).toFixed(1)},${((k * 13 + a) % 70) / 10}`);
+        const t = k * 520 + (k > 20 ? 3000 : 0) + ((a * 7) % 13);
+        lines.push(
+          `Q-${a},C-001,L-${a},MK-1,adult,${a % 2 ? "live" : "hidden"},2026-07-14T10:00:00Z,,${t},${(48 + ((a * 31 + k * 17) % 150) / 10).toFixed(1)},${((k * 13 + a) % 70) / 10}`,
+        );
       }
     }
-    const shuffled = lines.map((line, i) => ({ line, key: (i * 104_729) % lines.length })).sort((x, y) => x.key - y.key).map((x) => x.line);
+    const shuffled = lines
+      .map((line, i) => ({ line, key: (i * 104_729) % lines.length }))
+      .sort((x, y) => x.key - y.key)
+      .map((x) => x.line);
     const results = [];
-    for (const [order, bufferRows] of [[lines, undefined], [shuffled, undefined], [shuffled, 16]] as const) {
+    for (const [order, bufferRows] of [
+      [lines, undefined],
+      [shuffled, undefined],
+      [shuffled, 16],
+    ] as const) {
       const { db } = await freshDb();
       await load(db, "classes", "classes-valid.csv");
       const s = await load(db, "compressions", `${STREAM_HEADER}\n${order.join("\n")}\n`, { streamBufferRows: bufferRows });
       expect(s).toMatchObject({ status: "imported", inserted: 6 });
-      results.push(db.$client.prepare("SELECT a.*, s.data FROM attempts a JOIN compression_streams s ON s.attempt_id = a.id ORDER BY a.id").all().map((r) => ({ ...(r as object), batch_id: 0 })));
+      results.push(
+        db.$client
+          .prepare("SELECT a.*, s.data FROM attempts a JOIN compression_streams s ON s.attempt_id = a.id ORDER BY a.id")
+          .all()
+          .map((r) => ({ ...(r as object), batch_id: 0 })),
+      );
     }
     expect(results[1]).toEqual(results[0]);
     expect(results[2]).toEqual(results[0]);
@@ -142,7 +177,11 @@ describe("importing compression streams", () => {
     const s = await load(db, "compressions", csv);
     expect(s.status).toBe("refused");
     expect(s.issues).toEqual([
-      { row: 2, column: "feedback", reason: `"hidden" differs from "live" on row 1, the attempt's first row; every row of attempt D-1 must give the same feedback` },
+      {
+        row: 2,
+        column: "feedback",
+        reason: `"hidden" differs from "live" on row 1, the attempt's first row; every row of attempt D-1 must give the same feedback`,
+      },
       { row: 5, column: "t_ms", reason: "t_ms 500 appears on rows 4 and 5 of attempt D-2; each compression needs its own time" },
       { row: 7, column: "t_ms", reason: "0.5 is not a whole number of milliseconds" },
       { row: 7, column: "depth_mm", reason: "101 is outside 0–100 mm" },
@@ -151,7 +190,12 @@ describe("importing compression streams", () => {
     expect(s.rejected).toBe(7); // every row of the three refused attempts
     expect(count(db, "attempts")).toBe(0);
 
-    const skipped = await load(db, "compressions", `${csv}\nD-4,C-001,L-4,MK-1,adult,live,2026-07-14T10:00:00Z,,0,55,0\nD-4,C-001,L-4,MK-1,adult,live,2026-07-14T10:00:00Z,,500,55,0`, { skipInvalid: true });
+    const skipped = await load(
+      db,
+      "compressions",
+      `${csv}\nD-4,C-001,L-4,MK-1,adult,live,2026-07-14T10:00:00Z,,0,55,0\nD-4,C-001,L-4,MK-1,adult,live,2026-07-14T10:00:00Z,,500,55,0`,
+      { skipInvalid: true },
+    );
     expect(skipped).toMatchObject({ status: "imported", inserted: 1, attemptsRejected: 3, rejected: 7 });
     expect(db.$client.prepare("SELECT id FROM attempts").pluck().all()).toEqual(["D-4"]);
   });

@@ -19,7 +19,12 @@ describe("ceiling figures", () => {
 
   it("knows when the median sits at the ceiling", () => {
     expect(medianAtCeiling(counts)).toBe(true);
-    expect(medianAtCeiling([{ value: 90, count: 6 }, { value: 100, count: 4 }])).toBe(false);
+    expect(
+      medianAtCeiling([
+        { value: 90, count: 6 },
+        { value: 100, count: 4 },
+      ]),
+    ).toBe(false);
     expect(medianAtCeiling([])).toBe(false);
     expect(ceilingFigures([])).toEqual({ shareAtCeiling: null, p10: null });
   });

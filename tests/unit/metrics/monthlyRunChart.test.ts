@@ -22,7 +22,15 @@ describe("runChartRules", () => {
 
   it("signals nothing with fewer than two useful points, and has no limits without any", () => {
     expect(runChartRules([0.7], 0.5)).toEqual({ median: 0.5, useful: 1, longestRun: 1, longestRunLimit: 3, crossings: 0, crossingsLimit: 0, signal: false });
-    expect(runChartRules([0.5, 0.5], 0.5)).toEqual({ median: 0.5, useful: 0, longestRun: 0, longestRunLimit: null, crossings: 0, crossingsLimit: null, signal: false });
+    expect(runChartRules([0.5, 0.5], 0.5)).toEqual({
+      median: 0.5,
+      useful: 0,
+      longestRun: 0,
+      longestRunLimit: null,
+      crossings: 0,
+      crossingsLimit: null,
+      signal: false,
+    });
     expect(runChartRules([], null)).toMatchObject({ median: null, useful: 0, signal: false });
   });
 });

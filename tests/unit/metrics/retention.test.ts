@@ -15,9 +15,15 @@ beforeAll(async () => {
   insertReportFixture(db, await seedPeople(db));
   const learnerOf = (id: string) => db.select({ learner: attempts.learner }).from(attempts).where(eq(attempts.id, id)).get()!.learner;
   // RF-A1 (class Q3-1, 2026-07-08, passed) is the learner of RF-A61 (class LY-1, 2025-08-10)
-  db.update(attempts).set({ learner: learnerOf("RF-A61") }).where(eq(attempts.id, "RF-A1")).run();
+  db.update(attempts)
+    .set({ learner: learnerOf("RF-A61") })
+    .where(eq(attempts.id, "RF-A1"))
+    .run();
   // RF-A30 (class Q3-6, 2026-09-23, failed) is the learner of RF-A41 (class Q2-1, 2026-05-10)
-  db.update(attempts).set({ learner: learnerOf("RF-A41") }).where(eq(attempts.id, "RF-A30")).run();
+  db.update(attempts)
+    .set({ learner: learnerOf("RF-A41") })
+    .where(eq(attempts.id, "RF-A30"))
+    .run();
 });
 afterAll(() => db.$client.close());
 

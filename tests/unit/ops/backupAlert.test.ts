@@ -37,7 +37,12 @@ describe("backup alerts", () => {
   it("e-mails the coordinators what failed and what to do", async () => {
     const { sent, mailer } = fakeMailer();
     const { lines, logger } = capture();
-    await alertCoordinators(db, mailer, logger, { kind: "failed", file: "/srv/backups/quarterbeat-2026-03-01T030000Z.sqlite", at: "2026-03-01T03:00:00.000Z", problem: "disk full" });
+    await alertCoordinators(db, mailer, logger, {
+      kind: "failed",
+      file: "/srv/backups/quarterbeat-2026-03-01T030000Z.sqlite",
+      at: "2026-03-01T03:00:00.000Z",
+      problem: "disk full",
+    });
     expect(sent).toHaveLength(1);
     expect(sent[0].to).toEqual(["coord@test.example"]);
     expect(sent[0].subject).toBe("Quarterbeat: a backup failed");

@@ -77,10 +77,18 @@ describe("rotation", () => {
 
 describe("backup settings", () => {
   it("default to a daily 03:00 UTC backup beside the database, keeping 7, 4 and 12; BACKUP_DIR=off turns them off", () => {
-    expect(loadConfig({ QUARTERBEAT_DB: "/srv/qb/quarterbeat.sqlite" }).backups).toEqual({ dir: "/srv/qb/backups", hourUtc: 3, keep: { daily: 7, weekly: 4, monthly: 12 } });
+    expect(loadConfig({ QUARTERBEAT_DB: "/srv/qb/quarterbeat.sqlite" }).backups).toEqual({
+      dir: "/srv/qb/backups",
+      hourUtc: 3,
+      keep: { daily: 7, weekly: 4, monthly: 12 },
+    });
     expect(loadConfig({}, { dbFile: "/tmp/other/db.sqlite" }).backups.dir).toBe("/tmp/other/backups");
     expect(loadConfig({ BACKUP_DIR: "off" }).backups.dir).toBeNull();
-    expect(loadConfig({ BACKUP_DIR: "/mnt/b", BACKUP_HOUR_UTC: "22", BACKUP_KEEP_MONTHLY: "24" }).backups).toMatchObject({ dir: "/mnt/b", hourUtc: 22, keep: { monthly: 24 } });
+    expect(loadConfig({ BACKUP_DIR: "/mnt/b", BACKUP_HOUR_UTC: "22", BACKUP_KEEP_MONTHLY: "24" }).backups).toMatchObject({
+      dir: "/mnt/b",
+      hourUtc: 22,
+      keep: { monthly: 24 },
+    });
     expect(() => loadConfig({ BACKUP_HOUR_UTC: "24" })).toThrow(/BACKUP_HOUR_UTC must be an hour from 0 to 23/);
   });
 });
@@ -92,7 +100,16 @@ describe("the backup schedule", () => {
     const { lines, logger } = captureLogger();
     const problems: BackupProblem[] = [];
     const records: BackupLogEntry[] = [];
-    const schedule = startBackupSchedule({ dbFile, dir, hourUtc: 3, keep: KEEP, logger, clock: time.clock, onProblem: async (p) => void problems.push(p), record: (entry) => void records.push(entry) });
+    const schedule = startBackupSchedule({
+      dbFile,
+      dir,
+      hourUtc: 3,
+      keep: KEEP,
+      logger,
+      clock: time.clock,
+      onProblem: async (p) => void problems.push(p),
+      record: (entry) => void records.push(entry),
+    });
     await time.settle();
     expect(lines[0]).toMatchObject({ level: 40, event: "backup", lastBackupAt: null });
     expect(listBackups(dir).map((b) => path.basename(b.file))).toEqual([backupFileName(new Date("2026-01-01T12:00:00Z"))]);
@@ -104,7 +121,9 @@ describe("the backup schedule", () => {
     // 2026-03-01 is a Sunday: the last four ISO weeks end on Mar 1, Feb 22, Feb 15 and Feb 8; the daily seven
     // are Feb 23 – Mar 1; the monthly ones are Mar 1, Feb 28 and Jan 31. The catch-up copy of Jan 1 is gone.
     const days = ["01-31", "02-08", "02-15", "02-22", "02-23", "02-24", "02-25", "02-26", "02-27", "02-28", "03-01"];
-    const kept = listBackups(dir).map((b) => path.basename(b.file)).sort();
+    const kept = listBackups(dir)
+      .map((b) => path.basename(b.file))
+      .sort();
     expect(kept).toEqual(days.map((day) => backupFileName(new Date(`2026-${day}T03:00:00Z`))));
     // each copy with its verification record, and nothing else (no partial copies, no -wal or -shm files)
     expect(fs.readdirSync(dir).sort()).toEqual(kept.flatMap((name) => [name, `${name}.json`]).sort());
@@ -138,7 +157,16 @@ describe("the backup schedule", () => {
     const onProblem = async (p: BackupProblem) => void problems.push(p);
     const records: BackupLogEntry[] = [];
     const record = (entry: BackupLogEntry) => void records.push(entry);
-    const schedule = startBackupSchedule({ dbFile: path.join(dir, "no-such-database.sqlite"), dir, hourUtc: 3, keep: { daily: 1, weekly: 0, monthly: 0 }, logger, clock: time.clock, onProblem, record });
+    const schedule = startBackupSchedule({
+      dbFile: path.join(dir, "no-such-database.sqlite"),
+      dir,
+      hourUtc: 3,
+      keep: { daily: 1, weekly: 0, monthly: 0 },
+      logger,
+      clock: time.clock,
+      onProblem,
+      record,
+    });
     await time.settle();
     schedule.stop();
     // the newest copy is from 2026-01-02: a missed day, then the catch-up copy fails
@@ -146,9 +174,25 @@ describe("the backup schedule", () => {
       { kind: "missed", lastBackupAt: "2026-01-02T03:00:00.000Z", at: "2026-02-01T12:00:00.000Z" },
       expect.objectContaining({ kind: "failed", at: "2026-02-01T12:00:00.000Z" }),
     ]);
-    expect(lines.find((line) => line.msg === "backup failed")).toMatchObject({ level: 50, ok: false, problem: expect.stringMatching(/no-such-database|unable to open|directory does not exist/) });
-    expect(listBackups(dir).map((b) => b.file).sort()).toEqual(old);
-    expect(records).toEqual([expect.objectContaining({ takenAt: "2026-02-01T12:00:00.000Z", source: "scheduled", verified: false, sizeBytes: 0, message: problems[1].kind === "failed" ? problems[1].problem : "" })]);
+    expect(lines.find((line) => line.msg === "backup failed")).toMatchObject({
+      level: 50,
+      ok: false,
+      problem: expect.stringMatching(/no-such-database|unable to open|directory does not exist/),
+    });
+    expect(
+      listBackups(dir)
+        .map((b) => b.file)
+        .sort(),
+    ).toEqual(old);
+    expect(records).toEqual([
+      expect.objectContaining({
+        takenAt: "2026-02-01T12:00:00.000Z",
+        source: "scheduled",
+        verified: false,
+        sizeBytes: 0,
+        message: problems[1].kind === "failed" ? problems[1].problem : "",
+      }),
+    ]);
   });
 
   it("waits for the hour when the newest backup is less than a day old", async () => {

@@ -33,7 +33,15 @@ function makeDeployedCopy(): string {
 function startProduction(env: Record<string, string> = {}) {
   return spawn(process.execPath, [path.join(copy, "scripts/start.mjs")], {
     cwd: copy,
-    env: { PATH: process.env.PATH ?? "", NODE_ENV: "production", PORT: "0", BACKUP_DIR: "off", LOG_LEVEL: "warn", QUARTERBEAT_DB: path.join(copy, "data/quarterbeat.sqlite"), ...env },
+    env: {
+      PATH: process.env.PATH ?? "",
+      NODE_ENV: "production",
+      PORT: "0",
+      BACKUP_DIR: "off",
+      LOG_LEVEL: "warn",
+      QUARTERBEAT_DB: path.join(copy, "data/quarterbeat.sqlite"),
+      ...env,
+    },
   });
 }
 
@@ -63,7 +71,11 @@ afterAll(() => {
 
 describe("production build", () => {
   it("refuses to start in one line while the build is missing", () => {
-    const result = spawnSync(process.execPath, [path.join(copy, "scripts/start.mjs")], { cwd: copy, encoding: "utf8", env: { PATH: process.env.PATH ?? "", NODE_ENV: "production" } });
+    const result = spawnSync(process.execPath, [path.join(copy, "scripts/start.mjs")], {
+      cwd: copy,
+      encoding: "utf8",
+      env: { PATH: process.env.PATH ?? "", NODE_ENV: "production" },
+    });
     expect(result.status).toBe(1);
     expect(result.stderr.trim().split("\n")).toEqual([
       "quarterbeat: the production build is missing (dist/server/main.js, dist/client/index.html): run `npm run build` first.",
@@ -73,15 +85,30 @@ describe("production build", () => {
   it(
     "runs the compiled server, CLI, import worker and answer worker with node alone",
     async () => {
-      const vite = spawnSync(process.execPath, [path.join(root, "node_modules/vite/bin/vite.js"), "build", "--outDir", path.join(copy, "dist/client"), "--emptyOutDir", "--logLevel", "warn"], { cwd: root, encoding: "utf8" });
+      const vite = spawnSync(
+        process.execPath,
+        [path.join(root, "node_modules/vite/bin/vite.js"), "build", "--outDir", path.join(copy, "dist/client"), "--emptyOutDir", "--logLevel", "warn"],
+        { cwd: root, encoding: "utf8" },
+      );
       expect(vite.status, vite.stderr).toBe(0);
-      const compile = spawnSync(process.execPath, [path.join(root, "scripts/build-server.mjs"), "--outdir", path.join(copy, "dist/server")], { cwd: root, encoding: "utf8" });
+      const compile = spawnSync(process.execPath, [path.join(root, "scripts/build-server.mjs"), "--outdir", path.join(copy, "dist/server")], {
+        cwd: root,
+        encoding: "utf8",
+      });
       expect(compile.status, compile.stderr).toBe(0);
 
       // the CLI: a first coordinator for an empty production database
       const cli = (args: string[], input?: string) =>
-        spawnSync(process.execPath, [path.join(copy, "dist/server/cli.js"), "--db", path.join(copy, "data/quarterbeat.sqlite"), ...args], { cwd: copy, input, encoding: "utf8", env: { PATH: process.env.PATH ?? "" } });
-      const added = cli(["users", "add", "first.coordinator@network.example", "--name", "First Coordinator", "--role", "coordinator", "--password-stdin"], "a-long-enough-password-2026\n");
+        spawnSync(process.execPath, [path.join(copy, "dist/server/cli.js"), "--db", path.join(copy, "data/quarterbeat.sqlite"), ...args], {
+          cwd: copy,
+          input,
+          encoding: "utf8",
+          env: { PATH: process.env.PATH ?? "" },
+        });
+      const added = cli(
+        ["users", "add", "first.coordinator@network.example", "--name", "First Coordinator", "--role", "coordinator", "--password-stdin"],
+        "a-long-enough-password-2026\n",
+      );
       expect(added.status, added.stderr).toBe(0);
       const listed = cli(["users", "list", "--json"]);
       expect(JSON.parse(listed.stdout).map((user: { email: string }) => user.email)).toEqual(["first.coordinator@network.example"]);
@@ -103,7 +130,9 @@ describe("production build", () => {
 
       // the compiled import worker, as jobs.ts starts it, checks a class log
       const worker = new Worker(path.join(copy, "dist/server/importWorker.js"));
-      const done = new Promise<{ type: string; summary?: { rowsRead: number } ; message?: string }>((resolve) => worker.on("message", (m) => m.type !== "progress" && resolve(m)));
+      const done = new Promise<{ type: string; summary?: { rowsRead: number }; message?: string }>((resolve) =>
+        worker.on("message", (m) => m.type !== "progress" && resolve(m)),
+      );
       worker.postMessage({
         jobId: "build-check",
         dbFile: path.join(copy, "data/quarterbeat.sqlite"),
@@ -118,9 +147,29 @@ describe("production build", () => {
       // the compiled answer worker, as offThread/pool.ts starts it, computes an overview of the empty network
       const answerWorker = new Worker(path.join(copy, "dist/server/answerWorker.js"));
       const answered = new Promise<{ id: number; json?: string; crash?: string; error?: unknown }>((resolve) => answerWorker.on("message", resolve));
-      const viewer = { user: { id: 1, email: "c@network.example", displayName: "C", role: "coordinator", instructorId: null }, seesEveryone: true, ownInstructorId: null, suppressionMinCount: 5, suppressionMinInstructors: 3 };
-      const filters = { period: { from: "2026-Q3", to: "2026-Q3", quarters: ["2026-Q3"] }, siteId: null, profile: null, feedback: null, instructorId: null, manikinId: null };
-      answerWorker.postMessage({ id: 1, dbFile: path.join(copy, "data/quarterbeat.sqlite"), key: "build-check", useCache: false, name: "overview", args: [viewer, filters, { limits: "binomial", splitAt: null }] });
+      const viewer = {
+        user: { id: 1, email: "c@network.example", displayName: "C", role: "coordinator", instructorId: null },
+        seesEveryone: true,
+        ownInstructorId: null,
+        suppressionMinCount: 5,
+        suppressionMinInstructors: 3,
+      };
+      const filters = {
+        period: { from: "2026-Q3", to: "2026-Q3", quarters: ["2026-Q3"] },
+        siteId: null,
+        profile: null,
+        feedback: null,
+        instructorId: null,
+        manikinId: null,
+      };
+      answerWorker.postMessage({
+        id: 1,
+        dbFile: path.join(copy, "data/quarterbeat.sqlite"),
+        key: "build-check",
+        useCache: false,
+        name: "overview",
+        args: [viewer, filters, { limits: "binomial", splitAt: null }],
+      });
       const reply = await answered;
       await answerWorker.terminate();
       expect(reply.crash).toBeUndefined();

@@ -123,7 +123,9 @@ describe("restoreDatabase", () => {
     const conn = new Database(other);
     conn.exec("CREATE TABLE recipes (id INTEGER PRIMARY KEY, name TEXT)");
     conn.close();
-    expect((await refusal(restoreDatabase({ backupFile: other, targetFile: target() }))).message).toMatch(/not a Quarterbeat one: it has no __drizzle_migrations table/);
+    expect((await refusal(restoreDatabase({ backupFile: other, targetFile: target() }))).message).toMatch(
+      /not a Quarterbeat one: it has no __drizzle_migrations table/,
+    );
   });
 
   it("refuses a damaged backup, naming the integrity check", async () => {

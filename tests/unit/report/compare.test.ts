@@ -41,7 +41,7 @@ describe("figures", () => {
     expect(plainCount(2)).toEqual({ value: 2, hidden: null, text: "2" });
   });
 
-  it("hides a rate only with its group, reading \"hidden\" rather than a count", () => {
+  it('hides a rate only with its group, reading "hidden" rather than a count', () => {
     expect(rateFigure(2, 4, 5)).toMatchObject({ value: null, hidden: "small", text: "hidden", intervalText: "", n: { text: "fewer than 5" } });
     expect(rateFigure(30, 40, 5, "protects-other")).toMatchObject({ value: null, hidden: "protects-other", text: "hidden", n: { text: "not shown" } });
     expect(rateFigure(0, 0, 5)).toMatchObject({ value: null, hidden: null, text: "no data" });
@@ -56,13 +56,6 @@ describe("figures", () => {
 
 describe("kappaWords", () => {
   it("uses the Landis and Koch bands (Biometrics 1977;33:159–174, from memory)", () => {
-    expect([-0.1, 0.1, 0.3, 0.5, 0.7, 0.9].map(kappaWords)).toEqual([
-      "poorer than chance",
-      "slight",
-      "fair",
-      "moderate",
-      "substantial",
-      "almost perfect",
-    ]);
+    expect([-0.1, 0.1, 0.3, 0.5, 0.7, 0.9].map(kappaWords)).toEqual(["poorer than chance", "slight", "fair", "moderate", "substantial", "almost perfect"]);
   });
 });

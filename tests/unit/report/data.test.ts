@@ -36,7 +36,7 @@ describe("report data for 2026-Q3", () => {
     expect(buildReportData(db, "2026").reach.classes).toEqual({ value: null, hidden: "protects-other", text: "not shown" });
   });
 
-  it("splits learners by course: infant (3) hidden with child (6), no all-ages learners reads \"no data\"", () => {
+  it('splits learners by course: infant (3) hidden with child (6), no all-ages learners reads "no data"', () => {
     const learners = Object.fromEntries(q3.reach.byCourse.map((c) => [c.key, c.learners.text]));
     expect(learners).toEqual({ adult: "39", child: "not shown", infant: "fewer than 5", "all-ages": "no data" });
     // classes per course are 4, 1, 1 and 0: under 5, except the empty one
@@ -68,9 +68,7 @@ describe("report data for 2026-Q3", () => {
   });
 
   it("draws eight quarters with p-chart limits around the baseline's centre 38/70", () => {
-    expect(q3.trend.points.map((p) => p.quarter)).toEqual([
-      "2024-Q4", "2025-Q1", "2025-Q2", "2025-Q3", "2025-Q4", "2026-Q1", "2026-Q2", "2026-Q3",
-    ]);
+    expect(q3.trend.points.map((p) => p.quarter)).toEqual(["2024-Q4", "2025-Q1", "2025-Q2", "2025-Q3", "2025-Q4", "2026-Q1", "2026-Q2", "2026-Q3"]);
     // the overview's default baseline, the first four quarters with attempts: here only three exist
     // (2025-Q3 6/10, 2026-Q2 6/20, 2026-Q3 26/40)
     expect(q3.trend.baseline).toEqual({ from: "2025-Q3", to: "2026-Q3" });
@@ -116,7 +114,7 @@ describe("report data for 2026-Q3", () => {
     expect(byType.adult.passRate.text).toBe("68.8 %");
   });
 
-  it("ranks errors: 11 too shallow shown, the three under 5 hidden together with their shares, the absent ones \"no data\"", () => {
+  it('ranks errors: 11 too shallow shown, the three under 5 hidden together with their shares, the absent ones "no data"', () => {
     const [first, ...rest] = q3.errors.rows;
     expect(first.name).toBe("too_shallow");
     expect(first.count.value).toBe(11);
@@ -171,7 +169,7 @@ describe("report data for 2026-Q3", () => {
     expect(q3.methods.scoredUnderVersions).toEqual([1]);
   });
 
-  it("shows retention's empty bins as \"no data\", so the 40 first-timers stay shown", () => {
+  it('shows retention\'s empty bins as "no data", so the 40 first-timers stay shown', () => {
     // Every attempt of the fixture has its own learner, so all 40 learner–class pairs are first courses and
     // every bin of returns is empty: no one is in them, so nothing needs protecting.
     expect(q3.retention!.firstTime.learners).toEqual({ value: 40, hidden: null, text: "40" });
@@ -243,7 +241,9 @@ describe("narrative", () => {
     expect(text).toContain("fewer than 5 instructors at 2 sites ran 6 classes for 48 learners");
     expect(text).toContain("moderate agreement");
     // like with like: 42 of 48 learners recorded as completing against 26 of 40 learners passing at least once
-    expect(text).toContain("Instructors recorded 87.5 % of learners as completing the course; on the manikin, 65.0 % of the learners measured passed at least once.");
+    expect(text).toContain(
+      "Instructors recorded 87.5 % of learners as completing the course; on the manikin, 65.0 % of the learners measured passed at least once.",
+    );
     expect(text).not.toMatch(/infant/i);
   });
 });

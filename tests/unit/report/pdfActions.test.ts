@@ -31,8 +31,25 @@ beforeAll(async () => {
   const lead = findActiveUser(db, people.users.quality_lead.id)!;
   const base = { target: 60, instructorId: null, profile: null, owner: "Robin Owner" } as const;
   createAction(db, lead, { ...base, title: "Rate metronome in every class", aim: "passRate", siteId: null, startDate: "2026-07-06", status: "under_way" });
-  createAction(db, lead, { ...base, title: "Depth cards at the hall", aim: "too_shallow", siteId: people.sites.north.id, profile: "adult", startDate: "2026-08-03", status: "done", target: 10 });
-  createAction(db, lead, { ...base, title: "One-to-one coaching", aim: "passRate", siteId: null, instructorId: people.instructors.a1.id, startDate: "2026-07-20", status: "under_way" });
+  createAction(db, lead, {
+    ...base,
+    title: "Depth cards at the hall",
+    aim: "too_shallow",
+    siteId: people.sites.north.id,
+    profile: "adult",
+    startDate: "2026-08-03",
+    status: "done",
+    target: 10,
+  });
+  createAction(db, lead, {
+    ...base,
+    title: "One-to-one coaching",
+    aim: "passRate",
+    siteId: null,
+    instructorId: people.instructors.a1.id,
+    startDate: "2026-07-20",
+    status: "under_way",
+  });
   createAction(db, lead, { ...base, title: "Winter recoil drill", aim: "incomplete_recoil", siteId: null, startDate: "2026-11-02", status: "planned" });
 });
 afterAll(() => db.$client.close());

@@ -7,21 +7,12 @@ import { DEFAULT_POLICY, type Band } from "../../../shared/scoring/policy";
 const adult = DEFAULT_POLICY.bands.adult;
 
 /** Intervals that include the class limits (500, 600 ms), the pause threshold (2000) and long pauses. */
-const interval = fc.oneof(
-  fc.integer({ min: 1, max: 2500 }),
-  fc.constantFrom(450, 499, 500, 501, 599, 600, 601, 1999, 2000, 2001, 10_000, 10_001, 15_000),
-);
-const depthValue = fc.oneof(
-  fc.double({ min: 0, max: 90, noNaN: true }),
-  fc.constantFrom(49.9, 50, 60, 60.1),
-);
+const interval = fc.oneof(fc.integer({ min: 1, max: 2500 }), fc.constantFrom(450, 499, 500, 501, 599, 600, 601, 1999, 2000, 2001, 10_000, 10_001, 15_000));
+const depthValue = fc.oneof(fc.double({ min: 0, max: 90, noNaN: true }), fc.constantFrom(49.9, 50, 60, 60.1));
 const releaseValue = fc.oneof(fc.double({ min: 0, max: 12, noNaN: true }), fc.constantFrom(4.9, 5, 5.1));
 
 const stream = fc
-  .tuple(
-    fc.integer({ min: 0, max: 100_000 }),
-    fc.array(fc.tuple(interval, depthValue, releaseValue), { minLength: 0, maxLength: 60 }),
-  )
+  .tuple(fc.integer({ min: 0, max: 100_000 }), fc.array(fc.tuple(interval, depthValue, releaseValue), { minLength: 0, maxLength: 60 }))
   .map(([start, parts]) => {
     let t = start;
     return parts.map(([gap, depth_mm, release_mm], i): CompressionRow => {
@@ -99,9 +90,20 @@ function reference(rows: CompressionRow[], band: Band, pauseS: number, longS: nu
   const sorted = [...rows].sort((a, b) => a.t_ms - b.t_ms);
   const n = sorted.length;
   const pct = (count: number, of: number) => (of > 0 ? (count / of) * 100 : 0);
-  let ok = 0, shallow = 0, deep = 0, recoil = 0, depthSum = 0;
-  let rated = 0, ratedMs = 0, rateOk = 0, slow = 0, fast = 0;
-  let pauses = 0, pausedMs = 0, longest = 0, long = 0;
+  let ok = 0,
+    shallow = 0,
+    deep = 0,
+    recoil = 0,
+    depthSum = 0;
+  let rated = 0,
+    ratedMs = 0,
+    rateOk = 0,
+    slow = 0,
+    fast = 0;
+  let pauses = 0,
+    pausedMs = 0,
+    longest = 0,
+    long = 0;
   sorted.forEach((row, i) => {
     depthSum += row.depth_mm;
     if (row.depth_mm < band.depthMinMm) shallow++;

@@ -1,19 +1,8 @@
 // Stream analysis: hand-computed worked examples, degenerate streams, bad input and the typed-array core.
 import { describe, expect, it } from "vitest";
-import {
-  analyzeSorted,
-  analyzeStream,
-  attemptMetricKeys,
-  emptyMetrics,
-  type AttemptMetrics,
-  type CompressionRow,
-} from "../../../shared/scoring/analyzeStream";
+import { analyzeSorted, analyzeStream, attemptMetricKeys, emptyMetrics, type AttemptMetrics, type CompressionRow } from "../../../shared/scoring/analyzeStream";
 import { DEFAULT_POLICY } from "../../../shared/scoring/policy";
-import {
-  DuplicateTimestampError,
-  InvalidStreamValueError,
-  UnsortedTimestampError,
-} from "../../../shared/scoring/streamErrors";
+import { DuplicateTimestampError, InvalidStreamValueError, UnsortedTimestampError } from "../../../shared/scoring/streamErrors";
 import { atTimes, exampleA } from "./streamFixtures";
 
 const adult = DEFAULT_POLICY.bands.adult; // 50–60 mm, 100–120/min, full recoil ≤ 5 mm
@@ -100,8 +89,7 @@ describe("worked example B: 6 child compressions with one 11 s pause", () => {
 });
 
 describe("degenerate streams never give NaN", () => {
-  const allFinite = (m: AttemptMetrics) =>
-    attemptMetricKeys.every((k) => typeof m[k] === "number" && Number.isFinite(m[k]));
+  const allFinite = (m: AttemptMetrics) => attemptMetricKeys.every((k) => typeof m[k] === "number" && Number.isFinite(m[k]));
 
   it("no compressions: every value is 0", () => {
     const m = analyzeStream([], adult, DEFAULT_POLICY);
@@ -167,21 +155,15 @@ describe("bad input gives a typed error naming the entry", () => {
   it("the typed core rejects unsorted, duplicate and non-finite times", () => {
     const depth = new Float64Array([55, 55, 55]);
     const release = new Float64Array([1, 1, 1]);
-    const unsorted = catchError(() =>
-      analyzeSorted(new Float64Array([0, 600, 300]), depth, release, 0, 3, adult, DEFAULT_POLICY),
-    );
+    const unsorted = catchError(() => analyzeSorted(new Float64Array([0, 600, 300]), depth, release, 0, 3, adult, DEFAULT_POLICY));
     expect(unsorted).toBeInstanceOf(UnsortedTimestampError);
     expect(unsorted).toMatchObject({ tMs: 300, previousTMs: 600, index: 2 });
 
-    const duplicate = catchError(() =>
-      analyzeSorted(new Int32Array([0, 600, 600]), depth, release, 0, 3, adult, DEFAULT_POLICY),
-    );
+    const duplicate = catchError(() => analyzeSorted(new Int32Array([0, 600, 600]), depth, release, 0, 3, adult, DEFAULT_POLICY));
     expect(duplicate).toBeInstanceOf(DuplicateTimestampError);
     expect(duplicate).toMatchObject({ tMs: 600, index: 2, otherIndex: 1 });
 
-    const nan = catchError(() =>
-      analyzeSorted(new Float64Array([0, NaN, 1200]), depth, release, 0, 3, adult, DEFAULT_POLICY),
-    );
+    const nan = catchError(() => analyzeSorted(new Float64Array([0, NaN, 1200]), depth, release, 0, 3, adult, DEFAULT_POLICY));
     expect(nan).toBeInstanceOf(InvalidStreamValueError);
     expect(nan).toMatchObject({ field: "t_ms", index: 1 });
   });
@@ -189,12 +171,11 @@ describe("bad input gives a typed error naming the entry", () => {
   it("the typed core rejects a non-finite depth or release", () => {
     const t = new Int32Array([0, 500, 1000]);
     const ok = new Float32Array([55, 55, 55]);
-    expect(
-      catchError(() => analyzeSorted(t, new Float32Array([55, NaN, 55]), ok, 0, 3, adult, DEFAULT_POLICY)),
-    ).toMatchObject({ field: "depth_mm", index: 1 });
-    expect(
-      catchError(() => analyzeSorted(t, ok, new Float32Array([1, 1, Infinity]), 0, 3, adult, DEFAULT_POLICY)),
-    ).toMatchObject({ field: "release_mm", index: 2 });
+    expect(catchError(() => analyzeSorted(t, new Float32Array([55, NaN, 55]), ok, 0, 3, adult, DEFAULT_POLICY))).toMatchObject({ field: "depth_mm", index: 1 });
+    expect(catchError(() => analyzeSorted(t, ok, new Float32Array([1, 1, Infinity]), 0, 3, adult, DEFAULT_POLICY))).toMatchObject({
+      field: "release_mm",
+      index: 2,
+    });
   });
 
   it("the typed core rejects a range outside the arrays", () => {

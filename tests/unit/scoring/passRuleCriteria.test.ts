@@ -35,7 +35,18 @@ describe("passRuleCriteria", () => {
 
   it("gives the value as recorded, the threshold and the margin, and which way a share missed", () => {
     const [depth, rate, recoil, handsOn, pause] = passRuleCriteria(
-      { compressions: 230, depth_ok_pct: 69.6, too_shallow_pct: 26.1, too_deep_pct: 4.3, rate_ok_pct: 56, too_slow_pct: 2, too_fast_pct: 42, recoil_ok_pct: 70, hands_on_pct: 78, longest_pause_s: 10.4 },
+      {
+        compressions: 230,
+        depth_ok_pct: 69.6,
+        too_shallow_pct: 26.1,
+        too_deep_pct: 4.3,
+        rate_ok_pct: 56,
+        too_slow_pct: 2,
+        too_fast_pct: 42,
+        recoil_ok_pct: 70,
+        hands_on_pct: 78,
+        longest_pause_s: 10.4,
+      },
       rule,
     );
     expect(depth).toMatchObject({ value: 69.6, threshold: 70, comparison: "atLeast", met: false, error: "too_shallow", split: { low: 26.1, high: 4.3 } });

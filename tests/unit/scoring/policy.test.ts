@@ -1,13 +1,6 @@
 // The network policy schema and its defaults.
 import { describe, expect, it } from "vitest";
-import {
-  DEFAULT_POLICY,
-  GUIDELINE_SOURCES,
-  networkPolicySchema,
-  patientTypes,
-  SAFETY_NOTE,
-  type NetworkPolicy,
-} from "../../../shared/scoring/policy";
+import { DEFAULT_POLICY, GUIDELINE_SOURCES, networkPolicySchema, patientTypes, SAFETY_NOTE, type NetworkPolicy } from "../../../shared/scoring/policy";
 
 const clone = (): NetworkPolicy => structuredClone(DEFAULT_POLICY);
 const messages = (input: unknown) => {
@@ -107,8 +100,6 @@ describe("policy schema rejects bad input with readable messages", () => {
   it("a recoil tolerance as deep as the minimum depth", () => {
     const p = clone();
     p.bands.infant.recoilMaxMm = 35;
-    expect(messages(p)).toEqual([
-      "bands.infant.recoilMaxMm: The full-recoil tolerance must be smaller than the minimum depth",
-    ]);
+    expect(messages(p)).toEqual(["bands.infant.recoilMaxMm: The full-recoil tolerance must be smaller than the minimum depth"]);
   });
 });

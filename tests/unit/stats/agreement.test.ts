@@ -15,7 +15,10 @@ describe("agreement beyond kappa", () => {
     expect(low).toBeCloseTo(0.5596, 3);
     expect(high).toBeCloseTo(0.8394, 3);
     // [[80, 10], [5, 5]]: κ 0.3182 (Gerstman, Example 10.2), SE 0.13346 → 0.0566–0.5798 (same formula)
-    const [low2, high2] = kappaInterval([[80, 10], [5, 5]])!;
+    const [low2, high2] = kappaInterval([
+      [80, 10],
+      [5, 5],
+    ])!;
     expect(low2).toBeCloseTo(0.0566, 3);
     expect(high2).toBeCloseTo(0.5798, 3);
   });
@@ -28,10 +31,20 @@ describe("agreement beyond kappa", () => {
   it("gives the exact McNemar p for 9 against 6 disagreements", () => {
     // 2 × P(X ≤ 6), X ~ Binomial(15, 0.5) = 0.6072 (McNemar 1947, exact binomial form)
     expect(mcnemarExactP(table)).toBeCloseTo(0.6072, 4);
-    expect(mcnemarExactP([[5, 0], [0, 5]])).toBe(1);
+    expect(
+      mcnemarExactP([
+        [5, 0],
+        [0, 5],
+      ]),
+    ).toBe(1);
   });
 
   it("has no interval for an empty table", () => {
-    expect(kappaInterval([[0, 0], [0, 0]])).toBeNull();
+    expect(
+      kappaInterval([
+        [0, 0],
+        [0, 0],
+      ]),
+    ).toBeNull();
   });
 });

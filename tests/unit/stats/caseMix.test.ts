@@ -7,8 +7,20 @@ import { indirectStandardisation, type StratumCount } from "../../../shared/stat
 //   O = 23, E = 10·0.8 + 30·0.4 = 20, V = 10·0.8·0.2 + 30·0.4·0.6 = 8.8, z = 3 / √8.8 = 1.011300.
 // The rest of the network ("others") makes up the strata: 90 in A with 72 passed, 70 in B with 25 passed.
 const cells = new Map<string, StratumCount[]>([
-  ["mixed", [{ stratum: "A", n: 10, passed: 8 }, { stratum: "B", n: 30, passed: 15 }]],
-  ["others", [{ stratum: "A", n: 90, passed: 72 }, { stratum: "B", n: 70, passed: 25 }]],
+  [
+    "mixed",
+    [
+      { stratum: "A", n: 10, passed: 8 },
+      { stratum: "B", n: 30, passed: 15 },
+    ],
+  ],
+  [
+    "others",
+    [
+      { stratum: "A", n: 90, passed: 72 },
+      { stratum: "B", n: 70, passed: 25 },
+    ],
+  ],
 ]);
 
 describe("indirectStandardisation", () => {

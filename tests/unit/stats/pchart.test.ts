@@ -58,13 +58,21 @@ describe("pChart", () => {
   });
 
   it("rejects counts above n with the sample number", () => {
-    expect(() => pChart([{ n: 10, count: 2 }, { n: 5, count: 6 }])).toThrow(/sample 2/);
+    expect(() =>
+      pChart([
+        { n: 10, count: 2 },
+        { n: 5, count: 6 },
+      ]),
+    ).toThrow(/sample 2/);
   });
   it("takes centre and limits from a stated baseline, so later samples never move their own centre line", () => {
     // Montgomery's revised limits (samples 15 and 23 removed) as the baseline: centre 0.215, LCL 0.04070284,
     // UCL 0.3892972 at n = 50. New samples judged against it, worked by hand: 21/50 = 0.42 is above the UCL.
     const baseline = canSamples.filter((_, index) => index !== 14 && index !== 22);
-    const judged = [{ n: 50, count: 9 }, { n: 50, count: 21 }];
+    const judged = [
+      { n: 50, count: 9 },
+      { n: 50, count: 21 },
+    ];
     const chart = pChart(judged, { baseline });
     expect(chart.centre).toBeCloseTo(0.215, 10);
     expect(chart.points[0].lcl).toBeCloseTo(0.04070284, 8);

@@ -51,8 +51,7 @@ describe("percentileRank (below + half of ties)", () => {
 // Second opinion: simple-statistics 7.12.1 (quantile, median, interquartileRange, quantileRank).
 describe("agreement with simple-statistics on random samples", () => {
   const sample = fc.array(fc.double({ min: -1e6, max: 1e6, noNaN: true }), { minLength: 1, maxLength: 60 });
-  const closeTo = (actual: number | null, expected: number) =>
-    actual !== null && Math.abs(actual - expected) <= 1e-9 * (1 + Math.abs(expected));
+  const closeTo = (actual: number | null, expected: number) => actual !== null && Math.abs(actual - expected) <= 1e-9 * (1 + Math.abs(expected));
 
   it("quantile, median and IQR agree (both are type 7)", () => {
     fc.assert(
@@ -79,15 +78,11 @@ describe("agreement with simple-statistics on random samples", () => {
     // simple-statistics places a tied block at the mean of its 1-based ranks, (below + (equal + 1) / 2) / n;
     // our definition uses (below + equal / 2) / n, so the two differ by exactly 1 / (2n).
     fc.assert(
-      fc.property(
-        fc.array(fc.integer({ min: 0, max: 8 }), { minLength: 1, maxLength: 40 }),
-        fc.nat(),
-        (values, pick) => {
-          const x = values[pick % values.length];
-          const expected = 100 * ss.quantileRank(values, x) - 50 / values.length;
-          expect(closeTo(percentileRank(values, x), expected)).toBe(true);
-        },
-      ),
+      fc.property(fc.array(fc.integer({ min: 0, max: 8 }), { minLength: 1, maxLength: 40 }), fc.nat(), (values, pick) => {
+        const x = values[pick % values.length];
+        const expected = 100 * ss.quantileRank(values, x) - 50 / values.length;
+        expect(closeTo(percentileRank(values, x), expected)).toBe(true);
+      }),
       { numRuns: 500 },
     );
   });

@@ -1,6 +1,16 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { hiddenReasonOf, hidesOthers, isSafeGroup, measureShows, releaseGrid, releaseMeasure, releaseShows, type FamilyCell, type GridCell } from "../../../shared/suppression";
+import {
+  hiddenReasonOf,
+  hidesOthers,
+  isSafeGroup,
+  measureShows,
+  releaseGrid,
+  releaseMeasure,
+  releaseShows,
+  type FamilyCell,
+  type GridCell,
+} from "../../../shared/suppression";
 
 const MIN = 5;
 
@@ -72,7 +82,10 @@ describe("releaseMeasure (the funder report family)", () => {
 
   it("withholds the quarter when one breakdown cannot pool its small cells, in every breakdown of the measure", () => {
     // 4 + 4 = 8 with both "fewer than 5" pins each at 4
-    const release = releaseMeasure({ first: cellsOf({ "2026-Q1": [4, 4], "2026-Q2": [20, 20] }), second: cellsOf({ "2026-Q1": [8, 0], "2026-Q2": [30, 10] }) }, MIN);
+    const release = releaseMeasure(
+      { first: cellsOf({ "2026-Q1": [4, 4], "2026-Q2": [20, 20] }), second: cellsOf({ "2026-Q1": [8, 0], "2026-Q2": [30, 10] }) },
+      MIN,
+    );
     expect(measureShows(release, ["2026-Q1"], "first", null)).toBe(false);
     expect(measureShows(release, ["2026-Q1"], "second", "a")).toBe(false);
     expect(measureShows(release, ["2026-Q2"], "second", "a")).toBe(true);
@@ -116,7 +129,6 @@ describe("the pages' rules", () => {
   it("hide a group holding 1 to 4 of others' attempts, never an empty one", () => {
     expect([0, 1, 4, 5, 12].map((n) => hidesOthers(n, MIN))).toEqual([false, true, true, false, false]);
   });
-
 });
 
 describe("the released grid", () => {
@@ -154,7 +166,11 @@ describe("the released grid", () => {
   });
 
   it("pools across sites when a site cannot protect a small cell on its own, and withholds what nothing can protect", () => {
-    const release = releaseGrid([cell("Q1", "L", "live", { 1: 2 }), cell("Q1", "M", "live", { 2: 2 }), cell("Q1", "N", "live", { 3: 2 }), cell("Q2", "L", "live", { 1: 2 })], levels, rule);
+    const release = releaseGrid(
+      [cell("Q1", "L", "live", { 1: 2 }), cell("Q1", "M", "live", { 2: 2 }), cell("Q1", "N", "live", { 3: 2 }), cell("Q2", "L", "live", { 1: 2 })],
+      levels,
+      rule,
+    );
     // Q1: three colleagues' 2 + 2 + 2 pooled over the quarter: the quarter is shown, no site is
     expect(releaseShows(release, where("Q1"))).toBe(true);
     expect(releaseShows(release, where("Q1", "L"))).toBe(false);

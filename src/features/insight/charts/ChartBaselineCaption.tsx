@@ -13,7 +13,10 @@ export function baselineSentence(series: PassRateSeries): string {
   const { baseline } = series;
   if (baseline.from === null || baseline.to === null) return "No quarter has attempts yet, so there is no baseline.";
   const range = baseline.from === baseline.to ? quarterLabel(baseline.from) : `${quarterLabel(baseline.from)} to ${quarterLabel(baseline.to)}`;
-  const chosen = baseline.source === "setting" ? "the baseline a coordinator chose in Settings" : "the first four quarters with attempts (a coordinator can choose others in Settings)";
+  const chosen =
+    baseline.source === "setting"
+      ? "the baseline a coordinator chose in Settings"
+      : "the first four quarters with attempts (a coordinator can choose others in Settings)";
   const size = baseline.attempts === null ? "" : `, ${formatCount(baseline.attempts)} attempts`;
   const limits =
     series.limits === "laney" && series.sigmaZ !== null
@@ -42,8 +45,8 @@ export function ChartBaselineCaption({ series }: { series: PassRateSeries }) {
       )}
       {(laney || largest >= LANEY_SUGGESTED_ATTEMPTS) && (
         <p>
-          With hundreds of attempts a quarter, plain limits are so narrow that ordinary differences between quarters fall outside them; Laney's
-          p′ chart widens them by how much quarters really varied in the baseline.
+          With hundreds of attempts a quarter, plain limits are so narrow that ordinary differences between quarters fall outside them; Laney's p′ chart widens
+          them by how much quarters really varied in the baseline.
         </p>
       )}
     </div>

@@ -12,7 +12,10 @@ export function ChartSplitChoice({ actions }: { actions: readonly ActionMark[] }
   const [split, setSplit] = useSearchParam("split");
   const current = split ?? "";
   // a split chosen from a link whose action is not on this chart is still offered, so it can be cleared
-  const offered = actions.some((action) => action.startDate === current) || current === "" ? actions : [...actions, { id: -1, title: "a date from the link", startDate: current, quarter: "" }];
+  const offered =
+    actions.some((action) => action.startDate === current) || current === ""
+      ? actions
+      : [...actions, { id: -1, title: "a date from the link", startDate: current, quarter: "" }];
   if (offered.length === 0) return null;
   const choose = (date: string) => setSplit(date === "" ? null : date);
   return (

@@ -48,9 +48,27 @@ export function feedbackColumns(minCount: number): Column<FeedbackGroup>[] {
   return [
     { key: "mode", header: "Display", value: (g) => feedbackNames[g.mode] },
     { key: "attempts", header: "Attempts", value: (g) => g.attempts, render: (g) => (g.suppressed ? hidden : formatCount(g.attempts)), align: "right" },
-    { key: "rate", header: "Pass rate (%)", value: (g) => percentValue(g.passRate.rate), render: (g) => (g.suppressed ? hidden : formatPercent(g.passRate.rate)), align: "right" },
-    { key: "interval", header: "95 % interval", value: (g) => (g.passRate.low === null ? null : formatInterval(g.passRate.low, g.passRate.high)), sortable: false, align: "right" },
-    { key: "median", header: "Median score", value: (g) => (g.medianScore === null ? null : Math.round(g.medianScore * 10) / 10), render: (g) => (g.suppressed ? hidden : formatScore(g.medianScore)), align: "right" },
+    {
+      key: "rate",
+      header: "Pass rate (%)",
+      value: (g) => percentValue(g.passRate.rate),
+      render: (g) => (g.suppressed ? hidden : formatPercent(g.passRate.rate)),
+      align: "right",
+    },
+    {
+      key: "interval",
+      header: "95 % interval",
+      value: (g) => (g.passRate.low === null ? null : formatInterval(g.passRate.low, g.passRate.high)),
+      sortable: false,
+      align: "right",
+    },
+    {
+      key: "median",
+      header: "Median score",
+      value: (g) => (g.medianScore === null ? null : Math.round(g.medianScore * 10) / 10),
+      render: (g) => (g.suppressed ? hidden : formatScore(g.medianScore)),
+      align: "right",
+    },
   ];
 }
 
@@ -58,7 +76,14 @@ export function FeedbackComparisonChart({ groups, minCount }: { groups: readonly
   const plot = useCallback(
     (rows: readonly FeedbackGroup[], size: ChartSize) =>
       intervalBarsPlot(
-        rows.map((g) => ({ label: feedbackNames[g.mode], shortLabel: g.mode === "live" ? "Live" : "Hidden", rate: g.passRate.rate, low: g.passRate.low, high: g.passRate.high, fill: g.mode === "live" ? ink.main : ink.soft })),
+        rows.map((g) => ({
+          label: feedbackNames[g.mode],
+          shortLabel: g.mode === "live" ? "Live" : "Hidden",
+          rate: g.passRate.rate,
+          low: g.passRate.low,
+          high: g.passRate.high,
+          fill: g.mode === "live" ? ink.main : ink.soft,
+        })),
         size,
         120,
       ),

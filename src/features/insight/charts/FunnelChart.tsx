@@ -13,7 +13,17 @@ import { Chart, type ChartSize } from "../../../components/Chart";
 import type { Column } from "../../../components/DataTable";
 import { ChartLegend, lineSwatch, shapeSwatch } from "../ChartLegend";
 import { ink, percentTick } from "../chartStyle";
-import { formatCount, formatFixed, formatInterval, formatPercent, funnelPositionShort, funnelPositionText, percentValue, roundTo, type FunnelPosition } from "../format";
+import {
+  formatCount,
+  formatFixed,
+  formatInterval,
+  formatPercent,
+  funnelPositionShort,
+  funnelPositionText,
+  percentValue,
+  roundTo,
+  type FunnelPosition,
+} from "../format";
 
 export type FunnelCurvePoint = z.infer<typeof funnelCurvePointSchema>;
 
@@ -54,7 +64,8 @@ export function describeFunnel(units: readonly FunnelUnit[], networkRate: number
       ? `Pass rate adjusted for case mix against effective number of attempts for ${subject}, with limits around the network rate of ${formatPercent(networkRate)}.`
       : `Pass rate against number of attempts for ${subject}, with limits around the network rate of ${formatPercent(networkRate)}.`,
   ];
-  if (me) parts.push(`Your pass rate is ${formatPercent(me.rate)} over ${formatCount(me.attempts)} attempts: ${funnelPositionText(me.position).toLowerCase()}.`);
+  if (me)
+    parts.push(`Your pass rate is ${formatPercent(me.rate)} over ${formatCount(me.attempts)} attempts: ${funnelPositionText(me.position).toLowerCase()}.`);
   if (!me || units.length > 1) {
     if (out.length === 0) parts.push("Every point is inside the 95 % limits: differences are within what chance gives.");
     else parts.push(`Outside the limits: ${out.map((u) => `${u.label}, ${funnelPositionShort[u.position!].toLowerCase()}`).join("; ")}.`);
@@ -68,12 +79,50 @@ export function funnelColumns(networkRate: number | null, unitHeader: string, sc
     { key: "label", header: unitHeader, value: (u) => u.label },
     { key: "attempts", header: "Attempts", value: (u) => u.attempts, render: (u) => formatCount(u.attempts), align: "right" },
     ...(adjusted
-      ? [{ key: "n", header: "Effective attempts", value: (u: FunnelUnit) => roundTo(u.n, 1), render: (u: FunnelUnit) => formatFixed(u.n, 1), align: "right" as const }]
+      ? [
+          {
+            key: "n",
+            header: "Effective attempts",
+            value: (u: FunnelUnit) => roundTo(u.n, 1),
+            render: (u: FunnelUnit) => formatFixed(u.n, 1),
+            align: "right" as const,
+          },
+        ]
       : []),
-    { key: "rate", header: adjusted ? "Adjusted pass rate (%)" : "Pass rate (%)", value: (u) => percentValue(u.rate), render: (u) => formatPercent(u.rate), align: "right" },
-    { key: "z", header: "z-score", value: (u) => (u.z === null ? null : roundTo(u.z, 2)), render: (u) => (u.z === null ? "–" : formatFixed(u.z, 2)), align: "right" },
-    { key: "inner", header: "95 % limits here", value: (u) => { const l = limits(u); return l ? formatInterval(l.inner.low, l.inner.high) : null; }, sortable: false, align: "right" },
-    { key: "outer", header: "99.8 % limits here", value: (u) => { const l = limits(u); return l ? formatInterval(l.outer.low, l.outer.high) : null; }, sortable: false, align: "right" },
+    {
+      key: "rate",
+      header: adjusted ? "Adjusted pass rate (%)" : "Pass rate (%)",
+      value: (u) => percentValue(u.rate),
+      render: (u) => formatPercent(u.rate),
+      align: "right",
+    },
+    {
+      key: "z",
+      header: "z-score",
+      value: (u) => (u.z === null ? null : roundTo(u.z, 2)),
+      render: (u) => (u.z === null ? "–" : formatFixed(u.z, 2)),
+      align: "right",
+    },
+    {
+      key: "inner",
+      header: "95 % limits here",
+      value: (u) => {
+        const l = limits(u);
+        return l ? formatInterval(l.inner.low, l.inner.high) : null;
+      },
+      sortable: false,
+      align: "right",
+    },
+    {
+      key: "outer",
+      header: "99.8 % limits here",
+      value: (u) => {
+        const l = limits(u);
+        return l ? formatInterval(l.outer.low, l.outer.high) : null;
+      },
+      sortable: false,
+      align: "right",
+    },
     {
       key: "position",
       header: "Position",
@@ -130,7 +179,14 @@ export function FunnelChart({ title, units, curve, networkRate, scale, adjusted,
         marginRight: 44,
         marginTop: Y_TITLE_MARGIN_TOP,
         marginBottom: 44,
-        x: { domain: [0, Math.ceil(nMax * 1.08)], label: adjusted ? "Effective number of attempts" : "Number of attempts", labelAnchor: "center", labelOffset: 38, grid: true, ticks: width < 420 ? 4 : 8 },
+        x: {
+          domain: [0, Math.ceil(nMax * 1.08)],
+          label: adjusted ? "Effective number of attempts" : "Number of attempts",
+          labelAnchor: "center",
+          labelOffset: 38,
+          grid: true,
+          ticks: width < 420 ? 4 : 8,
+        },
         y: { domain: [0, 1], tickFormat: percentTick, label: adjusted ? "Pass rate adjusted for case mix" : "Measured pass rate", grid: true },
         marks: [
           Plot.line(curve, { x: "n", y: "high998", stroke: ink.limit, strokeWidth: 1.5 }),
@@ -147,12 +203,35 @@ export function FunnelChart({ title, units, curve, networkRate, scale, adjusted,
             fill: (u: FunnelUnit) => (outer(u) ? colourOf(u) : "white"),
             stroke: colourOf,
             strokeWidth: 2,
-            title: (u: FunnelUnit) => `${u.label}: ${formatPercent(u.rate)}${adjusted ? " adjusted" : ""}, ${u.attempts} attempts — ${funnelPositionText(u.position)}`,
+            title: (u: FunnelUnit) =>
+              `${u.label}: ${formatPercent(u.rate)}${adjusted ? " adjusted" : ""}, ${u.attempts} attempts — ${funnelPositionText(u.position)}`,
             ...(unitHref ? { href: unitHref } : {}),
           }),
-          Plot.text(labelled, { x: "n", y: "rate", text: "label", dx: 10, textAnchor: "start", fill: ink.text, fontWeight: 600, stroke: "white", strokeWidth: 3, paintOrder: "stroke" } as Plot.TextOptions),
+          Plot.text(labelled, {
+            x: "n",
+            y: "rate",
+            text: "label",
+            dx: 10,
+            textAnchor: "start",
+            fill: ink.text,
+            fontWeight: 600,
+            stroke: "white",
+            strokeWidth: 3,
+            paintOrder: "stroke",
+          } as Plot.TextOptions),
           Plot.dot(me, { x: "n", y: "rate", symbol: "star", r: 9, fill: ink.accent, stroke: ink.text, strokeWidth: 1.5 }),
-          Plot.text(me, { x: "n", y: "rate", text: () => "You", dx: 12, textAnchor: "start", fill: ink.text, fontWeight: 700, stroke: "white", strokeWidth: 3, paintOrder: "stroke" } as Plot.TextOptions),
+          Plot.text(me, {
+            x: "n",
+            y: "rate",
+            text: () => "You",
+            dx: 12,
+            textAnchor: "start",
+            fill: ink.text,
+            fontWeight: 700,
+            stroke: "white",
+            strokeWidth: 3,
+            paintOrder: "stroke",
+          } as Plot.TextOptions),
         ],
       };
     },

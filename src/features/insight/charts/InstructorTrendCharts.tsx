@@ -34,15 +34,29 @@ export function describeTrend(rows: readonly TrendRow[], who: string): string {
 export const trendColumns: Column<TrendRow>[] = [
   { key: "quarter", header: "Quarter", value: (r) => r.quarter, render: (r) => quarterLabel(r.quarter) },
   { key: "attempts", header: "Attempts", value: (r) => r.passRate.n, render: (r) => formatCount(r.passRate.n), align: "right" },
-  { key: "rate", header: "Pass rate (%)", value: (r) => percentValue(r.passRate.rate), render: (r) => (r.passRate.rate === null ? "no attempts" : formatPercent(r.passRate.rate)), align: "right" },
-  { key: "interval", header: "95 % interval", value: (r) => (r.passRate.low === null ? null : formatInterval(r.passRate.low, r.passRate.high)), sortable: false, align: "right" },
+  {
+    key: "rate",
+    header: "Pass rate (%)",
+    value: (r) => percentValue(r.passRate.rate),
+    render: (r) => (r.passRate.rate === null ? "no attempts" : formatPercent(r.passRate.rate)),
+    align: "right",
+  },
+  {
+    key: "interval",
+    header: "95 % interval",
+    value: (r) => (r.passRate.low === null ? null : formatInterval(r.passRate.low, r.passRate.high)),
+    sortable: false,
+    align: "right",
+  },
   { key: "network", header: "Network pass rate (%)", value: (r) => percentValue(r.network), render: (r) => formatPercent(r.network), align: "right" },
   { key: "median", header: "Median score", value: (r) => roundTo(r.medianScore, 1), render: (r) => formatScore(r.medianScore), align: "right" },
 ];
 
 export function PassRateTrendChart({ rows, who }: { rows: readonly TrendRow[]; who: string }) {
   const plot = useCallback((data: readonly TrendRow[], { width }: ChartSize): Plot.PlotOptions => {
-    const shown = data.filter((r) => r.passRate.rate !== null).map((r) => ({ quarter: r.quarter, rate: r.passRate.rate, low: r.passRate.low, high: r.passRate.high }));
+    const shown = data
+      .filter((r) => r.passRate.rate !== null)
+      .map((r) => ({ quarter: r.quarter, rate: r.passRate.rate, low: r.passRate.low, high: r.passRate.high }));
     const network = data.filter((r) => r.network !== null);
     const top = shareAxisTop([...shown.map((r) => r.high), ...network.map((r) => r.network)]);
     return {
@@ -58,7 +72,14 @@ export function PassRateTrendChart({ rows, who }: { rows: readonly TrendRow[]; w
         Plot.dot(network, { x: "quarter", y: "network", symbol: "square", r: 3, fill: ink.network }),
         Plot.ruleX(shown, { x: "quarter", y1: "low", y2: "high", stroke: ink.soft, strokeWidth: 3 }),
         Plot.line(shown, { x: "quarter", y: "rate", stroke: ink.main, strokeWidth: 2 }),
-        Plot.dot(shown, { x: "quarter", y: "rate", r: 5, fill: ink.main, stroke: "white", title: (r: { quarter: string; rate: number }) => `${quarterLabel(r.quarter)}: ${formatPercent(r.rate)}` }),
+        Plot.dot(shown, {
+          x: "quarter",
+          y: "rate",
+          r: 5,
+          fill: ink.main,
+          stroke: "white",
+          title: (r: { quarter: string; rate: number }) => `${quarterLabel(r.quarter)}: ${formatPercent(r.rate)}`,
+        }),
       ],
     };
   }, []);
@@ -74,8 +95,24 @@ export function PassRateTrendChart({ rows, who }: { rows: readonly TrendRow[]; w
       legend={
         <ChartLegend
           items={[
-            { label: `${who} (bar: 95 % interval)`, swatch: <><path d="M12 0v12" stroke={ink.soft} strokeWidth="3" />{shapeSwatch("circle", ink.main, "white")}</> },
-            { label: "Network", swatch: <>{lineSwatch(ink.network, "6 4", 1.5)}<rect x="10" y="4" width="4" height="4" fill={ink.network} /></> },
+            {
+              label: `${who} (bar: 95 % interval)`,
+              swatch: (
+                <>
+                  <path d="M12 0v12" stroke={ink.soft} strokeWidth="3" />
+                  {shapeSwatch("circle", ink.main, "white")}
+                </>
+              ),
+            },
+            {
+              label: "Network",
+              swatch: (
+                <>
+                  {lineSwatch(ink.network, "6 4", 1.5)}
+                  <rect x="10" y="4" width="4" height="4" fill={ink.network} />
+                </>
+              ),
+            },
           ]}
         />
       }
@@ -86,7 +123,13 @@ export function PassRateTrendChart({ rows, who }: { rows: readonly TrendRow[]; w
 const scoreColumns: Column<TrendRow>[] = [
   trendColumns[0],
   trendColumns[1],
-  { key: "median", header: "Median score", value: (r) => roundTo(r.medianScore, 1), render: (r) => (r.medianScore === null ? "no attempts" : formatScore(r.medianScore)), align: "right" },
+  {
+    key: "median",
+    header: "Median score",
+    value: (r) => roundTo(r.medianScore, 1),
+    render: (r) => (r.medianScore === null ? "no attempts" : formatScore(r.medianScore)),
+    align: "right",
+  },
 ];
 
 export function describeScores(rows: readonly TrendRow[], who: string): string {

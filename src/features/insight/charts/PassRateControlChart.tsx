@@ -43,9 +43,7 @@ export function describeSeries(series: PassRateSeries): string {
     const above = outside.filter((p) => side(p) === "above").map((p) => quarterLabel(p.quarter));
     const below = outside.filter((p) => side(p) === "below").map((p) => quarterLabel(p.quarter));
     const words = [above.length ? `above in ${above.join(", ")}` : "", below.length ? `below in ${below.join(", ")}` : ""].filter(Boolean);
-    parts.push(
-      `${outside.length} of ${shown.length} quarters fall outside the control limits (${words.join("; ")}): more change than chance alone explains.`,
-    );
+    parts.push(`${outside.length} of ${shown.length} quarters fall outside the control limits (${words.join("; ")}): more change than chance alone explains.`);
   }
   const runs = series.runChart;
   if (runs) {
@@ -70,7 +68,10 @@ export function splitSentence(series: PassRateSeries): string {
   if (split.centre === null || split.baseline === null) {
     return `${start}, judged against the limits before the split until it has four quarters with attempts to set its own centre line.`;
   }
-  const range = split.baseline.from === split.baseline.to ? quarterLabel(split.baseline.from) : `${quarterLabel(split.baseline.from)} to ${quarterLabel(split.baseline.to)}`;
+  const range =
+    split.baseline.from === split.baseline.to
+      ? quarterLabel(split.baseline.from)
+      : `${quarterLabel(split.baseline.from)} to ${quarterLabel(split.baseline.to)}`;
   return `${start}, with a centre line of ${formatPercent(split.centre)} from ${range} (${formatCount(split.baseline.attempts)} attempts).`;
 }
 
@@ -84,7 +85,17 @@ export function seriesColumns(minCount: number, series?: PassRateSeries, quarter
   const hidden = suppressedText(minCount);
   // with a split, each quarter's own centre line: the reader of the table cannot see where it steps
   const centreColumn: Column<SeriesPoint>[] =
-    series?.split?.centre == null ? [] : [{ key: "centre", header: "Centre line (%)", value: (p) => percentValue(centreOf(series, p.quarter)), render: (p) => formatPercent(centreOf(series, p.quarter)), align: "right" }];
+    series?.split?.centre == null
+      ? []
+      : [
+          {
+            key: "centre",
+            header: "Centre line (%)",
+            value: (p) => percentValue(centreOf(series, p.quarter)),
+            render: (p) => formatPercent(centreOf(series, p.quarter)),
+            align: "right",
+          },
+        ];
   return [
     ...centreColumn,
     {
@@ -103,7 +114,13 @@ export function seriesColumns(minCount: number, series?: PassRateSeries, quarter
     },
     { key: "attempts", header: "Attempts", value: (p) => p.attempts, render: (p) => (p.suppressed ? hidden : formatCount(p.attempts)), align: "right" },
     { key: "passed", header: "Passed", value: (p) => p.passed, render: (p) => (p.suppressed ? hidden : formatCount(p.passed)), align: "right" },
-    { key: "rate", header: "Pass rate (%)", value: (p) => percentValue(p.rate), render: (p) => (p.suppressed ? hidden : formatPercent(p.rate)), align: "right" },
+    {
+      key: "rate",
+      header: "Pass rate (%)",
+      value: (p) => percentValue(p.rate),
+      render: (p) => (p.suppressed ? hidden : formatPercent(p.rate)),
+      align: "right",
+    },
     { key: "interval", header: "95 % interval", value: (p) => (p.low === null ? null : formatInterval(p.low, p.high)), sortable: false, align: "right" },
     { key: "lcl", header: "Lower control limit (%)", value: (p) => percentValue(p.lcl), render: (p) => formatPercent(p.lcl), align: "right" },
     { key: "ucl", header: "Upper control limit (%)", value: (p) => percentValue(p.ucl), render: (p) => formatPercent(p.ucl), align: "right" },
@@ -151,7 +168,13 @@ export function PassRateControlChart({
         marginRight: width < 500 ? 12 : 72,
         marginTop: Y_TITLE_MARGIN_TOP,
         marginBottom: width < 500 ? 40 : 30,
-        x: { type: "point", domain: points.map((p) => p.quarter), tickFormat: (q: string) => (width < 500 ? `${q.slice(5)}\n${q.slice(0, 4)}` : quarterLabel(q)), label: null, padding: 0.4 },
+        x: {
+          type: "point",
+          domain: points.map((p) => p.quarter),
+          tickFormat: (q: string) => (width < 500 ? `${q.slice(5)}\n${q.slice(0, 4)}` : quarterLabel(q)),
+          label: null,
+          padding: 0.4,
+        },
         y: { domain: [0, top], tickFormat: percentTick, label: "Measured pass rate", grid: true },
         marks: [
           // one centre line, or with a split a step from the centre before it to the new phase's at the boundary
@@ -177,7 +200,15 @@ export function PassRateControlChart({
           Plot.line(shown, { x: "quarter", y: "rate", stroke: ink.main, strokeWidth: 1.5 }),
           Plot.dot(
             shown.filter((p) => !p.outside),
-            { x: "quarter", y: "rate", r: 4.5, fill: ink.main, stroke: "white", title: (p: SeriesPoint) => `${quarterLabel(p.quarter)}: ${formatPercent(p.rate)}`, ...link },
+            {
+              x: "quarter",
+              y: "rate",
+              r: 4.5,
+              fill: ink.main,
+              stroke: "white",
+              title: (p: SeriesPoint) => `${quarterLabel(p.quarter)}: ${formatPercent(p.rate)}`,
+              ...link,
+            },
           ),
           Plot.dot(outside, {
             x: "quarter",
@@ -191,9 +222,22 @@ export function PassRateControlChart({
             ...link,
           }),
           // on narrow screens the diamonds alone mark these quarters (the words would overlap)
-          width < 500 ? null : Plot.text(outside.filter((p) => side(p) === "above"), { x: "quarter", y: "rate", text: () => "above", dy: -20, ...haloText }),
-          width < 500 ? null : Plot.text(outside.filter((p) => side(p) === "below"), { x: "quarter", y: "rate", text: () => "below", dy: 21, ...haloText }),
-          ...actionMarkLayers(actions, points.map((p) => p.quarter)),
+          width < 500
+            ? null
+            : Plot.text(
+                outside.filter((p) => side(p) === "above"),
+                { x: "quarter", y: "rate", text: () => "above", dy: -20, ...haloText },
+              ),
+          width < 500
+            ? null
+            : Plot.text(
+                outside.filter((p) => side(p) === "below"),
+                { x: "quarter", y: "rate", text: () => "below", dy: 21, ...haloText },
+              ),
+          ...actionMarkLayers(
+            actions,
+            points.map((p) => p.quarter),
+          ),
         ],
       };
     },
@@ -202,12 +246,23 @@ export function PassRateControlChart({
 
   if (nothingShown) {
     const hidden = series.points.some((p) => p.suppressed);
-    return <NothingToChart title={title} text={hidden ? `No quarter in this range can be shown: each has ${suppressedText(minCount)}, or none.` : "No quarter in this range has attempts."} />;
+    return (
+      <NothingToChart
+        title={title}
+        text={hidden ? `No quarter in this range can be shown: each has ${suppressedText(minCount)}, or none.` : "No quarter in this range has attempts."}
+      />
+    );
   }
   return (
     <Chart
       title={title}
-      description={describeSeries(series) + describeActionMarks(actions, series.points.map((p) => p.quarter))}
+      description={
+        describeSeries(series) +
+        describeActionMarks(
+          actions,
+          series.points.map((p) => p.quarter),
+        )
+      }
       data={series.points}
       columns={seriesColumns(minCount, series, quarterHref)}
       rowKey={(p) => p.quarter}
@@ -216,11 +271,24 @@ export function PassRateControlChart({
       legend={
         <ChartLegend
           items={[
-            { label: "Pass rate (bar: 95 % interval)", swatch: <><path d="M12 0v12" stroke={ink.soft} strokeWidth="3" />{shapeSwatch("circle", ink.main, "white")}</> },
+            {
+              label: "Pass rate (bar: 95 % interval)",
+              swatch: (
+                <>
+                  <path d="M12 0v12" stroke={ink.soft} strokeWidth="3" />
+                  {shapeSwatch("circle", ink.main, "white")}
+                </>
+              ),
+            },
             { label: phased ? "Centre line (stepping at the split)" : "Centre line", swatch: lineSwatch(ink.main) },
             { label: "Control limits", swatch: lineSwatch(ink.limit, "5 4") },
             { label: "Outside the limits", swatch: shapeSwatch("diamond", ink.accent, ink.text) },
-            ...(describeActionMarks(actions, series.points.map((p) => p.quarter)) ? [{ label: "Improvement action starts", swatch: lineSwatch(ink.accentDark, "3 3") }] : []),
+            ...(describeActionMarks(
+              actions,
+              series.points.map((p) => p.quarter),
+            )
+              ? [{ label: "Improvement action starts", swatch: lineSwatch(ink.accentDark, "3 3") }]
+              : []),
           ]}
         />
       }

@@ -19,7 +19,8 @@ export function describeSpread(points: readonly SpreadPoint[], minAttempts: numb
   const me = points.find((p) => p.isMe);
   const others = points.filter((p) => !p.isMe);
   if (!me) return "You have no attempts in this period to place among the instructors.";
-  if (others.length === 0) return `Your median score is ${formatScore(me.medianScore)} and your pass rate ${formatPercent(me.passRate)}. No other instructor has ${minAttempts} or more attempts to compare with.`;
+  if (others.length === 0)
+    return `Your median score is ${formatScore(me.medianScore)} and your pass rate ${formatPercent(me.passRate)}. No other instructor has ${minAttempts} or more attempts to compare with.`;
   const lowerScore = others.filter((p) => p.medianScore < me.medianScore).length;
   const lowerRate = others.filter((p) => p.passRate < me.passRate).length;
   const of = (count: number) => (count === others.length ? `all ${others.length} others` : `${count} of the ${others.length} others`);
@@ -27,7 +28,12 @@ export function describeSpread(points: readonly SpreadPoint[], minAttempts: numb
 }
 
 const columns: Column<Row>[] = [
-  { key: "who", header: "Instructor", value: (p) => (p.isMe ? "You" : "Another instructor"), render: (p) => (p.isMe ? <strong>You</strong> : "Another instructor") },
+  {
+    key: "who",
+    header: "Instructor",
+    value: (p) => (p.isMe ? "You" : "Another instructor"),
+    render: (p) => (p.isMe ? <strong>You</strong> : "Another instructor"),
+  },
   { key: "score", header: "Median score", value: (p) => roundTo(p.medianScore, 1), render: (p) => formatScore(p.medianScore), align: "right" },
   { key: "rate", header: "Pass rate (%)", value: (p) => percentValue(p.passRate), render: (p) => formatPercent(p.passRate), align: "right" },
 ];
@@ -49,7 +55,15 @@ export function SpreadChart({ points, minAttempts, instructorsLeftOut }: { point
       marks: [
         Plot.dot(
           data.filter((p) => !p.isMe),
-          { x: "medianScore", y: "passRate", r: 5, fill: "white", stroke: ink.main, strokeWidth: 1.5, title: (p: Row) => `Another instructor: median ${formatScore(p.medianScore)}, pass rate ${formatPercent(p.passRate)}` },
+          {
+            x: "medianScore",
+            y: "passRate",
+            r: 5,
+            fill: "white",
+            stroke: ink.main,
+            strokeWidth: 1.5,
+            title: (p: Row) => `Another instructor: median ${formatScore(p.medianScore)}, pass rate ${formatPercent(p.passRate)}`,
+          },
         ),
         Plot.dot(
           data.filter((p) => p.isMe),
@@ -57,7 +71,18 @@ export function SpreadChart({ points, minAttempts, instructorsLeftOut }: { point
         ),
         Plot.text(
           data.filter((p) => p.isMe),
-          { x: "medianScore", y: "passRate", text: () => "You", dx: 14, textAnchor: "start", fontWeight: 700, fill: ink.text, stroke: "white", strokeWidth: 3, paintOrder: "stroke" } as Plot.TextOptions,
+          {
+            x: "medianScore",
+            y: "passRate",
+            text: () => "You",
+            dx: 14,
+            textAnchor: "start",
+            fontWeight: 700,
+            fill: ink.text,
+            stroke: "white",
+            strokeWidth: 3,
+            paintOrder: "stroke",
+          } as Plot.TextOptions,
         ),
       ],
     };

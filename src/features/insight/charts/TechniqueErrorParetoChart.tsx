@@ -45,8 +45,20 @@ export const paretoColumns: Column<ParetoRow>[] = [
   { key: "label", header: "Error", value: (r) => r.label, wrap: true },
   { key: "count", header: "Times counted", value: (r) => r.count, align: "right" },
   { key: "share", header: "Share of errors (%)", value: (r) => percentValue(r.share), render: (r) => formatPercent(r.share), align: "right" },
-  { key: "cumulative", header: "Running total (%)", value: (r) => percentValue(r.cumulativeShare), render: (r) => formatPercent(r.cumulativeShare), align: "right" },
-  { key: "attempts", header: "Share of attempts (%)", value: (r) => percentValue(r.attemptShare), render: (r) => formatPercent(r.attemptShare), align: "right" },
+  {
+    key: "cumulative",
+    header: "Running total (%)",
+    value: (r) => percentValue(r.cumulativeShare),
+    render: (r) => formatPercent(r.cumulativeShare),
+    align: "right",
+  },
+  {
+    key: "attempts",
+    header: "Share of attempts (%)",
+    value: (r) => percentValue(r.attemptShare),
+    render: (r) => formatPercent(r.attemptShare),
+    align: "right",
+  },
 ];
 
 const paretoPlot = (rows: readonly ParetoRow[], { width }: ChartSize, examineHref?: (row: ParetoRow) => string): Plot.PlotOptions => {
@@ -57,13 +69,33 @@ const paretoPlot = (rows: readonly ParetoRow[], { width }: ChartSize, examineHre
     // room for half of the centred "100 %" tick label at the right end of the axis
     marginRight: 24,
     marginBottom: 44,
-    x: { domain: [0, 1], tickFormat: percentTick, label: "Share of all errors counted", labelAnchor: "center", labelOffset: 38, grid: true, ticks: width < 700 ? 5 : 10 },
+    x: {
+      domain: [0, 1],
+      tickFormat: percentTick,
+      label: "Share of all errors counted",
+      labelAnchor: "center",
+      labelOffset: 38,
+      grid: true,
+      ticks: width < 700 ? 5 : 10,
+    },
     y: { domain: labelled.map((row) => row.name), label: null, padding: 0.25 },
     marks: [
-      Plot.barX(labelled, { x: "share", y: "name", fill: ink.main, title: (r: ParetoRow) => `${r.label}: ${r.count} (${formatPercent(r.share)})`, ...(examineHref ? { href: examineHref } : {}) }),
+      Plot.barX(labelled, {
+        x: "share",
+        y: "name",
+        fill: ink.main,
+        title: (r: ParetoRow) => `${r.label}: ${r.count} (${formatPercent(r.share)})`,
+        ...(examineHref ? { href: examineHref } : {}),
+      }),
       // counts sit inside long bars (where the running-total line starts) and after short ones
-      Plot.text(labelled.filter((r) => r.share >= 0.12), { x: "share", y: "name", text: (r: ParetoRow) => formatCount(r.count), dx: -6, textAnchor: "end", fill: "white", fontWeight: 600 }),
-      Plot.text(labelled.filter((r) => r.share < 0.12), { x: "share", y: "name", text: (r: ParetoRow) => formatCount(r.count), dx: 6, textAnchor: "start", fill: ink.text }),
+      Plot.text(
+        labelled.filter((r) => r.share >= 0.12),
+        { x: "share", y: "name", text: (r: ParetoRow) => formatCount(r.count), dx: -6, textAnchor: "end", fill: "white", fontWeight: 600 },
+      ),
+      Plot.text(
+        labelled.filter((r) => r.share < 0.12),
+        { x: "share", y: "name", text: (r: ParetoRow) => formatCount(r.count), dx: 6, textAnchor: "start", fill: ink.text },
+      ),
       Plot.line(labelled, { x: "cumulativeShare", y: "name", stroke: ink.accentDark, strokeWidth: 2 }),
       Plot.dot(labelled, { x: "cumulativeShare", y: "name", symbol: "square", r: 3.5, fill: ink.accentDark }),
       Plot.ruleX([0]),
@@ -72,7 +104,17 @@ const paretoPlot = (rows: readonly ParetoRow[], { width }: ChartSize, examineHre
 };
 
 /** `examineHref`, for those who may drill down: each bar and table row opens the error's trend and breakdown. */
-export function TechniqueErrorParetoChart({ rows, attempts, title = "Which errors matter most", examineHref }: { rows: readonly ParetoRow[]; attempts: number | null; title?: string; examineHref?: (row: ParetoRow) => string }) {
+export function TechniqueErrorParetoChart({
+  rows,
+  attempts,
+  title = "Which errors matter most",
+  examineHref,
+}: {
+  rows: readonly ParetoRow[];
+  attempts: number | null;
+  title?: string;
+  examineHref?: (row: ParetoRow) => string;
+}) {
   const plot = useCallback((data: readonly ParetoRow[], size: ChartSize) => paretoPlot(data, size, examineHref), [examineHref]);
   const columns = useMemo<Column<ParetoRow>[]>(
     () =>
@@ -86,7 +128,11 @@ export function TechniqueErrorParetoChart({ rows, attempts, title = "Which error
               sortable: false,
               exportable: false,
               render: (r) => (
-                <Link to={examineHref(r)} aria-label={`Trend and breakdown of “${r.label}”`} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+                <Link
+                  to={examineHref(r)}
+                  aria-label={`Trend and breakdown of “${r.label}”`}
+                  className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900"
+                >
                   Trend and breakdown
                 </Link>
               ),
@@ -108,7 +154,15 @@ export function TechniqueErrorParetoChart({ rows, attempts, title = "Which error
         <ChartLegend
           items={[
             { label: "Share of errors (number: times counted)", swatch: shapeSwatch("bar", ink.main) },
-            { label: "Running total", swatch: <>{lineSwatch(ink.accentDark)}<rect x="9" y="3" width="6" height="6" fill={ink.accentDark} /></> },
+            {
+              label: "Running total",
+              swatch: (
+                <>
+                  {lineSwatch(ink.accentDark)}
+                  <rect x="9" y="3" width="6" height="6" fill={ink.accentDark} />
+                </>
+              ),
+            },
           ]}
         />
       }

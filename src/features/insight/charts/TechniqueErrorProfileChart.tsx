@@ -28,7 +28,11 @@ export function describeTechniqueErrorProfile(rows: readonly TechniqueErrorProfi
 }
 
 /** `attemptsHref`, when given, makes each error a link to my attempts with it. */
-export function techniqueErrorProfileColumns(networkSuppressed: boolean, minCount: number, attemptsHref?: (error: AttemptError) => string): Column<TechniqueErrorProfileRow>[] {
+export function techniqueErrorProfileColumns(
+  networkSuppressed: boolean,
+  minCount: number,
+  attemptsHref?: (error: AttemptError) => string,
+): Column<TechniqueErrorProfileRow>[] {
   return [
     {
       key: "label",
@@ -73,11 +77,31 @@ const plot = (rows: readonly TechniqueErrorProfileRow[], { width }: ChartSize): 
     marginLeft: 128,
     marginRight: 48,
     marginBottom: 44,
-    x: { domain: [0, shareAxisTop(shown.map((d) => d.share), 0.2)], tickFormat: percentTick, label: "Share of attempts with this error", labelAnchor: "center", labelOffset: 38, grid: true, ticks: width < 420 ? 4 : 8 },
+    x: {
+      domain: [
+        0,
+        shareAxisTop(
+          shown.map((d) => d.share),
+          0.2,
+        ),
+      ],
+      tickFormat: percentTick,
+      label: "Share of attempts with this error",
+      labelAnchor: "center",
+      labelOffset: 38,
+      grid: true,
+      ticks: width < 420 ? 4 : 8,
+    },
     fy: { domain: rows.map((r) => errorShortNames[r.error]), label: null },
     y: { domain: ["You", "Network"], axis: null, paddingInner: 0.1 },
     marks: [
-      Plot.barX(shown, { x: "share", y: "who", fy: "name", fill: (d: { who: string }) => (d.who === "You" ? ink.accent : ink.main), stroke: (d: { who: string }) => (d.who === "You" ? ink.text : "none") }),
+      Plot.barX(shown, {
+        x: "share",
+        y: "who",
+        fy: "name",
+        fill: (d: { who: string }) => (d.who === "You" ? ink.accent : ink.main),
+        stroke: (d: { who: string }) => (d.who === "You" ? ink.text : "none"),
+      }),
       Plot.text(shown, {
         x: "share",
         y: "who",

@@ -39,7 +39,10 @@ export default function ClassDetailPage() {
             <EmptyState
               title={`Class “${id}” cannot be shown`}
               action={
-                <Link to={ownClassesOnly ? "/my-standing" : "/instructors"} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+                <Link
+                  to={ownClassesOnly ? "/my-standing" : "/instructors"}
+                  className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900"
+                >
                   {ownClassesOnly ? "Go to your classes" : "Go to the instructors"}
                 </Link>
               }
@@ -139,7 +142,10 @@ export function ClassContent({ answer, backTo }: { answer: ClassDetailAnswer; ba
   const recordedShare = c.learners === 0 ? null : c.passed / c.learners;
   return (
     <div className="flex flex-col gap-6">
-      <Link to={back.to} className="inline-flex min-h-9 items-center gap-1 self-start font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+      <Link
+        to={back.to}
+        className="inline-flex min-h-9 items-center gap-1 self-start font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900"
+      >
         <span aria-hidden="true">←</span> {back.label}
       </Link>
       <PageHeader
@@ -151,7 +157,9 @@ export function ClassContent({ answer, backTo }: { answer: ClassDetailAnswer; ba
           Class log
         </h2>
         <dl className="grid grid-cols-2 gap-x-6 gap-y-3 sm:grid-cols-3 lg:grid-cols-5">
-          <Fact label="Date">{formatDay(c.date)} ({quarterLabel(c.quarter)})</Fact>
+          <Fact label="Date">
+            {formatDay(c.date)} ({quarterLabel(c.quarter)})
+          </Fact>
           <Fact label="Site">{c.site.code}</Fact>
           <Fact label="Course">{courseTypeNames[c.course] ?? c.course}</Fact>
           <Fact label="Learners">{formatCount(c.learners)}</Fact>
@@ -177,8 +185,8 @@ export function ClassContent({ answer, backTo }: { answer: ClassDetailAnswer; ba
           <Fact label="Batteries replaced">{c.batteriesReplaced ?? notRecorded}</Fact>
         </dl>
         <p className="mt-3 text-small text-muted">
-          Recorded completions count learners the instructor signed off; the measured pass rate counts manikin attempts that met every target
-          (a learner may make several attempts).
+          Recorded completions count learners the instructor signed off; the measured pass rate counts manikin attempts that met every target (a learner may
+          make several attempts).
         </p>
       </section>
       <section aria-labelledby="attempts-heading" className="flex flex-col gap-3">
@@ -188,7 +196,10 @@ export function ClassContent({ answer, backTo }: { answer: ClassDetailAnswer; ba
         {measured.isError && <p className="text-small text-muted">Depth and rate could not be loaded; the other columns are complete.</p>}
         {answer.attempts.length > 0 && (
           <p className="text-small">
-            <Link to={`/attempts?${new URLSearchParams({ quarter: c.quarter, class: c.id }).toString()}`} className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+            <Link
+              to={`/attempts?${new URLSearchParams({ quarter: c.quarter, class: c.id }).toString()}`}
+              className="font-semibold text-dusk-700 underline underline-offset-2 hover:text-dusk-900"
+            >
               Open this class’s attempts in the attempts list
             </Link>{" "}
             <span className="text-muted">to choose columns, sort them or export every figure.</span>

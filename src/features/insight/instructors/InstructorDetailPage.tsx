@@ -100,7 +100,15 @@ export function trendRows(answer: InstructorDetailAnswer, network: OverviewAnswe
   return answer.trend.map((t) => ({ quarter: t.quarter, passRate: t.passRate, medianScore: t.medianScore, network: byQuarter.get(t.quarter) ?? null }));
 }
 
-export function InstructorContent({ answer, network, funnel }: { answer: InstructorDetailAnswer; network: OverviewAnswer | null; funnel: InstructorsAnswer | null }) {
+export function InstructorContent({
+  answer,
+  network,
+  funnel,
+}: {
+  answer: InstructorDetailAnswer;
+  network: OverviewAnswer | null;
+  funnel: InstructorsAnswer | null;
+}) {
   const { instructor } = answer;
   const rows = trendRows(answer, network);
   const quarter = quarterLabel(answer.period.from);

@@ -59,12 +59,46 @@ function instructorColumns(search: string): Column<InstructorRow>[] {
     { key: "site", header: "Site", value: (r) => r.site?.code ?? "" },
     { key: "classes", header: "Classes", value: (r) => r.classes, align: "right" },
     { key: "attempts", header: "Attempts", value: (r) => r.attempts, render: (r) => formatCount(r.attempts), align: "right" },
-    { key: "rate", header: "Pass rate (%)", headerWrap: true, value: (r) => percentValue(r.passRate.rate), render: (r) => formatPercent(r.passRate.rate), align: "right" },
-    { key: "interval", header: "95 % interval", headerWrap: true, value: (r) => (r.passRate.low === null ? null : formatInterval(r.passRate.low, r.passRate.high)), sortable: false, align: "right" },
-    { key: "median", header: "Median score", headerWrap: true, value: (r) => roundTo(r.medianScore, 1), render: (r) => formatScore(r.medianScore), align: "right" },
-    { key: "expected", header: "Passes expected", headerWrap: true, value: (r) => roundTo(r.expected, 1), render: (r) => (r.expected === null ? "–" : formatFixed(r.expected, 1)), align: "right" },
+    {
+      key: "rate",
+      header: "Pass rate (%)",
+      headerWrap: true,
+      value: (r) => percentValue(r.passRate.rate),
+      render: (r) => formatPercent(r.passRate.rate),
+      align: "right",
+    },
+    {
+      key: "interval",
+      header: "95 % interval",
+      headerWrap: true,
+      value: (r) => (r.passRate.low === null ? null : formatInterval(r.passRate.low, r.passRate.high)),
+      sortable: false,
+      align: "right",
+    },
+    {
+      key: "median",
+      header: "Median score",
+      headerWrap: true,
+      value: (r) => roundTo(r.medianScore, 1),
+      render: (r) => formatScore(r.medianScore),
+      align: "right",
+    },
+    {
+      key: "expected",
+      header: "Passes expected",
+      headerWrap: true,
+      value: (r) => roundTo(r.expected, 1),
+      render: (r) => (r.expected === null ? "–" : formatFixed(r.expected, 1)),
+      align: "right",
+    },
     { key: "z", header: "z-score", value: (r) => roundTo(r.z, 2), render: (r) => (r.z === null ? "–" : formatFixed(r.z, 2)), align: "right" },
-    { key: "position", header: "Funnel position", value: (r) => funnelPositionText(r.position), render: (r) => <PositionText position={r.position} short />, wrap: true },
+    {
+      key: "position",
+      header: "Funnel position",
+      value: (r) => funnelPositionText(r.position),
+      render: (r) => <PositionText position={r.position} short />,
+      wrap: true,
+    },
   ];
 }
 
@@ -75,7 +109,16 @@ export function InstructorsContent({ answer }: { answer: InstructorsAnswer }) {
   // a point needs a place along the funnel: instructors whose strata never vary (z null) have none
   const units: FunnelUnit[] = answer.instructors
     .filter((r) => r.adjustedRate !== null && r.effectiveAttempts !== null && r.passRate.successes !== null)
-    .map((r) => ({ key: r.id, label: r.code, n: r.effectiveAttempts!, attempts: r.attempts, successes: r.passRate.successes!, rate: r.adjustedRate!, z: r.z, position: r.position }));
+    .map((r) => ({
+      key: r.id,
+      label: r.code,
+      n: r.effectiveAttempts!,
+      attempts: r.attempts,
+      successes: r.passRate.successes!,
+      rate: r.adjustedRate!,
+      z: r.z,
+      position: r.position,
+    }));
   const outside = answer.instructors.filter((r) => r.position && r.position !== "inside");
   // each point opens that instructor's page with the same filters, like the table's link
   const unitHref = useCallback((unit: FunnelUnit) => `/instructors/${unit.key}${search}`, [search]);
@@ -107,13 +150,13 @@ export function InstructorsContent({ answer }: { answer: InstructorsAnswer }) {
           </>
         )}
         <p className="mt-1 text-small text-muted">
-          The funnel narrows as attempts add up: a small group far from the network rate can be chance, a large one rarely is. Outside the 95 %
-          limits is worth a look; outside 99.8 % is very unlikely to be chance. {dispersionSentence(answer.funnel)}
+          The funnel narrows as attempts add up: a small group far from the network rate can be chance, a large one rarely is. Outside the 95 % limits is worth
+          a look; outside 99.8 % is very unlikely to be chance. {dispersionSentence(answer.funnel)}
         </p>
         {adjusted && (
           <p className="mt-1 text-small text-muted">
-            Adjusted for case mix, each point sits at the network rate plus the instructor's passes beyond those expected, per attempt, and at the
-            number of attempts whose limits match its z-score. The table lists the measured rates.
+            Adjusted for case mix, each point sits at the network rate plus the instructor's passes beyond those expected, per attempt, and at the number of
+            attempts whose limits match its z-score. The table lists the measured rates.
           </p>
         )}
       </div>

@@ -47,11 +47,28 @@ function OverviewBody({ state }: { state: InsightFilterState }) {
   // those who may drill down open an error's trend and breakdown from its bar or row
   const drillDown = useCan("drillDown");
   const valuesKey = JSON.stringify(state.values);
-  const examineHref = useCallback((row: { error: string }) => `/errors?${linkParams(JSON.parse(valuesKey) as InsightFilterState["values"], { error: row.error })}`, [valuesKey]);
-  const quarterHref = useCallback((quarter: string) => `/attempts?${linkParams(JSON.parse(valuesKey) as InsightFilterState["values"], { quarter })}`, [valuesKey]);
+  const examineHref = useCallback(
+    (row: { error: string }) => `/errors?${linkParams(JSON.parse(valuesKey) as InsightFilterState["values"], { error: row.error })}`,
+    [valuesKey],
+  );
+  const quarterHref = useCallback(
+    (quarter: string) => `/attempts?${linkParams(JSON.parse(valuesKey) as InsightFilterState["values"], { quarter })}`,
+    [valuesKey],
+  );
   return (
     <QueryStatus query={query} loadingLabel={`Loading ${quarterLabel(state.quarter)}…`} errorTitle="The overview could not be loaded">
-      {(answer) => (answer.attempts === 0 ? <NoDataForFilters state={state} /> : <OverviewContent answer={answer} actions={actions} examineHref={drillDown ? examineHref : undefined} quarterHref={drillDown ? quarterHref : undefined} />)}
+      {(answer) =>
+        answer.attempts === 0 ? (
+          <NoDataForFilters state={state} />
+        ) : (
+          <OverviewContent
+            answer={answer}
+            actions={actions}
+            examineHref={drillDown ? examineHref : undefined}
+            quarterHref={drillDown ? quarterHref : undefined}
+          />
+        )
+      }
     </QueryStatus>
   );
 }
@@ -82,8 +99,8 @@ export function OverviewContent({
         </h2>
         <OverviewStats answer={answer} />
         <p className="text-small text-muted">
-          A pass means the attempt met every target of the network's pass rule. The 95 % interval is the range the true rate very likely lies
-          in, given how many were counted: the fewer counted, the wider it is.
+          A pass means the attempt met every target of the network's pass rule. The 95 % interval is the range the true rate very likely lies in, given how many
+          were counted: the fewer counted, the wider it is.
         </p>
         <SafetyNote compact />
       </section>
@@ -95,8 +112,8 @@ export function OverviewContent({
           Quarter by quarter
         </h2>
         <p className="max-w-3xl text-small text-muted">
-          The control limits show how far a quarter's pass rate can move by chance alone, given its number of attempts. A quarter outside them
-          is a real change worth looking into, for better or worse.
+          The control limits show how far a quarter's pass rate can move by chance alone, given its number of attempts. A quarter outside them is a real change
+          worth looking into, for better or worse.
         </p>
         <PassRateControlChart series={answer.series} minCount={min} actions={actions} quarterHref={quarterHref} />
         <ChartBaselineCaption series={answer.series} />
@@ -118,8 +135,8 @@ export function OverviewContent({
           <div className="flex flex-col gap-2">
             <FeedbackComparisonChart groups={answer.feedback} minCount={min} />
             <p className="text-small text-muted">
-              Live display shows learners their depth and rate as they compress; hidden display tests them without that help. A large gap means
-              learners lean on the display.
+              Live display shows learners their depth and rate as they compress; hidden display tests them without that help. A large gap means learners lean on
+              the display.
             </p>
           </div>
         </div>

@@ -79,7 +79,11 @@ export function OverviewStats({ answer }: { answer: OverviewAnswer }) {
         <StatCard label="Learners trained" value={answer.learners === null ? hidden : formatCount(answer.learners)} footnote="From the class logs" />
         <StatCard label="Classes" value={answer.classes === null ? hidden : formatCount(answer.classes)} />
         <StatCard label="Attempts measured" value={answer.attempts === null ? hidden : formatCount(answer.attempts)} />
-        <StatCard label="Median score" value={answer.medianScore === null ? (answer.suppressed ? hidden : "–") : formatScore(answer.medianScore)} footnote="Out of 100" />
+        <StatCard
+          label="Median score"
+          value={answer.medianScore === null ? (answer.suppressed ? hidden : "–") : formatScore(answer.medianScore)}
+          footnote="Out of 100"
+        />
       </div>
     </div>
   );

@@ -35,7 +35,8 @@ export const whyGapMatters =
 export function gapSentence(recorded: Rate, everPassed: Rate): string | null {
   if (recorded.rate === null || everPassed.rate === null) return null;
   const gap = recorded.rate - everPassed.rate;
-  if (Math.abs(gap) < 0.005) return `Instructors recorded ${formatPercent(recorded.rate)} of learners as completed, the same as the ${formatPercent(everPassed.rate)} of measured learners who passed on the manikin at least once.`;
+  if (Math.abs(gap) < 0.005)
+    return `Instructors recorded ${formatPercent(recorded.rate)} of learners as completed, the same as the ${formatPercent(everPassed.rate)} of measured learners who passed on the manikin at least once.`;
   return gap > 0
     ? `Instructors recorded ${formatPercent(recorded.rate)} of learners as completed, but only ${formatPercent(everPassed.rate)} of measured learners passed on the manikin at least once: a gap of ${formatPoints(gap).replace("+", "")}.`
     : `Instructors recorded ${formatPercent(recorded.rate)} of learners as completed, fewer than the ${formatPercent(everPassed.rate)} of measured learners who passed on the manikin at least once (${formatPoints(-gap).replace("+", "")} lower).`;
@@ -46,10 +47,28 @@ function measureColumns(minCount: number): Column<MeasureRow>[] {
   return [
     { key: "label", header: "Measure", value: (r) => r.label },
     { key: "counted", header: "Counted over", value: (r) => r.counted },
-    { key: "successes", header: "Passed or completed", value: (r) => r.rate.successes, render: (r) => (r.rate.suppressed ? hidden : formatCount(r.rate.successes)), align: "right" },
+    {
+      key: "successes",
+      header: "Passed or completed",
+      value: (r) => r.rate.successes,
+      render: (r) => (r.rate.suppressed ? hidden : formatCount(r.rate.successes)),
+      align: "right",
+    },
     { key: "n", header: "Out of", value: (r) => r.rate.n, render: (r) => (r.rate.suppressed ? hidden : formatCount(r.rate.n)), align: "right" },
-    { key: "rate", header: "Rate (%)", value: (r) => percentValue(r.rate.rate), render: (r) => (r.rate.suppressed ? hidden : formatPercent(r.rate.rate)), align: "right" },
-    { key: "interval", header: "95 % interval", value: (r) => (r.rate.low === null ? null : formatInterval(r.rate.low, r.rate.high)), sortable: false, align: "right" },
+    {
+      key: "rate",
+      header: "Rate (%)",
+      value: (r) => percentValue(r.rate.rate),
+      render: (r) => (r.rate.suppressed ? hidden : formatPercent(r.rate.rate)),
+      align: "right",
+    },
+    {
+      key: "interval",
+      header: "95 % interval",
+      value: (r) => (r.rate.low === null ? null : formatInterval(r.rate.low, r.rate.high)),
+      sortable: false,
+      align: "right",
+    },
   ];
 }
 
@@ -61,7 +80,14 @@ interface AgreementRow {
 
 const agreementColumns: Column<AgreementRow>[] = [
   // wrapping headers and row names keep this small table near a phone's width
-  { key: "instructor", header: "Instructor's result", headerWrap: true, wrap: true, value: (r) => (r.instructor === "pass" ? "Recorded as passed" : "Recorded as not passed"), primary: true },
+  {
+    key: "instructor",
+    header: "Instructor's result",
+    headerWrap: true,
+    wrap: true,
+    value: (r) => (r.instructor === "pass" ? "Recorded as passed" : "Recorded as not passed"),
+    primary: true,
+  },
   { key: "pass", header: "Measured: passed", headerWrap: true, value: (r) => r.measuredPass, align: "right" },
   { key: "fail", header: "Measured: not passed", headerWrap: true, value: (r) => r.measuredFail, align: "right" },
   { key: "total", header: "Total", value: (r) => r.measuredPass + r.measuredFail, align: "right" },
@@ -78,7 +104,14 @@ export function RecordedVsMeasured({ answer }: { answer: OverviewAnswer }) {
   const plot = useCallback(
     (data: readonly MeasureRow[], size: ChartSize) =>
       intervalBarsPlot(
-        data.map((r) => ({ label: r.label, shortLabel: shortLabels[r.key], rate: r.rate.rate, low: r.rate.low, high: r.rate.high, fill: r.key === "recorded" ? ink.soft : ink.main })),
+        data.map((r) => ({
+          label: r.label,
+          shortLabel: shortLabels[r.key],
+          rate: r.rate.rate,
+          low: r.rate.low,
+          high: r.rate.high,
+          fill: r.key === "recorded" ? ink.soft : ink.main,
+        })),
         size,
         220,
       ),
@@ -100,7 +133,13 @@ export function RecordedVsMeasured({ answer }: { answer: OverviewAnswer }) {
         Recorded completions against measured passes
       </h2>
       <div className="rounded-card border-l-4 border-marigold-500 bg-surface p-4 shadow-card">
-        {sentence ? <p className="text-lead font-semibold">{sentence}</p> : <p className="text-lead font-semibold">The gap cannot be shown: <Suppressed minCount={min} />.</p>}
+        {sentence ? (
+          <p className="text-lead font-semibold">{sentence}</p>
+        ) : (
+          <p className="text-lead font-semibold">
+            The gap cannot be shown: <Suppressed minCount={min} />.
+          </p>
+        )}
         <p className="mt-1">
           <strong>Why it matters:</strong> {whyGapMatters}
         </p>
@@ -111,7 +150,10 @@ export function RecordedVsMeasured({ answer }: { answer: OverviewAnswer }) {
       </div>
       <div className="grid grid-cols-1 gap-4 2xl:grid-cols-2">
         {rows.every((r) => r.rate.rate === null) ? (
-          <NothingToChart title="Recorded completion and measured pass rate" text={`The figures are hidden (${suppressedText(min)}) or have nothing counted.`} />
+          <NothingToChart
+            title="Recorded completion and measured pass rate"
+            text={`The figures are hidden (${suppressedText(min)}) or have nothing counted.`}
+          />
         ) : (
           <Chart
             title="Recorded completion and measured pass rate"

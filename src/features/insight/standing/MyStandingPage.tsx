@@ -44,7 +44,13 @@ function StandingBody({ state }: { state: InsightFilterState }) {
   const attemptsHref = (error: AttemptError) => `/attempts?${linkParams(state.values, { error })}`;
   return (
     <QueryStatus query={query} loadingLabel={`Loading your standing for ${quarterLabel(state.quarter)}…`} errorTitle="Your standing could not be loaded">
-      {(answer) => (answer.attempts === 0 ? <NoDataForFilters state={state} what="attempts in your classes" /> : <StandingContent answer={answer} attemptsHref={attemptsHref} />)}
+      {(answer) =>
+        answer.attempts === 0 ? (
+          <NoDataForFilters state={state} what="attempts in your classes" />
+        ) : (
+          <StandingContent answer={answer} attemptsHref={attemptsHref} />
+        )
+      }
     </QueryStatus>
   );
 }
@@ -55,7 +61,19 @@ export function StandingContent({ answer, attemptsHref }: { answer: StandingAnsw
   const adjusted = answer.funnel.adjust === "case-mix";
   const units: FunnelUnit[] =
     me.n && me.successes !== null && me.adjustedRate !== null && me.effectiveAttempts !== null
-      ? [{ key: "me", label: "You", n: me.effectiveAttempts, attempts: me.n, successes: me.successes, rate: me.adjustedRate, z: me.z, position: me.position, isMe: true }]
+      ? [
+          {
+            key: "me",
+            label: "You",
+            n: me.effectiveAttempts,
+            attempts: me.n,
+            successes: me.successes,
+            rate: me.adjustedRate,
+            z: me.z,
+            position: me.position,
+            isMe: true,
+          },
+        ]
       : [];
   const networkHidden = answer.errorProfile.networkSuppressed;
   return (
@@ -97,8 +115,8 @@ export function StandingContent({ answer, attemptsHref }: { answer: StandingAnsw
                 exportFileName="my-funnel-position"
               />
               <p className="text-small text-muted">
-                The funnel narrows as attempts add up: with few attempts a rate far from the network's can be chance. A point outside the 95 %
-                limits is worth a look; outside the 99.8 % limits it is very unlikely to be chance. {dispersionSentence(answer.funnel)}
+                The funnel narrows as attempts add up: with few attempts a rate far from the network's can be chance. A point outside the 95 % limits is worth a
+                look; outside the 99.8 % limits it is very unlikely to be chance. {dispersionSentence(answer.funnel)}
               </p>
             </div>
           </div>
@@ -118,8 +136,8 @@ export function StandingContent({ answer, attemptsHref }: { answer: StandingAnsw
           Your classes in {quarterLabel(answer.period.from)}
         </h2>
         <p className="text-small text-muted">
-          Open a class to see each learner's attempts. Recorded completions are what you entered in the class log; each class's figures cover
-          all of its attempts, whatever the filters.
+          Open a class to see each learner's attempts. Recorded completions are what you entered in the class log; each class's figures cover all of its
+          attempts, whatever the filters.
         </p>
         <ClassTable classes={answer.classes} caption="Your classes" exportFileName={`my-classes-${answer.period.from}`} />
       </section>

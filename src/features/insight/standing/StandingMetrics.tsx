@@ -38,7 +38,16 @@ export function percentileSentence(rank: number | null, instructors: number, dif
   if (difference !== null && Math.abs(difference) < CLOSE_TO_NETWORK_POINTS) {
     return `${ordinal(rounded)} percentile of ${among}, but within ${CLOSE_TO_NETWORK_POINTS} points of the network's median: about the same as the network.`;
   }
-  const where = rounded >= 75 ? "among the highest" : rounded > 55 ? "above the middle" : rounded >= 45 ? "near the middle" : rounded > 25 ? "below the middle" : "among the lowest";
+  const where =
+    rounded >= 75
+      ? "among the highest"
+      : rounded > 55
+        ? "above the middle"
+        : rounded >= 45
+          ? "near the middle"
+          : rounded > 25
+            ? "below the middle"
+            : "among the lowest";
   return `${ordinal(rounded)} percentile of ${among}: ${where}.`;
 }
 
@@ -49,11 +58,18 @@ function CeilingFigures({ metric, answer }: { metric: Metric; answer: StandingAn
   return (
     <>
       <p className="mt-1 flex items-baseline gap-2">
-        <span className="text-headline whitespace-nowrap tabular-nums">{formatPct(ceiling.mine.shareAtCeiling === null ? null : ceiling.mine.shareAtCeiling * 100)}</span>
+        <span className="text-headline whitespace-nowrap tabular-nums">
+          {formatPct(ceiling.mine.shareAtCeiling === null ? null : ceiling.mine.shareAtCeiling * 100)}
+        </span>
         <span className="text-small text-muted">of your attempts at 100 %</span>
       </p>
       <p className="text-small tabular-nums">
-        Network: {ceiling.network === null ? hidden : <strong>{formatPct(ceiling.network.shareAtCeiling === null ? null : ceiling.network.shareAtCeiling * 100)}</strong>}
+        Network:{" "}
+        {ceiling.network === null ? (
+          hidden
+        ) : (
+          <strong>{formatPct(ceiling.network.shareAtCeiling === null ? null : ceiling.network.shareAtCeiling * 100)}</strong>
+        )}
       </p>
       <p className="text-small tabular-nums">
         Weakest tenth below: you {formatPct(ceiling.mine.p10)}, network {ceiling.network === null ? hidden : formatPct(ceiling.network.p10)}
@@ -80,20 +96,20 @@ export function StandingMetrics({ answer }: { answer: StandingAnswer }) {
               <CeilingFigures metric={metric} answer={answer} />
             ) : (
               <>
-            <p className="mt-1 flex items-baseline gap-2">
-              <span className="text-headline whitespace-nowrap tabular-nums">{formatMetric(metric.key, mine)}</span>
-              <span className="text-small text-muted">you</span>
-            </p>
-            <p className="text-small tabular-nums">
-              Network: {networkHidden ? <Suppressed minCount={answer.suppressionMinCount} /> : <strong>{formatMetric(metric.key, metric.network)}</strong>}
-              {diff !== null && Math.abs(diff) >= 0.05 && (
-                <span className="text-muted">
-                  {" "}
-                  ({diff > 0 ? "you +" : "you −"}
-                  {metric.key === "score" ? formatFixed(Math.abs(diff), 1) : `${formatFixed(Math.abs(diff), 1)} points`})
-                </span>
-              )}
-            </p>
+                <p className="mt-1 flex items-baseline gap-2">
+                  <span className="text-headline whitespace-nowrap tabular-nums">{formatMetric(metric.key, mine)}</span>
+                  <span className="text-small text-muted">you</span>
+                </p>
+                <p className="text-small tabular-nums">
+                  Network: {networkHidden ? <Suppressed minCount={answer.suppressionMinCount} /> : <strong>{formatMetric(metric.key, metric.network)}</strong>}
+                  {diff !== null && Math.abs(diff) >= 0.05 && (
+                    <span className="text-muted">
+                      {" "}
+                      ({diff > 0 ? "you +" : "you −"}
+                      {metric.key === "score" ? formatFixed(Math.abs(diff), 1) : `${formatFixed(Math.abs(diff), 1)} points`})
+                    </span>
+                  )}
+                </p>
               </>
             )}
             <p className="mt-auto pt-1 text-caption text-ink">

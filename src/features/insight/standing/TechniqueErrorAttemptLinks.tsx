@@ -6,7 +6,13 @@ import { errorShortNames } from "../../../../shared/vocabulary";
 import type { TechniqueErrorProfileRow } from "../charts/TechniqueErrorProfileChart";
 import { formatPercent } from "../format";
 
-export function TechniqueErrorAttemptLinks({ rows, attemptsHref }: { rows: readonly TechniqueErrorProfileRow[]; attemptsHref: (error: AttemptError) => string }) {
+export function TechniqueErrorAttemptLinks({
+  rows,
+  attemptsHref,
+}: {
+  rows: readonly TechniqueErrorProfileRow[];
+  attemptsHref: (error: AttemptError) => string;
+}) {
   const mine = [...rows].filter((r) => r.mine !== null).sort((a, b) => (b.mine ?? 0) - (a.mine ?? 0));
   if (mine.length === 0) return null;
   return (
@@ -18,7 +24,10 @@ export function TechniqueErrorAttemptLinks({ rows, attemptsHref }: { rows: reado
         {mine.map((r) => (
           <li key={r.error}>
             {r.mine ? (
-              <Link to={attemptsHref(r.error)} className="inline-flex min-h-8 items-center font-medium text-dusk-700 underline underline-offset-2 hover:text-dusk-900">
+              <Link
+                to={attemptsHref(r.error)}
+                className="inline-flex min-h-8 items-center font-medium text-dusk-700 underline underline-offset-2 hover:text-dusk-900"
+              >
                 {errorShortNames[r.error]}
               </Link>
             ) : (
