@@ -21,7 +21,10 @@ const TALLY_SUMS = [
   ...attemptErrorNames.map((name, bit) => [`err_${name}`, `sum((a.error_mask >> ${bit}) & 1)`]),
 ] as const;
 
-const PENDING = "attempts a JOIN summary_pending p ON p.id = a.id";
+// CROSS JOIN keeps the noted ids as the outer loop, each attempt found by its key: the planner, left to itself,
+// may scan every stored attempt for each statement, which at a million attempts made a one-class import take
+// seconds.
+const PENDING = "summary_pending p CROSS JOIN attempts a ON a.id = p.id";
 const addCounts = (columns: readonly string[]) => columns.map((c) => `${c} = ${c} + excluded.${c}`).join(", ");
 
 function tallies(table: "attempt_tallies" | "network_tallies", keys: readonly string[], keyExpressions: readonly string[]): string {
@@ -90,5 +93,10 @@ export function deferSummaries(sqlite: Database.Database): void {
 
 /** Adds the attempts noted since deferSummaries() to every summary and switches the per-row triggers back on. */
 export function addPendingAttempts(sqlite: Database.Database): void {
+  const nothingNoted = sqlite.prepare("SELECT NOT EXISTS (SELECT 1 FROM summary_pending)").pluck().get() === 1;
+  if (nothingNoted) {
+    sqlite.prepare("DELETE FROM summary_deferral").run();
+    return;
+  }
   for (const statement of ADD_PENDING) sqlite.prepare(statement).run();
 }
