@@ -1,11 +1,12 @@
 import { QueryClientProvider } from "@tanstack/react-query";
 import { cleanup, fireEvent, render, screen, waitFor } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
+import { instructorListAnswerSchema } from "../../shared/schemas/sites";
 import type { UserRow } from "../../shared/schemas/users";
 import { setCsrfToken } from "../../src/api/http";
 import { createQueryClient } from "../../src/app/queryClient";
 import { AddUserForm, EditUserForm } from "../../src/features/users/UserForms";
-import { fakeServer } from "./testServer";
+import { answer, fakeServer } from "./testServer";
 
 // Rendering with role queries in jsdom is slow on a busy machine; allow for it.
 vi.setConfig({ testTimeout: 20_000 });
@@ -15,10 +16,9 @@ afterEach(() => {
   vi.unstubAllGlobals();
 });
 
-const instructors = {
-  status: 200,
-  body: { instructors: [{ id: 4, code: "IN-04", name: "Robin Example", siteId: 1, siteCode: "NORTH-1", active: true }] },
-};
+const instructors = answer(instructorListAnswerSchema, {
+  instructors: [{ id: 4, code: "IN-04", name: "Robin Example", siteId: 1, siteCode: "NORTH-1", active: true }],
+});
 
 const funder: UserRow = {
   id: 12,

@@ -3,13 +3,14 @@
 import { QueryClientProvider } from "@tanstack/react-query";
 import { cleanup, fireEvent, render, screen, waitFor } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
-import type { ActionDetailAnswer, ActionRow } from "../../shared/schemas/actions";
-import type { MonthlyRunChart } from "../../shared/schemas/runChart";
+import { actionDetailAnswerSchema, type ActionDetailAnswer, type ActionRow } from "../../shared/schemas/actions";
+import { actionMonthlyAnswerSchema, type MonthlyRunChart } from "../../shared/schemas/runChart";
+import { instructorListAnswerSchema, siteListAnswerSchema } from "../../shared/schemas/sites";
 import { setCsrfToken } from "../../src/api/http";
 import { createQueryClient } from "../../src/app/queryClient";
 import { ActionForm } from "../../src/features/actions/ActionForm";
 import { renderApp } from "./renderApp";
-import { fakeServer, sessionFor } from "./testServer";
+import { answer, fakeServer, sessionFor } from "./testServer";
 import { formatDay } from "../../src/lib/formatting";
 
 vi.setConfig({ testTimeout: 20_000 });
@@ -20,8 +21,10 @@ afterEach(() => {
 });
 
 const directory = {
-  "GET /api/sites": { status: 200, body: { sites: [{ id: 1, code: "NORTH", name: "Northfield Hall", active: true, instructors: 2, manikins: 1 }] } },
-  "GET /api/instructors": { status: 200, body: { instructors: [{ id: 4, code: "A1", name: "Instructor A1", siteId: 1, siteCode: "NORTH", active: true }] } },
+  "GET /api/sites": answer(siteListAnswerSchema, { sites: [{ id: 1, code: "NORTH", name: "Northfield Hall", active: true, instructors: 2, manikins: 1 }] }),
+  "GET /api/instructors": answer(instructorListAnswerSchema, {
+    instructors: [{ id: 4, code: "A1", name: "Instructor A1", siteId: 1, siteCode: "NORTH", active: true }],
+  }),
 };
 
 const action: ActionRow = {
@@ -119,7 +122,7 @@ const detail: ActionDetailAnswer = {
 
 describe("the action page", () => {
   it("words the before/after comparison with its interval and shows an instructor no way to change it", async () => {
-    fakeServer({ "GET /api/me": sessionFor("instructor"), "GET /api/actions/3": { status: 200, body: detail } });
+    fakeServer({ "GET /api/me": sessionFor("instructor"), "GET /api/actions/3": answer(actionDetailAnswerSchema, detail) });
     renderApp("/actions/3");
     expect(await screen.findByRole("heading", { name: "Infant depth refresher" })).toBeTruthy();
     expect(screen.getByTestId("before").textContent).toContain("100.0 % (20 of 20 attempts, 2025 Q4)");
@@ -161,8 +164,8 @@ describe("the action page", () => {
     };
     fakeServer({
       "GET /api/me": sessionFor("quality_lead"),
-      "GET /api/actions/3": { status: 200, body: detail },
-      "GET /api/actions/3/monthly": { status: 200, body: { chart } },
+      "GET /api/actions/3": answer(actionDetailAnswerSchema, detail),
+      "GET /api/actions/3/monthly": answer(actionMonthlyAnswerSchema, { chart }),
     });
     renderApp("/actions/3");
     const signal = await screen.findByTestId("monthly-signal");
@@ -175,15 +178,19 @@ describe("the action page", () => {
   it("tells an instructor why the months of another scope are not shown", async () => {
     fakeServer({
       "GET /api/me": sessionFor("instructor"),
-      "GET /api/actions/3": { status: 200, body: detail },
-      "GET /api/actions/3/monthly": { status: 200, body: { chart: null } },
+      "GET /api/actions/3": answer(actionDetailAnswerSchema, detail),
+      "GET /api/actions/3/monthly": answer(actionMonthlyAnswerSchema, { chart: null }),
     });
     renderApp("/actions/3");
     expect(await screen.findByText(/the monthly chart is shown for your own actions only/)).toBeTruthy();
   });
 
   it("offers a quality lead the change and note forms", async () => {
-    fakeServer({ "GET /api/me": sessionFor("quality_lead"), "GET /api/actions/3": { status: 200, body: { ...detail, mayManage: true } }, ...directory });
+    fakeServer({
+      "GET /api/me": sessionFor("quality_lead"),
+      "GET /api/actions/3": answer(actionDetailAnswerSchema, { ...detail, mayManage: true }),
+      ...directory,
+    });
     renderApp("/actions/3");
     expect(await screen.findByRole("button", { name: "Change" })).toBeTruthy();
     expect(screen.getByRole("button", { name: "Add note" })).toBeTruthy();

@@ -3,7 +3,9 @@ import { cleanup, configure, fireEvent, screen, waitFor, within } from "@testing
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { alertKindLabels } from "../../shared/alertKinds";
 import { renderApp } from "./renderApp";
-import { fakeServer, sessionFor, type FakeAnswer } from "./testServer";
+import { alertChoiceAnswerSchema, allAlertsAnswerSchema, myAlertsAnswerSchema, type AlertChoice, type AlertDelivery } from "../../shared/schemas/alerts";
+import { dataVersionAnswerSchema } from "../../shared/schemas/dataVersion";
+import { answer, fakeServer, sessionFor, type FakeAnswer } from "./testServer";
 
 vi.setConfig({ testTimeout: 30_000 });
 configure({ asyncUtilTimeout: 15_000 });
@@ -12,15 +14,15 @@ afterEach(() => {
   vi.unstubAllGlobals();
 });
 
-const version = { status: 200, body: { version: "run:1:0" } };
+const version = answer(dataVersionAnswerSchema, { version: "run:1:0" });
 
 describe("alerts after each import on my account", () => {
   it("shows the current choice, saves the boxes ticked and says so", async () => {
     const server = fakeServer({
       "GET /api/me": sessionFor("instructor"),
       "GET /api/data-version": version,
-      "GET /api/me/alerts": { status: 200, body: { kinds: ["service", "drift"], isDefault: true } },
-      "PUT /api/me/alerts": (request) => ({ status: 200, body: { kinds: (request.body as { kinds: string[] }).kinds, isDefault: false } }),
+      "GET /api/me/alerts": answer(alertChoiceAnswerSchema, { kinds: ["service", "drift"], isDefault: true }),
+      "PUT /api/me/alerts": (request) => answer(alertChoiceAnswerSchema, { kinds: (request.body as AlertChoice).kinds, isDefault: false }),
     });
     renderApp("/account");
     const section = within((await screen.findByRole("heading", { name: "Alerts after each import" })).closest("section")!);
@@ -57,7 +59,7 @@ describe("alerts after each import on my account", () => {
     fakeServer({
       "GET /api/me": sessionFor("coordinator"),
       "GET /api/data-version": version,
-      "GET /api/me/alerts": { status: 200, body: { kinds: ["funnel"], isDefault: false } },
+      "GET /api/me/alerts": answer(alertChoiceAnswerSchema, { kinds: ["funnel"], isDefault: false }),
       "PUT /api/me/alerts": refused,
     });
     renderApp("/account");
@@ -78,7 +80,7 @@ describe("alerts after each import on my account", () => {
   });
 });
 
-const delivery = {
+const delivery: AlertDelivery = {
   key: "service:MK-7:service_by_days:never",
   kind: "service",
   summary: "MK-7 (NORTH) due for service: 400 days since it came into use",
@@ -91,7 +93,7 @@ describe("the Alerts page", () => {
     fakeServer({
       "GET /api/me": sessionFor("instructor"),
       "GET /api/data-version": version,
-      "GET /api/alerts": { status: 200, body: { deliveries: [delivery] } },
+      "GET /api/alerts": answer(myAlertsAnswerSchema, { deliveries: [delivery] }),
     });
     renderApp("/alerts");
     // the table and, for phones, its cards
@@ -105,8 +107,8 @@ describe("the Alerts page", () => {
     const server = fakeServer({
       "GET /api/me": sessionFor("coordinator"),
       "GET /api/data-version": version,
-      "GET /api/alerts": { status: 200, body: { deliveries: [] } },
-      "GET /api/alerts/all": { status: 200, body: { signals: [{ ...delivery, recipients: 3 }] } },
+      "GET /api/alerts": answer(myAlertsAnswerSchema, { deliveries: [] }),
+      "GET /api/alerts/all": answer(allAlertsAnswerSchema, { signals: [{ ...delivery, recipients: 3 }] }),
     });
     renderApp("/alerts");
     fireEvent.click(await screen.findByRole("button", { name: "All users' alerts" }));

@@ -5,7 +5,7 @@ import { cleanup, renderHook, waitFor } from "@testing-library/react";
 import type { ReactNode } from "react";
 import { MemoryRouter, useLocation } from "react-router";
 import { afterEach, describe, expect, it, vi } from "vitest";
-import { optionsAnswerSchema } from "../../shared/schemas/insight";
+import { attemptListAnswerSchema, optionsAnswerSchema } from "../../shared/schemas/insight";
 import { ApiError } from "../../src/api/http";
 import { dataVersionQuery, figureQueryFamilies } from "../../src/app/figureQueries";
 import { createQueryClient } from "../../src/app/queryClient";
@@ -25,7 +25,7 @@ import { actionQueries } from "../../src/features/actions/queries";
 import { trackerQueries } from "../../src/features/tracker/queries";
 import { siteQueries } from "../../src/features/sites/queries";
 import { userQueries } from "../../src/features/users/queries";
-import { fakeServer } from "./testServer";
+import { answer, fakeServer } from "./testServer";
 
 afterEach(() => {
   cleanup();
@@ -80,9 +80,9 @@ describe("answers are checked against their shared schemas", () => {
   });
 
   it("passes an answer of the right shape through", async () => {
-    const answer = { page: 1, pageSize: 50, total: 0, attempts: [] };
-    fakeServer({ "GET /api/attempts?quarter=2026-Q3": { status: 200, body: answer } });
-    expect(await createQueryClient().fetchQuery(attemptQueries.list({ quarter: "2026-Q3" }))).toEqual(answer);
+    const noAttempts = { page: 1, pageSize: 50, total: 0, attempts: [] };
+    fakeServer({ "GET /api/attempts?quarter=2026-Q3": answer(attemptListAnswerSchema, noAttempts) });
+    expect(await createQueryClient().fetchQuery(attemptQueries.list({ quarter: "2026-Q3" }))).toEqual(noAttempts);
   });
 });
 
@@ -216,7 +216,7 @@ describe("one filter module for single quarters and ranges", () => {
   });
 
   it("writes the period shown into the address, keeping a range", async () => {
-    fakeServer({ "GET /api/insight/options": { status: 200, body: options } });
+    fakeServer({ "GET /api/insight/options": answer(optionsAnswerSchema, options) });
     const queryClient = createQueryClient();
     const at = (url: string) =>
       function Wrapper({ children }: { children: ReactNode }) {

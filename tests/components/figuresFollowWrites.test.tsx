@@ -5,8 +5,17 @@ import { QueryClientProvider, focusManager, type QueryClient, type QueryKey } fr
 import { act, cleanup, configure, fireEvent, renderHook, render, screen, waitFor, within } from "@testing-library/react";
 import type { ReactNode } from "react";
 import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
-import type { ImportBatch, ImportJob, Preview, Upload } from "../../shared/import/api";
+import {
+  batchListResponseSchema,
+  jobResponseSchema,
+  presetListResponseSchema,
+  type ImportBatch,
+  type ImportJob,
+  type Preview,
+  type Upload,
+} from "../../shared/import/api";
 import { importColumns } from "../../shared/import/columns";
+import { dataVersionAnswerSchema } from "../../shared/schemas/dataVersion";
 import { DEFAULT_POLICY } from "../../shared/scoring/policy";
 import { setCsrfToken } from "../../src/api/http";
 import { figureQueryFamilies } from "../../src/app/figureQueries";
@@ -18,8 +27,9 @@ import { VersionsPanel } from "../../src/features/report/VersionsPanel";
 import { useRescore, useSavePolicy } from "../../src/features/settings/mutations";
 import { settingsQueries } from "../../src/features/settings/queries";
 import { appliedBatch } from "./importBatch";
+import { formatsWithoutColumns } from "./importFormats";
 import { renderApp } from "./renderApp";
-import { fakeServer, sessionFor } from "./testServer";
+import { answer, fakeServer, sessionFor } from "./testServer";
 
 vi.setConfig({ testTimeout: 30_000 });
 configure({ asyncUtilTimeout: 15_000 });
@@ -118,9 +128,9 @@ describe("the imports page", () => {
   it("undoing a batch invalidates every figure family", async () => {
     fakeServer({
       "GET /api/me": sessionFor("coordinator"),
-      [historyPath]: { status: 200, body: { batches: [batch], total: 1 } },
-      "GET /api/imports/formats": { status: 200, body: { formats: { attempts: [] } } },
-      "GET /api/data-version": { status: 200, body: { version: "run:1:0" } },
+      [historyPath]: answer(batchListResponseSchema, { batches: [batch], total: 1 }),
+      "GET /api/imports/formats": formatsWithoutColumns,
+      "GET /api/data-version": answer(dataVersionAnswerSchema, { version: "run:1:0" }),
       "POST /api/imports/batches/3/undo": {
         status: 200,
         body: { batch: { ...batch, status: "undone", undoneAt: "2026-10-02T09:00:00.000Z" }, deleted: 12, restored: 0 },
@@ -201,14 +211,14 @@ describe("the imports page", () => {
     });
     fakeServer({
       "GET /api/me": sessionFor("coordinator"),
-      [historyPath]: { status: 200, body: { batches: [], total: 0 } },
-      "GET /api/imports/formats": { status: 200, body: { formats: { classes: [] } } },
-      "GET /api/imports/presets?kind=classes": { status: 200, body: { presets: [] } },
-      "GET /api/data-version": { status: 200, body: { version: "run:1:0" } },
+      [historyPath]: answer(batchListResponseSchema, { batches: [], total: 0 }),
+      "GET /api/imports/formats": formatsWithoutColumns,
+      "GET /api/imports/presets?kind=classes": answer(presetListResponseSchema, { presets: [] }),
+      "GET /api/data-version": answer(dataVersionAnswerSchema, { version: "run:1:0" }),
       "POST /api/imports/uploads/u1/validate": { status: 202, body: { job: { ...job("job-v", "validate"), status: "queued", summary: null } } },
-      "GET /api/imports/jobs/job-v": { status: 200, body: { job: job("job-v", "validate") } },
+      "GET /api/imports/jobs/job-v": answer(jobResponseSchema, { job: job("job-v", "validate") }),
       "POST /api/imports/uploads/u1/import": { status: 202, body: { job: { ...job("job-i", "import"), status: "queued", summary: null } } },
-      "GET /api/imports/jobs/job-i": { status: 200, body: { job: job("job-i", "import") } },
+      "GET /api/imports/jobs/job-i": answer(jobResponseSchema, { job: job("job-i", "import") }),
     });
     const { queryClient } = renderApp("/imports");
     const seeded = figureQueryFamilies.map((family) => [...family, "seeded"]);
@@ -234,9 +244,9 @@ describe("writes made elsewhere", () => {
     let batches: ImportBatch[] = [];
     const server = fakeServer({
       "GET /api/me": sessionFor("coordinator"),
-      [historyPath]: () => ({ status: 200, body: { batches, total: batches.length } }),
-      "GET /api/imports/formats": { status: 200, body: { formats: { attempts: [] } } },
-      "GET /api/data-version": () => ({ status: 200, body: { version } }),
+      [historyPath]: () => answer(batchListResponseSchema, { batches, total: batches.length }),
+      "GET /api/imports/formats": formatsWithoutColumns,
+      "GET /api/data-version": () => answer(dataVersionAnswerSchema, { version }),
     });
     renderApp("/imports");
     await screen.findByText("No imports yet");
@@ -255,9 +265,9 @@ describe("writes made elsewhere", () => {
   it("a tab shown again with the same data version refetches no figures", async () => {
     const server = fakeServer({
       "GET /api/me": sessionFor("coordinator"),
-      [historyPath]: { status: 200, body: { batches: [batch], total: 1 } },
-      "GET /api/imports/formats": { status: 200, body: { formats: { attempts: [] } } },
-      "GET /api/data-version": { status: 200, body: { version: "run:1:0" } },
+      [historyPath]: answer(batchListResponseSchema, { batches: [batch], total: 1 }),
+      "GET /api/imports/formats": formatsWithoutColumns,
+      "GET /api/data-version": answer(dataVersionAnswerSchema, { version: "run:1:0" }),
     });
     renderApp("/imports");
     await screen.findAllByText("wrenmoor-q3.csv");

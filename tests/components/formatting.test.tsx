@@ -5,6 +5,8 @@ import path from "node:path";
 import { QueryClientProvider } from "@tanstack/react-query";
 import { cleanup, configure, render, screen, within } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
+import { batchListResponseSchema } from "../../shared/import/api";
+import { dataVersionAnswerSchema } from "../../shared/schemas/dataVersion";
 import type { ReportVersion } from "../../shared/schemas/report";
 import { createQueryClient } from "../../src/app/queryClient";
 import { VersionsPanel } from "../../src/features/report/VersionsPanel";
@@ -20,8 +22,9 @@ import {
   setFormatLocale,
 } from "../../src/lib/formatting";
 import { appliedBatch } from "./importBatch";
+import { formatsWithoutColumns } from "./importFormats";
 import { renderApp } from "./renderApp";
-import { fakeServer, sessionFor } from "./testServer";
+import { answer, fakeServer, sessionFor } from "./testServer";
 
 vi.setConfig({ testTimeout: 30_000 });
 configure({ asyncUtilTimeout: 15_000 });
@@ -96,9 +99,12 @@ describe("pages", () => {
     setFormatLocale("en-US");
     fakeServer({
       "GET /api/me": sessionFor("coordinator"),
-      "GET /api/imports/batches?limit=25&offset=0": { status: 200, body: { batches: [{ ...appliedBatch, createdAt: "2026-12-02T12:00:00.000Z" }], total: 1 } },
-      "GET /api/imports/formats": { status: 200, body: { formats: {} } },
-      "GET /api/data-version": { status: 200, body: { version: "run:1:0" } },
+      "GET /api/imports/batches?limit=25&offset=0": answer(batchListResponseSchema, {
+        batches: [{ ...appliedBatch, createdAt: "2026-12-02T12:00:00.000Z" }],
+        total: 1,
+      }),
+      "GET /api/imports/formats": formatsWithoutColumns,
+      "GET /api/data-version": answer(dataVersionAnswerSchema, { version: "run:1:0" }),
     });
     renderApp("/imports");
     const table = await screen.findByRole("table");

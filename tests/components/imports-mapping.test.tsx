@@ -1,11 +1,12 @@
 import { cleanup, configure, fireEvent, screen } from "@testing-library/react";
 import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
-import type { ImportJob, Preview, Upload } from "../../shared/import/api";
+import { batchListResponseSchema, jobResponseSchema, presetListResponseSchema, type ImportJob, type Preview, type Upload } from "../../shared/import/api";
 import { importColumns } from "../../shared/import/columns";
 import { importMappingSchema } from "../../shared/import/mapping";
 import { buildMapping, draftFromMapping, draftProblems, unknownValues } from "../../src/features/imports/mappingDraft";
+import { formatsWithoutColumns } from "./importFormats";
 import { renderApp } from "./renderApp";
-import { fakeServer, sessionFor, type RecordedRequest } from "./testServer";
+import { answer, fakeServer, sessionFor, type RecordedRequest } from "./testServer";
 
 vi.setConfig({ testTimeout: 30_000 });
 // The page is loaded lazily, which takes a while on a busy machine.
@@ -129,11 +130,11 @@ const doneJob: ImportJob = {
 function fakeImportServer(job: ImportJob) {
   return fakeServer({
     "GET /api/me": sessionFor("coordinator"),
-    "GET /api/imports/batches?limit=25&offset=0": { status: 200, body: { batches: [], total: 0 } },
-    "GET /api/imports/formats": { status: 200, body: { formats: { attempts: [] } } },
-    "GET /api/imports/presets?kind=attempts": { status: 200, body: { presets: [] } },
+    "GET /api/imports/batches?limit=25&offset=0": answer(batchListResponseSchema, { batches: [], total: 0 }),
+    "GET /api/imports/formats": formatsWithoutColumns,
+    "GET /api/imports/presets?kind=attempts": answer(presetListResponseSchema, { presets: [] }),
     "POST /api/imports/uploads/u1/validate": { status: 202, body: { job: { ...doneJob, status: "queued", summary: null } } },
-    "GET /api/imports/jobs/job-1": { status: 200, body: { job } },
+    "GET /api/imports/jobs/job-1": answer(jobResponseSchema, { job }),
   });
 }
 

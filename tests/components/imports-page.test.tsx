@@ -2,10 +2,12 @@
 // stays readable in the history with its time and a note.
 import { cleanup, configure, fireEvent, screen, within } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
-import type { ImportBatch } from "../../shared/import/api";
+import { batchListResponseSchema, presetListResponseSchema, type ImportBatch } from "../../shared/import/api";
+import { dataVersionAnswerSchema } from "../../shared/schemas/dataVersion";
 import { appliedBatch } from "./importBatch";
+import { formatsWithoutColumns } from "./importFormats";
 import { renderApp } from "./renderApp";
-import { fakeServer, sessionFor } from "./testServer";
+import { answer, fakeServer, sessionFor } from "./testServer";
 
 vi.setConfig({ testTimeout: 30_000 });
 configure({ asyncUtilTimeout: 15_000 });
@@ -21,10 +23,10 @@ const undone: ImportBatch = { ...appliedBatch, status: "undone", undoneAt: "2026
 function page(batches: ImportBatch[] = []) {
   fakeServer({
     "GET /api/me": sessionFor("coordinator"),
-    [historyPath]: { status: 200, body: { batches, total: batches.length } },
-    "GET /api/imports/formats": { status: 200, body: { formats: { classes: [] } } },
-    "GET /api/imports/presets?kind=classes": { status: 200, body: { presets: [] } },
-    "GET /api/data-version": { status: 200, body: { version: "run:1:0" } },
+    [historyPath]: answer(batchListResponseSchema, { batches, total: batches.length }),
+    "GET /api/imports/formats": formatsWithoutColumns,
+    "GET /api/imports/presets?kind=classes": answer(presetListResponseSchema, { presets: [] }),
+    "GET /api/data-version": answer(dataVersionAnswerSchema, { version: "run:1:0" }),
   });
   renderApp("/imports");
 }

@@ -9,6 +9,7 @@ import {
   type AttemptRow,
   type ClassDetailAnswer,
 } from "../../shared/schemas/insight";
+import { sessionAnswerSchema, type SessionAnswer } from "../../shared/schemas/auth";
 import { renderApp } from "./renderApp";
 import { answer, fakeServer, sessionFor, type FakeAnswer } from "./testServer";
 
@@ -108,9 +109,8 @@ const row = (id: string, depthMm: number, rateCpm: number): AttemptRow => ({
 const measured: AttemptListAnswer = { page: 1, pageSize: 200, total: 2, attempts: [row("AT-1", 52.4, 112.4), row("AT-2", 44.45, 104)] };
 
 function sessionIn(unit: "mm" | "cm" | "in"): FakeAnswer {
-  const answer = sessionFor("coordinator");
-  const body = answer.body as { user: Record<string, unknown> };
-  return { status: 200, body: { ...body, user: { ...body.user, lengthUnit: unit } } };
+  const body = sessionFor("coordinator").body as SessionAnswer;
+  return answer(sessionAnswerSchema, { ...body, user: { ...body.user, lengthUnit: unit } });
 }
 
 describe("class page", () => {

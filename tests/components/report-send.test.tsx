@@ -2,12 +2,13 @@ import { QueryClientProvider } from "@tanstack/react-query";
 import { cleanup, configure, fireEvent, render, screen } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import type { ReportSendRow, ReportVersion } from "../../shared/schemas/report";
+import { userListAnswerSchema } from "../../shared/schemas/users";
 import { setCsrfToken } from "../../src/api/http";
 import { createQueryClient } from "../../src/app/queryClient";
 import { parseExtraAddresses } from "../../src/features/report/extraAddresses";
 import { SendForm } from "../../src/features/report/SendForm";
 import { renderApp } from "./renderApp";
-import { fakeServer, sessionFor } from "./testServer";
+import { answer, fakeServer, sessionFor } from "./testServer";
 
 vi.setConfig({ testTimeout: 30_000 });
 configure({ asyncUtilTimeout: 15_000 });
@@ -27,33 +28,30 @@ const version: ReportVersion = {
   releasedAt: "2026-10-02T09:30:00.000Z",
 };
 
-const users = {
-  status: 200,
-  body: {
-    users: [
-      {
-        id: 2,
-        email: "funder@example.org",
-        displayName: "Fran Funder",
-        role: "funder",
-        instructorId: null,
-        instructorCode: null,
-        active: true,
-        createdAt: "2026-01-01",
-      },
-      {
-        id: 3,
-        email: "old-funder@example.org",
-        displayName: "Old Funder",
-        role: "funder",
-        instructorId: null,
-        instructorCode: null,
-        active: false,
-        createdAt: "2026-01-01",
-      },
-    ],
-  },
-};
+const users = answer(userListAnswerSchema, {
+  users: [
+    {
+      id: 2,
+      email: "funder@example.org",
+      displayName: "Fran Funder",
+      role: "funder",
+      instructorId: null,
+      instructorCode: null,
+      active: true,
+      createdAt: "2026-01-01",
+    },
+    {
+      id: 3,
+      email: "old-funder@example.org",
+      displayName: "Old Funder",
+      role: "funder",
+      instructorId: null,
+      instructorCode: null,
+      active: false,
+      createdAt: "2026-01-01",
+    },
+  ],
+});
 
 function renderForm() {
   setCsrfToken("token-1");

@@ -5,7 +5,7 @@ import { cleanup, screen, waitFor } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { optionsAnswerSchema, techniqueErrorsAnswerSchema } from "../../shared/schemas/insight";
 import { renderApp } from "./renderApp";
-import { fakeServer, sessionFor, signedOut, type FakeAnswer, type FakeRoutes } from "./testServer";
+import { answer, fakeServer, sessionFor, signedOut, type FakeAnswer, type FakeRoutes } from "./testServer";
 
 vi.setConfig({ testTimeout: 30_000 });
 
@@ -51,7 +51,7 @@ function optionsAfter(server: { paths: string[] }, path: string) {
       const check = setInterval(() => {
         if (!server.paths.includes(path)) return;
         clearInterval(check);
-        resolve({ status: 200, body: options });
+        resolve(answer(optionsAnswerSchema, options));
       }, 10);
       waiting.push(check);
     });
@@ -73,7 +73,7 @@ describe("requests started at navigation", () => {
     const errorsPath = "/api/insight/errors?quarter=2026-Q3&site=WRM";
     const answers: Record<string, FakeAnswer | (() => Promise<FakeAnswer>)> = {
       "/api/me": sessionFor("coordinator"),
-      [errorsPath]: { status: 200, body: noAttempts },
+      [errorsPath]: answer(techniqueErrorsAnswerSchema, noAttempts),
     };
     const server = heldServer(answers);
     answers["/api/insight/options"] = optionsAfter(server, errorsPath);

@@ -1,42 +1,51 @@
 import { cleanup, fireEvent, screen, waitFor, within } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
-import { POLICY_FIELD_SOURCES } from "../../shared/schemas/policySettings";
+import { sessionAnswerSchema } from "../../shared/schemas/auth";
+import { chartBaselineSchema } from "../../shared/schemas/chartSettings";
+import { optionsAnswerSchema } from "../../shared/schemas/insight";
+import { POLICY_FIELD_SOURCES, policySettingsAnswerSchema, policyVersionsAnswerSchema } from "../../shared/schemas/policySettings";
 import { DEFAULT_POLICY, GUIDELINE_SOURCES, SAFETY_NOTE } from "../../shared/scoring/policy";
 import { renderApp } from "./renderApp";
-import { fakeServer, type FakeAnswer } from "./testServer";
+import { answer, fakeServer } from "./testServer";
 
 afterEach(() => {
   cleanup();
   vi.unstubAllGlobals();
 });
 
-const coordinatorInInches: FakeAnswer = {
-  status: 200,
-  body: {
-    user: { id: 1, email: "robin@example.org", displayName: "Robin Example", role: "coordinator", instructorId: null, siteId: null, lengthUnit: "in" },
-    csrfToken: "token-1",
-  },
-};
+const coordinatorInInches = answer(sessionAnswerSchema, {
+  user: { id: 1, email: "robin@example.org", displayName: "Robin Example", role: "coordinator", instructorId: null, siteId: null, lengthUnit: "in" },
+  csrfToken: "token-1",
+});
 const version1 = { version: 1, policy: DEFAULT_POLICY, note: "Project defaults", createdAt: "2026-01-05T09:00:00.000Z" };
 
 /** The policy and its versions, as every test of the page needs them. */
 const policyPages = {
   "GET /api/me": coordinatorInInches,
-  "GET /api/settings/policy": {
-    status: 200,
-    body: { current: version1, defaults: DEFAULT_POLICY, fieldSources: POLICY_FIELD_SOURCES, sources: GUIDELINE_SOURCES, safetyNote: SAFETY_NOTE },
-  },
-  "GET /api/settings/policy/versions": { status: 200, body: { versions: [version1] } },
+  "GET /api/settings/policy": answer(policySettingsAnswerSchema, {
+    current: version1,
+    defaults: DEFAULT_POLICY,
+    // copied: the constants are read-only arrays, the schema's input type plain ones
+    fieldSources: [...POLICY_FIELD_SOURCES],
+    sources: [...GUIDELINE_SOURCES],
+    safetyNote: SAFETY_NOTE,
+  }),
+  "GET /api/settings/policy/versions": answer(policyVersionsAnswerSchema, { versions: [version1] }),
 };
 
 describe("settings page", { timeout: 30_000 }, () => {
   it("saves depths typed in inches as millimetres, as a new version", async () => {
     const server = fakeServer({
       ...policyPages,
-      "GET /api/insight/options": {
-        status: 200,
-        body: { quarters: [], sites: [], patientTypes: [], feedbackModes: [], errors: [], instructors: [], manikins: [] },
-      },
+      "GET /api/insight/options": answer(optionsAnswerSchema, {
+        quarters: [],
+        sites: [],
+        patientTypes: [],
+        feedbackModes: [],
+        errors: [],
+        instructors: [],
+        manikins: [],
+      }),
       "PUT /api/settings/policy": (request) => ({ status: 200, body: { ...version1, version: 2, ...(request.body as object) } }),
     });
     renderApp("/settings");
@@ -61,19 +70,16 @@ describe("settings page", { timeout: 30_000 }, () => {
   it("shows the control chart's baseline and lets the coordinator choose other quarters", async () => {
     const server = fakeServer({
       ...policyPages,
-      "GET /api/settings/chart-baseline": { status: 200, body: { from: "2025-Q1", to: "2025-Q4", source: "default" } },
-      "GET /api/insight/options": {
-        status: 200,
-        body: {
-          quarters: ["2026-Q2", "2026-Q1", "2025-Q4", "2025-Q3", "2025-Q2", "2025-Q1"],
-          sites: [],
-          patientTypes: [],
-          feedbackModes: [],
-          errors: [],
-          instructors: [],
-          manikins: [],
-        },
-      },
+      "GET /api/settings/chart-baseline": answer(chartBaselineSchema, { from: "2025-Q1", to: "2025-Q4", source: "default" }),
+      "GET /api/insight/options": answer(optionsAnswerSchema, {
+        quarters: ["2026-Q2", "2026-Q1", "2025-Q4", "2025-Q3", "2025-Q2", "2025-Q1"],
+        sites: [],
+        patientTypes: [],
+        feedbackModes: [],
+        errors: [],
+        instructors: [],
+        manikins: [],
+      }),
       "PUT /api/settings/chart-baseline": (request) => ({ status: 200, body: { ...(request.body as { baseline: object }).baseline, source: "setting" } }),
     });
     renderApp("/settings");

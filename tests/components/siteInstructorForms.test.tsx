@@ -1,11 +1,12 @@
 import { QueryClientProvider } from "@tanstack/react-query";
 import { cleanup, fireEvent, render, screen, waitFor } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
+import { siteListAnswerSchema } from "../../shared/schemas/sites";
 import { setCsrfToken } from "../../src/api/http";
 import { createQueryClient } from "../../src/app/queryClient";
 import { AddInstructorForm } from "../../src/features/instructors/InstructorForms";
 import { AddSiteForm } from "../../src/features/sites/SiteForms";
-import { fakeServer } from "./testServer";
+import { answer, fakeServer } from "./testServer";
 
 // Rendering with role queries in jsdom is slow on a busy machine; allow for it.
 vi.setConfig({ testTimeout: 20_000 });
@@ -51,7 +52,7 @@ describe("site and instructor forms", () => {
   it("sends the chosen site as a number", async () => {
     const created = { id: 9, code: "IN-09", name: "Kim Example", siteId: 3, siteCode: "NORTH-1", active: true };
     const server = fakeServer({
-      "GET /api/sites": { status: 200, body: { sites: [site] } },
+      "GET /api/sites": answer(siteListAnswerSchema, { sites: [site] }),
       "POST /api/instructors": { status: 201, body: { instructor: created } },
     });
     const onDone = vi.fn();

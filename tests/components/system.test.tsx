@@ -2,7 +2,7 @@ import { cleanup, configure, screen, within } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { systemReportSchema, type SystemReport } from "../../shared/schemas/system";
 import { renderApp } from "./renderApp";
-import { fakeServer, sessionFor } from "./testServer";
+import { answer, fakeServer, sessionFor } from "./testServer";
 
 vi.setConfig({ testTimeout: 30_000 });
 configure({ asyncUtilTimeout: 15_000 });
@@ -82,7 +82,7 @@ const report: SystemReport = systemReportSchema.parse({
 
 describe("system page", () => {
   it("shows version, size, growth per quarter, backups with a failed newest one, imports and mail", async () => {
-    fakeServer({ "GET /api/me": sessionFor("coordinator"), "GET /api/system": { status: 200, body: report } });
+    fakeServer({ "GET /api/me": sessionFor("coordinator"), "GET /api/system": answer(systemReportSchema, report) });
     renderApp("/system");
     expect(await screen.findByRole("heading", { level: 1, name: "System" })).toBeTruthy();
     expect(await screen.findByText("1.4.0")).toBeTruthy();
