@@ -59,6 +59,10 @@ function writeLines(file: string, header: string, count: number, line: (i: numbe
   fs.closeSync(fd);
 }
 
+/** The device-summary columns of an attempts file, as both the bulk and the late import write them. */
+const ATTEMPTS_HEADER =
+  "attempt_id,class_id,learner,manikin,profile,feedback,started_at,duration_s,compressions,rate_cpm,depth_mm,depth_ok_pct,too_shallow_pct,too_deep_pct,rate_ok_pct,too_slow_pct,too_fast_pct,recoil_ok_pct,hands_on_pct,longest_pause_s,instructor_result";
+
 const pad = (n: number, width = 2) => String(n).padStart(width, "0");
 
 function generate(dir: string) {
@@ -72,16 +76,11 @@ function generate(dir: string) {
     const a = Math.round(rest * random() * 10) / 10;
     return `${ok},${a},${(rest - a).toFixed(1)}`;
   };
-  writeLines(
-    path.join(dir, "attempts.csv"),
-    "attempt_id,class_id,learner,manikin,profile,feedback,started_at,duration_s,compressions,rate_cpm,depth_mm,depth_ok_pct,too_shallow_pct,too_deep_pct,rate_ok_pct,too_slow_pct,too_fast_pct,recoil_ok_pct,hands_on_pct,longest_pause_s,instructor_result",
-    ATTEMPT_ROWS,
-    (i) => {
-      const c = i % CLASSES;
-      const result = random() < 0.3 ? (random() < 0.6 ? "pass" : "fail") : "";
-      return `AT-${pad(i, 7)},CL-${pad(c, 5)},L-${pad(i % 90_000, 5)},MK-${c % 400},adult,${i % 2 ? "live" : "hidden"},2026-${pad(7 + (c % 3))}-${pad(1 + (c % 28))}T${pad(8 + (i % 10))}:${pad(i % 60)}:00+02:00,${(60 + random() * 60).toFixed(1)},${100 + Math.floor(random() * 120)},${(95 + random() * 30).toFixed(1)},${(45 + random() * 15).toFixed(1)},${share3(Math.round(40 + random() * 60))},${share3(Math.round(40 + random() * 60))},${(50 + random() * 50).toFixed(1)},${(55 + random() * 45).toFixed(1)},${(random() * 12).toFixed(1)},${result}`;
-    },
-  );
+  writeLines(path.join(dir, "attempts.csv"), ATTEMPTS_HEADER, ATTEMPT_ROWS, (i) => {
+    const c = i % CLASSES;
+    const result = random() < 0.3 ? (random() < 0.6 ? "pass" : "fail") : "";
+    return `AT-${pad(i, 7)},CL-${pad(c, 5)},L-${pad(i % 90_000, 5)},MK-${c % 400},adult,${i % 2 ? "live" : "hidden"},2026-${pad(7 + (c % 3))}-${pad(1 + (c % 28))}T${pad(8 + (i % 10))}:${pad(i % 60)}:00+02:00,${(60 + random() * 60).toFixed(1)},${100 + Math.floor(random() * 120)},${(95 + random() * 30).toFixed(1)},${(45 + random() * 15).toFixed(1)},${share3(Math.round(40 + random() * 60))},${share3(Math.round(40 + random() * 60))},${(50 + random() * 50).toFixed(1)},${(55 + random() * 45).toFixed(1)},${(random() * 12).toFixed(1)},${result}`;
+  });
   // Streams: two attempts at a time interleaved row by row, as a two-manikin station's merged export would.
   const identity = (a: number) => {
     const c = a % CLASSES;
@@ -195,13 +194,11 @@ async function task(name: string, dir: string): Promise<TaskResult> {
         path.join(dir, "late-classes.csv"),
         `class_id,date,site,instructor,course,learners,passed,manikins\nLATE-1,${date},${owner.site},${owner.instructor},adult,12,10,\n`,
       );
-      const header =
-        "attempt_id,class_id,learner,manikin,profile,feedback,started_at,duration_s,compressions,rate_cpm,depth_mm,depth_ok_pct,too_shallow_pct,too_deep_pct,rate_ok_pct,too_slow_pct,too_fast_pct,recoil_ok_pct,hands_on_pct,longest_pause_s,instructor_result";
       const lines = Array.from(
         { length: 24 },
         (_, i) => `LATE-A${i},LATE-1,LL-${i % 12},,adult,live,${date}T10:00:00Z,120,230,112,54,80,20,0,80,12,8,90,85,4,pass`,
       );
-      fs.writeFileSync(path.join(dir, "late-attempts.csv"), `${header}\n${lines.join("\n")}\n`);
+      fs.writeFileSync(path.join(dir, "late-attempts.csv"), `${ATTEMPTS_HEADER}\n${lines.join("\n")}\n`);
       const start = performance.now();
       for (const kind of ["classes", "attempts"] as const) {
         const s = await importFile(db, { kind, input: { path: path.join(dir, `late-${kind}.csv`) }, source: "seed" });

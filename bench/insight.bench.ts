@@ -254,7 +254,9 @@ async function bench() {
       .join(", ")}`,
   );
   const small = await measure({ label: "baseline", instructors: 25, classesPerInstructorQuarter: 3 }, seconds);
-  const large = await measure({ label: "large", instructors: 500, classesPerInstructorQuarter: Math.max(1, Math.round(25 * scale)) }, seconds);
+  const { largeNetworkSize } = await import("../tests/fixtures/insight/generateNetwork");
+  const { instructors, classesPerInstructorQuarter } = largeNetworkSize(scale);
+  const large = await measure({ label: "large", instructors, classesPerInstructorQuarter }, seconds);
 
   const ms = (value: number) => value.toFixed(1).padStart(8);
   console.log(`\nAnswer cache off; 10 connections × ${seconds} s per endpoint; times in ms.`);

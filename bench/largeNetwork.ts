@@ -5,7 +5,7 @@
 //
 // Run: npx tsx bench/largeNetwork.ts <file> [scale]   (scale 1 → 1 M attempts, about 1 GB, 6–11 min here)
 import fs from "node:fs";
-import { generateNetwork } from "../tests/fixtures/insight/generateNetwork";
+import { generateNetwork, largeNetworkSize } from "../tests/fixtures/insight/generateNetwork";
 
 const [file, scaleText = "1"] = process.argv.slice(2);
 const scale = Number(scaleText);
@@ -18,11 +18,6 @@ if (fs.existsSync(file)) {
   process.exit(2);
 }
 const started = performance.now();
-const { db, attempts } = generateNetwork(file, {
-  instructors: 500,
-  quarters: 8,
-  classesPerInstructorQuarter: Math.max(1, Math.round(25 * scale)),
-  attemptsPerClass: 10,
-});
+const { db, attempts } = generateNetwork(file, largeNetworkSize(scale));
 db.$client.close();
 console.log(`${attempts.toLocaleString("en")} attempts written to ${file} in ${((performance.now() - started) / 1000).toFixed(0)} s`);
