@@ -3,6 +3,7 @@ import clsx from "clsx";
 import { useId, useMemo, useState, type ReactNode } from "react";
 import { SPREADSHEET_CSV, toCsv, type CsvCell } from "../../shared/csv";
 import { downloadCsv } from "../lib/downloadCsv";
+import { DownloadIcon } from "./DownloadIcon";
 
 export type CellValue = string | number | boolean | null | undefined;
 
@@ -162,16 +163,7 @@ export function DataTable<Row>({
               disabled={shown.length === 0}
               className="inline-flex min-h-11 items-center gap-2 rounded-control border border-line-strong bg-surface px-4 font-medium text-dusk-800 hover:bg-dusk-50 disabled:opacity-60"
             >
-              <svg viewBox="0 0 20 20" className="size-4" aria-hidden="true">
-                <path
-                  d="M10 3v9m0 0-3.5-3.5M10 12l3.5-3.5M4 14v2.5h12V14"
-                  fill="none"
-                  stroke="currentColor"
-                  strokeWidth="1.8"
-                  strokeLinecap="round"
-                  strokeLinejoin="round"
-                />
-              </svg>
+              <DownloadIcon />
               Export CSV
             </button>
           )}

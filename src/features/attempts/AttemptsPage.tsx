@@ -23,6 +23,7 @@ import { attemptQueries, attemptsCsvPath, type AttemptSearchQuery } from "./quer
 import { useCan } from "../auth/useCan";
 import { useInsightFilters, type InsightFilterState, type OptionalFilter } from "../insight/useInsightFilters";
 import { useLengthUnit } from "../../lib/useLengthUnit";
+import { DownloadIcon } from "../../components/DownloadIcon";
 
 const filterKeys: readonly OptionalFilter[] = ["site", "patientType", "feedback", "instructor", "manikin"];
 
@@ -154,16 +155,7 @@ function AttemptList({ state }: { state: InsightFilterState }) {
             download
             className="inline-flex min-h-11 items-center gap-2 rounded-control border border-line-strong bg-surface px-4 font-medium text-dusk-800 hover:bg-dusk-50"
           >
-            <svg viewBox="0 0 20 20" className="size-4" aria-hidden="true">
-              <path
-                d="M10 3v9m0 0-3.5-3.5M10 12l3.5-3.5M4 14v2.5h12V14"
-                fill="none"
-                stroke="currentColor"
-                strokeWidth="1.8"
-                strokeLinecap="round"
-                strokeLinejoin="round"
-              />
-            </svg>
+            <DownloadIcon />
             Export CSV of all {formatCount(total)} attempts
           </a>
         )}

@@ -5,6 +5,7 @@ import type { ImportSummary } from "../../../shared/import/api";
 import { DataTable, type Column } from "../../components/DataTable";
 import { Notice } from "../../components/Notice";
 import { formatCount, plural } from "./labels";
+import { DownloadIcon } from "../../components/DownloadIcon";
 
 type Issue = ImportSummary["issues"][number] & { key: number };
 
@@ -126,16 +127,7 @@ export function ValidationReport({ summary, rejectedCsvUrl }: ValidationReportPr
                 download
                 className="inline-flex min-h-11 items-center gap-2 rounded-control border border-line-strong bg-surface px-4 font-medium text-dusk-800 hover:bg-dusk-50"
               >
-                <svg viewBox="0 0 20 20" className="size-4" aria-hidden="true">
-                  <path
-                    d="M10 3v9m0 0-3.5-3.5M10 12l3.5-3.5M4 14v2.5h12V14"
-                    fill="none"
-                    stroke="currentColor"
-                    strokeWidth="1.8"
-                    strokeLinecap="round"
-                    strokeLinejoin="round"
-                  />
-                </svg>
+                <DownloadIcon />
                 Download the refused rows (CSV)
               </a>
             )}

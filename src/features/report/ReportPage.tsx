@@ -22,6 +22,7 @@ import { SendHistory } from "./SendHistory";
 import { formatKb, VersionsPanel } from "./VersionsPanel";
 import { formatDateTime } from "../../lib/formatting";
 import "../../styles/print.css";
+import { DownloadIcon } from "../../components/DownloadIcon";
 
 export default function ReportPage() {
   // who prepares and sends the report: the text for funders, versions and sending
@@ -153,16 +154,7 @@ function ReportForPeriod({ period, coordinator }: { period: string; coordinator:
               download
               className="inline-flex min-h-11 items-center gap-2 rounded-control border border-dusk-700 bg-dusk-700 px-4 font-medium text-white hover:bg-dusk-800"
             >
-              <svg viewBox="0 0 20 20" className="size-4" aria-hidden="true">
-                <path
-                  d="M10 3v9m0 0-3.5-3.5M10 12l3.5-3.5M4 14v2.5h12V14"
-                  fill="none"
-                  stroke="currentColor"
-                  strokeWidth="1.8"
-                  strokeLinecap="round"
-                  strokeLinejoin="round"
-                />
-              </svg>
+              <DownloadIcon />
               Download PDF
               <span className="font-normal">
                 (version {latest.version}, {formatKb(latest.pdfBytes)})
