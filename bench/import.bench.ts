@@ -17,6 +17,7 @@ import os from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { quarterDates } from "../shared/period";
+import { ATTEMPTS_COLUMNS } from "../server/demo/importFiles";
 
 const SCALE = Number(process.env.QB_BENCH_SCALE ?? 1);
 const ATTEMPT_ROWS = Math.max(1000, Math.round(1_000_000 * SCALE));
@@ -60,8 +61,7 @@ function writeLines(file: string, header: string, count: number, line: (i: numbe
 }
 
 /** The device-summary columns of an attempts file, as both the bulk and the late import write them. */
-const ATTEMPTS_HEADER =
-  "attempt_id,class_id,learner,manikin,profile,feedback,started_at,duration_s,compressions,rate_cpm,depth_mm,depth_ok_pct,too_shallow_pct,too_deep_pct,rate_ok_pct,too_slow_pct,too_fast_pct,recoil_ok_pct,hands_on_pct,longest_pause_s,instructor_result";
+const ATTEMPTS_HEADER = ATTEMPTS_COLUMNS.join(",");
 
 const pad = (n: number, width = 2) => String(n).padStart(width, "0");
 

@@ -41,6 +41,7 @@ import { openDatabase } from "../server/db/client";
 import { DEMO_SCENARIO } from "../server/demo/scenario";
 import { createUser } from "../server/users/service";
 import { quarterDates } from "../shared/period";
+import { ATTEMPTS_COLUMNS } from "../server/demo/importFiles";
 
 /** The part of autocannon's API used here (the package ships no types). */
 interface LoadResult {
@@ -138,8 +139,7 @@ function writeImportFiles(dbFile: string): { classes: string; attempts: string }
   );
   const attempts = path.join(work, "load-attempts.csv");
   const fd = fs.openSync(attempts, "w");
-  let chunk =
-    "attempt_id,class_id,learner,manikin,profile,feedback,started_at,duration_s,compressions,rate_cpm,depth_mm,depth_ok_pct,too_shallow_pct,too_deep_pct,rate_ok_pct,too_slow_pct,too_fast_pct,recoil_ok_pct,hands_on_pct,longest_pause_s,instructor_result\n";
+  let chunk = `${ATTEMPTS_COLUMNS.join(",")}\n`;
   for (let i = 0; i < ROWS; i++) {
     const depthOk = 60 + (i % 40);
     chunk += `LOAD-${i},LOAD-C1,L-${i % 24},LOAD-MK1,adult,${i % 2 ? "live" : "hidden"},${CLASS_DATE}T10:00:00Z,120,230,112,54,${depthOk},${100 - depthOk},0,80,12,8,90,85,4,\n`;
