@@ -4,6 +4,7 @@ import path from "node:path";
 import Database from "better-sqlite3";
 import { drizzle, type BetterSQLite3Database } from "drizzle-orm/better-sqlite3";
 import { migrate } from "drizzle-orm/better-sqlite3/migrator";
+import { refreshInstructorValues } from "../metrics/instructorValues";
 import { projectRoot } from "../projectRoot";
 import * as schema from "./schema";
 
@@ -20,6 +21,10 @@ export function openDatabase(file: string, options: { migrate?: boolean } = {}):
   sqlite.pragma("busy_timeout = 15000");
   sqlite.pragma("synchronous = NORMAL");
   const db = drizzle({ client: sqlite, schema, casing: "snake_case" }) as Db;
-  if (options.migrate !== false) migrate(db, { migrationsFolder });
+  if (options.migrate !== false) {
+    migrate(db, { migrationsFolder });
+    // instructor-quarters a migration or an outside write left noted are built once here, not on every read
+    refreshInstructorValues(sqlite);
+  }
   return db;
 }

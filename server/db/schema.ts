@@ -360,32 +360,39 @@ export const networkTallies = sqliteTable(
   (t) => [primaryKey({ columns: [t.quarter, t.profile, t.feedback, t.policyVersion] })],
 );
 
-const summaryMetrics = ["score", "depth_ok_pct", "rate_ok_pct", "recoil_ok_pct", "hands_on_pct"] as const;
+export const summaryMetrics = ["score", "depth_ok_pct", "rate_ok_pct", "recoil_ok_pct", "hands_on_pct"] as const;
 
 /**
- * How many attempts of each group (the dimensions of attempt_tallies) have each value of a metric: the exact
- * distribution at the values as recorded, from which medians of filtered scopes and of each instructor are read
- * without touching attempts. Kept by the same triggers.
+ * Each instructor's exact distributions of the metrics with medians in one quarter, packed: for every patient
+ * type × feedback display they taught, each metric's ascending (value, count) pairs at the values as recorded
+ * (server/metrics/packedValues.ts). One row per instructor and quarter, so per-instructor medians and ranks
+ * over any range read a few thousand rows instead of one row per attempt and metric. Rebuilt from the
+ * attempts of the pairs noted in instructor_values_stale by the transaction that changed them; see
+ * docs/decisions/008-packed-instructor-distributions.md.
  */
-export const attemptValues = sqliteTable(
-  "attempt_values",
+export const instructorValues = sqliteTable(
+  "instructor_values",
   {
-    metric: text({ enum: summaryMetrics }).notNull(),
     quarter: text().notNull(),
     instructorId: integer().notNull(),
-    profile: text({ enum: patientTypes }).notNull(),
-    feedback: text({ enum: feedbackModes }).notNull(),
-    siteId: integer().notNull(),
-    manikinId: integer().notNull(),
-    value: real().notNull(),
-    count: integer().notNull(),
+    attempts: integer().notNull(),
+    packed: blob({ mode: "buffer" }).notNull(),
   },
-  (t) => [
-    // each instructor's values of a quarter in order, so per-instructor medians are read without a sort
-    primaryKey({ columns: [t.metric, t.quarter, t.instructorId, t.value, t.profile, t.feedback, t.siteId, t.manikinId] }),
-    index("attempt_values_instructor_idx").on(t.metric, t.instructorId, t.quarter),
-    index("attempt_values_site_idx").on(t.metric, t.siteId, t.quarter),
-  ],
+  (t) => [primaryKey({ columns: [t.quarter, t.instructorId] })],
+);
+
+/**
+ * Instructor-quarters whose attempts changed since their instructor_values row was built: noted by triggers on
+ * attempts (so no write, not even a hand edit, can leave a distribution behind unnoticed), rebuilt and removed
+ * before the writing service commits (refreshInstructorValues). Readers take a noted pair from its attempts.
+ */
+export const instructorValuesStale = sqliteTable(
+  "instructor_values_stale",
+  {
+    quarter: text().notNull(),
+    instructorId: integer().notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.quarter, t.instructorId] })],
 );
 
 /**

@@ -3,6 +3,7 @@
 import type Database from "better-sqlite3";
 import type { Db } from "../db/client";
 import { AppError, conflict, notFound } from "../errors";
+import { refreshInstructorValues } from "../metrics/instructorValues";
 import type { NewCodes } from "./codes";
 
 export interface UndoResult {
@@ -125,6 +126,7 @@ export function undoBatch(db: Db, batchId: number, userId: number | null): UndoR
     sqlite
       .prepare("UPDATE import_batches SET status = 'undone', undone_at = strftime('%Y-%m-%dT%H:%M:%fZ', 'now'), undone_by = ? WHERE id = ?")
       .run(userId, batchId);
+    refreshInstructorValues(sqlite);
     return { batchId, deleted, restored };
   });
   return run.immediate();

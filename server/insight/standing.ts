@@ -15,16 +15,17 @@ import { percentileRank } from "../../shared/stats";
 import type { Db } from "../db/client";
 import { instructors } from "../db/schema";
 import { instructorFunnel, type InstructorFunnel } from "../metrics/instructorFunnel";
-import { ceilingFigures, medianAtCeiling } from "../metrics/ceiling";
+import { ceilingFigures, medianAtCeiling, METRIC_CEILING } from "../metrics/ceiling";
+import { quantileOfPairs, shareAtLeast, type Pairs } from "../metrics/packedValues";
 import {
   addTally,
   emptyTally,
   medianOfCounts,
-  mergeCounts,
   talliesBy,
   talliesByPair,
   valueCounts,
-  valueCountsByInstructorStratum,
+  distributionsByInstructor,
+  countsOf,
   type StratumKey,
   type Tally,
   type ValueCounts,
@@ -42,8 +43,8 @@ import { errorLabels } from "../../shared/vocabulary";
 
 type MetricKey = (typeof standingMetricKeys)[number];
 
-/** Each instructor's distribution of one metric, from which medians and ceiling figures are read. */
-type Distributions = Map<number, ValueCounts>;
+/** Each instructor's distribution of one metric (as pairs), from which medians and ceiling figures are read. */
+type Distributions = Map<number, Pairs>;
 
 /** The figures every instructor's standing shares for the same filters: computed once per database state. */
 interface NetworkFigures {
@@ -64,15 +65,9 @@ function networkFigures(db: Db, network: ResolvedFilters, adjust: AdjustMode): N
     const scope = scopeOf(network);
     const byMetric = <T>(compute: (key: MetricKey) => T) => Object.fromEntries(standingMetricKeys.map((key) => [key, compute(key)])) as Record<MetricKey, T>;
     const tallies = talliesBy<number>(db, scope, "instructorId");
-    // one grouped read per metric gives every instructor's distribution in every stratum; an instructor's whole
-    // distribution is the merge of their strata (reading each stratum apart would scan the scope once per stratum)
-    const byStratum = byMetric((key) => valueCountsByInstructorStratum(db, key, scope));
-    const byInstructor = byMetric(
-      (key) =>
-        new Map(
-          [...byStratum[key]].map(([id, strata]): [number, ValueCounts] => [id, strata.size === 1 ? [...strata.values()][0] : mergeCounts(...strata.values())]),
-        ),
-    );
+    // one read of the packed distributions gives every instructor's distribution of every metric, in total and
+    // in each stratum
+    const { byInstructor, byStratum } = distributionsByInstructor(db, scope);
     const strata: NetworkFigures["strata"] = [];
     if (adjust === "case-mix") {
       for (const feedback of network.feedback === null ? feedbackModes : [network.feedback]) {
@@ -86,7 +81,7 @@ function networkFigures(db: Db, network: ResolvedFilters, adjust: AdjustMode): N
           if (attempts.size === 0) continue;
           const stratum: StratumKey = `${profile}|${feedback}`;
           const inStratum = (key: MetricKey): Distributions =>
-            new Map([...byStratum[key]].flatMap(([id, counts]): [number, ValueCounts][] => (counts.has(stratum) ? [[id, counts.get(stratum)!]] : [])));
+            new Map([...byStratum[key]].flatMap(([id, strata]): [number, Pairs][] => (strata.has(stratum) ? [[id, strata.get(stratum)!]] : [])));
           strata.push({ attempts, byInstructor: byMetric(inStratum) });
         }
       }
@@ -106,9 +101,9 @@ function networkFigures(db: Db, network: ResolvedFilters, adjust: AdjustMode): N
  * What instructors are ranked by: the median, or where the network's median sits at 100 % the share of
  * attempts at 100 % (ranks on tied medians would mean nothing).
  */
-type RankedFigure = (counts: ValueCounts) => number | null;
-const byMedian: RankedFigure = medianOfCounts;
-const byShareAtCeiling: RankedFigure = (counts) => ceilingFigures(counts).shareAtCeiling;
+type RankedFigure = (pairs: Pairs) => number | null;
+const byMedian: RankedFigure = (pairs) => quantileOfPairs(pairs, 0.5);
+const byShareAtCeiling: RankedFigure = (pairs) => shareAtLeast(pairs, METRIC_CEILING);
 
 /** My percentile rank among the shown instructors' figures (each instructor's distribution read by `figure`). */
 function rankAmong(distributions: Distributions, figure: RankedFigure, me: number, shownIds: ReadonlySet<number>): number | null {
@@ -163,7 +158,7 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters, adjus
   const shownIds = new Set(shown.map((row) => row.instructorId));
 
   const metrics = standingMetricKeys.map((key) => {
-    const myCounts = byInstructor[key].get(me) ?? [];
+    const myCounts = countsOf(byInstructor[key].get(me) ?? new Float64Array(0));
     // where the network's median sits at 100 % the median says nothing: show and rank the share at 100 % instead
     const atCeiling = medianAtCeiling(network[key]);
     const figure = atCeiling ? byShareAtCeiling : byMedian;
@@ -182,7 +177,11 @@ export function standing(db: Db, viewer: Viewer, filters: ResolvedFilters, adjus
   });
 
   const points = shown
-    .map((row) => ({ medianScore: medianOfCounts(byInstructor.score.get(row.instructorId)!)!, passRate: row.passed / row.n, isMe: row.instructorId === me }))
+    .map((row) => ({
+      medianScore: quantileOfPairs(byInstructor.score.get(row.instructorId)!, 0.5)!,
+      passRate: row.passed / row.n,
+      isMe: row.instructorId === me,
+    }))
     .sort((a, b) => a.medianScore - b.medianScore || a.passRate - b.passRate);
 
   const myErrors = tallies.get(me)?.errors ?? emptyTally().errors;

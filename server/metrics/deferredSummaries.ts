@@ -3,11 +3,12 @@
 // only notes each new attempt's id in summary_pending. Before the import commits, addPendingAttempts() adds the
 // noted attempts — as they stand then — to every summary table with one grouped statement per table, and
 // empties both tables. A rolled-back import leaves nothing behind, as its rows and notes roll back with it.
-// Changes to attempts already summarised keep their per-row triggers (drizzle/0005_attempt_summary_triggers.sql).
+// Changes to attempts already summarised keep their per-row triggers (drizzle/0005_attempt_summary_triggers.sql,
+// drizzle/0010_packed_instructor_values.sql).
 import type Database from "better-sqlite3";
 import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
-
-const METRICS = ["score", "depth_ok_pct", "rate_ok_pct", "recoil_ok_pct", "hands_on_pct"] as const;
+import { summaryMetrics } from "../db/schema";
+import { refreshInstructorValues } from "./instructorValues";
 
 const TALLY_SUMS = [
   ["n", "count(*)"],
@@ -35,8 +36,8 @@ function tallies(table: "attempt_tallies" | "network_tallies", keys: readonly st
     ON CONFLICT (${keys.join(", ")}) DO UPDATE SET ${addCounts(sums)}`;
 }
 
-function values(table: "attempt_values" | "network_values", keys: readonly string[], keyExpressions: readonly string[]): string[] {
-  return METRICS.map(
+function values(table: "network_values", keys: readonly string[], keyExpressions: readonly string[]): string[] {
+  return summaryMetrics.map(
     (metric) => `INSERT INTO ${table} (metric, ${keys.join(", ")}, value, count)
       SELECT '${metric}', ${keyExpressions.join(", ")}, a.${metric}, count(*)
       FROM ${PENDING} WHERE true GROUP BY ${keyExpressions.join(", ")}, a.${metric}
@@ -68,11 +69,8 @@ const GROUP_EXPRESSIONS = ["a.quarter", "a.profile", "a.feedback", "a.site_id", 
 const ADD_PENDING = [
   tallies("attempt_tallies", [...GROUP, "policy_version"], [...GROUP_EXPRESSIONS, "a.policy_version"]),
   tallies("network_tallies", ["quarter", "profile", "feedback", "policy_version"], ["a.quarter", "a.profile", "a.feedback", "a.policy_version"]),
-  ...values(
-    "attempt_values",
-    ["quarter", "instructor_id", "profile", "feedback", "site_id", "manikin_id"],
-    ["a.quarter", "a.instructor_id", "a.profile", "a.feedback", "a.site_id", "coalesce(a.manikin_id, 0)"],
-  ),
+  // the instructor-quarters of the new attempts are rebuilt from their attempts (refreshInstructorValues)
+  `INSERT OR IGNORE INTO instructor_values_stale (quarter, instructor_id) SELECT DISTINCT a.quarter, a.instructor_id FROM ${PENDING}`,
   ...values("network_values", ["quarter", "profile", "feedback"], ["a.quarter", "a.profile", "a.feedback"]),
   learners(
     "learner_tallies",
@@ -94,9 +92,8 @@ export function deferSummaries(sqlite: Database.Database): void {
 /** Adds the attempts noted since deferSummaries() to every summary and switches the per-row triggers back on. */
 export function addPendingAttempts(sqlite: Database.Database): void {
   const nothingNoted = sqlite.prepare("SELECT NOT EXISTS (SELECT 1 FROM summary_pending)").pluck().get() === 1;
-  if (nothingNoted) {
-    sqlite.prepare("DELETE FROM summary_deferral").run();
-    return;
-  }
-  for (const statement of ADD_PENDING) sqlite.prepare(statement).run();
+  if (nothingNoted) sqlite.prepare("DELETE FROM summary_deferral").run();
+  else for (const statement of ADD_PENDING) sqlite.prepare(statement).run();
+  // the new attempts' instructor-quarters, and those whose attempts the import changed in place
+  refreshInstructorValues(sqlite);
 }

@@ -1,13 +1,18 @@
-// Reads the attempt summaries (attempt_tallies, attempt_values; kept by triggers on attempts, see
-// docs/decisions/004-metric-summaries.md). Every attempt figure of the insight pages, the funder report and
-// the statistics command is a sum over tallies or an order statistic over value counts read here, so no
-// answer scans the attempts themselves and every answer counts the same way.
+// Reads the attempt summaries: tallies and value distributions kept in the transactions that write attempts
+// (docs/decisions/004-metric-summaries.md, 008-packed-instructor-distributions.md). Every attempt figure of the
+// insight pages, the funder report and the statistics command is a sum over tallies or an order statistic over
+// value counts read here, so every answer counts the same way; only medians narrowed to a site or a manikin
+// read the (few) attempts in scope.
 import { and, between, eq, sql, type SQL } from "drizzle-orm";
 import type { SQLiteColumn } from "drizzle-orm/sqlite-core";
 import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
-import { quartersBetween } from "../../shared/period";
 import type { Db } from "../db/client";
-import { attemptTallies, attemptValues, learnerTallies, networkTallies, networkValues } from "../db/schema";
+import { attemptTallies, learnerTallies, networkTallies, networkValues, summaryMetrics } from "../db/schema";
+import { DISTRIBUTION_COLUMNS, StrataValues, type DistributionRow } from "./instructorValues";
+import { forEachSection, mergePairs, quantileOfPairs, stratumOf, type Pairs, type StratumIndex, type SummaryMetric } from "./packedValues";
+
+/** Metrics whose distributions are kept (exact, at the values as recorded). */
+export type { SummaryMetric };
 
 /** What a figure can be narrowed to: a quarter range and any of the attempt dimensions. */
 export interface SummaryScope {
@@ -35,9 +40,6 @@ export interface Tally {
 
 /** Dimensions a tally or a distribution can be grouped by. */
 export type Dimension = "quarter" | "siteId" | "instructorId" | "manikinId" | "profile" | "feedback" | "policyVersion";
-
-/** Metrics whose distributions are kept (exact, at the values as recorded). */
-export type SummaryMetric = (typeof attemptValues.metric.enumValues)[number];
 
 type TallyTable = typeof attemptTallies | typeof networkTallies;
 
@@ -91,7 +93,7 @@ export function networkScope(from: string, to: string): SummaryScope {
   return { from, to, siteId: null, profile: null, feedback: null, instructorId: null, manikinId: null };
 }
 
-type ScopedTable = typeof attemptTallies | typeof attemptValues | typeof learnerTallies;
+type ScopedTable = typeof attemptTallies | typeof learnerTallies;
 
 /** The scope as conditions on any summary table that carries every dimension. */
 export function scopeConditions(table: ScopedTable, scope: SummaryScope): SQL {
@@ -209,24 +211,17 @@ export type ValueCounts = { value: number; count: number }[];
 
 /** Type-7 quantile of a distribution (Hyndman & Fan 1996; shared/stats `quantile` on the expanded values). */
 export function quantileOfCounts(counts: ValueCounts, p: number): number | null {
-  const n = counts.reduce((sum, entry) => sum + entry.count, 0);
-  if (n === 0) return null;
-  const h = (n - 1) * p;
-  const lowerIndex = Math.floor(h);
-  const upperIndex = Math.ceil(h);
-  let lower: number | null = null;
-  let upper: number | null = null;
-  let seen = 0;
-  for (const { value, count } of counts) {
-    seen += count;
-    if (lower === null && seen > lowerIndex) lower = value;
-    if (seen > upperIndex) {
-      upper = value;
-      break;
-    }
-  }
-  // written as shared/stats interpolates (lower + fraction · (upper − lower)), so both give the same last bit
-  return lower! + (h - lowerIndex) * (upper! - lower!);
+  return quantileOfPairs(pairsOf(counts), p);
+}
+
+/** A distribution as pairs (./packedValues). */
+function pairsOf(counts: ValueCounts): Pairs {
+  const pairs = new Float64Array(counts.length * 2);
+  counts.forEach(({ value, count }, i) => {
+    pairs[2 * i] = value;
+    pairs[2 * i + 1] = count;
+  });
+  return pairs;
 }
 
 /**
@@ -279,19 +274,15 @@ export function valueCounts(db: Db, metric: SummaryMetric, scope: SummaryScope):
       .orderBy(networkValues.value)
       .all();
   }
-  return db
-    .select({ value: attemptValues.value, count: sql<number>`sum(${attemptValues.count})` })
-    .from(attemptValues)
-    .where(and(eq(attemptValues.metric, metric), scopeConditions(attemptValues, scope)))
-    .groupBy(attemptValues.value)
-    .orderBy(attemptValues.value)
-    .all();
+  const lists: Pairs[] = [];
+  const wanted = summaryMetrics.indexOf(metric);
+  forEachDistribution(db, scope, (_quarter, _instructorId, _stratum, m, pairs) => {
+    if (m === wanted) lists.push(pairs);
+  });
+  return countsOf(mergePairs(lists));
 }
 
-/**
- * Rows (key, value, count) in key then value order, gathered into one distribution per key. Read as plain
- * arrays (better-sqlite3's raw mode): per-instructor distributions run to tens of thousands of rows.
- */
+/** Rows (key, value, count) in key then value order, gathered into one distribution per key. */
 function groupRows(db: Db, query: { toSQL(): { sql: string; params: unknown[] } }): Map<string | number, ValueCounts> {
   const { sql: text, params } = query.toSQL();
   const byKey = new Map<string | number, ValueCounts>();
@@ -311,31 +302,17 @@ function groupRows(db: Db, query: { toSQL(): { sql: string; params: unknown[] } 
   return byKey;
 }
 
-/**
- * A per-instructor read over several quarters, one quarter at a time: within a quarter the summaries' key
- * hands the rows over by instructor and value, so SQLite groups them without sorting; sorting a range's
- * rows instead costs seconds at a million attempts. Each key's quarters are merged once, at the end.
- */
-function quarterByQuarter<K>(scope: SummaryScope, read: (quarter: SummaryScope) => Map<K, ValueCounts>): Map<K, ValueCounts> {
-  const lists = new Map<K, ValueCounts[]>();
-  for (const quarter of quartersBetween(scope.from, scope.to)) {
-    for (const [key, counts] of read({ ...scope, from: quarter, to: quarter })) {
-      const list = lists.get(key);
-      if (list) list.push(counts);
-      else lists.set(key, [counts]);
-    }
-  }
-  return new Map([...lists].map(([key, list]) => [key, list.length === 1 ? list[0] : mergeCounts(...list)]));
-}
+/** Dimensions a distribution can be grouped by. */
+export type DistributionDimension = "quarter" | "instructorId" | "profile" | "feedback";
 
 /** The distribution of a metric for each value of `dimension`. */
 export function valueCountsBy<K extends string | number>(
   db: Db,
   metric: SummaryMetric,
   scope: SummaryScope,
-  dimension: Exclude<Dimension, "policyVersion">,
+  dimension: DistributionDimension,
 ): Map<K, ValueCounts> {
-  if (isNetworkWide(scope) && (dimension === "quarter" || dimension === "profile" || dimension === "feedback")) {
+  if (isNetworkWide(scope) && dimension !== "instructorId") {
     const column = networkValues[dimension];
     return groupRows(
       db,
@@ -347,62 +324,152 @@ export function valueCountsBy<K extends string | number>(
         .orderBy(column, networkValues.value),
     ) as Map<K, ValueCounts>;
   }
-  if (dimension === "instructorId" && scope.from !== scope.to) {
-    return quarterByQuarter(scope, (one) => valueCountsBy<K>(db, metric, one, dimension));
-  }
-  const column = attemptValues[dimension];
-  return groupRows(
-    db,
-    db
-      .select({ key: column, value: attemptValues.value, count: sql<number>`sum(${attemptValues.count})` })
-      .from(attemptValues)
-      .where(and(eq(attemptValues.metric, metric), scopeConditions(attemptValues, scope)))
-      .groupBy(column, attemptValues.value)
-      .orderBy(column, attemptValues.value),
-  ) as Map<K, ValueCounts>;
+  const wanted = summaryMetrics.indexOf(metric);
+  const keyOf: (quarter: string, instructorId: number, stratum: StratumIndex) => string | number =
+    dimension === "quarter"
+      ? (quarter) => quarter
+      : dimension === "instructorId"
+        ? (_quarter, instructorId) => instructorId
+        : (_quarter, _instructorId, stratum) => stratumOf(stratum)[dimension];
+  const lists = new Map<string | number, Pairs[]>();
+  forEachDistribution(db, scope, (quarter, instructorId, stratum, m, pairs) => {
+    if (m !== wanted) return;
+    const key = keyOf(quarter, instructorId, stratum);
+    const list = lists.get(key);
+    if (list) list.push(pairs);
+    else lists.set(key, [pairs]);
+  });
+  return new Map([...lists].map(([key, list]) => [key as K, countsOf(mergePairs(list))]));
 }
 
 /** A stratum of the case-mix adjustment: `${profile}|${feedback}`. */
 export type StratumKey = `${string}|${string}`;
 
 /**
- * Each instructor's distribution of a metric in each stratum (patient type × feedback display) from one grouped
- * read of the scope, instead of one read per stratum: keyed by instructor id, then stratum.
+ * Per metric, each instructor's distribution over the scope, in total and in each stratum (patient type ×
+ * feedback display), as pairs (./packedValues): ranking every instructor reads figures off them directly.
  */
-export function valueCountsByInstructorStratum(db: Db, metric: SummaryMetric, scope: SummaryScope): Map<number, Map<StratumKey, ValueCounts>> {
-  // grouped in the primary key's order (instructor, value, then stratum), so within a quarter SQLite reads the
-  // groups off the key without a sort; each stratum's values still arrive in ascending order
-  const { sql: text, params } = db
-    .select({
-      instructorId: attemptValues.instructorId,
-      value: attemptValues.value,
-      profile: attemptValues.profile,
-      feedback: attemptValues.feedback,
-      count: sql<number>`sum(${attemptValues.count})`,
-    })
-    .from(attemptValues)
-    .where(and(eq(attemptValues.metric, metric), scopeConditions(attemptValues, scope)))
-    .groupBy(attemptValues.instructorId, attemptValues.value, attemptValues.profile, attemptValues.feedback)
-    .orderBy(attemptValues.instructorId, attemptValues.value, attemptValues.profile, attemptValues.feedback)
-    .toSQL();
-  const byInstructor = new Map<number, Map<StratumKey, ValueCounts>>();
-  let strata = new Map<StratumKey, ValueCounts>();
-  let lastInstructor: number | undefined;
-  for (const [instructorId, value, profile, feedback, count] of db.$client
-    .prepare(text)
-    .raw(true)
-    .iterate(...params) as Iterable<[number, number, string, string, number]>) {
-    if (instructorId !== lastInstructor) {
-      strata = new Map();
-      byInstructor.set(instructorId, strata);
-      lastInstructor = instructorId;
+export interface InstructorDistributions {
+  byInstructor: Record<SummaryMetric, Map<number, Pairs>>;
+  byStratum: Record<SummaryMetric, Map<number, Map<StratumKey, Pairs>>>;
+}
+
+/**
+ * Every metric's distribution for each instructor, in total and in each stratum of the scope, from one read of
+ * the packed distributions: an instructor-quarter row carries all metrics and strata.
+ */
+export function distributionsByInstructor(db: Db, scope: SummaryScope): InstructorDistributions {
+  // metric → instructor → stratum → the quarters' pairs
+  const lists = summaryMetrics.map(() => new Map<number, Map<StratumIndex, Pairs[]>>());
+  forEachDistribution(db, scope, (_quarter, instructorId, stratum, m, pairs) => {
+    let strata = lists[m].get(instructorId);
+    if (!strata) lists[m].set(instructorId, (strata = new Map()));
+    const list = strata.get(stratum);
+    if (list) list.push(pairs);
+    else strata.set(stratum, [pairs]);
+  });
+  const stratumKeyOf = (index: StratumIndex): StratumKey => {
+    const { profile, feedback } = stratumOf(index);
+    return `${profile}|${feedback}`;
+  };
+  const byInstructor = {} as InstructorDistributions["byInstructor"];
+  const byStratum = {} as InstructorDistributions["byStratum"];
+  summaryMetrics.forEach((metric, m) => {
+    byInstructor[metric] = new Map();
+    byStratum[metric] = new Map();
+    for (const [instructorId, strata] of lists[m]) {
+      const merged = [...strata.values()].map(mergePairs);
+      byInstructor[metric].set(instructorId, mergePairs(merged));
+      byStratum[metric].set(instructorId, new Map([...strata.keys()].map((stratum, i) => [stratumKeyOf(stratum), merged[i]])));
     }
-    const stratum: StratumKey = `${profile}|${feedback}`;
-    let counts = strata.get(stratum);
-    if (!counts) strata.set(stratum, (counts = []));
-    counts.push({ value, count });
+  });
+  return { byInstructor, byStratum };
+}
+
+type DistributionVisitor = (quarter: string, instructorId: number, stratum: StratumIndex, metric: number, pairs: Pairs) => void;
+
+/**
+ * Visits the distributions of every instructor-quarter in scope, by stratum and metric index (summaryMetrics).
+ * Packed rows serve scopes of quarters, an instructor, a patient type and a feedback display; a site or a
+ * manikin narrows below the packed rows, so those scopes — a small share of the attempts — and instructor-quarters
+ * noted as changed since their row was built are read from the attempts themselves.
+ */
+function forEachDistribution(db: Db, scope: SummaryScope, visit: DistributionVisitor): void {
+  const wantStratum = (stratum: StratumIndex) => {
+    const { profile, feedback } = stratumOf(stratum);
+    return (scope.profile === null || scope.profile === profile) && (scope.feedback === null || scope.feedback === feedback);
+  };
+  const sqlite = db.$client;
+  const quarterCondition = scope.from === scope.to ? "quarter = ?" : "quarter BETWEEN ? AND ?";
+  const quarterParams = scope.from === scope.to ? [scope.from] : [scope.from, scope.to];
+  const instructorCondition = scope.instructorId === null ? "" : " AND instructor_id = ?";
+  const instructorParams = scope.instructorId === null ? [] : [scope.instructorId];
+  const fromAttempts = (where: string, params: unknown[]) => {
+    const byGroup = new Map<string, { quarter: string; instructorId: number; values: StrataValues }>();
+    for (const row of sqlite
+      .prepare(`SELECT ${DISTRIBUTION_COLUMNS.join(", ")} FROM attempts WHERE ${where}`)
+      .raw(true)
+      .iterate(...params) as Iterable<DistributionRow>) {
+      const key = `${row[0]}|${row[1]}`;
+      let group = byGroup.get(key);
+      if (!group) byGroup.set(key, (group = { quarter: row[0], instructorId: row[1], values: new StrataValues() }));
+      group.values.add(row);
+    }
+    for (const { quarter, instructorId, values } of byGroup.values()) {
+      for (const [stratum, byMetric] of values.pairs()) {
+        if (wantStratum(stratum)) byMetric.forEach((pairs, m) => visit(quarter, instructorId, stratum, m, pairs));
+      }
+    }
+  };
+
+  if (scope.siteId !== null || scope.manikinId !== null) {
+    const parts = [quarterCondition + instructorCondition];
+    const params: unknown[] = [...quarterParams, ...instructorParams];
+    if (scope.siteId !== null) {
+      parts.push("site_id = ?");
+      params.push(scope.siteId);
+    }
+    if (scope.manikinId !== null) parts.push(scope.manikinId === 0 ? "manikin_id IS NULL" : `manikin_id = ${Number(scope.manikinId)}`);
+    if (scope.profile !== null) {
+      parts.push("profile = ?");
+      params.push(scope.profile);
+    }
+    if (scope.feedback !== null) {
+      parts.push("feedback = ?");
+      params.push(scope.feedback);
+    }
+    fromAttempts(parts.join(" AND "), params);
+    return;
   }
-  return byInstructor;
+
+  const noted = new Set(
+    (
+      sqlite
+        .prepare(`SELECT quarter, instructor_id FROM instructor_values_stale WHERE ${quarterCondition}${instructorCondition}`)
+        .raw(true)
+        .all(...quarterParams, ...instructorParams) as [string, number][]
+    ).map(([quarter, instructorId]) => `${quarter}|${instructorId}`),
+  );
+  for (const [quarter, instructorId, packed] of sqlite
+    .prepare(`SELECT quarter, instructor_id, packed FROM instructor_values WHERE ${quarterCondition}${instructorCondition}`)
+    .raw(true)
+    .iterate(...quarterParams, ...instructorParams) as Iterable<[string, number, Buffer]>) {
+    if (noted.has(`${quarter}|${instructorId}`)) continue;
+    forEachSection(packed, (stratum, m, pairs) => {
+      if (wantStratum(stratum)) visit(quarter, instructorId, stratum, m, pairs);
+    });
+  }
+  for (const key of noted) {
+    const [quarter, instructorId] = key.split("|");
+    fromAttempts("quarter = ? AND instructor_id = ?", [quarter, Number(instructorId)]);
+  }
+}
+
+/** Pairs as a distribution of (value, count) entries. */
+export function countsOf(pairs: Pairs): ValueCounts {
+  const counts: ValueCounts = new Array(pairs.length / 2);
+  for (let i = 0; i < pairs.length; i += 2) counts[i / 2] = { value: pairs[i], count: pairs[i + 1] };
+  return counts;
 }
 
 /** The median of a metric over the attempts in scope; null when there are none. */
@@ -411,12 +478,7 @@ export function medianIn(db: Db, metric: SummaryMetric, scope: SummaryScope): nu
 }
 
 /** The median of a metric for each value of `dimension`. */
-export function mediansBy<K extends string | number>(
-  db: Db,
-  metric: SummaryMetric,
-  scope: SummaryScope,
-  dimension: Exclude<Dimension, "policyVersion">,
-): Map<K, number> {
+export function mediansBy<K extends string | number>(db: Db, metric: SummaryMetric, scope: SummaryScope, dimension: DistributionDimension): Map<K, number> {
   return new Map([...valueCountsBy<K>(db, metric, scope, dimension)].map(([key, counts]) => [key, medianOfCounts(counts)!]));
 }
 

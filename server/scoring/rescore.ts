@@ -7,6 +7,7 @@ import { bandFor, type NetworkPolicy, type PatientType } from "../../shared/scor
 import type { Db } from "../db/client";
 import { currentPolicy } from "../policy/service";
 import { decodeStream, tenthsToMm } from "../streams/codec";
+import { refreshInstructorValues } from "../metrics/instructorValues";
 
 const BATCH = 5_000;
 
@@ -99,6 +100,7 @@ export function rescoreAttempts(db: Db, fromQuarter?: string): RescoreResult {
       examined += rows.length;
       after = rows[rows.length - 1].rowid;
     }
+    refreshInstructorValues(sqlite);
     return { version, examined, changed };
   })();
 }
