@@ -2,6 +2,7 @@ CREATE TABLE `instructor_values` (
 	`quarter` text NOT NULL,
 	`instructor_id` integer NOT NULL,
 	`attempts` integer NOT NULL,
+	`tallies` blob NOT NULL,
 	`packed` blob NOT NULL,
 	PRIMARY KEY(`quarter`, `instructor_id`)
 );
@@ -92,8 +93,8 @@ CREATE TRIGGER attempts_tally_delete AFTER DELETE ON attempts WHEN old.id NOT IN
   INSERT OR IGNORE INTO instructor_values_stale (quarter, instructor_id) VALUES (old.quarter, old.instructor_id);
 END;
 --> statement-breakpoint
-CREATE TRIGGER attempts_values_update AFTER UPDATE OF quarter, profile, feedback, site_id, instructor_id, manikin_id, score, depth_ok_pct, rate_ok_pct, recoil_ok_pct, hands_on_pct ON attempts
-  WHEN (old.quarter IS NOT new.quarter OR old.profile IS NOT new.profile OR old.feedback IS NOT new.feedback OR old.site_id IS NOT new.site_id OR old.instructor_id IS NOT new.instructor_id OR old.manikin_id IS NOT new.manikin_id OR old.score IS NOT new.score OR old.depth_ok_pct IS NOT new.depth_ok_pct OR old.rate_ok_pct IS NOT new.rate_ok_pct OR old.recoil_ok_pct IS NOT new.recoil_ok_pct OR old.hands_on_pct IS NOT new.hands_on_pct) AND old.id NOT IN (SELECT id FROM summary_pending)
+CREATE TRIGGER attempts_values_update AFTER UPDATE OF quarter, profile, feedback, site_id, instructor_id, manikin_id, passed, instructor_result, error_mask, compressions, score, depth_ok_pct, rate_ok_pct, recoil_ok_pct, hands_on_pct ON attempts
+  WHEN (old.quarter IS NOT new.quarter OR old.profile IS NOT new.profile OR old.feedback IS NOT new.feedback OR old.site_id IS NOT new.site_id OR old.instructor_id IS NOT new.instructor_id OR old.manikin_id IS NOT new.manikin_id OR old.passed IS NOT new.passed OR old.instructor_result IS NOT new.instructor_result OR old.error_mask IS NOT new.error_mask OR old.compressions IS NOT new.compressions OR old.score IS NOT new.score OR old.depth_ok_pct IS NOT new.depth_ok_pct OR old.rate_ok_pct IS NOT new.rate_ok_pct OR old.recoil_ok_pct IS NOT new.recoil_ok_pct OR old.hands_on_pct IS NOT new.hands_on_pct) AND old.id NOT IN (SELECT id FROM summary_pending)
 BEGIN
   INSERT INTO network_values (metric, quarter, profile, feedback, value, count)
   VALUES

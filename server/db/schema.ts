@@ -363,9 +363,9 @@ export const networkTallies = sqliteTable(
 export const summaryMetrics = ["score", "depth_ok_pct", "rate_ok_pct", "recoil_ok_pct", "hands_on_pct"] as const;
 
 /**
- * Each instructor's exact distributions of the metrics with medians in one quarter, packed: for every patient
- * type × feedback display they taught, each metric's ascending (value, count) pairs at the values as recorded
- * (server/metrics/packedValues.ts). One row per instructor and quarter, so per-instructor medians and ranks
+ * Each instructor's tallies and exact distributions of the metrics with medians in one quarter, packed: for every
+ * patient type × feedback display they taught, the counts of attempt_tallies and each metric's ascending
+ * (value, count) pairs at the values as recorded (server/metrics/packedValues.ts). One row per instructor and quarter, so per-instructor medians and ranks
  * over any range read a few thousand rows instead of one row per attempt and metric. Rebuilt from the
  * attempts of the pairs noted in instructor_values_stale by the transaction that changed them; see
  * docs/decisions/008-packed-instructor-distributions.md.
@@ -376,6 +376,8 @@ export const instructorValues = sqliteTable(
     quarter: text().notNull(),
     instructorId: integer().notNull(),
     attempts: integer().notNull(),
+    // per stratum, the counts of attempt_tallies; stored before `packed`, so reading it alone stays on the first page
+    tallies: blob({ mode: "buffer" }).notNull(),
     packed: blob({ mode: "buffer" }).notNull(),
   },
   (t) => [primaryKey({ columns: [t.quarter, t.instructorId] })],
@@ -458,6 +460,26 @@ export const learnerQuarters = sqliteTable(
     prevPassQuarter: text(),
   },
   (t) => [primaryKey({ columns: [t.quarter, t.learner] }), index("learner_quarters_learner_idx").on(t.learner, t.quarter)],
+);
+
+/**
+ * learner_quarters counted by quarter and the learner's previous quarter (with attempts, with a pass; '' for
+ * none): the network's learner outcomes over any range are a sum over a few dozen rows instead of a row per
+ * learner and quarter. Kept by triggers on learner_quarters (drizzle/0011_learner_quarter_counts.sql).
+ */
+export const learnerQuarterCounts = sqliteTable(
+  "learner_quarter_counts",
+  {
+    quarter: text().notNull(),
+    prevQuarter: text().notNull(),
+    prevPassQuarter: text().notNull(),
+    learners: integer().notNull(),
+    /** Learners whose first attempt of the quarter passed. */
+    firstPassed: integer().notNull(),
+    /** Learners with a pass in the quarter. */
+    withPass: integer().notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.quarter, t.prevQuarter, t.prevPassQuarter] })],
 );
 
 /**

@@ -4,7 +4,7 @@
 import { can } from "../../shared/permissions";
 import { releaseGrid, releaseShows, type GridCell, type Release } from "../../shared/suppression";
 import type { Db } from "../db/client";
-import { countsByGrid, type Dimension, type SummaryScope } from "../metrics/summaries";
+import { countsByGrid, quartersWithAttempts, type Dimension, type SummaryScope } from "../metrics/summaries";
 import { cached } from "./cache";
 import type { Viewer } from "./viewer";
 
@@ -38,14 +38,17 @@ function narrowsBySite(viewer: Viewer): boolean {
   return can(viewer.user, "readNetwork");
 }
 
-function releaseFor(db: Db, viewer: Viewer, measure: ReleaseMeasure): Release {
+/**
+ * The release of one quarter's cells. Every level of LEVELS keeps the quarter, so pools never span quarters and
+ * each quarter's release is decided from its own cells alone: an answer reads the quarters it covers, not the grid.
+ */
+function releaseFor(db: Db, viewer: Viewer, measure: ReleaseMeasure, quarter: string): Release {
   const own = viewer.ownInstructorId;
   const rule = { minCount: viewer.suppressionMinCount, minInstructors: viewer.suppressionMinInstructors };
   const bySite = narrowsBySite(viewer);
-  return cached(db, `release|${measure}|${own ?? ""}|${bySite}|${rule.minCount}|${rule.minInstructors}`, () => {
+  return cached(db, `release|${quarter}|${measure}|${own ?? ""}|${bySite}|${rule.minCount}|${rule.minInstructors}`, () => {
     const cells = new Map<string, { coords: (string | number)[]; others: Map<number, number> }>();
-    // one read of the summaries per database state, shared by every viewer's release
-    const rows = cached(db, "release-grid", () => countsByGrid(db, [...GRID, "instructorId"]));
+    const rows = countsByGrid(db, [...GRID, "instructorId"], quarter);
     for (const row of rows) {
       const coords = row.key.slice(0, GRID.length);
       if (!bySite) coords[SITE] = coords[MANIKIN] = WHOLE;
@@ -81,5 +84,8 @@ export function mayShow(db: Db, viewer: Viewer, scope: SummaryScope, measure: Re
   if (scope.instructorId !== null) return scope.instructorId === viewer.ownInstructorId;
   // a filter the viewer's grid does not hold is never theirs (the filters refuse it before this)
   if (!narrowsBySite(viewer) && (scope.siteId !== null || scope.manikinId !== null)) return false;
-  return releaseShows(releaseFor(db, viewer, measure), selects(scope));
+  const shows = selects(scope);
+  return quartersWithAttempts(db)
+    .filter((quarter) => quarter >= scope.from && quarter <= scope.to)
+    .every((quarter) => releaseShows(releaseFor(db, viewer, measure, quarter), shows));
 }

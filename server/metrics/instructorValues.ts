@@ -1,33 +1,75 @@
-// Builds instructor_values — each instructor's packed distributions per quarter (./packedValues.ts) — from the
-// attempts. Triggers on attempts note every instructor-quarter whose attempts change in instructor_values_stale;
-// every service that writes attempts calls refreshInstructorValues() before it commits, so readers normally
-// find nothing noted. A pair still noted (a hand edit, a write from outside the services) is read from its
-// attempts by the reader, so an answer is never built on an outdated distribution.
+// Builds instructor_values — each instructor's tallies and packed distributions per quarter and stratum
+// (./packedValues.ts) — from the attempts. Triggers on attempts note every instructor-quarter whose attempts
+// change in instructor_values_stale; every service that writes attempts calls refreshInstructorValues() before
+// it commits, so readers normally find nothing noted. A pair still noted (a hand edit, a write from outside the
+// services) is read from its attempts by the reader, so an answer is never built on an outdated row.
 import type Database from "better-sqlite3";
+import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
 import { summaryMetrics } from "../db/schema";
-import { pack, pairsOf, stratumIndexOf, type Pairs, type StratumIndex } from "./packedValues";
+import { pack, packTallies, pairsOf, stratumIndexOf, TALLY_FIELDS, type Pairs, type StratumIndex } from "./packedValues";
 
-/** The attempt columns an instructor-quarter's distributions are built from, in this order. */
-export const DISTRIBUTION_COLUMNS = ["quarter", "instructor_id", "profile", "feedback", ...summaryMetrics] as const;
+/** The attempt columns an instructor-quarter's row is built from, in this order. */
+export const INSTRUCTOR_ROW_COLUMNS = [
+  "quarter",
+  "instructor_id",
+  "profile",
+  "feedback",
+  "passed",
+  "instructor_result",
+  "error_mask",
+  "compressions",
+  ...summaryMetrics,
+] as const;
 
-export type DistributionRow = [quarter: string, instructorId: number, profile: string, feedback: string, ...values: number[]];
+export type InstructorRow = [
+  quarter: string,
+  instructorId: number,
+  profile: string,
+  feedback: string,
+  passed: number,
+  instructorResult: string | null,
+  errorMask: number,
+  compressions: number,
+  ...values: number[],
+];
 
-/** Values of each metric per stratum, gathered from attempt rows of one instructor-quarter. */
+const FIRST_VALUE = 8;
+
+/** Tallies and values of each metric per stratum, gathered from the attempt rows of one instructor-quarter. */
 export class StrataValues {
-  private readonly strata = new Map<StratumIndex, number[][]>();
+  private readonly values = new Map<StratumIndex, number[][]>();
+  private readonly counts = new Map<StratumIndex, Float64Array>();
   attempts = 0;
 
-  add(row: DistributionRow): void {
+  add(row: InstructorRow): void {
     const stratum = stratumIndexOf(row[2], row[3]);
-    let values = this.strata.get(stratum);
-    if (!values) this.strata.set(stratum, (values = summaryMetrics.map(() => [])));
-    for (let m = 0; m < summaryMetrics.length; m++) values[m].push(row[4 + m] as number);
+    let values = this.values.get(stratum);
+    let tally = this.counts.get(stratum);
+    if (!values || !tally) {
+      this.values.set(stratum, (values = summaryMetrics.map(() => [])));
+      this.counts.set(stratum, (tally = new Float64Array(TALLY_FIELDS)));
+    }
+    for (let m = 0; m < summaryMetrics.length; m++) values[m].push(row[FIRST_VALUE + m] as number);
+    const [, , , , passed, judged, errorMask, compressions] = row;
+    // the fields of TALLY_FIELDS, counted as the tally triggers count them
+    tally[0] += 1;
+    tally[1] += passed;
+    if (judged === "pass") tally[passed ? 2 : 3] += 1;
+    if (judged === "fail") tally[passed ? 4 : 5] += 1;
+    if (errorMask !== 0) tally[6] += 1;
+    tally[7] += compressions;
+    for (let bit = 0; bit < attemptErrorNames.length; bit++) tally[8 + bit] += (errorMask >> bit) & 1;
     this.attempts += 1;
   }
 
   /** Each stratum's pairs per metric index. */
   pairs(): Map<StratumIndex, Pairs[]> {
-    return new Map([...this.strata].map(([stratum, values]) => [stratum, values.map(pairsOf)]));
+    return new Map([...this.values].map(([stratum, values]) => [stratum, values.map(pairsOf)]));
+  }
+
+  /** Each stratum's tally fields. */
+  tallies(): ReadonlyMap<StratumIndex, Float64Array> {
+    return this.counts;
   }
 }
 
@@ -35,18 +77,18 @@ export class StrataValues {
 export function refreshInstructorValues(sqlite: Database.Database): number {
   const noted = sqlite.prepare("SELECT quarter, instructor_id FROM instructor_values_stale").raw(true).all() as [string, number][];
   if (noted.length === 0) return 0;
-  const rowsOf = sqlite.prepare(`SELECT ${DISTRIBUTION_COLUMNS.join(", ")} FROM attempts WHERE instructor_id = ? AND quarter = ?`).raw(true);
+  const rowsOf = sqlite.prepare(`SELECT ${INSTRUCTOR_ROW_COLUMNS.join(", ")} FROM attempts WHERE instructor_id = ? AND quarter = ?`).raw(true);
   const save = sqlite.prepare(
-    `INSERT INTO instructor_values (quarter, instructor_id, attempts, packed) VALUES (?, ?, ?, ?)
-     ON CONFLICT (quarter, instructor_id) DO UPDATE SET attempts = excluded.attempts, packed = excluded.packed`,
+    `INSERT INTO instructor_values (quarter, instructor_id, attempts, tallies, packed) VALUES (?, ?, ?, ?, ?)
+     ON CONFLICT (quarter, instructor_id) DO UPDATE SET attempts = excluded.attempts, tallies = excluded.tallies, packed = excluded.packed`,
   );
   const remove = sqlite.prepare("DELETE FROM instructor_values WHERE quarter = ? AND instructor_id = ?");
   const rebuild = () => {
     for (const [quarter, instructorId] of noted) {
       const values = new StrataValues();
-      for (const row of rowsOf.iterate(instructorId, quarter) as Iterable<DistributionRow>) values.add(row);
+      for (const row of rowsOf.iterate(instructorId, quarter) as Iterable<InstructorRow>) values.add(row);
       if (values.attempts === 0) remove.run(quarter, instructorId);
-      else save.run(quarter, instructorId, values.attempts, pack(values.pairs()));
+      else save.run(quarter, instructorId, values.attempts, packTallies(values.tallies()), pack(values.pairs()));
     }
     sqlite.prepare("DELETE FROM instructor_values_stale").run();
   };

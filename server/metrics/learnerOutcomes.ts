@@ -3,11 +3,11 @@
 // earliest quarter of the period, by start time, ties by attempt id) and how many passed at least once. Recorded completion in the class logs counts
 // learners, so "passed at least once" is the like-for-like figure to set beside it. One definition, used by
 // the overview, the funder report and the statistics command; read from learner_tallies (each learner's
-// attempts, passes and earliest attempt per group) or, for the whole network, learner_quarters (the same per
-// learner and quarter) — both kept by triggers, never read from the attempts themselves.
+// attempts, passes and earliest attempt per group) or, for the whole network, learner_quarter_counts (learner
+// quarters counted by their previous quarters) — kept by triggers, never read from the attempts themselves.
 import { sql } from "drizzle-orm";
 import type { Db } from "../db/client";
-import { learnerQuarters, learnerTallies } from "../db/schema";
+import { learnerQuarterCounts, learnerTallies } from "../db/schema";
 import { scopeConditions, type SummaryScope } from "./summaries";
 
 export interface LearnerOutcomes {
@@ -26,15 +26,14 @@ export function learnerOutcomes(db: Db, scope: SummaryScope): LearnerOutcomes {
   const networkWide = scope.siteId === null && scope.profile === null && scope.feedback === null && scope.instructorId === null && scope.manikinId === null;
   if (networkWide) {
     // each learner counts once, at their earliest quarter in the period (the row whose previous quarter lies
-    // before it), and as passed at least once at their earliest quarter with a pass in the period
-    const firstInPeriod = sql`(${learnerQuarters.prevQuarter} IS NULL OR ${learnerQuarters.prevQuarter} < ${scope.from})`;
-    const firstPassInPeriod = sql`(${learnerQuarters.prevPassQuarter} IS NULL OR ${learnerQuarters.prevPassQuarter} < ${scope.from})`;
+    // before it), and as passed at least once at their earliest quarter with a pass in the period; the rows are
+    // counted by quarter and previous quarters ('' for none, before every quarter) in learner_quarter_counts
     return outcomesOf(
       db.get<OutcomeRow>(sql`
-        SELECT coalesce(sum(${firstInPeriod}), 0) AS learners,
-          sum(CASE WHEN ${firstInPeriod} THEN ${learnerQuarters.firstPassed} ELSE 0 END) AS first_passed,
-          sum(${learnerQuarters.passed} > 0 AND ${firstPassInPeriod}) AS ever_passed
-        FROM ${learnerQuarters} WHERE ${learnerQuarters.quarter} BETWEEN ${scope.from} AND ${scope.to}`),
+        SELECT coalesce(sum(CASE WHEN ${learnerQuarterCounts.prevQuarter} < ${scope.from} THEN ${learnerQuarterCounts.learners} END), 0) AS learners,
+          sum(CASE WHEN ${learnerQuarterCounts.prevQuarter} < ${scope.from} THEN ${learnerQuarterCounts.firstPassed} END) AS first_passed,
+          sum(CASE WHEN ${learnerQuarterCounts.prevPassQuarter} < ${scope.from} THEN ${learnerQuarterCounts.withPass} END) AS ever_passed
+        FROM ${learnerQuarterCounts} WHERE ${learnerQuarterCounts.quarter} BETWEEN ${scope.from} AND ${scope.to}`),
     );
   }
   // narrowed to a site, instructor, manikin, patient type or feedback display: several rows per learner, of

@@ -21,8 +21,13 @@ export function stratumIndexOf(profile: string, feedback: string): StratumIndex 
   return patientTypes.indexOf(profile as PatientType) * feedbackModes.length + feedbackModes.indexOf(feedback as FeedbackMode);
 }
 
+/** Every stratum's patient type and feedback display, by index (looked up, not built, in loops over every row). */
+export const STRATA: readonly { profile: PatientType; feedback: FeedbackMode }[] = patientTypes.flatMap((profile) =>
+  feedbackModes.map((feedback) => ({ profile, feedback })),
+);
+
 export function stratumOf(index: StratumIndex): { profile: PatientType; feedback: FeedbackMode } {
-  return { profile: patientTypes[Math.floor(index / feedbackModes.length)], feedback: feedbackModes[index % feedbackModes.length] };
+  return STRATA[index];
 }
 
 /** Builds the pairs of one stratum and metric from its values in any order. */
@@ -58,11 +63,15 @@ export function pack(strata: ReadonlyMap<StratumIndex, readonly Pairs[]>): Buffe
   return Buffer.from(out.buffer, out.byteOffset, out.byteLength);
 }
 
+/** The blob's numbers; a Float64Array view needs an 8-byte aligned offset, which small blobs from Node's buffer pool may lack. */
+function float64View(packed: Uint8Array): Float64Array {
+  const aligned = packed.byteOffset % 8 === 0 ? packed : new Uint8Array(packed); // a copy at offset 0
+  return new Float64Array(aligned.buffer, aligned.byteOffset, aligned.byteLength / 8);
+}
+
 /** Calls `visit` with each section of a packed row. */
 export function forEachSection(packed: Uint8Array, visit: (stratum: StratumIndex, metric: number, pairs: Pairs) => void): void {
-  // a Float64Array view needs an 8-byte aligned offset; small blobs may sit unaligned in Node's buffer pool
-  const aligned = packed.byteOffset % 8 === 0 ? packed : new Uint8Array(packed); // a copy at offset 0
-  const numbers = new Float64Array(aligned.buffer, aligned.byteOffset, aligned.byteLength / 8);
+  const numbers = float64View(packed);
   let at = 0;
   while (at < numbers.length) {
     const stratum = numbers[at];
@@ -150,4 +159,27 @@ export function shareAtLeast(pairs: Pairs, x: number): number | null {
   let atLeast = 0;
   for (let i = 0; i < pairs.length; i += 2) if (pairs[i] >= x) atLeast += pairs[i + 1];
   return atLeast / n;
+}
+
+/**
+ * An instructor-quarter's tallies per stratum, packed: [stratum, n, passed, pp, pf, fp, ff, with errors,
+ * compressions, one count per attempt error in attemptErrorNames order] for each stratum.
+ */
+export const TALLY_FIELDS = 15;
+
+export function packTallies(strata: ReadonlyMap<StratumIndex, Float64Array>): Buffer {
+  const out = new Float64Array(strata.size * (1 + TALLY_FIELDS));
+  let at = 0;
+  for (const stratum of [...strata.keys()].sort((a, b) => a - b)) {
+    out[at] = stratum;
+    out.set(strata.get(stratum)!, at + 1);
+    at += 1 + TALLY_FIELDS;
+  }
+  return Buffer.from(out.buffer, out.byteOffset, out.byteLength);
+}
+
+/** Calls `visit` with each stratum's tally fields of a packed row. */
+export function forEachTally(packed: Uint8Array, visit: (stratum: StratumIndex, fields: Float64Array) => void): void {
+  const numbers = float64View(packed);
+  for (let at = 0; at < numbers.length; at += 1 + TALLY_FIELDS) visit(numbers[at], numbers.subarray(at + 1, at + 1 + TALLY_FIELDS));
 }

@@ -8,8 +8,8 @@ import type { SQLiteColumn } from "drizzle-orm/sqlite-core";
 import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
 import type { Db } from "../db/client";
 import { attemptTallies, learnerTallies, networkTallies, networkValues, summaryMetrics } from "../db/schema";
-import { DISTRIBUTION_COLUMNS, StrataValues, type DistributionRow } from "./instructorValues";
-import { forEachSection, mergePairs, quantileOfPairs, stratumOf, type Pairs, type StratumIndex, type SummaryMetric } from "./packedValues";
+import { forEachDistribution, forEachInstructorTally, rowsAnswer } from "./instructorRows";
+import { mergePairs, quantileOfPairs, STRATA, stratumOf, type Pairs, type StratumIndex, type SummaryMetric } from "./packedValues";
 
 /** Metrics whose distributions are kept (exact, at the values as recorded). */
 export type { SummaryMetric };
@@ -157,6 +157,49 @@ function tallyOf(row: Record<string, unknown>): Tally {
   };
 }
 
+/** Dimensions instructor_values holds its tallies by. */
+const instructorRowDimensions = new Set<Dimension>(["quarter", "instructorId", "profile", "feedback"]);
+
+/**
+ * Tallies grouped by instructor (and quarter, patient type or feedback display) from instructor_values: a few
+ * hundred rows per quarter instead of every group of attempt_tallies. Null where those rows cannot answer.
+ */
+function instructorTallies(db: Db, scope: SummaryScope, dimensions: readonly Dimension[]): Map<string | number, Tally> | null {
+  if (!rowsAnswer(scope) || !dimensions.includes("instructorId") || !dimensions.every((d) => instructorRowDimensions.has(d))) return null;
+  const coordinate = (dimension: Dimension): ((quarter: string, instructorId: number, stratum: StratumIndex) => string | number) =>
+    dimension === "quarter"
+      ? (quarter) => quarter
+      : dimension === "instructorId"
+        ? (_quarter, instructorId) => instructorId
+        : (_quarter, _instructorId, stratum) => STRATA[stratum][dimension as "profile" | "feedback"];
+  const [first, second] = dimensions.map(coordinate);
+  const keyOf =
+    second === undefined
+      ? first
+      : (quarter: string, instructorId: number, stratum: StratumIndex) => `${first(quarter, instructorId, stratum)}|${second(quarter, instructorId, stratum)}`;
+  const byKey = new Map<string | number, Tally>();
+  forEachInstructorTally(db, scope, (quarter, instructorId, stratum, fields) => {
+    const key = keyOf(quarter, instructorId, stratum);
+    let tally = byKey.get(key);
+    if (!tally) byKey.set(key, (tally = emptyTally()));
+    addFields(tally, fields);
+  });
+  return byKey;
+}
+
+/** Adds packed tally fields (packedValues TALLY_FIELDS order) into a tally. */
+function addFields(into: Tally, fields: Float64Array): void {
+  into.n += fields[0];
+  into.passed += fields[1];
+  into.pp += fields[2];
+  into.pf += fields[3];
+  into.fp += fields[4];
+  into.ff += fields[5];
+  into.withErrors += fields[6];
+  into.compressions += fields[7];
+  for (let bit = 0; bit < attemptErrorNames.length; bit++) into.errors[attemptErrorNames[bit]] += fields[8 + bit];
+}
+
 /** The tally of every attempt in scope. */
 export function totalTally(db: Db, scope: SummaryScope): Tally {
   const { table, where } = tallySource(scope, []);
@@ -168,6 +211,8 @@ export function totalTally(db: Db, scope: SummaryScope): Tally {
  * a manikin key of 0 stands for attempts that name no manikin.
  */
 export function talliesBy<K extends string | number>(db: Db, scope: SummaryScope, dimension: Dimension): Map<K, Tally> {
+  const fromRows = instructorTallies(db, scope, [dimension]);
+  if (fromRows) return fromRows as Map<K, Tally>;
   const { table, where } = tallySource(scope, [dimension]);
   const column = dimensionColumn(table, dimension);
   const rows = db
@@ -181,6 +226,8 @@ export function talliesBy<K extends string | number>(db: Db, scope: SummaryScope
 
 /** Tallies by two dimensions at once, keyed `${first}|${second}`. */
 export function talliesByPair(db: Db, scope: SummaryScope, first: Dimension, second: Dimension): Map<string, Tally> {
+  const fromRows = instructorTallies(db, scope, [first, second]);
+  if (fromRows) return fromRows as Map<string, Tally>;
   const { table, where } = tallySource(scope, [first, second]);
   const a = dimensionColumn(table, first);
   const b = dimensionColumn(table, second);
@@ -386,85 +433,6 @@ export function distributionsByInstructor(db: Db, scope: SummaryScope): Instruct
   return { byInstructor, byStratum };
 }
 
-type DistributionVisitor = (quarter: string, instructorId: number, stratum: StratumIndex, metric: number, pairs: Pairs) => void;
-
-/**
- * Visits the distributions of every instructor-quarter in scope, by stratum and metric index (summaryMetrics).
- * Packed rows serve scopes of quarters, an instructor, a patient type and a feedback display; a site or a
- * manikin narrows below the packed rows, so those scopes — a small share of the attempts — and instructor-quarters
- * noted as changed since their row was built are read from the attempts themselves.
- */
-function forEachDistribution(db: Db, scope: SummaryScope, visit: DistributionVisitor): void {
-  const wantStratum = (stratum: StratumIndex) => {
-    const { profile, feedback } = stratumOf(stratum);
-    return (scope.profile === null || scope.profile === profile) && (scope.feedback === null || scope.feedback === feedback);
-  };
-  const sqlite = db.$client;
-  const quarterCondition = scope.from === scope.to ? "quarter = ?" : "quarter BETWEEN ? AND ?";
-  const quarterParams = scope.from === scope.to ? [scope.from] : [scope.from, scope.to];
-  const instructorCondition = scope.instructorId === null ? "" : " AND instructor_id = ?";
-  const instructorParams = scope.instructorId === null ? [] : [scope.instructorId];
-  const fromAttempts = (where: string, params: unknown[]) => {
-    const byGroup = new Map<string, { quarter: string; instructorId: number; values: StrataValues }>();
-    for (const row of sqlite
-      .prepare(`SELECT ${DISTRIBUTION_COLUMNS.join(", ")} FROM attempts WHERE ${where}`)
-      .raw(true)
-      .iterate(...params) as Iterable<DistributionRow>) {
-      const key = `${row[0]}|${row[1]}`;
-      let group = byGroup.get(key);
-      if (!group) byGroup.set(key, (group = { quarter: row[0], instructorId: row[1], values: new StrataValues() }));
-      group.values.add(row);
-    }
-    for (const { quarter, instructorId, values } of byGroup.values()) {
-      for (const [stratum, byMetric] of values.pairs()) {
-        if (wantStratum(stratum)) byMetric.forEach((pairs, m) => visit(quarter, instructorId, stratum, m, pairs));
-      }
-    }
-  };
-
-  if (scope.siteId !== null || scope.manikinId !== null) {
-    const parts = [quarterCondition + instructorCondition];
-    const params: unknown[] = [...quarterParams, ...instructorParams];
-    if (scope.siteId !== null) {
-      parts.push("site_id = ?");
-      params.push(scope.siteId);
-    }
-    if (scope.manikinId !== null) parts.push(scope.manikinId === 0 ? "manikin_id IS NULL" : `manikin_id = ${Number(scope.manikinId)}`);
-    if (scope.profile !== null) {
-      parts.push("profile = ?");
-      params.push(scope.profile);
-    }
-    if (scope.feedback !== null) {
-      parts.push("feedback = ?");
-      params.push(scope.feedback);
-    }
-    fromAttempts(parts.join(" AND "), params);
-    return;
-  }
-
-  const noted = new Set(
-    (
-      sqlite
-        .prepare(`SELECT quarter, instructor_id FROM instructor_values_stale WHERE ${quarterCondition}${instructorCondition}`)
-        .raw(true)
-        .all(...quarterParams, ...instructorParams) as [string, number][]
-    ).map(([quarter, instructorId]) => `${quarter}|${instructorId}`),
-  );
-  for (const [quarter, instructorId, packed] of sqlite
-    .prepare(`SELECT quarter, instructor_id, packed FROM instructor_values WHERE ${quarterCondition}${instructorCondition}`)
-    .raw(true)
-    .iterate(...quarterParams, ...instructorParams) as Iterable<[string, number, Buffer]>) {
-    if (noted.has(`${quarter}|${instructorId}`)) continue;
-    forEachSection(packed, (stratum, m, pairs) => {
-      if (wantStratum(stratum)) visit(quarter, instructorId, stratum, m, pairs);
-    });
-  }
-  for (const key of noted) {
-    const [quarter, instructorId] = key.split("|");
-    fromAttempts("quarter = ? AND instructor_id = ?", [quarter, Number(instructorId)]);
-  }
-}
-
 /** Pairs as a distribution of (value, count) entries. */
 export function countsOf(pairs: Pairs): ValueCounts {
   const counts: ValueCounts = new Array(pairs.length / 2);
@@ -492,8 +460,8 @@ export function quartersWithAttempts(db: Db): string[] {
     .map((row) => row.quarter);
 }
 
-/** Attempts and judged attempts (those with an instructor's result) for each combination of `dimensions`, over every quarter. */
-export function countsByGrid(db: Db, dimensions: readonly Dimension[]): { key: (string | number)[]; n: number; judged: number }[] {
+/** Attempts and judged attempts (those with an instructor's result) for each combination of `dimensions`, over every quarter or one. */
+export function countsByGrid(db: Db, dimensions: readonly Dimension[], quarter?: string): { key: (string | number)[]; n: number; judged: number }[] {
   const columns = dimensions.map((dimension) => attemptTallies[dimension]);
   const { sql: text, params } = db
     .select({
@@ -502,9 +470,10 @@ export function countsByGrid(db: Db, dimensions: readonly Dimension[]): { key: (
       judged: sql<number>`sum(${attemptTallies.judgedPp} + ${attemptTallies.judgedPf} + ${attemptTallies.judgedFp} + ${attemptTallies.judgedFf})`,
     })
     .from(attemptTallies)
+    .where(quarter === undefined ? undefined : eq(attemptTallies.quarter, quarter))
     .groupBy(...columns)
     .toSQL();
-  // raw rows: tens of thousands of cells at a million attempts, read on every change of the data
+  // raw rows: thousands of cells per quarter at a million attempts
   const rows = db.$client
     .prepare(text)
     .raw(true)

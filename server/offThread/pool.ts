@@ -1,8 +1,9 @@
-// Sends the long insight answers to a worker thread (answerWorker.ts) when the database is a file, so the
+// Sends the long insight answers to worker threads (answerWorker.ts) when the database is a file, so the
 // event loop stays free for other requests while one is computed; a database in memory (tests) cannot be
 // shared with a thread, so there the answer is computed in-process by the same function. Either way the
 // answer is kept per state of the database (../cache.ts) and an AppError thrown while computing it reaches
 // the client as it would in-process.
+import os from "node:os";
 import { Worker } from "node:worker_threads";
 import type { Response } from "express";
 import type { Db } from "../db/client";
@@ -24,6 +25,11 @@ class AnswerThread {
   private worker: Worker | null = null;
   private nextId = 1;
   private readonly pending = new Map<number, Pending>();
+
+  /** Requests sent and not yet answered. */
+  get waiting(): number {
+    return this.pending.size;
+  }
 
   run(request: Omit<AnswerRequest, "id">): Promise<string> {
     const id = this.nextId++;
@@ -65,7 +71,29 @@ class AnswerThread {
   }
 }
 
-const threads = new WeakMap<Db, AnswerThread>();
+/**
+ * One worker per core (at most four): answers that arrive together are computed side by side, each worker on
+ * its own read connection, instead of queueing behind one. A request goes to the worker with the least waiting.
+ */
+class AnswerPool {
+  private readonly threads: AnswerThread[];
+
+  constructor(size: number) {
+    this.threads = Array.from({ length: size }, () => new AnswerThread());
+  }
+
+  run(request: Omit<AnswerRequest, "id">): Promise<string> {
+    const idlest = this.threads.reduce((best, thread) => (thread.waiting < best.waiting ? thread : best));
+    return idlest.run(request);
+  }
+
+  async close(): Promise<void> {
+    await Promise.all(this.threads.map((thread) => thread.close()));
+  }
+}
+
+const POOL_SIZE = Math.max(1, Math.min(4, os.availableParallelism()));
+const threads = new WeakMap<Db, AnswerPool>();
 let offThread = true;
 
 /** Computes every answer in-process (a test comparing both ways, or a host without worker threads). */
@@ -73,17 +101,17 @@ export function setAnswersOffThread(on: boolean): void {
   offThread = on;
 }
 
-function threadFor(db: Db): AnswerThread | null {
+function threadFor(db: Db): AnswerPool | null {
   if (!offThread || db.$client.memory) return null;
-  let thread = threads.get(db);
-  if (!thread) {
-    thread = new AnswerThread();
-    threads.set(db, thread);
+  let pool = threads.get(db);
+  if (!pool) {
+    pool = new AnswerPool(POOL_SIZE);
+    threads.set(db, pool);
   }
-  return thread;
+  return pool;
 }
 
-/** Stops the database's answer worker, if it has one (server shutdown, tests). */
+/** Stops the database's answer workers, if it has any (server shutdown, tests). */
 export async function closeAnswerThread(db: Db): Promise<void> {
   await threads.get(db)?.close();
   threads.delete(db);

@@ -18,6 +18,7 @@ import {
   quantileOfCounts,
   quartersWithAttempts,
   talliesBy,
+  talliesByPair,
   totalTally,
   type Dimension,
   type SummaryMetric,
@@ -214,7 +215,7 @@ const scopes: [string, SummaryScope][] = [
 ];
 
 describe("attempt summaries equal the attempts they summarise", () => {
-  it.each(scopes)("tallies in total and by every dimension (%s)", (_name, scope) => {
+  const talliesEqualTheAttempts = (scope: SummaryScope) => {
     const rows = rowsIn(scope);
     expect(rows.length).toBeGreaterThan(0);
     expect(totalTally(db, scope)).toEqual(tallyOf(rows));
@@ -222,6 +223,14 @@ describe("attempt summaries equal the attempts they summarise", () => {
       const expected = new Map([...groupsOf(rows, dimension)].map(([key, members]) => [key, tallyOf(members)]));
       expect(talliesBy(db, scope, dimension)).toEqual(expected);
     }
+    // by instructor and patient type together, as the case-mix adjustment reads them
+    const byPair = new Map<string, AttemptRow[]>();
+    for (const row of rows) byPair.set(`${row.instructorId}|${row.profile}`, [...(byPair.get(`${row.instructorId}|${row.profile}`) ?? []), row]);
+    expect(talliesByPair(db, scope, "instructorId", "profile")).toEqual(new Map([...byPair].map(([key, members]) => [key, tallyOf(members)])));
+  };
+
+  it.each(scopes)("tallies in total and by every dimension, with changed instructor-quarters noted (%s)", (_name, scope) => {
+    talliesEqualTheAttempts(scope);
   });
 
   const mediansEqualTheAttempts = (scope: SummaryScope) => {
@@ -243,10 +252,13 @@ describe("attempt summaries equal the attempts they summarise", () => {
     mediansEqualTheAttempts(scope);
   });
 
-  it("medians of every metric from the packed rows alone, once the noted instructor-quarters are rebuilt", () => {
+  it("medians and tallies from the packed rows alone, once the noted instructor-quarters are rebuilt", () => {
     expect(refreshInstructorValues(db.$client)).toBeGreaterThan(0);
     expect(db.$client.prepare("SELECT count(*) FROM instructor_values_stale").pluck().get()).toBe(0);
-    for (const [, scope] of scopes) mediansEqualTheAttempts(scope);
+    for (const [, scope] of scopes) {
+      mediansEqualTheAttempts(scope);
+      talliesEqualTheAttempts(scope);
+    }
   });
 
   it.each(scopes)("learner outcomes: learners, first attempt passed, passed at least once (%s)", (_name, scope) => {

@@ -1,0 +1,125 @@
+// Reads instructor_values (./instructorValues.ts): each instructor-quarter's tallies and distributions per
+// stratum, for the scopes those rows can answer — quarters, an instructor, a patient type, a feedback display.
+// Instructor-quarters still noted as changed are taken from their attempts, as are distributions narrowed to a
+// site or a manikin (below the rows' grain; such scopes hold a small share of the attempts).
+import type { Db } from "../db/client";
+import { INSTRUCTOR_ROW_COLUMNS, StrataValues, type InstructorRow } from "./instructorValues";
+import { forEachSection, forEachTally, STRATA, type Pairs, type StratumIndex } from "./packedValues";
+import type { SummaryScope } from "./summaries";
+
+type DistributionVisitor = (quarter: string, instructorId: number, stratum: StratumIndex, metric: number, pairs: Pairs) => void;
+type TallyVisitor = (quarter: string, instructorId: number, stratum: StratumIndex, fields: Float64Array) => void;
+
+/** Whether instructor_values answers the scope (it names no site and no manikin). */
+export function rowsAnswer(scope: SummaryScope): boolean {
+  return scope.siteId === null && scope.manikinId === null;
+}
+
+function stratumFilter(scope: SummaryScope): (stratum: StratumIndex) => boolean {
+  const wanted = STRATA.map(
+    ({ profile, feedback }) => (scope.profile === null || scope.profile === profile) && (scope.feedback === null || scope.feedback === feedback),
+  );
+  return (stratum) => wanted[stratum];
+}
+
+/** The scope's conditions on attempts or instructor_values (quarters and instructor), with their parameters. */
+function rowConditions(scope: SummaryScope): { where: string; params: unknown[] } {
+  const where = [scope.from === scope.to ? "quarter = ?" : "quarter BETWEEN ? AND ?"];
+  const params: unknown[] = scope.from === scope.to ? [scope.from] : [scope.from, scope.to];
+  if (scope.instructorId !== null) {
+    where.push("instructor_id = ?");
+    params.push(scope.instructorId);
+  }
+  return { where: where.join(" AND "), params };
+}
+
+/** Attempt rows gathered per instructor-quarter. */
+function fromAttempts(db: Db, where: string, params: unknown[], visit: (quarter: string, instructorId: number, values: StrataValues) => void): void {
+  const byGroup = new Map<string, { quarter: string; instructorId: number; values: StrataValues }>();
+  for (const row of db.$client
+    .prepare(`SELECT ${INSTRUCTOR_ROW_COLUMNS.join(", ")} FROM attempts WHERE ${where}`)
+    .raw(true)
+    .iterate(...params) as Iterable<InstructorRow>) {
+    const key = `${row[0]}|${row[1]}`;
+    let group = byGroup.get(key);
+    if (!group) byGroup.set(key, (group = { quarter: row[0], instructorId: row[1], values: new StrataValues() }));
+    group.values.add(row);
+  }
+  for (const { quarter, instructorId, values } of byGroup.values()) visit(quarter, instructorId, values);
+}
+
+/**
+ * Each instructor-quarter of a scope rowsAnswer(): `fromRow` with the stored column, or `fromValues` with the
+ * values rebuilt from the attempts where the pair is noted as changed.
+ */
+function forEachInstructorQuarter(
+  db: Db,
+  scope: SummaryScope,
+  column: "tallies" | "packed",
+  fromRow: (quarter: string, instructorId: number, blob: Buffer) => void,
+  fromValues: (quarter: string, instructorId: number, values: StrataValues) => void,
+): void {
+  const sqlite = db.$client;
+  const { where, params } = rowConditions(scope);
+  const noted = sqlite
+    .prepare(`SELECT quarter, instructor_id FROM instructor_values_stale WHERE ${where}`)
+    .raw(true)
+    .all(...params) as [string, number][];
+  const notedKeys = new Set(noted.map(([quarter, instructorId]) => `${quarter}|${instructorId}`));
+  for (const [quarter, instructorId, blob] of sqlite
+    .prepare(`SELECT quarter, instructor_id, ${column} FROM instructor_values WHERE ${where}`)
+    .raw(true)
+    .iterate(...params) as Iterable<[string, number, Buffer]>) {
+    if (notedKeys.size === 0 || !notedKeys.has(`${quarter}|${instructorId}`)) fromRow(quarter, instructorId, blob);
+  }
+  for (const [quarter, instructorId] of noted) fromAttempts(db, "quarter = ? AND instructor_id = ?", [quarter, instructorId], fromValues);
+}
+
+/** Visits the distributions of every instructor-quarter in scope, by stratum and metric index (summaryMetrics). */
+export function forEachDistribution(db: Db, scope: SummaryScope, visit: DistributionVisitor): void {
+  const wanted = stratumFilter(scope);
+  const fromValues = (quarter: string, instructorId: number, values: StrataValues) => {
+    for (const [stratum, byMetric] of values.pairs()) {
+      if (wanted(stratum)) byMetric.forEach((pairs, m) => visit(quarter, instructorId, stratum, m, pairs));
+    }
+  };
+  if (!rowsAnswer(scope)) {
+    const { where, params } = rowConditions(scope);
+    const parts = [where];
+    if (scope.siteId !== null) {
+      parts.push("site_id = ?");
+      params.push(scope.siteId);
+    }
+    // 0 stands for attempts without a manikin
+    if (scope.manikinId !== null) parts.push(scope.manikinId === 0 ? "manikin_id IS NULL" : `manikin_id = ${Number(scope.manikinId)}`);
+    fromAttempts(db, parts.join(" AND "), params, fromValues);
+    return;
+  }
+  forEachInstructorQuarter(
+    db,
+    scope,
+    "packed",
+    (quarter, instructorId, packed) =>
+      forEachSection(packed, (stratum, m, pairs) => {
+        if (wanted(stratum)) visit(quarter, instructorId, stratum, m, pairs);
+      }),
+    fromValues,
+  );
+}
+
+/** Visits the tally fields (packedValues TALLY_FIELDS) of every instructor-quarter and stratum in a scope rowsAnswer(). */
+export function forEachInstructorTally(db: Db, scope: SummaryScope, visit: TallyVisitor): void {
+  const wanted = stratumFilter(scope);
+  forEachInstructorQuarter(
+    db,
+    scope,
+    "tallies",
+    (quarter, instructorId, tallies) =>
+      forEachTally(tallies, (stratum, fields) => {
+        if (wanted(stratum)) visit(quarter, instructorId, stratum, fields);
+      }),
+    (quarter, instructorId, values) => {
+      for (const [stratum, fields] of values.tallies()) if (wanted(stratum)) visit(quarter, instructorId, stratum, fields);
+    },
+  );
+}
