@@ -3,6 +3,7 @@ CREATE TABLE `instructor_values` (
 	`instructor_id` integer NOT NULL,
 	`attempts` integer NOT NULL,
 	`tallies` blob NOT NULL,
+	`cells` blob NOT NULL,
 	`packed` blob NOT NULL,
 	PRIMARY KEY(`quarter`, `instructor_id`)
 );

@@ -376,8 +376,10 @@ export const instructorValues = sqliteTable(
     quarter: text().notNull(),
     instructorId: integer().notNull(),
     attempts: integer().notNull(),
-    // per stratum, the counts of attempt_tallies; stored before `packed`, so reading it alone stays on the first page
+    // per stratum, the counts of attempt_tallies; stored before `packed`, so reading it stays near the row's start
     tallies: blob({ mode: "buffer" }).notNull(),
+    // attempts and judged attempts per site × stratum × manikin: the instructor's cells of the release grid
+    cells: blob({ mode: "buffer" }).notNull(),
     packed: blob({ mode: "buffer" }).notNull(),
   },
   (t) => [primaryKey({ columns: [t.quarter, t.instructorId] })],

@@ -4,7 +4,7 @@
 import { can } from "../../shared/permissions";
 import { releaseGrid, releaseShows, type GridCell, type Release } from "../../shared/suppression";
 import type { Db } from "../db/client";
-import { countsByGrid, quartersWithAttempts, type Dimension, type SummaryScope } from "../metrics/summaries";
+import { instructorCellCounts, quartersWithAttempts, type Dimension, type SummaryScope } from "../metrics/summaries";
 import { cached } from "./cache";
 import type { Viewer } from "./viewer";
 
@@ -12,7 +12,7 @@ import type { Viewer } from "./viewer";
  * The grid: every dimension the pages let these viewers narrow a network figure by. A page that offers them
  * a new dimension adds it here (and to `selects`), or its answers would split cells the grid never judged.
  */
-const GRID: readonly Dimension[] = ["quarter", "siteId", "profile", "feedback", "manikinId"];
+const GRID = ["quarter", "siteId", "profile", "feedback", "manikinId"] as const satisfies readonly Dimension[];
 
 /**
  * Where unsafe cells are pooled, finest first (indices into GRID): the manikins of one cell, then the sites
@@ -48,11 +48,10 @@ function releaseFor(db: Db, viewer: Viewer, measure: ReleaseMeasure, quarter: st
   const bySite = narrowsBySite(viewer);
   return cached(db, `release|${quarter}|${measure}|${own ?? ""}|${bySite}|${rule.minCount}|${rule.minInstructors}`, () => {
     const cells = new Map<string, { coords: (string | number)[]; others: Map<number, number> }>();
-    const rows = countsByGrid(db, [...GRID, "instructorId"], quarter);
-    for (const row of rows) {
-      const coords = row.key.slice(0, GRID.length);
+    for (const row of instructorCellCounts(db, quarter)) {
+      const coords = GRID.map((dimension) => row[dimension]);
       if (!bySite) coords[SITE] = coords[MANIKIN] = WHOLE;
-      const instructorId = Number(row.key[GRID.length]);
+      const instructorId = row.instructorId;
       const key = coords.join("|");
       let cell = cells.get(key);
       if (!cell) cells.set(key, (cell = { coords, others: new Map() }));

@@ -21,8 +21,7 @@ import {
   addTally,
   emptyTally,
   medianOfCounts,
-  talliesBy,
-  talliesByPair,
+  talliesByInstructorStratum,
   valueCounts,
   distributionsByInstructor,
   countsOf,
@@ -44,7 +43,7 @@ import { errorLabels } from "../../shared/vocabulary";
 type MetricKey = (typeof standingMetricKeys)[number];
 
 /** Each instructor's distribution of one metric (as pairs), from which medians and ceiling figures are read. */
-type Distributions = Map<number, Pairs>;
+type Distributions = Pick<ReadonlyMap<number, Pairs>, "get"> & Iterable<[number, Pairs]>;
 
 /** The figures every instructor's standing shares for the same filters: computed once per database state. */
 interface NetworkFigures {
@@ -64,22 +63,23 @@ function networkFigures(db: Db, network: ResolvedFilters, adjust: AdjustMode): N
   return cached(db, `standing-network|${adjust}|${filtersKey(network)}`, () => {
     const scope = scopeOf(network);
     const byMetric = <T>(compute: (key: MetricKey) => T) => Object.fromEntries(standingMetricKeys.map((key) => [key, compute(key)])) as Record<MetricKey, T>;
-    const tallies = talliesBy<number>(db, scope, "instructorId");
+    // one read of the tallies by instructor and stratum serves the totals, the case-mix strata and the funnel
+    const byInstructorStratum = talliesByInstructorStratum(db, scope);
+    const tallies = new Map([...byInstructorStratum].map(([id, strata]) => [id, [...strata.values()].reduce(addTally, emptyTally())]));
     // one read of the packed distributions gives every instructor's distribution of every metric, in total and
     // in each stratum
     const { byInstructor, byStratum } = distributionsByInstructor(db, scope);
     const strata: NetworkFigures["strata"] = [];
     if (adjust === "case-mix") {
       for (const feedback of network.feedback === null ? feedbackModes : [network.feedback]) {
-        const pairs = talliesByPair(db, { ...scope, feedback }, "profile", "instructorId");
         for (const profile of network.profile === null ? patientTypes : [network.profile]) {
+          const stratum: StratumKey = `${profile}|${feedback}`;
           const attempts = new Map<number, number>();
-          for (const [key, tally] of pairs) {
-            const [p, instructor] = key.split("|");
-            if (p === profile) attempts.set(Number(instructor), tally.n);
+          for (const [id, strata] of byInstructorStratum) {
+            const n = strata.get(stratum)?.n ?? 0;
+            if (n > 0) attempts.set(id, n);
           }
           if (attempts.size === 0) continue;
-          const stratum: StratumKey = `${profile}|${feedback}`;
           const inStratum = (key: MetricKey): Distributions =>
             new Map([...byStratum[key]].flatMap(([id, strata]): [number, Pairs][] => (strata.has(stratum) ? [[id, strata.get(stratum)!]] : [])));
           strata.push({ attempts, byInstructor: byMetric(inStratum) });
@@ -91,7 +91,7 @@ function networkFigures(db: Db, network: ResolvedFilters, adjust: AdjustMode): N
       byInstructor,
       network: byMetric((key) => valueCounts(db, key, scope)),
       errors: [...tallies.values()].reduce(addTally, emptyTally()).errors,
-      funnel: instructorFunnel(db, scope, adjust),
+      funnel: instructorFunnel(db, scope, adjust, byInstructorStratum),
       strata,
     };
   });

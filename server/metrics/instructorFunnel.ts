@@ -2,7 +2,6 @@
 // `quarterbeat funnel`: each instructor's passes against those expected (indirect standardisation by patient
 // type × feedback display, or one stratum when not adjusted), the z-scores, the winsorised dispersion φ
 // (Spiegelhalter 2005) and each instructor's position against limits widened by √φ when overdispersed.
-import { feedbackModes } from "../../shared/domain";
 import type { AdjustMode } from "../../shared/filters";
 import {
   dispersionOf,
@@ -14,7 +13,7 @@ import {
   type StratumCount,
 } from "../../shared/stats";
 import type { Db } from "../db/client";
-import { talliesByPair, type SummaryScope } from "./summaries";
+import { talliesByInstructorStratum, type StratumKey, type SummaryScope, type Tally } from "./summaries";
 
 export interface InstructorFunnelUnit extends StandardisedUnit {
   /** null without attempts. */
@@ -29,23 +28,23 @@ export interface InstructorFunnel {
 }
 
 /** Each instructor's attempts and passes per stratum (patient type × feedback display, or one stratum). */
-export function instructorStrata(db: Db, scope: SummaryScope, adjust: AdjustMode): Map<number, StratumCount[]> {
-  const cells = new Map<number, StratumCount[]>();
-  // the summaries group by two dimensions at a time: one pass per feedback display
-  for (const feedback of scope.feedback === null ? feedbackModes : [scope.feedback]) {
-    for (const [key, tally] of talliesByPair(db, { ...scope, feedback }, "instructorId", "profile")) {
-      const [instructor, profile] = key.split("|");
-      const list = cells.get(Number(instructor)) ?? [];
-      list.push({ stratum: adjust === "none" ? "all" : `${profile}|${feedback}`, n: tally.n, passed: tally.passed });
-      cells.set(Number(instructor), list);
-    }
-  }
-  return cells;
+function instructorStrata(byStratum: ReadonlyMap<number, ReadonlyMap<StratumKey, Tally>>, adjust: AdjustMode): Map<number, StratumCount[]> {
+  return new Map(
+    [...byStratum].map(([instructorId, strata]) => [
+      instructorId,
+      [...strata].map(([stratum, tally]) => ({ stratum: adjust === "none" ? "all" : stratum, n: tally.n, passed: tally.passed })),
+    ]),
+  );
 }
 
-/** Every instructor with attempts in scope (the scope names no instructor), standardised and placed. */
-export function instructorFunnel(db: Db, scope: SummaryScope, adjust: AdjustMode): InstructorFunnel {
-  const standardised = indirectStandardisation(instructorStrata(db, { ...scope, instructorId: null }, adjust));
+/** Every instructor with attempts in scope (the scope names no instructor), standardised and placed; `byStratum` when the caller has read it already. */
+export function instructorFunnel(
+  db: Db,
+  scope: SummaryScope,
+  adjust: AdjustMode,
+  byStratum: ReadonlyMap<number, ReadonlyMap<StratumKey, Tally>> = talliesByInstructorStratum(db, { ...scope, instructorId: null }),
+): InstructorFunnel {
+  const standardised = indirectStandardisation(instructorStrata(byStratum, adjust));
   const dispersion = dispersionOf([...standardised.units.values()].flatMap((unit) => (unit.z === null ? [] : [unit.z])));
   const units = new Map(
     [...standardised.units].map(([id, unit]): [number, InstructorFunnelUnit] => [

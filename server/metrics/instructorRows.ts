@@ -4,7 +4,7 @@
 // site or a manikin (below the rows' grain; such scopes hold a small share of the attempts).
 import type { Db } from "../db/client";
 import { INSTRUCTOR_ROW_COLUMNS, StrataValues, type InstructorRow } from "./instructorValues";
-import { forEachSection, forEachTally, STRATA, type Pairs, type StratumIndex } from "./packedValues";
+import { forEachCell, forEachSection, forEachTally, STRATA, type GridCount, type Pairs, type StratumIndex } from "./packedValues";
 import type { SummaryScope } from "./summaries";
 
 type DistributionVisitor = (quarter: string, instructorId: number, stratum: StratumIndex, metric: number, pairs: Pairs) => void;
@@ -55,7 +55,7 @@ function fromAttempts(db: Db, where: string, params: unknown[], visit: (quarter:
 function forEachInstructorQuarter(
   db: Db,
   scope: SummaryScope,
-  column: "tallies" | "packed",
+  column: "tallies" | "cells" | "packed",
   fromRow: (quarter: string, instructorId: number, blob: Buffer) => void,
   fromValues: (quarter: string, instructorId: number, values: StrataValues) => void,
 ): void {
@@ -120,6 +120,19 @@ export function forEachInstructorTally(db: Db, scope: SummaryScope, visit: Tally
       }),
     (quarter, instructorId, values) => {
       for (const [stratum, fields] of values.tallies()) if (wanted(stratum)) visit(quarter, instructorId, stratum, fields);
+    },
+  );
+}
+
+/** Visits the release-grid cells of every instructor-quarter in a scope rowsAnswer(). */
+export function forEachGridCount(db: Db, scope: SummaryScope, visit: (quarter: string, instructorId: number, cell: GridCount) => void): void {
+  forEachInstructorQuarter(
+    db,
+    scope,
+    "cells",
+    (quarter, instructorId, cells) => forEachCell(cells, (cell) => visit(quarter, instructorId, cell)),
+    (quarter, instructorId, values) => {
+      for (const cell of values.cells()) visit(quarter, instructorId, cell);
     },
   );
 }

@@ -1,12 +1,12 @@
-// Builds instructor_values — each instructor's tallies and packed distributions per quarter and stratum
-// (./packedValues.ts) — from the attempts. Triggers on attempts note every instructor-quarter whose attempts
+// Builds instructor_values — each instructor's tallies, release-grid cells and packed distributions per quarter
+// and stratum (./packedValues.ts) — from the attempts. Triggers on attempts note every instructor-quarter whose attempts
 // change in instructor_values_stale; every service that writes attempts calls refreshInstructorValues() before
 // it commits, so readers normally find nothing noted. A pair still noted (a hand edit, a write from outside the
 // services) is read from its attempts by the reader, so an answer is never built on an outdated row.
 import type Database from "better-sqlite3";
 import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
 import { summaryMetrics } from "../db/schema";
-import { pack, packTallies, pairsOf, stratumIndexOf, TALLY_FIELDS, type Pairs, type StratumIndex } from "./packedValues";
+import { pack, packCells, packTallies, pairsOf, stratumIndexOf, TALLY_FIELDS, type GridCount, type Pairs, type StratumIndex } from "./packedValues";
 
 /** The attempt columns an instructor-quarter's row is built from, in this order. */
 export const INSTRUCTOR_ROW_COLUMNS = [
@@ -18,6 +18,8 @@ export const INSTRUCTOR_ROW_COLUMNS = [
   "instructor_result",
   "error_mask",
   "compressions",
+  "site_id",
+  "coalesce(manikin_id, 0)",
   ...summaryMetrics,
 ] as const;
 
@@ -30,15 +32,19 @@ export type InstructorRow = [
   instructorResult: string | null,
   errorMask: number,
   compressions: number,
+  siteId: number,
+  manikinId: number,
   ...values: number[],
 ];
 
-const FIRST_VALUE = 8;
+const FIRST_VALUE = 10;
 
 /** Tallies and values of each metric per stratum, gathered from the attempt rows of one instructor-quarter. */
 export class StrataValues {
   private readonly values = new Map<StratumIndex, number[][]>();
   private readonly counts = new Map<StratumIndex, Float64Array>();
+  /** Attempts and judged attempts by `${site}|${stratum}|${manikin}`. */
+  private readonly gridCells = new Map<string, GridCount>();
   attempts = 0;
 
   add(row: InstructorRow): void {
@@ -50,7 +56,7 @@ export class StrataValues {
       this.counts.set(stratum, (tally = new Float64Array(TALLY_FIELDS)));
     }
     for (let m = 0; m < summaryMetrics.length; m++) values[m].push(row[FIRST_VALUE + m] as number);
-    const [, , , , passed, judged, errorMask, compressions] = row;
+    const [, , , , passed, judged, errorMask, compressions, siteId, manikinId] = row;
     // the fields of TALLY_FIELDS, counted as the tally triggers count them
     tally[0] += 1;
     tally[1] += passed;
@@ -59,6 +65,11 @@ export class StrataValues {
     if (errorMask !== 0) tally[6] += 1;
     tally[7] += compressions;
     for (let bit = 0; bit < attemptErrorNames.length; bit++) tally[8 + bit] += (errorMask >> bit) & 1;
+    const cellKey = `${siteId}|${stratum}|${manikinId}`;
+    let cell = this.gridCells.get(cellKey);
+    if (!cell) this.gridCells.set(cellKey, (cell = { siteId, stratum, manikinId, n: 0, judged: 0 }));
+    cell.n += 1;
+    if (judged === "pass" || judged === "fail") cell.judged += 1;
     this.attempts += 1;
   }
 
@@ -71,6 +82,11 @@ export class StrataValues {
   tallies(): ReadonlyMap<StratumIndex, Float64Array> {
     return this.counts;
   }
+
+  /** The instructor's cells of the release grid. */
+  cells(): Iterable<GridCount> {
+    return this.gridCells.values();
+  }
 }
 
 /** Rebuilds every noted instructor-quarter from its attempts and clears the notes; returns how many were rebuilt. */
@@ -79,8 +95,8 @@ export function refreshInstructorValues(sqlite: Database.Database): number {
   if (noted.length === 0) return 0;
   const rowsOf = sqlite.prepare(`SELECT ${INSTRUCTOR_ROW_COLUMNS.join(", ")} FROM attempts WHERE instructor_id = ? AND quarter = ?`).raw(true);
   const save = sqlite.prepare(
-    `INSERT INTO instructor_values (quarter, instructor_id, attempts, tallies, packed) VALUES (?, ?, ?, ?, ?)
-     ON CONFLICT (quarter, instructor_id) DO UPDATE SET attempts = excluded.attempts, tallies = excluded.tallies, packed = excluded.packed`,
+    `INSERT INTO instructor_values (quarter, instructor_id, attempts, tallies, cells, packed) VALUES (?, ?, ?, ?, ?, ?)
+     ON CONFLICT (quarter, instructor_id) DO UPDATE SET attempts = excluded.attempts, tallies = excluded.tallies, cells = excluded.cells, packed = excluded.packed`,
   );
   const remove = sqlite.prepare("DELETE FROM instructor_values WHERE quarter = ? AND instructor_id = ?");
   const rebuild = () => {
@@ -88,7 +104,7 @@ export function refreshInstructorValues(sqlite: Database.Database): number {
       const values = new StrataValues();
       for (const row of rowsOf.iterate(instructorId, quarter) as Iterable<InstructorRow>) values.add(row);
       if (values.attempts === 0) remove.run(quarter, instructorId);
-      else save.run(quarter, instructorId, values.attempts, packTallies(values.tallies()), pack(values.pairs()));
+      else save.run(quarter, instructorId, values.attempts, packTallies(values.tallies()), packCells(values.cells()), pack(values.pairs()));
     }
     sqlite.prepare("DELETE FROM instructor_values_stale").run();
   };

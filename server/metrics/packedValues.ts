@@ -183,3 +183,31 @@ export function forEachTally(packed: Uint8Array, visit: (stratum: StratumIndex, 
   const numbers = float64View(packed);
   for (let at = 0; at < numbers.length; at += 1 + TALLY_FIELDS) visit(numbers[at], numbers.subarray(at + 1, at + 1 + TALLY_FIELDS));
 }
+
+/** An instructor-quarter's attempts and judged attempts (those with an instructor's result) in one cell of the release grid. */
+export interface GridCount {
+  siteId: number;
+  stratum: StratumIndex;
+  /** 0 for attempts without a manikin. */
+  manikinId: number;
+  n: number;
+  judged: number;
+}
+
+const CELL_FIELDS = 5;
+
+/** Packs grid cells as [site, stratum, manikin, attempts, judged] each. */
+export function packCells(cells: Iterable<GridCount>): Buffer {
+  const list = [...cells];
+  const out = new Float64Array(list.length * CELL_FIELDS);
+  list.forEach(({ siteId, stratum, manikinId, n, judged }, i) => out.set([siteId, stratum, manikinId, n, judged], i * CELL_FIELDS));
+  return Buffer.from(out.buffer, out.byteOffset, out.byteLength);
+}
+
+/** Calls `visit` with each grid cell of a packed row. */
+export function forEachCell(packed: Uint8Array, visit: (cell: GridCount) => void): void {
+  const numbers = float64View(packed);
+  for (let at = 0; at < numbers.length; at += CELL_FIELDS) {
+    visit({ siteId: numbers[at], stratum: numbers[at + 1], manikinId: numbers[at + 2], n: numbers[at + 3], judged: numbers[at + 4] });
+  }
+}

@@ -8,7 +8,7 @@ import type { SQLiteColumn } from "drizzle-orm/sqlite-core";
 import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
 import type { Db } from "../db/client";
 import { attemptTallies, learnerTallies, networkTallies, networkValues, summaryMetrics } from "../db/schema";
-import { forEachDistribution, forEachInstructorTally, rowsAnswer } from "./instructorRows";
+import { forEachDistribution, forEachGridCount, forEachInstructorTally, rowsAnswer } from "./instructorRows";
 import { mergePairs, quantileOfPairs, STRATA, stratumOf, type Pairs, type StratumIndex, type SummaryMetric } from "./packedValues";
 
 /** Metrics whose distributions are kept (exact, at the values as recorded). */
@@ -240,6 +240,35 @@ export function talliesByPair(db: Db, scope: SummaryScope, first: Dimension, sec
   return new Map(rows.map((row) => [`${row.a}|${row.b}`, tallyOf(row)]));
 }
 
+/**
+ * Tallies of each instructor in each stratum (patient type × feedback display) of the scope, from one read: what
+ * the case-mix comparisons (funnel, standing's ranks) stand on.
+ */
+export function talliesByInstructorStratum(db: Db, scope: SummaryScope): Map<number, Map<StratumKey, Tally>> {
+  const byInstructor = new Map<number, Map<StratumKey, Tally>>();
+  const tallyAt = (instructorId: number, stratum: StratumKey): Tally => {
+    let strata = byInstructor.get(instructorId);
+    if (!strata) byInstructor.set(instructorId, (strata = new Map()));
+    let tally = strata.get(stratum);
+    if (!tally) strata.set(stratum, (tally = emptyTally()));
+    return tally;
+  };
+  if (rowsAnswer(scope)) {
+    const keys = STRATA.map(({ profile, feedback }): StratumKey => `${profile}|${feedback}`);
+    forEachInstructorTally(db, scope, (_quarter, instructorId, stratum, fields) => addFields(tallyAt(instructorId, keys[stratum]), fields));
+    return byInstructor;
+  }
+  const t = attemptTallies;
+  const rows = db
+    .select({ instructorId: t.instructorId, profile: t.profile, feedback: t.feedback, ...tallySums(t) })
+    .from(t)
+    .where(scopeConditions(t, scope))
+    .groupBy(t.instructorId, t.profile, t.feedback)
+    .all();
+  for (const row of rows) addTally(tallyAt(row.instructorId, `${row.profile}|${row.feedback}`), tallyOf(row));
+  return byInstructor;
+}
+
 /** Distinct values of a dimension among the attempts in scope, ascending. */
 export function distinctIn(db: Db, scope: SummaryScope, dimension: Dimension): (string | number)[] {
   const { table, where } = tallySource(scope, [dimension]);
@@ -371,6 +400,11 @@ export function valueCountsBy<K extends string | number>(
         .orderBy(column, networkValues.value),
     ) as Map<K, ValueCounts>;
   }
+  return new Map([...instructorPairsBy<K>(db, metric, scope, dimension)].map(([key, pairs]) => [key, countsOf(pairs)]));
+}
+
+/** The distribution of a metric for each value of `dimension`, as pairs, from the instructor-quarter rows. */
+function instructorPairsBy<K extends string | number>(db: Db, metric: SummaryMetric, scope: SummaryScope, dimension: DistributionDimension): Map<K, Pairs> {
   const wanted = summaryMetrics.indexOf(metric);
   const keyOf: (quarter: string, instructorId: number, stratum: StratumIndex) => string | number =
     dimension === "quarter"
@@ -386,7 +420,7 @@ export function valueCountsBy<K extends string | number>(
     if (list) list.push(pairs);
     else lists.set(key, [pairs]);
   });
-  return new Map([...lists].map(([key, list]) => [key as K, countsOf(mergePairs(list))]));
+  return new Map([...lists].map(([key, list]) => [key as K, mergePairs(list)]));
 }
 
 /** A stratum of the case-mix adjustment: `${profile}|${feedback}`. */
@@ -397,8 +431,32 @@ export type StratumKey = `${string}|${string}`;
  * feedback display), as pairs (./packedValues): ranking every instructor reads figures off them directly.
  */
 export interface InstructorDistributions {
-  byInstructor: Record<SummaryMetric, Map<number, Pairs>>;
+  byInstructor: Record<SummaryMetric, WholeDistributions>;
   byStratum: Record<SummaryMetric, Map<number, Map<StratumKey, Pairs>>>;
+}
+
+/**
+ * Each instructor's distribution over all their strata, merged when first asked for: ranks adjusted for case
+ * mix read the strata, so most instructors' whole distributions are never needed.
+ */
+export class WholeDistributions implements Iterable<[number, Pairs]> {
+  private readonly merged = new Map<number, Pairs>();
+
+  constructor(private readonly strata: ReadonlyMap<number, ReadonlyMap<StratumKey, Pairs>>) {}
+
+  get(instructorId: number): Pairs | undefined {
+    let whole = this.merged.get(instructorId);
+    if (whole === undefined) {
+      const parts = this.strata.get(instructorId);
+      if (!parts) return undefined;
+      this.merged.set(instructorId, (whole = mergePairs([...parts.values()])));
+    }
+    return whole;
+  }
+
+  *[Symbol.iterator](): Iterator<[number, Pairs]> {
+    for (const instructorId of this.strata.keys()) yield [instructorId, this.get(instructorId)!];
+  }
 }
 
 /**
@@ -422,13 +480,10 @@ export function distributionsByInstructor(db: Db, scope: SummaryScope): Instruct
   const byInstructor = {} as InstructorDistributions["byInstructor"];
   const byStratum = {} as InstructorDistributions["byStratum"];
   summaryMetrics.forEach((metric, m) => {
-    byInstructor[metric] = new Map();
-    byStratum[metric] = new Map();
-    for (const [instructorId, strata] of lists[m]) {
-      const merged = [...strata.values()].map(mergePairs);
-      byInstructor[metric].set(instructorId, mergePairs(merged));
-      byStratum[metric].set(instructorId, new Map([...strata.keys()].map((stratum, i) => [stratumKeyOf(stratum), merged[i]])));
-    }
+    byStratum[metric] = new Map(
+      [...lists[m]].map(([instructorId, strata]) => [instructorId, new Map([...strata].map(([stratum, list]) => [stratumKeyOf(stratum), mergePairs(list)]))]),
+    );
+    byInstructor[metric] = new WholeDistributions(byStratum[metric]);
   });
   return { byInstructor, byStratum };
 }
@@ -447,7 +502,11 @@ export function medianIn(db: Db, metric: SummaryMetric, scope: SummaryScope): nu
 
 /** The median of a metric for each value of `dimension`. */
 export function mediansBy<K extends string | number>(db: Db, metric: SummaryMetric, scope: SummaryScope, dimension: DistributionDimension): Map<K, number> {
-  return new Map([...valueCountsBy<K>(db, metric, scope, dimension)].map(([key, counts]) => [key, medianOfCounts(counts)!]));
+  if (isNetworkWide(scope) && dimension !== "instructorId") {
+    return new Map([...valueCountsBy<K>(db, metric, scope, dimension)].map(([key, counts]) => [key, medianOfCounts(counts)!]));
+  }
+  // one median per instructor (or quarter, stratum) read off the pairs, without building (value, count) entries
+  return new Map([...instructorPairsBy<K>(db, metric, scope, dimension)].map(([key, pairs]) => [key, quantileOfPairs(pairs, 0.5)!]));
 }
 
 /** Quarters that hold attempts, newest first. */
@@ -460,8 +519,30 @@ export function quartersWithAttempts(db: Db): string[] {
     .map((row) => row.quarter);
 }
 
-/** Attempts and judged attempts (those with an instructor's result) for each combination of `dimensions`, over every quarter or one. */
-export function countsByGrid(db: Db, dimensions: readonly Dimension[], quarter?: string): { key: (string | number)[]; n: number; judged: number }[] {
+/** A cell of the release grid with one instructor's attempts and judged attempts in it. */
+export interface InstructorCellCount {
+  quarter: string;
+  siteId: number;
+  profile: string;
+  feedback: string;
+  /** 0 for attempts without a manikin. */
+  manikinId: number;
+  instructorId: number;
+  n: number;
+  judged: number;
+}
+
+/** Every instructor's attempts and judged attempts in each cell (site × patient type × feedback display × manikin) of one quarter. */
+export function instructorCellCounts(db: Db, quarter: string): InstructorCellCount[] {
+  const counts: InstructorCellCount[] = [];
+  forEachGridCount(db, networkScope(quarter, quarter), (quarter, instructorId, { siteId, stratum, manikinId, n, judged }) =>
+    counts.push({ quarter, siteId, ...STRATA[stratum], manikinId, instructorId, n, judged }),
+  );
+  return counts;
+}
+
+/** Attempts and judged attempts (those with an instructor's result) for each combination of `dimensions`, over every quarter. */
+export function countsByGrid(db: Db, dimensions: readonly Dimension[]): { key: (string | number)[]; n: number; judged: number }[] {
   const columns = dimensions.map((dimension) => attemptTallies[dimension]);
   const { sql: text, params } = db
     .select({
@@ -470,10 +551,9 @@ export function countsByGrid(db: Db, dimensions: readonly Dimension[], quarter?:
       judged: sql<number>`sum(${attemptTallies.judgedPp} + ${attemptTallies.judgedPf} + ${attemptTallies.judgedFp} + ${attemptTallies.judgedFf})`,
     })
     .from(attemptTallies)
-    .where(quarter === undefined ? undefined : eq(attemptTallies.quarter, quarter))
     .groupBy(...columns)
     .toSQL();
-  // raw rows: thousands of cells per quarter at a million attempts
+  // raw rows: tens of thousands of cells at a million attempts
   const rows = db.$client
     .prepare(text)
     .raw(true)

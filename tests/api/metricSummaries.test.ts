@@ -17,6 +17,7 @@ import {
   mergeCounts,
   quantileOfCounts,
   quartersWithAttempts,
+  instructorCellCounts,
   talliesBy,
   talliesByPair,
   totalTally,
@@ -233,6 +234,32 @@ describe("attempt summaries equal the attempts they summarise", () => {
     talliesEqualTheAttempts(scope);
   });
 
+  // the release grid's cells, per instructor: quarter × site × patient type × feedback display × manikin (0 for none)
+  const cellsEqualTheAttempts = () => {
+    for (const quarter of quartersWithAttempts(db)) {
+      const expected = new Map<string, { n: number; judged: number }>();
+      for (const row of rowsIn({ ...everything, from: quarter, to: quarter })) {
+        const key = [row.quarter, row.siteId, row.profile, row.feedback, row.manikinId ?? 0, row.instructorId].join("|");
+        const cell = expected.get(key) ?? { n: 0, judged: 0 };
+        cell.n += 1;
+        if (row.instructorResult !== null) cell.judged += 1;
+        expected.set(key, cell);
+      }
+      const counted = new Map(
+        instructorCellCounts(db, quarter).map((c) => [
+          [c.quarter, c.siteId, c.profile, c.feedback, c.manikinId, c.instructorId].join("|"),
+          { n: c.n, judged: c.judged },
+        ]),
+      );
+      expect(counted).toEqual(expected);
+    }
+  };
+
+  it("release-grid cells of every quarter, with changed instructor-quarters noted", () => {
+    expect(db.$client.prepare("SELECT count(*) FROM instructor_values_stale").pluck().get()).toBeGreaterThan(0);
+    cellsEqualTheAttempts();
+  });
+
   const mediansEqualTheAttempts = (scope: SummaryScope) => {
     const rows = rowsIn(scope);
     for (const metric of Object.keys(metricColumn) as SummaryMetric[]) {
@@ -252,13 +279,14 @@ describe("attempt summaries equal the attempts they summarise", () => {
     mediansEqualTheAttempts(scope);
   });
 
-  it("medians and tallies from the packed rows alone, once the noted instructor-quarters are rebuilt", () => {
+  it("medians, tallies and grid cells from the packed rows alone, once the noted instructor-quarters are rebuilt", () => {
     expect(refreshInstructorValues(db.$client)).toBeGreaterThan(0);
     expect(db.$client.prepare("SELECT count(*) FROM instructor_values_stale").pluck().get()).toBe(0);
     for (const [, scope] of scopes) {
       mediansEqualTheAttempts(scope);
       talliesEqualTheAttempts(scope);
     }
+    cellsEqualTheAttempts();
   });
 
   it.each(scopes)("learner outcomes: learners, first attempt passed, passed at least once (%s)", (_name, scope) => {
