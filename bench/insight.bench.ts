@@ -56,6 +56,8 @@ const PERIODS = [
 ];
 /** Sequential uncached requests per endpoint: each one is a "first request after a change", one at a time. */
 const COLD_RUNS = 20;
+/** Untimed requests before them (the answer cache stays off, so these warm only code and connections). */
+const WARM_RUNS = 4;
 /** monitorEventLoopDelay's sampling interval (ms); delays are shown beyond it. */
 const LOOP_RESOLUTION_MS = 10;
 const GOAL_P95_MS = 100;
@@ -230,6 +232,8 @@ async function measure(size: Size, seconds: number): Promise<Measured> {
           const url = `${server.base}${endpoint.path}?${period.query}`;
           const cookie = cookies.get(endpoint.as)!;
           const runs: number[] = [];
+          // untimed first: each answer worker starts and opens its connection on its first request, once per server
+          for (let i = 0; i < WARM_RUNS; i++) await timedGet(url, cookie);
           await fetch(`${server.loop}/reset`);
           for (let i = 0; i < COLD_RUNS; i++) runs.push(await timedGet(url, cookie));
           const { blocked } = (await (await fetch(`${server.loop}/read`)).json()) as { blocked: number };

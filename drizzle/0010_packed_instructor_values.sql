@@ -4,7 +4,11 @@ CREATE TABLE `instructor_values` (
 	`attempts` integer NOT NULL,
 	`tallies` blob NOT NULL,
 	`cells` blob NOT NULL,
-	`packed` blob NOT NULL,
+	`packed_score` blob NOT NULL,
+	`packed_depth_ok_pct` blob NOT NULL,
+	`packed_rate_ok_pct` blob NOT NULL,
+	`packed_recoil_ok_pct` blob NOT NULL,
+	`packed_hands_on_pct` blob NOT NULL,
 	PRIMARY KEY(`quarter`, `instructor_id`)
 );
 --> statement-breakpoint

@@ -376,11 +376,16 @@ export const instructorValues = sqliteTable(
     quarter: text().notNull(),
     instructorId: integer().notNull(),
     attempts: integer().notNull(),
-    // per stratum, the counts of attempt_tallies; stored before `packed`, so reading it stays near the row's start
+    // per stratum, the counts of attempt_tallies; stored before the pairs, so reading it stays near the row's start
     tallies: blob({ mode: "buffer" }).notNull(),
     // attempts and judged attempts per site × stratum × manikin: the instructor's cells of the release grid
     cells: blob({ mode: "buffer" }).notNull(),
-    packed: blob({ mode: "buffer" }).notNull(),
+    // one column per metric, so an answer about one metric reads a fifth of the pairs
+    packedScore: blob({ mode: "buffer" }).notNull(),
+    packedDepthOkPct: blob({ mode: "buffer" }).notNull(),
+    packedRateOkPct: blob({ mode: "buffer" }).notNull(),
+    packedRecoilOkPct: blob({ mode: "buffer" }).notNull(),
+    packedHandsOnPct: blob({ mode: "buffer" }).notNull(),
   },
   (t) => [primaryKey({ columns: [t.quarter, t.instructorId] })],
 );

@@ -6,7 +6,7 @@ import type { AdjustMode } from "../../shared/filters";
 import type { Db } from "../db/client";
 import { classes, instructors, sites } from "../db/schema";
 import { instructorFunnel } from "../metrics/instructorFunnel";
-import { mediansBy, talliesBy } from "../metrics/summaries";
+import { addTally, emptyTally, mediansBy, talliesBy, talliesByInstructorStratum } from "../metrics/summaries";
 import { notFound } from "../errors";
 import { classRows } from "./classes";
 import type { ResolvedFilters } from "./filters";
@@ -30,7 +30,10 @@ function instructorDirectory(db: Db, id?: number) {
 
 export function instructorTable(db: Db, filters: ResolvedFilters, adjust: AdjustMode = "case-mix"): InstructorsAnswer {
   const scope = scopeOf(filters);
-  const tallies = talliesBy<number>(db, scope, "instructorId");
+  // one read of the tallies by instructor and stratum serves the table's totals and the funnel
+  const byStratum = talliesByInstructorStratum(db, { ...scope, instructorId: null });
+  const inScope = scope.instructorId === null ? [...byStratum] : [...byStratum].filter(([id]) => id === scope.instructorId);
+  const tallies = new Map(inScope.map(([id, strata]) => [id, [...strata.values()].reduce(addTally, emptyTally())]));
   const medians = mediansBy<number>(db, "score", scope, "instructorId");
   const summaries = new Map([...tallies].map(([id, { n, passed }]) => [id, { n, passed, median: medians.get(id)! }]));
   // classes come from the class logs (with a matching attempt when an attempt filter is set)
@@ -44,7 +47,7 @@ export function instructorTable(db: Db, filters: ResolvedFilters, adjust: Adjust
       .map((row) => [row.instructorId, row.n]),
   );
   const directory = instructorDirectory(db);
-  const funnel = instructorFunnel(db, scope, adjust);
+  const funnel = instructorFunnel(db, scope, adjust, byStratum);
 
   return {
     period: filters.period,

@@ -3,8 +3,9 @@
 // Instructor-quarters still noted as changed are taken from their attempts, as are distributions narrowed to a
 // site or a manikin (below the rows' grain; such scopes hold a small share of the attempts).
 import type { Db } from "../db/client";
-import { INSTRUCTOR_ROW_COLUMNS, StrataValues, type InstructorRow } from "./instructorValues";
-import { forEachCell, forEachSection, forEachTally, STRATA, type GridCount, type Pairs, type StratumIndex } from "./packedValues";
+import { summaryMetrics } from "../db/schema";
+import { INSTRUCTOR_ROW_COLUMNS, PACKED_COLUMNS, StrataValues, type InstructorRow } from "./instructorValues";
+import { forEachCell, forEachSection, forEachTally, STRATA, type GridCount, type Pairs, type StratumIndex, type SummaryMetric } from "./packedValues";
 import type { SummaryScope } from "./summaries";
 
 type DistributionVisitor = (quarter: string, instructorId: number, stratum: StratumIndex, metric: number, pairs: Pairs) => void;
@@ -49,14 +50,14 @@ function fromAttempts(db: Db, where: string, params: unknown[], visit: (quarter:
 }
 
 /**
- * Each instructor-quarter of a scope rowsAnswer(): `fromRow` with the stored column, or `fromValues` with the
+ * Each instructor-quarter of a scope rowsAnswer(): `fromRow` with the stored columns, or `fromValues` with the
  * values rebuilt from the attempts where the pair is noted as changed.
  */
 function forEachInstructorQuarter(
   db: Db,
   scope: SummaryScope,
-  column: "tallies" | "cells" | "packed",
-  fromRow: (quarter: string, instructorId: number, blob: Buffer) => void,
+  columns: readonly string[],
+  fromRow: (quarter: string, instructorId: number, blobs: Buffer[]) => void,
   fromValues: (quarter: string, instructorId: number, values: StrataValues) => void,
 ): void {
   const sqlite = db.$client;
@@ -66,21 +67,25 @@ function forEachInstructorQuarter(
     .raw(true)
     .all(...params) as [string, number][];
   const notedKeys = new Set(noted.map(([quarter, instructorId]) => `${quarter}|${instructorId}`));
-  for (const [quarter, instructorId, blob] of sqlite
-    .prepare(`SELECT quarter, instructor_id, ${column} FROM instructor_values WHERE ${where}`)
+  for (const [quarter, instructorId, ...blobs] of sqlite
+    .prepare(`SELECT quarter, instructor_id, ${columns.join(", ")} FROM instructor_values WHERE ${where}`)
     .raw(true)
-    .iterate(...params) as Iterable<[string, number, Buffer]>) {
-    if (notedKeys.size === 0 || !notedKeys.has(`${quarter}|${instructorId}`)) fromRow(quarter, instructorId, blob);
+    .iterate(...params) as Iterable<[string, number, ...Buffer[]]>) {
+    if (notedKeys.size === 0 || !notedKeys.has(`${quarter}|${instructorId}`)) fromRow(quarter, instructorId, blobs);
   }
   for (const [quarter, instructorId] of noted) fromAttempts(db, "quarter = ? AND instructor_id = ?", [quarter, instructorId], fromValues);
 }
 
-/** Visits the distributions of every instructor-quarter in scope, by stratum and metric index (summaryMetrics). */
-export function forEachDistribution(db: Db, scope: SummaryScope, visit: DistributionVisitor): void {
+/**
+ * Visits the distributions of every instructor-quarter in scope, by stratum and metric index (summaryMetrics),
+ * for the metrics asked for (all when none are named).
+ */
+export function forEachDistribution(db: Db, scope: SummaryScope, visit: DistributionVisitor, metrics: readonly SummaryMetric[] = summaryMetrics): void {
   const wanted = stratumFilter(scope);
+  const indices = metrics.map((metric) => summaryMetrics.indexOf(metric));
   const fromValues = (quarter: string, instructorId: number, values: StrataValues) => {
     for (const [stratum, byMetric] of values.pairs()) {
-      if (wanted(stratum)) byMetric.forEach((pairs, m) => visit(quarter, instructorId, stratum, m, pairs));
+      if (wanted(stratum)) for (const m of indices) visit(quarter, instructorId, stratum, m, byMetric[m]);
     }
   };
   if (!rowsAnswer(scope)) {
@@ -98,11 +103,14 @@ export function forEachDistribution(db: Db, scope: SummaryScope, visit: Distribu
   forEachInstructorQuarter(
     db,
     scope,
-    "packed",
-    (quarter, instructorId, packed) =>
-      forEachSection(packed, (stratum, m, pairs) => {
-        if (wanted(stratum)) visit(quarter, instructorId, stratum, m, pairs);
-      }),
+    indices.map((m) => PACKED_COLUMNS[m]),
+    (quarter, instructorId, blobs) => {
+      for (const packed of blobs) {
+        forEachSection(packed, (stratum, m, pairs) => {
+          if (wanted(stratum)) visit(quarter, instructorId, stratum, m, pairs);
+        });
+      }
+    },
     fromValues,
   );
 }
@@ -113,8 +121,8 @@ export function forEachInstructorTally(db: Db, scope: SummaryScope, visit: Tally
   forEachInstructorQuarter(
     db,
     scope,
-    "tallies",
-    (quarter, instructorId, tallies) =>
+    ["tallies"],
+    (quarter, instructorId, [tallies]) =>
       forEachTally(tallies, (stratum, fields) => {
         if (wanted(stratum)) visit(quarter, instructorId, stratum, fields);
       }),
@@ -129,8 +137,8 @@ export function forEachGridCount(db: Db, scope: SummaryScope, visit: (quarter: s
   forEachInstructorQuarter(
     db,
     scope,
-    "cells",
-    (quarter, instructorId, cells) => forEachCell(cells, (cell) => visit(quarter, instructorId, cell)),
+    ["cells"],
+    (quarter, instructorId, [cells]) => forEachCell(cells, (cell) => visit(quarter, instructorId, cell)),
     (quarter, instructorId, values) => {
       for (const cell of values.cells()) visit(quarter, instructorId, cell);
     },

@@ -8,6 +8,9 @@ import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
 import { summaryMetrics } from "../db/schema";
 import { pack, packCells, packTallies, pairsOf, stratumIndexOf, TALLY_FIELDS, type GridCount, type Pairs, type StratumIndex } from "./packedValues";
 
+/** instructor_values' column of each metric's packed pairs, in summaryMetrics order. */
+export const PACKED_COLUMNS = summaryMetrics.map((metric) => `packed_${metric}`);
+
 /** The attempt columns an instructor-quarter's row is built from, in this order. */
 export const INSTRUCTOR_ROW_COLUMNS = [
   "quarter",
@@ -95,8 +98,10 @@ export function refreshInstructorValues(sqlite: Database.Database): number {
   if (noted.length === 0) return 0;
   const rowsOf = sqlite.prepare(`SELECT ${INSTRUCTOR_ROW_COLUMNS.join(", ")} FROM attempts WHERE instructor_id = ? AND quarter = ?`).raw(true);
   const save = sqlite.prepare(
-    `INSERT INTO instructor_values (quarter, instructor_id, attempts, tallies, cells, packed) VALUES (?, ?, ?, ?, ?, ?)
-     ON CONFLICT (quarter, instructor_id) DO UPDATE SET attempts = excluded.attempts, tallies = excluded.tallies, cells = excluded.cells, packed = excluded.packed`,
+    `INSERT INTO instructor_values (quarter, instructor_id, attempts, tallies, cells, ${PACKED_COLUMNS.join(", ")})
+     VALUES (?, ?, ?, ?, ?, ${PACKED_COLUMNS.map(() => "?").join(", ")})
+     ON CONFLICT (quarter, instructor_id) DO UPDATE SET attempts = excluded.attempts, tallies = excluded.tallies, cells = excluded.cells,
+       ${PACKED_COLUMNS.map((column) => `${column} = excluded.${column}`).join(", ")}`,
   );
   const remove = sqlite.prepare("DELETE FROM instructor_values WHERE quarter = ? AND instructor_id = ?");
   const rebuild = () => {
@@ -104,7 +109,17 @@ export function refreshInstructorValues(sqlite: Database.Database): number {
       const values = new StrataValues();
       for (const row of rowsOf.iterate(instructorId, quarter) as Iterable<InstructorRow>) values.add(row);
       if (values.attempts === 0) remove.run(quarter, instructorId);
-      else save.run(quarter, instructorId, values.attempts, packTallies(values.tallies()), packCells(values.cells()), pack(values.pairs()));
+      else {
+        const pairs = values.pairs();
+        save.run(
+          quarter,
+          instructorId,
+          values.attempts,
+          packTallies(values.tallies()),
+          packCells(values.cells()),
+          ...PACKED_COLUMNS.map((_, m) => pack(pairs, m)),
+        );
+      }
     }
     sqlite.prepare("DELETE FROM instructor_values_stale").run();
   };

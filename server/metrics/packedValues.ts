@@ -1,8 +1,8 @@
-// The packed form of one instructor's distributions in one quarter (instructor_values.packed): for each patient
-// type × feedback display taught and each metric with medians, the ascending (value, count) pairs of the values
-// as recorded. All numbers are float64, so values come back to the last bit and counts exactly.
+// The packed form of one instructor's distributions in one quarter (instructor_values' packed columns, one per
+// metric): for each patient type × feedback display taught, the ascending (value, count) pairs of the values as
+// recorded. All numbers are float64, so values come back to the last bit and counts exactly.
 //
-//   section = [stratum, metric, pairs, value₁, count₁, …, valueₙ, countₙ]   (sections in stratum, metric order)
+//   section = [stratum, metric, pairs, value₁, count₁, …, valueₙ, countₙ]   (sections in stratum order)
 //
 // Sections are read as views on the blob, with no copy of the pairs.
 import { feedbackModes, type FeedbackMode } from "../../shared/domain";
@@ -45,20 +45,19 @@ export function pairsOf(values: readonly number[]): Pairs {
   return pairs.subarray(0, k);
 }
 
-/** Packs sections given as stratum → metric index → pairs. */
-export function pack(strata: ReadonlyMap<StratumIndex, readonly Pairs[]>): Buffer {
+/** Packs the sections of one metric (its index in summaryMetrics) given as stratum → metric index → pairs. */
+export function pack(strata: ReadonlyMap<StratumIndex, readonly Pairs[]>, metric: number): Buffer {
   let length = 0;
-  for (const byMetric of strata.values()) for (const pairs of byMetric) length += 3 + pairs.length;
+  for (const byMetric of strata.values()) length += 3 + byMetric[metric].length;
   const out = new Float64Array(length);
   let at = 0;
   for (const stratum of [...strata.keys()].sort((a, b) => a - b)) {
-    strata.get(stratum)!.forEach((pairs, metric) => {
-      out[at++] = stratum;
-      out[at++] = metric;
-      out[at++] = pairs.length / 2;
-      out.set(pairs, at);
-      at += pairs.length;
-    });
+    const pairs = strata.get(stratum)![metric];
+    out[at++] = stratum;
+    out[at++] = metric;
+    out[at++] = pairs.length / 2;
+    out.set(pairs, at);
+    at += pairs.length;
   }
   return Buffer.from(out.buffer, out.byteOffset, out.byteLength);
 }

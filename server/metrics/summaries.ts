@@ -352,9 +352,14 @@ export function valueCounts(db: Db, metric: SummaryMetric, scope: SummaryScope):
   }
   const lists: Pairs[] = [];
   const wanted = summaryMetrics.indexOf(metric);
-  forEachDistribution(db, scope, (_quarter, _instructorId, _stratum, m, pairs) => {
-    if (m === wanted) lists.push(pairs);
-  });
+  forEachDistribution(
+    db,
+    scope,
+    (_quarter, _instructorId, _stratum, m, pairs) => {
+      if (m === wanted) lists.push(pairs);
+    },
+    [metric],
+  );
   return countsOf(mergePairs(lists));
 }
 
@@ -413,13 +418,18 @@ function instructorPairsBy<K extends string | number>(db: Db, metric: SummaryMet
         ? (_quarter, instructorId) => instructorId
         : (_quarter, _instructorId, stratum) => stratumOf(stratum)[dimension];
   const lists = new Map<string | number, Pairs[]>();
-  forEachDistribution(db, scope, (quarter, instructorId, stratum, m, pairs) => {
-    if (m !== wanted) return;
-    const key = keyOf(quarter, instructorId, stratum);
-    const list = lists.get(key);
-    if (list) list.push(pairs);
-    else lists.set(key, [pairs]);
-  });
+  forEachDistribution(
+    db,
+    scope,
+    (quarter, instructorId, stratum, m, pairs) => {
+      if (m !== wanted) return;
+      const key = keyOf(quarter, instructorId, stratum);
+      const list = lists.get(key);
+      if (list) list.push(pairs);
+      else lists.set(key, [pairs]);
+    },
+    [metric],
+  );
   return new Map([...lists].map(([key, list]) => [key as K, mergePairs(list)]));
 }
 

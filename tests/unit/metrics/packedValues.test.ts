@@ -44,15 +44,18 @@ describe("packed instructor distributions", () => {
         (strata) => {
           const byStratum = new Map(strata.map(([stratum, metrics]) => [stratum, metrics.map(pairsOf)]));
           const seen = new Map<number, Pairs[]>();
-          // a blob at an odd offset, as small buffers come out of Node's pool, reads the same
-          const packed = pack(byStratum);
-          const unaligned = Buffer.alloc(packed.length + 3);
-          packed.copy(unaligned, 3);
-          forEachSection(unaligned.subarray(3), (stratum, metric, pairs) => {
-            const list = seen.get(stratum) ?? [];
-            list[metric] = Float64Array.from(pairs);
-            seen.set(stratum, list);
-          });
+          // one blob per metric; a blob at an odd offset, as small buffers come out of Node's pool, reads the same
+          for (let m = 0; m < 5; m++) {
+            const packed = pack(byStratum, m);
+            const unaligned = Buffer.alloc(packed.length + 3);
+            packed.copy(unaligned, 3);
+            forEachSection(unaligned.subarray(3), (stratum, metric, pairs) => {
+              expect(metric).toBe(m);
+              const list = seen.get(stratum) ?? [];
+              list[metric] = Float64Array.from(pairs);
+              seen.set(stratum, list);
+            });
+          }
           expect(seen).toEqual(byStratum);
         },
       ),
