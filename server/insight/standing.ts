@@ -80,8 +80,16 @@ function networkFigures(db: Db, network: ResolvedFilters, adjust: AdjustMode): N
             if (n > 0) attempts.set(id, n);
           }
           if (attempts.size === 0) continue;
-          const inStratum = (key: MetricKey): Distributions =>
-            new Map([...byStratum[key]].flatMap(([id, strata]): [number, Pairs][] => (strata.has(stratum) ? [[id, strata.get(stratum)!]] : [])));
+          // a view on the instructors' strata, not a copy: ranks read it once per request
+          const inStratum = (key: MetricKey): Distributions => ({
+            get: (id) => byStratum[key].get(id)?.get(stratum),
+            *[Symbol.iterator]() {
+              for (const [id, strata] of byStratum[key]) {
+                const pairs = strata.get(stratum);
+                if (pairs) yield [id, pairs];
+              }
+            },
+          });
           strata.push({ attempts, byInstructor: byMetric(inStratum) });
         }
       }
@@ -110,12 +118,12 @@ function rankAmong(distributions: Distributions, figure: RankedFigure, me: numbe
   const mine = distributions.get(me);
   const myValue = mine ? figure(mine) : null;
   if (myValue === null) return null;
-  const others = [...distributions]
-    .filter(([id]) => shownIds.has(id))
-    .flatMap(([, counts]) => {
-      const value = figure(counts);
-      return value === null ? [] : [value];
-    });
+  const others: number[] = [];
+  for (const [id, pairs] of distributions) {
+    if (!shownIds.has(id)) continue;
+    const value = figure(pairs);
+    if (value !== null) others.push(value);
+  }
   return percentileRank(others, myValue);
 }
 
