@@ -6,7 +6,7 @@ import type { AdjustMode } from "../../shared/filters";
 import type { Db } from "../db/client";
 import { classes, instructors, sites } from "../db/schema";
 import { instructorFunnel } from "../metrics/instructorFunnel";
-import { addTally, emptyTally, mediansBy, talliesBy, talliesByInstructorStratum } from "../metrics/summaries";
+import { mediansBy, talliesBy, talliesByInstructorStratum, totalsByInstructor } from "../metrics/summaries";
 import { notFound } from "../errors";
 import { classRows } from "./classes";
 import type { ResolvedFilters } from "./filters";
@@ -32,8 +32,8 @@ export function instructorTable(db: Db, filters: ResolvedFilters, adjust: Adjust
   const scope = scopeOf(filters);
   // one read of the tallies by instructor and stratum serves the table's totals and the funnel
   const byStratum = talliesByInstructorStratum(db, { ...scope, instructorId: null });
-  const inScope = scope.instructorId === null ? [...byStratum] : [...byStratum].filter(([id]) => id === scope.instructorId);
-  const tallies = new Map(inScope.map(([id, strata]) => [id, [...strata.values()].reduce(addTally, emptyTally())]));
+  const inScope = scope.instructorId === null ? byStratum : new Map([...byStratum].filter(([id]) => id === scope.instructorId));
+  const tallies = totalsByInstructor(inScope);
   const medians = mediansBy<number>(db, "score", scope, "instructorId");
   const summaries = new Map([...tallies].map(([id, { n, passed }]) => [id, { n, passed, median: medians.get(id)! }]));
   // classes come from the class logs (with a matching attempt when an attempt filter is set)

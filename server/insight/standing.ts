@@ -22,6 +22,7 @@ import {
   emptyTally,
   medianOfCounts,
   talliesByInstructorStratum,
+  totalsByInstructor,
   valueCounts,
   distributionsByInstructor,
   countsOf,
@@ -65,7 +66,7 @@ function networkFigures(db: Db, network: ResolvedFilters, adjust: AdjustMode): N
     const byMetric = <T>(compute: (key: MetricKey) => T) => Object.fromEntries(standingMetricKeys.map((key) => [key, compute(key)])) as Record<MetricKey, T>;
     // one read of the tallies by instructor and stratum serves the totals, the case-mix strata and the funnel
     const byInstructorStratum = talliesByInstructorStratum(db, scope);
-    const tallies = new Map([...byInstructorStratum].map(([id, strata]) => [id, [...strata.values()].reduce(addTally, emptyTally())]));
+    const tallies = totalsByInstructor(byInstructorStratum);
     // one read of the packed distributions gives every instructor's distribution of every metric, in total and
     // in each stratum
     const { byInstructor, byStratum } = distributionsByInstructor(db, scope);

@@ -84,7 +84,7 @@ export function forEachDistribution(db: Db, scope: SummaryScope, visit: Distribu
   const wanted = stratumFilter(scope);
   const indices = metrics.map((metric) => summaryMetrics.indexOf(metric));
   const fromValues = (quarter: string, instructorId: number, values: StrataValues) => {
-    for (const [stratum, byMetric] of values.pairs()) {
+    for (const [stratum, byMetric] of values.pairs(indices)) {
       if (wanted(stratum)) for (const m of indices) visit(quarter, instructorId, stratum, m, byMetric[m]);
     }
   };

@@ -76,9 +76,10 @@ export class StrataValues {
     this.attempts += 1;
   }
 
-  /** Each stratum's pairs per metric index. */
-  pairs(): Map<StratumIndex, Pairs[]> {
-    return new Map([...this.values].map(([stratum, values]) => [stratum, values.map(pairsOf)]));
+  /** Each stratum's pairs per metric index; only the metrics at `indices` are built (the others are left empty). */
+  pairs(indices: readonly number[] = summaryMetrics.map((_, m) => m)): Map<StratumIndex, Pairs[]> {
+    const empty = new Float64Array(0);
+    return new Map([...this.values].map(([stratum, values]) => [stratum, values.map((list, m) => (indices.includes(m) ? pairsOf(list) : empty))]));
   }
 
   /** Each stratum's tally fields. */

@@ -9,7 +9,7 @@ import { attemptErrorNames, type AttemptError } from "../../shared/scoring/score
 import type { Db } from "../db/client";
 import { attemptTallies, learnerTallies, networkTallies, networkValues, summaryMetrics } from "../db/schema";
 import { forEachDistribution, forEachGridCount, forEachInstructorTally, rowsAnswer } from "./instructorRows";
-import { mergePairs, quantileOfPairs, STRATA, stratumOf, type Pairs, type StratumIndex, type SummaryMetric } from "./packedValues";
+import { mergePairs, quantileOfPairs, STRATA, type Pairs, type StratumIndex, type SummaryMetric } from "./packedValues";
 
 /** Metrics whose distributions are kept (exact, at the values as recorded). */
 export type { SummaryMetric };
@@ -160,19 +160,23 @@ function tallyOf(row: Record<string, unknown>): Tally {
 /** Dimensions instructor_values holds its tallies by. */
 const instructorRowDimensions = new Set<Dimension>(["quarter", "instructorId", "profile", "feedback"]);
 
+/** A stratum's key (`${profile}|${feedback}`) by stratum index. */
+const STRATUM_KEYS: readonly StratumKey[] = STRATA.map(({ profile, feedback }): StratumKey => `${profile}|${feedback}`);
+
+/** An instructor-quarter row's coordinate on one of instructorRowDimensions. */
+function coordinateOf(dimension: DistributionDimension): (quarter: string, instructorId: number, stratum: StratumIndex) => string | number {
+  if (dimension === "quarter") return (quarter) => quarter;
+  if (dimension === "instructorId") return (_quarter, instructorId) => instructorId;
+  return (_quarter, _instructorId, stratum) => STRATA[stratum][dimension];
+}
+
 /**
  * Tallies grouped by instructor (and quarter, patient type or feedback display) from instructor_values: a few
  * hundred rows per quarter instead of every group of attempt_tallies. Null where those rows cannot answer.
  */
 function instructorTallies(db: Db, scope: SummaryScope, dimensions: readonly Dimension[]): Map<string | number, Tally> | null {
   if (!rowsAnswer(scope) || !dimensions.includes("instructorId") || !dimensions.every((d) => instructorRowDimensions.has(d))) return null;
-  const coordinate = (dimension: Dimension): ((quarter: string, instructorId: number, stratum: StratumIndex) => string | number) =>
-    dimension === "quarter"
-      ? (quarter) => quarter
-      : dimension === "instructorId"
-        ? (_quarter, instructorId) => instructorId
-        : (_quarter, _instructorId, stratum) => STRATA[stratum][dimension as "profile" | "feedback"];
-  const [first, second] = dimensions.map(coordinate);
+  const [first, second] = dimensions.map((dimension) => coordinateOf(dimension as DistributionDimension));
   const keyOf =
     second === undefined
       ? first
@@ -254,8 +258,7 @@ export function talliesByInstructorStratum(db: Db, scope: SummaryScope): Map<num
     return tally;
   };
   if (rowsAnswer(scope)) {
-    const keys = STRATA.map(({ profile, feedback }): StratumKey => `${profile}|${feedback}`);
-    forEachInstructorTally(db, scope, (_quarter, instructorId, stratum, fields) => addFields(tallyAt(instructorId, keys[stratum]), fields));
+    forEachInstructorTally(db, scope, (_quarter, instructorId, stratum, fields) => addFields(tallyAt(instructorId, STRATUM_KEYS[stratum]), fields));
     return byInstructor;
   }
   const t = attemptTallies;
@@ -267,6 +270,11 @@ export function talliesByInstructorStratum(db: Db, scope: SummaryScope): Map<num
     .all();
   for (const row of rows) addTally(tallyAt(row.instructorId, `${row.profile}|${row.feedback}`), tallyOf(row));
   return byInstructor;
+}
+
+/** Each instructor's tally over all their strata (the sum of talliesByInstructorStratum's). */
+export function totalsByInstructor(byStratum: ReadonlyMap<number, ReadonlyMap<StratumKey, Tally>>): Map<number, Tally> {
+  return new Map([...byStratum].map(([id, strata]) => [id, [...strata.values()].reduce(addTally, emptyTally())]));
 }
 
 /** Distinct values of a dimension among the attempts in scope, ascending. */
@@ -287,11 +295,11 @@ export type ValueCounts = { value: number; count: number }[];
 
 /** Type-7 quantile of a distribution (Hyndman & Fan 1996; shared/stats `quantile` on the expanded values). */
 export function quantileOfCounts(counts: ValueCounts, p: number): number | null {
-  return quantileOfPairs(pairsOf(counts), p);
+  return quantileOfPairs(pairsOfCounts(counts), p);
 }
 
 /** A distribution as pairs (./packedValues). */
-function pairsOf(counts: ValueCounts): Pairs {
+function pairsOfCounts(counts: ValueCounts): Pairs {
   const pairs = new Float64Array(counts.length * 2);
   counts.forEach(({ value, count }, i) => {
     pairs[2 * i] = value;
@@ -351,15 +359,7 @@ export function valueCounts(db: Db, metric: SummaryMetric, scope: SummaryScope):
       .all();
   }
   const lists: Pairs[] = [];
-  const wanted = summaryMetrics.indexOf(metric);
-  forEachDistribution(
-    db,
-    scope,
-    (_quarter, _instructorId, _stratum, m, pairs) => {
-      if (m === wanted) lists.push(pairs);
-    },
-    [metric],
-  );
+  forEachDistribution(db, scope, (_quarter, _instructorId, _stratum, _metric, pairs) => lists.push(pairs), [metric]);
   return countsOf(mergePairs(lists));
 }
 
@@ -410,19 +410,12 @@ export function valueCountsBy<K extends string | number>(
 
 /** The distribution of a metric for each value of `dimension`, as pairs, from the instructor-quarter rows. */
 function instructorPairsBy<K extends string | number>(db: Db, metric: SummaryMetric, scope: SummaryScope, dimension: DistributionDimension): Map<K, Pairs> {
-  const wanted = summaryMetrics.indexOf(metric);
-  const keyOf: (quarter: string, instructorId: number, stratum: StratumIndex) => string | number =
-    dimension === "quarter"
-      ? (quarter) => quarter
-      : dimension === "instructorId"
-        ? (_quarter, instructorId) => instructorId
-        : (_quarter, _instructorId, stratum) => stratumOf(stratum)[dimension];
+  const keyOf = coordinateOf(dimension);
   const lists = new Map<string | number, Pairs[]>();
   forEachDistribution(
     db,
     scope,
-    (quarter, instructorId, stratum, m, pairs) => {
-      if (m !== wanted) return;
+    (quarter, instructorId, stratum, _metric, pairs) => {
       const key = keyOf(quarter, instructorId, stratum);
       const list = lists.get(key);
       if (list) list.push(pairs);
@@ -483,15 +476,11 @@ export function distributionsByInstructor(db: Db, scope: SummaryScope): Instruct
     if (list) list.push(pairs);
     else strata.set(stratum, [pairs]);
   });
-  const stratumKeyOf = (index: StratumIndex): StratumKey => {
-    const { profile, feedback } = stratumOf(index);
-    return `${profile}|${feedback}`;
-  };
   const byInstructor = {} as InstructorDistributions["byInstructor"];
   const byStratum = {} as InstructorDistributions["byStratum"];
   summaryMetrics.forEach((metric, m) => {
     byStratum[metric] = new Map(
-      [...lists[m]].map(([instructorId, strata]) => [instructorId, new Map([...strata].map(([stratum, list]) => [stratumKeyOf(stratum), mergePairs(list)]))]),
+      [...lists[m]].map(([instructorId, strata]) => [instructorId, new Map([...strata].map(([stratum, list]) => [STRATUM_KEYS[stratum], mergePairs(list)]))]),
     );
     byInstructor[metric] = new WholeDistributions(byStratum[metric]);
   });
