@@ -5,6 +5,7 @@ import Database from "better-sqlite3";
 import { drizzle, type BetterSQLite3Database } from "drizzle-orm/better-sqlite3";
 import { migrate } from "drizzle-orm/better-sqlite3/migrator";
 import { refreshInstructorValues } from "../metrics/instructorValues";
+import { ensureRunningValues } from "../metrics/runningValues";
 import { projectRoot } from "../projectRoot";
 import * as schema from "./schema";
 
@@ -25,6 +26,7 @@ export function openDatabase(file: string, options: { migrate?: boolean } = {}):
     migrate(db, { migrationsFolder });
     // instructor-quarters a migration or an outside write left noted are built once here, not on every read
     refreshInstructorValues(sqlite);
+    ensureRunningValues(sqlite);
   }
   return db;
 }

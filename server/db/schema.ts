@@ -362,6 +362,17 @@ export const networkTallies = sqliteTable(
 
 export const summaryMetrics = ["score", "depth_ok_pct", "rate_ok_pct", "recoil_ok_pct", "hands_on_pct"] as const;
 
+/** One packed-pairs column per metric of summaryMetrics (server/metrics/packedValues.ts), fresh for each table. */
+function packedMetricColumns() {
+  return {
+    packedScore: blob({ mode: "buffer" }).notNull(),
+    packedDepthOkPct: blob({ mode: "buffer" }).notNull(),
+    packedRateOkPct: blob({ mode: "buffer" }).notNull(),
+    packedRecoilOkPct: blob({ mode: "buffer" }).notNull(),
+    packedHandsOnPct: blob({ mode: "buffer" }).notNull(),
+  };
+}
+
 /**
  * Each instructor's tallies and exact distributions of the metrics with medians in one quarter, packed: for every
  * patient type × feedback display they taught, the counts of attempt_tallies and each metric's ascending
@@ -381,13 +392,28 @@ export const instructorValues = sqliteTable(
     // attempts and judged attempts per site × stratum × manikin: the instructor's cells of the release grid
     cells: blob({ mode: "buffer" }).notNull(),
     // one column per metric, so an answer about one metric reads a fifth of the pairs
-    packedScore: blob({ mode: "buffer" }).notNull(),
-    packedDepthOkPct: blob({ mode: "buffer" }).notNull(),
-    packedRateOkPct: blob({ mode: "buffer" }).notNull(),
-    packedRecoilOkPct: blob({ mode: "buffer" }).notNull(),
-    packedHandsOnPct: blob({ mode: "buffer" }).notNull(),
+    ...packedMetricColumns(),
   },
   (t) => [primaryKey({ columns: [t.quarter, t.instructorId] })],
+);
+
+/**
+ * Running totals of instructor_values' distributions: for each instructor and each quarter they taught, the
+ * packed pairs (same form) of all their attempts up to and including that quarter. An instructor's
+ * distribution over a range of quarters is the running total at its end less the one before its start, so a
+ * range reads at most two rows per instructor, however many quarters it spans. Rebuilt from instructor_values
+ * whenever an instructor-quarter is (server/metrics/runningValues.ts); readers fall back to instructor_values
+ * while an instructor-quarter up to the range's end is still noted as changed.
+ */
+export const instructorRunningValues = sqliteTable(
+  "instructor_running_values",
+  {
+    instructorId: integer().notNull(),
+    quarter: text().notNull(),
+    ...packedMetricColumns(),
+  },
+  // instructor first: "each instructor's latest total up to a quarter" is one index seek per instructor
+  (t) => [primaryKey({ columns: [t.instructorId, t.quarter] })],
 );
 
 /**

@@ -4,8 +4,19 @@
 // site or a manikin (below the rows' grain; such scopes hold a small share of the attempts).
 import type { Db } from "../db/client";
 import { summaryMetrics } from "../db/schema";
-import { INSTRUCTOR_ROW_COLUMNS, PACKED_COLUMNS, StrataValues, type InstructorRow } from "./instructorValues";
-import { forEachCell, forEachSection, forEachTally, STRATA, type GridCount, type Pairs, type StratumIndex, type SummaryMetric } from "./packedValues";
+import { INSTRUCTOR_ROW_COLUMNS, StrataValues, type InstructorRow } from "./instructorValues";
+import {
+  forEachCell,
+  forEachSection,
+  forEachTally,
+  PACKED_COLUMNS,
+  STRATA,
+  type GridCount,
+  type Pairs,
+  type StratumIndex,
+  type SummaryMetric,
+} from "./packedValues";
+import { forEachRunningSection } from "./runningValues";
 import type { SummaryScope } from "./summaries";
 
 type DistributionVisitor = (quarter: string, instructorId: number, stratum: StratumIndex, metric: number, pairs: Pairs) => void;
@@ -112,6 +123,34 @@ export function forEachDistribution(db: Db, scope: SummaryScope, visit: Distribu
       }
     },
     fromValues,
+  );
+}
+
+/**
+ * Visits each instructor's distributions over the scope, by stratum and metric index, once per instructor rather
+ * than once per quarter: a range of quarters is read from the running totals (./runningValues) unless an
+ * instructor-quarter up to its end is still noted as changed, in which case (and for a single quarter, or a
+ * site or a manikin) the quarters are visited one by one, as forEachDistribution does.
+ */
+export function forEachRangeDistribution(
+  db: Db,
+  scope: SummaryScope,
+  visit: (instructorId: number, stratum: StratumIndex, metric: number, pairs: Pairs) => void,
+  metrics: readonly SummaryMetric[] = summaryMetrics,
+): void {
+  const byQuarter = () => forEachDistribution(db, scope, (_quarter, instructorId, stratum, m, pairs) => visit(instructorId, stratum, m, pairs), metrics);
+  if (scope.from === scope.to || !rowsAnswer(scope)) return byQuarter();
+  const noted = db.$client
+    .prepare(`SELECT 1 FROM instructor_values_stale WHERE quarter <= ?${scope.instructorId === null ? "" : " AND instructor_id = ?"} LIMIT 1`)
+    .pluck()
+    .get(...(scope.instructorId === null ? [scope.to] : [scope.to, scope.instructorId]));
+  if (noted !== undefined) return byQuarter();
+  forEachRunningSection(
+    db.$client,
+    scope,
+    metrics.map((metric) => summaryMetrics.indexOf(metric)),
+    stratumFilter(scope),
+    visit,
   );
 }
 

@@ -6,10 +6,19 @@
 import type Database from "better-sqlite3";
 import { attemptErrorNames } from "../../shared/scoring/scoreAttempt";
 import { summaryMetrics } from "../db/schema";
-import { pack, packCells, packTallies, pairsOf, stratumIndexOf, TALLY_FIELDS, type GridCount, type Pairs, type StratumIndex } from "./packedValues";
-
-/** instructor_values' column of each metric's packed pairs, in summaryMetrics order. */
-export const PACKED_COLUMNS = summaryMetrics.map((metric) => `packed_${metric}`);
+import { refreshRunningValues } from "./runningValues";
+import {
+  pack,
+  packCells,
+  PACKED_COLUMNS,
+  packTallies,
+  pairsOf,
+  stratumIndexOf,
+  TALLY_FIELDS,
+  type GridCount,
+  type Pairs,
+  type StratumIndex,
+} from "./packedValues";
 
 /** The attempt columns an instructor-quarter's row is built from, in this order. */
 export const INSTRUCTOR_ROW_COLUMNS = [
@@ -123,6 +132,13 @@ export function refreshInstructorValues(sqlite: Database.Database): number {
       }
     }
     sqlite.prepare("DELETE FROM instructor_values_stale").run();
+    // each instructor's running totals from their earliest rebuilt quarter on
+    const changedFrom = new Map<number, string>();
+    for (const [quarter, instructorId] of noted) {
+      const earliest = changedFrom.get(instructorId);
+      if (earliest === undefined || quarter < earliest) changedFrom.set(instructorId, quarter);
+    }
+    refreshRunningValues(sqlite, changedFrom);
   };
   if (sqlite.inTransaction) rebuild();
   else sqlite.transaction(rebuild).immediate();

@@ -11,6 +11,9 @@ import { summaryMetrics } from "../db/schema";
 
 export type SummaryMetric = (typeof summaryMetrics)[number];
 
+/** The column of each metric's packed pairs (in instructor_values and instructor_running_values), in summaryMetrics order. */
+export const PACKED_COLUMNS = summaryMetrics.map((metric) => `packed_${metric}`);
+
 /** Ascending (value, count) pairs, interleaved: [v₁, c₁, v₂, c₂, …]. */
 export type Pairs = Float64Array;
 
@@ -47,12 +50,17 @@ export function pairsOf(values: readonly number[]): Pairs {
 
 /** Packs the sections of one metric (its index in summaryMetrics) given as stratum → metric index → pairs. */
 export function pack(strata: ReadonlyMap<StratumIndex, readonly Pairs[]>, metric: number): Buffer {
+  return packSections(new Map([...strata].map(([stratum, byMetric]) => [stratum, byMetric[metric]])), metric);
+}
+
+/** Packs one metric's pairs given per stratum. */
+export function packSections(strata: ReadonlyMap<StratumIndex, Pairs>, metric: number): Buffer {
   let length = 0;
-  for (const byMetric of strata.values()) length += 3 + byMetric[metric].length;
+  for (const pairs of strata.values()) length += 3 + pairs.length;
   const out = new Float64Array(length);
   let at = 0;
   for (const stratum of [...strata.keys()].sort((a, b) => a - b)) {
-    const pairs = strata.get(stratum)![metric];
+    const pairs = strata.get(stratum)!;
     out[at++] = stratum;
     out[at++] = metric;
     out[at++] = pairs.length / 2;
@@ -60,6 +68,13 @@ export function pack(strata: ReadonlyMap<StratumIndex, readonly Pairs[]>, metric
     at += pairs.length;
   }
   return Buffer.from(out.buffer, out.byteOffset, out.byteLength);
+}
+
+/** The sections of a packed row by stratum (views on the blob). */
+export function sectionsOf(packed: Uint8Array): Map<StratumIndex, Pairs> {
+  const sections = new Map<StratumIndex, Pairs>();
+  forEachSection(packed, (stratum, _metric, pairs) => sections.set(stratum, pairs));
+  return sections;
 }
 
 /** The blob's numbers; a Float64Array view needs an 8-byte aligned offset, which small blobs from Node's buffer pool may lack. */
@@ -116,6 +131,31 @@ export function mergePairs(lists: readonly Pairs[]): Pairs {
     out[k++] = smallest;
     out[k++] = count;
   }
+  return out.subarray(0, k);
+}
+
+/**
+ * The pairs of `whole` less those of `part`, a sub-multiset of it (a running total less an earlier one): counts
+ * are subtracted, values left with none are dropped. Exact, as counts are whole numbers.
+ */
+export function subtractPairs(whole: Pairs, part: Pairs): Pairs {
+  if (part.length === 0) return whole;
+  const out = new Float64Array(whole.length);
+  let k = 0;
+  let j = 0;
+  for (let i = 0; i < whole.length; i += 2) {
+    let count = whole[i + 1];
+    if (j < part.length && part[j] === whole[i]) {
+      count -= part[j + 1];
+      j += 2;
+    }
+    if (count < 0) throw new Error("subtractPairs: the part holds more of a value than the whole");
+    if (count > 0) {
+      out[k++] = whole[i];
+      out[k++] = count;
+    }
+  }
+  if (j < part.length) throw new Error("subtractPairs: the part holds a value the whole lacks");
   return out.subarray(0, k);
 }
 

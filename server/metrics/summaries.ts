@@ -8,7 +8,7 @@ import type { SQLiteColumn } from "drizzle-orm/sqlite-core";
 import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
 import type { Db } from "../db/client";
 import { attemptTallies, learnerTallies, networkTallies, networkValues, summaryMetrics } from "../db/schema";
-import { forEachDistribution, forEachGridCount, forEachInstructorTally, rowsAnswer } from "./instructorRows";
+import { forEachDistribution, forEachGridCount, forEachInstructorTally, forEachRangeDistribution, rowsAnswer } from "./instructorRows";
 import { mergePairs, quantileOfPairs, STRATA, type Pairs, type StratumIndex, type SummaryMetric } from "./packedValues";
 
 /** Metrics whose distributions are kept (exact, at the values as recorded). */
@@ -359,7 +359,7 @@ export function valueCounts(db: Db, metric: SummaryMetric, scope: SummaryScope):
       .all();
   }
   const lists: Pairs[] = [];
-  forEachDistribution(db, scope, (_quarter, _instructorId, _stratum, _metric, pairs) => lists.push(pairs), [metric]);
+  forEachRangeDistribution(db, scope, (_instructorId, _stratum, _metric, pairs) => lists.push(pairs), [metric]);
   return countsOf(mergePairs(lists));
 }
 
@@ -412,17 +412,15 @@ export function valueCountsBy<K extends string | number>(
 function instructorPairsBy<K extends string | number>(db: Db, metric: SummaryMetric, scope: SummaryScope, dimension: DistributionDimension): Map<K, Pairs> {
   const keyOf = coordinateOf(dimension);
   const lists = new Map<string | number, Pairs[]>();
-  forEachDistribution(
-    db,
-    scope,
-    (quarter, instructorId, stratum, _metric, pairs) => {
-      const key = keyOf(quarter, instructorId, stratum);
-      const list = lists.get(key);
-      if (list) list.push(pairs);
-      else lists.set(key, [pairs]);
-    },
-    [metric],
-  );
+  const add = (quarter: string, instructorId: number, stratum: StratumIndex, _metric: number, pairs: Pairs) => {
+    const key = keyOf(quarter, instructorId, stratum);
+    const list = lists.get(key);
+    if (list) list.push(pairs);
+    else lists.set(key, [pairs]);
+  };
+  // grouped by quarter, the quarters are read one by one; otherwise each instructor's range at once
+  if (dimension === "quarter") forEachDistribution(db, scope, add, [metric]);
+  else forEachRangeDistribution(db, scope, (instructorId, stratum, m, pairs) => add(scope.from, instructorId, stratum, m, pairs), [metric]);
   return new Map([...lists].map(([key, list]) => [key as K, mergePairs(list)]));
 }
 
@@ -467,9 +465,9 @@ export class WholeDistributions implements Iterable<[number, Pairs]> {
  * the packed distributions: an instructor-quarter row carries all metrics and strata.
  */
 export function distributionsByInstructor(db: Db, scope: SummaryScope): InstructorDistributions {
-  // metric → instructor → stratum → the quarters' pairs
+  // metric → instructor → stratum → the pairs (one list per quarter where the range is read quarter by quarter)
   const lists = summaryMetrics.map(() => new Map<number, Map<StratumIndex, Pairs[]>>());
-  forEachDistribution(db, scope, (_quarter, instructorId, stratum, m, pairs) => {
+  forEachRangeDistribution(db, scope, (instructorId, stratum, m, pairs) => {
     let strata = lists[m].get(instructorId);
     if (!strata) lists[m].set(instructorId, (strata = new Map()));
     const list = strata.get(stratum);

@@ -10,6 +10,7 @@ import type { Db } from "../../server/db/client";
 import { attempts } from "../../server/db/schema";
 import { addPendingAttempts, deferSummaries } from "../../server/metrics/deferredSummaries";
 import { refreshInstructorValues } from "../../server/metrics/instructorValues";
+import { refreshRunningValues } from "../../server/metrics/runningValues";
 import { learnerOutcomes } from "../../server/metrics/learnerOutcomes";
 import {
   medianIn,
@@ -209,6 +210,8 @@ const scopes: [string, SummaryScope][] = [
   ["one quarter", { ...everything, from: "2026-Q2", to: "2026-Q2" }],
   ["a network range after an earlier quarter", { ...everything, from: "2026-Q1", to: "2026-Q2" }],
   ["a range with live display", { ...everything, from: "2025-Q4", to: "2026-Q2", feedback: "live" }],
+  ["a range ending before the latest quarter", { ...everything, from: "2025-Q4", to: "2026-Q1" }],
+  ["one instructor over the two latest quarters", { ...everything, from: "2026-Q1", to: "2026-Q2", instructorId: 2 }],
   ["infant attempts", { ...everything, profile: "infant" }],
   ["one site", { ...everything, siteId: 1 }],
   ["one instructor", { ...everything, instructorId: 3 }],
@@ -287,6 +290,14 @@ describe("attempt summaries equal the attempts they summarise", () => {
       talliesEqualTheAttempts(scope);
     }
     cellsEqualTheAttempts();
+  });
+
+  it("keeps each instructor's running totals, step by step, equal to totals built afresh from every quarter", () => {
+    const runningRows = () => db.$client.prepare("SELECT * FROM instructor_running_values ORDER BY instructor_id, quarter").raw(true).all();
+    const kept = runningRows();
+    expect(kept.length).toBe(db.$client.prepare("SELECT count(*) FROM instructor_values").pluck().get());
+    db.$client.transaction(() => refreshRunningValues(db.$client, "all"))();
+    expect(runningRows()).toEqual(kept);
   });
 
   it.each(scopes)("learner outcomes: learners, first attempt passed, passed at least once (%s)", (_name, scope) => {

@@ -14,6 +14,7 @@ import {
   sizeOfPairs,
   stratumIndexOf,
   stratumOf,
+  subtractPairs,
   type Pairs,
 } from "../../../server/metrics/packedValues";
 
@@ -69,6 +70,18 @@ describe("packed instructor distributions", () => {
         expect([...merged]).toEqual([...pairsOf(lists.flat())]);
       }),
     );
+  });
+
+  it("takes an earlier running total from a later one, leaving the values between them", () => {
+    fc.assert(
+      fc.property(fc.array(recordedValue, { maxLength: 60 }), fc.array(recordedValue, { maxLength: 60 }), (earlier, later) => {
+        const whole = pairsOf([...earlier, ...later]);
+        expect([...subtractPairs(whole, pairsOf(earlier))]).toEqual([...pairsOf(later)]);
+      }),
+    );
+    // a part that is not within the whole is refused, not turned into negative counts
+    expect(() => subtractPairs(pairsOf([1, 2]), pairsOf([2, 2]))).toThrow();
+    expect(() => subtractPairs(pairsOf([1, 2]), pairsOf([3]))).toThrow();
   });
 
   it("reads type-7 quantiles and shares off the pairs, equal to the expanded values' to the last bit", () => {
