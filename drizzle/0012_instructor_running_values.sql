@@ -1,6 +1,7 @@
 CREATE TABLE `instructor_running_values` (
 	`instructor_id` integer NOT NULL,
 	`quarter` text NOT NULL,
+	`tallies` blob NOT NULL,
 	`packed_score` blob NOT NULL,
 	`packed_depth_ok_pct` blob NOT NULL,
 	`packed_rate_ok_pct` blob NOT NULL,

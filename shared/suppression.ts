@@ -117,6 +117,16 @@ export function releaseGrid(cells: readonly GridCell[], levels: readonly (readon
   };
 }
 
+/**
+ * Whether an answer that takes every cell of one group of the last level is shown, read off the group's others'
+ * attempts and instructors as a whole, without judging the grid. The last level pools a group's unsafe units
+ * with its safe ones until the pool is safe, so some of its cells stay withheld exactly when the whole group is
+ * not a safe group; otherwise every unit of it is released and an answer taking all of them takes each whole.
+ */
+export function wholeGroupShown(attempts: number, instructors: number, rule: ReleaseRule): boolean {
+  return isSafeGroup(attempts, instructors, rule);
+}
+
 /** Whether an answer over the cells `selects` picks may be shown: it takes each pool whole and no withheld cell. */
 export function releaseShows(release: Release, selects: (coords: readonly (string | number)[]) => boolean): boolean {
   return release.guarded.every(({ coords, released }) => {

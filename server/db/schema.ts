@@ -398,10 +398,10 @@ export const instructorValues = sqliteTable(
 );
 
 /**
- * Running totals of instructor_values' distributions: for each instructor and each quarter they taught, the
- * packed pairs (same form) of all their attempts up to and including that quarter. An instructor's
- * distribution over a range of quarters is the running total at its end less the one before its start, so a
- * range reads at most two rows per instructor, however many quarters it spans. Rebuilt from instructor_values
+ * Running totals of instructor_values' tallies and distributions: for each instructor and each quarter they
+ * taught, the packed tallies and pairs (same forms) of all their attempts up to and including that quarter. An
+ * instructor's figures over a range of quarters are the running total at its end less the one before its start,
+ * so a range reads at most two rows per instructor, however many quarters it spans. Rebuilt from instructor_values
  * whenever an instructor-quarter is (server/metrics/runningValues.ts); readers fall back to instructor_values
  * while an instructor-quarter up to the range's end is still noted as changed.
  */
@@ -410,6 +410,7 @@ export const instructorRunningValues = sqliteTable(
   {
     instructorId: integer().notNull(),
     quarter: text().notNull(),
+    tallies: blob({ mode: "buffer" }).notNull(),
     ...packedMetricColumns(),
   },
   // instructor first: "each instructor's latest total up to a quarter" is one index seek per instructor

@@ -2,9 +2,9 @@
 // shown, decided once per database state over one grid of cells (shared/suppression, releaseGrid), so that no
 // two shown answers can be subtracted to reveal a small group (docs/decisions/006-disclosure-control.md).
 import { can } from "../../shared/permissions";
-import { releaseGrid, releaseShows, type GridCell, type Release } from "../../shared/suppression";
+import { releaseGrid, releaseShows, wholeGroupShown, type GridCell, type Release, type ReleaseRule } from "../../shared/suppression";
 import type { Db } from "../db/client";
-import { instructorCellCounts, quartersWithAttempts, type Dimension, type SummaryScope } from "../metrics/summaries";
+import { countsByQuarterAndInstructor, instructorCellCounts, quartersWithAttempts, type Dimension, type SummaryScope } from "../metrics/summaries";
 import { cached } from "./cache";
 import type { Viewer } from "./viewer";
 
@@ -20,7 +20,7 @@ const GRID = ["quarter", "siteId", "profile", "feedback", "manikinId"] as const 
  * of one quarter and display, then the quarter. Pools never span quarters: what a quarter cannot protect is
  * withheld, so every other quarter stays shown on its own and only ranges that take the withheld cells hide.
  */
-const LEVELS: readonly (readonly number[])[] = [[0, 1, 2, 3], [0, 2, 3], [0, 3], [0]];
+export const LEVELS: readonly (readonly number[])[] = [[0, 1, 2, 3], [0, 2, 3], [0, 3], [0]];
 
 /** What a figure counts: attempts, or the attempts that carry an instructor's result (the agreement table). */
 export type ReleaseMeasure = "attempts" | "judged";
@@ -44,7 +44,7 @@ function narrowsBySite(viewer: Viewer): boolean {
  */
 function releaseFor(db: Db, viewer: Viewer, measure: ReleaseMeasure, quarter: string): Release {
   const own = viewer.ownInstructorId;
-  const rule = { minCount: viewer.suppressionMinCount, minInstructors: viewer.suppressionMinInstructors };
+  const rule = ruleOf(viewer);
   const bySite = narrowsBySite(viewer);
   return cached(db, `release|${quarter}|${measure}|${own ?? ""}|${bySite}|${rule.minCount}|${rule.minInstructors}`, () => {
     const cells = new Map<string, { coords: (string | number)[]; others: Map<number, number> }>();
@@ -60,6 +60,36 @@ function releaseFor(db: Db, viewer: Viewer, measure: ReleaseMeasure, quarter: st
       if (instructorId !== own && count > 0) cell.others.set(instructorId, (cell.others.get(instructorId) ?? 0) + count);
     }
     return releaseGrid([...cells.values()] as GridCell[], LEVELS, rule);
+  });
+}
+
+function ruleOf(viewer: Viewer): ReleaseRule {
+  return { minCount: viewer.suppressionMinCount, minInstructors: viewer.suppressionMinInstructors };
+}
+
+/** Whether a scope takes every cell of the quarters it covers (it names no site, patient type, display or manikin). */
+function takesWholeQuarters(scope: SummaryScope): boolean {
+  return scope.siteId === null && scope.profile === null && scope.feedback === null && scope.manikinId === null;
+}
+
+/**
+ * Whether every quarter of a scope that takes whole quarters is shown: each quarter is a group of the last
+ * level, so it is shown exactly when others' attempts in it form a safe group (wholeGroupShown), read from the
+ * instructors' tallies per quarter instead of judging each quarter's grid.
+ */
+function wholeQuartersShown(db: Db, viewer: Viewer, scope: SummaryScope, measure: ReleaseMeasure, quarters: readonly string[]): boolean {
+  const others = new Map<string, { attempts: number; instructors: number }>();
+  for (const { quarter, instructorId, count } of countsByQuarterAndInstructor(db, scope.from, scope.to, measure)) {
+    if (instructorId === viewer.ownInstructorId || count === 0) continue;
+    const sum = others.get(quarter) ?? { attempts: 0, instructors: 0 };
+    sum.attempts += count;
+    sum.instructors += 1;
+    others.set(quarter, sum);
+  }
+  const rule = ruleOf(viewer);
+  return quarters.every((quarter) => {
+    const { attempts, instructors } = others.get(quarter) ?? { attempts: 0, instructors: 0 };
+    return wholeGroupShown(attempts, instructors, rule);
   });
 }
 
@@ -83,8 +113,8 @@ export function mayShow(db: Db, viewer: Viewer, scope: SummaryScope, measure: Re
   if (scope.instructorId !== null) return scope.instructorId === viewer.ownInstructorId;
   // a filter the viewer's grid does not hold is never theirs (the filters refuse it before this)
   if (!narrowsBySite(viewer) && (scope.siteId !== null || scope.manikinId !== null)) return false;
+  const quarters = quartersWithAttempts(db).filter((quarter) => quarter >= scope.from && quarter <= scope.to);
+  if (takesWholeQuarters(scope)) return wholeQuartersShown(db, viewer, scope, measure, quarters);
   const shows = selects(scope);
-  return quartersWithAttempts(db)
-    .filter((quarter) => quarter >= scope.from && quarter <= scope.to)
-    .every((quarter) => releaseShows(releaseFor(db, viewer, measure, quarter), shows));
+  return quarters.every((quarter) => releaseShows(releaseFor(db, viewer, measure, quarter), shows));
 }

@@ -16,7 +16,7 @@ import {
   type StratumIndex,
   type SummaryMetric,
 } from "./packedValues";
-import { forEachRunningSection } from "./runningValues";
+import { forEachRunningSection, forEachRunningTally } from "./runningValues";
 import type { SummaryScope } from "./summaries";
 
 type DistributionVisitor = (quarter: string, instructorId: number, stratum: StratumIndex, metric: number, pairs: Pairs) => void;
@@ -64,11 +64,11 @@ function fromAttempts(db: Db, where: string, params: unknown[], visit: (quarter:
  * Each instructor-quarter of a scope rowsAnswer(): `fromRow` with the stored columns, or `fromValues` with the
  * values rebuilt from the attempts where the pair is noted as changed.
  */
-function forEachInstructorQuarter(
+function forEachInstructorQuarter<Column = Buffer>(
   db: Db,
   scope: SummaryScope,
   columns: readonly string[],
-  fromRow: (quarter: string, instructorId: number, blobs: Buffer[]) => void,
+  fromRow: (quarter: string, instructorId: number, values: Column[]) => void,
   fromValues: (quarter: string, instructorId: number, values: StrataValues) => void,
 ): void {
   const sqlite = db.$client;
@@ -81,7 +81,7 @@ function forEachInstructorQuarter(
   for (const [quarter, instructorId, ...blobs] of sqlite
     .prepare(`SELECT quarter, instructor_id, ${columns.join(", ")} FROM instructor_values WHERE ${where}`)
     .raw(true)
-    .iterate(...params) as Iterable<[string, number, ...Buffer[]]>) {
+    .iterate(...params) as Iterable<[string, number, ...Column[]]>) {
     if (notedKeys.size === 0 || !notedKeys.has(`${quarter}|${instructorId}`)) fromRow(quarter, instructorId, blobs);
   }
   for (const [quarter, instructorId] of noted) fromAttempts(db, "quarter = ? AND instructor_id = ?", [quarter, instructorId], fromValues);
@@ -127,6 +127,19 @@ export function forEachDistribution(db: Db, scope: SummaryScope, visit: Distribu
 }
 
 /**
+ * Whether the running totals answer a scope: a range of more than one quarter that rowsAnswer(), with no
+ * instructor-quarter up to its end still noted as changed (a running total includes every earlier quarter).
+ */
+function runningTotalsAnswer(db: Db, scope: SummaryScope): boolean {
+  if (scope.from === scope.to || !rowsAnswer(scope)) return false;
+  const noted = db.$client
+    .prepare(`SELECT 1 FROM instructor_values_stale WHERE quarter <= ?${scope.instructorId === null ? "" : " AND instructor_id = ?"} LIMIT 1`)
+    .pluck()
+    .get(...(scope.instructorId === null ? [scope.to] : [scope.to, scope.instructorId]));
+  return noted === undefined;
+}
+
+/**
  * Visits each instructor's distributions over the scope, by stratum and metric index, once per instructor rather
  * than once per quarter: a range of quarters is read from the running totals (./runningValues) unless an
  * instructor-quarter up to its end is still noted as changed, in which case (and for a single quarter, or a
@@ -138,13 +151,9 @@ export function forEachRangeDistribution(
   visit: (instructorId: number, stratum: StratumIndex, metric: number, pairs: Pairs) => void,
   metrics: readonly SummaryMetric[] = summaryMetrics,
 ): void {
-  const byQuarter = () => forEachDistribution(db, scope, (_quarter, instructorId, stratum, m, pairs) => visit(instructorId, stratum, m, pairs), metrics);
-  if (scope.from === scope.to || !rowsAnswer(scope)) return byQuarter();
-  const noted = db.$client
-    .prepare(`SELECT 1 FROM instructor_values_stale WHERE quarter <= ?${scope.instructorId === null ? "" : " AND instructor_id = ?"} LIMIT 1`)
-    .pluck()
-    .get(...(scope.instructorId === null ? [scope.to] : [scope.to, scope.instructorId]));
-  if (noted !== undefined) return byQuarter();
+  if (!runningTotalsAnswer(db, scope)) {
+    return forEachDistribution(db, scope, (_quarter, instructorId, stratum, m, pairs) => visit(instructorId, stratum, m, pairs), metrics);
+  }
   forEachRunningSection(
     db.$client,
     scope,
@@ -168,6 +177,27 @@ export function forEachInstructorTally(db: Db, scope: SummaryScope, visit: Tally
     (quarter, instructorId, values) => {
       for (const [stratum, fields] of values.tallies()) if (wanted(stratum)) visit(quarter, instructorId, stratum, fields);
     },
+  );
+}
+
+/**
+ * Visits each instructor's tally fields per stratum over a scope rowsAnswer(), once per instructor rather than
+ * once per quarter: from the running totals where they answer, else quarter by quarter.
+ */
+export function forEachRangeTally(db: Db, scope: SummaryScope, visit: (instructorId: number, stratum: StratumIndex, fields: Float64Array) => void): void {
+  if (!runningTotalsAnswer(db, scope))
+    return forEachInstructorTally(db, scope, (_quarter, instructorId, stratum, fields) => visit(instructorId, stratum, fields));
+  forEachRunningTally(db.$client, scope, stratumFilter(scope), visit);
+}
+
+/** Visits the attempts of every instructor-quarter in a scope rowsAnswer() (a column before the packed ones: no blob is read). */
+export function forEachInstructorAttempts(db: Db, scope: SummaryScope, visit: (quarter: string, instructorId: number, attempts: number) => void): void {
+  forEachInstructorQuarter<number>(
+    db,
+    scope,
+    ["attempts"],
+    (quarter, instructorId, [attempts]) => visit(quarter, instructorId, attempts),
+    (quarter, instructorId, values) => visit(quarter, instructorId, values.attempts),
   );
 }
 

@@ -8,7 +8,15 @@ import type { SQLiteColumn } from "drizzle-orm/sqlite-core";
 import { attemptErrorNames, type AttemptError } from "../../shared/scoring/scoreAttempt";
 import type { Db } from "../db/client";
 import { attemptTallies, learnerTallies, networkTallies, networkValues, summaryMetrics } from "../db/schema";
-import { forEachDistribution, forEachGridCount, forEachInstructorTally, forEachRangeDistribution, rowsAnswer } from "./instructorRows";
+import {
+  forEachDistribution,
+  forEachGridCount,
+  forEachInstructorAttempts,
+  forEachInstructorTally,
+  forEachRangeDistribution,
+  forEachRangeTally,
+  rowsAnswer,
+} from "./instructorRows";
 import { mergePairs, quantileOfPairs, STRATA, type Pairs, type StratumIndex, type SummaryMetric } from "./packedValues";
 
 /** Metrics whose distributions are kept (exact, at the values as recorded). */
@@ -182,12 +190,15 @@ function instructorTallies(db: Db, scope: SummaryScope, dimensions: readonly Dim
       ? first
       : (quarter: string, instructorId: number, stratum: StratumIndex) => `${first(quarter, instructorId, stratum)}|${second(quarter, instructorId, stratum)}`;
   const byKey = new Map<string | number, Tally>();
-  forEachInstructorTally(db, scope, (quarter, instructorId, stratum, fields) => {
+  const add = (quarter: string, instructorId: number, stratum: StratumIndex, fields: Float64Array) => {
     const key = keyOf(quarter, instructorId, stratum);
     let tally = byKey.get(key);
     if (!tally) byKey.set(key, (tally = emptyTally()));
     addFields(tally, fields);
-  });
+  };
+  // grouped by quarter, the quarters are read one by one; otherwise each instructor's range at once
+  if (dimensions.includes("quarter")) forEachInstructorTally(db, scope, add);
+  else forEachRangeTally(db, scope, (instructorId, stratum, fields) => add(scope.from, instructorId, stratum, fields));
   return byKey;
 }
 
@@ -258,7 +269,7 @@ export function talliesByInstructorStratum(db: Db, scope: SummaryScope): Map<num
     return tally;
   };
   if (rowsAnswer(scope)) {
-    forEachInstructorTally(db, scope, (_quarter, instructorId, stratum, fields) => addFields(tallyAt(instructorId, STRATUM_KEYS[stratum]), fields));
+    forEachRangeTally(db, scope, (instructorId, stratum, fields) => addFields(tallyAt(instructorId, STRATUM_KEYS[stratum]), fields));
     return byInstructor;
   }
   const t = attemptTallies;
@@ -514,6 +525,30 @@ export function quartersWithAttempts(db: Db): string[] {
     .orderBy(sql`${networkTallies.quarter} DESC`)
     .all()
     .map((row) => row.quarter);
+}
+
+/** Each instructor's attempts, or judged attempts, in each quarter from `from` to `to` (instructors with none left out). */
+export function countsByQuarterAndInstructor(
+  db: Db,
+  from: string,
+  to: string,
+  measure: "attempts" | "judged",
+): { quarter: string; instructorId: number; count: number }[] {
+  const counts: { quarter: string; instructorId: number; count: number }[] = [];
+  const scope = networkScope(from, to);
+  if (measure === "attempts") {
+    forEachInstructorAttempts(db, scope, (quarter, instructorId, count) => counts.push({ quarter, instructorId, count }));
+    return counts;
+  }
+  const judged = new Map<string, { quarter: string; instructorId: number; count: number }>();
+  forEachInstructorTally(db, scope, (quarter, instructorId, _stratum, fields) => {
+    const key = `${quarter}|${instructorId}`;
+    let entry = judged.get(key);
+    if (!entry) judged.set(key, (entry = { quarter, instructorId, count: 0 }));
+    // fields 2–5: attempts with an instructor's result (packedValues TALLY_FIELDS)
+    entry.count += fields[2] + fields[3] + fields[4] + fields[5];
+  });
+  return [...judged.values()].filter((entry) => entry.count > 0);
 }
 
 /** A cell of the release grid with one instructor's attempts and judged attempts in it. */

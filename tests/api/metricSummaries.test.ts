@@ -13,6 +13,7 @@ import { refreshInstructorValues } from "../../server/metrics/instructorValues";
 import { refreshRunningValues } from "../../server/metrics/runningValues";
 import { learnerOutcomes } from "../../server/metrics/learnerOutcomes";
 import {
+  countsByQuarterAndInstructor,
   medianIn,
   mediansBy,
   mergeCounts,
@@ -20,6 +21,7 @@ import {
   quartersWithAttempts,
   instructorCellCounts,
   talliesBy,
+  talliesByInstructorStratum,
   talliesByPair,
   totalTally,
   type Dimension,
@@ -231,6 +233,16 @@ describe("attempt summaries equal the attempts they summarise", () => {
     const byPair = new Map<string, AttemptRow[]>();
     for (const row of rows) byPair.set(`${row.instructorId}|${row.profile}`, [...(byPair.get(`${row.instructorId}|${row.profile}`) ?? []), row]);
     expect(talliesByPair(db, scope, "instructorId", "profile")).toEqual(new Map([...byPair].map(([key, members]) => [key, tallyOf(members)])));
+    // by instructor and stratum (patient type × display), as standing and the funnel read them
+    const byStratum = new Map<number, Map<string, AttemptRow[]>>();
+    for (const row of rows) {
+      const strata = byStratum.get(row.instructorId) ?? new Map<string, AttemptRow[]>();
+      strata.set(`${row.profile}|${row.feedback}`, [...(strata.get(`${row.profile}|${row.feedback}`) ?? []), row]);
+      byStratum.set(row.instructorId, strata);
+    }
+    expect(talliesByInstructorStratum(db, scope)).toEqual(
+      new Map([...byStratum].map(([id, strata]) => [id, new Map([...strata].map(([key, members]) => [key, tallyOf(members)]))])),
+    );
   };
 
   it.each(scopes)("tallies in total and by every dimension, with changed instructor-quarters noted (%s)", (_name, scope) => {
@@ -255,6 +267,17 @@ describe("attempt summaries equal the attempts they summarise", () => {
         ]),
       );
       expect(counted).toEqual(expected);
+    }
+    // each instructor's attempts and judged attempts per quarter, as whole-quarter releases read them
+    for (const measure of ["attempts", "judged"] as const) {
+      const expected = new Map<string, number>();
+      for (const row of rowsIn(everything)) {
+        if (measure === "judged" && row.instructorResult === null) continue;
+        const key = `${row.quarter}|${row.instructorId}`;
+        expected.set(key, (expected.get(key) ?? 0) + 1);
+      }
+      const counted = countsByQuarterAndInstructor(db, everything.from, everything.to, measure);
+      expect(new Map(counted.map(({ quarter, instructorId, count }) => [`${quarter}|${instructorId}`, count]))).toEqual(expected);
     }
   };
 

@@ -8,9 +8,11 @@ import {
   releaseGrid,
   releaseMeasure,
   releaseShows,
+  wholeGroupShown,
   type FamilyCell,
   type GridCell,
 } from "../../../shared/suppression";
+import { LEVELS } from "../../../server/insight/release";
 
 const MIN = 5;
 
@@ -186,5 +188,48 @@ describe("the released grid", () => {
     expect(releaseShows(release, where("Q1", "L"))).toBe(true);
     expect(releaseShows(release, where("Q1", "L", "live"))).toBe(false);
     expect(releaseShows(release, where("Q1", "L", "hidden"))).toBe(false);
+  });
+
+  it("shows an answer over whole quarters exactly when each quarter's others form a safe group, as judging the grid does", () => {
+    // cells over the pages' grid (quarter, site, patient type, display, manikin), up to three quarters, with
+    // the pages' levels: the shortcut the pages take for answers without a narrowing filter must agree
+    const gridCell = fc.record({
+      quarter: fc.constantFrom("Q1", "Q2", "Q3"),
+      site: fc.constantFrom(1, 2, 3),
+      profile: fc.constantFrom("adult", "child", "infant"),
+      feedback: fc.constantFrom("live", "hidden"),
+      manikin: fc.constantFrom(0, 1, 2),
+      others: fc.dictionary(fc.constantFrom("1", "2", "3", "4", "5"), fc.nat({ max: 6 }), { maxKeys: 3 }),
+    });
+    fc.assert(
+      fc.property(
+        fc.uniqueArray(gridCell, { selector: (c) => [c.quarter, c.site, c.profile, c.feedback, c.manikin].join("|"), maxLength: 25 }),
+        fc.integer({ min: 1, max: 12 }),
+        fc.integer({ min: 1, max: 4 }),
+        (cells, minCount, minInstructors) => {
+          const rule = { minCount, minInstructors };
+          const grid: GridCell[] = cells.map((c) => ({
+            coords: [c.quarter, c.site, c.profile, c.feedback, c.manikin],
+            others: new Map(
+              Object.entries(c.others)
+                .filter(([, n]) => n > 0)
+                .map(([id, n]) => [Number(id), n]),
+            ),
+          }));
+          const release = releaseGrid(grid, LEVELS, rule);
+          const shortcut = (quarters: string[]) =>
+            quarters.every((quarter) => {
+              const inQuarter = grid.filter((c) => c.coords[0] === quarter);
+              const attempts = inQuarter.reduce((sum, c) => sum + [...c.others.values()].reduce((a, b) => a + b, 0), 0);
+              const instructors = new Set(inQuarter.flatMap((c) => [...c.others.keys()])).size;
+              return wholeGroupShown(attempts, instructors, rule);
+            });
+          for (const quarters of [["Q1"], ["Q2"], ["Q1", "Q2"], ["Q1", "Q2", "Q3"]]) {
+            expect(releaseShows(release, (coords) => quarters.includes(coords[0] as string))).toBe(shortcut(quarters));
+          }
+        },
+      ),
+      { numRuns: 500 },
+    );
   });
 });
