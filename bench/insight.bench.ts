@@ -60,7 +60,8 @@ const COLD_RUNS = 20;
 const WARM_RUNS = 4;
 /** monitorEventLoopDelay's sampling interval (ms); delays are shown beyond it. */
 const LOOP_RESOLUTION_MS = 10;
-const GOAL_P95_MS = 100;
+/** The uncached p95 goal: 100 ms up to a million attempts, 300 ms beyond (up to ten million). */
+const goalP95Ms = (attempts: number) => (attempts > 1_000_000 ? 300 : 100);
 
 // ---- server role: open the database, start the app, print the port ---------------------------------------
 
@@ -295,14 +296,15 @@ async function bench() {
   );
   // the goal is the uncached answer's p95 (each request the first after a change); under 10 connections the
   // same answers also queue behind each other on the machine's cores, which the second figure shows
+  const goal = goalP95Ms(large.attempts);
   for (const period of PERIODS) {
     const floor = large.figures[period.name][ENDPOINTS[0].name];
     for (const { name } of ENDPOINTS.slice(1)) {
       const big = large.figures[period.name][name];
-      const verdict = big.coldP95 < GOAL_P95_MS ? "meets" : "misses";
+      const verdict = big.coldP95 < goal ? "meets" : "misses";
       console.log(
         `${period.name.padEnd(15)} ${name.padEnd(22)} uncached p95 ${big.coldP95.toFixed(1)} ms = ${(big.coldP95 / floor.coldP95).toFixed(1)}× the floor's; ` +
-          `${verdict} the ${GOAL_P95_MS} ms goal; under 10 connections p95 ${big.load.p95.toFixed(1)} ms (${(big.load.p95 / floor.load.p95).toFixed(1)}× the floor's)`,
+          `${verdict} the ${goal} ms goal; under 10 connections p95 ${big.load.p95.toFixed(1)} ms (${(big.load.p95 / floor.load.p95).toFixed(1)}× the floor's)`,
       );
     }
   }
