@@ -99,12 +99,6 @@ export async function importFile(db: Db, options: ImportFileOptions): Promise<Im
   // A bigger page cache while importing: a big file's inserts touch index pages all over the B-trees.
   const cacheSize = sqlite.pragma("cache_size", { simple: true }) as number;
   sqlite.pragma(`cache_size = ${IMPORT_CACHE_KIB > Math.abs(cacheSize) ? -IMPORT_CACHE_KIB : cacheSize}`);
-  // Each multi-row insert into attempts (which has triggers) keeps a statement journal of the pages it touches,
-  // a temp file beyond 64 KiB: in memory it halves the cost of writing attempts. Not for compression streams,
-  // whose grouper spills to a temp table to bound memory, nor for dry runs, whose seen-id table holds every id.
-  const tempStore = sqlite.pragma("temp_store", { simple: true }) as number;
-  const tempInMemory = !dryRun && kind !== "compressions";
-  if (tempInMemory) sqlite.pragma("temp_store = MEMORY");
   if (dryRun) sqlite.exec("BEGIN");
   else await beginWriting(sqlite);
   let run: ImportRun | undefined;
@@ -233,7 +227,6 @@ export async function importFile(db: Db, options: ImportFileOptions): Promise<Im
   } finally {
     run?.close();
     sqlite.pragma(`cache_size = ${cacheSize}`);
-    if (tempInMemory) sqlite.pragma(`temp_store = ${tempStore}`);
   }
 }
 
