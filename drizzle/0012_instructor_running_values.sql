@@ -9,3 +9,5 @@ CREATE TABLE `instructor_running_values` (
 	`packed_hands_on_pct` blob NOT NULL,
 	PRIMARY KEY(`instructor_id`, `quarter`)
 );
+--> statement-breakpoint
+CREATE INDEX `instructor_values_attempts_idx` ON `instructor_values` (`quarter`,`instructor_id`,`attempts`);

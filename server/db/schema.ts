@@ -394,7 +394,11 @@ export const instructorValues = sqliteTable(
     // one column per metric, so an answer about one metric reads a fifth of the pairs
     ...packedMetricColumns(),
   },
-  (t) => [primaryKey({ columns: [t.quarter, t.instructorId] })],
+  (t) => [
+    primaryKey({ columns: [t.quarter, t.instructorId] }),
+    // each instructor's attempts per quarter without reading the rows (whole-quarter releases ask for them)
+    index("instructor_values_attempts_idx").on(t.quarter, t.instructorId, t.attempts),
+  ],
 );
 
 /**
