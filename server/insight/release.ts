@@ -74,8 +74,8 @@ function takesWholeQuarters(scope: SummaryScope): boolean {
 
 /**
  * Whether every quarter of a scope that takes whole quarters is shown: each quarter is a group of the last
- * level, so it is shown exactly when others' attempts in it form a safe group (wholeGroupShown), read from the
- * instructors' tallies per quarter instead of judging each quarter's grid.
+ * level, so it is shown exactly when others' attempts in it form a safe group (wholeGroupShown), read from each
+ * instructor's attempts (or judged attempts) per quarter instead of judging each quarter's grid.
  */
 function wholeQuartersShown(db: Db, viewer: Viewer, scope: SummaryScope, measure: ReleaseMeasure, quarters: readonly string[]): boolean {
   const others = new Map<string, { attempts: number; instructors: number }>();

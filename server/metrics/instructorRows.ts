@@ -190,7 +190,7 @@ export function forEachRangeTally(db: Db, scope: SummaryScope, visit: (instructo
   forEachRunningTally(db.$client, scope, stratumFilter(scope), visit);
 }
 
-/** Visits the attempts of every instructor-quarter in a scope rowsAnswer() (a column before the packed ones: no blob is read). */
+/** Visits the attempts of every instructor-quarter in a scope rowsAnswer(), from instructor_values_attempts_idx (no row is read). */
 export function forEachInstructorAttempts(db: Db, scope: SummaryScope, visit: (quarter: string, instructorId: number, attempts: number) => void): void {
   forEachInstructorQuarter<number>(
     db,
