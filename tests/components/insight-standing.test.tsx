@@ -260,6 +260,20 @@ describe("my standing", () => {
     expect(rows.map((r) => r[2])).toEqual(standing.errorProfile.rows.map(() => "too few to show"));
   });
 
+  it("compares over the last four quarters too, naming the range in the heading and the classes", async () => {
+    const range = { ...standing, period: { from: "2026-Q3", to: "2026-Q4", quarters: ["2026-Q3", "2026-Q4"] } };
+    fakeServer({
+      "GET /api/me": sessionFor("instructor"),
+      "GET /api/insight/options": answer(optionsAnswerSchema, options),
+      "GET /api/insight/standing?from=2026-Q3&to=2026-Q4&adjust=case-mix": answer(standingAnswerSchema, range),
+    });
+    renderApp("/my-standing?quarter=last-4");
+    expect(await screen.findByRole("heading", { name: "IN03 · Ilse Pendrake, 2026 Q3 to 2026 Q4" })).toBeTruthy();
+    expect(screen.getByRole("heading", { name: "Your classes in 2026 Q3 to 2026 Q4" })).toBeTruthy();
+    const period = screen.getByRole("combobox", { name: "Period" }) as HTMLSelectElement;
+    expect(period.value).toBe("last-4");
+  });
+
   it("says so when I have no attempts in the quarter", async () => {
     serve({ ...standing, attempts: 0 });
     renderApp("/my-standing?quarter=2026-Q4");

@@ -3,7 +3,7 @@
 import type { AdjustMode } from "../../../shared/filters";
 import { filteredPagePrefetch } from "./prefetch";
 import { insightQueries, type ApiFilters } from "./queries";
-import type { OptionalFilter } from "./useInsightFilters";
+import type { FilterChoices, OptionalFilter } from "./useInsightFilters";
 
 /** The comparison asked for in the URL (?adjust=none); case mix when absent or unknown. */
 export function adjustModeFrom(value: string | null): AdjustMode {
@@ -20,6 +20,8 @@ export function overviewQuery(filters: ApiFilters, search: URLSearchParams) {
 }
 
 export const standingFilters: readonly OptionalFilter[] = ["patientType", "feedback"];
+/** An instructor may compare over the last four or all quarters too: a quarter's attempts are few. */
+export const standingChoices: FilterChoices = { ranges: true };
 
 export function standingQuery(filters: ApiFilters, search: URLSearchParams) {
   return insightQueries.standing({ ...filters, adjust: adjustModeFrom(search.get("adjust")) });
@@ -34,6 +36,6 @@ export function instructorsQuery(filters: ApiFilters, search: URLSearchParams) {
 export const instructorFilters: readonly OptionalFilter[] = ["patientType", "feedback"];
 
 export const prefetchOverview = filteredPagePrefetch(overviewFilters, {}, (filters, { search }) => overviewQuery(filters, search));
-export const prefetchStanding = filteredPagePrefetch(standingFilters, {}, (filters, { search }) => standingQuery(filters, search));
+export const prefetchStanding = filteredPagePrefetch(standingFilters, standingChoices, (filters, { search }) => standingQuery(filters, search));
 export const prefetchInstructors = filteredPagePrefetch(instructorsFilters, {}, (filters, { search }) => instructorsQuery(filters, search));
 export const prefetchInstructor = filteredPagePrefetch(instructorFilters, {}, (filters, { params }) => insightQueries.instructor(params.id ?? "", filters));

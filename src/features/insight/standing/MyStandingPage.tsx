@@ -10,7 +10,7 @@ import { TechniqueErrorProfileChart } from "../charts/TechniqueErrorProfileChart
 import { FunnelChart, type FunnelUnit } from "../charts/FunnelChart";
 import { SpreadChart } from "../charts/SpreadChart";
 import { formatCount, funnelPositionText } from "../format";
-import { quarterLabel } from "../../../../shared/period";
+import { rangeLabel } from "../../../../shared/period";
 import { useSearchParams } from "react-router";
 import { AdjustChoice, dispersionSentence } from "../AdjustChoice";
 import { InsightFilters } from "../InsightFilters";
@@ -20,7 +20,7 @@ import { RateText } from "../RateText";
 import { TechniqueErrorAttemptLinks } from "./TechniqueErrorAttemptLinks";
 import { StandingMetrics } from "./StandingMetrics";
 import { Suppressed } from "../Suppressed";
-import { standingFilters, standingQuery } from "../pageRequests";
+import { standingChoices, standingFilters, standingQuery } from "../pageRequests";
 import { linkParams, type InsightFilterState } from "../useInsightFilters";
 
 export default function MyStandingPage() {
@@ -30,7 +30,7 @@ export default function MyStandingPage() {
         title="My standing"
         description="How your learners' attempts compare with the whole network. Other instructors appear only as anonymous points and network figures."
       />
-      <InsightFilters optional={standingFilters} label="Filter my standing">
+      <InsightFilters optional={standingFilters} ranges={standingChoices.ranges} label="Filter my standing">
         {(state) => <StandingBody state={state} />}
       </InsightFilters>
     </div>
@@ -43,7 +43,7 @@ function StandingBody({ state }: { state: InsightFilterState }) {
   // the attempt list keeps an instructor to their own attempts, so the error and the filters are enough
   const attemptsHref = (error: AttemptError) => `/attempts?${linkParams(state.values, { error })}`;
   return (
-    <QueryStatus query={query} loadingLabel={`Loading your standing for ${quarterLabel(state.quarter)}…`} errorTitle="Your standing could not be loaded">
+    <QueryStatus query={query} loadingLabel="Loading your standing…" errorTitle="Your standing could not be loaded">
       {(answer) =>
         answer.attempts === 0 ? (
           <NoDataForFilters state={state} what="attempts in your classes" />
@@ -80,7 +80,7 @@ export function StandingContent({ answer, attemptsHref }: { answer: StandingAnsw
     <div className="flex flex-col gap-8">
       <section aria-labelledby="me-heading" className="flex flex-col gap-3">
         <h2 id="me-heading" className="text-title">
-          {answer.me.code} · {answer.me.name}, {quarterLabel(answer.period.from)}
+          {answer.me.code} · {answer.me.name}, {rangeLabel(answer.period)}
         </h2>
         <p>
           {formatCount(answer.attempts)} attempts in your classes. Your measured pass rate: <RateText rate={me} minCount={min} stacked={false} />.{" "}
@@ -133,13 +133,17 @@ export function StandingContent({ answer, attemptsHref }: { answer: StandingAnsw
 
       <section aria-labelledby="classes-heading" className="flex flex-col gap-3">
         <h2 id="classes-heading" className="text-title">
-          Your classes in {quarterLabel(answer.period.from)}
+          Your classes in {rangeLabel(answer.period)}
         </h2>
         <p className="text-small text-muted">
           Open a class to see each learner's attempts. Recorded completions are what you entered in the class log; each class's figures cover all of its
           attempts, whatever the filters.
         </p>
-        <ClassTable classes={answer.classes} caption="Your classes" exportFileName={`my-classes-${answer.period.from}`} />
+        <ClassTable
+          classes={answer.classes}
+          caption="Your classes"
+          exportFileName={`my-classes-${answer.period.from === answer.period.to ? answer.period.from : `${answer.period.from}-to-${answer.period.to}`}`}
+        />
       </section>
     </div>
   );
