@@ -80,7 +80,7 @@ function takesWholeQuarters(scope: SummaryScope): boolean {
 function wholeQuartersShown(db: Db, viewer: Viewer, scope: SummaryScope, measure: ReleaseMeasure, quarters: readonly string[]): boolean {
   const others = new Map<string, { attempts: number; instructors: number }>();
   for (const { quarter, instructorId, count } of countsByQuarterAndInstructor(db, scope.from, scope.to, measure)) {
-    if (instructorId === viewer.ownInstructorId || count === 0) continue;
+    if (instructorId === viewer.ownInstructorId) continue;
     const sum = others.get(quarter) ?? { attempts: 0, instructors: 0 };
     sum.attempts += count;
     sum.instructors += 1;

@@ -540,15 +540,12 @@ export function countsByQuarterAndInstructor(
     forEachInstructorAttempts(db, scope, (quarter, instructorId, count) => counts.push({ quarter, instructorId, count }));
     return counts;
   }
-  const judged = new Map<string, { quarter: string; instructorId: number; count: number }>();
-  forEachInstructorTally(db, scope, (quarter, instructorId, _stratum, fields) => {
-    const key = `${quarter}|${instructorId}`;
-    let entry = judged.get(key);
-    if (!entry) judged.set(key, (entry = { quarter, instructorId, count: 0 }));
-    // fields 2–5: attempts with an instructor's result (packedValues TALLY_FIELDS)
-    entry.count += fields[2] + fields[3] + fields[4] + fields[5];
-  });
-  return [...judged.values()].filter((entry) => entry.count > 0);
+  for (const [key, tally] of talliesByPair(db, scope, "quarter", "instructorId")) {
+    const [quarter, instructorId] = key.split("|");
+    const count = judgedOf(tally);
+    if (count > 0) counts.push({ quarter, instructorId: Number(instructorId), count });
+  }
+  return counts;
 }
 
 /** A cell of the release grid with one instructor's attempts and judged attempts in it. */
