@@ -3,6 +3,7 @@
 import { startOutsideClassDate, type AttemptIdentity } from "../../shared/import/rows";
 import type { AttemptMetrics } from "../../shared/scoring/analyzeStream";
 import { errorsToMask, scoreAttempt, type ScoringInput } from "../../shared/scoring/scoreAttempt";
+import { addAttemptsFrom } from "../metrics/deferredSummaries";
 import { RowStore, type WriteOutcome } from "./rowStore";
 import type { ClassInfo, ImportRun, RowProblem } from "./run";
 
@@ -68,6 +69,8 @@ export class AttemptStore {
       batchId: run.batchId,
       recordChange: run.recordChange,
       batchRows,
+      // a batched store serves summary rows, which nothing refers to within the import (a stream refers to its attempt)
+      stage: batchRows > 1,
       refuse: (existing, values) => {
         if (own !== null && existing[INSTRUCTOR] !== own) {
           return `attempt ${String(values[0])} is already recorded for another instructor's class`;
@@ -82,9 +85,18 @@ export class AttemptStore {
     });
   }
 
-  /** Writes what is still queued. */
+  /** Settles what is still queued (each row's outcome is known after this). */
   flush() {
     this.store.flush();
+  }
+
+  /** Writes the staged new attempts and adds them to the summaries; once the file is accepted. */
+  writeStaged() {
+    this.store.flush();
+    const staged = this.store.stagedTable;
+    if (staged === null) return;
+    addAttemptsFrom(this.run.sqlite, staged, () => this.store.writeStaged());
+    this.store.clearStaged();
   }
 
   /**

@@ -68,5 +68,8 @@ export function attemptsImporter(run: ImportRun, reader: RowReader): KindImporte
     finish() {
       store.flush();
     },
+    beforeCommit() {
+      store.writeStaged();
+    },
   };
 }

@@ -4,6 +4,8 @@ export interface KindImporter {
   row(fields: string[], row: number): void;
   /** After the last row (compression streams are analysed here). */
   finish(): void;
+  /** Once the file is accepted, before its transaction commits: writes rows held back until then. */
+  beforeCommit?(): void;
   /** What inserted/updated/unchanged count: file rows, or attempts for compression streams. */
   readonly unit: "rows" | "attempts";
 }

@@ -52,12 +52,6 @@ export interface ImportFileOptions {
 
 /** Page cache while importing, in KiB (SQLite's default is 2 MB). */
 const IMPORT_CACHE_KIB = 64 * 1024;
-/**
- * The page cache while the summaries take in a bulk import's attempts: SQLite sizes each sort's memory by the
- * cache, and the grouped statements sort every new attempt, so a big cache there meant a big peak (341 MB for
- * a million rows; 244–249 MB with this, in about the same time).
- */
-const SUMMARY_CACHE_KIB = 16 * 1024;
 
 /** Only the last part of a name, so a file name can never act as a path. */
 export function safeFileName(name: string): string {
@@ -224,7 +218,7 @@ export async function importFile(db: Db, options: ImportFileOptions): Promise<Im
         JSON.stringify(summary.warnings),
         batchId,
       );
-    sqlite.pragma(`cache_size = ${-SUMMARY_CACHE_KIB}`);
+    importer?.beforeCommit?.();
     addPendingAttempts(sqlite);
     sqlite.exec("COMMIT");
     return summary;
