@@ -92,7 +92,6 @@ export class AttemptStore {
 
   /** Writes the staged new attempts and adds them to the summaries; once the file is accepted. */
   writeStaged() {
-    this.store.flush();
     const staged = this.store.stagedTable;
     if (staged === null) return;
     addAttemptsFrom(this.run.sqlite, staged, () => this.store.writeStaged());

@@ -121,8 +121,7 @@ export class RowStore {
           done("inserted", "");
           continue;
         }
-        const existing = this.select.get(key) as unknown[];
-        const outcome = existing[this.batchIndex] === this.options.batchId || !this.seen.add(key) ? "duplicate" : this.compareAndUpdate(key, existing, values);
+        const outcome = this.writeOverStored(key, values);
         done(outcome, outcome === "refused" ? this.refusal : "");
       }
     }
@@ -157,28 +156,34 @@ export class RowStore {
     }
     for (const { values, done } of pending) {
       const key = values[0] as string;
-      let outcome: WriteOutcome;
-      if (!stored.has(key)) outcome = staging.stageOne(values) ? "inserted" : "duplicate";
-      else {
-        const existing = this.select.get(key) as unknown[];
-        outcome = existing[this.batchIndex] === this.options.batchId || !this.seen.add(key) ? "duplicate" : this.compareAndUpdate(key, existing, values);
+      if (!stored.has(key)) {
+        done(staging.stageOne(values) ? "inserted" : "duplicate", "");
+        continue;
       }
+      const outcome = this.writeOverStored(key, values);
       done(outcome, outcome === "refused" ? this.refusal : "");
     }
   }
 
   write(values: unknown[]): WriteOutcome {
     const key = values[0] as string;
-    const { write, batchId } = this.options;
-    if (write) {
+    if (this.options.write) {
       if (this.insert.run(values).changes === 1) return "inserted";
-      const existing = this.select.get(key) as unknown[];
-      if (existing[this.batchIndex] === batchId || !this.seen.add(key)) return "duplicate";
-      return this.compareAndUpdate(key, existing, values);
+      return this.writeOverStored(key, values);
     }
     if (!this.seen.add(key)) return "duplicate";
     const existing = this.select.get(key) as unknown[] | undefined;
     if (existing === undefined) return "inserted";
+    return this.compareAndUpdate(key, existing, values);
+  }
+
+  /**
+   * A row whose key the table holds: a duplicate when this file already wrote or met it (the batch id, or the
+   * keys seen), else compared with the stored row and updated when it differs.
+   */
+  private writeOverStored(key: string, values: unknown[]): WriteOutcome {
+    const existing = this.select.get(key) as unknown[];
+    if (existing[this.batchIndex] === this.options.batchId || !this.seen.add(key)) return "duplicate";
     return this.compareAndUpdate(key, existing, values);
   }
 
